@@ -16,6 +16,7 @@ export default defineConfig({
         test: {
           name: 'api',
           include: ['tests/api/**/*.test.ts'],
+          globalSetup: ['tests/api/global-setup.ts'],
           environment: 'node',
           testTimeout: 60_000,
           hookTimeout: 240_000,

@@ -1,0 +1,43 @@
+import { fileURLToPath } from 'node:url'
+
+// Brinkwater keeps the classic top-level layout (no app/ folder): srcDir is the repository root.
+export default defineNuxtConfig({
+  compatibilityDate: '2026-11-01',
+  srcDir: '.',
+  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', '@nuxtjs/i18n', 'nuxt-auth-utils'],
+  tailwindcss: { cssPath: '~/assets/css/main.css' },
+  devtools: { enabled: false },
+  telemetry: false,
+
+  app: {
+    head: {
+      titleTemplate: '%s · Brinkwater',
+      meta: [{ name: 'viewport', content: 'width=device-width, initial-scale=1' }],
+      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
+    },
+  },
+
+  i18n: {
+    restructureDir: '.',
+    langDir: 'locales',
+    defaultLocale: 'en',
+    strategy: 'no_prefix',
+    locales: [
+      { code: 'en', language: 'en-GB', name: 'English', file: 'en.json' },
+      { code: 'es', language: 'es-ES', name: 'Español', file: 'es.json' },
+    ],
+    detectBrowserLanguage: { useCookie: true, cookieKey: 'brinkwater_locale', redirectOn: 'root' },
+  },
+
+  runtimeConfig: {
+    // Overridden by NUXT_SESSION_PASSWORD; nuxt-auth-utils writes one to .env in development.
+    session: { name: 'brinkwater-session', maxAge: 60 * 60 * 12 },
+  },
+
+  nitro: {
+    // Migrations are read at run time by the built server, so they travel as server assets.
+    serverAssets: [{ baseName: 'migrations', dir: fileURLToPath(new URL('./server/db/migrations', import.meta.url)) }],
+  },
+
+  typescript: { strict: true },
+})

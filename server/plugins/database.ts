@@ -1,0 +1,10 @@
+// Open, migrate and (on an empty database) seed at start, so the first request does not wait.
+export default defineNitroPlugin((nitroApp) => {
+  useDbHandle().catch((error) => {
+    console.error('[brinkwater] The database could not be opened:', error instanceof Error ? error.message : error)
+    process.exitCode = 1
+  })
+  nitroApp.hooks.hook('close', async () => {
+    await (await useDbHandle()).close()
+  })
+})

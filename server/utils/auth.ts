@@ -1,0 +1,65 @@
+import type { H3Event } from 'h3'
+import { eq } from 'drizzle-orm'
+import { organisations, users } from '~~/server/db/schema'
+import type { Role } from '#shared/types/roles'
+import type { SessionUser } from '#shared/types/user'
+
+export type CurrentUser = SessionUser
+
+/**
+ * Who is asking, re-read from the database on every call: a user disabled or given another
+ * role a moment ago is treated as they are now, not as their session cookie remembers.
+ */
+export async function requireUser(event: H3Event): Promise<CurrentUser> {
+  const session = await getUserSession(event)
+  const id = session.user?.id
+  if (!id) throw createError({ statusCode: 401, message: 'Sign in to continue.' })
+  const user = await loadSessionUser(id)
+  if (!user) {
+    await clearUserSession(event)
+    throw createError({ statusCode: 401, message: 'Your account is no longer active. Ask an administrator if this is unexpected.' })
+  }
+  event.context.user = user
+  return user
+}
+
+/** Signed in and holding one of the given roles; otherwise 403 naming what is needed. */
+export async function requireRole(event: H3Event, ...roles: Role[]): Promise<CurrentUser> {
+  const user = await requireUser(event)
+  if (!roles.includes(user.role)) {
+    throw createError({ statusCode: 403, message: `This needs the ${roles.join(' or ')} role.` })
+  }
+  return user
+}
+
+export const requireAdmin = (event: H3Event) => requireRole(event, 'admin')
+
+/**
+ * Organisation scoping: a record of another organisation answers 404, exactly like a missing
+ * one, so ids of other organisations' records do not leak.
+ */
+export function assertSameOrganisation(user: CurrentUser, organisationId: string | null | undefined, what = 'record') {
+  if (!organisationId || organisationId !== user.organisationId) {
+    throw createError({ statusCode: 404, message: `No such ${what}.` })
+  }
+}
+
+export async function loadSessionUser(id: string): Promise<CurrentUser | undefined> {
+  const db = await useDb()
+  const [row] = await db.select({
+    id: users.id,
+    email: users.email,
+    name: users.name,
+    role: users.role,
+    locale: users.locale,
+    disabled: users.disabled,
+    organisationId: users.organisationId,
+    organisationName: organisations.name,
+    organisationIllustrative: organisations.illustrative,
+  }).from(users)
+    .innerJoin(organisations, eq(organisations.id, users.organisationId))
+    .where(eq(users.id, id))
+  if (!row || row.disabled) return undefined
+  const { disabled: _disabled, ...user } = row
+  return { ...user, locale: user.locale === 'es' ? 'es' : 'en' }
+}

@@ -1,0 +1,9 @@
+// Roles and organisation kinds are shared by the schema, the guards and the UI.
+export const ROLES = ['admin', 'analyst', 'planner', 'reader'] as const
+export type Role = typeof ROLES[number]
+
+export const ORGANISATION_KINDS = ['council', 'port', 'science', 'consultancy', 'other'] as const
+export type OrganisationKind = typeof ORGANISATION_KINDS[number]
+
+export const LOCALES = ['en', 'es'] as const
+export type LocaleCode = typeof LOCALES[number]

@@ -1,0 +1,45 @@
+// A tiny API client with one cookie jar per signed-in person.
+export interface ApiResponse<T = any> {
+  status: number
+  body: T
+  headers: Headers
+}
+
+export class ApiClient {
+  private cookies = new Map<string, string>()
+
+  constructor(readonly baseUrl: string) {}
+
+  async request<T = any>(method: string, path: string, body?: unknown, init: { rawBody?: string, headers?: Record<string, string> } = {}): Promise<ApiResponse<T>> {
+    const headers: Record<string, string> = { accept: 'application/json', ...init.headers }
+    if (this.cookies.size) headers.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ')
+    let payload: string | undefined = init.rawBody
+    if (body !== undefined) {
+      payload = JSON.stringify(body)
+    }
+    if (payload !== undefined) headers['content-type'] ??= 'application/json'
+    const response = await fetch(this.baseUrl + path, { method, headers, body: payload, redirect: 'manual' })
+    for (const line of response.headers.getSetCookie()) {
+      const [pair] = line.split(';')
+      const [name, ...value] = pair!.split('=')
+      this.cookies.set(name!.trim(), value.join('='))
+    }
+    const text = await response.text()
+    let parsed: unknown = text
+    try {
+      parsed = text ? JSON.parse(text) : undefined
+    }
+    catch { /* not JSON: keep the text */ }
+    return { status: response.status, body: parsed as T, headers: response.headers }
+  }
+
+  get<T = any>(path: string) { return this.request<T>('GET', path) }
+  post<T = any>(path: string, body?: unknown) { return this.request<T>('POST', path, body) }
+  patch<T = any>(path: string, body?: unknown) { return this.request<T>('PATCH', path, body) }
+
+  async signIn(email: string, password: string) {
+    const response = await this.post('/api/auth/sign-in', { email, password })
+    if (response.status !== 200) throw new Error(`Sign-in as ${email} failed: ${response.status} ${JSON.stringify(response.body)}`)
+    return response.body.user
+  }
+}
