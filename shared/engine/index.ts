@@ -1,0 +1,45 @@
+// Public API of the outlook engine. Browser-safe: nothing here imports Node, Nuxt or Vue.
+
+export { EngineInputError, type EngineInputIssue } from './errors'
+export {
+  outlookInputSchema,
+  DEFAULT_TOLERANCES,
+  DEFAULT_RETURN_PERIODS,
+  MAX_SAMPLES,
+  type OutlookInput,
+  type ParsedOutlookInput,
+  type ReleaseInput,
+  type ComponentInput,
+  type LandMotionInput,
+  type ThresholdInput,
+  type GumbelInput,
+} from './schema'
+export { validateOutlookInput, expandHeightRange, type ValidatedOutlookInput } from './validate'
+export { planOutlook, BLOCK_SIZE } from './plan'
+export { runBlocks } from './run'
+export { mergePartials } from './merge'
+export { finishOutlook, PERCENTILE_LEVELS } from './finish'
+export { runOutlook } from './outlook'
+export type {
+  OutlookPlan,
+  OutlookPartial,
+  OutlookResult,
+  YearOutlook,
+  YearGumbel,
+  ThresholdOutlook,
+  Estimate,
+  PercentileEstimate,
+} from './types'
+export { LAND_MOTION_KEY } from './types'
+export {
+  gumbelCdf,
+  gumbelReturnLevel,
+  gumbelFromMoments,
+  fitGumbelByMoments,
+  fitGumbelByLMoments,
+  chanceOfAtLeastOne,
+  type GumbelParameters,
+} from './gumbel'
+export { likelihoodWord, LIKELIHOOD_BANDS, type LikelihoodKey } from './likelihood'
+export { gigatonnesToMetres, metresToGigatonnes, GIGATONNES_PER_MILLIMETRE } from './units'
+export { standardNormalQuantile, standardNormalCdf } from './normal'

@@ -1,0 +1,33 @@
+import type { OutlookPartial, OutlookPlan } from './types'
+import { emptyPartial } from './run'
+
+/**
+ * Combines partials of consecutive block runs (any order, any split). Counts add exactly; per-block sums
+ * are laid out by block index, so later totals are summed in block order whatever the split was.
+ */
+export function mergePartials(plan: OutlookPlan, partials: OutlookPartial[]): OutlookPartial {
+  if (!partials.length) throw new RangeError('nothing to merge: pass at least one partial')
+  const ordered = [...partials].sort((a, b) => a.firstBlock - b.firstBlock)
+  for (let i = 1; i < ordered.length; i++) {
+    const previous = ordered[i - 1]!
+    if (previous.firstBlock + previous.blockCount !== ordered[i]!.firstBlock) {
+      throw new RangeError(
+        `partials must cover consecutive blocks: one ends at block ${previous.firstBlock + previous.blockCount - 1}, the next starts at ${ordered[i]!.firstBlock}`,
+      )
+    }
+  }
+  const first = ordered[0]!.firstBlock
+  const blockCount = ordered.reduce((sum, partial) => sum + partial.blockCount, 0)
+  const merged = emptyPartial(plan, first, blockCount)
+  for (const partial of ordered) {
+    merged.samples += partial.samples
+    for (let i = 0; i < merged.cellCounts.length; i++) merged.cellCounts[i]! += partial.cellCounts[i]!
+    for (let i = 0; i < merged.histogram.length; i++) merged.histogram[i]! += partial.histogram[i]!
+    for (let t = 0; t < merged.minimum.length; t++) {
+      if (partial.minimum[t]! < merged.minimum[t]!) merged.minimum[t] = partial.minimum[t]!
+      if (partial.maximum[t]! > merged.maximum[t]!) merged.maximum[t] = partial.maximum[t]!
+    }
+    merged.blockSums.set(partial.blockSums, (partial.firstBlock - first) * plan.sumsPerBlock)
+  }
+  return merged
+}

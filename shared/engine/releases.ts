@@ -1,0 +1,126 @@
+import { standardNormalQuantile } from './normal'
+import type { ParsedRelease } from './schema'
+import { relativeAnchorWeights } from './timeline'
+import { COMPONENT_KIND_DRAWS, COMPONENT_KIND_LOGNORMAL, COMPONENT_KIND_PIECEWISE, type ComponentKind } from './types'
+
+// Release forms → tables that turn a score into a component's rise per output year (already scaled
+// and relative to the outlook's baseline year).
+//
+// normal and quantiles are piecewise linear in the score, so each piece is an intercept and a slope per
+// year: interpolating the levels in time is the same as interpolating the lines, because every anchor
+// year shares the same probability levels. A normal is one piece (μ + σz). Quantile tables are linear
+// in probit space between (Φ⁻¹(pₖ), xₖ) and keep the outermost slopes beyond the outer levels, which
+// reproduces a normal exactly when the table comes from one.
+
+export interface ComponentTable {
+  kind: ComponentKind
+  /** Scores at which the piece (or the ranked draw) changes, ascending. */
+  breakpoints: number[]
+  /** Piecewise: per piece, intercept and slope per year. Draws: per ranked draw, rise per year. */
+  rows: Float64Array[]
+  slopes: Float64Array[]
+  /** Lognormal: per anchor shift, mu, sigma and per-anchor weights per year. */
+  lognormal: { shift: number[]; mu: number[]; sigma: number[]; weights: Float64Array[] } | null
+}
+
+/** Lines (intercept, slope) in the score per anchor and piece: lines[a][s]. */
+function anchorLines(release: ParsedRelease): { breakpoints: number[]; lines: Array<Array<[number, number]>> } {
+  if (release.form === 'normal') {
+    return { breakpoints: [], lines: release.mean.map((mean, a) => [[mean, release.sd[a]!]]) }
+  }
+  if (release.form !== 'quantiles') throw new Error(`no piecewise lines for form ${release.form}`)
+  const scores = release.levels.map(standardNormalQuantile)
+  const lines = release.values.map((row) => {
+    const pieces: Array<[number, number]> = []
+    for (let s = 0; s + 1 < row.length; s++) {
+      const slope = (row[s + 1]! - row[s]!) / (scores[s + 1]! - scores[s]!)
+      pieces.push([row[s]! - slope * scores[s]!, slope])
+    }
+    return pieces
+  })
+  return { breakpoints: scores.slice(1, -1), lines }
+}
+
+export function buildComponentTable(
+  release: ParsedRelease,
+  scale: number,
+  outlookBaselineYear: number,
+  years: number[],
+): ComponentTable {
+  const weights = relativeAnchorWeights(release.baselineYear, release.anchorYears, outlookBaselineYear, years)
+  const yearCount = years.length
+  const anchorCount = release.anchorYears.length
+
+  if (release.form === 'normal' || release.form === 'quantiles') {
+    const { breakpoints, lines } = anchorLines(release)
+    const pieceCount = lines[0]!.length
+    const rows: Float64Array[] = []
+    const slopes: Float64Array[] = []
+    for (let s = 0; s < pieceCount; s++) {
+      const intercept = new Float64Array(yearCount)
+      const slope = new Float64Array(yearCount)
+      for (let t = 0; t < yearCount; t++) {
+        let a0 = 0
+        let a1 = 0
+        for (let a = 0; a < anchorCount; a++) {
+          a0 += weights[t]![a]! * lines[a]![s]![0]
+          a1 += weights[t]![a]! * lines[a]![s]![1]
+        }
+        intercept[t] = scale * a0
+        slope[t] = scale * a1
+      }
+      rows.push(intercept)
+      slopes.push(slope)
+    }
+    return { kind: COMPONENT_KIND_PIECEWISE, breakpoints, rows, slopes, lognormal: null }
+  }
+
+  if (release.form === 'lognormal') {
+    const scaled = weights.map((row) => row.map((w) => scale * w))
+    return {
+      kind: COMPONENT_KIND_LOGNORMAL,
+      breakpoints: [],
+      rows: [],
+      slopes: [],
+      lognormal: { shift: release.shift, mu: release.mu, sigma: release.sigma, weights: scaled },
+    }
+  }
+
+  // Draws are ranked by their last anchor value (ties keep upload order) and picked at rank ⌊Φ(z)·n⌋,
+  // i.e. the number of breakpoints Φ⁻¹(j/n), j = 1…n−1, at or below the score.
+  const draws = release.draws
+    .map((draw, index) => ({ draw, index }))
+    .sort((a, b) => a.draw[anchorCount - 1]! - b.draw[anchorCount - 1]! || a.index - b.index)
+  const rows = draws.map(({ draw }) => {
+    const rise = new Float64Array(yearCount)
+    for (let t = 0; t < yearCount; t++) {
+      let sum = 0
+      for (let a = 0; a < anchorCount; a++) sum += weights[t]![a]! * draw[a]!
+      rise[t] = scale * sum
+    }
+    return rise
+  })
+  const n = rows.length
+  const breakpoints: number[] = []
+  for (let j = 1; j < n; j++) breakpoints.push(standardNormalQuantile(j / n))
+  return { kind: COMPONENT_KIND_DRAWS, breakpoints, rows, slopes: [], lognormal: null }
+}
+
+/** Rise of one component in every output year for score `z` (outside the sample loop). */
+export function componentRiseAt(table: ComponentTable, z: number, yearCount: number): Float64Array {
+  const out = new Float64Array(yearCount)
+  if (table.kind === COMPONENT_KIND_LOGNORMAL) {
+    const { shift, mu, sigma, weights } = table.lognormal!
+    for (let a = 0; a < shift.length; a++) {
+      const x = shift[a]! + Math.exp(mu[a]! + sigma[a]! * z)
+      for (let t = 0; t < yearCount; t++) out[t]! += weights[t]![a]! * x
+    }
+    return out
+  }
+  let row = 0
+  while (row < table.breakpoints.length && z >= table.breakpoints[row]!) row++
+  for (let t = 0; t < yearCount; t++) {
+    out[t] = table.kind === COMPONENT_KIND_PIECEWISE ? table.rows[row]![t]! + table.slopes[row]![t]! * z : table.rows[row]![t]!
+  }
+  return out
+}

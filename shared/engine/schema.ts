@@ -1,0 +1,126 @@
+import { z } from 'zod'
+import { MAX_SEED } from './rng'
+
+// Shapes and per-field rules of an outlook request. Rules that relate fields to each other (anchor
+// years against output years, matrix properties) live in validate.ts, where the messages can name
+// both sides.
+
+export const MAX_SAMPLES = 2_000_000
+export const DEFAULT_TOLERANCES = [0.01, 0.05, 0.1, 0.33, 0.5] as const
+export const DEFAULT_RETURN_PERIODS = [10, 50, 100] as const
+
+const year = z.number().int('must be a whole year').min(1000, 'must be a year from 1000').max(9999, 'must be a year before 10000')
+// Bounds keep every product and sum in the engine finite; no real rise, rate or scale comes near them.
+const MAX_METRES = 1000
+const finite = z.number().min(-MAX_METRES, `must be at least -${MAX_METRES}`).max(MAX_METRES, `must be at most ${MAX_METRES}`)
+const nonNegative = z.number().min(0, 'must be zero or more').max(MAX_METRES, `must be at most ${MAX_METRES}`)
+export const MAX_DRAWS = 200_000
+export const MAX_HEIGHTS = 10_000
+const perAnchor = (what: string, item: z.ZodNumber = finite) =>
+  z.array(item).min(1, `needs one ${what} per anchor year`)
+
+const releaseBase = {
+  baselineYear: year.describe('year at which this release gives zero rise'),
+  anchorYears: z.array(year).min(1, 'needs at least one anchor year'),
+}
+
+export const normalReleaseSchema = z.object({
+  form: z.literal('normal'),
+  ...releaseBase,
+  mean: perAnchor('mean'),
+  sd: perAnchor('standard deviation', nonNegative),
+})
+
+export const lognormalReleaseSchema = z.object({
+  form: z.literal('lognormal'),
+  ...releaseBase,
+  shift: perAnchor('shift'),
+  mu: perAnchor('mu', z.number().min(-50, 'must be at least -50').max(20, 'must be at most 20 (e^20 m is no sea level)')),
+  sigma: perAnchor('sigma', z.number().min(0, 'must be zero or more').max(3, 'must be at most 3')),
+})
+
+export const quantileReleaseSchema = z.object({
+  form: z.literal('quantiles'),
+  ...releaseBase,
+  levels: z.array(z.number()).min(3, 'needs at least 3 probability levels').max(999, 'must have at most 999 levels'),
+  values: z.array(z.array(finite)).min(1, 'needs one row of values per anchor year'),
+})
+
+export const samplesReleaseSchema = z.object({
+  form: z.literal('samples'),
+  ...releaseBase,
+  draws: z
+    .array(z.array(finite))
+    .min(1, 'needs at least one draw (one row per draw, one value per anchor year)')
+    .max(MAX_DRAWS, `must have at most ${MAX_DRAWS} draws`),
+})
+
+export const releaseSchema = z.discriminatedUnion('form', [
+  normalReleaseSchema,
+  lognormalReleaseSchema,
+  quantileReleaseSchema,
+  samplesReleaseSchema,
+])
+
+export const componentSchema = z.object({
+  key: z.string().min(1, 'must be a non-empty component key'),
+  scale: z.number().min(-100, 'must be at least -100').max(100, 'must be at most 100').default(1),
+  release: releaseSchema,
+})
+
+export const landMotionSchema = z.object({
+  rateMmPerYear: finite,
+  sigmaMmPerYear: nonNegative.default(0),
+  epoch: year,
+})
+
+export const heightRangeSchema = z.object({
+  from: finite,
+  to: finite,
+  step: z.number().positive('must be a positive step in metres'),
+})
+
+export const thresholdSchema = z.object({
+  key: z.string().min(1).optional(),
+  height: finite,
+  designLifeYears: z.number().int('must be a whole number of years').positive('must be at least 1 year').optional(),
+})
+
+export const gumbelSchema = z.object({
+  location: finite,
+  scale: z.number().positive('must be a positive Gumbel scale in metres'),
+  returnPeriods: z
+    .array(z.number().gt(1, 'must be a return period above 1 year'))
+    .default([...DEFAULT_RETURN_PERIODS]),
+})
+
+export const outlookInputSchema = z.object({
+  baselineYear: year,
+  years: z.array(year).min(1, 'needs at least one output year'),
+  samples: z
+    .number()
+    .int('must be a whole number of samples')
+    .min(1, 'must be at least 1')
+    .max(MAX_SAMPLES, `must be at most ${MAX_SAMPLES.toLocaleString('en')}`),
+  seed: z.number().int('must be a whole number').min(0, 'must be zero or more').max(MAX_SEED, 'must be a safe integer'),
+  components: z.array(componentSchema).min(1, 'needs at least one component'),
+  correlation: z.array(z.array(finite)).optional(),
+  landMotion: landMotionSchema.optional(),
+  heights: z.union([z.array(finite).min(1, 'needs at least one height'), heightRangeSchema]),
+  thresholds: z.array(thresholdSchema).default([]),
+  tolerances: z
+    .array(z.number().gt(0, 'must be above 0').lt(1, 'must be below 1'))
+    .default([...DEFAULT_TOLERANCES]),
+  gumbel: gumbelSchema.optional(),
+})
+
+/** What a caller passes (defaults may be omitted). */
+export type OutlookInput = z.input<typeof outlookInputSchema>
+/** The same after defaults are filled in. */
+export type ParsedOutlookInput = z.output<typeof outlookInputSchema>
+export type ReleaseInput = z.input<typeof releaseSchema>
+export type ParsedRelease = z.output<typeof releaseSchema>
+export type ComponentInput = z.input<typeof componentSchema>
+export type LandMotionInput = z.input<typeof landMotionSchema>
+export type ThresholdInput = z.input<typeof thresholdSchema>
+export type GumbelInput = z.input<typeof gumbelSchema>

@@ -1,0 +1,190 @@
+// Shapes shared by the planning, sampling and summary steps. A plan and a partial hold only numbers,
+// strings and typed arrays, so both cross a worker boundary by structured clone (partials' buffers
+// can be transferred).
+
+export const COMPONENT_KIND_PIECEWISE = 0
+export const COMPONENT_KIND_LOGNORMAL = 1
+export const COMPONENT_KIND_DRAWS = 2
+export type ComponentKind = typeof COMPONENT_KIND_PIECEWISE | typeof COMPONENT_KIND_LOGNORMAL | typeof COMPONENT_KIND_DRAWS
+
+export const LAND_MOTION_KEY = 'land-motion'
+
+export interface ThresholdPlan {
+  key: string
+  height: number
+  designLifeYears: number | null
+  /** Index of this height in `cuts`. */
+  cutIndex: number
+  /** Index into `lifeSpans` (null without design life or without Gumbel statistics). */
+  lifeSpanIndex: number | null
+  /** Offset of this threshold's life sum after `sumLayout.lifeNoExceedance` (null when none). */
+  lifeSumIndex: number | null
+}
+
+/**
+ * Everything a sampling thread needs, precomputed from a validated input. Rise tables already carry
+ * the component's scale factor and are expressed relative to the outlook's baseline year.
+ */
+export interface OutlookPlan {
+  samples: number
+  seed: number
+  blockSize: number
+  blockCount: number
+  baselineYear: number
+  years: number[]
+  heights: number[]
+  componentKeys: string[]
+  /** Parts = components then land motion; variance shares are reported per part. */
+  partKeys: string[]
+
+  /** Row-major lower-triangular Cholesky factor of the score correlation. */
+  cholesky: Float64Array
+  choleskyIsIdentity: boolean
+
+  kinds: Int32Array
+  /** Per component: first breakpoint in `breakpoints`, and how many. */
+  breakpointStart: Int32Array
+  breakpointCount: Int32Array
+  breakpoints: Float64Array
+  /** Per component: first row (piece, draw or anchor) in its table. */
+  rowStart: Int32Array
+  /** Piecewise forms: rise = pieceIntercept[row·Y + t] + pieceSlope[row·Y + t] · score. */
+  pieceIntercept: Float64Array
+  pieceSlope: Float64Array
+  /** Sample-draw forms: rise of ranked draw `row` in year t at drawRise[row·Y + t]. */
+  drawRise: Float64Array
+  /** Lognormal forms: per anchor shift, mu, sigma; rise(t) = Σ_a anchorWeight[(row+a)·Y + t]·x_a. */
+  anchorCount: Int32Array
+  lognormalShift: Float64Array
+  lognormalMu: Float64Array
+  lognormalSigma: Float64Array
+  anchorWeight: Float64Array
+
+  /** Land motion rise: landIntercept[t] + landSlope[t] · score. */
+  landIntercept: Float64Array
+  landSlope: Float64Array
+
+  /** Rise when every score is zero: the reference point of float sums, so they stay well conditioned. */
+  center: Float64Array
+
+  /** Sorted distinct exceedance heights: the height grid and the thresholds. */
+  cuts: Float64Array
+  heightCutIndex: Int32Array
+  cutBucketStart: Int32Array
+  cutBucketOrigin: number
+  cutBucketInverseWidth: number
+
+  /** Percentile histograms: per year [underflow, bins…, overflow] from histogramOffset[t]. */
+  histogramResolution: number
+  histogramLow: Float64Array
+  histogramBins: Int32Array
+  histogramOffset: Int32Array
+  histogramSize: number
+
+  thresholds: ThresholdPlan[]
+  tolerances: number[]
+
+  gumbel: { location: number; scale: number; returnPeriods: number[] } | null
+  /** Distinct design lives (years), each a run of annual steps after the baseline year. */
+  lifeSpans: number[]
+  /** Sums per block, in this order: see `sumLayout`. */
+  sumsPerBlock: number
+  sumLayout: SumLayout
+}
+
+export interface SumLayout {
+  /** Per year: Σ(rise − center), Σ(rise − center)². */
+  moments: number
+  /** Per year and part: Σ part. */
+  partSum: number
+  /** Per year and part: Σ part·(rise − center). */
+  partCross: number
+  /** Per year: Σ exp((rise − center)/λ). */
+  gumbelExp: number
+  /** Per year and return period: Σ annual chance of exceeding today's T-year level. */
+  returnChance: number
+  /** Per threshold with a design life: Σ chance of no exceedance during the life. */
+  lifeNoExceedance: number
+}
+
+/** Mergeable statistics of a run of consecutive blocks. */
+export interface OutlookPartial {
+  firstBlock: number
+  blockCount: number
+  samples: number
+  /** Per year, (cuts + 1) cells: how many samples have exactly k cuts strictly below their rise. */
+  cellCounts: Uint32Array
+  histogram: Uint32Array
+  /** Per year, smallest and largest rise seen (exact under any merge order). */
+  minimum: Float64Array
+  maximum: Float64Array
+  /** blockCount × plan.sumsPerBlock, in block order. */
+  blockSums: Float64Array
+}
+
+export interface Estimate {
+  value: number
+  /** Monte Carlo standard error. */
+  se: number
+}
+
+export interface PercentileEstimate extends Estimate {
+  level: number
+}
+
+export interface YearOutlook {
+  year: number
+  mean: Estimate
+  sd: number
+  percentiles: PercentileEstimate[]
+  /** P(rise > height) for each grid height, same order as `heights`. */
+  exceedance: Estimate[]
+  /** Cov(part, total)/Var(total) by part key; null where the rise has no spread (the baseline year). */
+  varianceShare: Record<string, number> | null
+  gumbel: YearGumbel | null
+}
+
+export interface YearGumbel {
+  /** λ·ln mean(exp(rise/λ)), metres. */
+  allowance: number
+  /** mean(exp(rise/λ)): how many times more often any high level is reached. */
+  amplification: number
+  returnPeriods: Array<{
+    /** Today's return period T, years. */
+    today: number
+    /** Today's T-year level, metres above the reference level. */
+    level: number
+    /** 1 / (mean annual chance of exceeding that level), years. */
+    newReturnPeriod: number
+    annualChance: Estimate
+  }>
+}
+
+export interface ThresholdOutlook {
+  key: string
+  height: number
+  designLifeYears: number | null
+  /** P(rise > height) per output year. */
+  byYear: Estimate[]
+  /** First output year whose P reaches each tolerance; null = not within the horizon. */
+  triggerYears: Array<{ tolerance: number; year: number | null }>
+  /** Chance of at least one exceedance of the height by the total water level during the design life. */
+  lifeExceedance: Estimate | null
+}
+
+export interface OutlookResult {
+  samples: number
+  seed: number
+  blockSize: number
+  baselineYear: number
+  years: number[]
+  heights: number[]
+  percentileLevels: number[]
+  /** Width of the histogram bins percentiles are read from, metres. */
+  percentileResolution: number
+  partKeys: string[]
+  byYear: YearOutlook[]
+  thresholds: ThresholdOutlook[]
+  tolerances: number[]
+  gumbel: { location: number; scale: number } | null
+}

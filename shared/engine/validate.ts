@@ -1,0 +1,208 @@
+import { choleskySemiDefinite, correlationShapeIssues } from './correlation'
+import { EngineInputError, formatPath, type EngineInputIssue } from './errors'
+import { MAX_HEIGHTS, outlookInputSchema, type ParsedOutlookInput, type ParsedRelease } from './schema'
+import { LAND_MOTION_KEY } from './types'
+
+/** A checked input with the height grid spelled out and the correlation factorised. */
+export interface ValidatedOutlookInput extends Omit<ParsedOutlookInput, 'heights'> {
+  heights: number[]
+  choleskyFactor: Float64Array | null
+}
+
+const HEIGHT_DECIMALS = 1e9
+
+/** Grid heights from a range; rounded so 0.05·3 reads 0.15, not 0.15000000000000002. */
+export function expandHeightRange(range: { from: number; to: number; step: number }): number[] {
+  const count = Math.floor((range.to - range.from) / range.step + 1e-9) + 1
+  const heights: number[] = []
+  for (let i = 0; i < count && i <= MAX_HEIGHTS; i++) {
+    heights.push(Math.round((range.from + i * range.step) * HEIGHT_DECIMALS) / HEIGHT_DECIMALS)
+  }
+  return heights
+}
+
+function checkStrictlyIncreasing(values: number[], path: string, what: string, issues: EngineInputIssue[]): void {
+  for (let i = 1; i < values.length; i++) {
+    if (!(values[i]! > values[i - 1]!)) {
+      issues.push({ path, message: `${what} must be strictly increasing: ${values[i]} follows ${values[i - 1]}` })
+      return
+    }
+  }
+}
+
+function checkRelease(
+  release: ParsedRelease,
+  path: string,
+  label: string,
+  input: ParsedOutlookInput,
+  issues: EngineInputIssue[],
+): void {
+  const anchors = release.anchorYears
+  checkStrictlyIncreasing(anchors, `${path}.anchorYears`, 'anchor years', issues)
+  if (anchors[0]! <= release.baselineYear) {
+    issues.push({
+      path: `${path}.anchorYears`,
+      message: `first anchor year ${anchors[0]} must come after the release's baseline year ${release.baselineYear} (rise is zero there)`,
+    })
+  }
+  if (release.baselineYear > input.baselineYear) {
+    issues.push({
+      path: `${path}.baselineYear`,
+      message: `${label}: the release starts at ${release.baselineYear}, after the outlook's baseline year ${input.baselineYear}; use an outlook baseline on or after the release's`,
+    })
+  }
+  const lastAnchor = anchors[anchors.length - 1]!
+  const lastYear = input.years[input.years.length - 1]!
+  if (lastYear > lastAnchor) {
+    issues.push({
+      path: 'years',
+      message: `${label}: year ${lastYear} is past the release's last anchor year ${lastAnchor}; releases are never extrapolated — end the outlook by ${lastAnchor} or use a release that reaches ${lastYear}`,
+    })
+  }
+  const perAnchor = (values: unknown[], field: string) => {
+    if (values.length !== anchors.length) {
+      issues.push({
+        path: `${path}.${field}`,
+        message: `needs one entry per anchor year (${anchors.length}), got ${values.length}`,
+      })
+    }
+  }
+  switch (release.form) {
+    case 'normal':
+      perAnchor(release.mean, 'mean')
+      perAnchor(release.sd, 'sd')
+      break
+    case 'lognormal':
+      perAnchor(release.shift, 'shift')
+      perAnchor(release.mu, 'mu')
+      perAnchor(release.sigma, 'sigma')
+      break
+    case 'quantiles': {
+      const levels = release.levels
+      const outside = levels.find((level) => !(level > 0 && level < 1))
+      if (outside !== undefined) {
+        issues.push({ path: `${path}.levels`, message: `must be strictly increasing in (0,1): ${outside} is outside` })
+      } else {
+        for (let k = 1; k < levels.length; k++) {
+          if (!(levels[k]! > levels[k - 1]!)) {
+            issues.push({
+              path: `${path}.levels`,
+              message: `must be strictly increasing in (0,1): ${levels[k]} follows ${levels[k - 1]}`,
+            })
+            break
+          }
+        }
+      }
+      perAnchor(release.values, 'values')
+      release.values.forEach((row, a) => {
+        if (row.length !== levels.length) {
+          issues.push({
+            path: `${path}.values[${a}]`,
+            message: `needs one value per probability level (${levels.length}), got ${row.length}`,
+          })
+          return
+        }
+        for (let k = 1; k < row.length; k++) {
+          if (row[k]! < row[k - 1]!) {
+            issues.push({
+              path: `${path}.values[${a}]`,
+              message: `must be non-decreasing across levels: ${row[k]} (level ${levels[k]}) follows ${row[k - 1]} (level ${levels[k - 1]})`,
+            })
+            break
+          }
+        }
+      })
+      break
+    }
+    case 'samples':
+      release.draws.forEach((draw, d) => {
+        if (draw.length !== anchors.length) {
+          issues.push({
+            path: `${path}.draws[${d}]`,
+            message: `needs one value per anchor year (${anchors.length}), got ${draw.length}`,
+          })
+        }
+      })
+      break
+  }
+}
+
+/** Parses and checks an outlook request; throws EngineInputError listing every problem. */
+export function validateOutlookInput(raw: unknown): ValidatedOutlookInput {
+  const parsed = outlookInputSchema.safeParse(raw)
+  if (!parsed.success) {
+    throw new EngineInputError(
+      parsed.error.issues.map((issue) => ({ path: formatPath(issue.path), message: issue.message })),
+    )
+  }
+  const input = parsed.data
+  const issues: EngineInputIssue[] = []
+
+  checkStrictlyIncreasing(input.years, 'years', 'output years', issues)
+  if (input.years[0]! < input.baselineYear) {
+    issues.push({
+      path: 'years',
+      message: `year ${input.years[0]} is before the baseline year ${input.baselineYear}; outlooks look forward from the baseline`,
+    })
+  }
+
+  let heights: number[]
+  if (Array.isArray(input.heights)) {
+    heights = input.heights
+    checkStrictlyIncreasing(heights, 'heights', 'heights', issues)
+  } else {
+    const range = input.heights
+    if (range.to < range.from) issues.push({ path: 'heights.to', message: `must be at least heights.from (${range.from})` })
+    heights = expandHeightRange(range)
+  }
+  if (heights.length > MAX_HEIGHTS) {
+    issues.push({ path: 'heights', message: `must have at most ${MAX_HEIGHTS} heights; use a coarser step` })
+  }
+
+  const seen = new Set<string>()
+  input.components.forEach((component, c) => {
+    const label = `component ${c} (${component.key})`
+    if (component.key === LAND_MOTION_KEY) {
+      issues.push({ path: `components[${c}].key`, message: `"${LAND_MOTION_KEY}" is reserved for the site's land motion` })
+    } else if (seen.has(component.key)) {
+      issues.push({ path: `components[${c}].key`, message: `duplicate component key "${component.key}"; each component appears once` })
+    }
+    seen.add(component.key)
+    checkRelease(component.release, `components[${c}].release`, label, input, issues)
+  })
+
+  let choleskyFactor: Float64Array | null = null
+  if (input.correlation) {
+    const shapeIssues = correlationShapeIssues(input.correlation, input.components.length)
+    issues.push(...shapeIssues)
+    if (!shapeIssues.length) {
+      const result = choleskySemiDefinite(input.correlation)
+      if ('failsAtRow' in result) {
+        const key = input.components[result.failsAtRow]?.key ?? result.failsAtRow
+        issues.push({
+          path: 'correlation',
+          message: `not positive semi-definite (no set of scores can have these correlations; the check fails at row ${result.failsAtRow}, ${key}); weaken the conflicting correlations`,
+        })
+      } else {
+        choleskyFactor = result.factor
+      }
+    }
+  }
+
+  if (input.gumbel) {
+    const lastYear = input.years[input.years.length - 1]!
+    input.thresholds.forEach((threshold, i) => {
+      if (threshold.designLifeYears === undefined) return
+      const end = input.baselineYear + threshold.designLifeYears
+      if (end > lastYear) {
+        issues.push({
+          path: `thresholds[${i}].designLifeYears`,
+          message: `the design life ends in ${end}, after the last output year ${lastYear}; add output years up to ${end} or shorten the life`,
+        })
+      }
+    })
+  }
+
+  if (issues.length) throw new EngineInputError(issues)
+  return { ...input, heights, choleskyFactor }
+}

@@ -1,0 +1,72 @@
+import os from 'node:os'
+import { planOutlook, runBlocks, finishOutlook, type OutlookResult } from '../../shared/engine'
+import { OutlookPool } from './pool'
+import { loadWorkload } from './workload'
+
+// `npm run bench`: W1 at N = 100,000 and 1,000,000 on a warmed pool of worker threads (and, for
+// comparison, on one thread). Prints JSON.
+
+const RUNS = Number(process.env.BENCH_RUNS ?? 7)
+const WARM_UPS = 3
+const WORKERS = Number(process.env.BENCH_WORKERS ?? 2)
+const MAIN_SHARE = process.env.BENCH_MAIN_SHARE === '1'
+
+function summary(times: number[]) {
+  const sorted = [...times].sort((a, b) => a - b)
+  const middle = sorted.length >> 1
+  const median = sorted.length % 2 ? sorted[middle]! : (sorted[middle - 1]! + sorted[middle]!) / 2
+  return { medianMs: +median.toFixed(1), minMs: +sorted[0]!.toFixed(1), runs: sorted.length }
+}
+
+function headline(result: OutlookResult) {
+  const t = result.years.indexOf(2100)
+  const year = result.byYear[t]!
+  const metre = result.heights.findIndex((height) => Math.abs(height - 1) < 1e-9)
+  return {
+    percentiles2100: Object.fromEntries(year.percentiles.map((p) => [`p${Math.round(p.level * 100)}`, +p.value.toFixed(4)])),
+    mean2100: +year.mean.value.toFixed(4),
+    sd2100: +year.sd.toFixed(4),
+    exceed1m2100: { p: year.exceedance[metre]!.value, se: +year.exceedance[metre]!.se.toFixed(5) },
+  }
+}
+
+async function main() {
+  const pool = new OutlookPool(WORKERS, MAIN_SHARE)
+  const report: Record<string, unknown> = {
+    workload: 'tests/bench/workload-w1.json',
+    machine: { cpus: os.cpus().length, model: os.cpus()[0]?.model, node: process.version, loadAverage: os.loadavg().map((x) => +x.toFixed(2)) },
+    date: new Date().toISOString(),
+    pool: { workers: WORKERS, mainThreadShare: MAIN_SHARE },
+  }
+  for (const samples of [100_000, 1_000_000]) {
+    const plan = planOutlook(loadWorkload(samples))
+    await pool.load(plan)
+    for (let i = 0; i < WARM_UPS; i++) await pool.run(plan)
+    const pooled: number[] = []
+    let result: OutlookResult | null = null
+    for (let i = 0; i < RUNS; i++) {
+      const start = performance.now()
+      result = await pool.run(plan)
+      pooled.push(performance.now() - start)
+    }
+    const single: number[] = []
+    let singleResult: OutlookResult | null = null
+    for (let i = 0; i < Math.min(RUNS, 5); i++) {
+      const start = performance.now()
+      singleResult = finishOutlook(plan, runBlocks(plan, 0, plan.blockCount))
+      single.push(performance.now() - start)
+    }
+    report[`N=${samples}`] = {
+      pool: summary(pooled),
+      singleThread: summary(single),
+      identicalToSingleThread: JSON.stringify(result) === JSON.stringify(singleResult),
+      percentileResolutionM: result!.percentileResolution,
+      ...headline(result!),
+    }
+  }
+  report.peakRssMB = +(process.resourceUsage().maxRSS / 1024).toFixed(1)
+  await pool.close()
+  console.log(JSON.stringify(report, null, 2))
+}
+
+await main()
