@@ -14,8 +14,12 @@ export class OutlookPool {
 
   private request<T>(worker: Worker, message: unknown): Promise<T> {
     return new Promise((resolve, reject) => {
-      worker.once('message', resolve)
-      worker.once('error', reject)
+      const fail = (error: Error) => reject(error)
+      worker.once('error', fail)
+      worker.once('message', (reply: T) => {
+        worker.off('error', fail)
+        resolve(reply)
+      })
       worker.postMessage(message)
     })
   }
