@@ -30,7 +30,6 @@ export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): Outloo
     )
   }
   const n = plan.samples
-  const yearCount = plan.years.length
   const partCount = plan.partKeys.length
   const cellsPerYear = plan.cuts.length + 1
   const sums = totalSums(plan, merged)
