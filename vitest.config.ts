@@ -1,7 +1,7 @@
 import { defineConfig } from 'vitest/config'
 
 // Two layers run by `npm test`: plain-Node unit tests and API tests against the built server.
-// Browser tests (tests/e2e) run separately with `npm run test:e2e`.
+// Browser tests (the e2e project) run separately with `npm run test:e2e`, which checks for Chromium first.
 export default defineConfig({
   test: {
     projects: [
@@ -16,8 +16,19 @@ export default defineConfig({
         test: {
           name: 'api',
           include: ['tests/api/**/*.test.ts'],
-          globalSetup: ['tests/api/global-setup.ts'],
+          globalSetup: ['tests/support/build.ts'],
           environment: 'node',
+          testTimeout: 60_000,
+          hookTimeout: 240_000,
+          fileParallelism: false,
+        },
+      },
+      {
+        test: {
+          name: 'e2e',
+          include: ['tests/e2e/**/*.test.ts'],
+          environment: 'node',
+          globalSetup: ['tests/support/build.ts'],
           testTimeout: 60_000,
           hookTimeout: 240_000,
           fileParallelism: false,

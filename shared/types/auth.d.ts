@@ -1,7 +1,8 @@
-import type { SessionUser } from './shared/types/user'
+import type { SessionUser } from './user'
 
 // nuxt-auth-utils session shape: the cookie carries only a snapshot; guards re-read the database.
 declare module '#auth-utils' {
+  // eslint-disable-next-line @typescript-eslint/no-empty-object-type -- augmentation: the module's User becomes ours
   interface User extends SessionUser {}
 }
 

@@ -1,5 +1,5 @@
 import { execFileSync } from 'node:child_process'
-import { ROOT } from '../support/server'
+import { ROOT } from './server'
 
 // API tests run against the real built server. Build it first unless the caller has just
 // built it (CI sets BRINKWATER_SKIP_BUILD=1 after `npm run build`).
