@@ -15,6 +15,8 @@ export {
   type GumbelInput,
 } from './schema'
 export { validateOutlookInput, expandHeightRange, type ValidatedOutlookInput } from './validate'
+export { validateRelease, validateCorrelationMatrix, releaseIssues } from './release-validation'
+export { releaseSchema, type ParsedRelease } from './schema'
 export { planOutlook, BLOCK_SIZE } from './plan'
 export { runBlocks } from './run'
 export { mergePartials } from './merge'

@@ -1,5 +1,6 @@
 import { choleskySemiDefinite, correlationShapeIssues } from './correlation'
 import { EngineInputError, formatPath, type EngineInputIssue } from './errors'
+import { checkStrictlyIncreasing, releaseIssues } from './release-validation'
 import { MAX_HEIGHTS, outlookInputSchema, type ParsedOutlookInput, type ParsedRelease } from './schema'
 import { LAND_MOTION_KEY } from './types'
 
@@ -21,15 +22,6 @@ export function expandHeightRange(range: { from: number; to: number; step: numbe
   return heights
 }
 
-function checkStrictlyIncreasing(values: number[], path: string, what: string, issues: EngineInputIssue[]): void {
-  for (let i = 1; i < values.length; i++) {
-    if (!(values[i]! > values[i - 1]!)) {
-      issues.push({ path, message: `${what} must be strictly increasing: ${values[i]} follows ${values[i - 1]}` })
-      return
-    }
-  }
-}
-
 function checkRelease(
   release: ParsedRelease,
   path: string,
@@ -37,14 +29,8 @@ function checkRelease(
   input: ParsedOutlookInput,
   issues: EngineInputIssue[],
 ): void {
+  issues.push(...releaseIssues(release, path))
   const anchors = release.anchorYears
-  checkStrictlyIncreasing(anchors, `${path}.anchorYears`, 'anchor years', issues)
-  if (anchors[0]! <= release.baselineYear) {
-    issues.push({
-      path: `${path}.anchorYears`,
-      message: `first anchor year ${anchors[0]} must come after the release's baseline year ${release.baselineYear} (rise is zero there)`,
-    })
-  }
   if (release.baselineYear > input.baselineYear) {
     issues.push({
       path: `${path}.baselineYear`,
@@ -58,72 +44,6 @@ function checkRelease(
       path: 'years',
       message: `${label}: year ${lastYear} is past the release's last anchor year ${lastAnchor}; releases are never extrapolated — end the outlook by ${lastAnchor} or use a release that reaches ${lastYear}`,
     })
-  }
-  const perAnchor = (values: unknown[], field: string) => {
-    if (values.length !== anchors.length) {
-      issues.push({
-        path: `${path}.${field}`,
-        message: `needs one entry per anchor year (${anchors.length}), got ${values.length}`,
-      })
-    }
-  }
-  switch (release.form) {
-    case 'normal':
-      perAnchor(release.mean, 'mean')
-      perAnchor(release.sd, 'sd')
-      break
-    case 'lognormal':
-      perAnchor(release.shift, 'shift')
-      perAnchor(release.mu, 'mu')
-      perAnchor(release.sigma, 'sigma')
-      break
-    case 'quantiles': {
-      const levels = release.levels
-      const outside = levels.find((level) => !(level > 0 && level < 1))
-      if (outside !== undefined) {
-        issues.push({ path: `${path}.levels`, message: `must be strictly increasing in (0,1): ${outside} is outside` })
-      } else {
-        for (let k = 1; k < levels.length; k++) {
-          if (!(levels[k]! > levels[k - 1]!)) {
-            issues.push({
-              path: `${path}.levels`,
-              message: `must be strictly increasing in (0,1): ${levels[k]} follows ${levels[k - 1]}`,
-            })
-            break
-          }
-        }
-      }
-      perAnchor(release.values, 'values')
-      release.values.forEach((row, a) => {
-        if (row.length !== levels.length) {
-          issues.push({
-            path: `${path}.values[${a}]`,
-            message: `needs one value per probability level (${levels.length}), got ${row.length}`,
-          })
-          return
-        }
-        for (let k = 1; k < row.length; k++) {
-          if (row[k]! < row[k - 1]!) {
-            issues.push({
-              path: `${path}.values[${a}]`,
-              message: `must be non-decreasing across levels: ${row[k]} (level ${levels[k]}) follows ${row[k - 1]} (level ${levels[k - 1]})`,
-            })
-            break
-          }
-        }
-      })
-      break
-    }
-    case 'samples':
-      release.draws.forEach((draw, d) => {
-        if (draw.length !== anchors.length) {
-          issues.push({
-            path: `${path}.draws[${d}]`,
-            message: `needs one value per anchor year (${anchors.length}), got ${draw.length}`,
-          })
-        }
-      })
-      break
   }
 }
 
