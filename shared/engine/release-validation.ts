@@ -14,21 +14,24 @@ export function checkStrictlyIncreasing(values: number[], path: string, what: st
   }
 }
 
+/** A field path below `path` (which may be empty). */
+const at = (path: string, field: string) => (path ? `${path}.${field}` : field)
+
 /** Everything wrong with a parsed release's own consistency; empty when it is sound. */
 export function releaseIssues(release: ParsedRelease, path: string): EngineInputIssue[] {
   const issues: EngineInputIssue[] = []
   const anchors = release.anchorYears
-  checkStrictlyIncreasing(anchors, `${path}.anchorYears`, 'anchor years', issues)
+  checkStrictlyIncreasing(anchors, at(path, 'anchorYears'), 'anchor years', issues)
   if (anchors[0]! <= release.baselineYear) {
     issues.push({
-      path: `${path}.anchorYears`,
+      path: at(path, 'anchorYears'),
       message: `first anchor year ${anchors[0]} must come after the release's baseline year ${release.baselineYear} (rise is zero there)`,
     })
   }
   const perAnchor = (values: unknown[], field: string) => {
     if (values.length !== anchors.length) {
       issues.push({
-        path: `${path}.${field}`,
+        path: at(path, field),
         message: `needs one entry per anchor year (${anchors.length}), got ${values.length}`,
       })
     }
@@ -47,12 +50,12 @@ export function releaseIssues(release: ParsedRelease, path: string): EngineInput
       const levels = release.levels
       const outside = levels.find((level) => !(level > 0 && level < 1))
       if (outside !== undefined) {
-        issues.push({ path: `${path}.levels`, message: `must be strictly increasing in (0,1): ${outside} is outside` })
+        issues.push({ path: at(path, 'levels'), message: `must be strictly increasing in (0,1): ${outside} is outside` })
       } else {
         for (let k = 1; k < levels.length; k++) {
           if (!(levels[k]! > levels[k - 1]!)) {
             issues.push({
-              path: `${path}.levels`,
+              path: at(path, 'levels'),
               message: `must be strictly increasing in (0,1): ${levels[k]} follows ${levels[k - 1]}`,
             })
             break
@@ -63,7 +66,7 @@ export function releaseIssues(release: ParsedRelease, path: string): EngineInput
       release.values.forEach((row, a) => {
         if (row.length !== levels.length) {
           issues.push({
-            path: `${path}.values[${a}]`,
+            path: at(path, `values[${a}]`),
             message: `needs one value per probability level (${levels.length}), got ${row.length}`,
           })
           return
@@ -71,7 +74,7 @@ export function releaseIssues(release: ParsedRelease, path: string): EngineInput
         for (let k = 1; k < row.length; k++) {
           if (row[k]! < row[k - 1]!) {
             issues.push({
-              path: `${path}.values[${a}]`,
+              path: at(path, `values[${a}]`),
               message: `must be non-decreasing across levels: ${row[k]} (level ${levels[k]}) follows ${row[k - 1]} (level ${levels[k - 1]})`,
             })
             break
@@ -84,7 +87,7 @@ export function releaseIssues(release: ParsedRelease, path: string): EngineInput
       release.draws.forEach((draw, d) => {
         if (draw.length !== anchors.length) {
           issues.push({
-            path: `${path}.draws[${d}]`,
+            path: at(path, `draws[${d}]`),
             message: `needs one value per anchor year (${anchors.length}), got ${draw.length}`,
           })
         }
