@@ -23,6 +23,13 @@ export async function requireUser(event: H3Event): Promise<CurrentUser> {
   return user
 }
 
+/** The signed-in user, or null for anyone else (public routes that show more to members). */
+export async function optionalUser(event: H3Event): Promise<CurrentUser | null> {
+  const session = await getUserSession(event)
+  const id = session.user?.id
+  return id ? (await loadSessionUser(id)) ?? null : null
+}
+
 /** Signed in and holding one of the given roles; otherwise 403 naming what is needed. */
 export async function requireRole(event: H3Event, ...roles: Role[]): Promise<CurrentUser> {
   const user = await requireUser(event)

@@ -2,6 +2,7 @@ import { count } from 'drizzle-orm'
 import type { Role } from '../../../shared/types/roles'
 import type { Database } from '../client'
 import { auditLog, organisations, users } from '../schema'
+import { seedScience } from './science'
 
 // An invented stretch of coast. Every name, organisation and person here is fictional and
 // illustrative; the README lists the demo passwords, which are for the demo only.
@@ -40,14 +41,20 @@ export async function seedDemo(db: Database, hash: (password: string) => Promise
         .returning({ id: organisations.id })
       orgIds.set(org.key, row!.id)
     }
-    await tx.insert(users).values(DEMO_USERS.map((user, i) => ({
+    const people = await tx.insert(users).values(DEMO_USERS.map((user, i) => ({
       email: user.email,
       name: user.name,
       role: user.role,
       organisationId: orgIds.get(user.org)!,
       passwordHash: hashes[i]!,
       locale: user.locale ?? 'en',
-    })))
+    }))).returning({ id: users.id, email: users.email })
+    const idOf = (email: string) => people.find(person => person.email === email)!.id
+    await seedScience(tx, {
+      organisationId: orgIds.get('science')!,
+      authorId: idOf('analyst@saltglass.example'),
+      reviewerId: idOf('reviewer@saltglass.example'),
+    })
     await tx.insert(auditLog).values({ action: 'demo.seeded', targetType: 'database', detail: { coast: DEMO_COAST } })
   })
 }

@@ -1,0 +1,117 @@
+import { and, desc, eq, inArray, max, type SQL } from 'drizzle-orm'
+import { visibleTo } from './releases'
+import { correlationSets, organisations, scaleFactorGrids } from '~~/server/db/schema'
+import { validateCorrelationMatrix } from '#shared/engine'
+import { CsvError } from '#shared/releases/csv'
+import { gridErrors, gridWarnings, parseGridCsv, type ScaleFactorGrid } from '#shared/releases/grid'
+import type { CreateCorrelationSetInput, CreateScaleFactorGridInput } from '#shared/schemas/releases'
+import type { CurrentUser } from '../utils/auth'
+import { KIND_LABEL, type ReviewedKind } from './review'
+
+// Correlation sets and scale-factor grids: versioned and reviewed like releases, one series per
+// scenario (correlation) or per component (grids) within an organisation.
+
+type Table = typeof correlationSets | typeof scaleFactorGrids
+
+async function nextVersion(table: Table, sameSeries: SQL, requested: number | undefined, kind: ReviewedKind) {
+  const db = await useDb()
+  const [open] = await db.select({ version: table.version }).from(table).where(and(sameSeries, inArray(table.state, ['draft', 'in-review'])))
+  if (open) throw createError({ statusCode: 409, message: `Version ${open.version} of this ${KIND_LABEL[kind]} is not yet published; finish it before starting another.` })
+  const [row] = await db.select({ top: max(table.version) }).from(table).where(sameSeries)
+  const next = (row?.top ?? 0) + 1
+  if (requested !== undefined && requested !== next) {
+    throw createError({ statusCode: 400, message: `version: Version ${requested} ${requested < next ? 'already exists' : 'is not next'}; the next version is ${next}.` })
+  }
+  return next
+}
+
+const provenance = (input: { method: string, citation: string, doi?: string, licence: string }) =>
+  ({ method: input.method, citation: input.citation, doi: input.doi ?? null, licence: input.licence })
+
+export async function createCorrelationSet(actor: CurrentUser, input: CreateCorrelationSetInput) {
+  asBadRequest(() => validateCorrelationMatrix(input.matrix, input.components, 'matrix'))
+  const version = await nextVersion(correlationSets,
+    and(eq(correlationSets.organisationId, actor.organisationId), eq(correlationSets.scenario, input.scenario))!, input.version, 'correlation-set')
+  const db = await useDb()
+  return db.transaction(async (tx) => {
+    const [created] = await tx.insert(correlationSets).values({
+      scenario: input.scenario, title: input.title, components: input.components, matrix: input.matrix,
+      ...provenance(input), organisationId: actor.organisationId, version, authorId: actor.id,
+    }).returning({ id: correlationSets.id, version: correlationSets.version, state: correlationSets.state })
+    await writeAudit(tx, actor, 'correlation-set.drafted', { type: 'correlation-set', id: created!.id }, { version })
+    return created!
+  })
+}
+
+function gridFrom(input: CreateScaleFactorGridInput): ScaleFactorGrid {
+  if (input.csv !== undefined) {
+    try {
+      return parseGridCsv(input.csv)
+    }
+    catch (error) {
+      if (error instanceof CsvError) throw createError({ statusCode: 400, message: error.message, data: { issues: error.issues } })
+      throw error
+    }
+  }
+  if (!input.latitudes || !input.longitudes || !input.factors) {
+    throw createError({ statusCode: 400, message: 'csv: Send a CSV table, or latitudes, longitudes and factors.' })
+  }
+  return { latitudes: input.latitudes, longitudes: input.longitudes, factors: input.factors }
+}
+
+export async function createScaleFactorGrid(actor: CurrentUser, input: CreateScaleFactorGridInput) {
+  const grid = gridFrom(input)
+  const errors = gridErrors(grid)
+  if (errors.length) throw createError({ statusCode: 400, message: errors.slice(0, 10).map(e => `${e.field}: ${e.message}`).join(' '), data: { issues: errors } })
+  const version = await nextVersion(scaleFactorGrids,
+    and(eq(scaleFactorGrids.organisationId, actor.organisationId), eq(scaleFactorGrids.component, input.component))!, input.version, 'scale-factor-grid')
+  const db = await useDb()
+  return db.transaction(async (tx) => {
+    const [created] = await tx.insert(scaleFactorGrids).values({
+      component: input.component, title: input.title, ...grid,
+      ...provenance(input), organisationId: actor.organisationId, version, authorId: actor.id,
+    }).returning({ id: scaleFactorGrids.id, version: scaleFactorGrids.version, state: scaleFactorGrids.state })
+    await writeAudit(tx, actor, 'scale-factor-grid.drafted', { type: 'scale-factor-grid', id: created!.id }, { version })
+    return { ...created!, warnings: gridWarnings(grid) }
+  })
+}
+
+function visible(table: Table, viewer: CurrentUser | null) {
+  return visibleTo(viewer, table.organisationId, table.state)
+}
+
+export async function listCorrelationSets(viewer: CurrentUser | null) {
+  const db = await useDb()
+  return db.select({
+    id: correlationSets.id, scenario: correlationSets.scenario, title: correlationSets.title, version: correlationSets.version,
+    state: correlationSets.state, components: correlationSets.components, authorId: correlationSets.authorId,
+    organisationId: correlationSets.organisationId, organisationName: organisations.name, withdrawalReason: correlationSets.withdrawalReason,
+  }).from(correlationSets).innerJoin(organisations, eq(organisations.id, correlationSets.organisationId))
+    .where(visible(correlationSets, viewer))
+    .orderBy(correlationSets.scenario, desc(correlationSets.version))
+}
+
+export async function getCorrelationSet(viewer: CurrentUser | null, id: string) {
+  const db = await useDb()
+  const [row] = await db.select().from(correlationSets).where(and(eq(correlationSets.id, id), visible(correlationSets, viewer)))
+  if (!row) throw createError({ statusCode: 404, message: 'No such correlation set.' })
+  return row
+}
+
+export async function listScaleFactorGrids(viewer: CurrentUser | null) {
+  const db = await useDb()
+  return db.select({
+    id: scaleFactorGrids.id, component: scaleFactorGrids.component, title: scaleFactorGrids.title, version: scaleFactorGrids.version,
+    state: scaleFactorGrids.state, authorId: scaleFactorGrids.authorId,
+    organisationId: scaleFactorGrids.organisationId, organisationName: organisations.name, withdrawalReason: scaleFactorGrids.withdrawalReason,
+  }).from(scaleFactorGrids).innerJoin(organisations, eq(organisations.id, scaleFactorGrids.organisationId))
+    .where(visible(scaleFactorGrids, viewer))
+    .orderBy(scaleFactorGrids.component, desc(scaleFactorGrids.version))
+}
+
+export async function getScaleFactorGrid(viewer: CurrentUser | null, id: string) {
+  const db = await useDb()
+  const [row] = await db.select().from(scaleFactorGrids).where(and(eq(scaleFactorGrids.id, id), visible(scaleFactorGrids, viewer)))
+  if (!row) throw createError({ statusCode: 404, message: 'No such scale-factor grid.' })
+  return { ...row, warnings: gridWarnings(row) }
+}

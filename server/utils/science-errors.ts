@@ -1,0 +1,18 @@
+import { ReleaseContentError } from '#shared/releases/content'
+import { EngineInputError } from '#shared/engine'
+
+/** Runs a build step and turns its refusal into a 400 whose message names each field to fix. */
+export function asBadRequest<T>(build: () => T): T {
+  try {
+    return build()
+  }
+  catch (error) {
+    const issues = error instanceof ReleaseContentError
+      ? error.issues
+      : error instanceof EngineInputError
+        ? error.issues.map(issue => ({ field: issue.path || 'body', message: issue.message }))
+        : undefined
+    if (!issues) throw error
+    throw createError({ statusCode: 400, message: issues.map(issue => `${issue.field}: ${issue.message}`).join(' '), data: { issues } })
+  }
+}

@@ -1,0 +1,104 @@
+import { z } from 'zod'
+import { MAX_TEXT } from '../releases/limits'
+import { AMOUNT_UNITS, COMPONENTS, RELEASE_FORMS, REVIEW_STATES, SCENARIO_PATTERN } from '../types/science'
+
+// Requests about published science. Per-form numbers are checked by the engine's release rules
+// (shared/engine/release-validation.ts) after unit conversion, so both paths say the same thing.
+
+const text = (what: string, max: number) => z.string({ error: `Enter the ${what}.` }).trim()
+  .min(1, { error: `Enter the ${what}.` }).max(max, { error: `Use at most ${max} characters.` })
+
+export const componentField = z.enum(COMPONENTS, { error: `Choose one of: ${COMPONENTS.join(', ')}.` })
+export const scenarioField = z.string({ error: 'Enter a scenario, like SSP2-4.5.' }).trim()
+  .regex(SCENARIO_PATTERN, { error: 'Use 2–40 letters, digits, spaces or . + - _ (for example SSP2-4.5 or high-end-ice).' })
+
+const numberList = z.array(z.number({ error: 'Enter a number (not blank, NaN or infinity).' }), { error: 'Enter a list of numbers.' })
+const numberTable = z.array(numberList, { error: 'Enter a table of numbers.' })
+
+export const provenanceFields = {
+  method: text('method statement', MAX_TEXT.method),
+  citation: text('citation', MAX_TEXT.citation),
+  doi: z.string().trim().max(200).regex(/^10\.\d{4,9}\/\S+$/, { error: 'Enter a DOI like 10.1234/abcd, or leave it empty.' })
+    .optional().or(z.literal('').transform(() => undefined)),
+  licence: text('licence', MAX_TEXT.licence),
+}
+
+export const NewSeriesSchema = z.object({
+  component: componentField,
+  scenario: scenarioField,
+  title: text('series title', MAX_TEXT.title),
+})
+
+/** The distribution part of a release as entered: numbers in `unit`, or a CSV table. */
+export const ReleaseContentSchema = z.object({
+  form: z.enum(RELEASE_FORMS, { error: `Choose one of: ${RELEASE_FORMS.join(', ')}.` }),
+  unit: z.enum(AMOUNT_UNITS, { error: `Choose one of: ${AMOUNT_UNITS.join(', ')}.` }).default('m'),
+  baselineYear: z.number({ error: 'Enter the baseline year (zero rise there).' }).int({ error: 'Enter a whole year.' }),
+  anchorYears: z.array(z.number().int({ error: 'Enter whole years.' })).optional(),
+  mean: numberList.optional(),
+  sd: numberList.optional(),
+  shift: numberList.optional(),
+  mu: numberList.optional(),
+  sigma: numberList.optional(),
+  levels: numberList.optional(),
+  values: numberTable.optional(),
+  draws: numberTable.optional(),
+  csv: z.string().optional(),
+})
+
+export const CreateReleaseSchema = ReleaseContentSchema.extend({
+  seriesId: z.uuid({ error: 'Choose a series.' }).optional(),
+  series: NewSeriesSchema.optional(),
+  version: z.number().int().positive().optional(),
+  ...provenanceFields,
+}).refine(body => Boolean(body.seriesId) !== Boolean(body.series), {
+  error: 'Send either seriesId (a new version of a series) or series (a new series), not both.',
+  path: ['seriesId'],
+})
+
+export const UpdateReleaseSchema = ReleaseContentSchema.extend(provenanceFields)
+
+export const WithdrawSchema = z.object({
+  reason: text('reason for withdrawal (it is shown wherever the record is referenced)', MAX_TEXT.reason),
+})
+
+export const ReturnSchema = z.object({
+  note: text('note to the author saying what to change', MAX_TEXT.note),
+})
+
+export const ReleaseListQuery = z.object({
+  component: componentField.optional(),
+  scenario: scenarioField.optional(),
+  state: z.enum(REVIEW_STATES).optional(),
+  organisationId: z.uuid().optional(),
+  seriesId: z.uuid().optional(),
+})
+
+export type ReleaseContentInput = z.infer<typeof ReleaseContentSchema>
+export type CreateReleaseInput = z.infer<typeof CreateReleaseSchema>
+
+export const CreateCorrelationSetSchema = z.object({
+  scenario: scenarioField,
+  title: text('title', MAX_TEXT.title),
+  components: z.array(componentField, { error: 'List the components the matrix relates, in row order.' })
+    .min(2, { error: 'A correlation set relates at least two components.' })
+    .refine(keys => new Set(keys).size === keys.length, { error: 'Each component may appear only once.' }),
+  matrix: numberTable,
+  version: z.number().int().positive().optional(),
+  ...provenanceFields,
+})
+
+export const CreateScaleFactorGridSchema = z.object({
+  component: componentField,
+  title: text('title', MAX_TEXT.title),
+  latitudes: numberList.optional(),
+  longitudes: numberList.optional(),
+  factors: numberTable.optional(),
+  /** Alternatively a CSV: header `latitude,<lon>,<lon>…`, one row per latitude. */
+  csv: z.string().optional(),
+  version: z.number().int().positive().optional(),
+  ...provenanceFields,
+})
+
+export type CreateCorrelationSetInput = z.infer<typeof CreateCorrelationSetSchema>
+export type CreateScaleFactorGridInput = z.infer<typeof CreateScaleFactorGridSchema>

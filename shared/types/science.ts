@@ -1,0 +1,22 @@
+// The product's vocabulary for published science (see DEVELOPERS.md).
+
+export const COMPONENTS = ['ocean-expansion', 'glaciers', 'greenland', 'antarctica', 'land-water', 'regional-ocean', 'other'] as const
+export type Component = typeof COMPONENTS[number]
+
+/** IPCC scenario names offered first; analysts may also name a storyline of their own. */
+export const KNOWN_SCENARIOS = ['SSP1-1.9', 'SSP1-2.6', 'SSP2-4.5', 'SSP3-7.0', 'SSP5-8.5'] as const
+export const SCENARIO_PATTERN = /^[A-Za-z0-9][\w .+-]{1,39}$/
+
+export const RELEASE_FORMS = ['normal', 'lognormal', 'quantiles', 'samples'] as const
+export type ReleaseForm = typeof RELEASE_FORMS[number]
+
+/** draft → in-review → published → superseded | withdrawn (in-review may also return to draft). */
+export const REVIEW_STATES = ['draft', 'in-review', 'published', 'superseded', 'withdrawn'] as const
+export type ReviewState = typeof REVIEW_STATES[number]
+
+/** States anyone may read: they were published once. */
+export const PUBLIC_STATES: readonly ReviewState[] = ['published', 'superseded', 'withdrawn']
+
+/** How amounts are entered; everything is stored in metres of global mean rise. */
+export const AMOUNT_UNITS = ['m', 'mm', 'Gt'] as const
+export type AmountUnit = typeof AMOUNT_UNITS[number]
