@@ -1,5 +1,5 @@
 import { identityFactor } from './correlation'
-import { buildComponentTable, componentRiseAt, type ComponentTable } from './releases'
+import { anchorValuesAt, buildComponentTable, componentRiseAt, type ComponentTable } from './releases'
 import {
   COMPONENT_KIND_DRAWS,
   COMPONENT_KIND_PIECEWISE,
@@ -74,46 +74,60 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
   const kinds = new Int32Array(componentCount)
   const breakpointStart = new Int32Array(componentCount)
   const breakpointCount = new Int32Array(componentCount)
-  const rowStart = new Int32Array(componentCount)
   const anchorCount = new Int32Array(componentCount)
+  const valueStart = new Int32Array(componentCount)
+  const lineStart = new Int32Array(componentCount)
   const breakpoints: number[] = []
-  const pieceRows: Float64Array[] = []
-  const pieceSlopes: Float64Array[] = []
-  const drawRows: Float64Array[] = []
-  const shift: number[] = []
-  const mu: number[] = []
-  const sigma: number[] = []
-  const anchorWeightRows: Float64Array[] = []
+  const anchorIntercept: number[] = []
+  const anchorSlope: number[] = []
+  let valueCount = 0
   tables.forEach((table, c) => {
     kinds[c] = table.kind
     breakpointStart[c] = breakpoints.length
     breakpointCount[c] = table.breakpoints.length
     breakpoints.push(...table.breakpoints)
-    if (table.kind === COMPONENT_KIND_PIECEWISE) {
-      rowStart[c] = pieceRows.length
-      pieceRows.push(...table.rows)
-      pieceSlopes.push(...table.slopes)
-    } else if (table.kind === COMPONENT_KIND_DRAWS) {
-      rowStart[c] = drawRows.length
-      drawRows.push(...table.rows)
-    } else {
-      const lognormal = table.lognormal!
-      rowStart[c] = shift.length
-      anchorCount[c] = lognormal.shift.length
-      shift.push(...lognormal.shift)
-      mu.push(...lognormal.mu)
-      sigma.push(...lognormal.sigma)
-      // Stored anchor-major so the sample loop reads one contiguous row per anchor.
-      for (let a = 0; a < lognormal.shift.length; a++) {
-        anchorWeightRows.push(Float64Array.from(lognormal.weights, (row) => row[a]!))
+    anchorCount[c] = table.relativeWeights[0]?.length ?? 0
+    valueStart[c] = valueCount
+    valueCount += anchorCount[c]!
+    lineStart[c] = anchorIntercept.length
+    anchorIntercept.push(...table.anchorIntercept)
+    anchorSlope.push(...table.anchorSlope)
+  })
+
+  const lognormalShift = new Float64Array(valueCount)
+  const lognormalMu = new Float64Array(valueCount)
+  const lognormalSigma = new Float64Array(valueCount)
+  const lognormalScale = new Float64Array(valueCount)
+  const valueAtZero = new Float64Array(valueCount)
+  const valueBasis = new Int32Array(valueCount)
+  // Components whose time weights are identical (same release baseline and anchor years) share basis
+  // columns, so a sample's rise in every year comes from a handful of per-anchor sums.
+  const groupColumns = new Map<string, number>()
+  const groupWeights: Float64Array[][] = []
+  let basisCount = 0
+  tables.forEach((table, c) => {
+    const anchors = anchorCount[c]!
+    const key = JSON.stringify(table.relativeWeights.map((row) => Array.from(row)))
+    let first = groupColumns.get(key)
+    if (first === undefined) {
+      first = basisCount
+      groupColumns.set(key, first)
+      groupWeights.push(table.relativeWeights)
+      basisCount += anchors
+    }
+    valueAtZero.set(anchorValuesAt(table, 0, anchors), valueStart[c]!)
+    for (let a = 0; a < anchors; a++) {
+      const slot = valueStart[c]! + a
+      valueBasis[slot] = first + a
+      if (table.lognormal) {
+        lognormalShift[slot] = table.lognormal.shift[a]!
+        lognormalMu[slot] = table.lognormal.mu[a]!
+        lognormalSigma[slot] = table.lognormal.sigma[a]!
+        lognormalScale[slot] = table.scale
       }
     }
   })
-  const flatten = (rows: Float64Array[]) => {
-    const flat = new Float64Array(rows.length * yearCount)
-    rows.forEach((row, i) => flat.set(row, i * yearCount))
-    return flat
-  }
+  const landColumn = basisCount++
 
   // Land motion enters relative to the outlook baseline, like every component: −(rate + σz)/1000 ·
   // (t − baseline). The epoch of the rate cancels for a constant rate, so it is kept for provenance only.
@@ -127,7 +141,19 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
     }
   }
 
+  const basisWeight = new Float64Array(yearCount * basisCount)
+  let column = 0
+  for (const weights of groupWeights) {
+    for (let t = 0; t < yearCount; t++) basisWeight.set(weights[t]!, t * basisCount + column)
+    column += weights[0]?.length ?? 0
+  }
+  for (let t = 0; t < yearCount; t++) basisWeight[t * basisCount + landColumn] = landSlope[t]!
+
+  // The all-scores-zero trajectory, formed the way the sample loop forms a rise.
   const center = Float64Array.from(landIntercept)
+  for (let t = 0; t < yearCount; t++) {
+    for (let slot = 0; slot < valueCount; slot++) center[t]! += basisWeight[t * basisCount + valueBasis[slot]!]! * valueAtZero[slot]!
+  }
   const low = new Float64Array(yearCount)
   const high = new Float64Array(yearCount)
   for (let t = 0; t < yearCount; t++) {
@@ -135,10 +161,8 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
     high[t] = landIntercept[t]! + HISTOGRAM_SCORE_SPAN * Math.abs(landSlope[t]!)
   }
   for (const table of tables) {
-    const atZero = componentRiseAt(table, 0, yearCount)
     const bounds = componentBounds(table, yearCount)
     for (let t = 0; t < yearCount; t++) {
-      center[t]! += atZero[t]!
       low[t]! += bounds.low[t]!
       high[t]! += bounds.high[t]!
     }
@@ -217,15 +241,20 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
     breakpointStart,
     breakpointCount,
     breakpoints: Float64Array.from(breakpoints),
-    rowStart,
-    pieceIntercept: flatten(pieceRows),
-    pieceSlope: flatten(pieceSlopes),
-    drawRise: flatten(drawRows),
     anchorCount,
-    lognormalShift: Float64Array.from(shift),
-    lognormalMu: Float64Array.from(mu),
-    lognormalSigma: Float64Array.from(sigma),
-    anchorWeight: flatten(anchorWeightRows),
+    valueStart,
+    lineStart,
+    anchorIntercept: Float64Array.from(anchorIntercept),
+    anchorSlope: Float64Array.from(anchorSlope),
+    lognormalShift,
+    lognormalMu,
+    lognormalSigma,
+    lognormalScale,
+    valueCount,
+    valueBasis,
+    valueAtZero,
+    basisCount,
+    basisWeight,
     landIntercept,
     landSlope,
     center,

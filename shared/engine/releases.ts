@@ -21,6 +21,16 @@ export interface ComponentTable {
   slopes: Float64Array[]
   /** Lognormal: per anchor shift, mu, sigma and per-anchor weights per year. */
   lognormal: { shift: number[]; mu: number[]; sigma: number[]; weights: Float64Array[] } | null
+  /** The scale factor (already inside `rows`, `slopes`, `anchorIntercept`, `anchorSlope` and `weights`). */
+  scale: number
+  /**
+   * Per output year, weights on the anchors giving x(year) − x(outlook baseline), without the scale:
+   * components that share these weights can be summed per anchor before any year is formed.
+   */
+  relativeWeights: Float64Array[]
+  /** Scaled anchor values as lines in the score, at [row·anchors + a]: pieces, or ranked draws (slope 0). */
+  anchorIntercept: Float64Array
+  anchorSlope: Float64Array
 }
 
 /** Lines (intercept, slope) in the score per anchor and piece: lines[a][s]. */
@@ -72,7 +82,25 @@ export function buildComponentTable(
       rows.push(intercept)
       slopes.push(slope)
     }
-    return { kind: COMPONENT_KIND_PIECEWISE, breakpoints, rows, slopes, lognormal: null }
+    const anchorIntercept = new Float64Array(pieceCount * anchorCount)
+    const anchorSlope = new Float64Array(pieceCount * anchorCount)
+    for (let s = 0; s < pieceCount; s++) {
+      for (let a = 0; a < anchorCount; a++) {
+        anchorIntercept[s * anchorCount + a] = scale * lines[a]![s]![0]
+        anchorSlope[s * anchorCount + a] = scale * lines[a]![s]![1]
+      }
+    }
+    return {
+      kind: COMPONENT_KIND_PIECEWISE,
+      breakpoints,
+      rows,
+      slopes,
+      lognormal: null,
+      scale,
+      relativeWeights: weights,
+      anchorIntercept,
+      anchorSlope,
+    }
   }
 
   if (release.form === 'lognormal') {
@@ -83,6 +111,10 @@ export function buildComponentTable(
       rows: [],
       slopes: [],
       lognormal: { shift: release.shift, mu: release.mu, sigma: release.sigma, weights: scaled },
+      scale,
+      relativeWeights: weights,
+      anchorIntercept: new Float64Array(0),
+      anchorSlope: new Float64Array(0),
     }
   }
 
@@ -103,7 +135,37 @@ export function buildComponentTable(
   const n = rows.length
   const breakpoints: number[] = []
   for (let j = 1; j < n; j++) breakpoints.push(standardNormalQuantile(j / n))
-  return { kind: COMPONENT_KIND_DRAWS, breakpoints, rows, slopes: [], lognormal: null }
+  const anchorIntercept = new Float64Array(n * anchorCount)
+  draws.forEach(({ draw }, r) => {
+    for (let a = 0; a < anchorCount; a++) anchorIntercept[r * anchorCount + a] = scale * draw[a]!
+  })
+  return {
+    kind: COMPONENT_KIND_DRAWS,
+    breakpoints,
+    rows,
+    slopes: [],
+    lognormal: null,
+    scale,
+    relativeWeights: weights,
+    anchorIntercept,
+    anchorSlope: new Float64Array(n * anchorCount),
+  }
+}
+
+/** Scaled anchor values of one component for score `z` (outside the sample loop). */
+export function anchorValuesAt(table: ComponentTable, z: number, anchorCount: number): Float64Array {
+  const out = new Float64Array(anchorCount)
+  if (table.kind === COMPONENT_KIND_LOGNORMAL) {
+    const { shift, mu, sigma } = table.lognormal!
+    for (let a = 0; a < anchorCount; a++) out[a] = table.scale * (shift[a]! + Math.exp(mu[a]! + sigma[a]! * z))
+    return out
+  }
+  let row = 0
+  while (row < table.breakpoints.length && z >= table.breakpoints[row]!) row++
+  for (let a = 0; a < anchorCount; a++) {
+    out[a] = table.anchorIntercept[row * anchorCount + a]! + table.anchorSlope[row * anchorCount + a]! * z
+  }
+  return out
 }
 
 /** Rise of one component in every output year for score `z` (outside the sample loop). */

@@ -1,12 +1,17 @@
 import { fillOpenUniforms, blockStreamState } from './rng'
-import { standardNormalQuantile } from './normal'
-import { COMPONENT_KIND_DRAWS, COMPONENT_KIND_LOGNORMAL, COMPONENT_KIND_PIECEWISE, type OutlookPlan, type OutlookPartial } from './types'
+import { standardNormalQuantilesInPlace } from './normal'
+import { COMPONENT_KIND_DRAWS, COMPONENT_KIND_PIECEWISE, type OutlookPlan, type OutlookPartial } from './types'
 
 // The sample loop. Everything it touches is a typed array hoisted into a local, nothing is allocated
 // per sample, and each block draws from its own stream, so blocks may run on any thread in any order.
 //
 // Random stream order inside a block: for each sample, one uniform per component (in component order)
 // and then one for land motion; each uniform becomes a score through Φ⁻¹.
+//
+// A component's rise in any year is a fixed mix of its anchor values (linear interpolation in time), so a
+// sample is reduced to a few basis values (per-anchor sums over components sharing time weights, plus the
+// land-motion score) before any year is formed: each year's rise is then a short weighted sum, and the
+// moments and variance-share sums of every year follow from dot products of the basis values per block.
 
 interface LifeSegment {
   /** Output-year index of the segment's start, or −1 for the baseline (rise 0). */
@@ -57,24 +62,59 @@ export function emptyPartial(plan: OutlookPlan, firstBlock: number, blockCount: 
 }
 
 /**
- * Samples are processed in tiles, year by year across the tile, so every statistic is a stride-1 loop
- * that reduces into local variables; the tile split inside a block is fixed, so sums stay reproducible.
+ * Samples are processed in tiles so every step is a stride-1 loop over typed arrays; the tile split
+ * inside a block is fixed, so sums stay reproducible.
  */
 const TILE = 1024
+/** Columns combined per pass when a year's rise is formed from the basis. */
+const PASS = 4
 
 interface TileScratch {
   /** Correlated score of component c for tile sample i at [c·TILE + i]; land-motion scores last. */
   scores: Float64Array
-  /** First table row of the piece or draw each sample picked, times the year count, at [c·TILE + i]. */
-  rowAt: Int32Array
-  /** Lognormal level of anchor row a at [a·TILE + i]. */
-  levels: Float64Array
-  /** Rise of each part at [p·TILE + i] for the current year. */
-  parts: Float64Array
+  /** First anchor line of the piece or draw each sample picked, at [c·TILE + i]. */
+  lineAt: Int32Array
+  /** Scaled anchor value of slot v at [v·TILE + i]. */
+  values: Float64Array
+  /** Basis value minus its all-scores-zero value at [j·TILE + i]; row J stays zero (padding). */
+  basis: Float64Array
   /** Total rise per year at [t·TILE + i]. */
   rise: Float64Array
-  deviation: Float64Array
+  /** Per year, the basis columns with a non-zero weight, padded with the zero row to whole passes. */
+  yearColumns: Int32Array[]
+  yearWeights: Float64Array[]
+  /** Per histogram cell, its exceedance cell, or −1 − (cuts below it) when a cut falls inside it. */
+  cellOfBin: Int32Array
+  /** Per component, its breakpoints padded with +∞ to whole passes. */
+  paddedBreakpoints: Float64Array[]
+  /** Every basis column, padded with the zero row to whole passes. */
+  allColumns: Int32Array
+  /** Per block: Σ basis, Σ basis_j·basis_k, Σ value, Σ value·basis_j. */
+  basisSum: Float64Array
+  basisCross: Float64Array
+  valueSum: Float64Array
+  valueCross: Float64Array
   lifeSegments: LifeSegment[][]
+}
+
+function yearPasses(plan: OutlookPlan): { columns: Int32Array[]; weights: Float64Array[] } {
+  const columnCount = plan.basisCount
+  const columns: Int32Array[] = []
+  const weights: Float64Array[] = []
+  for (let t = 0; t < plan.years.length; t++) {
+    const used: number[] = []
+    for (let j = 0; j < columnCount; j++) if (plan.basisWeight[t * columnCount + j] !== 0) used.push(j)
+    const padded = Math.ceil(used.length / PASS) * PASS
+    const yearColumns = new Int32Array(padded).fill(columnCount)
+    const yearWeights = new Float64Array(padded)
+    used.forEach((j, k) => {
+      yearColumns[k] = j
+      yearWeights[k] = plan.basisWeight[t * columnCount + j]!
+    })
+    columns.push(yearColumns)
+    weights.push(yearWeights)
+  }
+  return { columns, weights }
 }
 
 /** Samples blocks firstBlock … firstBlock+blockCount−1 and returns their mergeable statistics. */
@@ -92,14 +132,29 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
   const yearCount = plan.years.length
   const componentCount = plan.componentKeys.length
   const scoresPerSample = componentCount + 1
+  const columnCount = plan.basisCount
   const uniforms = new Float64Array(plan.blockSize * scoresPerSample)
+  const passes = yearPasses(plan)
   const scratch: TileScratch = {
     scores: new Float64Array(scoresPerSample * TILE),
-    rowAt: new Int32Array(componentCount * TILE),
-    levels: new Float64Array(plan.lognormalShift.length * TILE),
-    parts: new Float64Array(scoresPerSample * TILE),
+    lineAt: new Int32Array(componentCount * TILE),
+    values: new Float64Array(plan.valueCount * TILE),
+    basis: new Float64Array((columnCount + 1) * TILE),
     rise: new Float64Array(yearCount * TILE),
-    deviation: new Float64Array(TILE),
+    yearColumns: passes.columns,
+    yearWeights: passes.weights,
+    cellOfBin: exceedanceCellOfBin(plan),
+    paddedBreakpoints: Array.from(plan.kinds, (_, c) => {
+      const count = plan.breakpointCount[c]!
+      const padded = new Float64Array(Math.max(1, Math.ceil(count / PASS)) * PASS).fill(Infinity)
+      padded.set(plan.breakpoints.subarray(plan.breakpointStart[c]!, plan.breakpointStart[c]! + count))
+      return padded
+    }),
+    allColumns: Int32Array.from({ length: Math.ceil(columnCount / PASS) * PASS }, (_, k) => Math.min(k, columnCount)),
+    basisSum: new Float64Array(columnCount),
+    basisCross: new Float64Array(columnCount * columnCount),
+    valueSum: new Float64Array(plan.valueCount),
+    valueCross: new Float64Array(plan.valueCount * columnCount),
     lifeSegments: plan.lifeSpans.map((life) => lifeSegments(plan, life)),
   }
   for (let b = 0; b < blockCount; b++) {
@@ -107,28 +162,40 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
     const count = Math.min(plan.blockSize, plan.samples - blockIndex * plan.blockSize)
     const stream = blockStreamState(plan.seed, blockIndex)
     fillOpenUniforms(stream, uniforms, count * scoresPerSample)
+    standardNormalQuantilesInPlace(uniforms, count * scoresPerSample)
+    scratch.basisSum.fill(0)
+    scratch.basisCross.fill(0)
+    scratch.valueSum.fill(0)
+    scratch.valueCross.fill(0)
     for (let tileStart = 0; tileStart < count; tileStart += TILE) {
       const tileCount = Math.min(TILE, count - tileStart)
       scoreTile(plan, uniforms, tileStart, tileCount, scratch)
-      summariseTile(plan, tileCount, scratch, partial, b * plan.sumsPerBlock)
+      valueTile(plan, tileCount, scratch)
+      sumTile(plan, tileCount, scratch)
+      for (let t = 0; t < yearCount; t++) {
+        riseOfYear(plan, t, tileCount, scratch)
+        countYear(plan, t, tileCount, scratch, partial)
+      }
       if (plan.gumbel !== null) gumbelTile(plan, tileCount, scratch, partial.blockSums, b * plan.sumsPerBlock)
     }
+    blockSumsByYear(plan, count, scratch, partial.blockSums, b * plan.sumsPerBlock)
     partial.samples += count
   }
+  cellsFromHistogram(plan, scratch.cellOfBin, partial)
   return partial
 }
 
-/** Uniforms → scores (Φ⁻¹), correlated through the Cholesky factor, and each sample's table row. */
-function scoreTile(plan: OutlookPlan, uniforms: Float64Array, tileStart: number, tileCount: number, scratch: TileScratch): void {
+/** Independent scores → correlated through the Cholesky factor, and each sample's anchor line. */
+function scoreTile(plan: OutlookPlan, independent: Float64Array, tileStart: number, tileCount: number, scratch: TileScratch): void {
   const componentCount = plan.componentKeys.length
   const perSample = componentCount + 1
   const scores = scratch.scores
-  const rowAt = scratch.rowAt
+  const lineAt = scratch.lineAt
   const cholesky = plan.cholesky
-  const yearCount = plan.years.length
   for (let c = 0; c <= componentCount; c++) {
     const at = c * TILE
-    for (let i = 0; i < tileCount; i++) scores[at + i] = standardNormalQuantile(uniforms[(tileStart + i) * perSample + c]!)
+    let u = tileStart * perSample + c
+    for (let i = 0; i < tileCount; i++, u += perSample) scores[at + i] = independent[u]!
   }
   if (!plan.choleskyIsIdentity) {
     // In place from the last component down: row c only needs independent scores 0…c.
@@ -147,14 +214,24 @@ function scoreTile(plan: OutlookPlan, uniforms: Float64Array, tileStart: number,
     const kind = plan.kinds[c]!
     const first = plan.breakpointStart[c]!
     const last = first + plan.breakpointCount[c]!
-    const rowBase = plan.rowStart[c]! - first
+    const anchors = plan.anchorCount[c]!
+    const lineBase = plan.lineStart[c]! - first * anchors
     const at = c * TILE
     if (kind === COMPONENT_KIND_PIECEWISE) {
-      for (let i = 0; i < tileCount; i++) {
-        const z = scores[at + i]!
-        let k = first
-        while (k < last && z >= breakpoints[k]!) k++
-        rowAt[at + i] = (rowBase + k) * yearCount
+      // Piece = number of breakpoints at or below the score, counted four at a time (padded with +∞)
+      // as a sum of comparisons: no data-dependent branch in the loop body.
+      const padded = scratch.paddedBreakpoints[c]!
+      for (let k = 0; k < padded.length; k += PASS) {
+        const p0 = padded[k]!
+        const p1 = padded[k + 1]!
+        const p2 = padded[k + 2]!
+        const p3 = padded[k + 3]!
+        const base = k === 0 ? lineBase + first * anchors : 0
+        for (let i = 0; i < tileCount; i++) {
+          const z = scores[at + i]!
+          const step = (+(z >= p0) + +(z >= p1) + +(z >= p2) + +(z >= p3)) * anchors
+          lineAt[at + i] = (k === 0 ? base : lineAt[at + i]!) + step
+        }
       }
     } else if (kind === COMPONENT_KIND_DRAWS) {
       // Rank = number of breakpoints Φ⁻¹(j/n) at or below the score.
@@ -167,145 +244,275 @@ function scoreTile(plan: OutlookPlan, uniforms: Float64Array, tileStart: number,
           if (breakpoints[middle]! <= z) low = middle + 1
           else high = middle
         }
-        rowAt[at + i] = (rowBase + low) * yearCount
+        lineAt[at + i] = lineBase + low * anchors
       }
     }
   }
 }
 
-/** Lognormal levels shift + exp(mu + sigma·z) of every lognormal anchor, once per tile. */
-function lognormalTile(plan: OutlookPlan, tileCount: number, scratch: TileScratch): void {
-  const { scores, levels } = scratch
-  for (let c = 0; c < plan.componentKeys.length; c++) {
-    if (plan.kinds[c] !== COMPONENT_KIND_LOGNORMAL) continue
-    const at = c * TILE
-    const first = plan.rowStart[c]!
-    for (let a = first; a < first + plan.anchorCount[c]!; a++) {
-      const shift = plan.lognormalShift[a]!
-      const mu = plan.lognormalMu[a]!
-      const sigma = plan.lognormalSigma[a]!
-      for (let i = 0; i < tileCount; i++) levels[a * TILE + i] = shift + Math.exp(mu + sigma * scores[at + i]!)
-    }
-  }
-}
-
-/** Each part's rise in year t into scratch.parts, and their total into scratch.rise. */
-function yearTile(plan: OutlookPlan, t: number, tileCount: number, scratch: TileScratch): void {
-  const yearCount = plan.years.length
+/** Each component's scaled anchor values, and the basis: per column, Σ (value − value at score zero). */
+function valueTile(plan: OutlookPlan, tileCount: number, scratch: TileScratch): void {
   const componentCount = plan.componentKeys.length
-  const { scores, rowAt, parts, levels, rise } = scratch
-  const riseAt = t * TILE
-  const landAt = componentCount * TILE
-  const landIntercept = plan.landIntercept[t]!
-  const landSlope = plan.landSlope[t]!
-  for (let i = 0; i < tileCount; i++) {
-    const value = landIntercept + landSlope * scores[landAt + i]!
-    parts[landAt + i] = value
-    rise[riseAt + i] = value
-  }
+  const { scores, lineAt, values, basis } = scratch
+  const intercepts = plan.anchorIntercept
+  const slopes = plan.anchorSlope
+  const landColumn = plan.basisCount - 1
+  basis.fill(0, 0, landColumn * TILE)
   for (let c = 0; c < componentCount; c++) {
     const kind = plan.kinds[c]!
     const at = c * TILE
-    if (kind === COMPONENT_KIND_PIECEWISE) {
-      const intercepts = plan.pieceIntercept
-      const slopes = plan.pieceSlope
-      for (let i = 0; i < tileCount; i++) {
-        const row = rowAt[at + i]! + t
-        const value = intercepts[row]! + slopes[row]! * scores[at + i]!
-        parts[at + i] = value
-        rise[riseAt + i]! += value
+    for (let a = 0; a < plan.anchorCount[c]!; a++) {
+      const slot = plan.valueStart[c]! + a
+      const out = slot * TILE
+      const into = plan.valueBasis[slot]! * TILE
+      const zero = plan.valueAtZero[slot]!
+      if (kind === COMPONENT_KIND_PIECEWISE) {
+        for (let i = 0; i < tileCount; i++) {
+          const line = lineAt[at + i]! + a
+          const value = intercepts[line]! + slopes[line]! * scores[at + i]!
+          values[out + i] = value
+          basis[into + i]! += value - zero
+        }
+      } else if (kind === COMPONENT_KIND_DRAWS) {
+        for (let i = 0; i < tileCount; i++) {
+          const value = intercepts[lineAt[at + i]! + a]!
+          values[out + i] = value
+          basis[into + i]! += value - zero
+        }
+      } else {
+        const shift = plan.lognormalShift[slot]!
+        const mu = plan.lognormalMu[slot]!
+        const sigma = plan.lognormalSigma[slot]!
+        const scale = plan.lognormalScale[slot]!
+        for (let i = 0; i < tileCount; i++) {
+          const value = scale * (shift + Math.exp(mu + sigma * scores[at + i]!))
+          values[out + i] = value
+          basis[into + i]! += value - zero
+        }
       }
-    } else if (kind === COMPONENT_KIND_DRAWS) {
-      const drawRise = plan.drawRise
+    }
+  }
+  basis.set(scores.subarray(componentCount * TILE, componentCount * TILE + tileCount), landColumn * TILE)
+}
+
+/**
+ * Dot products over the tile: everything the moments and variance shares of every year need. Four
+ * columns per pass, each with its own accumulator, so the sums do not wait on one another.
+ */
+function sumTile(plan: OutlookPlan, tileCount: number, scratch: TileScratch): void {
+  const columnCount = plan.basisCount
+  const { values, basis, basisSum, basisCross, valueSum, valueCross } = scratch
+  const columns = scratch.allColumns
+  for (let j = 0; j < columnCount; j++) {
+    const at = j * TILE
+    let sum = 0
+    for (let i = 0; i < tileCount; i++) sum += basis[at + i]!
+    basisSum[j]! += sum
+  }
+  for (let row = 0; row < columnCount + plan.valueCount; row++) {
+    // Rows are the basis columns (their upper triangle is what is kept), then the anchor-value slots.
+    const isBasis = row < columnCount
+    const source = isBasis ? basis : values
+    const at = (isBasis ? row : row - columnCount) * TILE
+    const target = isBasis ? basisCross : valueCross
+    const targetAt = (isBasis ? row : row - columnCount) * columnCount
+    let sum = 0
+    for (let p = 0; p < columns.length; p += PASS) {
+      const k0 = columns[p]!
+      const b0 = k0 * TILE
+      const b1 = columns[p + 1]! * TILE
+      const b2 = columns[p + 2]! * TILE
+      const b3 = columns[p + 3]! * TILE
+      let c0 = 0
+      let c1 = 0
+      let c2 = 0
+      let c3 = 0
+      if (p === 0) {
+        for (let i = 0; i < tileCount; i++) {
+          const x = source[at + i]!
+          sum += x
+          c0 += x * basis[b0 + i]!
+          c1 += x * basis[b1 + i]!
+          c2 += x * basis[b2 + i]!
+          c3 += x * basis[b3 + i]!
+        }
+      } else {
+        for (let i = 0; i < tileCount; i++) {
+          const x = source[at + i]!
+          c0 += x * basis[b0 + i]!
+          c1 += x * basis[b1 + i]!
+          c2 += x * basis[b2 + i]!
+          c3 += x * basis[b3 + i]!
+        }
+      }
+      // Padding columns point at the zero row and are not stored.
+      if (k0 < columnCount) target[targetAt + k0]! += c0
+      if (columns[p + 1]! < columnCount) target[targetAt + columns[p + 1]!]! += c1
+      if (columns[p + 2]! < columnCount) target[targetAt + columns[p + 2]!]! += c2
+      if (columns[p + 3]! < columnCount) target[targetAt + columns[p + 3]!]! += c3
+    }
+    if (!isBasis) valueSum[row - columnCount]! += sum
+  }
+}
+
+/** rise(t) = center + Σ_j weight_j · basis_j over the tile, a few columns per pass. */
+function riseOfYear(plan: OutlookPlan, t: number, tileCount: number, scratch: TileScratch): void {
+  const { rise, basis } = scratch
+  const columns = scratch.yearColumns[t]!
+  const weights = scratch.yearWeights[t]!
+  const out = t * TILE
+  const center = plan.center[t]!
+  if (columns.length === 0) {
+    rise.fill(center, out, out + tileCount)
+    return
+  }
+  for (let p = 0; p < columns.length; p += PASS) {
+    const b0 = columns[p]! * TILE
+    const b1 = columns[p + 1]! * TILE
+    const b2 = columns[p + 2]! * TILE
+    const b3 = columns[p + 3]! * TILE
+    const w0 = weights[p]!
+    const w1 = weights[p + 1]!
+    const w2 = weights[p + 2]!
+    const w3 = weights[p + 3]!
+    if (p === 0) {
       for (let i = 0; i < tileCount; i++) {
-        const value = drawRise[rowAt[at + i]! + t]!
-        parts[at + i] = value
-        rise[riseAt + i]! += value
+        rise[out + i] = center + w0 * basis[b0 + i]! + w1 * basis[b1 + i]! + w2 * basis[b2 + i]! + w3 * basis[b3 + i]!
       }
     } else {
-      const first = plan.rowStart[c]!
-      for (let i = 0; i < tileCount; i++) parts[at + i] = 0
-      for (let a = first; a < first + plan.anchorCount[c]!; a++) {
-        const weight = plan.anchorWeight[a * yearCount + t]!
-        if (weight === 0) continue
-        for (let i = 0; i < tileCount; i++) parts[at + i]! += weight * levels[a * TILE + i]!
+      for (let i = 0; i < tileCount; i++) {
+        rise[out + i] = rise[out + i]! + w0 * basis[b0 + i]! + w1 * basis[b1 + i]! + w2 * basis[b2 + i]! + w3 * basis[b3 + i]!
       }
-      for (let i = 0; i < tileCount; i++) rise[riseAt + i]! += parts[at + i]!
     }
   }
 }
 
-/** Rise, histogram, exceedance cells, moments and variance-share sums of the tile, year by year. */
-function summariseTile(plan: OutlookPlan, tileCount: number, scratch: TileScratch, partial: OutlookPartial, sumOffset: number): void {
-  const yearCount = plan.years.length
-  const partCount = plan.partKeys.length
-  const { rise, deviation, parts } = scratch
+/**
+ * Exceedance cells read from histogram cells. The cell index is monotone in the rise, so a histogram
+ * cell that no cut falls in has the same number of cuts below every rise it holds: its samples are
+ * moved to that exceedance cell wholesale at the end. A histogram cell holding a cut is marked
+ * −1 − (cuts in earlier cells) and its samples are placed exactly, one by one.
+ */
+function exceedanceCellOfBin(plan: OutlookPlan): Int32Array {
+  const cellOfBin = new Int32Array(plan.histogramSize)
+  const inverseResolution = 1 / plan.histogramResolution
+  for (let t = 0; t < plan.years.length; t++) {
+    const low = plan.histogramLow[t]!
+    const lastBin = plan.histogramBins[t]! + 1
+    const at = plan.histogramOffset[t]!
+    let cut = 0
+    for (let bin = 0; bin <= lastBin; bin++) {
+      let below = cut
+      let holdsCut = false
+      while (cut < plan.cuts.length) {
+        // The same arithmetic as the sample loop, so the comparison with `bin` is exact.
+        let cutBin = (plan.cuts[cut]! - low) * inverseResolution + 1
+        cutBin = cutBin < 0 ? 0 : cutBin > lastBin ? lastBin : cutBin | 0
+        if (cutBin > bin) break
+        if (cutBin === bin) holdsCut = true
+        else below++
+        cut++
+      }
+      cellOfBin[at + bin] = holdsCut ? -1 - below : below
+    }
+  }
+  return cellOfBin
+}
+
+/** Histogram, extremes, and the exceedance cell of samples in histogram cells that hold a cut, for year t. */
+function countYear(plan: OutlookPlan, t: number, tileCount: number, scratch: TileScratch, partial: OutlookPartial): void {
+  const rise = scratch.rise
+  const cellOfBin = scratch.cellOfBin
   const cuts = plan.cuts
   const cutCount = cuts.length
-  const cellsPerYear = cutCount + 1
-  const bucketStart = plan.cutBucketStart
-  const bucketLast = bucketStart.length - 1
-  const bucketOrigin = plan.cutBucketOrigin
-  const bucketInverseWidth = plan.cutBucketInverseWidth
   const inverseResolution = 1 / plan.histogramResolution
   const cellCounts = partial.cellCounts
   const histogram = partial.histogram
-  const sums = partial.blockSums
+  const riseAt = t * TILE
+  const low = plan.histogramLow[t]!
+  const lastBin = plan.histogramBins[t]! + 1
+  const histogramAt = plan.histogramOffset[t]!
+  const cellAt = t * (cutCount + 1)
+  let minimum = partial.minimum[t]!
+  let maximum = partial.maximum[t]!
+  for (let i = 0; i < tileCount; i++) {
+    const value = rise[riseAt + i]!
+    if (value < minimum) minimum = value
+    if (value > maximum) maximum = value
+    let bin = (value - low) * inverseResolution + 1
+    bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
+    const at = histogramAt + bin
+    histogram[at]!++
+    const cellHint = cellOfBin[at]!
+    if (cellHint < 0) {
+      let cell = -1 - cellHint
+      while (cell < cutCount && cuts[cell]! < value) cell++
+      cellCounts[cellAt + cell]!++
+    }
+  }
+  partial.minimum[t] = minimum
+  partial.maximum[t] = maximum
+}
+
+/** Adds the samples of histogram cells without a cut to their exceedance cells (a fresh partial only). */
+function cellsFromHistogram(plan: OutlookPlan, cellOfBin: Int32Array, partial: OutlookPartial): void {
+  const cellsPerYear = plan.cuts.length + 1
+  for (let t = 0; t < plan.years.length; t++) {
+    const at = plan.histogramOffset[t]!
+    for (let bin = 0; bin <= plan.histogramBins[t]! + 1; bin++) {
+      const cell = cellOfBin[at + bin]!
+      if (cell >= 0) partial.cellCounts[t * cellsPerYear + cell]! += partial.histogram[at + bin]!
+    }
+  }
+}
+
+/**
+ * A block's basis sums → its per-year sums. With dev(t) = Σ_j w_tj·basis_j and part_c(t) = Σ_a w_t,j(a)·x_a:
+ * Σdev = Σ_j w_tj Σbasis_j, Σdev² = Σ_jk w_tj w_tk Σbasis_j·basis_k, Σpart·dev = Σ_a w_t,j(a) Σ_k w_tk Σx_a·basis_k.
+ * Land motion's part is intercept + slope·score, its score being the last basis column.
+ */
+function blockSumsByYear(plan: OutlookPlan, count: number, scratch: TileScratch, sums: Float64Array, sumOffset: number): void {
+  const columnCount = plan.basisCount
+  const landColumn = columnCount - 1
+  const componentCount = plan.componentKeys.length
+  const partCount = componentCount + 1
+  const { basisSum, basisCross, valueSum, valueCross } = scratch
+  const weight = plan.basisWeight
   const momentsAt = sumOffset + plan.sumLayout.moments
   const partSumAt = sumOffset + plan.sumLayout.partSum
   const partCrossAt = sumOffset + plan.sumLayout.partCross
-
-  lognormalTile(plan, tileCount, scratch)
-  for (let t = 0; t < yearCount; t++) {
-    yearTile(plan, t, tileCount, scratch)
-    const riseAt = t * TILE
-    const low = plan.histogramLow[t]!
-    const lastBin = plan.histogramBins[t]! + 1
-    const histogramAt = plan.histogramOffset[t]!
-    const cellAt = t * cellsPerYear
-    const center = plan.center[t]!
-    let minimum = partial.minimum[t]!
-    let maximum = partial.maximum[t]!
+  for (let t = 0; t < plan.years.length; t++) {
+    const row = t * columnCount
     let sum = 0
-    let sumSquares = 0
-    for (let i = 0; i < tileCount; i++) {
-      const value = rise[riseAt + i]!
-      if (value < minimum) minimum = value
-      if (value > maximum) maximum = value
-
-      let bin = (value - low) * inverseResolution + 1
-      bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
-      histogram[histogramAt + bin]!++
-
-      let bucket = (value - bucketOrigin) * bucketInverseWidth
-      bucket = bucket < 0 ? 0 : bucket > bucketLast ? bucketLast : bucket | 0
-      let cell = bucketStart[bucket]!
-      while (cell > 0 && cuts[cell - 1]! >= value) cell--
-      while (cell < cutCount && cuts[cell]! < value) cell++
-      cellCounts[cellAt + cell]!++
-
-      const shifted = value - center
-      deviation[i] = shifted
-      sum += shifted
-      sumSquares += shifted * shifted
+    let squares = 0
+    for (let j = 0; j < columnCount; j++) {
+      sum += weight[row + j]! * basisSum[j]!
+      let inner = 0
+      for (let k = 0; k < columnCount; k++) inner += weight[row + k]! * basisCross[j * columnCount + k]!
+      squares += weight[row + j]! * inner
     }
-    partial.minimum[t] = minimum
-    partial.maximum[t] = maximum
-    sums[momentsAt + 2 * t]! += sum
-    sums[momentsAt + 2 * t + 1]! += sumSquares
-
-    for (let p = 0; p < partCount; p++) {
-      const at = p * TILE
+    sums[momentsAt + 2 * t] = sum
+    sums[momentsAt + 2 * t + 1] = squares
+    for (let c = 0; c < componentCount; c++) {
       let partSum = 0
       let cross = 0
-      for (let i = 0; i < tileCount; i++) {
-        const value = parts[at + i]!
-        partSum += value
-        cross += value * deviation[i]!
+      for (let a = 0; a < plan.anchorCount[c]!; a++) {
+        const slot = plan.valueStart[c]! + a
+        const w = weight[row + plan.valueBasis[slot]!]!
+        let inner = 0
+        for (let k = 0; k < columnCount; k++) inner += weight[row + k]! * valueCross[slot * columnCount + k]!
+        partSum += w * valueSum[slot]!
+        cross += w * inner
       }
-      sums[partSumAt + t * partCount + p]! += partSum
-      sums[partCrossAt + t * partCount + p]! += cross
+      sums[partSumAt + t * partCount + c] = partSum
+      sums[partCrossAt + t * partCount + c] = cross
     }
+    let landCross = 0
+    for (let k = 0; k < columnCount; k++) landCross += weight[row + k]! * basisCross[landColumn * columnCount + k]!
+    const landIntercept = plan.landIntercept[t]!
+    const landSlope = plan.landSlope[t]!
+    sums[partSumAt + t * partCount + componentCount] = landIntercept * count + landSlope * basisSum[landColumn]!
+    sums[partCrossAt + t * partCount + componentCount] = landIntercept * sum + landSlope * landCross
   }
 }
 

@@ -46,19 +46,32 @@ export interface OutlookPlan {
   breakpointStart: Int32Array
   breakpointCount: Int32Array
   breakpoints: Float64Array
-  /** Per component: first row (piece, draw or anchor) in its table. */
-  rowStart: Int32Array
-  /** Piecewise forms: rise = pieceIntercept[row·Y + t] + pieceSlope[row·Y + t] · score. */
-  pieceIntercept: Float64Array
-  pieceSlope: Float64Array
-  /** Sample-draw forms: rise of ranked draw `row` in year t at drawRise[row·Y + t]. */
-  drawRise: Float64Array
-  /** Lognormal forms: per anchor shift, mu, sigma; rise(t) = Σ_a anchorWeight[(row+a)·Y + t]·x_a. */
+  /**
+   * Each component's rise in year t is Σ_a relativeWeight[t][a] · x_a, with x_a its scaled anchor value for
+   * the sample's score. Per component: anchor count, first anchor-value slot, first row of its lines.
+   */
   anchorCount: Int32Array
+  valueStart: Int32Array
+  lineStart: Int32Array
+  /** Piecewise and draw forms: x_a = anchorIntercept[row·A + a] + anchorSlope[row·A + a] · score. */
+  anchorIntercept: Float64Array
+  anchorSlope: Float64Array
+  /** Lognormal forms, per anchor-value slot: x = scale · (shift + exp(mu + sigma · score)). */
   lognormalShift: Float64Array
   lognormalMu: Float64Array
   lognormalSigma: Float64Array
-  anchorWeight: Float64Array
+  lognormalScale: Float64Array
+  /** Anchor-value slots of all components, each slot's basis column, and its value at score zero. */
+  valueCount: number
+  valueBasis: Int32Array
+  valueAtZero: Float64Array
+  /**
+   * Rise basis: components with the same time weights share columns (one per anchor), land motion's
+   * score is the last column. rise(t) = center[t] + Σ_j basisWeight[t·J + j] · (u_j − u_j at score zero),
+   * u_j the sum of the slots mapped to column j.
+   */
+  basisCount: number
+  basisWeight: Float64Array
 
   /** Land motion rise: landIntercept[t] + landSlope[t] · score. */
   landIntercept: Float64Array
