@@ -1,5 +1,5 @@
 import { fillOpenUniforms, blockStreamState } from './rng'
-import { standardNormalQuantilesInPlace } from './normal'
+import { standardNormalQuantiles } from './normal'
 import { COMPONENT_KIND_DRAWS, COMPONENT_KIND_PIECEWISE, type OutlookPlan, type OutlookPartial } from './types'
 
 // The sample loop. Everything it touches is a typed array hoisted into a local, nothing is allocated
@@ -104,7 +104,7 @@ function yearPasses(plan: OutlookPlan): { columns: Int32Array[]; weights: Float6
   for (let t = 0; t < plan.years.length; t++) {
     const used: number[] = []
     for (let j = 0; j < columnCount; j++) if (plan.basisWeight[t * columnCount + j] !== 0) used.push(j)
-    const padded = Math.ceil(used.length / PASS) * PASS
+    const padded = Math.max(1, Math.ceil(used.length / PASS)) * PASS
     const yearColumns = new Int32Array(padded).fill(columnCount)
     const yearWeights = new Float64Array(padded)
     used.forEach((j, k) => {
@@ -134,6 +134,8 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
   const scoresPerSample = componentCount + 1
   const columnCount = plan.basisCount
   const uniforms = new Float64Array(plan.blockSize * scoresPerSample)
+  const independent = new Float64Array(plan.blockSize * scoresPerSample)
+  const tails = new Int32Array(plan.blockSize * scoresPerSample)
   const passes = yearPasses(plan)
   const scratch: TileScratch = {
     scores: new Float64Array(scoresPerSample * TILE),
@@ -162,14 +164,14 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
     const count = Math.min(plan.blockSize, plan.samples - blockIndex * plan.blockSize)
     const stream = blockStreamState(plan.seed, blockIndex)
     fillOpenUniforms(stream, uniforms, count * scoresPerSample)
-    standardNormalQuantilesInPlace(uniforms, count * scoresPerSample)
+    standardNormalQuantiles(uniforms, independent, count * scoresPerSample, tails)
     scratch.basisSum.fill(0)
     scratch.basisCross.fill(0)
     scratch.valueSum.fill(0)
     scratch.valueCross.fill(0)
     for (let tileStart = 0; tileStart < count; tileStart += TILE) {
       const tileCount = Math.min(TILE, count - tileStart)
-      scoreTile(plan, uniforms, tileStart, tileCount, scratch)
+      scoreTile(plan, independent, tileStart, tileCount, scratch)
       valueTile(plan, tileCount, scratch)
       sumTile(plan, tileCount, scratch)
       for (let t = 0; t < yearCount; t++) {
@@ -355,18 +357,17 @@ function sumTile(plan: OutlookPlan, tileCount: number, scratch: TileScratch): vo
   }
 }
 
-/** rise(t) = center + Σ_j weight_j · basis_j over the tile, a few columns per pass. */
+/**
+ * rise(t) = center + Σ_j weight_j · basis_j over the tile, a few columns per pass: every pass but the
+ * last, which `countYear` adds as it reads the rise.
+ */
 function riseOfYear(plan: OutlookPlan, t: number, tileCount: number, scratch: TileScratch): void {
   const { rise, basis } = scratch
   const columns = scratch.yearColumns[t]!
   const weights = scratch.yearWeights[t]!
   const out = t * TILE
-  const center = plan.center[t]!
-  if (columns.length === 0) {
-    rise.fill(center, out, out + tileCount)
-    return
-  }
-  for (let p = 0; p < columns.length; p += PASS) {
+  rise.fill(plan.center[t]!, out, out + tileCount)
+  for (let p = 0; p + PASS < columns.length; p += PASS) {
     const b0 = columns[p]! * TILE
     const b1 = columns[p + 1]! * TILE
     const b2 = columns[p + 2]! * TILE
@@ -375,14 +376,8 @@ function riseOfYear(plan: OutlookPlan, t: number, tileCount: number, scratch: Ti
     const w1 = weights[p + 1]!
     const w2 = weights[p + 2]!
     const w3 = weights[p + 3]!
-    if (p === 0) {
-      for (let i = 0; i < tileCount; i++) {
-        rise[out + i] = center + w0 * basis[b0 + i]! + w1 * basis[b1 + i]! + w2 * basis[b2 + i]! + w3 * basis[b3 + i]!
-      }
-    } else {
-      for (let i = 0; i < tileCount; i++) {
-        rise[out + i] = rise[out + i]! + w0 * basis[b0 + i]! + w1 * basis[b1 + i]! + w2 * basis[b2 + i]! + w3 * basis[b3 + i]!
-      }
+    for (let i = 0; i < tileCount; i++) {
+      rise[out + i] = rise[out + i]! + w0 * basis[b0 + i]! + w1 * basis[b1 + i]! + w2 * basis[b2 + i]! + w3 * basis[b3 + i]!
     }
   }
 }
@@ -433,10 +428,24 @@ function countYear(plan: OutlookPlan, t: number, tileCount: number, scratch: Til
   const lastBin = plan.histogramBins[t]! + 1
   const histogramAt = plan.histogramOffset[t]!
   const cellAt = t * (cutCount + 1)
+  const basis = scratch.basis
+  const columns = scratch.yearColumns[t]!
+  const weights = scratch.yearWeights[t]!
+  // The last pass of the rise (padded with the zero row, weight 0).
+  const last = columns.length - PASS
+  const b0 = columns[last]! * TILE
+  const b1 = columns[last + 1]! * TILE
+  const b2 = columns[last + 2]! * TILE
+  const b3 = columns[last + 3]! * TILE
+  const w0 = weights[last]!
+  const w1 = weights[last + 1]!
+  const w2 = weights[last + 2]!
+  const w3 = weights[last + 3]!
   let minimum = partial.minimum[t]!
   let maximum = partial.maximum[t]!
   for (let i = 0; i < tileCount; i++) {
-    const value = rise[riseAt + i]!
+    const value = rise[riseAt + i]! + w0 * basis[b0 + i]! + w1 * basis[b1 + i]! + w2 * basis[b2 + i]! + w3 * basis[b3 + i]!
+    rise[riseAt + i] = value
     if (value < minimum) minimum = value
     if (value > maximum) maximum = value
     let bin = (value - low) * inverseResolution + 1
