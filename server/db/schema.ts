@@ -1,6 +1,6 @@
-import { boolean, customType, index, integer, jsonb, pgEnum, pgTable, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core'
+import { boolean, customType, doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core'
 import { ORGANISATION_KINDS, ROLES } from '../../shared/types/roles'
-import { AMOUNT_UNITS, RELEASE_FORMS, REVIEW_STATES } from '../../shared/types/science'
+import { AMOUNT_UNITS, LAND_MOTION_SOURCES, OUTLOOK_STATES, RELEASE_FORMS, REVIEW_STATES } from '../../shared/types/science'
 
 export const roleEnum = pgEnum('role', ROLES)
 export const organisationKindEnum = pgEnum('organisation_kind', ORGANISATION_KINDS)
@@ -128,3 +128,80 @@ export const scaleFactorGrids = pgTable('scale_factor_grids', {
   factors: jsonb('factors').$type<number[][]>().notNull(),
   ...reviewed(),
 }, table => [unique('scale_factor_grids_version').on(table.organisationId, table.component, table.version)])
+
+// ---- Coastal sites and their outlooks ----
+
+export const landMotionSourceEnum = pgEnum('land_motion_source', LAND_MOTION_SOURCES)
+export const outlookStateEnum = pgEnum('outlook_state', OUTLOOK_STATES)
+
+export const sites = pgTable('sites', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  organisationId: uuid('organisation_id').notNull().references(() => organisations.id),
+  name: text('name').notNull(),
+  latitude: doublePrecision('latitude').notNull(),
+  longitude: doublePrecision('longitude').notNull(),
+  /** Which datum heights here are measured from, in the planner's words. */
+  referenceLevel: text('reference_level').notNull(),
+  /** mm/yr, negative = sinking (which adds to local rise). */
+  landMotionRate: doublePrecision('land_motion_rate').notNull(),
+  landMotionSigma: doublePrecision('land_motion_sigma').notNull(),
+  landMotionSource: landMotionSourceEnum('land_motion_source').notNull(),
+  landMotionReference: text('land_motion_reference').notNull().default(''),
+  landMotionEpoch: integer('land_motion_epoch').notNull(),
+  /** Gumbel statistics of annual maximum water level (metres above the reference level). */
+  gumbelLocation: doublePrecision('gumbel_location'),
+  gumbelScale: doublePrecision('gumbel_scale'),
+  /** 'entered', or the number of annual maxima the fit used. */
+  gumbelSource: text('gumbel_source'),
+  createdBy: uuid('created_by').notNull().references(() => users.id),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+}, table => [index('sites_organisation_idx').on(table.organisationId)])
+
+export const thresholds = pgTable('thresholds', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  siteId: uuid('site_id').notNull().references(() => sites.id, { onDelete: 'cascade' }),
+  label: text('label').notNull(),
+  /** Metres above the site's reference level. */
+  height: doublePrecision('height').notNull(),
+  designLifeYears: integer('design_life_years'),
+  position: integer('position').notNull().default(0),
+}, table => [index('thresholds_site_idx').on(table.siteId)])
+
+export const annualMaxima = pgTable('annual_maxima', {
+  siteId: uuid('site_id').notNull().references(() => sites.id, { onDelete: 'cascade' }),
+  year: integer('year').notNull(),
+  value: doublePrecision('value').notNull(),
+}, table => [unique('annual_maxima_site_year').on(table.siteId, table.year)])
+
+export interface OutlookReleaseRef { component: string, releaseId: string, seriesId: string, version: number, citation: string, title: string, scale: number, scaleSource: string | null }
+
+export interface OutlookHeadline { thresholdLabel: string, height: number, year: number, probability: number }
+
+export const outlooks = pgTable('outlooks', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  siteId: uuid('site_id').notNull().references(() => sites.id, { onDelete: 'cascade' }),
+  scenario: text('scenario').notNull(),
+  samples: integer('samples').notNull(),
+  seed: integer('seed').notNull(),
+  /** SHA-256 of the engine input and engine version: same hash, same numbers. */
+  inputHash: text('input_hash').notNull(),
+  engineVersion: text('engine_version').notNull(),
+  state: outlookStateEnum('state').notNull().default('running'),
+  /** Everything needed to reproduce the run: the engine input as sent. */
+  input: jsonb('input').$type<Record<string, unknown>>().notNull(),
+  releaseRefs: jsonb('release_refs').$type<OutlookReleaseRef[]>().notNull(),
+  correlationSetId: uuid('correlation_set_id').references(() => correlationSets.id),
+  notes: jsonb('notes').$type<string[]>().notNull().default([]),
+  result: jsonb('result').$type<Record<string, unknown>>(),
+  /** The first threshold's chance in the headline year, kept small for site lists. */
+  headline: jsonb('headline').$type<OutlookHeadline>(),
+  error: text('error'),
+  durationMs: integer('duration_ms'),
+  requestedBy: uuid('requested_by').references(() => users.id),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  finishedAt: timestamp('finished_at', { withTimezone: true }),
+}, table => [
+  unique('outlooks_site_input').on(table.siteId, table.inputHash),
+  index('outlooks_site_idx').on(table.siteId),
+])

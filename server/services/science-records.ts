@@ -2,7 +2,6 @@ import { and, desc, eq, inArray, max, type SQL } from 'drizzle-orm'
 import { visibleTo } from './releases'
 import { correlationSets, organisations, scaleFactorGrids } from '~~/server/db/schema'
 import { validateCorrelationMatrix } from '#shared/engine'
-import { CsvError } from '#shared/releases/csv'
 import { gridErrors, gridWarnings, parseGridCsv, type ScaleFactorGrid } from '#shared/releases/grid'
 import type { CreateCorrelationSetInput, CreateScaleFactorGridInput } from '#shared/schemas/releases'
 import type { CurrentUser } from '../utils/auth'
@@ -44,15 +43,7 @@ export async function createCorrelationSet(actor: CurrentUser, input: CreateCorr
 }
 
 function gridFrom(input: CreateScaleFactorGridInput): ScaleFactorGrid {
-  if (input.csv !== undefined) {
-    try {
-      return parseGridCsv(input.csv)
-    }
-    catch (error) {
-      if (error instanceof CsvError) throw createError({ statusCode: 400, message: error.message, data: { issues: error.issues } })
-      throw error
-    }
-  }
+  if (input.csv !== undefined) return asBadRequest(() => parseGridCsv(input.csv!))
   if (!input.latitudes || !input.longitudes || !input.factors) {
     throw createError({ statusCode: 400, message: 'csv: Send a CSV table, or latitudes, longitudes and factors.' })
   }

@@ -1,4 +1,5 @@
 import { ReleaseContentError } from '#shared/releases/content'
+import { CsvError } from '#shared/releases/csv'
 import { EngineInputError } from '#shared/engine'
 
 /** Runs a build step and turns its refusal into a 400 whose message names each field to fix. */
@@ -7,7 +8,7 @@ export function asBadRequest<T>(build: () => T): T {
     return build()
   }
   catch (error) {
-    const issues = error instanceof ReleaseContentError
+    const issues = error instanceof ReleaseContentError || error instanceof CsvError
       ? error.issues
       : error instanceof EngineInputError
         ? error.issues.map(issue => ({ field: issue.path || 'body', message: issue.message }))

@@ -20,3 +20,10 @@ export const PUBLIC_STATES: readonly ReviewState[] = ['published', 'superseded',
 /** How amounts are entered; everything is stored in metres of global mean rise. */
 export const AMOUNT_UNITS = ['m', 'mm', 'Gt'] as const
 export type AmountUnit = typeof AMOUNT_UNITS[number]
+
+/** Where a land-motion estimate comes from. */
+export const LAND_MOTION_SOURCES = ['gps', 'insar', 'model', 'other'] as const
+export type LandMotionSource = typeof LAND_MOTION_SOURCES[number]
+
+export const OUTLOOK_STATES = ['running', 'done', 'failed'] as const
+export type OutlookState = typeof OUTLOOK_STATES[number]

@@ -36,6 +36,7 @@ export async function startServer(env: Record<string, string> = {}): Promise<Run
       PORT: String(port),
       PGLITE_DATA_DIR: 'memory://',
       NUXT_SESSION_PASSWORD: 'test-session-password-at-least-32-characters-long',
+      PRECOMPUTE_DEMO_OUTLOOKS: 'false',
       ...env,
     },
     stdio: ['ignore', 'pipe', 'pipe'],

@@ -3,6 +3,7 @@ import type { Role } from '../../../shared/types/roles'
 import type { Database } from '../client'
 import { auditLog, organisations, users } from '../schema'
 import { seedScience } from './science'
+import { seedSites } from './sites'
 
 // An invented stretch of coast. Every name, organisation and person here is fictional and
 // illustrative; the README lists the demo passwords, which are for the demo only.
@@ -54,6 +55,10 @@ export async function seedDemo(db: Database, hash: (password: string) => Promise
       organisationId: orgIds.get('science')!,
       authorId: idOf('analyst@saltglass.example'),
       reviewerId: idOf('reviewer@saltglass.example'),
+    })
+    await seedSites(tx, {
+      council: { org: orgIds.get('council')!, planner: idOf('planner@caldwyn.example') },
+      port: { org: orgIds.get('port')!, planner: idOf('planner@skerrow.example') },
     })
     await tx.insert(auditLog).values({ action: 'demo.seeded', targetType: 'database', detail: { coast: DEMO_COAST } })
   })

@@ -1,0 +1,10 @@
+import { IdParams } from '#shared/schemas/users'
+import { listSiteOutlooks } from '~~/server/services/outlooks'
+import { loadSite } from '~~/server/services/sites'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireUser(event)
+  const { id } = readValidParams(event, IdParams)
+  const site = await loadSite(user, id)
+  return { ...site, outlooks: await listSiteOutlooks(id), canEdit: user.role === 'planner' }
+})

@@ -1,0 +1,30 @@
+import { and, eq, notExists } from 'drizzle-orm'
+import { organisations, outlooks, sites, users } from '~~/server/db/schema'
+import { requestOutlook } from '~~/server/services/outlooks'
+
+// The demo opens with outlooks already computed for its towns, so a planner sees charts at once.
+// Runs in the background after start; PRECOMPUTE_DEMO_OUTLOOKS=false skips it (tests do).
+const DEMO_SCENARIOS = ['SSP2-4.5', 'SSP5-8.5']
+
+export default defineNitroPlugin(() => {
+  if (process.env.SEED_DEMO === 'false' || process.env.PRECOMPUTE_DEMO_OUTLOOKS === 'false') return
+  precompute().catch(error => console.error('[brinkwater] Demo outlooks were not precomputed:', error instanceof Error ? error.message : error))
+})
+
+async function precompute() {
+  const db = await useDb()
+  const pending = await db.select({ id: sites.id, organisationId: sites.organisationId }).from(sites)
+    .innerJoin(organisations, eq(organisations.id, sites.organisationId))
+    .where(and(eq(organisations.illustrative, true), notExists(db.select({ id: outlooks.id }).from(outlooks).where(eq(outlooks.siteId, sites.id)))))
+  for (const site of pending) {
+    const [planner] = await db.select({ id: users.id }).from(users)
+      .where(and(eq(users.organisationId, site.organisationId), eq(users.role, 'planner'), eq(users.disabled, false))).limit(1)
+    const user = planner && await loadSessionUser(planner.id)
+    if (!user) continue
+    for (const scenario of DEMO_SCENARIOS) {
+      const { run } = await requestOutlook(user, site.id, { scenario, samples: 100_000, seed: 1, wait: true })
+      await run
+    }
+  }
+  if (pending.length) console.info(`[brinkwater] Precomputed demo outlooks for ${pending.length} sites.`)
+}

@@ -1,0 +1,131 @@
+import { createHash } from 'node:crypto'
+import { and, desc, eq } from 'drizzle-orm'
+import { outlooks, type OutlookReleaseRef } from '~~/server/db/schema'
+import { EngineInputError, validateOutlookInput, type OutlookResult } from '#shared/engine'
+import { ENGINE_VERSION } from '#shared/engine/version'
+import type { OutlookRequest } from '#shared/schemas/sites'
+import type { CurrentUser } from '../utils/auth'
+import { correlationFor, latestReleases, scaleFactorsAt, scienceFor } from './science-inputs'
+import { headlineOf } from './site-list'
+import { loadSite } from './sites'
+
+type Site = Awaited<ReturnType<typeof loadSite>>
+
+/** Heights the exceedance curves are drawn on, metres above the reference level. */
+export const HEIGHT_GRID = { from: -1, to: 4, step: 0.02 }
+const DECADE = 10
+
+/** Output years: the baseline ("today"), then each decade up to the shortest release horizon. */
+export function outlookYears(baselineYear: number, horizon: number) {
+  const years = [baselineYear]
+  for (let year = Math.floor(baselineYear / DECADE) * DECADE + DECADE; year <= horizon; year += DECADE) years.push(year)
+  return years
+}
+
+/** Everything that goes into one run, with the provenance stored beside it. */
+export async function assembleOutlook(site: Site, request: OutlookRequest, baselineYear = new Date().getUTCFullYear()) {
+  const science = await scienceFor(request.scenario)
+  const components = science.map(s => s.component)
+  const [{ set, matrix }, scales] = await Promise.all([correlationFor(request.scenario, components), scaleFactorsAt(site.latitude, site.longitude)])
+  const horizon = Math.min(...science.map(s => (s.release.anchorYears as number[]).at(-1)!))
+  const years = outlookYears(baselineYear, horizon)
+  const notes: string[] = []
+  const unscaled = components.filter(c => !scales.get(c)!.gridId)
+  if (unscaled.length) notes.push(`No published scale-factor grid covers this site for ${unscaled.join(', ')}; a factor of 1.0 (the global mean) was used.`)
+  if (!set) notes.push(`No correlation set is published for ${request.scenario}; the components were sampled as independent.`)
+
+  const input = {
+    baselineYear,
+    years,
+    samples: request.samples,
+    seed: request.seed,
+    components: science.map(s => ({ key: s.component, scale: scales.get(s.component)!.factor, release: s.release })),
+    ...(matrix ? { correlation: matrix } : {}),
+    landMotion: { rateMmPerYear: site.landMotionRate, sigmaMmPerYear: site.landMotionSigma, epoch: site.landMotionEpoch },
+    heights: HEIGHT_GRID,
+    thresholds: site.thresholds.map((t) => {
+      const lifeFits = t.designLifeYears !== null && baselineYear + t.designLifeYears <= years.at(-1)!
+      if (t.designLifeYears !== null && !lifeFits) notes.push(`The design life of "${t.label}" ends after ${years.at(-1)}, beyond the releases; its chance over the life is not given.`)
+      return { key: t.id, height: t.height, ...(lifeFits ? { designLifeYears: t.designLifeYears! } : {}) }
+    }),
+    ...(site.gumbelLocation !== null && site.gumbelScale !== null ? { gumbel: { location: site.gumbelLocation, scale: site.gumbelScale } } : {}),
+  }
+  const releaseRefs: OutlookReleaseRef[] = science.map(s => ({
+    component: s.component, releaseId: s.releaseId, seriesId: s.seriesId, version: s.version, citation: s.citation, title: s.title,
+    scale: scales.get(s.component)!.factor, scaleSource: scales.get(s.component)!.note,
+  }))
+  // Refuse a run the engine would refuse before anything is stored.
+  asBadRequest(() => validateOutlookInput(input))
+  const inputHash = createHash('sha256').update(JSON.stringify({ engine: ENGINE_VERSION, input })).digest('hex')
+  return { input, inputHash, releaseRefs, notes, correlationSetId: set?.id ?? null }
+}
+
+const progress = new Map<string, number>()
+
+export function outlookProgress(id: string) {
+  return progress.get(id) ?? null
+}
+
+/**
+ * Runs an outlook, or finds the stored one with the same input hash. With `wait` the answer comes
+ * when the run is done; otherwise at once, with the run going on in the background.
+ */
+export async function requestOutlook(planner: CurrentUser, siteId: string, request: OutlookRequest) {
+  const site = await loadSite(planner, siteId)
+  const assembled = await assembleOutlook(site, request)
+  const db = await useDb()
+  const [stored] = await db.select({ id: outlooks.id, state: outlooks.state }).from(outlooks)
+    .where(and(eq(outlooks.siteId, siteId), eq(outlooks.inputHash, assembled.inputHash)))
+  if (stored && stored.state !== 'failed') return { id: stored.id, cached: true, run: null }
+  if (stored) await db.delete(outlooks).where(eq(outlooks.id, stored.id))
+
+  const [row] = await db.insert(outlooks).values({
+    siteId, scenario: request.scenario, samples: request.samples, seed: request.seed, inputHash: assembled.inputHash,
+    engineVersion: ENGINE_VERSION, input: assembled.input, releaseRefs: assembled.releaseRefs, notes: assembled.notes,
+    correlationSetId: assembled.correlationSetId, requestedBy: planner.id,
+  }).onConflictDoNothing().returning({ id: outlooks.id })
+  if (!row) {
+    // Someone asked for the same outlook a moment ago: follow that run.
+    const [twin] = await db.select({ id: outlooks.id }).from(outlooks).where(and(eq(outlooks.siteId, siteId), eq(outlooks.inputHash, assembled.inputHash)))
+    return { id: twin!.id, cached: true, run: null }
+  }
+  const run = execute(row.id, assembled.input, new Map(site.thresholds.map(t => [t.id, t.label])))
+  await writeAudit(db, planner, 'outlook.requested', { type: 'outlook', id: row.id }, { site: siteId, scenario: request.scenario, samples: request.samples })
+  return { id: row.id, cached: false, run }
+}
+
+async function execute(id: string, input: unknown, thresholdLabels: Map<string, string>) {
+  const db = await useDb()
+  const started = performance.now()
+  progress.set(id, 0)
+  try {
+    const result: OutlookResult = await runOutlookOffThread(input, fraction => progress.set(id, fraction))
+    await db.update(outlooks).set({ state: 'done', result: result as unknown as Record<string, unknown>, headline: headlineOf(result, thresholdLabels), durationMs: Math.round(performance.now() - started), finishedAt: new Date() }).where(eq(outlooks.id, id))
+  }
+  catch (error) {
+    const message = error instanceof EngineInputError ? error.message : 'The computation failed; try again, and tell an administrator if it keeps failing.'
+    if (!(error instanceof EngineInputError)) console.error('[brinkwater] outlook failed', error)
+    await db.update(outlooks).set({ state: 'failed', error: message, finishedAt: new Date() }).where(eq(outlooks.id, id))
+  }
+  finally {
+    progress.delete(id)
+  }
+}
+
+/** Which releases an outlook used have since been superseded or withdrawn, and by what. */
+export async function newerScience(scenario: string, refs: OutlookReleaseRef[]) {
+  const latest = await latestReleases(scenario)
+  return refs.flatMap((ref) => {
+    const now = latest.get(ref.component)
+    if (!now) return [{ component: ref.component, usedVersion: ref.version, latestVersion: null, latestReleaseId: null }]
+    return now.id === ref.releaseId ? [] : [{ component: ref.component, usedVersion: ref.version, latestVersion: now.version, latestReleaseId: now.id }]
+  })
+}
+
+export async function listSiteOutlooks(siteId: string) {
+  const db = await useDb()
+  return db.select({
+    id: outlooks.id, scenario: outlooks.scenario, samples: outlooks.samples, seed: outlooks.seed, state: outlooks.state,
+    createdAt: outlooks.createdAt, finishedAt: outlooks.finishedAt, inputHash: outlooks.inputHash,
+  }).from(outlooks).where(eq(outlooks.siteId, siteId)).orderBy(desc(outlooks.createdAt))
+}

@@ -1,0 +1,52 @@
+import { and, asc, desc, eq } from 'drizzle-orm'
+import { outlooks, series, sites, thresholds, type OutlookHeadline } from '~~/server/db/schema'
+import type { OutlookResult } from '#shared/engine'
+import { COMPONENTS, KNOWN_SCENARIOS } from '#shared/types/science'
+import type { CurrentUser } from '../utils/auth'
+import { latestReleases } from './science-inputs'
+
+/** The year a site's headline number is given for (or the last year before it). */
+export const HEADLINE_YEAR = 2100
+
+/** The first threshold's chance of being exceeded in the headline year. */
+export function headlineOf(result: OutlookResult, labels: Map<string, string>): OutlookHeadline | null {
+  const threshold = result.thresholds[0]
+  if (!threshold) return null
+  let index = result.years.findLastIndex(year => year <= HEADLINE_YEAR)
+  if (index < 0) index = 0
+  return { thresholdLabel: labels.get(threshold.key) ?? threshold.key, height: threshold.height, year: result.years[index]!, probability: threshold.byYear[index]!.value }
+}
+
+export async function listSites(user: CurrentUser) {
+  const db = await useDb()
+  const rows = await db.select().from(sites).where(eq(sites.organisationId, user.organisationId)).orderBy(asc(sites.name))
+  const latest = await db.selectDistinctOn([outlooks.siteId], { siteId: outlooks.siteId, id: outlooks.id, scenario: outlooks.scenario, headline: outlooks.headline, finishedAt: outlooks.finishedAt })
+    .from(outlooks).innerJoin(sites, eq(sites.id, outlooks.siteId))
+    .where(and(eq(sites.organisationId, user.organisationId), eq(outlooks.state, 'done')))
+    .orderBy(outlooks.siteId, desc(outlooks.finishedAt))
+  const counts = await db.select({ siteId: thresholds.siteId }).from(thresholds).innerJoin(sites, eq(sites.id, thresholds.siteId)).where(eq(sites.organisationId, user.organisationId))
+  return rows.map(site => ({
+    id: site.id,
+    name: site.name,
+    latitude: site.latitude,
+    longitude: site.longitude,
+    landMotionRate: site.landMotionRate,
+    landMotionSigma: site.landMotionSigma,
+    thresholdCount: counts.filter(c => c.siteId === site.id).length,
+    hasExtremes: site.gumbelScale !== null,
+    latestOutlook: latest.find(o => o.siteId === site.id) ?? null,
+  }))
+}
+
+/** Each scenario with published releases, and whether every component is covered. */
+export async function scenarioCoverage() {
+  const db = await useDb()
+  const scenarios = new Set<string>(KNOWN_SCENARIOS)
+  const seen = await db.selectDistinct({ scenario: series.scenario }).from(series)
+  for (const row of seen) scenarios.add(row.scenario)
+  return Promise.all([...scenarios].sort().map(async (scenario) => {
+    const latest = await latestReleases(scenario)
+    const missing = COMPONENTS.filter(c => !latest.has(c))
+    return { scenario, complete: missing.length === 0, missing }
+  }))
+}

@@ -1,0 +1,77 @@
+import { and, asc, eq } from 'drizzle-orm'
+import { annualMaxima, sites, thresholds } from '~~/server/db/schema'
+import type { Database } from '~~/server/db/client'
+import type { SiteInput } from '#shared/schemas/sites'
+import type { CurrentUser } from '../utils/auth'
+
+type Tx = Parameters<Parameters<Database['transaction']>[0]>[0]
+
+/** A site of the caller's organisation, or 404 (another organisation's site looks missing). */
+export async function loadSite(user: CurrentUser, id: string) {
+  const db = await useDb()
+  const [site] = await db.select().from(sites).where(and(eq(sites.id, id), eq(sites.organisationId, user.organisationId)))
+  if (!site) throw createError({ statusCode: 404, message: 'No such site.' })
+  const rows = await db.select().from(thresholds).where(eq(thresholds.siteId, id)).orderBy(asc(thresholds.position))
+  return { ...site, thresholds: rows }
+}
+
+function siteColumns(input: SiteInput) {
+  return {
+    name: input.name,
+    latitude: input.latitude,
+    longitude: input.longitude,
+    referenceLevel: input.referenceLevel,
+    landMotionRate: input.landMotion.rateMmPerYear,
+    landMotionSigma: input.landMotion.sigmaMmPerYear,
+    landMotionSource: input.landMotion.source,
+    landMotionReference: input.landMotion.reference,
+    landMotionEpoch: input.landMotion.epoch,
+    ...(input.gumbel !== undefined
+      ? { gumbelLocation: input.gumbel?.location ?? null, gumbelScale: input.gumbel?.scale ?? null, gumbelSource: input.gumbel ? 'entered' : null }
+      : {}),
+  }
+}
+
+async function replaceThresholds(tx: Tx, siteId: string, list: SiteInput['thresholds']) {
+  await tx.delete(thresholds).where(eq(thresholds.siteId, siteId))
+  if (list.length) {
+    await tx.insert(thresholds).values(list.map((t, position) => ({ siteId, label: t.label, height: t.height, designLifeYears: t.designLifeYears ?? null, position })))
+  }
+}
+
+export async function createSite(planner: CurrentUser, input: SiteInput) {
+  const db = await useDb()
+  return db.transaction(async (tx) => {
+    const [site] = await tx.insert(sites).values({ ...siteColumns(input), organisationId: planner.organisationId, createdBy: planner.id }).returning()
+    await replaceThresholds(tx, site!.id, input.thresholds)
+    await writeAudit(tx, planner, 'site.created', { type: 'site', id: site!.id }, { name: input.name })
+    return site!
+  })
+}
+
+export async function updateSite(planner: CurrentUser, id: string, input: SiteInput) {
+  const before = await loadSite(planner, id)
+  const db = await useDb()
+  return db.transaction(async (tx) => {
+    const [site] = await tx.update(sites).set({ ...siteColumns(input), updatedAt: new Date() }).where(eq(sites.id, id)).returning()
+    await replaceThresholds(tx, id, input.thresholds)
+    await writeAudit(tx, planner, 'site.updated', { type: 'site', id }, {
+      landMotion: { before: [before.landMotionRate, before.landMotionSigma], after: [input.landMotion.rateMmPerYear, input.landMotion.sigmaMmPerYear] },
+      thresholds: { before: before.thresholds.map(t => [t.label, t.height]), after: input.thresholds.map(t => [t.label, t.height]) },
+    })
+    return site!
+  })
+}
+
+export async function replaceAnnualMaxima(planner: CurrentUser, id: string, fit: { maxima: { year: number, value: number }[], gumbel: { location: number, scale: number }, sampleSize: number }) {
+  await loadSite(planner, id)
+  const db = await useDb()
+  await db.transaction(async (tx) => {
+    await tx.delete(annualMaxima).where(eq(annualMaxima.siteId, id))
+    await tx.insert(annualMaxima).values(fit.maxima.map(m => ({ siteId: id, ...m })))
+    await tx.update(sites).set({
+      gumbelLocation: fit.gumbel.location, gumbelScale: fit.gumbel.scale, gumbelSource: `fitted:${fit.sampleSize}`, updatedAt: new Date(),
+    }).where(eq(sites.id, id))
+    await writeAudit(tx, planner, 'site.annual-maxima', { type: 'site', id }, { years: fit.sampleSize, ...fit.gumbel })
+  })
+}

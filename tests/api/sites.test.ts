@@ -1,0 +1,213 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { ApiClient } from '../support/client'
+import { ANALYST, PLANNER, PORT_PLANNER, READER, demoUser } from '../support/demo-users'
+import { startServer, type RunningServer } from '../support/server'
+
+let server: RunningServer
+let planner: ApiClient
+let reader: ApiClient
+let portPlanner: ApiClient
+
+const site = (overrides: Record<string, unknown> = {}) => ({
+  name: 'Test Point',
+  latitude: 48.1,
+  longitude: -34.2,
+  referenceLevel: 'Mean sea level 2020 at a test gauge',
+  landMotion: { rateMmPerYear: -3, sigmaMmPerYear: 0.5, source: 'gps', reference: 'Test station', epoch: 2020 },
+  thresholds: [{ label: 'Quay', height: 0.5 }, { label: 'Wall', height: 1.0, designLifeYears: 30 }],
+  ...overrides,
+})
+
+async function as(email: string, password: string) {
+  const api = new ApiClient(server.url)
+  await api.signIn(email, password)
+  return api
+}
+
+async function siteCount(api: ApiClient) {
+  return (await api.get('/api/sites')).body.length
+}
+
+beforeAll(async () => {
+  server = await startServer()
+  planner = await as(PLANNER.email, PLANNER.password)
+  reader = await as(READER.email, READER.password)
+  portPlanner = await as(PORT_PLANNER.email, PORT_PLANNER.password)
+})
+afterAll(async () => { await server?.stop() })
+
+describe('sites', () => {
+  it('a planner registers a site; readers of the organisation read it; other organisations get 404', async () => {
+    const created = await planner.post('/api/sites', site())
+    expect(created.status).toBe(201)
+    const id = created.body.id
+    const read = await reader.get(`/api/sites/${id}`)
+    expect(read.status).toBe(200)
+    expect(read.body).toMatchObject({ name: 'Test Point', landMotionRate: -3, canEdit: false })
+    expect(read.body.thresholds.map((t: { label: string }) => t.label)).toEqual(['Quay', 'Wall'])
+
+    expect((await portPlanner.get(`/api/sites/${id}`)).status).toBe(404)
+    expect((await portPlanner.patch(`/api/sites/${id}`, site({ name: 'Taken' }))).status).toBe(404)
+    expect((await portPlanner.post(`/api/sites/${id}/outlooks`, { scenario: 'SSP2-4.5' })).status).toBe(404)
+    expect((await portPlanner.get('/api/sites')).body.map((s: { id: string }) => s.id)).not.toContain(id)
+
+    expect((await reader.post('/api/sites', site())).status).toBe(403)
+    expect((await reader.patch(`/api/sites/${id}`, site())).status).toBe(403)
+    expect((await reader.post(`/api/sites/${id}/outlooks`, { scenario: 'SSP2-4.5' })).status).toBe(403)
+    expect((await new ApiClient(server.url).get('/api/sites')).status).toBe(401)
+  })
+
+  it('lists the demo towns of the organisation', async () => {
+    const names = (await planner.get('/api/sites')).body.map((s: { name: string }) => s.name)
+    expect(names).toEqual(expect.arrayContaining(['Kelwick', 'Drumhaven', 'Fennmouth', 'Lowmere', 'Saltcombe Ness']))
+    expect(names).not.toContain('Skerrow Quay')
+  })
+
+  it.each([
+    ['latitude 91', site({ latitude: 91 }), /^latitude: The latitude must be at most 90 degrees/],
+    ['no reference level', site({ referenceLevel: '' }), /^referenceLevel: Say which level heights here are measured from/],
+    ['a negative uncertainty', site({ landMotion: { rateMmPerYear: -3, sigmaMmPerYear: -1, source: 'gps', epoch: 2020 } }), /landMotion\.sigmaMmPerYear: The land-motion uncertainty must be at least 0/],
+    ['an unknown source', site({ landMotion: { rateMmPerYear: -3, sigmaMmPerYear: 1, source: 'rumour', epoch: 2020 } }), /landMotion\.source: Choose one of: gps, insar, model, other/],
+    ['a threshold without a name', site({ thresholds: [{ label: '', height: 1 }] }), /thresholds\.0\.label: Name the threshold/],
+  ])('refuses %s with a message naming the field, and writes nothing', async (_name, body, message) => {
+    const before = await siteCount(planner)
+    const response = await planner.post('/api/sites', body)
+    expect(response.status).toBe(400)
+    expect(response.body.message).toMatch(message)
+    expect(await siteCount(planner)).toBe(before)
+  })
+})
+
+describe('annual maxima', () => {
+  it('fits a Gumbel by L-moments from a CSV of annual maxima and stores it on the site', async () => {
+    const id = (await planner.post('/api/sites', site({ name: 'Maxima Point' }))).body.id
+    const values = [1.42, 1.55, 1.38, 1.61, 1.47, 1.52, 1.71, 1.44, 1.58, 1.49, 1.66, 1.40]
+    const csv = `year,value\n${values.map((v, i) => `${2000 + i},${v}`).join('\n')}\n`
+    const fit = await planner.post(`/api/sites/${id}/annual-maxima`, { csv })
+    expect(fit.status).toBe(200)
+    // [pub] Hosking & Wallis (1997) L-moment estimators, recomputed here by hand for this sample:
+    // b0 = mean, b1 = Σ (j−1)/(n−1)·x(j) / n over the ascending sample, scale = (2b1 − b0)/ln 2, location = b0 − 0.5772·scale.
+    const sorted = [...values].sort((a, b) => a - b)
+    const b0 = values.reduce((a, b) => a + b) / values.length
+    const b1 = sorted.reduce((sum, x, j) => sum + (j / (values.length - 1)) * x, 0) / values.length
+    const scale = (2 * b1 - b0) / Math.LN2
+    expect(fit.body).toMatchObject({ sampleSize: 12, method: 'L-moments' })
+    expect(fit.body.gumbel.scale).toBeCloseTo(scale, 10)
+    expect(fit.body.gumbel.location).toBeCloseTo(b0 - 0.5772156649 * scale, 4)
+    expect((await planner.get(`/api/sites/${id}`)).body.gumbelSource).toBe('fitted:12')
+  })
+
+  it.each([
+    ['too few years', 'year,value\n2001,1.2\n2002,1.3\n', /At least 10 years are needed for a fit, got 2/],
+    ['a wrong header', 'when,level\n2001,1.2\n', /The header must be "year,value"/],
+    ['a bad number', `year,value\n${Array.from({ length: 12 }, (_, i) => `${2000 + i},${i === 4 ? 'high' : 1.2}`).join('\n')}\n`, /csv row 6, column value: "high" is not a finite number/],
+    ['a repeated year', `year,value\n${Array.from({ length: 12 }, (_, i) => `${i === 3 ? 2002 : 2000 + i},1.2`).join('\n')}\n`, /csv row 5, column year: 2002 appears twice/],
+  ])('refuses a malformed CSV of maxima (%s) and keeps the site as it was', async (_name, csv, message) => {
+    const id = (await planner.get('/api/sites')).body.find((s: { name: string }) => s.name === 'Drumhaven').id
+    const response = await planner.post(`/api/sites/${id}/annual-maxima`, { csv })
+    expect(response.status).toBe(400)
+    expect(response.body.message).toMatch(message)
+    expect((await planner.get(`/api/sites/${id}`)).body.gumbelScale).toBeNull()
+  })
+})
+
+describe('outlooks', () => {
+  let siteId: string
+  let outlookId: string
+
+  beforeAll(async () => {
+    siteId = (await planner.post('/api/sites', site({ name: 'Outlook Point' }))).body.id
+  })
+
+  it('computes an outlook with the latest published releases and stores what went in', async () => {
+    const response = await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 7 })
+    expect(response.status).toBe(201)
+    expect(response.body.cached).toBe(false)
+    outlookId = response.body.id
+    const outlook = (await reader.get(`/api/outlooks/${outlookId}`)).body
+    expect(outlook).toMatchObject({ state: 'done', scenario: 'SSP2-4.5', samples: 20_000, seed: 7, engineVersion: expect.any(String) })
+    expect(outlook.inputHash).toMatch(/^[0-9a-f]{64}$/)
+    expect(outlook.releaseRefs.map((r: { component: string }) => r.component).sort()).toEqual(['antarctica', 'glaciers', 'greenland', 'land-water', 'ocean-expansion', 'other', 'regional-ocean'])
+    expect(outlook.releaseRefs.find((r: { component: string }) => r.component === 'greenland').version).toBe(2)
+    expect(outlook.releaseRefs.find((r: { component: string }) => r.component === 'antarctica').scaleSource).toMatch(/fingerprint/)
+    expect(outlook.notes.join(' ')).toMatch(/factor of 1\.0/)
+    expect(outlook.notes.join(' ')).toMatch(/No correlation set is published for SSP2-4.5/)
+    expect(outlook.result.thresholds).toHaveLength(2)
+    expect(outlook.newerScience).toEqual([])
+  })
+
+  it('serves the same request from the store, and the same seed elsewhere gives the same numbers', async () => {
+    const again = await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 7 })
+    expect(again.status).toBe(200)
+    expect(again.body).toEqual({ id: outlookId, cached: true })
+
+    const twin = (await planner.post('/api/sites', site({ name: 'Twin Point' }))).body.id
+    const twinOutlook = (await planner.post(`/api/sites/${twin}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 7 })).body.id
+    const [a, b] = await Promise.all([planner.get(`/api/outlooks/${outlookId}`), planner.get(`/api/outlooks/${twinOutlook}`)])
+    expect(b.body.result.byYear).toEqual(a.body.result.byYear)
+    const other = (await planner.post(`/api/sites/${twin}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 8 })).body.id
+    expect((await planner.get(`/api/outlooks/${other}`)).body.result.byYear).not.toEqual(a.body.result.byYear)
+  })
+
+  it('adds the land sinking to the rise: a sinking site is likelier to pass a height than a rising one', async () => {
+    const sinking = (await planner.post('/api/sites', site({ name: 'Sinking', landMotion: { rateMmPerYear: -8, sigmaMmPerYear: 0, source: 'model', epoch: 2020 } }))).body.id
+    const rising = (await planner.post('/api/sites', site({ name: 'Rising', landMotion: { rateMmPerYear: 8, sigmaMmPerYear: 0, source: 'model', epoch: 2020 } }))).body.id
+    const chance = async (id: string) => {
+      const outlookId = (await planner.post(`/api/sites/${id}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 3 })).body.id
+      const { result } = (await planner.get(`/api/outlooks/${outlookId}`)).body
+      const year = result.years.indexOf(2100)
+      return { p: result.thresholds[0].byYear[year].value, median: result.byYear[year].percentiles.find((q: { level: number }) => q.level === 0.5).value }
+    }
+    const [down, up] = await Promise.all([chance(sinking), chance(rising)])
+    expect(down.p).toBeGreaterThan(up.p)
+    // [practice] 16 mm/yr between the two sites over the years since the baseline, same scores (same seed).
+    const years = 2100 - new Date().getUTCFullYear()
+    expect(down.median - up.median).toBeCloseTo(0.016 * years, 2)
+  })
+
+  it.each([
+    ['0 samples', { scenario: 'SSP2-4.5', samples: 0 }, /^samples: Use at least 1,000 samples/],
+    ['10⁹ samples', { scenario: 'SSP2-4.5', samples: 1e9 }, /^samples: Use at most 2,000,000 samples/],
+    ['an unknown scenario', { scenario: 'SSP9-9.9' }, /No published release for ocean-expansion, glaciers, .* under SSP9-9\.9/],
+    ['a malformed scenario', { scenario: '<script>' }, /^scenario: Use 2–40 letters/],
+  ])('refuses %s with a message and stores nothing', async (_name, body, message) => {
+    const before = (await planner.get(`/api/sites/${siteId}/outlooks`)).body.length
+    const response = await planner.post(`/api/sites/${siteId}/outlooks`, body)
+    expect(response.status).toBe(400)
+    expect(response.body.message).toMatch(message)
+    expect((await planner.get(`/api/sites/${siteId}/outlooks`)).body.length).toBe(before)
+  })
+
+  it('names the component missing for a scenario', async () => {
+    const analyst = await as(ANALYST.email, ANALYST.password)
+    const reviewer = await as(demoUser('reviewer@saltglass.example').email, demoUser('reviewer@saltglass.example').password)
+    const draft = await analyst.post('/api/releases', { series: { component: 'glaciers', scenario: 'high-end-ice', title: 'Storyline' }, form: 'normal', baselineYear: 2020, anchorYears: [2150], mean: [0.3], sd: [0.05], method: 'm', citation: 'c', licence: 'l' })
+    await analyst.post(`/api/releases/${draft.body.id}/submit`)
+    await reviewer.post(`/api/releases/${draft.body.id}/approve`)
+    const response = await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'high-end-ice' })
+    expect(response.status).toBe(400)
+    expect(response.body.message).toMatch(/No published release for ocean-expansion, greenland, antarctica, land-water, regional-ocean, other under high-end-ice/)
+  })
+
+  it('says when newer science is available, and a recompute uses it', async () => {
+    const analyst = await as(ANALYST.email, ANALYST.password)
+    const reviewer = await as(demoUser('reviewer@saltglass.example').email, demoUser('reviewer@saltglass.example').password)
+    const [glaciers] = (await analyst.get('/api/releases?component=glaciers&scenario=SSP2-4.5&state=published')).body
+    const next = await analyst.post('/api/releases', { seriesId: glaciers.seriesId, form: 'normal', baselineYear: 2020, anchorYears: [2050, 2100, 2150], mean: [0.06, 0.12, 0.17], sd: [0.01, 0.03, 0.04], method: 'm', citation: 'c', licence: 'l' })
+    await analyst.post(`/api/releases/${next.body.id}/submit`)
+    await reviewer.post(`/api/releases/${next.body.id}/approve`)
+
+    const stale = (await planner.get(`/api/outlooks/${outlookId}`)).body
+    expect(stale.newerScience).toEqual([{ component: 'glaciers', usedVersion: 1, latestVersion: 2, latestReleaseId: next.body.id }])
+    const fresh = await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 7 })
+    expect(fresh.status).toBe(201)
+    expect(fresh.body.id).not.toBe(outlookId)
+    expect((await planner.get(`/api/outlooks/${fresh.body.id}`)).body.newerScience).toEqual([])
+  })
+
+  it('answers at once with 202 when asked not to wait', async () => {
+    const response = await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP5-8.5', samples: 200_000, seed: 11, wait: false })
+    expect(response.status).toBe(202)
+    expect(['running', 'done']).toContain((await planner.get(`/api/outlooks/${response.body.id}`)).body.state)
+  })
+})
