@@ -1,0 +1,95 @@
+import { likelihoodWord, type LikelihoodKey } from '../engine'
+import { formatHeight, type HeightUnit } from '../units'
+
+// Chances in plain words: the number first, then the calibrated IPCC word. Used by the outlook
+// page and by briefings (page and PDF), in English and Spanish.
+
+export type Language = 'en' | 'es'
+
+export const LIKELIHOOD_WORDS: Record<Language, Record<LikelihoodKey, string>> = {
+  en: {
+    'virtually-certain': 'virtually certain',
+    'extremely-likely': 'extremely likely',
+    'very-likely': 'very likely',
+    'likely': 'likely',
+    'about-as-likely-as-not': 'about as likely as not',
+    'unlikely': 'unlikely',
+    'very-unlikely': 'very unlikely',
+    'extremely-unlikely': 'extremely unlikely',
+    'exceptionally-unlikely': 'exceptionally unlikely',
+  },
+  // The Spanish calibrated terms of the IPCC reports [memory].
+  es: {
+    'virtually-certain': 'prácticamente seguro',
+    'extremely-likely': 'sumamente probable',
+    'very-likely': 'muy probable',
+    'likely': 'probable',
+    'about-as-likely-as-not': 'tan probable como improbable',
+    'unlikely': 'improbable',
+    'very-unlikely': 'muy improbable',
+    'extremely-unlikely': 'sumamente improbable',
+    'exceptionally-unlikely': 'excepcionalmente improbable',
+  },
+}
+
+const EDGE = 0.01
+
+/** "23 %", or "less than 1 %" / "more than 99 %" at the edges, where a rounded 0 or 100 would mislead. */
+export function formatChance(probability: number, language: Language): string {
+  const nbsp = '\u00A0'
+  if (probability < EDGE) return language === 'es' ? `menos del 1${nbsp}%` : `less than 1${nbsp}%`
+  if (probability > 1 - EDGE) return language === 'es' ? `más del 99${nbsp}%` : `more than 99${nbsp}%`
+  return `${Math.round(probability * 100)}${nbsp}%`
+}
+
+const SIMPLE_FRACTIONS: Array<[number, number]> = [[1, 2], [3, 5], [2, 3], [3, 4], [4, 5], [9, 10], [19, 20], [99, 100]]
+
+/** "about a 1-in-4 chance" / "about 3 in 4": odds a council can picture. */
+export function chanceAsOdds(probability: number, language: Language): string {
+  const es = language === 'es'
+  if (probability < EDGE) return es ? 'menos de 1 entre 100' : 'less than 1 in 100'
+  if (probability > 1 - EDGE) return es ? 'casi seguro' : 'near certain'
+  if (probability < 0.5) {
+    const n = Math.round(1 / probability)
+    return es ? `aproximadamente 1 entre ${n}` : `about a 1-in-${n} chance`
+  }
+  const [k, n] = SIMPLE_FRACTIONS.reduce((best, f) => Math.abs(f[0] / f[1] - probability) < Math.abs(best[0] / best[1] - probability) ? f : best)
+  return es ? `aproximadamente ${k} entre ${n}` : `about ${k} in ${n}`
+}
+
+export function likelihoodPhrase(probability: number, language: Language): string {
+  return LIKELIHOOD_WORDS[language][likelihoodWord(Math.min(1, Math.max(0, probability)))]
+}
+
+/** Sampling error is worth a mention when it could move the rounded percentage. */
+export function samplingNote(standardError: number, language: Language): string | null {
+  if (2 * standardError < 0.005) return null
+  const margin = `${(2 * standardError * 100).toFixed(1)}\u00A0%`
+  return language === 'es' ? `± ${margin} por el muestreo` : `± ${margin} from sampling`
+}
+
+export interface HeadlineParts {
+  probability: number
+  standardError: number
+  height: number
+  year: number
+  referenceLevel: string
+  unit: HeightUnit
+  language: Language
+}
+
+/**
+ * "There is a 23 % chance (unlikely) that the sea here will be more than 0.50 m above <reference>
+ * by 2070."
+ */
+export function headlineSentence(parts: HeadlineParts): string {
+  const { probability, language } = parts
+  const chance = formatChance(probability, language)
+  const word = likelihoodPhrase(probability, language)
+  const height = formatHeight(parts.height, parts.unit, language === 'es' ? 'es' : 'en')
+  const note = samplingNote(parts.standardError, language)
+  const qualifier = note ? `(${word}; ${note})` : `(${word})`
+  return language === 'es'
+    ? `Hay una probabilidad del ${chance} ${qualifier} de que el mar aquí esté más de ${height} por encima de ${parts.referenceLevel} en ${parts.year}.`
+    : `There is a ${chance} chance ${qualifier} that the sea here will be more than ${height} above ${parts.referenceLevel} by ${parts.year}.`
+}

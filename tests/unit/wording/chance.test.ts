@@ -1,0 +1,51 @@
+import { describe, expect, it } from 'vitest'
+import { chanceAsOdds, formatChance, headlineSentence, likelihoodPhrase, samplingNote } from '../../../shared/wording/chance'
+
+const nb = (text: string) => text.replace(/\u00A0/g, ' ')
+
+describe('chances in words', () => {
+  it('gives the number first, then the calibrated word, at the edges and on the band boundaries', () => {
+    // [pub] Mastrandrea et al. (2010) Table 1: nested bands, the more cautious word on a boundary.
+    const cases: Array<[number, string, string]> = [
+      [0, 'less than 1 %', 'exceptionally unlikely'],
+      [0.01, '1 %', 'extremely unlikely'],
+      [0.33, '33 %', 'about as likely as not'],
+      [0.66, '66 %', 'about as likely as not'],
+      [0.99, '99 %', 'extremely likely'],
+      [1, 'more than 99 %', 'virtually certain'],
+    ]
+    for (const [p, chance, word] of cases) {
+      expect(nb(formatChance(p, 'en'))).toBe(chance)
+      expect(likelihoodPhrase(p, 'en')).toBe(word)
+    }
+  })
+
+  it('speaks Spanish with the calibrated Spanish terms', () => {
+    expect(nb(formatChance(0, 'es'))).toBe('menos del 1 %')
+    expect(likelihoodPhrase(0.25, 'es')).toBe('improbable')
+    expect(likelihoodPhrase(0.95, 'es')).toBe('muy probable')
+    expect(chanceAsOdds(0.25, 'es')).toBe('aproximadamente 1 entre 4')
+  })
+
+  it('puts chances as odds a council can picture', () => {
+    expect(chanceAsOdds(0.25, 'en')).toBe('about a 1-in-4 chance')
+    expect(chanceAsOdds(0.26, 'en')).toBe('about a 1-in-4 chance')
+    expect(chanceAsOdds(0.1, 'en')).toBe('about a 1-in-10 chance')
+    expect(chanceAsOdds(0.74, 'en')).toBe('about 3 in 4')
+    expect(chanceAsOdds(0.005, 'en')).toBe('less than 1 in 100')
+    expect(chanceAsOdds(0.995, 'en')).toBe('near certain')
+  })
+
+  it('mentions sampling error only when it could change the rounded figure', () => {
+    expect(samplingNote(0.001, 'en')).toBeNull()
+    expect(nb(samplingNote(0.004, 'en')!)).toBe('± 0.8 % from sampling')
+  })
+
+  it('builds the headline sentence in the chosen units and language', () => {
+    const parts = { probability: 0.234, standardError: 0.0013, height: 0.5, year: 2070, referenceLevel: 'mean sea level 2020', unit: 'm' as const, language: 'en' as const }
+    expect(nb(headlineSentence(parts))).toBe('There is a 23 % chance (unlikely) that the sea here will be more than 0.50 m above mean sea level 2020 by 2070.')
+    // [practice] 0.5 m is 1.64 ft (international foot, 0.3048 m).
+    expect(nb(headlineSentence({ ...parts, unit: 'ft' }))).toContain('more than 1.6 ft above')
+    expect(nb(headlineSentence({ ...parts, language: 'es' }))).toBe('Hay una probabilidad del 23 % (improbable) de que el mar aquí esté más de 0,50 m por encima de mean sea level 2020 en 2070.')
+  })
+})
