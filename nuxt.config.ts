@@ -23,8 +23,9 @@ export default defineNuxtConfig({
     defaultLocale: 'en',
     strategy: 'no_prefix',
     locales: [
-      { code: 'en', language: 'en-GB', name: 'English', file: 'en.json' },
-      { code: 'es', language: 'es-ES', name: 'Español', file: 'es.json' },
+      // One file per domain, merged per language, so areas of the app keep their strings apart.
+      { code: 'en', language: 'en-GB', name: 'English', files: ['en.json', 'en-sites.json', 'en-briefings.json'] },
+      { code: 'es', language: 'es-ES', name: 'Español', files: ['es.json', 'es-sites.json', 'es-briefings.json'] },
     ],
     detectBrowserLanguage: { useCookie: true, cookieKey: 'brinkwater_locale', redirectOn: 'root' },
   },
@@ -38,6 +39,9 @@ export default defineNuxtConfig({
     // Migrations are read at run time by the built server, so they travel as server assets.
     serverAssets: [{ baseName: 'migrations', dir: fileURLToPath(new URL('./server/db/migrations', import.meta.url)) }],
   },
+
+  // echarts, zrender and vue-echarts ship ESM that must go through Vite's transform for SSR.
+  build: { transpile: ['echarts', 'zrender', 'vue-echarts'] },
 
   typescript: { strict: true },
 })

@@ -1,15 +1,20 @@
 import type { Role } from '#shared/types/roles'
 
-export interface NavItem { to: string, labelKey: string, roles?: Role[] }
+export interface NavItem { to: string, labelKey: string, roles?: Role[], signedIn?: boolean }
 
-// Only pages that exist are listed; a role sees only what it can open.
+// Only pages that exist are listed; a role sees only what it can open, and a visitor who has not
+// signed in sees only the public pages.
 const ITEMS: NavItem[] = [
-  { to: '/', labelKey: 'nav.overview' },
+  { to: '/', labelKey: 'nav.overview', signedIn: true },
+  { to: '/library', labelKey: 'nav.library' },
   { to: '/admin/users', labelKey: 'nav.adminUsers', roles: ['admin'] },
   { to: '/admin/audit', labelKey: 'nav.adminAudit', roles: ['admin'] },
 ]
 
 export function useNavigation() {
   const { user } = useUserSession()
-  return computed(() => ITEMS.filter(item => !item.roles || (user.value && item.roles.includes(user.value.role))))
+  return computed(() => ITEMS.filter((item) => {
+    if (item.signedIn && !user.value) return false
+    return !item.roles || (user.value && item.roles.includes(user.value.role))
+  }))
 }

@@ -39,7 +39,7 @@ describe('the shell for each role', () => {
   ])('$demo.role sees the navigation of the role, the demo label and no accessibility faults', async ({ demo, admin }) => {
     await signIn(page, demo.email, demo.password)
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toContain(demo.name)
-    await expect.poll(() => nav().getByRole('link').allTextContents()).toEqual(admin ? ['Overview', 'Users', 'Audit log'] : ['Overview'])
+    await expect.poll(() => nav().getByRole('link').allTextContents()).toEqual(admin ? ['Overview', 'Library', 'Users', 'Audit log'] : ['Overview', 'Library'])
     expect(await page.getByTestId('illustrative-banner').textContent()).toMatch(/Illustrative demo data/)
     expect(await seriousAxeViolations(page)).toEqual([])
   })
@@ -86,7 +86,7 @@ describe('preferences', () => {
   it('switches to Spanish, and the choice follows the account to the next sign-in', async () => {
     await signIn(page, PLANNER.email, PLANNER.password)
     await page.getByTestId('language-switcher').selectOption('es')
-    await expect.poll(() => nav().getByRole('link').allTextContents()).toEqual(['Resumen'])
+    await expect.poll(() => nav().getByRole('link').allTextContents()).toEqual(['Resumen', 'Biblioteca'])
     expect(await page.getAttribute('html', 'lang')).toMatch(/^es/)
     expect(await seriousAxeViolations(page)).toEqual([])
 
