@@ -1,0 +1,53 @@
+import type { BandsAtYear } from '#shared/releases/summary'
+import type { ReviewState } from '#shared/types/science'
+
+/** One row of GET /api/releases, as the client reads it (dates arrive as strings). */
+export interface ReleaseRow {
+  id: string
+  version: number
+  state: ReviewState
+  form: string
+  baselineYear: number
+  anchorYears: number[]
+  summary: BandsAtYear[]
+  citation: string
+  withdrawalReason: string | null
+  publishedAt: string | null
+  seriesId: string
+  component: string
+  scenario: string
+  title: string
+  organisationId: string
+  organisationName: string
+  illustrative: boolean
+  authorName: string
+  authorId: string
+}
+
+/** The year a library table summarises a release at: 2100 when it is an anchor, else the last anchor. */
+export const SUMMARY_YEAR = 2100
+
+/**
+ * Words and numbers for published science, in the reader's language and height units. Heights
+ * arrive in metres; the preferences store turns them into what the reader asked for.
+ */
+export function useScienceText() {
+  const { t, locale } = useI18n()
+  const preferences = usePreferencesStore()
+  const height = (metres: number) => preferences.height(metres)
+  return {
+    height,
+    component: (key: string) => t(`components.${key}`),
+    state: (state: string) => t(`states.${state}`),
+    form: (form: string) => t(`editor.forms.${form}`),
+    range: (low: number, high: number) => t('release.rangeValue', { low: height(low), high: height(high) }),
+    /** A change with its sign always shown, so "no change" and "lower" read differently. */
+    change: (metres: number) => {
+      const rounded = Math.round(metres * 1000) / 1000
+      return rounded > 0 ? `+${height(rounded)}` : rounded < 0 ? `−${height(-rounded)}` : height(0)
+    },
+    date: (value: string | null | undefined) => value ? new Date(value).toLocaleDateString(locale.value, { dateStyle: 'medium' }) : '—',
+    /** The bands at the summary year, or at the last anchor when 2100 is not one. */
+    headline: (summary: BandsAtYear[]) => summary.find(b => b.year === SUMMARY_YEAR) ?? summary[summary.length - 1],
+  }
+}
