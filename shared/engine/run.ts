@@ -74,10 +74,15 @@ interface TileScratch {
   scores: Float64Array
   /** First anchor line of the piece or draw each sample picked, at [c·TILE + i]. */
   lineAt: Int32Array
-  /** Scaled anchor value of slot v at [v·TILE + i]. */
+  /** Scaled anchor value of slot v less its all-scores-zero value, at [v·TILE + i]. */
   values: Float64Array
   /** Basis value minus its all-scores-zero value at [j·TILE + i]; row J stays zero (padding). */
   basis: Float64Array
+  /**
+   * Like `basis` but not centred: each year's rise is formed from these, so a lone component's rise is
+   * its value exactly (a draw equal to a height does not exceed it).
+   */
+  levels: Float64Array
   /** Total rise per year at [t·TILE + i]. */
   rise: Float64Array
   /** Per year, the basis columns with a non-zero weight, padded with the zero row to whole passes. */
@@ -142,6 +147,7 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
     lineAt: new Int32Array(componentCount * TILE),
     values: new Float64Array(plan.valueCount * TILE),
     basis: new Float64Array((columnCount + 1) * TILE),
+    levels: new Float64Array((columnCount + 1) * TILE),
     rise: new Float64Array(yearCount * TILE),
     yearColumns: passes.columns,
     yearWeights: passes.weights,
@@ -180,7 +186,7 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
       }
       if (plan.gumbel !== null) gumbelTile(plan, tileCount, scratch, partial.blockSums, b * plan.sumsPerBlock)
     }
-    blockSumsByYear(plan, count, scratch, partial.blockSums, b * plan.sumsPerBlock)
+    blockSumsByYear(plan, scratch, partial.blockSums, b * plan.sumsPerBlock)
     partial.samples += count
   }
   cellsFromHistogram(plan, scratch.cellOfBin, partial)
@@ -252,14 +258,19 @@ function scoreTile(plan: OutlookPlan, independent: Float64Array, tileStart: numb
   }
 }
 
-/** Each component's scaled anchor values, and the basis: per column, Σ (value − value at score zero). */
+/**
+ * Each component's scaled anchor values less their all-scores-zero values, and the basis: their sums per
+ * column. Centred values keep the covariance sums well conditioned when a part's spread is tiny next to
+ * its level.
+ */
 function valueTile(plan: OutlookPlan, tileCount: number, scratch: TileScratch): void {
   const componentCount = plan.componentKeys.length
-  const { scores, lineAt, values, basis } = scratch
+  const { scores, lineAt, values, basis, levels } = scratch
   const intercepts = plan.anchorIntercept
   const slopes = plan.anchorSlope
   const landColumn = plan.basisCount - 1
   basis.fill(0, 0, landColumn * TILE)
+  levels.fill(0, 0, landColumn * TILE)
   for (let c = 0; c < componentCount; c++) {
     const kind = plan.kinds[c]!
     const at = c * TILE
@@ -271,15 +282,17 @@ function valueTile(plan: OutlookPlan, tileCount: number, scratch: TileScratch): 
       if (kind === COMPONENT_KIND_PIECEWISE) {
         for (let i = 0; i < tileCount; i++) {
           const line = lineAt[at + i]! + a
-          const value = intercepts[line]! + slopes[line]! * scores[at + i]!
-          values[out + i] = value
-          basis[into + i]! += value - zero
+          const level = intercepts[line]! + slopes[line]! * scores[at + i]!
+          values[out + i] = level - zero
+          basis[into + i]! += level - zero
+          levels[into + i]! += level
         }
       } else if (kind === COMPONENT_KIND_DRAWS) {
         for (let i = 0; i < tileCount; i++) {
-          const value = intercepts[lineAt[at + i]! + a]!
-          values[out + i] = value
-          basis[into + i]! += value - zero
+          const level = intercepts[lineAt[at + i]! + a]!
+          values[out + i] = level - zero
+          basis[into + i]! += level - zero
+          levels[into + i]! += level
         }
       } else {
         const shift = plan.lognormalShift[slot]!
@@ -287,14 +300,17 @@ function valueTile(plan: OutlookPlan, tileCount: number, scratch: TileScratch): 
         const sigma = plan.lognormalSigma[slot]!
         const scale = plan.lognormalScale[slot]!
         for (let i = 0; i < tileCount; i++) {
-          const value = scale * (shift + Math.exp(mu + sigma * scores[at + i]!))
-          values[out + i] = value
-          basis[into + i]! += value - zero
+          const level = scale * (shift + Math.exp(mu + sigma * scores[at + i]!))
+          values[out + i] = level - zero
+          basis[into + i]! += level - zero
+          levels[into + i]! += level
         }
       }
     }
   }
-  basis.set(scores.subarray(componentCount * TILE, componentCount * TILE + tileCount), landColumn * TILE)
+  const landScores = scores.subarray(componentCount * TILE, componentCount * TILE + tileCount)
+  basis.set(landScores, landColumn * TILE)
+  levels.set(landScores, landColumn * TILE)
 }
 
 /**
@@ -358,15 +374,15 @@ function sumTile(plan: OutlookPlan, tileCount: number, scratch: TileScratch): vo
 }
 
 /**
- * rise(t) = center + Σ_j weight_j · basis_j over the tile, a few columns per pass: every pass but the
+ * rise(t) = land intercept + Σ_j weight_j · level_j over the tile, a few columns per pass: every pass but the
  * last, which `countYear` adds as it reads the rise.
  */
 function riseOfYear(plan: OutlookPlan, t: number, tileCount: number, scratch: TileScratch): void {
-  const { rise, basis } = scratch
+  const { rise, levels } = scratch
   const columns = scratch.yearColumns[t]!
   const weights = scratch.yearWeights[t]!
   const out = t * TILE
-  rise.fill(plan.center[t]!, out, out + tileCount)
+  rise.fill(plan.landIntercept[t]!, out, out + tileCount)
   for (let p = 0; p + PASS < columns.length; p += PASS) {
     const b0 = columns[p]! * TILE
     const b1 = columns[p + 1]! * TILE
@@ -377,7 +393,7 @@ function riseOfYear(plan: OutlookPlan, t: number, tileCount: number, scratch: Ti
     const w2 = weights[p + 2]!
     const w3 = weights[p + 3]!
     for (let i = 0; i < tileCount; i++) {
-      rise[out + i] = rise[out + i]! + w0 * basis[b0 + i]! + w1 * basis[b1 + i]! + w2 * basis[b2 + i]! + w3 * basis[b3 + i]!
+      rise[out + i] = rise[out + i]! + w0 * levels[b0 + i]! + w1 * levels[b1 + i]! + w2 * levels[b2 + i]! + w3 * levels[b3 + i]!
     }
   }
 }
@@ -428,7 +444,7 @@ function countYear(plan: OutlookPlan, t: number, tileCount: number, scratch: Til
   const lastBin = plan.histogramBins[t]! + 1
   const histogramAt = plan.histogramOffset[t]!
   const cellAt = t * (cutCount + 1)
-  const basis = scratch.basis
+  const levels = scratch.levels
   const columns = scratch.yearColumns[t]!
   const weights = scratch.yearWeights[t]!
   // The last pass of the rise (padded with the zero row, weight 0).
@@ -444,7 +460,7 @@ function countYear(plan: OutlookPlan, t: number, tileCount: number, scratch: Til
   let minimum = partial.minimum[t]!
   let maximum = partial.maximum[t]!
   for (let i = 0; i < tileCount; i++) {
-    const value = rise[riseAt + i]! + w0 * basis[b0 + i]! + w1 * basis[b1 + i]! + w2 * basis[b2 + i]! + w3 * basis[b3 + i]!
+    const value = rise[riseAt + i]! + w0 * levels[b0 + i]! + w1 * levels[b1 + i]! + w2 * levels[b2 + i]! + w3 * levels[b3 + i]!
     rise[riseAt + i] = value
     if (value < minimum) minimum = value
     if (value > maximum) maximum = value
@@ -476,11 +492,12 @@ function cellsFromHistogram(plan: OutlookPlan, cellOfBin: Int32Array, partial: O
 }
 
 /**
- * A block's basis sums → its per-year sums. With dev(t) = Σ_j w_tj·basis_j and part_c(t) = Σ_a w_t,j(a)·x_a:
- * Σdev = Σ_j w_tj Σbasis_j, Σdev² = Σ_jk w_tj w_tk Σbasis_j·basis_k, Σpart·dev = Σ_a w_t,j(a) Σ_k w_tk Σx_a·basis_k.
- * Land motion's part is intercept + slope·score, its score being the last basis column.
+ * A block's basis sums → its per-year sums. With x̃ an anchor value less its all-scores-zero value,
+ * dev(t) = Σ_j w_tj·basis_j and a part's deviation p̃_c(t) = Σ_a w_t,j(a)·x̃_a: Σdev = Σ_j w_tj Σbasis_j,
+ * Σdev² = Σ_jk w_tj w_tk Σbasis_j·basis_k, Σp̃·dev = Σ_a w_t,j(a) Σ_k w_tk Σx̃_a·basis_k. Land motion's
+ * deviation is slope·score, its score being the last basis column.
  */
-function blockSumsByYear(plan: OutlookPlan, count: number, scratch: TileScratch, sums: Float64Array, sumOffset: number): void {
+function blockSumsByYear(plan: OutlookPlan, scratch: TileScratch, sums: Float64Array, sumOffset: number): void {
   const columnCount = plan.basisCount
   const landColumn = columnCount - 1
   const componentCount = plan.componentKeys.length
@@ -518,10 +535,9 @@ function blockSumsByYear(plan: OutlookPlan, count: number, scratch: TileScratch,
     }
     let landCross = 0
     for (let k = 0; k < columnCount; k++) landCross += weight[row + k]! * basisCross[landColumn * columnCount + k]!
-    const landIntercept = plan.landIntercept[t]!
     const landSlope = plan.landSlope[t]!
-    sums[partSumAt + t * partCount + componentCount] = landIntercept * count + landSlope * basisSum[landColumn]!
-    sums[partCrossAt + t * partCount + componentCount] = landIntercept * sum + landSlope * landCross
+    sums[partSumAt + t * partCount + componentCount] = landSlope * basisSum[landColumn]!
+    sums[partCrossAt + t * partCount + componentCount] = landSlope * landCross
   }
 }
 

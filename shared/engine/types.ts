@@ -108,9 +108,9 @@ export interface OutlookPlan {
 export interface SumLayout {
   /** Per year: Σ(rise − center), Σ(rise − center)². */
   moments: number
-  /** Per year and part: Σ part. */
+  /** Per year and part: Σ(part − part at all scores zero); covariances need no more than the deviation. */
   partSum: number
-  /** Per year and part: Σ part·(rise − center). */
+  /** Per year and part: Σ(part − part at all scores zero)·(rise − center). */
   partCross: number
   /** Per year: Σ exp((rise − center)/λ). */
   gumbelExp: number

@@ -252,3 +252,60 @@ describe('outputs', () => {
     expect(allNumbers(result).some(Number.isNaN)).toBe(false)
   })
 })
+
+describe('numerical edge cases', () => {
+  it('variance shares sum to one when a part spreads by picometres around a level of 0.4 mm', () => {
+    // A case fast-check found: covariances are taken about the all-scores-zero trajectory, so a tiny
+    // spread next to a larger level does not cancel away.
+    const flat = [-0.0004055197205340098, -0.0004055197205340098, -0.0004055197205340098, -0.0004055197205340098]
+    const result = runOutlook(
+      baseInput({
+        baselineYear: 2020,
+        years: [2020, 2100],
+        samples: 3000,
+        seed: 0,
+        components: [
+          {
+            key: 'antarctica',
+            release: {
+              form: 'quantiles',
+              baselineYear: 2020,
+              anchorYears: [2100],
+              levels: [0.05, 0.17, 0.5, 0.83, 0.95],
+              values: [[-0.00040551972300643415, ...flat]],
+            },
+          },
+          normalComponent('ocean-expansion', { 2100: [0, 0] }, 2020),
+        ],
+      }),
+    )
+    const share = result.byYear[1]!.varianceShare!
+    expect(Object.values(share).reduce((a, b) => a + b, 0)).toBeCloseTo(1, 12)
+  })
+
+  it('counts a rise equal to a height as not exceeding it, whatever histogram cell it falls in', () => {
+    // Draws sit exactly on grid heights; P(rise > h) must be the share of draws strictly above h.
+    const values = [0.1, 0.2, 0.3, 0.7, 0.75]
+    const result = runOutlook(
+      baseInput({
+        baselineYear: 2000,
+        years: [2100],
+        samples: 30_000,
+        components: [
+          {
+            key: 'glaciers',
+            release: { form: 'samples', baselineYear: 2000, anchorYears: [2100], draws: values.map((v) => [v]) },
+          },
+        ],
+        heights: [0.1, 0.2, 0.3, 0.7, 0.75, 0.7500000001],
+      }),
+    )
+    const year = result.byYear[0]!
+    // Each draw is picked with probability 1/5, so counts above successive draws step down by ~1/5.
+    const exceed = year.exceedance.map((e) => e.value)
+    expect(exceed[4]).toBe(0)
+    expect(exceed[5]).toBe(0)
+    for (let k = 0; k < 4; k++) expect(Math.abs(exceed[k]! - (4 - k) / 5)).toBeLessThan(4 * Math.sqrt(0.25 / 30_000))
+    expect(year.mean.value).toBeCloseTo(0.41, 1)
+  })
+})
