@@ -43,8 +43,10 @@ export function useScienceText() {
     range: (low: number, high: number) => t('release.rangeValue', { low: height(low), high: height(high) }),
     /** A change with its sign always shown, so "no change" and "lower" read differently. */
     change: (metres: number) => {
-      const rounded = Math.round(metres * 1000) / 1000
-      return rounded > 0 ? `+${height(rounded)}` : rounded < 0 ? `−${height(-rounded)}` : height(0)
+      // The sign follows the shown digits: a change that rounds to zero reads as zero.
+      const shown = height(Math.abs(metres))
+      if (shown === height(0)) return shown
+      return metres > 0 ? `+${shown}` : `−${shown}`
     },
     date: (value: string | null | undefined) => value ? new Date(value).toLocaleDateString(locale.value, { dateStyle: 'medium' }) : '—',
     /** The bands at the summary year, or at the last anchor when 2100 is not one. */
