@@ -1,22 +1,22 @@
 import { parentPort } from 'node:worker_threads'
-import { runBlocks, type OutlookPartial, type OutlookPlan } from '../../shared/engine'
+import { runBlocks, type OutlookPlan } from '../../shared/engine'
+import type { PoolReply, PoolRequest } from './pool'
 
-// A pool thread: keeps the last plan it was sent and samples the block ranges it is asked for.
+// A pool thread: keeps the plan of the run it last saw and samples the block ranges it is asked for.
+// The plan travels only with the first request of a run; later requests of the same run send the id.
 
-let plan: OutlookPlan | null = null
+let current: { runId: number; plan: OutlookPlan } | null = null
 
-parentPort!.on('message', (message: { plan?: OutlookPlan; firstBlock?: number; blockCount?: number }) => {
-  if (message.plan) {
-    plan = message.plan
-    parentPort!.postMessage({ ready: true })
+parentPort!.on('message', (request: PoolRequest) => {
+  if (request.plan) current = { runId: request.runId, plan: request.plan }
+  if (!current || current.runId !== request.runId) {
+    parentPort!.postMessage({ error: `no plan for run ${request.runId}` } satisfies PoolReply)
     return
   }
-  const partial: OutlookPartial = runBlocks(plan!, message.firstBlock!, message.blockCount!)
-  parentPort!.postMessage({ partial }, [
-    partial.cellCounts.buffer,
-    partial.histogram.buffer,
-    partial.minimum.buffer,
-    partial.maximum.buffer,
-    partial.blockSums.buffer,
-  ])
+  const partial = runBlocks(current.plan, request.firstBlock, request.blockCount)
+  // Partials are plain typed arrays; their buffers move to the caller instead of being copied.
+  const transfer = [partial.cellCounts, partial.histogram, partial.minimum, partial.maximum, partial.blockSums].map(
+    (array) => array.buffer as ArrayBuffer,
+  )
+  parentPort!.postMessage({ partial } satisfies PoolReply, transfer)
 })

@@ -3,7 +3,7 @@ import jStatPkg from 'jstat'
 import { finishOutlook, mergePartials, planOutlook, runBlocks, runOutlook } from '../../../shared/engine'
 import { allNumbers, baseInput, normalComponent } from './helpers'
 
-const { jStat } = jStatPkg as any
+const { jStat } = jStatPkg
 
 describe('analytic normal case', () => {
   it('independent normal components plus normal land motion give a normal total: exceedance within 4 SE of the normal CDF', () => {
