@@ -90,6 +90,11 @@ interface TileScratch {
   yearWeights: Float64Array[]
   /** Per histogram cell, its exceedance cell, or −1 − (cuts below it) when a cut falls inside it. */
   cellOfBin: Int32Array
+  /** Independent scores of the tile at [k·TILE + i] (land motion last), then a zero row. */
+  independentTile: Float64Array
+  /** Per score row, the non-zero entries of its Cholesky row (land motion: itself), padded to passes. */
+  choleskyColumns: Int32Array[]
+  choleskyWeights: Float64Array[]
   /** Per component, its breakpoints padded with +∞ to whole passes. */
   paddedBreakpoints: Float64Array[]
   /** Every basis column, padded with the zero row to whole passes. */
@@ -122,6 +127,28 @@ function yearPasses(plan: OutlookPlan): { columns: Int32Array[]; weights: Float6
   return { columns, weights }
 }
 
+function choleskyPasses(plan: OutlookPlan): { choleskyColumns: Int32Array[]; choleskyWeights: Float64Array[] } {
+  const componentCount = plan.componentKeys.length
+  const zeroRow = componentCount + 1
+  const choleskyColumns: Int32Array[] = []
+  const choleskyWeights: Float64Array[] = []
+  for (let c = 0; c <= componentCount; c++) {
+    const used: Array<[number, number]> = []
+    if (c === componentCount) used.push([c, 1])
+    else for (let k = 0; k <= c; k++) if (plan.cholesky[c * componentCount + k] !== 0) used.push([k, plan.cholesky[c * componentCount + k]!])
+    const padded = Math.max(1, Math.ceil(used.length / PASS)) * PASS
+    const columns = new Int32Array(padded).fill(zeroRow)
+    const weights = new Float64Array(padded)
+    used.forEach(([k, weight], n) => {
+      columns[n] = k
+      weights[n] = weight
+    })
+    choleskyColumns.push(columns)
+    choleskyWeights.push(weights)
+  }
+  return { choleskyColumns, choleskyWeights }
+}
+
 /** Samples blocks firstBlock … firstBlock+blockCount−1 and returns their mergeable statistics. */
 export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: number): OutlookPartial {
   if (
@@ -151,6 +178,8 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
     rise: new Float64Array(yearCount * TILE),
     yearColumns: passes.columns,
     yearWeights: passes.weights,
+    independentTile: new Float64Array((scoresPerSample + 1) * TILE),
+    ...choleskyPasses(plan),
     cellOfBin: exceedanceCellOfBin(plan),
     paddedBreakpoints: Array.from(plan.kinds, (_, c) => {
       const count = plan.breakpointCount[c]!
@@ -199,21 +228,35 @@ function scoreTile(plan: OutlookPlan, independent: Float64Array, tileStart: numb
   const perSample = componentCount + 1
   const scores = scratch.scores
   const lineAt = scratch.lineAt
-  const cholesky = plan.cholesky
+  const independentTile = scratch.independentTile
   for (let c = 0; c <= componentCount; c++) {
     const at = c * TILE
     let u = tileStart * perSample + c
-    for (let i = 0; i < tileCount; i++, u += perSample) scores[at + i] = independent[u]!
+    for (let i = 0; i < tileCount; i++, u += perSample) independentTile[at + i] = independent[u]!
   }
-  if (!plan.choleskyIsIdentity) {
-    // In place from the last component down: row c only needs independent scores 0…c.
-    for (let c = componentCount - 1; c >= 0; c--) {
-      const row = c * componentCount
-      const at = c * TILE
-      for (let i = 0; i < tileCount; i++) {
-        let value = 0
-        for (let k = 0; k <= c; k++) value += cholesky[row + k]! * scores[k * TILE + i]!
-        scores[at + i] = value
+  // Correlated score c = Σ_k L[c][k] · independent k over the non-zero entries of row c, four per pass
+  // (padding reads the zero row); the land-motion score stays independent.
+  for (let c = 0; c <= componentCount; c++) {
+    const columns = scratch.choleskyColumns[c]!
+    const weights = scratch.choleskyWeights[c]!
+    const at = c * TILE
+    for (let p = 0; p < columns.length; p += PASS) {
+      const k0 = columns[p]! * TILE
+      const k1 = columns[p + 1]! * TILE
+      const k2 = columns[p + 2]! * TILE
+      const k3 = columns[p + 3]! * TILE
+      const l0 = weights[p]!
+      const l1 = weights[p + 1]!
+      const l2 = weights[p + 2]!
+      const l3 = weights[p + 3]!
+      if (p === 0) {
+        for (let i = 0; i < tileCount; i++) {
+          scores[at + i] = l0 * independentTile[k0 + i]! + l1 * independentTile[k1 + i]! + l2 * independentTile[k2 + i]! + l3 * independentTile[k3 + i]!
+        }
+      } else {
+        for (let i = 0; i < tileCount; i++) {
+          scores[at + i] = scores[at + i]! + l0 * independentTile[k0 + i]! + l1 * independentTile[k1 + i]! + l2 * independentTile[k2 + i]! + l3 * independentTile[k3 + i]!
+        }
       }
     }
   }
