@@ -425,6 +425,7 @@ function riseOfYear(plan: OutlookPlan, t: number, tileCount: number, scratch: Ti
   const columns = scratch.yearColumns[t]!
   const weights = scratch.yearWeights[t]!
   const out = t * TILE
+  if (columns.length === PASS) return
   rise.fill(plan.landIntercept[t]!, out, out + tileCount)
   for (let p = 0; p + PASS < columns.length; p += PASS) {
     const b0 = columns[p]! * TILE
@@ -500,11 +501,16 @@ function countYear(plan: OutlookPlan, t: number, tileCount: number, scratch: Til
   const w1 = weights[last + 1]!
   const w2 = weights[last + 2]!
   const w3 = weights[last + 3]!
+  // One pass (the usual case) starts from the land-motion intercept; more start from `riseOfYear`'s sums.
+  const onePass = last === 0
+  const intercept = plan.landIntercept[t]!
+  // The Gumbel statistics read each year's rise back.
+  const keepRise = plan.gumbel !== null
   let minimum = partial.minimum[t]!
   let maximum = partial.maximum[t]!
   for (let i = 0; i < tileCount; i++) {
-    const value = rise[riseAt + i]! + w0 * levels[b0 + i]! + w1 * levels[b1 + i]! + w2 * levels[b2 + i]! + w3 * levels[b3 + i]!
-    rise[riseAt + i] = value
+    const value = (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]! + w2 * levels[b2 + i]! + w3 * levels[b3 + i]!
+    if (keepRise) rise[riseAt + i] = value
     if (value < minimum) minimum = value
     if (value > maximum) maximum = value
     let bin = (value - low) * inverseResolution + 1

@@ -46,6 +46,42 @@ describe('analytic normal case', () => {
     expect(checks).toBe(18)
   })
 
+  it('stays normal when every component has its own anchor years (a rise formed from many basis columns)', () => {
+    // Four releases on four different anchor grids: nine basis columns, so each year takes several passes.
+    const input = baseInput({
+      samples: 40_000,
+      years: [2040, 2070, 2100],
+      components: [
+        normalComponent('ocean-expansion', { 2050: [0.1, 0.03], 2100: [0.3, 0.06] }),
+        normalComponent('glaciers', { 2100: [0.1, 0.02] }),
+        normalComponent('greenland', { 2040: [0.02, 0.01], 2080: [0.06, 0.03], 2100: [0.1, 0.05] }),
+        normalComponent('antarctica', { 2060: [0.05, 0.02], 2100: [0.12, 0.08] }),
+      ],
+      landMotion: { rateMmPerYear: -1, sigmaMmPerYear: 0.5, epoch: 2000 },
+      heights: [0.2, 0.5, 0.8],
+      gumbel: { location: 1, scale: 0.1 },
+    })
+    const result = runOutlook(input)
+    const year = result.byYear[2]!
+    // 2100: means and sds straight from the releases; land motion 1 mm/yr ± 0.5 over 100 years
+    const mean = 0.3 + 0.1 + 0.1 + 0.12 + 0.1
+    const sd = Math.sqrt(0.06 ** 2 + 0.02 ** 2 + 0.05 ** 2 + 0.08 ** 2 + 0.05 ** 2)
+    expect(Math.abs(year.mean.value - mean)).toBeLessThan(4 * year.mean.se)
+    expect(year.sd).toBeCloseTo(sd, 2)
+    result.heights.forEach((height, h) => {
+      // reference library: jstat normal CDF [practice: sum of independent normals is normal]
+      const p = 1 - jStat.normal.cdf(height, mean, sd)
+      expect(Math.abs(year.exceedance[h]!.value - p)).toBeLessThanOrEqual(4 * Math.sqrt((p * (1 - p)) / input.samples) + 1e-12)
+    })
+    // [memory] Hunter (2012), Climatic Change 113: allowance of a normal rise μ + σ²/(2λ)
+    expect(Math.abs(year.gumbel!.allowance - (mean + sd ** 2 / 0.2))).toBeLessThan(0.01)
+    expect(Object.values(year.varianceShare!).reduce((a, b) => a + b, 0)).toBeCloseTo(1, 10)
+    // 2040: ocean expansion 0.8 of its 2050 level, antarctica 2/3 of its 2060 level, greenland at its anchor
+    const early = result.byYear[0]!
+    const earlyMean = 0.8 * 0.1 + 0.4 * 0.1 + 0.02 + (2 / 3) * 0.05 + 0.04
+    expect(Math.abs(early.mean.value - earlyMean)).toBeLessThan(4 * early.mean.se)
+  })
+
   it('reports the Monte Carlo standard error √(p(1−p)/N) with each probability', () => {
     const result = runOutlook(baseInput({ samples: 10_000 }))
     for (const estimate of result.byYear[1]!.exceedance) {
