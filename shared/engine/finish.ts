@@ -1,5 +1,5 @@
 import { gumbelReturnLevel } from './gumbel'
-import { histogramQuantile, percentileStandardError, proportionStandardError, type HistogramView } from './statistics'
+import { cumulativeCounts, histogramQuantile, percentileStandardError, proportionStandardError, type HistogramView } from './statistics'
 import type { Estimate, OutlookPartial, OutlookPlan, OutlookResult, ThresholdOutlook, YearGumbel, YearOutlook } from './types'
 
 export const PERCENTILE_LEVELS = [0.01, 0.05, 0.17, 0.5, 0.83, 0.95, 0.99] as const
@@ -46,6 +46,7 @@ export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): Outloo
     return counts
   })
 
+  const cumulative = cumulativeCounts(merged.histogram, plan.histogramOffset, plan.histogramBins)
   const byYear: YearOutlook[] = plan.years.map((year, t) => {
     const meanDeviation = sums[layout.moments + 2 * t]! / n
     const variance = Math.max(0, sums[layout.moments + 2 * t + 1]! / n - meanDeviation * meanDeviation)
@@ -59,6 +60,7 @@ export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): Outloo
       total: n,
       minimum: merged.minimum[t]!,
       maximum: merged.maximum[t]!,
+      cumulative,
     }
     let varianceShare: Record<string, number> | null = null
     if (variance > NO_SPREAD) {

@@ -16,6 +16,21 @@ export interface HistogramView {
   /** Exact extremes, so interpolation never reports a value no sample reached. */
   minimum: number
   maximum: number
+  /** Optional running totals of `counts` within the year (inclusive, same offsets): rank look-ups by bisection. */
+  cumulative?: Float64Array
+}
+
+/** Running totals of each year's histogram cells, restarting at every year's underflow cell. */
+export function cumulativeCounts(counts: Uint32Array, offsets: ArrayLike<number>, bins: ArrayLike<number>): Float64Array {
+  const cumulative = new Float64Array(counts.length)
+  for (let t = 0; t < offsets.length; t++) {
+    let total = 0
+    for (let k = offsets[t]!; k <= offsets[t]! + bins[t]! + 1; k++) {
+      total += counts[k]!
+      cumulative[k] = total
+    }
+  }
+  return cumulative
 }
 
 /**
@@ -29,6 +44,23 @@ export function histogramQuantile(view: HistogramView, level: number): number {
   let value: number
   if (target <= below) {
     value = view.minimum
+  } else if (view.cumulative) {
+    // First bin whose running total reaches the target: the same bin, and the same integers, as the scan.
+    const cumulative = view.cumulative
+    let lowK = 1
+    let highK = bins + 1
+    while (lowK < highK) {
+      const middle = (lowK + highK) >>> 1
+      if (cumulative[offset + middle]! >= target) highK = middle
+      else lowK = middle + 1
+    }
+    if (lowK <= bins) {
+      const count = counts[offset + lowK]!
+      below = cumulative[offset + lowK]! - count
+      value = low + (lowK - 1 + (target - below) / count) * resolution
+    } else {
+      value = view.maximum
+    }
   } else {
     value = view.maximum
     for (let k = 1; k <= bins; k++) {
