@@ -1,9 +1,12 @@
-// jstat ships no type declarations; these cover the normal distribution the engine tests compare against.
+// jstat ships no type declarations; these cover the distributions the engine tests compare against.
 declare module 'jstat' {
   interface JStatNormal {
     cdf(x: number, mean: number, sd: number): number
     inv(p: number, mean: number, sd: number): number
   }
-  const jStatPackage: { jStat: { normal: JStatNormal } }
+  interface JStatLognormal {
+    cdf(x: number, mu: number, sigma: number): number
+  }
+  const jStatPackage: { jStat: { normal: JStatNormal; lognormal: JStatLognormal } }
   export default jStatPackage
 }

@@ -82,6 +82,32 @@ describe('analytic normal case', () => {
     expect(Math.abs(early.mean.value - earlyMean)).toBeLessThan(4 * early.mean.se)
   })
 
+  it('samples a lognormal release: shift + exp(μ + σz), scaled, interpolated in time', () => {
+    const input = baseInput({
+      samples: 40_000,
+      years: [2050, 2100],
+      components: [
+        {
+          key: 'antarctica',
+          scale: 2,
+          release: { form: 'lognormal', baselineYear: 2000, anchorYears: [2100], shift: [-0.05], mu: [-2], sigma: [0.5] },
+        },
+      ],
+      heights: [0.1, 0.2, 0.3, 0.5],
+    })
+    const result = runOutlook(input)
+    const late = result.byYear[1]!
+    result.heights.forEach((height, h) => {
+      // reference library: jstat lognormal CDF; rise = 2 · (−0.05 + X), X lognormal(−2, 0.5)
+      const p = 1 - jStat.lognormal.cdf(height / 2 + 0.05, -2, 0.5)
+      expect(Math.abs(late.exceedance[h]!.value - p)).toBeLessThanOrEqual(4 * Math.sqrt((p * (1 - p)) / input.samples) + 1e-12)
+    })
+    // [practice] lognormal mean exp(μ + σ²/2); 2050 is half way from zero at 2000
+    const mean = 2 * (-0.05 + Math.exp(-2 + 0.125))
+    expect(Math.abs(late.mean.value - mean)).toBeLessThan(4 * late.mean.se)
+    expect(Math.abs(result.byYear[0]!.mean.value - mean / 2)).toBeLessThan(4 * result.byYear[0]!.mean.se)
+  })
+
   it('reports the Monte Carlo standard error √(p(1−p)/N) with each probability', () => {
     const result = runOutlook(baseInput({ samples: 10_000 }))
     for (const estimate of result.byYear[1]!.exceedance) {
