@@ -23,8 +23,9 @@ export default defineNuxtConfig({
     defaultLocale: 'en',
     strategy: 'no_prefix',
     locales: [
-      { code: 'en', language: 'en-GB', name: 'English', file: 'en.json' },
-      { code: 'es', language: 'es-ES', name: 'Español', file: 'es.json' },
+      // One file per domain, merged per language, so areas of the app keep their strings apart.
+      { code: 'en', language: 'en-GB', name: 'English', files: ['en.json', 'en-sites.json', 'en-briefings.json'] },
+      { code: 'es', language: 'es-ES', name: 'Español', files: ['es.json', 'es-sites.json', 'es-briefings.json'] },
     ],
     detectBrowserLanguage: { useCookie: true, cookieKey: 'brinkwater_locale', redirectOn: 'root' },
   },
@@ -35,8 +36,12 @@ export default defineNuxtConfig({
   },
 
   nitro: {
-    // Migrations are read at run time by the built server, so they travel as server assets.
-    serverAssets: [{ baseName: 'migrations', dir: fileURLToPath(new URL('./server/db/migrations', import.meta.url)) }],
+    // Files read at run time by the built server travel as server assets.
+    serverAssets: [
+      { baseName: 'migrations', dir: fileURLToPath(new URL('./server/db/migrations', import.meta.url)) },
+      // The PDF embeds the app's own font; PDFKit reads .woff (its .woff2 renders blank).
+      { baseName: 'fonts', dir: fileURLToPath(new URL('./node_modules/@fontsource/atkinson-hyperlegible/files', import.meta.url)), pattern: 'atkinson-hyperlegible-latin-*.woff' },
+    ],
   },
 
   // echarts, zrender and vue-echarts ship ESM that must go through Vite's transform for SSR.

@@ -205,3 +205,33 @@ export const outlooks = pgTable('outlooks', {
   unique('outlooks_site_input').on(table.siteId, table.inputHash),
   index('outlooks_site_idx').on(table.siteId),
 ])
+
+// ---- Briefings ----
+
+export const briefingStateEnum = pgEnum('briefing_state', ['draft', 'issued'])
+
+export const briefings = pgTable('briefings', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  organisationId: uuid('organisation_id').notNull().references(() => organisations.id),
+  siteId: uuid('site_id').notNull().references(() => sites.id, { onDelete: 'cascade' }),
+  /** The outlook it is issued from, then those compared with it (other scenarios). */
+  outlookIds: jsonb('outlook_ids').$type<string[]>().notNull(),
+  version: integer('version').notNull().default(1),
+  previousId: uuid('previous_id'),
+  state: briefingStateEnum('state').notNull().default('draft'),
+  title: text('title').notNull(),
+  audience: text('audience').notNull().default(''),
+  localContext: text('local_context').notNull().default(''),
+  language: text('language').notNull(),
+  units: text('units').notNull(),
+  thresholdIds: jsonb('threshold_ids').$type<string[]>().notNull(),
+  years: jsonb('years').$type<number[]>().notNull(),
+  /** The frozen document (shared/briefing/document.ts), written when issued. */
+  document: jsonb('document').$type<Record<string, unknown>>(),
+  shareToken: text('share_token').unique(),
+  createdBy: uuid('created_by').notNull().references(() => users.id),
+  issuedBy: uuid('issued_by').references(() => users.id),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  issuedAt: timestamp('issued_at', { withTimezone: true }),
+}, table => [index('briefings_site_idx').on(table.siteId), index('briefings_organisation_idx').on(table.organisationId)])

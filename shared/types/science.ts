@@ -1,7 +1,7 @@
 // The product's vocabulary for published science (see DEVELOPERS.md).
 
 export const COMPONENTS = ['ocean-expansion', 'glaciers', 'greenland', 'antarctica', 'land-water', 'regional-ocean', 'other'] as const
-export type Component = typeof COMPONENTS[number]
+export type ComponentKey = typeof COMPONENTS[number]
 
 /** IPCC scenario names offered first; analysts may also name a storyline of their own. */
 export const KNOWN_SCENARIOS = ['SSP1-1.9', 'SSP1-2.6', 'SSP2-4.5', 'SSP3-7.0', 'SSP5-8.5'] as const

@@ -33,6 +33,11 @@ export class ApiClient {
     return { status: response.status, body: parsed as T, headers: response.headers }
   }
 
+  /** The raw response (for binary bodies such as PDFs), with this client's cookies. */
+  fetchRaw(path: string): Promise<Response> {
+    return fetch(this.baseUrl + path, { headers: this.cookies.size ? { cookie: [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ') } : {} })
+  }
+
   get<T = any>(path: string) { return this.request<T>('GET', path) }
   post<T = any>(path: string, body?: unknown) { return this.request<T>('POST', path, body) }
   patch<T = any>(path: string, body?: unknown) { return this.request<T>('PATCH', path, body) }

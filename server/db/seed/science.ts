@@ -1,7 +1,7 @@
 import type { ParsedRelease } from '../../../shared/engine'
 import { buildRelease } from '../../../shared/releases/content'
 import { releaseBands } from '../../../shared/releases/summary'
-import type { Component } from '../../../shared/types/science'
+import type { ComponentKey } from '../../../shared/types/science'
 import type { Database } from '../client'
 import { correlationSets, releases, scaleFactorGrids, series } from '../schema'
 
@@ -26,7 +26,7 @@ function quantileRow(median: number, lower: number, upper: number): number[] {
 
 type Recipe = (scenario: typeof DEMO_SCENARIOS[number]) => { form: ParsedRelease['form'], fields: Record<string, unknown> }
 
-const RECIPES: Record<Component, Recipe> = {
+const RECIPES: Record<ComponentKey, Recipe> = {
   'ocean-expansion': s => ({ form: 'quantiles', fields: { levels: LEVELS, values: [0.09, 0.21, 0.34].map((m, a) => quantileRow(m * strength(s, ANCHORS[a]!), 0.2, 0.22)) } }),
   'glaciers': s => ({ form: 'normal', fields: { mean: [0.05, 0.1, 0.14].map((m, a) => m * strength(s, ANCHORS[a]!)), sd: [0.01, 0.024, 0.034] } }),
   'greenland': s => ({ form: 'quantiles', fields: { levels: LEVELS, values: [0.03, 0.085, 0.17].map((m, a) => quantileRow(m * strength(s, ANCHORS[a]!), 0.35, 0.55)) } }),
@@ -36,7 +36,7 @@ const RECIPES: Record<Component, Recipe> = {
   'other': () => ({ form: 'normal', fields: { mean: [0, 0.004, 0.008], sd: [0.004, 0.01, 0.018] } }),
 }
 
-const TITLES: Record<Component, string> = {
+const TITLES: Record<ComponentKey, string> = {
   'ocean-expansion': 'Ocean warming and expansion',
   'glaciers': 'Mountain glaciers',
   'greenland': 'Greenland ice sheet',
@@ -65,7 +65,7 @@ export async function seedScience(tx: Pick<Database, 'insert'>, people: SeedPeop
   const published = new Date('2026-10-01T09:00:00Z')
   const common = { ...PROVENANCE, organisationId: people.organisationId, authorId: people.authorId, reviewerId: people.reviewerId, submittedAt: published }
   for (const scenario of DEMO_SCENARIOS) {
-    for (const component of Object.keys(RECIPES) as Component[]) {
+    for (const component of Object.keys(RECIPES) as ComponentKey[]) {
       const [row] = await tx.insert(series).values({ component, scenario, organisationId: people.organisationId, title: `${TITLES[component]} (illustrative)` }).returning({ id: series.id })
       const { form, fields } = RECIPES[component](scenario)
       const twoVersions = component === 'greenland' && scenario === 'SSP2-4.5'

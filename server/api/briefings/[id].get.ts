@@ -1,0 +1,13 @@
+import { IdParams } from '#shared/schemas/users'
+import { briefingDocument, loadBriefing } from '~~/server/services/briefings'
+
+// A briefing and its document (live for drafts, frozen once issued). Only planners see the link.
+export default defineEventHandler(async (event) => {
+  const user = await requireUser(event)
+  const { id } = readValidParams(event, IdParams)
+  const row = await loadBriefing(user, id)
+  const document = await briefingDocument(row)
+  const { document: _frozen, shareToken, ...briefing } = row
+  const canEdit = user.role === 'planner'
+  return { ...briefing, shareToken: canEdit ? shareToken : null, shared: shareToken !== null, canEdit, document }
+})

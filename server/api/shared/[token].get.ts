@@ -1,0 +1,11 @@
+import { z } from 'zod'
+import { briefingDocument, sharedBriefing } from '~~/server/services/briefings'
+
+const Params = z.object({ token: z.string().regex(/^[\w-]{20,64}$/) })
+
+// Public: an issued briefing by its share link, read-only, until the link is revoked.
+export default defineEventHandler(async (event) => {
+  const { token } = readValidParams(event, Params)
+  const briefing = await sharedBriefing(token)
+  return { id: briefing.id, version: briefing.version, issuedAt: briefing.issuedAt, siteId: briefing.siteId, document: await briefingDocument(briefing) }
+})

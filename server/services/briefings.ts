@@ -1,0 +1,158 @@
+import { randomBytes } from 'node:crypto'
+import { and, desc, eq, inArray } from 'drizzle-orm'
+import { briefings, organisations, outlooks, releases, sites, thresholds } from '~~/server/db/schema'
+import { buildBriefingDocument, type BriefingDocument, type BriefingOutlook } from '#shared/briefing/document'
+import type { OutlookResult } from '#shared/engine'
+import type { CreateBriefingInput, UpdateBriefingInput } from '#shared/schemas/briefings'
+import type { CurrentUser } from '../utils/auth'
+
+type Briefing = typeof briefings.$inferSelect
+
+const bad = (message: string) => createError({ statusCode: 400, message })
+
+/** The outlooks a briefing uses, checked to belong to one site of the caller's organisation. */
+async function loadOutlooks(user: CurrentUser, ids: string[]) {
+  const db = await useDb()
+  const rows = await db.select({ outlook: outlooks, organisationId: sites.organisationId })
+    .from(outlooks).innerJoin(sites, eq(sites.id, outlooks.siteId)).where(inArray(outlooks.id, ids))
+  const found = ids.map(id => rows.find(row => row.outlook.id === id && row.organisationId === user.organisationId)?.outlook)
+  if (found.some(row => !row)) throw createError({ statusCode: 404, message: 'No such outlook.' })
+  const list = found as (typeof outlooks.$inferSelect)[]
+  if (list.some(o => o.siteId !== list[0]!.siteId)) throw bad('comparisonOutlookIds: Compare outlooks of the same site only.')
+  if (list.some(o => o.state !== 'done')) throw createError({ statusCode: 409, message: 'An outlook is still running or failed; issue the briefing once it is done.' })
+  return list
+}
+
+async function checkSelection(user: CurrentUser, input: UpdateBriefingInput & { outlookId: string }) {
+  const list = await loadOutlooks(user, [input.outlookId, ...input.comparisonOutlookIds.filter(id => id !== input.outlookId)])
+  const siteId = list[0]!.siteId
+  const db = await useDb()
+  const own = await db.select({ id: thresholds.id }).from(thresholds).where(eq(thresholds.siteId, siteId))
+  const stray = input.thresholdIds.find(id => !own.some(t => t.id === id))
+  if (stray) throw bad(`thresholdIds: ${stray} is not a threshold of this site.`)
+  const years = (list[0]!.result as unknown as OutlookResult).years
+  const missing = input.years.find(year => !years.includes(year))
+  if (missing !== undefined) throw bad(`years: ${missing} is not a year of the outlook; choose from ${years.join(', ')}.`)
+  return { siteId, outlookIds: list.map(o => o.id) }
+}
+
+function fields(input: UpdateBriefingInput) {
+  return { title: input.title, audience: input.audience, localContext: input.localContext, language: input.language, units: input.units, thresholdIds: input.thresholdIds, years: [...input.years].sort((a, b) => a - b) }
+}
+
+export async function createBriefing(planner: CurrentUser, input: CreateBriefingInput) {
+  const { siteId, outlookIds } = await checkSelection(planner, input)
+  const db = await useDb()
+  return db.transaction(async (tx) => {
+    const [row] = await tx.insert(briefings).values({ ...fields(input), organisationId: planner.organisationId, siteId, outlookIds, createdBy: planner.id }).returning()
+    await writeAudit(tx, planner, 'briefing.drafted', { type: 'briefing', id: row!.id }, { site: siteId })
+    return row!
+  })
+}
+
+/** A briefing of the caller's organisation; readers see issued ones only. */
+export async function loadBriefing(user: CurrentUser, id: string): Promise<Briefing> {
+  const db = await useDb()
+  const [row] = await db.select().from(briefings).where(and(eq(briefings.id, id), eq(briefings.organisationId, user.organisationId)))
+  if (!row || (row.state === 'draft' && user.role !== 'planner')) throw createError({ statusCode: 404, message: 'No such briefing.' })
+  return row
+}
+
+export async function updateBriefing(planner: CurrentUser, id: string, input: UpdateBriefingInput & { outlookId?: string }) {
+  const row = await loadBriefing(planner, id)
+  if (row.state !== 'draft') throw createError({ statusCode: 409, message: `Version ${row.version} was issued on ${row.issuedAt!.toISOString().slice(0, 10)} and never changes; start a new version instead.` })
+  const { outlookIds } = await checkSelection(planner, { ...input, outlookId: input.outlookId ?? row.outlookIds[0]! })
+  const db = await useDb()
+  const [updated] = await db.update(briefings).set({ ...fields(input), outlookIds, updatedAt: new Date() }).where(and(eq(briefings.id, id), eq(briefings.state, 'draft'))).returning()
+  if (!updated) throw createError({ statusCode: 409, message: 'This briefing was issued while you were editing it; start a new version instead.' })
+  return updated
+}
+
+/** The document as it reads now (drafts) or as it was frozen (issued). */
+export async function briefingDocument(row: Briefing, issuedAt: Date | null = row.issuedAt): Promise<BriefingDocument> {
+  if (row.document) return row.document as unknown as BriefingDocument
+  const db = await useDb()
+  const [site] = await db.select({ site: sites, illustrative: organisations.illustrative }).from(sites)
+    .innerJoin(organisations, eq(organisations.id, sites.organisationId)).where(eq(sites.id, row.siteId))
+  const chosen = await db.select().from(thresholds).where(inArray(thresholds.id, row.thresholdIds))
+  const stored = await db.select().from(outlooks).where(inArray(outlooks.id, row.outlookIds))
+  const refs = stored.flatMap(o => o.releaseRefs.map(r => r.releaseId))
+  const states = refs.length ? await db.select({ id: releases.id, state: releases.state }).from(releases).where(inArray(releases.id, refs)) : []
+  const previous = row.previousId ? (await db.select({ version: briefings.version }).from(briefings).where(eq(briefings.id, row.previousId)))[0] : undefined
+  const ordered: BriefingOutlook[] = row.outlookIds.map((id) => {
+    const o = stored.find(s => s.id === id)!
+    return {
+      scenario: o.scenario, inputHash: o.inputHash, samples: o.samples, seed: o.seed, correlated: o.correlationSetId !== null,
+      result: o.result as unknown as OutlookResult,
+      releaseRefs: o.releaseRefs.map(r => ({ ...r, state: states.find(s => s.id === r.releaseId)?.state ?? 'published' })),
+    }
+  })
+  return buildBriefingDocument({
+    language: row.language === 'es' ? 'es' : 'en', units: row.units === 'ft' ? 'ft' : 'm',
+    title: row.title, audience: row.audience, localContext: row.localContext, version: row.version,
+    previousVersion: previous?.version ?? null, issuedAt: issuedAt?.toISOString() ?? null, livePath: `/briefings/${row.id}`,
+    illustrative: site!.illustrative, site: site!.site,
+    thresholds: row.thresholdIds.map(id => chosen.find(t => t.id === id)!).filter(Boolean),
+    years: row.years, outlooks: ordered,
+  })
+}
+
+export async function issueBriefing(planner: CurrentUser, id: string) {
+  const row = await loadBriefing(planner, id)
+  if (row.state !== 'draft') throw createError({ statusCode: 409, message: `Version ${row.version} is already issued.` })
+  const issuedAt = new Date()
+  const document = await briefingDocument(row, issuedAt)
+  const db = await useDb()
+  return db.transaction(async (tx) => {
+    const [issued] = await tx.update(briefings).set({ state: 'issued', document: document as unknown as Record<string, unknown>, issuedAt, issuedBy: planner.id, updatedAt: issuedAt })
+      .where(and(eq(briefings.id, id), eq(briefings.state, 'draft'))).returning()
+    if (!issued) throw createError({ statusCode: 409, message: 'This briefing has just been issued by someone else.' })
+    await writeAudit(tx, planner, 'briefing.issued', { type: 'briefing', id }, { version: row.version, site: row.siteId })
+    return issued
+  })
+}
+
+/** A new draft that starts from an issued briefing and replaces it once issued. */
+export async function newBriefingVersion(planner: CurrentUser, id: string) {
+  const row = await loadBriefing(planner, id)
+  if (row.state !== 'issued') throw createError({ statusCode: 409, message: 'Only an issued briefing gets a new version; edit this draft instead.' })
+  const db = await useDb()
+  const [latest] = await db.select({ version: briefings.version }).from(briefings).where(eq(briefings.siteId, row.siteId)).orderBy(desc(briefings.version)).limit(1)
+  const [draft] = await db.insert(briefings).values({
+    organisationId: row.organisationId, siteId: row.siteId, outlookIds: row.outlookIds, version: Math.max(row.version, latest?.version ?? 0) + 1, previousId: row.id,
+    title: row.title, audience: row.audience, localContext: row.localContext, language: row.language, units: row.units,
+    thresholdIds: row.thresholdIds, years: row.years, createdBy: planner.id,
+  }).returning()
+  await writeAudit(db, planner, 'briefing.new-version', { type: 'briefing', id: draft!.id }, { previous: id })
+  return draft!
+}
+
+export async function setSharing(planner: CurrentUser, id: string, shared: boolean) {
+  const row = await loadBriefing(planner, id)
+  if (shared && row.state !== 'issued') throw createError({ statusCode: 409, message: 'Issue the briefing before sharing it: drafts stay inside the organisation.' })
+  const token = shared ? (row.shareToken ?? randomBytes(24).toString('base64url')) : null
+  const db = await useDb()
+  await db.update(briefings).set({ shareToken: token, updatedAt: new Date() }).where(eq(briefings.id, id))
+  await writeAudit(db, planner, shared ? 'briefing.shared' : 'briefing.unshared', { type: 'briefing', id })
+  return { shareToken: token }
+}
+
+export async function sharedBriefing(token: string) {
+  const db = await useDb()
+  const [row] = await db.select().from(briefings).where(and(eq(briefings.shareToken, token), eq(briefings.state, 'issued')))
+  if (!row) throw createError({ statusCode: 404, message: 'This link does not open a briefing: it may have been withdrawn by its author.' })
+  return row
+}
+
+export async function listBriefings(user: CurrentUser, siteId?: string) {
+  const db = await useDb()
+  const conditions = [eq(briefings.organisationId, user.organisationId)]
+  if (siteId) conditions.push(eq(briefings.siteId, siteId))
+  if (user.role !== 'planner') conditions.push(eq(briefings.state, 'issued'))
+  const rows = await db.select({
+    id: briefings.id, title: briefings.title, version: briefings.version, state: briefings.state, siteId: briefings.siteId, siteName: sites.name,
+    language: briefings.language, issuedAt: briefings.issuedAt, shareToken: briefings.shareToken, previousId: briefings.previousId, updatedAt: briefings.updatedAt,
+  }).from(briefings).innerJoin(sites, eq(sites.id, briefings.siteId)).where(and(...conditions)).orderBy(desc(briefings.updatedAt))
+  // Lists say whether a briefing is shared; only its page shows the link itself, to planners.
+  return rows.map(({ shareToken, ...row }) => ({ ...row, shared: shareToken !== null }))
+}

@@ -1,0 +1,20 @@
+import type { H3Event } from 'h3'
+import { z } from 'zod'
+import type { BriefingDocument } from '#shared/briefing/document'
+import { briefingPdfDefinition } from '../services/briefing-pdf'
+
+const Query = z.object({ paper: z.enum(['a4', 'letter'], { error: 'paper must be a4 or letter.' }).default('a4') })
+
+/** Streams a briefing as a PDF with a file name that says what it is. */
+export async function sendBriefingPdf(event: H3Event, doc: BriefingDocument, path: string) {
+  const { paper } = readValidQuery(event, Query)
+  const link = `${getRequestURL(event).origin}${path}`
+  const pdf = await renderPdf(briefingPdfDefinition(doc, link, paper === 'letter' ? 'LETTER' : 'A4'))
+  const date = (doc.meta.issuedAt ?? new Date().toISOString()).slice(0, 10)
+  const name = `brinkwater-${doc.meta.siteName}-${doc.meta.scenario}-v${doc.meta.version}-${doc.meta.issuedAt ? date : 'draft'}`
+    .toLowerCase().normalize('NFKD').replace(/[^\w.-]+/g, '-')
+  setResponseHeader(event, 'content-type', 'application/pdf')
+  setResponseHeader(event, 'content-disposition', `attachment; filename="${name}.pdf"`)
+  setResponseHeader(event, 'cache-control', 'private, no-store')
+  return pdf
+}

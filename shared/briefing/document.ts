@@ -1,0 +1,164 @@
+import type { OutlookResult } from '../engine'
+import { formatHeight, type HeightUnit } from '../units'
+import { chanceAsOdds, formatChance, likelihoodPhrase, type Language } from '../wording/chance'
+import { BRIEFING_TEXT, type BriefingText } from './text'
+
+// A briefing as a document: every sentence and number, in one language and one unit, built from
+// stored outlooks. Issuing freezes this object; the page and the PDF only lay it out.
+
+export interface BriefingReleaseRef { component: string, version: number, citation: string, state: string, scale: number, scaleSource: string | null }
+export interface BriefingOutlook {
+  scenario: string
+  inputHash: string
+  samples: number
+  seed: number
+  /** Whether a published correlation set tied the components together. */
+  correlated: boolean
+  releaseRefs: BriefingReleaseRef[]
+  result: OutlookResult
+}
+
+export interface BriefingSource {
+  language: Language
+  units: HeightUnit
+  title: string
+  audience: string
+  localContext: string
+  version: number
+  previousVersion: number | null
+  issuedAt: string | null
+  livePath: string
+  illustrative: boolean
+  site: {
+    name: string
+    referenceLevel: string
+    landMotionRate: number
+    landMotionSigma: number
+    landMotionSource: string
+    landMotionReference: string
+    landMotionEpoch: number
+  }
+  thresholds: { id: string, label: string, height: number }[]
+  years: number[]
+  /** The first is the outlook the briefing is issued from; the others are compared with it. */
+  outlooks: BriefingOutlook[]
+}
+
+export interface ChanceCell { probability: number, text: string }
+
+export interface BriefingDocument {
+  meta: Omit<BriefingSource, 'outlooks' | 'thresholds' | 'years' | 'site'> & { siteName: string, referenceLevel: string, scenario: string, inputs: { scenario: string, inputHash: string }[] }
+  summary: { intro: string, lines: string[], ranges: string[] }
+  charts: {
+    years: number[]
+    heights: number[]
+    exceedance: { year: number, values: number[] }[]
+    fan: { years: number[], p1: number[], p5: number[], p17: number[], p50: number[], p83: number[], p95: number[], p99: number[] }
+  }
+  table: { years: number[], rows: { scenario: string, threshold: string, height: string, chances: ChanceCell[] }[] }
+  extremes: { year: number, allowance: string, amplification: string }[] | null
+  basis: { releases: { component: string, scenario: string, version: number, citation: string, state: string, scale: string }[], landMotion: string, sampling: string, notes: string[], method: string[] }
+  cautions: string[]
+}
+
+/** What a reader should know about how an outlook was put together, in the briefing's language. */
+function outlookNotes(outlook: BriefingOutlook, text: BriefingText): string[] {
+  const unscaled = outlook.releaseRefs.filter(ref => ref.scaleSource === null).map(ref => text.components[ref.component] ?? ref.component)
+  return [
+    ...(unscaled.length ? [text.notes.unscaled(outlook.scenario, unscaled.join(', '))] : []),
+    ...(outlook.correlated ? [] : [text.notes.uncorrelated(outlook.scenario)]),
+  ]
+}
+
+function percentile(result: OutlookResult, yearIndex: number, level: number): number {
+  return result.byYear[yearIndex]!.percentiles.find(p => Math.abs(p.level - level) < 1e-9)!.value
+}
+
+/** Heights worth drawing: where some chosen year's chance is between 0.1 % and 99.9 %, with a margin. */
+function chartHeights(result: OutlookResult, yearIndexes: number[]) {
+  let first = result.heights.length - 1
+  let last = 0
+  for (const t of yearIndexes) {
+    result.byYear[t]!.exceedance.forEach((e, h) => {
+      if (e.value < 0.999 && e.value > 0.001) {
+        first = Math.min(first, h)
+        last = Math.max(last, h)
+      }
+    })
+  }
+  if (first > last) return { from: 0, to: result.heights.length - 1 }
+  return { from: Math.max(0, first - 3), to: Math.min(result.heights.length - 1, last + 3) }
+}
+
+export function buildBriefingDocument(source: BriefingSource): BriefingDocument {
+  const text = BRIEFING_TEXT[source.language]
+  const height = (metres: number) => formatHeight(metres, source.units, source.language)
+  const [primary] = source.outlooks
+  if (!primary) throw new Error('A briefing needs at least one outlook')
+  const result = primary.result
+  const yearIndexes = source.years.map((year) => {
+    const index = result.years.indexOf(year)
+    if (index < 0) throw new Error(`Year ${year} is not in the outlook`)
+    return index
+  })
+  const thresholdOf = (outlook: BriefingOutlook, id: string) => outlook.result.thresholds.find(t => t.key === id)
+
+  const lines = source.thresholds.flatMap(threshold => yearIndexes.map((t) => {
+    const p = thresholdOf(primary, threshold.id)?.byYear[t]?.value ?? 0
+    return text.chanceLine(chanceAsOdds(p, source.language), formatChance(p, source.language), likelihoodPhrase(p, source.language), height(threshold.height), threshold.label, result.years[t]!)
+  }))
+  const ranges = yearIndexes.map(t => text.rangeSentence(result.years[t]!, height(percentile(result, t, 0.5)), height(percentile(result, t, 0.17)), height(percentile(result, t, 0.83))))
+
+  const { from, to } = chartHeights(result, yearIndexes)
+  const series = (level: number) => result.byYear.map((_, t) => percentile(result, t, level))
+
+  const rows = source.outlooks.flatMap(outlook => source.thresholds.map((threshold) => {
+    const found = thresholdOf(outlook, threshold.id)
+    return {
+      scenario: outlook.scenario,
+      threshold: threshold.label,
+      height: height(threshold.height),
+      chances: source.years.map((year) => {
+        const index = outlook.result.years.indexOf(year)
+        const p = index >= 0 && found ? found.byYear[index]!.value : Number.NaN
+        return { probability: p, text: Number.isNaN(p) ? '—' : formatChance(p, source.language) }
+      }),
+    }
+  }))
+
+  const extremes = result.gumbel
+    ? yearIndexes.map((t) => {
+        const g = result.byYear[t]!.gumbel!
+        return { year: result.years[t]!, allowance: height(g.allowance), amplification: g.amplification.toLocaleString(source.language, { maximumSignificantDigits: 3 }) }
+      })
+    : null
+
+  const site = source.site
+  return {
+    meta: {
+      language: source.language, units: source.units, title: source.title, audience: source.audience, localContext: source.localContext,
+      version: source.version, previousVersion: source.previousVersion, issuedAt: source.issuedAt, livePath: source.livePath, illustrative: source.illustrative,
+      siteName: site.name, referenceLevel: site.referenceLevel, scenario: primary.scenario, inputs: source.outlooks.map(o => ({ scenario: o.scenario, inputHash: o.inputHash })),
+    },
+    summary: { intro: text.summaryIntro(site.name, primary.scenario), lines, ranges },
+    charts: {
+      years: result.years,
+      heights: result.heights.slice(from, to + 1),
+      exceedance: yearIndexes.map(t => ({ year: result.years[t]!, values: result.byYear[t]!.exceedance.slice(from, to + 1).map(e => e.value) })),
+      fan: { years: result.years, p1: series(0.01), p5: series(0.05), p17: series(0.17), p50: series(0.5), p83: series(0.83), p95: series(0.95), p99: series(0.99) },
+    },
+    table: { years: source.years, rows },
+    extremes,
+    basis: {
+      releases: source.outlooks.flatMap(outlook => outlook.releaseRefs.map(ref => ({
+        component: text.components[ref.component] ?? ref.component, scenario: outlook.scenario, version: ref.version,
+        citation: ref.citation, state: text.states[ref.state] ?? ref.state, scale: ref.scale.toLocaleString(source.language, { maximumFractionDigits: 3 }),
+      }))),
+      landMotion: text.landMotion(`${site.landMotionRate.toLocaleString(source.language)} mm`, `${site.landMotionSigma.toLocaleString(source.language)} mm`, text.sources[site.landMotionSource] ?? site.landMotionSource, site.landMotionEpoch, site.landMotionReference),
+      sampling: text.sampling(primary.samples.toLocaleString(source.language), primary.seed),
+      notes: source.outlooks.flatMap(outlook => outlookNotes(outlook, text)),
+      method: text.method,
+    },
+    cautions: [...text.cautions, text.highEnd],
+  }
+}

@@ -1,0 +1,24 @@
+import { z } from 'zod'
+import { HEIGHT_UNITS } from '../units'
+
+// Issuing a briefing. Free text is stored as typed and always shown escaped.
+
+const plain = (what: string, max: number) => z.string({ error: `Enter the ${what}.` }).max(max, { error: `Use at most ${max} characters.` })
+
+const BriefingFields = {
+  title: plain('title', 160).trim().min(1, { error: 'Enter a title, like "Quay Street: sea level to 2100".' }),
+  audience: plain('audience note', 500).default(''),
+  localContext: plain('local context', 4000).default(''),
+  language: z.enum(['en', 'es'], { error: 'Choose English (en) or Spanish (es).' }).default('en'),
+  units: z.enum(HEIGHT_UNITS as ['m', 'ft'], { error: 'Choose metres (m) or feet (ft).' }).default('m'),
+  thresholdIds: z.array(z.uuid({ error: 'Choose thresholds of this site.' })).min(1, { error: 'Choose at least one threshold.' }).max(12),
+  years: z.array(z.number().int({ error: 'Choose whole years from the outlook.' })).min(1, { error: 'Choose at least one year.' }).max(8, { error: 'Choose at most 8 years.' }),
+  /** Outlooks of other scenarios at the same site, compared in the table. */
+  comparisonOutlookIds: z.array(z.uuid()).max(4, { error: 'Compare at most 4 other scenarios.' }).default([]),
+}
+
+export const CreateBriefingSchema = z.object({ outlookId: z.uuid({ error: 'Choose the outlook to issue the briefing from.' }), ...BriefingFields })
+export const UpdateBriefingSchema = z.object(BriefingFields)
+
+export type CreateBriefingInput = z.infer<typeof CreateBriefingSchema>
+export type UpdateBriefingInput = z.infer<typeof UpdateBriefingSchema>
