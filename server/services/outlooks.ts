@@ -112,10 +112,12 @@ async function execute(id: string, input: unknown, thresholdLabels: Map<string, 
   }
 }
 
+export interface NewerScience { component: string, usedVersion: number, latestVersion: number | null, latestReleaseId: string | null }
+
 /** Which releases an outlook used have since been superseded or withdrawn, and by what. */
-export async function newerScience(scenario: string, refs: OutlookReleaseRef[]) {
+export async function newerScience(scenario: string, refs: OutlookReleaseRef[]): Promise<NewerScience[]> {
   const latest = await latestReleases(scenario)
-  return refs.flatMap((ref) => {
+  return refs.flatMap((ref): NewerScience[] => {
     const now = latest.get(ref.component)
     if (!now) return [{ component: ref.component, usedVersion: ref.version, latestVersion: null, latestReleaseId: null }]
     return now.id === ref.releaseId ? [] : [{ component: ref.component, usedVersion: ref.version, latestVersion: now.version, latestReleaseId: now.id }]

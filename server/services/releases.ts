@@ -1,5 +1,5 @@
 import { and, desc, eq, inArray, max, or, type SQL } from 'drizzle-orm'
-import { alias } from 'drizzle-orm/pg-core'
+import { alias, type AnyPgColumn } from 'drizzle-orm/pg-core'
 import { organisations, releaseDraws, releases, series, users } from '~~/server/db/schema'
 import type { ParsedRelease } from '#shared/engine'
 import { buildRelease } from '#shared/releases/content'
@@ -12,7 +12,7 @@ import type { CurrentUser } from '../utils/auth'
 type Viewer = CurrentUser | null
 
 /** Published-once records are public; drafts and reviews only within their organisation. */
-export function visibleTo(viewer: Viewer, organisationColumn = releases.organisationId, stateColumn = releases.state): SQL {
+export function visibleTo(viewer: Viewer, organisationColumn: AnyPgColumn = releases.organisationId, stateColumn: AnyPgColumn = releases.state): SQL {
   const open = inArray(stateColumn, [...PUBLIC_STATES])
   return viewer ? or(open, eq(organisationColumn, viewer.organisationId))! : open
 }

@@ -42,7 +42,7 @@ class OutlookPool {
     const worker = new Worker(workerScript())
     worker.unref()
     worker.on('message', (reply: Reply) => this.receive(worker, reply))
-    worker.on('error', (error) => {
+    worker.on('error', (error: Error) => {
       // A crashed thread fails the jobs it was serving and is replaced.
       for (const job of this.jobs.filter(j => j.sentTo.has(worker))) this.fail(job, error)
       this.idle.push(this.spawn())

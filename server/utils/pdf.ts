@@ -34,8 +34,9 @@ export async function renderPdf(doc: TDocumentDefinitions): Promise<Buffer> {
 }
 
 /** An ECharts option drawn as an SVG string on the server, for embedding in a PDF. */
-export function chartSvg(option: object, width: number, height: number): string {
-  const chart = echarts.init(null, null, { renderer: 'svg', ssr: true, width, height })
+export function chartSvg(option: Record<string, unknown>, width: number, height: number): string {
+  // Server-side rendering: no DOM element, ECharts draws into an SVG string.
+  const chart = echarts.init(null as unknown as HTMLElement, undefined, { renderer: 'svg', ssr: true, width, height })
   chart.setOption(option)
   const svg = chart.renderToSVGString()
   chart.dispose()
