@@ -323,13 +323,20 @@ function valueTile(plan: OutlookPlan, tileCount: number, scratch: TileScratch): 
       const into = plan.valueBasis[slot]! * TILE
       const zero = plan.valueAtZero[slot]!
       if (kind === COMPONENT_KIND_PIECEWISE) {
-        for (let i = 0; i < tileCount; i++) {
-          const line = lineAt[at + i]! + a
-          const level = intercepts[line]! + slopes[line]! * scores[at + i]!
-          values[out + i] = level - zero
-          basis[into + i]! += level - zero
-          levels[into + i]! += level
+        // Anchors in threes (then twos, ones): each sample's piece and score are read once per group.
+        const width = Math.min(3, plan.anchorCount[c]! - a)
+        if (width === 3) piecewiseThree(plan, c, a, tileCount, scratch)
+        else if (width === 2) piecewiseTwo(plan, c, a, tileCount, scratch)
+        else {
+          for (let i = 0; i < tileCount; i++) {
+            const line = lineAt[at + i]! + a
+            const level = intercepts[line]! + slopes[line]! * scores[at + i]!
+            values[out + i] = level - zero
+            basis[into + i]! += level - zero
+            levels[into + i]! += level
+          }
         }
+        a += width - 1
       } else if (kind === COMPONENT_KIND_DRAWS) {
         for (let i = 0; i < tileCount; i++) {
           const level = intercepts[lineAt[at + i]! + a]!
@@ -354,6 +361,67 @@ function valueTile(plan: OutlookPlan, tileCount: number, scratch: TileScratch): 
   const landScores = scores.subarray(componentCount * TILE, componentCount * TILE + tileCount)
   basis.set(landScores, landColumn * TILE)
   levels.set(landScores, landColumn * TILE)
+}
+
+/** Anchors a, a+1, a+2 of piecewise component c over the tile (see `valueTile`). */
+function piecewiseThree(plan: OutlookPlan, c: number, a: number, tileCount: number, scratch: TileScratch): void {
+  const { scores, lineAt, values, basis, levels } = scratch
+  const intercepts = plan.anchorIntercept
+  const slopes = plan.anchorSlope
+  const slot = plan.valueStart[c]! + a
+  const at = c * TILE
+  const o0 = slot * TILE
+  const o1 = o0 + TILE
+  const o2 = o1 + TILE
+  const j0 = plan.valueBasis[slot]! * TILE
+  const j1 = plan.valueBasis[slot + 1]! * TILE
+  const j2 = plan.valueBasis[slot + 2]! * TILE
+  const zero0 = plan.valueAtZero[slot]!
+  const zero1 = plan.valueAtZero[slot + 1]!
+  const zero2 = plan.valueAtZero[slot + 2]!
+  for (let i = 0; i < tileCount; i++) {
+    const line = lineAt[at + i]! + a
+    const z = scores[at + i]!
+    const x0 = intercepts[line]! + slopes[line]! * z
+    const x1 = intercepts[line + 1]! + slopes[line + 1]! * z
+    const x2 = intercepts[line + 2]! + slopes[line + 2]! * z
+    values[o0 + i] = x0 - zero0
+    values[o1 + i] = x1 - zero1
+    values[o2 + i] = x2 - zero2
+    basis[j0 + i]! += x0 - zero0
+    basis[j1 + i]! += x1 - zero1
+    basis[j2 + i]! += x2 - zero2
+    levels[j0 + i]! += x0
+    levels[j1 + i]! += x1
+    levels[j2 + i]! += x2
+  }
+}
+
+/** Anchors a, a+1 of piecewise component c over the tile (see `valueTile`). */
+function piecewiseTwo(plan: OutlookPlan, c: number, a: number, tileCount: number, scratch: TileScratch): void {
+  const { scores, lineAt, values, basis, levels } = scratch
+  const intercepts = plan.anchorIntercept
+  const slopes = plan.anchorSlope
+  const slot = plan.valueStart[c]! + a
+  const at = c * TILE
+  const o0 = slot * TILE
+  const o1 = o0 + TILE
+  const j0 = plan.valueBasis[slot]! * TILE
+  const j1 = plan.valueBasis[slot + 1]! * TILE
+  const zero0 = plan.valueAtZero[slot]!
+  const zero1 = plan.valueAtZero[slot + 1]!
+  for (let i = 0; i < tileCount; i++) {
+    const line = lineAt[at + i]! + a
+    const z = scores[at + i]!
+    const x0 = intercepts[line]! + slopes[line]! * z
+    const x1 = intercepts[line + 1]! + slopes[line + 1]! * z
+    values[o0 + i] = x0 - zero0
+    values[o1 + i] = x1 - zero1
+    basis[j0 + i]! += x0 - zero0
+    basis[j1 + i]! += x1 - zero1
+    levels[j0 + i]! += x0
+    levels[j1 + i]! += x1
+  }
 }
 
 /**
