@@ -430,58 +430,99 @@ function piecewiseTwo(plan: OutlookPlan, c: number, a: number, tileCount: number
  */
 function sumTile(plan: OutlookPlan, tileCount: number, scratch: TileScratch): void {
   const columnCount = plan.basisCount
-  const { values, basis, basisSum, basisCross, valueSum, valueCross } = scratch
+  const rowCount = columnCount + plan.valueCount
+  const { values, basis } = scratch
   const columns = scratch.allColumns
-  for (let j = 0; j < columnCount; j++) {
-    const at = j * TILE
-    let sum = 0
-    for (let i = 0; i < tileCount; i++) sum += basis[at + i]!
-    basisSum[j]! += sum
-  }
-  for (let row = 0; row < columnCount + plan.valueCount; row++) {
-    // Rows are the basis columns (their upper triangle is what is kept), then the anchor-value slots.
-    const isBasis = row < columnCount
-    const source = isBasis ? basis : values
-    const at = (isBasis ? row : row - columnCount) * TILE
-    const target = isBasis ? basisCross : valueCross
-    const targetAt = (isBasis ? row : row - columnCount) * columnCount
-    let sum = 0
+  // Rows are the basis columns, then the anchor-value slots; two rows per pass share the column loads.
+  for (let row = 0; row < rowCount; row += 2) {
+    const second = Math.min(row + 1, rowCount - 1)
+    const sourceA = row < columnCount ? basis : values
+    const sourceB = second < columnCount ? basis : values
+    const atA = (row < columnCount ? row : row - columnCount) * TILE
+    const atB = (second < columnCount ? second : second - columnCount) * TILE
+    let sumA = 0
+    let sumB = 0
     for (let p = 0; p < columns.length; p += PASS) {
-      const k0 = columns[p]!
-      const b0 = k0 * TILE
+      const b0 = columns[p]! * TILE
       const b1 = columns[p + 1]! * TILE
       const b2 = columns[p + 2]! * TILE
       const b3 = columns[p + 3]! * TILE
+      let a0 = 0
+      let a1 = 0
+      let a2 = 0
+      let a3 = 0
       let c0 = 0
       let c1 = 0
       let c2 = 0
       let c3 = 0
       if (p === 0) {
         for (let i = 0; i < tileCount; i++) {
-          const x = source[at + i]!
-          sum += x
-          c0 += x * basis[b0 + i]!
-          c1 += x * basis[b1 + i]!
-          c2 += x * basis[b2 + i]!
-          c3 += x * basis[b3 + i]!
+          const x = sourceA[atA + i]!
+          const y = sourceB[atB + i]!
+          const u0 = basis[b0 + i]!
+          const u1 = basis[b1 + i]!
+          const u2 = basis[b2 + i]!
+          const u3 = basis[b3 + i]!
+          sumA += x
+          sumB += y
+          a0 += x * u0
+          a1 += x * u1
+          a2 += x * u2
+          a3 += x * u3
+          c0 += y * u0
+          c1 += y * u1
+          c2 += y * u2
+          c3 += y * u3
         }
       } else {
         for (let i = 0; i < tileCount; i++) {
-          const x = source[at + i]!
-          c0 += x * basis[b0 + i]!
-          c1 += x * basis[b1 + i]!
-          c2 += x * basis[b2 + i]!
-          c3 += x * basis[b3 + i]!
+          const x = sourceA[atA + i]!
+          const y = sourceB[atB + i]!
+          const u0 = basis[b0 + i]!
+          const u1 = basis[b1 + i]!
+          const u2 = basis[b2 + i]!
+          const u3 = basis[b3 + i]!
+          a0 += x * u0
+          a1 += x * u1
+          a2 += x * u2
+          a3 += x * u3
+          c0 += y * u0
+          c1 += y * u1
+          c2 += y * u2
+          c3 += y * u3
         }
       }
-      // Padding columns point at the zero row and are not stored.
-      if (k0 < columnCount) target[targetAt + k0]! += c0
-      if (columns[p + 1]! < columnCount) target[targetAt + columns[p + 1]!]! += c1
-      if (columns[p + 2]! < columnCount) target[targetAt + columns[p + 2]!]! += c2
-      if (columns[p + 3]! < columnCount) target[targetAt + columns[p + 3]!]! += c3
+      addCross(scratch, columnCount, row, columns, p, a0, a1, a2, a3)
+      if (second !== row) addCross(scratch, columnCount, second, columns, p, c0, c1, c2, c3)
     }
-    if (!isBasis) valueSum[row - columnCount]! += sum
+    addSum(scratch, columnCount, row, sumA)
+    if (second !== row) addSum(scratch, columnCount, second, sumB)
   }
+}
+
+/** Adds one pass's dot products of a row; padding columns point at the zero row and are not stored. */
+function addCross(
+  scratch: TileScratch,
+  columnCount: number,
+  row: number,
+  columns: Int32Array,
+  p: number,
+  c0: number,
+  c1: number,
+  c2: number,
+  c3: number,
+): void {
+  const target = row < columnCount ? scratch.basisCross : scratch.valueCross
+  const at = (row < columnCount ? row : row - columnCount) * columnCount
+  if (columns[p]! < columnCount) target[at + columns[p]!]! += c0
+  if (columns[p + 1]! < columnCount) target[at + columns[p + 1]!]! += c1
+  if (columns[p + 2]! < columnCount) target[at + columns[p + 2]!]! += c2
+  if (columns[p + 3]! < columnCount) target[at + columns[p + 3]!]! += c3
+}
+
+function addSum(scratch: TileScratch, columnCount: number, row: number, sum: number): void {
+  if (row < columnCount) scratch.basisSum[row]! += sum
+  else scratch.valueSum[row - columnCount]! += sum
 }
 
 /**
