@@ -235,3 +235,71 @@ export const briefings = pgTable('briefings', {
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
   issuedAt: timestamp('issued_at', { withTimezone: true }),
 }, table => [index('briefings_site_idx').on(table.siteId), index('briefings_organisation_idx').on(table.organisationId)])
+
+// ---- Mail: the outbox, the local stand-in's mailbox, watches, invitations, password resets ----
+
+export const outboxStateEnum = pgEnum('outbox_state', ['queued', 'sent', 'failed'])
+
+/** Every e-mail goes through here, queued in the transaction of the change that caused it. */
+export const mailOutbox = pgTable('mail_outbox', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  to: text('to').notNull(),
+  subject: text('subject').notNull(),
+  text: text('text').notNull(),
+  html: text('html').notNull(),
+  headers: jsonb('headers').$type<Record<string, string>>().notNull().default({}),
+  /** What caused it, e.g. `watch-confirm:<watch id>`; one message per key. */
+  dedupeKey: text('dedupe_key').unique(),
+  state: outboxStateEnum('state').notNull().default('queued'),
+  attempts: integer('attempts').notNull().default(0),
+  lastError: text('last_error'),
+  nextAttemptAt: timestamp('next_attempt_at', { withTimezone: true }).notNull().defaultNow(),
+  /** Held by a sender until then, so two senders never send one message twice. */
+  lockedUntil: timestamp('locked_until', { withTimezone: true }),
+  messageId: text('message_id'),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  sentAt: timestamp('sent_at', { withTimezone: true }),
+}, table => [index('mail_outbox_due_idx').on(table.state, table.nextAttemptAt)])
+
+/** Messages received by the local stand-in SMTP server (when no SMTP_URL is set). */
+export const mailbox = pgTable('mailbox', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  receivedAt: timestamp('received_at', { withTimezone: true }).notNull().defaultNow(),
+  envelopeFrom: text('envelope_from').notNull(),
+  envelopeTo: jsonb('envelope_to').$type<string[]>().notNull(),
+  raw: text('raw').notNull(),
+})
+
+export const watchStateEnum = pgEnum('watch_state', ['pending', 'active', 'unsubscribed'])
+
+export const watches = pgTable('watches', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  siteId: uuid('site_id').notNull().references(() => sites.id, { onDelete: 'cascade' }),
+  email: text('email').notNull(),
+  language: text('language').notNull().default('en'),
+  state: watchStateEnum('state').notNull().default('pending'),
+  /** SHA-256 of the confirmation token; the token itself only travels in the e-mail. */
+  confirmTokenHash: text('confirm_token_hash'),
+  confirmExpiresAt: timestamp('confirm_expires_at', { withTimezone: true }),
+  unsubscribeToken: text('unsubscribe_token').notNull().unique(),
+  userId: uuid('user_id').references(() => users.id),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  confirmedAt: timestamp('confirmed_at', { withTimezone: true }),
+  unsubscribedAt: timestamp('unsubscribed_at', { withTimezone: true }),
+}, table => [unique('watches_site_email').on(table.siteId, table.email)])
+
+/** A single-use, expiring token sent by e-mail: invitations and password resets. */
+export const accountTokens = pgTable('account_tokens', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  kind: text('kind').notNull(),
+  tokenHash: text('token_hash').notNull().unique(),
+  email: text('email').notNull(),
+  userId: uuid('user_id').references(() => users.id),
+  role: roleEnum('role'),
+  organisationId: uuid('organisation_id').references(() => organisations.id),
+  name: text('name'),
+  invitedBy: uuid('invited_by').references(() => users.id),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  usedAt: timestamp('used_at', { withTimezone: true }),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+})

@@ -1,8 +1,9 @@
 import { and, eq, type SQL } from 'drizzle-orm'
-import { correlationSets, releases, scaleFactorGrids } from '~~/server/db/schema'
+import { correlationSets, releases, scaleFactorGrids, series } from '~~/server/db/schema'
 import type { Database } from '~~/server/db/client'
 import { judgeReviewAction, type ReviewAction } from '#shared/review/rules'
 import type { CurrentUser } from '../utils/auth'
+import { notifyScienceChange } from './notify'
 
 // One review workflow for the three kinds of reviewed records. Publishing a version supersedes
 // the previously published version of the same series in the same transaction.
@@ -40,7 +41,7 @@ export interface ReviewPayload { note?: string, reason?: string }
 export async function applyReviewAction(kind: ReviewedKind, id: string, action: ReviewAction, actor: CurrentUser, payload: ReviewPayload = {}) {
   const db = await useDb()
   const table: ReviewedTable = TABLES[kind]
-  return db.transaction(async (tx) => {
+  const updated = await db.transaction(async (tx) => {
     // Lock the row so two reviewers cannot both publish, or publish and withdraw, at once.
     const [row] = await tx.select({
       id: table.id, state: table.state, authorId: table.authorId, version: table.version, organisationId: table.organisationId,
@@ -71,4 +72,21 @@ export async function applyReviewAction(kind: ReviewedKind, id: string, action: 
     await writeAudit(tx, actor, `${kind}.${AUDIT_VERB[action]}`, { type: kind, id }, { version: row.version, from: row.state, to: verdict.to, ...payload })
     return updated!
   })
+  if (action === 'approve' || action === 'withdraw') await announce(kind, id, action)
+  return updated
+}
+
+/** Published or withdrawn science changes outlooks: tell the people watching affected sites. */
+async function announce(kind: ReviewedKind, id: string, action: 'approve' | 'withdraw') {
+  const db = await useDb()
+  if (kind === 'release') {
+    const [row] = await db.select({ scenario: series.scenario, component: series.component, version: releases.version })
+      .from(releases).innerJoin(series, eq(series.id, releases.seriesId)).where(eq(releases.id, id))
+    const what = { en: `${action === 'approve' ? 'A new' : 'A withdrawn'} ${row!.component} release (version ${row!.version}) for ${row!.scenario}`, es: `Una versión ${action === 'approve' ? 'nueva' : 'retirada'} de ${row!.component} (versión ${row!.version}) para ${row!.scenario}` }
+    notifyScienceChange(row!.scenario, { en: `${what.en} changes the outlook for this site.`, es: `${what.es} cambia la perspectiva de este sitio.` })
+  }
+  else if (kind === 'correlation-set') {
+    const [row] = await db.select({ scenario: correlationSets.scenario }).from(correlationSets).where(eq(correlationSets.id, id))
+    notifyScienceChange(row!.scenario, { en: `The correlation between sources of rise for ${row!.scenario} was ${action === 'approve' ? 'updated' : 'withdrawn'}.`, es: `La correlación entre fuentes de subida para ${row!.scenario} fue ${action === 'approve' ? 'actualizada' : 'retirada'}.` })
+  }
 }

@@ -1,8 +1,9 @@
-import { and, asc, eq } from 'drizzle-orm'
+import { and, asc, eq, inArray } from 'drizzle-orm'
 import { annualMaxima, sites, thresholds } from '~~/server/db/schema'
 import type { Database } from '~~/server/db/client'
 import type { SiteInput } from '#shared/schemas/sites'
 import type { CurrentUser } from '../utils/auth'
+import { notifySiteChange } from './notify'
 
 type Tx = Parameters<Parameters<Database['transaction']>[0]>[0]
 
@@ -32,11 +33,20 @@ function siteColumns(input: SiteInput) {
   }
 }
 
+/**
+ * Thresholds are updated in place by position, so a threshold keeps its id (and its history in
+ * outlooks, briefings and e-mails) when its label or height is edited.
+ */
 async function replaceThresholds(tx: Tx, siteId: string, list: SiteInput['thresholds']) {
-  await tx.delete(thresholds).where(eq(thresholds.siteId, siteId))
-  if (list.length) {
-    await tx.insert(thresholds).values(list.map((t, position) => ({ siteId, label: t.label, height: t.height, designLifeYears: t.designLifeYears ?? null, position })))
+  const existing = await tx.select({ id: thresholds.id }).from(thresholds).where(eq(thresholds.siteId, siteId)).orderBy(asc(thresholds.position))
+  for (const [position, t] of list.entries()) {
+    const values = { label: t.label, height: t.height, designLifeYears: t.designLifeYears ?? null, position }
+    const current = existing[position]
+    if (current) await tx.update(thresholds).set(values).where(eq(thresholds.id, current.id))
+    else await tx.insert(thresholds).values({ ...values, siteId })
   }
+  const extra = existing.slice(list.length).map(t => t.id)
+  if (extra.length) await tx.delete(thresholds).where(inArray(thresholds.id, extra))
 }
 
 export async function createSite(planner: CurrentUser, input: SiteInput) {
@@ -52,7 +62,7 @@ export async function createSite(planner: CurrentUser, input: SiteInput) {
 export async function updateSite(planner: CurrentUser, id: string, input: SiteInput) {
   const before = await loadSite(planner, id)
   const db = await useDb()
-  return db.transaction(async (tx) => {
+  const updated = await db.transaction(async (tx) => {
     const [site] = await tx.update(sites).set({ ...siteColumns(input), updatedAt: new Date() }).where(eq(sites.id, id)).returning()
     await replaceThresholds(tx, id, input.thresholds)
     await writeAudit(tx, planner, 'site.updated', { type: 'site', id }, {
@@ -61,6 +71,8 @@ export async function updateSite(planner: CurrentUser, id: string, input: SiteIn
     })
     return site!
   })
+  notifySiteChange(id, { en: `The land motion or thresholds of ${input.name} were updated.`, es: `Se actualizaron el movimiento del terreno o los umbrales de ${input.name}.` })
+  return updated
 }
 
 export async function replaceAnnualMaxima(planner: CurrentUser, id: string, fit: { maxima: { year: number, value: number }[], gumbel: { location: number, scale: number }, sampleSize: number }) {

@@ -27,6 +27,7 @@ async function freePort(): Promise<number> {
  */
 export async function startServer(env: Record<string, string> = {}): Promise<RunningServer> {
   const port = await freePort()
+  const url = `http://127.0.0.1:${port}`
   const child: ChildProcess = spawn(process.execPath, [SERVER_ENTRY], {
     cwd: ROOT,
     env: {
@@ -37,6 +38,7 @@ export async function startServer(env: Record<string, string> = {}): Promise<Run
       PGLITE_DATA_DIR: 'memory://',
       NUXT_SESSION_PASSWORD: 'test-session-password-at-least-32-characters-long',
       PRECOMPUTE_DEMO_OUTLOOKS: 'false',
+      APP_URL: url,
       ...env,
     },
     stdio: ['ignore', 'pipe', 'pipe'],
@@ -51,7 +53,6 @@ export async function startServer(env: Record<string, string> = {}): Promise<Run
   })
   await listening
 
-  const url = `http://127.0.0.1:${port}`
   // The health route waits for migration and seeding, so one answer means ready.
   const health = await fetch(`${url}/api/health`)
   if (!health.ok) throw new Error(`The server is not healthy (${health.status}):\n${output}`)

@@ -1,0 +1,18 @@
+import { desc } from 'drizzle-orm'
+import { z } from 'zod'
+import { mailOutbox } from '~~/server/db/schema'
+
+const Query = z.object({ limit: z.coerce.number().int().min(1).max(500).default(100) })
+
+// The outbox with each message's state, attempts and last error, so failures are visible.
+export default defineEventHandler(async (event) => {
+  await requireAdmin(event)
+  const { limit } = readValidQuery(event, Query)
+  const db = await useDb()
+  const rows = await db.select({
+    id: mailOutbox.id, to: mailOutbox.to, subject: mailOutbox.subject, state: mailOutbox.state, attempts: mailOutbox.attempts,
+    lastError: mailOutbox.lastError, nextAttemptAt: mailOutbox.nextAttemptAt, createdAt: mailOutbox.createdAt, sentAt: mailOutbox.sentAt,
+  }).from(mailOutbox).orderBy(desc(mailOutbox.createdAt)).limit(limit)
+  const { describe } = await mailTransport()
+  return { transport: describe, messages: rows }
+})

@@ -1,0 +1,73 @@
+import { createHash, randomBytes } from 'node:crypto'
+import { and, eq } from 'drizzle-orm'
+import { briefings, sites, watches } from '~~/server/db/schema'
+import type { z } from 'zod'
+import type { WatchRequestSchema } from '#shared/schemas/watches'
+import type { CurrentUser } from '../utils/auth'
+import { watchConfirmMail } from '../mail/templates'
+
+/** How long a confirmation link works (WATCH_CONFIRM_HOURS overrides, e.g. 0 in tests of expiry). */
+const confirmHours = () => process.env.WATCH_CONFIRM_HOURS !== undefined ? Number(process.env.WATCH_CONFIRM_HOURS) : 48
+export const hashToken = (token: string) => createHash('sha256').update(token).digest('hex')
+const newToken = () => randomBytes(24).toString('base64url')
+
+export const unsubscribeUrl = (token: string) => `${appUrl()}/watches/unsubscribe?token=${token}`
+export const unsubscribeHeaders = (token: string) => ({
+  'List-Unsubscribe': `<${appUrl()}/api/watches/unsubscribe?token=${token}>`,
+  'List-Unsubscribe-Post': 'List-Unsubscribe=One-Click',
+})
+
+async function siteFor(request: z.infer<typeof WatchRequestSchema>, user: CurrentUser | null) {
+  const db = await useDb()
+  if (request.shareToken) {
+    const [row] = await db.select({ id: sites.id, name: sites.name }).from(briefings).innerJoin(sites, eq(sites.id, briefings.siteId))
+      .where(and(eq(briefings.shareToken, request.shareToken), eq(briefings.state, 'issued')))
+    if (!row) throw createError({ statusCode: 404, message: 'This briefing link does not open a briefing any more.' })
+    return row
+  }
+  if (!user) throw createError({ statusCode: 401, message: 'Sign in to watch a site by its id, or use the link of a shared briefing.' })
+  const [row] = await db.select({ id: sites.id, name: sites.name }).from(sites).where(and(eq(sites.id, request.siteId!), eq(sites.organisationId, user.organisationId)))
+  if (!row) throw createError({ statusCode: 404, message: 'No such site.' })
+  return row
+}
+
+/**
+ * Starts (or restarts) a watch and sends the confirmation. The answer is the same whether or not
+ * the address already watches the site, so it tells a stranger nothing.
+ */
+export async function requestWatch(request: z.infer<typeof WatchRequestSchema>, user: CurrentUser | null) {
+  const site = await siteFor(request, user)
+  const token = newToken()
+  const db = await useDb()
+  await db.transaction(async (tx) => {
+    const [existing] = await tx.select().from(watches).where(and(eq(watches.siteId, site.id), eq(watches.email, request.email)))
+    if (existing?.state === 'active') return
+    const values = { confirmTokenHash: hashToken(token), confirmExpiresAt: new Date(Date.now() + confirmHours() * 3_600_000), language: request.language, state: 'pending' as const, userId: user?.email === request.email ? user.id : existing?.userId ?? null }
+    const [watch] = existing
+      ? await tx.update(watches).set(values).where(eq(watches.id, existing.id)).returning()
+      : await tx.insert(watches).values({ ...values, siteId: site.id, email: request.email, unsubscribeToken: newToken() }).returning()
+    const mail = watchConfirmMail(request.language, site.name, `${appUrl()}/watches/confirm?token=${token}`, unsubscribeUrl(watch!.unsubscribeToken))
+    await queueMail(tx, { to: request.email, ...mail, headers: unsubscribeHeaders(watch!.unsubscribeToken), dedupeKey: `watch-confirm:${watch!.id}:${hashToken(token).slice(0, 16)}` })
+  })
+}
+
+export async function confirmWatch(token: string) {
+  const db = await useDb()
+  const [watch] = await db.select().from(watches).where(eq(watches.confirmTokenHash, hashToken(token)))
+  if (!watch) throw createError({ statusCode: 404, message: 'This confirmation link has already been used or is not valid. If you are not receiving updates, ask again from the site or briefing page.' })
+  if (watch.confirmExpiresAt && watch.confirmExpiresAt <= new Date()) {
+    throw createError({ statusCode: 410, message: 'This confirmation link has expired. Ask again from the site or briefing page.' })
+  }
+  await db.update(watches).set({ state: 'active', confirmedAt: new Date(), confirmTokenHash: null, confirmExpiresAt: null }).where(eq(watches.id, watch.id))
+  const [site] = await db.select({ name: sites.name }).from(sites).where(eq(sites.id, watch.siteId))
+  return { site: site!.name, email: watch.email }
+}
+
+export async function unsubscribe(token: string) {
+  const db = await useDb()
+  const [watch] = await db.update(watches).set({ state: 'unsubscribed', unsubscribedAt: new Date(), confirmTokenHash: null })
+    .where(eq(watches.unsubscribeToken, token)).returning()
+  if (!watch) throw createError({ statusCode: 404, message: 'This unsubscribe link is not valid; copy the whole link from the e-mail.' })
+  const [site] = await db.select({ name: sites.name }).from(sites).where(eq(sites.id, watch.siteId))
+  return { site: site!.name, email: watch.email }
+}

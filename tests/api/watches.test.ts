@@ -1,0 +1,180 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { ParsedMail } from 'mailparser'
+import { ApiClient } from '../support/client'
+import { ADMIN, ANALYST, PLANNER, demoUser } from '../support/demo-users'
+import { startServer, type RunningServer } from '../support/server'
+import { TestSmtp, isTo, linkIn, rawHeader } from '../support/smtp'
+import { formatChance } from '../../shared/wording/chance'
+
+const REVIEWER = demoUser('reviewer@saltglass.example')
+let server: RunningServer
+let smtp: TestSmtp
+let planner: ApiClient
+let shareToken: string
+let siteId: string
+let outlookId: string
+
+async function as(email: string, password: string) {
+  const api = new ApiClient(server.url)
+  await api.signIn(email, password)
+  return api
+}
+
+async function watch(email: string, language = 'en') {
+  const response = await new ApiClient(server.url).post('/api/watches', { shareToken, email, language })
+  expect(response.status).toBe(202)
+  const mail = await smtp.next(m => isTo(email)(m) && /Confirm|Confirme/.test(m.subject ?? ''))
+  return mail
+}
+
+async function confirm(mail: ParsedMail) {
+  const token = new URL(linkIn(mail, `${server.url}/watches/confirm?token=`)).searchParams.get('token')!
+  return new ApiClient(server.url).post('/api/watches/confirm', { token })
+}
+
+async function publishGlaciers(mean2100: number) {
+  const analyst = await as(ANALYST.email, ANALYST.password)
+  const reviewer = await as(REVIEWER.email, REVIEWER.password)
+  const [current] = (await analyst.get('/api/releases?component=glaciers&scenario=SSP2-4.5&state=published')).body
+  const draft = await analyst.post('/api/releases', { seriesId: current.seriesId, form: 'normal', baselineYear: 2020, anchorYears: [2050, 2100, 2150], mean: [0.06, mean2100, mean2100 * 1.4], sd: [0.01, 0.03, 0.04], method: 'm', citation: `Glaciers revised (${mean2100})`, licence: 'l' })
+  await analyst.post(`/api/releases/${draft.body.id}/submit`)
+  await reviewer.post(`/api/releases/${draft.body.id}/approve`)
+  return draft.body.id
+}
+
+beforeAll(async () => {
+  smtp = await new TestSmtp().start()
+  server = await startServer({ SMTP_URL: smtp.url, MAIL_POLL_MS: '200', MAIL_RETRY_BASE_MS: '200' })
+  planner = await as(PLANNER.email, PLANNER.password)
+  siteId = (await planner.get('/api/sites')).body.find((s: { name: string }) => s.name === 'Fennmouth').id
+  const thresholdIds = (await planner.get(`/api/sites/${siteId}`)).body.thresholds.map((t: { id: string }) => t.id)
+  outlookId = (await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 4 })).body.id
+  const briefing = (await planner.post('/api/briefings', { outlookId, title: 'Fennmouth to 2100', thresholdIds, years: [2050, 2100] })).body
+  await planner.post(`/api/briefings/${briefing.id}/issue`)
+  shareToken = (await planner.post(`/api/briefings/${briefing.id}/share`)).body.shareToken
+})
+afterAll(async () => {
+  await server?.stop()
+  await smtp?.stop()
+})
+
+describe('watching a site by e-mail', () => {
+  it('confirms by e-mail (double opt-in), once, with an unsubscribe link and one-click headers', async () => {
+    const mail = await watch('councillor@example.org')
+    expect(mail.subject).toBe('Confirm that you want to watch Fennmouth')
+    expect(rawHeader(mail, 'List-Unsubscribe')).toMatch(new RegExp(`^<${server.url}/api/watches/unsubscribe\\?token=[\\w-]+>$`))
+    expect(rawHeader(mail, 'List-Unsubscribe-Post')).toBe('List-Unsubscribe=One-Click')
+    expect(mail.html).toContain('Confirm the watch')
+
+    const confirmed = await confirm(mail)
+    expect(confirmed.status).toBe(200)
+    expect(confirmed.body).toEqual({ site: 'Fennmouth', email: 'councillor@example.org' })
+    const replay = await confirm(mail)
+    expect(replay.status).toBe(404)
+    expect(replay.body.message).toMatch(/already been used or is not valid/)
+  })
+
+  it('sends exactly one "what changed" e-mail per watcher, in their language, with the numbers before and after', async () => {
+    await confirm(await watch('vecina@example.org', 'es'))
+    const before = (await planner.get(`/api/outlooks/${outlookId}`)).body
+    const releaseId = await publishGlaciers(0.16)
+
+    const english = await smtp.next(m => isTo('councillor@example.org')(m) && /has changed/.test(m.subject ?? ''))
+    const spanish = await smtp.next(m => isTo('vecina@example.org')(m) && /Cambió/.test(m.subject ?? ''))
+    expect(english.subject).toBe('The sea-level outlook for Fennmouth has changed')
+    expect(spanish.subject).toBe('Cambió la perspectiva del nivel del mar para Fennmouth')
+
+    // The numbers are those of the stored outlooks before and after the new release.
+    const outlooks = (await planner.get(`/api/sites/${siteId}/outlooks`)).body.filter((o: { scenario: string, seed: number }) => o.scenario === 'SSP2-4.5' && o.seed === 4)
+    const after = (await planner.get(`/api/outlooks/${outlooks[0].id}`)).body
+    expect(after.releaseRefs.find((r: { component: string }) => r.component === 'glaciers').releaseId).toBe(releaseId)
+    const year = after.result.years.indexOf(2100)
+    const chance = (o: { result: { thresholds: { byYear: { value: number }[] }[] } }) => formatChance(o.result.thresholds[1]!.byYear[year]!.value, 'en')
+    expect(english.text).toContain(`Railway embankment (1.50 m, SSP2-4.5)  |  2100  |  ${chance(before)}  |  ${chance(after)}`)
+    expect(english.text).toMatch(/Glaciers \(SSP2-4\.5\)  \|  v1  \|  v2  \|  Glaciers revised \(0\.16\)/)
+    expect(english.text).toMatch(new RegExp(`Read the latest briefing: ${server.url}/shared/${shareToken}`))
+    expect(spanish.text).toContain('Probabilidad de superar cada umbral')
+
+    await expect.poll(async () => (await (await as(ADMIN.email, ADMIN.password)).get('/api/admin/outbox')).body.messages.filter((m: { state: string }) => m.state === 'queued').length).toBe(0)
+    expect(smtp.to('councillor@example.org').filter(m => /has changed/.test(m.subject ?? ''))).toHaveLength(1)
+    expect(smtp.to('vecina@example.org').filter(m => /Cambió/.test(m.subject ?? ''))).toHaveLength(1)
+  })
+
+  it('stops at once after the one-click unsubscribe', async () => {
+    const last = smtp.to('councillor@example.org').at(-1)!
+    const link = rawHeader(last, 'List-Unsubscribe')!.slice(1, -1)
+    const response = await fetch(link, { method: 'POST', body: 'List-Unsubscribe=One-Click', headers: { 'content-type': 'application/x-www-form-urlencoded' } })
+    expect(response.status).toBe(200)
+
+    await publishGlaciers(0.17)
+    await smtp.next(m => isTo('vecina@example.org')(m) && /Cambió/.test(m.subject ?? '') && /0\.17/.test(m.text ?? ''))
+    await expect.poll(async () => (await (await as(ADMIN.email, ADMIN.password)).get('/api/admin/outbox')).body.messages.filter((m: { state: string }) => m.state === 'queued').length).toBe(0)
+    expect(smtp.to('councillor@example.org').filter(m => /has changed/.test(m.subject ?? ''))).toHaveLength(1)
+  })
+
+  it.each([
+    ['a malformed address', { email: 'not-an-address' }, 400, /^email: Enter a valid e-mail address/],
+    ['an unknown share link', { shareToken: 'x'.repeat(32) }, 404, /does not open a briefing/],
+    ['a site id without signing in', { siteId: '00000000-0000-4000-8000-000000000000', shareToken: undefined }, 401, /Sign in to watch a site/],
+  ])('refuses %s with a clear message and sends nothing', async (_name, overrides, status, message) => {
+    const sent = smtp.messages.length
+    const response = await new ApiClient(server.url).post('/api/watches', { shareToken, email: 'someone@example.org', ...overrides })
+    expect(response.status).toBe(status)
+    expect(response.body.message).toMatch(message)
+    expect(smtp.messages.length).toBe(sent)
+  })
+
+  it('refuses malformed confirmation and unsubscribe tokens', async () => {
+    expect((await new ApiClient(server.url).post('/api/watches/confirm', { token: 'short' })).status).toBe(400)
+    expect((await new ApiClient(server.url).post('/api/watches/confirm', { token: 'y'.repeat(32) })).status).toBe(404)
+    expect((await new ApiClient(server.url).post(`/api/watches/unsubscribe?token=${'z'.repeat(32)}`)).status).toBe(404)
+  })
+
+  it('limits watch requests per address', async () => {
+    const statuses: number[] = []
+    for (let i = 0; i < 6; i++) statuses.push((await new ApiClient(server.url).post('/api/watches', { shareToken, email: 'eager@example.org' })).status)
+    expect(statuses).toEqual([202, 202, 202, 202, 202, 429])
+  })
+})
+
+describe('a mail server that is down loses nothing', () => {
+  let faulty: RunningServer
+  let outage: TestSmtp
+
+  beforeAll(async () => {
+    outage = await new TestSmtp().start()
+    faulty = await startServer({ SMTP_URL: outage.url, MAIL_POLL_MS: '100', MAIL_RETRY_BASE_MS: '100', WATCH_CONFIRM_HOURS: '0' })
+  })
+  afterAll(async () => {
+    await faulty?.stop()
+    await outage?.stop()
+  })
+
+  it('queues with the error recorded while the server is down, then delivers each message exactly once', async () => {
+    const port = outage.port
+    await outage.stop()
+    const api = new ApiClient(faulty.url)
+    await api.signIn(PLANNER.email, PLANNER.password)
+    const site = (await api.get('/api/sites'))
+    const kelwick = site.body.find((s: { name: string }) => s.name === 'Kelwick').id
+    for (const email of ['a@example.org', 'b@example.org', 'c@example.org']) {
+      expect((await api.post('/api/watches', { siteId: kelwick, email })).status).toBe(202)
+    }
+    const admin = new ApiClient(faulty.url)
+    await admin.signIn(ADMIN.email, ADMIN.password)
+    await expect.poll(async () => (await admin.get('/api/admin/outbox')).body.messages.every((m: { attempts: number, lastError: string | null, state: string }) => m.state === 'queued' && m.attempts >= 1 && m.lastError)).toBe(true)
+
+    await outage.start(port)
+    await Promise.all(['a@example.org', 'b@example.org', 'c@example.org'].map(address => outage.next(isTo(address))))
+    await expect.poll(async () => (await admin.get('/api/admin/outbox')).body.messages.map((m: { state: string }) => m.state)).toEqual(['sent', 'sent', 'sent'])
+    for (const address of ['a@example.org', 'b@example.org', 'c@example.org']) expect(outage.to(address)).toHaveLength(1)
+  })
+
+  it('refuses an expired confirmation link with 410', async () => {
+    const mail = await outage.next(isTo('a@example.org'))
+    const token = new URL(linkIn(mail, `${faulty.url}/watches/confirm?token=`)).searchParams.get('token')!
+    const response = await new ApiClient(faulty.url).post('/api/watches/confirm', { token })
+    expect(response.status).toBe(410)
+    expect(response.body.message).toMatch(/expired/)
+  })
+})
