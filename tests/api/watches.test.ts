@@ -91,7 +91,7 @@ describe('watching a site by e-mail', () => {
     const year = after.result.years.indexOf(2100)
     const chance = (o: { result: { thresholds: { byYear: { value: number }[] }[] } }) => formatChance(o.result.thresholds[1]!.byYear[year]!.value, 'en')
     expect(english.text).toContain(`Railway embankment (1.50 m, SSP2-4.5)  |  2100  |  ${chance(before)}  |  ${chance(after)}`)
-    expect(english.text).toMatch(/Glaciers \(SSP2-4\.5\)  \|  v1  \|  v2  \|  Glaciers revised \(0\.16\)/)
+    expect(english.text).toMatch(/Glaciers \(SSP2-4\.5\) {2}\| {2}v1 {2}\| {2}v2 {2}\| {2}Glaciers revised \(0\.16\)/)
     expect(english.text).toMatch(new RegExp(`Read the latest briefing: ${server.url}/shared/${shareToken}`))
     expect(spanish.text).toContain('Probabilidad de superar cada umbral')
 
