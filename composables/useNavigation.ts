@@ -6,6 +6,8 @@ export interface NavItem { to: string, labelKey: string, roles?: Role[], signedI
 // signed in sees only the public pages.
 const ITEMS: NavItem[] = [
   { to: '/', labelKey: 'nav.overview', signedIn: true },
+  // Readers see the issued briefings of their organisation; planners also draft them.
+  { to: '/briefings', labelKey: 'briefings.nav', roles: ['planner', 'reader'] },
   { to: '/library', labelKey: 'nav.library' },
   { to: '/admin/users', labelKey: 'nav.adminUsers', roles: ['admin'] },
   { to: '/admin/audit', labelKey: 'nav.adminAudit', roles: ['admin'] },
