@@ -1,6 +1,12 @@
 import { Worker } from 'node:worker_threads'
 import { finishOutlook, mergePartials, runBlocks, type OutlookPartial, type OutlookPlan, type OutlookResult } from '../../shared/engine'
 
+/**
+ * A worker's garbage is a few megabytes of typed arrays per request; a small young generation keeps
+ * its heap, and so the process's peak RSS, from growing far past what it holds.
+ */
+const WORKER_OPTIONS = { resourceLimits: { maxYoungGenerationSizeMb: 4 } }
+
 export interface PoolRequest {
   runId: number
   /** Sent only when the worker has not seen this run yet. */
@@ -41,7 +47,7 @@ export class OutlookPool {
   private nextRunId = 1
 
   constructor(size: number, private readonly mainShare: boolean) {
-    this.workers = Array.from({ length: size }, () => new Worker(new URL('./worker-entry.mjs', import.meta.url)))
+    this.workers = Array.from({ length: size }, () => new Worker(new URL('./worker-entry.mjs', import.meta.url), WORKER_OPTIONS))
     this.seenRun = this.workers.map(() => 0)
   }
 
