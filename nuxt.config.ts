@@ -35,7 +35,11 @@ export default defineNuxtConfig({
     session: { name: 'brinkwater-session', maxAge: 60 * 60 * 12 },
   },
 
+  // The engine's seeded generator uses BigInt literals; Node.js 20 and current browsers have them.
+  vite: { build: { target: 'es2022' } },
+
   nitro: {
+    esbuild: { options: { target: 'es2022' } },
     // Files read at run time by the built server travel as server assets.
     serverAssets: [
       { baseName: 'migrations', dir: fileURLToPath(new URL('./server/db/migrations', import.meta.url)) },
