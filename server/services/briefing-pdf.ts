@@ -13,7 +13,8 @@ const ACCENT = '#1c5a6d'
 const CAUTION = '#9a3222'
 
 function heading(number: number, title: string): Content {
-  return { text: `${number}. ${title}`, style: 'h2', margin: [0, 14, 0, 6] }
+  // headlineLevel lets pageBreakBefore keep a heading off the foot of a page.
+  return { text: `${number}. ${title}`, style: 'h2', margin: [0, 14, 0, 6], headlineLevel: 1 }
 }
 
 function table(head: string[] | null, rows: string[][], widths?: (string | number)[]): Content {
@@ -44,22 +45,23 @@ export function briefingPdfDefinition(doc: BriefingDocument, absoluteLink: strin
     { ul: doc.summary.ranges },
     ...(meta.localContext ? [{ text: text.sections.context, bold: true, margin: [0, 8, 0, 2] } as Content, { text: meta.localContext }] : []),
 
-    heading(2, text.sections.charts),
-    { text: text.chartExceedance, bold: true },
-    { svg: chartSvg(exceedanceChartOption(doc, PDF_FONT), chartWidth, 250), width: chartWidth },
-    { text: text.chartFan, bold: true, margin: [0, 8, 0, 0] },
-    { svg: chartSvg(fanChartOption(doc, PDF_FONT), chartWidth, 250), width: chartWidth },
+    // A chart's title and its drawing stay on one page, and the section heading with the first.
+    { stack: [heading(2, text.sections.charts), { text: text.chartExceedance, bold: true }, { svg: chartSvg(exceedanceChartOption(doc, PDF_FONT), chartWidth, 250), width: chartWidth }], unbreakable: true },
+    { stack: [{ text: text.chartFan, bold: true, margin: [0, 8, 0, 0] }, { svg: chartSvg(fanChartOption(doc, PDF_FONT), chartWidth, 250), width: chartWidth }], unbreakable: true },
 
     heading(3, text.sections.table),
     table([text.tableHead.scenario, text.tableHead.threshold, ...doc.table.years.map(String)],
       doc.table.rows.map(row => [row.scenario, `${row.threshold} (${row.height})`, ...row.chances.map(c => c.text)]),
       ['auto', '*', ...doc.table.years.map(() => 'auto')]),
     ...(doc.extremes
-      ? [
-          { text: text.extremesTitle, bold: true, margin: [0, 10, 0, 4] } as Content,
-          table([text.extremesHead.year, text.extremesHead.allowance, text.extremesHead.amplification], doc.extremes.map(row => [String(row.year), row.allowance, row.amplification])),
-          { text: text.extremesNote, fontSize: 9, color: MUTED, margin: [0, 4, 0, 0] } as Content,
-        ]
+      ? [{
+          stack: [
+            { text: text.extremesTitle, bold: true, margin: [0, 10, 0, 4] },
+            table([text.extremesHead.year, text.extremesHead.allowance, text.extremesHead.amplification], doc.extremes.map(row => [String(row.year), row.allowance, row.amplification])),
+            { text: text.extremesNote, fontSize: 9, color: MUTED, margin: [0, 4, 0, 0] },
+          ],
+          unbreakable: true,
+        } as Content]
       : []),
 
     heading(4, text.sections.basis),
@@ -71,8 +73,8 @@ export function briefingPdfDefinition(doc: BriefingDocument, absoluteLink: strin
     ...doc.basis.notes.map(note => ({ text: note, color: MUTED }) as Content),
     ...doc.basis.method.map(sentence => ({ text: sentence, margin: [0, 2, 0, 0] }) as Content),
 
-    heading(5, text.sections.cautions),
-    { ul: doc.cautions, color: CAUTION },
+    // The cautions are read together or not at all.
+    { stack: [heading(5, text.sections.cautions), { ul: doc.cautions, color: CAUTION }], unbreakable: true },
 
     heading(6, text.sections.provenance),
     table(null, [
@@ -105,5 +107,6 @@ export function briefingPdfDefinition(doc: BriefingDocument, absoluteLink: strin
       margin: [48, 16, 48, 0],
     }),
     content,
+    pageBreakBefore: (node, nodes) => node.headlineLevel === 1 && nodes.getFollowingNodesOnPage().length === 0,
   }
 }
