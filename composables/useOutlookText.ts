@@ -1,0 +1,38 @@
+import { chanceAsOdds, formatChance, headlineSentence, likelihoodPhrase, type Language } from '#shared/wording/chance'
+import { fromMetres } from '#shared/units'
+
+/**
+ * Chances and heights for sites and outlooks in the reader's language and units. Every probability
+ * on these pages goes through shared/wording/chance, so the page, briefings and PDFs say the same.
+ */
+export function useOutlookText() {
+  const { t, locale } = useI18n()
+  const preferences = usePreferencesStore()
+  const language = computed<Language>(() => (locale.value === 'es' ? 'es' : 'en'))
+
+  const chance = (probability: number) => formatChance(probability, language.value)
+  const word = (probability: number) => likelihoodPhrase(probability, language.value)
+  const number = (value: number, digits = 1) => value.toLocaleString(locale.value, { minimumFractionDigits: digits, maximumFractionDigits: digits })
+
+  return {
+    language,
+    height: (metres: number) => preferences.height(metres),
+    /** A height in the chosen unit as a bare number, for chart axes and CSV cells. */
+    heightValue: (metres: number) => Math.round(fromMetres(metres, preferences.units) * 1000) / 1000,
+    chance,
+    word,
+    odds: (probability: number) => chanceAsOdds(probability, language.value),
+    /** "23 % (unlikely)" */
+    chanceWithWord: (probability: number) => `${chance(probability)} (${word(probability)})`,
+    sentence: (parts: { probability: number, standardError: number, height: number, year: number, referenceLevel: string }) =>
+      headlineSentence({ ...parts, unit: preferences.units, language: language.value }),
+    number,
+    /** Land motion as typed, with its meaning: "−4.8 mm/yr (sinking)". */
+    rate: (mmPerYear: number) => {
+      const motion = mmPerYear < 0 ? t('sites.motion.sinking') : mmPerYear > 0 ? t('sites.motion.rising') : t('sites.motion.still')
+      return `${number(mmPerYear, 1)} ${t('sites.units.mmPerYear')} (${motion})`
+    },
+    component: (key: string) => (key === 'land-motion' ? t('outlook.landMotion') : t(`components.${key}`)),
+    date: (value: string | Date | null | undefined) => value ? new Date(value).toLocaleString(locale.value, { dateStyle: 'medium', timeStyle: 'short' }) : '—',
+  }
+}
