@@ -6,6 +6,8 @@ export interface NavItem { to: string, labelKey: string, roles?: Role[], signedI
 // signed in sees only the public pages.
 const ITEMS: NavItem[] = [
   { to: '/', labelKey: 'nav.overview', signedIn: true },
+  // Sites belong to an organisation that plans: its planners edit them, its readers read them.
+  { to: '/sites', labelKey: 'sites.nav', roles: ['planner', 'reader'] },
   // Readers see the issued briefings of their organisation; planners also draft them.
   { to: '/briefings', labelKey: 'briefings.nav', roles: ['planner', 'reader'] },
   { to: '/library', labelKey: 'nav.library' },
