@@ -1,0 +1,56 @@
+// Shared look of the outlook charts, in the app's palette (tailwind.config.ts). Text colours are the
+// dark dune and abyss shades, which keep AA contrast on the white cards.
+
+export const CHART_COLOURS = {
+  ink: '#0b1a23',
+  text: '#29241a',
+  grid: '#e4dcc7',
+  axis: '#7b6a45',
+  bands: { outer: '#d5eef3', wide: '#addde7', likely: '#46a6bd' },
+  /** Distinct series: years, thresholds, scenarios, in order. */
+  series: ['#1f6f86', '#b93d2a', '#3f7d4a', '#7b6a45', '#0b1a23', '#46a6bd', '#9a3222'],
+  /** One colour per part of the rise, stable across pages. */
+  parts: {
+    'ocean-expansion': '#1f6f86',
+    'glaciers': '#7cc5d6',
+    'greenland': '#3f7d4a',
+    'antarctica': '#1a3e4c',
+    'land-water': '#b9a679',
+    'regional-ocean': '#46a6bd',
+    'other': '#d1c3a0',
+    'land-motion': '#b93d2a',
+  } as Record<string, string>,
+}
+
+export const CHART_FONT = '"Atkinson Hyperlegible", system-ui, sans-serif'
+
+export function chartAxis(extra: Record<string, unknown> = {}) {
+  return {
+    axisLabel: { color: CHART_COLOURS.text, fontSize: 12 },
+    nameTextStyle: { color: CHART_COLOURS.text, fontSize: 12 },
+    axisLine: { lineStyle: { color: CHART_COLOURS.axis } },
+    splitLine: { lineStyle: { color: CHART_COLOURS.grid } },
+    ...extra,
+  }
+}
+
+/** The frame every outlook chart shares: no animation, the app's font, the description for screen readers. */
+export function chartFrame(description: string, extra: Record<string, unknown>) {
+  return {
+    aria: { enabled: true, label: { description } },
+    animation: false,
+    textStyle: { fontFamily: CHART_FONT },
+    grid: { left: 64, right: 32, top: 56, bottom: 48 },
+    ...extra,
+  }
+}
+
+/** Axis ends rounded outwards to a tenth, so the first and last labels are round numbers. */
+export const roundedEnds = {
+  min: (range: { min: number }) => Math.floor(range.min * 10) / 10,
+  max: (range: { max: number }) => Math.ceil(range.max * 10) / 10,
+}
+
+export function chartLegend(names: string[]) {
+  return { top: 0, type: 'scroll', data: names, textStyle: { color: CHART_COLOURS.ink, fontSize: 13 } }
+}

@@ -1,0 +1,57 @@
+import type { OutlookResult } from '#shared/engine'
+
+/** GET /api/outlooks/[id] as the page reads it (dates arrive as strings; the result is the engine's). */
+export interface OutlookView {
+  id: string
+  siteId: string
+  siteName: string
+  referenceLevel: string
+  scenario: string
+  samples: number
+  seed: number
+  inputHash: string
+  engineVersion: string
+  state: 'running' | 'done' | 'failed'
+  progress: number | null
+  error: string | null
+  notes: string[]
+  releaseRefs: { component: string, releaseId: string, seriesId: string, version: number, citation: string, title: string, scale: number, scaleSource: string | null }[]
+  input: {
+    baselineYear: number
+    landMotion: { rateMmPerYear: number, sigmaMmPerYear: number, epoch: number }
+    thresholds: { key: string, height: number, designLifeYears?: number }[]
+    gumbel?: { location: number, scale: number }
+  }
+  newerScience: { component: string, usedVersion: number, latestVersion: number | null, latestReleaseId: string | null }[]
+  durationMs: number | null
+  createdAt: string
+  finishedAt: string | null
+  result: OutlookResult | null
+}
+
+/** How often a running outlook is asked for its progress. */
+const POLL_MS = 500
+
+/**
+ * One outlook, followed until it is done: while the server still computes it, the page asks again
+ * every half second (the progress bar moves, and the charts appear when the run finishes).
+ * Not async itself, so the lifecycle hooks are registered while the component is still current;
+ * the caller awaits the returned fetch.
+ */
+export function useOutlook(id: string) {
+  const fetched = useFetch<OutlookView>(`/api/outlooks/${id}`, { key: `outlook-${id}` })
+  let timer: ReturnType<typeof setTimeout> | undefined
+
+  function follow() {
+    clearTimeout(timer)
+    if (fetched.data.value?.state !== 'running') return
+    timer = setTimeout(async () => {
+      await fetched.refresh()
+      follow()
+    }, POLL_MS)
+  }
+
+  onMounted(follow)
+  onBeforeUnmount(() => clearTimeout(timer))
+  return fetched
+}
