@@ -3,6 +3,7 @@ import { simpleParser } from 'mailparser'
 import { z } from 'zod'
 import { mailbox } from '~~/server/db/schema'
 
+const SHOWN_HEADERS = ['date', 'message-id', 'list-unsubscribe', 'list-unsubscribe-post', 'content-type']
 const Query = z.object({ limit: z.coerce.number().int().min(1).max(200).default(50) })
 
 // What the local stand-in SMTP server received, newest first, parsed for reading.
@@ -16,7 +17,9 @@ export default defineEventHandler(async (event) => {
     return {
       id: row.id, receivedAt: row.receivedAt, to: row.envelopeTo, from: row.envelopeFrom, subject: parsed.subject ?? '',
       text: parsed.text ?? '', html: typeof parsed.html === 'string' ? parsed.html : '',
-      headers: Object.fromEntries([...parsed.headers].filter(([key]) => ['date', 'message-id', 'list-unsubscribe', 'list-unsubscribe-post', 'content-type'].includes(key)).map(([key, value]) => [key, typeof value === 'string' ? value : JSON.stringify(value)])),
+      // From the raw header lines: mailparser folds List-* headers into one parsed 'list' entry.
+      headers: Object.fromEntries(parsed.headerLines.filter(({ key }) => SHOWN_HEADERS.includes(key))
+        .map(({ key, line }) => [key, line.slice(line.indexOf(':') + 1).replace(/\r?\n\s+/g, ' ').trim()])),
     }
   }))
 })
