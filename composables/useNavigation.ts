@@ -11,7 +11,13 @@ const ITEMS: NavItem[] = [
   // Readers see the issued briefings of their organisation; planners also draft them.
   { to: '/briefings', labelKey: 'briefings.nav', roles: ['planner', 'reader'] },
   { to: '/library', labelKey: 'nav.library' },
+  // Anyone signed in may watch sites (their own address); the list lives on this page.
+  { to: '/watches', labelKey: 'watches.nav', signedIn: true },
   { to: '/admin/users', labelKey: 'nav.adminUsers', roles: ['admin'] },
+  { to: '/admin/invitations', labelKey: 'account.invite.nav', roles: ['admin'] },
+  // The stand-in mailbox and the outbox: where admins see what was sent and what failed.
+  { to: '/admin/mailbox', labelKey: 'mailbox.nav', roles: ['admin'] },
+  { to: '/admin/outbox', labelKey: 'mailbox.outbox.nav', roles: ['admin'] },
   { to: '/admin/audit', labelKey: 'nav.adminAudit', roles: ['admin'] },
 ]
 

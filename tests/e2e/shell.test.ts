@@ -33,10 +33,10 @@ const nav = () => page.getByTestId('main-nav')
 describe('the shell for each role', () => {
   // Sites and briefings belong to organisations that plan: their planners and readers see them.
   it.each([
-    { demo: ADMIN, links: ['Overview', 'Library', 'Users', 'Audit log'] },
-    { demo: ANALYST, links: ['Overview', 'Library'] },
-    { demo: PLANNER, links: ['Overview', 'Sites', 'Briefings', 'Library'] },
-    { demo: READER, links: ['Overview', 'Sites', 'Briefings', 'Library'] },
+    { demo: ADMIN, links: ['Overview', 'Library', 'Watches', 'Users', 'Invitations', 'Mailbox', 'Outbox', 'Audit log'] },
+    { demo: ANALYST, links: ['Overview', 'Library', 'Watches'] },
+    { demo: PLANNER, links: ['Overview', 'Sites', 'Briefings', 'Library', 'Watches'] },
+    { demo: READER, links: ['Overview', 'Sites', 'Briefings', 'Library', 'Watches'] },
   ])('$demo.role sees the navigation of the role, the demo label and no accessibility faults', async ({ demo, links }) => {
     await signIn(page, demo.email, demo.password)
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toContain(demo.name)
@@ -87,7 +87,7 @@ describe('preferences', () => {
   it('switches to Spanish, and the choice follows the account to the next sign-in', async () => {
     await signIn(page, PLANNER.email, PLANNER.password)
     await page.getByTestId('language-switcher').selectOption('es')
-    await expect.poll(() => nav().getByRole('link').allTextContents()).toEqual(['Resumen', 'Sitios', 'Informes', 'Biblioteca'])
+    await expect.poll(() => nav().getByRole('link').allTextContents()).toEqual(['Resumen', 'Sitios', 'Informes', 'Biblioteca', 'Seguimientos'])
     expect(await page.getAttribute('html', 'lang')).toMatch(/^es/)
     expect(await seriousAxeViolations(page)).toEqual([])
 
