@@ -83,9 +83,15 @@ export function briefingIssuedMail(language: Language, site: string, title: stri
   }], unsubscribeUrl)
 }
 
-export function invitationMail(language: Language, inviter: string, organisation: string, role: string, url: string): MailBody {
+const ROLE_NAMES: Record<Language, Record<string, string>> = {
+  en: { admin: 'an administrator', analyst: 'an analyst', planner: 'a planner', reader: 'a reader' },
+  es: { admin: 'administrador/a', analyst: 'analista', planner: 'planificador/a', reader: 'lector/a' },
+}
+
+export function invitationMail(language: Language, inviter: string, organisation: string, roleKey: string, url: string): MailBody {
+  const role = ROLE_NAMES[language][roleKey] ?? roleKey
   return language === 'es'
-    ? compose('es', `Invitación a Brinkwater de ${inviter}`, [{ paragraphs: [`${inviter} le invita a unirse a ${organisation} en Brinkwater con el rol ${role}.`, 'Elija una contraseña con el enlace; caduca en 7 días y sirve una sola vez.'], link: { label: 'Aceptar la invitación', url } }])
+    ? compose('es', `Invitación a Brinkwater de ${inviter}`, [{ paragraphs: [`${inviter} le invita a unirse a ${organisation} en Brinkwater como ${role}.`, 'Elija una contraseña con el enlace; caduca en 7 días y sirve una sola vez.'], link: { label: 'Aceptar la invitación', url } }])
     : compose('en', `${inviter} invites you to Brinkwater`, [{ paragraphs: [`${inviter} invites you to join ${organisation} on Brinkwater as ${role}.`, 'Choose a password with the link; it expires in 7 days and works once.'], link: { label: 'Accept the invitation', url } }])
 }
 
