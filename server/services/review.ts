@@ -1,6 +1,7 @@
 import { and, eq, type SQL } from 'drizzle-orm'
 import { correlationSets, releases, scaleFactorGrids, series } from '~~/server/db/schema'
 import type { Database } from '~~/server/db/client'
+import { BRIEFING_TEXT } from '#shared/briefing/text'
 import { judgeReviewAction, type ReviewAction } from '#shared/review/rules'
 import type { CurrentUser } from '../utils/auth'
 import { notifyScienceChange } from './notify'
@@ -82,7 +83,8 @@ async function announce(kind: ReviewedKind, id: string, action: 'approve' | 'wit
   if (kind === 'release') {
     const [row] = await db.select({ scenario: series.scenario, component: series.component, version: releases.version })
       .from(releases).innerJoin(series, eq(series.id, releases.seriesId)).where(eq(releases.id, id))
-    const what = { en: `${action === 'approve' ? 'A new' : 'A withdrawn'} ${row!.component} release (version ${row!.version}) for ${row!.scenario}`, es: `Una versión ${action === 'approve' ? 'nueva' : 'retirada'} de ${row!.component} (versión ${row!.version}) para ${row!.scenario}` }
+    const name = (language: 'en' | 'es') => BRIEFING_TEXT[language].components[row!.component] ?? row!.component
+    const what = { en: `${action === 'approve' ? 'A new' : 'A withdrawn'} release for ${name('en')} (version ${row!.version}, ${row!.scenario})`, es: `Una versión ${action === 'approve' ? 'nueva' : 'retirada'} de ${name('es')} (versión ${row!.version}, ${row!.scenario})` }
     notifyScienceChange(row!.scenario, { en: `${what.en} changes the outlook for this site.`, es: `${what.es} cambia la perspectiva de este sitio.` })
   }
   else if (kind === 'correlation-set') {
