@@ -1,43 +1,20 @@
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest'
+import { beforeEach, describe, expect, it } from 'vitest'
 import { ANALYST, demoUser } from '../support/demo-users'
-import { isolatedContext, open, launchBrowser, screenshot, seriousAxeViolations, signIn, type Browser, type BrowserContext, type Page } from '../support/browser'
-import { startServer, type RunningServer } from '../support/server'
+import { open, screenshot, seriousAxeViolations, signIn, type Page } from '../support/browser'
+import { useBrowserSuite } from '../support/browser-suite'
 
 const REVIEWER = demoUser('reviewer@saltglass.example')
 
-let server: RunningServer
-let browser: Browser
-let context: BrowserContext
-let external: string[]
+const suite = useBrowserSuite('library')
 let page: Page
-
-beforeAll(async () => {
-  server = await startServer()
-  browser = await launchBrowser()
-})
-afterAll(async () => {
-  await browser?.close()
-  await server?.stop()
-})
-beforeEach(async () => {
-  ({ context, external } = await isolatedContext(browser, server.url))
-  page = await context.newPage()
-})
-// Screenshots are kept for every failure (and for every test with BRINKWATER_SCREENSHOTS=all).
-afterEach(async (ctx) => {
-  if (ctx.task.result?.state === 'fail' || process.env.BRINKWATER_SCREENSHOTS === 'all') await screenshot(page, `library-${ctx.task.name}`)
-  await context.close()
-  expect(external, 'requests that left the app').toEqual([])
-})
+beforeEach(() => ({ page } = suite))
 
 // Invented numbers for a glacier series, in metres: a quantile table as an analyst would export it.
 const QUANTILE_CSV = ['level,2050,2100', '0.05,0.031,0.062', '0.17,0.04,0.081', '0.5,0.052,0.108', '0.83,0.064,0.137', '0.95,0.074,0.158'].join('\n')
 const TITLE = 'Glacier melt, browser test (illustrative)'
 
 async function startSession(email: string, password: string) {
-  await context.close()
-  ;({ context, external } = await isolatedContext(browser, server.url))
-  page = await context.newPage()
+  page = await suite.freshContext()
   await signIn(page, email, password)
 }
 
@@ -101,9 +78,7 @@ describe('publishing a release through the library', () => {
     await expect.poll(() => page.getByTestId('review-queue-empty').count()).toBe(1)
 
     // Signed out, the published release is in the public library with its numbers.
-    await context.close()
-    ;({ context, external } = await isolatedContext(browser, server.url))
-    page = await context.newPage()
+    page = await suite.freshContext()
     await open(page, '/library?component=glaciers&scenario=SSP2-4.5')
     const row = page.getByRole('row').filter({ hasText: TITLE })
     expect(await row.getByTestId('state-badge').textContent()).toBe('Published')

@@ -1,32 +1,14 @@
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest'
+import { beforeEach, describe, expect, it } from 'vitest'
 import { ADMIN, ANALYST, PLANNER, PORT_PLANNER, READER } from '../support/demo-users'
-import { isolatedContext, open, launchBrowser, screenshot, seriousAxeViolations, signIn, type Browser, type BrowserContext, type Page } from '../support/browser'
-import { startServer, type RunningServer } from '../support/server'
+import { open, seriousAxeViolations, signIn, type BrowserContext, type Page } from '../support/browser'
+import { useBrowserSuite } from '../support/browser-suite'
+import type { RunningServer } from '../support/server'
 
+const suite = useBrowserSuite('shell')
 let server: RunningServer
-let browser: Browser
 let context: BrowserContext
-let external: string[]
 let page: Page
-
-beforeAll(async () => {
-  server = await startServer()
-  browser = await launchBrowser()
-})
-afterAll(async () => {
-  await browser?.close()
-  await server?.stop()
-})
-beforeEach(async () => {
-  ({ context, external } = await isolatedContext(browser, server.url))
-  page = await context.newPage()
-})
-// Screenshots are kept for every failure (and for every test with BRINKWATER_SCREENSHOTS=all).
-afterEach(async (ctx) => {
-  if (ctx.task.result?.state === 'fail' || process.env.BRINKWATER_SCREENSHOTS === 'all') await screenshot(page, ctx.task.name)
-  await context.close()
-  expect(external, 'requests that left the app').toEqual([])
-})
+beforeEach(() => ({ server, context, page } = suite))
 
 const nav = () => page.getByTestId('main-nav')
 

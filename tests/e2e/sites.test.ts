@@ -1,32 +1,11 @@
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest'
+import { beforeEach, describe, expect, it } from 'vitest'
 import { PLANNER, PORT_PLANNER, READER } from '../support/demo-users'
-import { isolatedContext, open, launchBrowser, screenshot, seriousAxeViolations, signIn, type Browser, type BrowserContext, type Page } from '../support/browser'
-import { startServer, type RunningServer } from '../support/server'
+import { open, screenshot, seriousAxeViolations, signIn, type Page } from '../support/browser'
+import { useBrowserSuite } from '../support/browser-suite'
 
-let server: RunningServer
-let browser: Browser
-let context: BrowserContext
-let external: string[]
+const suite = useBrowserSuite('sites')
 let page: Page
-
-beforeAll(async () => {
-  server = await startServer()
-  browser = await launchBrowser()
-})
-afterAll(async () => {
-  await browser?.close()
-  await server?.stop()
-})
-beforeEach(async () => {
-  ({ context, external } = await isolatedContext(browser, server.url))
-  page = await context.newPage()
-})
-// Screenshots are kept for every failure (and for every test with BRINKWATER_SCREENSHOTS=all).
-afterEach(async (ctx) => {
-  if (ctx.task.result?.state === 'fail' || process.env.BRINKWATER_SCREENSHOTS === 'all') await screenshot(page, `sites-${ctx.task.name}`)
-  await context.close()
-  expect(external, 'requests that left the app').toEqual([])
-})
+beforeEach(() => ({ page } = suite))
 
 const nav = () => page.getByTestId('main-nav')
 // Steps worth looking at by eye, kept only when every screenshot is asked for.
@@ -146,9 +125,7 @@ describe('who may see and change a site', () => {
     const councilSites = await (await page.request.get('/api/sites')).json() as { id: string, name: string }[]
     const kelwick = councilSites.find(site => site.name === 'Kelwick')!
 
-    await context.close()
-    ;({ context, external } = await isolatedContext(browser, server.url))
-    page = await context.newPage()
+    page = await suite.freshContext()
     await signIn(page, PORT_PLANNER.email, PORT_PLANNER.password)
     const response = await open(page, `/sites/${kelwick.id}`)
     expect(response?.status()).toBe(404)
