@@ -1,4 +1,4 @@
-import { and, asc, desc, eq } from 'drizzle-orm'
+import { and, asc, count, desc, eq } from 'drizzle-orm'
 import { outlooks, series, sites, thresholds, type OutlookHeadline } from '~~/server/db/schema'
 import type { OutlookResult } from '#shared/engine'
 import { COMPONENTS, KNOWN_SCENARIOS } from '#shared/types/science'
@@ -24,7 +24,8 @@ export async function listSites(user: CurrentUser) {
     .from(outlooks).innerJoin(sites, eq(sites.id, outlooks.siteId))
     .where(and(eq(sites.organisationId, user.organisationId), eq(outlooks.state, 'done')))
     .orderBy(outlooks.siteId, desc(outlooks.finishedAt))
-  const counts = await db.select({ siteId: thresholds.siteId }).from(thresholds).innerJoin(sites, eq(sites.id, thresholds.siteId)).where(eq(sites.organisationId, user.organisationId))
+  const counts = await db.select({ siteId: thresholds.siteId, n: count() }).from(thresholds)
+    .innerJoin(sites, eq(sites.id, thresholds.siteId)).where(eq(sites.organisationId, user.organisationId)).groupBy(thresholds.siteId)
   return rows.map(site => ({
     id: site.id,
     name: site.name,
@@ -32,7 +33,7 @@ export async function listSites(user: CurrentUser) {
     longitude: site.longitude,
     landMotionRate: site.landMotionRate,
     landMotionSigma: site.landMotionSigma,
-    thresholdCount: counts.filter(c => c.siteId === site.id).length,
+    thresholdCount: counts.find(c => c.siteId === site.id)?.n ?? 0,
     hasExtremes: site.gumbelScale !== null,
     latestOutlook: latest.find(o => o.siteId === site.id) ?? null,
   }))

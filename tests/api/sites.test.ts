@@ -58,8 +58,11 @@ describe('sites', () => {
   })
 
   it('lists the demo towns of the organisation', async () => {
-    const names = (await planner.get('/api/sites')).body.map((s: { name: string }) => s.name)
+    const list = (await planner.get('/api/sites')).body
+    const names = list.map((s: { name: string }) => s.name)
     expect(names).toEqual(expect.arrayContaining(['Kelwick', 'Drumhaven', 'Fennmouth', 'Lowmere', 'Saltcombe Ness']))
+    expect(list.find((s: { name: string }) => s.name === 'Kelwick')).toMatchObject({ thresholdCount: 2, hasExtremes: true, landMotionRate: -4.8 })
+    expect(list.find((s: { name: string }) => s.name === 'Drumhaven')).toMatchObject({ thresholdCount: 1, hasExtremes: false })
     expect(names).not.toContain('Skerrow Quay')
   })
 
