@@ -18,6 +18,8 @@ const ITEMS: NavItem[] = [
   // The stand-in mailbox and the outbox: where admins see what was sent and what failed.
   { to: '/admin/mailbox', labelKey: 'mailbox.nav', roles: ['admin'] },
   { to: '/admin/outbox', labelKey: 'mailbox.outbox.nav', roles: ['admin'] },
+  // Recomputations of many sites after new science, with their progress.
+  { to: '/admin/recomputations', labelKey: 'recomputations.nav', roles: ['admin'] },
   { to: '/admin/audit', labelKey: 'nav.adminAudit', roles: ['admin'] },
 ]
 

@@ -198,12 +198,22 @@ export const outlooks = pgTable('outlooks', {
   headline: jsonb('headline').$type<OutlookHeadline>(),
   error: text('error'),
   durationMs: integer('duration_ms'),
+  /** Who asked; null when the system recomputed it after a change in the science or the site. */
   requestedBy: uuid('requested_by').references(() => users.id),
+  // A running outlook is also its own job: an app instance claims it by taking the lease (row lock
+  // with SKIP LOCKED), renews the lease while it computes, and writes the result only while it
+  // still holds it. A lease that runs out (the instance died) lets another instance take over.
+  claimedBy: text('claimed_by'),
+  leaseUntil: timestamp('lease_until', { withTimezone: true }),
+  attempts: integer('attempts').notNull().default(0),
+  /** Share of the samples drawn so far (0–1), while running. */
+  progress: doublePrecision('progress'),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   finishedAt: timestamp('finished_at', { withTimezone: true }),
 }, table => [
   unique('outlooks_site_input').on(table.siteId, table.inputHash),
   index('outlooks_site_idx').on(table.siteId),
+  index('outlooks_state_idx').on(table.state),
 ])
 
 // ---- Briefings ----
@@ -303,3 +313,42 @@ export const accountTokens = pgTable('account_tokens', {
   usedAt: timestamp('used_at', { withTimezone: true }),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 })
+
+// ---- Background work ----
+
+/** A recomputation of many sites at once (after new science, or asked for by an administrator). */
+export const recomputations = pgTable('recomputations', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  /** The scenario whose outlooks are recomputed; null for every scenario. */
+  scenario: text('scenario'),
+  /** Why, in each language: the first line of the "what changed" e-mail. */
+  cause: jsonb('cause').$type<Record<string, string>>().notNull(),
+  requestedBy: uuid('requested_by').references(() => users.id),
+  siteCount: integer('site_count').notNull(),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+})
+
+export const jobStateEnum = pgEnum('job_state', ['queued', 'running', 'done', 'failed'])
+
+/**
+ * Durable background work, claimed by any app instance under a lease (SKIP LOCKED), so a job runs
+ * once even with several instances and survives a restart. Written in the same transaction as
+ * the change that causes it.
+ */
+export const jobs = pgTable('jobs', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  kind: text('kind').notNull(),
+  payload: jsonb('payload').$type<Record<string, unknown>>().notNull(),
+  recomputationId: uuid('recomputation_id').references(() => recomputations.id, { onDelete: 'cascade' }),
+  state: jobStateEnum('state').notNull().default('queued'),
+  attempts: integer('attempts').notNull().default(0),
+  runAfter: timestamp('run_after', { withTimezone: true }).notNull().defaultNow(),
+  claimedBy: text('claimed_by'),
+  leaseUntil: timestamp('lease_until', { withTimezone: true }),
+  error: text('error'),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  finishedAt: timestamp('finished_at', { withTimezone: true }),
+}, table => [
+  index('jobs_due_idx').on(table.state, table.runAfter),
+  index('jobs_recomputation_idx').on(table.recomputationId),
+])

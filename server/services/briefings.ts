@@ -5,7 +5,6 @@ import { buildBriefingDocument, type BriefingDocument, type BriefingOutlook } fr
 import type { OutlookResult } from '#shared/engine'
 import type { CreateBriefingInput, UpdateBriefingInput } from '#shared/schemas/briefings'
 import type { CurrentUser } from '../utils/auth'
-import { notifyBriefingIssued } from './notify'
 
 type Briefing = typeof briefings.$inferSelect
 
@@ -109,9 +108,10 @@ export async function issueBriefing(planner: CurrentUser, id: string) {
       .where(and(eq(briefings.id, id), eq(briefings.state, 'draft'))).returning()
     if (!issued) throw createError({ statusCode: 409, message: 'This briefing has just been issued by someone else.' })
     await writeAudit(tx, planner, 'briefing.issued', { type: 'briefing', id }, { version: row.version, site: row.siteId })
+    await enqueueJob(tx, 'briefing-issued', { briefingId: id })
     return issued
   }).then((issued) => {
-    notifyBriefingIssued(id)
+    kickJobs()
     return issued
   })
 }

@@ -1,39 +1,26 @@
 import { and, desc, eq } from 'drizzle-orm'
-import { briefings, outlooks, sites, thresholds, users, watches, type OutlookReleaseRef } from '~~/server/db/schema'
+import { briefings, outlooks, sites, thresholds, watches, type OutlookReleaseRef } from '~~/server/db/schema'
 import type { OutlookResult } from '#shared/engine'
 import { formatHeight } from '#shared/units'
 import { formatChance, type Language } from '#shared/wording/chance'
 import { BRIEFING_TEXT } from '#shared/briefing/text'
 import { briefingIssuedMail, whatChangedMail, type ChangeRow, type RangeRow, type ReleaseChange } from '../mail/templates'
-import { requestOutlook } from './outlooks'
 import { unsubscribeHeaders, unsubscribeUrl } from './watches'
 
-// When the science or a site changes, the people watching the site hear about it: the affected
-// outlooks are recomputed in the background with the same seed and samples, and each watcher gets
-// one e-mail per event, in their language, with the numbers before and after.
+// The e-mails watchers get: what changed at a site after a recomputation (see recompute.ts), with
+// the numbers before and after, and that a new briefing was issued. One e-mail per event and
+// watcher, in the watcher's language.
 
 const KEY_YEARS = [2050, 2100]
 export type Cause = Record<Language, string>
-
-/** Runs a notification in the background; a failure is logged, never thrown at the request. */
-function inBackground(what: string, work: () => Promise<void>) {
-  work().catch(error => console.error(`[brinkwater] ${what} failed:`, error))
-}
 
 async function activeWatches(siteId: string) {
   const db = await useDb()
   return db.select().from(watches).where(and(eq(watches.siteId, siteId), eq(watches.state, 'active')))
 }
 
-/** A planner of the site's organisation to run the recompute as (any active one). */
-async function actingPlanner(organisationId: string) {
-  const db = await useDb()
-  const [row] = await db.select({ id: users.id }).from(users).where(and(eq(users.organisationId, organisationId), eq(users.role, 'planner'), eq(users.disabled, false))).limit(1)
-  return row ? loadSessionUser(row.id) : undefined
-}
-
 /** The latest finished outlook of each scenario computed for a site. */
-async function latestOutlooks(siteId: string) {
+export async function latestOutlooks(siteId: string) {
   const db = await useDb()
   const rows = await db.select().from(outlooks).where(and(eq(outlooks.siteId, siteId), eq(outlooks.state, 'done'))).orderBy(desc(outlooks.finishedAt))
   const latest = new Map<string, typeof rows[number]>()
@@ -41,7 +28,7 @@ async function latestOutlooks(siteId: string) {
   return [...latest.values()]
 }
 
-interface Comparison { scenario: string, before: typeof outlooks.$inferSelect, after: typeof outlooks.$inferSelect }
+export interface Comparison { scenario: string, before: typeof outlooks.$inferSelect, after: typeof outlooks.$inferSelect }
 
 function median(result: OutlookResult, t: number, level: number) {
   return result.byYear[t]!.percentiles.find(p => Math.abs(p.level - level) < 1e-9)!.value
@@ -90,26 +77,16 @@ async function latestBriefingUrl(siteId: string) {
   return shared?.token ? `${appUrl()}/shared/${shared.token}` : null
 }
 
-/** Recomputes a site's latest outlooks and mails each watcher what changed (nothing if nothing did). */
-export async function recomputeAndNotify(siteId: string, cause: Cause, scenarios?: string[]) {
+/** Mails each watcher of a site the numbers before and after a recomputation, in their language. */
+export async function mailWhatChanged(siteId: string, cause: Cause, comparisons: Comparison[]) {
   const watchers = await activeWatches(siteId)
-  if (!watchers.length) return
+  if (!watchers.length || !comparisons.length) return
   const db = await useDb()
-  const [site] = await db.select().from(sites).where(eq(sites.id, siteId))
-  const actor = site && await actingPlanner(site.organisationId)
-  if (!site || !actor) return
-  const comparisons: Comparison[] = []
-  for (const before of await latestOutlooks(siteId)) {
-    if (scenarios && !scenarios.includes(before.scenario)) continue
-    const outcome = await requestOutlook(actor, siteId, { scenario: before.scenario, samples: before.samples, seed: before.seed, wait: true }).catch(() => null)
-    if (!outcome || outcome.id === before.id) continue
-    await outcome.run
-    const [after] = await db.select().from(outlooks).where(eq(outlooks.id, outcome.id))
-    if (after?.state === 'done') comparisons.push({ scenario: before.scenario, before, after })
-  }
-  if (!comparisons.length) return
+  const [site] = await db.select({ name: sites.name }).from(sites).where(eq(sites.id, siteId))
+  if (!site) return
   const labels = new Map((await loadSiteThresholds(siteId)).map(t => [t.id, t.label]))
   const briefingUrl = await latestBriefingUrl(siteId)
+  // The same recomputation mails each watcher once, even when its job runs again after a crash.
   const event = comparisons.map(c => c.after.id).sort().join(',')
   await db.transaction(async (tx) => {
     for (const watch of watchers) {
@@ -125,35 +102,19 @@ async function loadSiteThresholds(siteId: string) {
   return db.select({ id: thresholds.id, label: thresholds.label }).from(thresholds).where(eq(thresholds.siteId, siteId))
 }
 
-/** A release was published or withdrawn: every watched site with an outlook of that scenario. */
-export function notifyScienceChange(scenario: string, cause: Cause) {
-  inBackground('science-change notification', async () => {
-    const db = await useDb()
-    const watched = await db.selectDistinct({ siteId: watches.siteId }).from(watches)
-      .innerJoin(outlooks, eq(outlooks.siteId, watches.siteId))
-      .where(and(eq(watches.state, 'active'), eq(outlooks.scenario, scenario)))
-    for (const { siteId } of watched) await recomputeAndNotify(siteId, cause, [scenario])
-  })
-}
-
-export function notifySiteChange(siteId: string, cause: Cause) {
-  inBackground('site-change notification', () => recomputeAndNotify(siteId, cause))
-}
-
-export function notifyBriefingIssued(briefingId: string) {
-  inBackground('briefing notification', async () => {
-    const db = await useDb()
-    const [row] = await db.select({ siteId: briefings.siteId, title: briefings.title, token: briefings.shareToken, site: sites.name })
-      .from(briefings).innerJoin(sites, eq(sites.id, briefings.siteId)).where(eq(briefings.id, briefingId))
-    if (!row) return
-    const watchers = await activeWatches(row.siteId)
-    const url = row.token ? `${appUrl()}/shared/${row.token}` : await latestBriefingUrl(row.siteId)
-    await db.transaction(async (tx) => {
-      for (const watch of watchers) {
-        const language: Language = watch.language === 'es' ? 'es' : 'en'
-        const mail = briefingIssuedMail(language, row.site, row.title, url, unsubscribeUrl(watch.unsubscribeToken))
-        await queueMail(tx, { to: watch.email, ...mail, headers: unsubscribeHeaders(watch.unsubscribeToken), dedupeKey: `briefing:${briefingId}:${watch.id}` })
-      }
-    })
+/** Mails each watcher of the briefing's site that a new briefing was issued. */
+export async function mailBriefingIssued(briefingId: string) {
+  const db = await useDb()
+  const [row] = await db.select({ siteId: briefings.siteId, title: briefings.title, token: briefings.shareToken, site: sites.name })
+    .from(briefings).innerJoin(sites, eq(sites.id, briefings.siteId)).where(eq(briefings.id, briefingId))
+  if (!row) return
+  const watchers = await activeWatches(row.siteId)
+  const url = row.token ? `${appUrl()}/shared/${row.token}` : await latestBriefingUrl(row.siteId)
+  await db.transaction(async (tx) => {
+    for (const watch of watchers) {
+      const language: Language = watch.language === 'es' ? 'es' : 'en'
+      const mail = briefingIssuedMail(language, row.site, row.title, url, unsubscribeUrl(watch.unsubscribeToken))
+      await queueMail(tx, { to: watch.email, ...mail, headers: unsubscribeHeaders(watch.unsubscribeToken), dedupeKey: `briefing:${briefingId}:${watch.id}` })
+    }
   })
 }

@@ -1,12 +1,12 @@
 import { createHash } from 'node:crypto'
 import { and, desc, eq } from 'drizzle-orm'
 import { outlooks, type OutlookReleaseRef } from '~~/server/db/schema'
-import { EngineInputError, validateOutlookInput, type OutlookResult } from '#shared/engine'
+import { validateOutlookInput } from '#shared/engine'
 import { ENGINE_VERSION } from '#shared/engine/version'
 import type { OutlookRequest } from '#shared/schemas/sites'
 import type { CurrentUser } from '../utils/auth'
 import { correlationFor, latestReleases, scaleFactorsAt, scienceFor } from './science-inputs'
-import { headlineOf } from './site-list'
+import { awaitOutlook, kickOutlooks } from './outlook-jobs'
 import { loadSite } from './sites'
 
 type Site = Awaited<ReturnType<typeof loadSite>>
@@ -60,56 +60,42 @@ export async function assembleOutlook(site: Site, request: OutlookRequest, basel
   return { input, inputHash, releaseRefs, notes, correlationSetId: set?.id ?? null }
 }
 
-const progress = new Map<string, number>()
-
-export function outlookProgress(id: string) {
-  return progress.get(id) ?? null
-}
-
 /**
- * Runs an outlook, or finds the stored one with the same input hash. With `wait` the answer comes
- * when the run is done; otherwise at once, with the run going on in the background.
+ * Runs an outlook, or finds the stored one with the same input hash. The run itself is queued
+ * (see outlook-jobs.ts: any app instance may compute it); `run` resolves when it has finished.
  */
 export async function requestOutlook(planner: CurrentUser, siteId: string, request: OutlookRequest) {
   const site = await loadSite(planner, siteId)
-  const assembled = await assembleOutlook(site, request)
+  const queued = await queueOutlook(site, request, planner.id)
+  if (queued.cached) return { id: queued.id, cached: true, run: null }
   const db = await useDb()
-  const [stored] = await db.select({ id: outlooks.id, state: outlooks.state }).from(outlooks)
-    .where(and(eq(outlooks.siteId, siteId), eq(outlooks.inputHash, assembled.inputHash)))
-  if (stored && stored.state !== 'failed') return { id: stored.id, cached: true, run: null }
-  if (stored) await db.delete(outlooks).where(eq(outlooks.id, stored.id))
-
-  const [row] = await db.insert(outlooks).values({
-    siteId, scenario: request.scenario, samples: request.samples, seed: request.seed, inputHash: assembled.inputHash,
-    engineVersion: ENGINE_VERSION, input: assembled.input, releaseRefs: assembled.releaseRefs, notes: assembled.notes,
-    correlationSetId: assembled.correlationSetId, requestedBy: planner.id,
-  }).onConflictDoNothing().returning({ id: outlooks.id })
-  if (!row) {
-    // Someone asked for the same outlook a moment ago: follow that run.
-    const [twin] = await db.select({ id: outlooks.id }).from(outlooks).where(and(eq(outlooks.siteId, siteId), eq(outlooks.inputHash, assembled.inputHash)))
-    return { id: twin!.id, cached: true, run: null }
-  }
-  const run = execute(row.id, assembled.input, new Map(site.thresholds.map(t => [t.id, t.label])))
-  await writeAudit(db, planner, 'outlook.requested', { type: 'outlook', id: row.id }, { site: siteId, scenario: request.scenario, samples: request.samples })
-  return { id: row.id, cached: false, run }
+  await writeAudit(db, planner, 'outlook.requested', { type: 'outlook', id: queued.id }, { site: siteId, scenario: request.scenario, samples: request.samples })
+  return { id: queued.id, cached: false, run: awaitOutlook(queued.id) }
 }
 
-async function execute(id: string, input: unknown, thresholdLabels: Map<string, string>) {
+/**
+ * Stores a new outlook to be computed (state running, no lease), unless one with the same input
+ * hash is stored already: then that one is the answer. A failed one is replaced.
+ */
+export async function queueOutlook(site: Site, request: Pick<OutlookRequest, 'scenario' | 'samples' | 'seed'>, requestedBy: string | null) {
+  const assembled = await assembleOutlook(site, request as OutlookRequest)
   const db = await useDb()
-  const started = performance.now()
-  progress.set(id, 0)
-  try {
-    const result: OutlookResult = await runOutlookOffThread(input, fraction => progress.set(id, fraction))
-    await db.update(outlooks).set({ state: 'done', result: result as unknown as Record<string, unknown>, headline: headlineOf(result, thresholdLabels), durationMs: Math.round(performance.now() - started), finishedAt: new Date() }).where(eq(outlooks.id, id))
+  const [stored] = await db.select({ id: outlooks.id, state: outlooks.state }).from(outlooks)
+    .where(and(eq(outlooks.siteId, site.id), eq(outlooks.inputHash, assembled.inputHash)))
+  if (stored && stored.state !== 'failed') return { id: stored.id, cached: true }
+  if (stored) await db.delete(outlooks).where(and(eq(outlooks.id, stored.id), eq(outlooks.state, 'failed')))
+  const [row] = await db.insert(outlooks).values({
+    siteId: site.id, scenario: request.scenario, samples: request.samples, seed: request.seed, inputHash: assembled.inputHash,
+    engineVersion: ENGINE_VERSION, input: assembled.input, releaseRefs: assembled.releaseRefs, notes: assembled.notes,
+    correlationSetId: assembled.correlationSetId, requestedBy,
+  }).onConflictDoNothing().returning({ id: outlooks.id })
+  if (!row) {
+    // Someone (here or on another instance) asked for the same outlook a moment ago: follow that run.
+    const [twin] = await db.select({ id: outlooks.id }).from(outlooks).where(and(eq(outlooks.siteId, site.id), eq(outlooks.inputHash, assembled.inputHash)))
+    return { id: twin!.id, cached: true }
   }
-  catch (error) {
-    const message = error instanceof EngineInputError ? error.message : 'The computation failed; try again, and tell an administrator if it keeps failing.'
-    if (!(error instanceof EngineInputError)) console.error('[brinkwater] outlook failed', error)
-    await db.update(outlooks).set({ state: 'failed', error: message, finishedAt: new Date() }).where(eq(outlooks.id, id))
-  }
-  finally {
-    progress.delete(id)
-  }
+  kickOutlooks()
+  return { id: row.id, cached: false }
 }
 
 export interface NewerScience { component: string, usedVersion: number, latestVersion: number | null, latestReleaseId: string | null }

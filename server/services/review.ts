@@ -4,7 +4,6 @@ import type { Database } from '~~/server/db/client'
 import { BRIEFING_TEXT } from '#shared/briefing/text'
 import { judgeReviewAction, type ReviewAction } from '#shared/review/rules'
 import type { CurrentUser } from '../utils/auth'
-import { notifyScienceChange } from './notify'
 
 // One review workflow for the three kinds of reviewed records. Publishing a version supersedes
 // the previously published version of the same series in the same transaction.
@@ -71,24 +70,40 @@ export async function applyReviewAction(kind: ReviewedKind, id: string, action: 
     const [updated] = await tx.update(table).set({ ...changes[action], updatedAt: now }).where(eq(table.id, id))
       .returning({ id: table.id, state: table.state, version: table.version })
     await writeAudit(tx, actor, `${kind}.${AUDIT_VERB[action]}`, { type: kind, id }, { version: row.version, from: row.state, to: verdict.to, ...payload })
+    if (action === 'approve' || action === 'withdraw') {
+      // The recomputation is queued in this transaction: it happens if and only if the change lands.
+      await enqueueJob(tx, 'science-change', { ...await scienceChange(tx, kind, id, action), requestedBy: actor.id })
+      faultPoint('release-publish')
+    }
     return updated!
   })
-  if (action === 'approve' || action === 'withdraw') await announce(kind, id, action)
+  if (action === 'approve' || action === 'withdraw') kickJobs()
   return updated
 }
 
-/** Published or withdrawn science changes outlooks: tell the people watching affected sites. */
-async function announce(kind: ReviewedKind, id: string, action: 'approve' | 'withdraw') {
-  const db = await useDb()
+/**
+ * Published or withdrawn science changes outlooks: which scenario (null: every scenario, for a
+ * scale-factor grid) and why, in each language, for the "what changed" e-mails.
+ */
+async function scienceChange(tx: Tx, kind: ReviewedKind, id: string, action: 'approve' | 'withdraw') {
   if (kind === 'release') {
-    const [row] = await db.select({ scenario: series.scenario, component: series.component, version: releases.version })
+    const [row] = await tx.select({ scenario: series.scenario, component: series.component, version: releases.version })
       .from(releases).innerJoin(series, eq(series.id, releases.seriesId)).where(eq(releases.id, id))
     const name = (language: 'en' | 'es') => BRIEFING_TEXT[language].components[row!.component] ?? row!.component
     const what = { en: `${action === 'approve' ? 'A new' : 'A withdrawn'} release for ${name('en')} (version ${row!.version}, ${row!.scenario})`, es: `Una versión ${action === 'approve' ? 'nueva' : 'retirada'} de ${name('es')} (versión ${row!.version}, ${row!.scenario})` }
-    notifyScienceChange(row!.scenario, { en: `${what.en} changes the outlook for this site.`, es: `${what.es} cambia la perspectiva de este sitio.` })
+    return { scenario: row!.scenario, cause: { en: `${what.en} changes the outlook for this site.`, es: `${what.es} cambia la perspectiva de este sitio.` } }
   }
-  else if (kind === 'correlation-set') {
-    const [row] = await db.select({ scenario: correlationSets.scenario }).from(correlationSets).where(eq(correlationSets.id, id))
-    notifyScienceChange(row!.scenario, { en: `The correlation between sources of rise for ${row!.scenario} was ${action === 'approve' ? 'updated' : 'withdrawn'}.`, es: `La correlación entre fuentes de subida para ${row!.scenario} fue ${action === 'approve' ? 'actualizada' : 'retirada'}.` })
+  if (kind === 'correlation-set') {
+    const [row] = await tx.select({ scenario: correlationSets.scenario }).from(correlationSets).where(eq(correlationSets.id, id))
+    return { scenario: row!.scenario, cause: { en: `The correlation between sources of rise for ${row!.scenario} was ${action === 'approve' ? 'updated' : 'withdrawn'}.`, es: `La correlación entre fuentes de subida para ${row!.scenario} fue ${action === 'approve' ? 'actualizada' : 'retirada'}.` } }
+  }
+  const [row] = await tx.select({ component: scaleFactorGrids.component, version: scaleFactorGrids.version }).from(scaleFactorGrids).where(eq(scaleFactorGrids.id, id))
+  const name = (language: 'en' | 'es') => BRIEFING_TEXT[language].components[row!.component] ?? row!.component
+  return {
+    scenario: null,
+    cause: {
+      en: `The regional scale factors for ${name('en')} (version ${row!.version}) were ${action === 'approve' ? 'published' : 'withdrawn'}.`,
+      es: `Los factores de escala regionales de ${name('es')} (versión ${row!.version}) fueron ${action === 'approve' ? 'publicados' : 'retirados'}.`,
+    },
   }
 }

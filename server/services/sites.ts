@@ -1,19 +1,25 @@
-import { and, asc, eq, inArray } from 'drizzle-orm'
+import { asc, eq, inArray } from 'drizzle-orm'
 import { annualMaxima, sites, thresholds } from '~~/server/db/schema'
 import type { Database } from '~~/server/db/client'
 import type { SiteInput } from '#shared/schemas/sites'
 import type { CurrentUser } from '../utils/auth'
-import { notifySiteChange } from './notify'
 
 type Tx = Parameters<Parameters<Database['transaction']>[0]>[0]
 
-/** A site of the caller's organisation, or 404 (another organisation's site looks missing). */
-export async function loadSite(user: CurrentUser, id: string) {
+/** A site with its thresholds in order, whoever owns it (for background work), or null. */
+export async function siteWithThresholds(id: string) {
   const db = await useDb()
-  const [site] = await db.select().from(sites).where(and(eq(sites.id, id), eq(sites.organisationId, user.organisationId)))
-  if (!site) throw createError({ statusCode: 404, message: 'No such site.' })
+  const [site] = await db.select().from(sites).where(eq(sites.id, id))
+  if (!site) return null
   const rows = await db.select().from(thresholds).where(eq(thresholds.siteId, id)).orderBy(asc(thresholds.position))
   return { ...site, thresholds: rows }
+}
+
+/** A site of the caller's organisation, or 404 (another organisation's site looks missing). */
+export async function loadSite(user: CurrentUser, id: string) {
+  const site = await siteWithThresholds(id)
+  if (!site || site.organisationId !== user.organisationId) throw createError({ statusCode: 404, message: 'No such site.' })
+  return site
 }
 
 function siteColumns(input: SiteInput) {
@@ -69,9 +75,11 @@ export async function updateSite(planner: CurrentUser, id: string, input: SiteIn
       landMotion: { before: [before.landMotionRate, before.landMotionSigma], after: [input.landMotion.rateMmPerYear, input.landMotion.sigmaMmPerYear] },
       thresholds: { before: before.thresholds.map(t => [t.label, t.height]), after: input.thresholds.map(t => [t.label, t.height]) },
     })
+    // Its outlooks are recomputed and its watchers told, in the background (server/services/background.ts).
+    await enqueueJob(tx, 'recompute-site', { siteId: id, cause: { en: `The land motion or thresholds of ${input.name} were updated.`, es: `Se actualizaron el movimiento del terreno o los umbrales de ${input.name}.` } })
     return site!
   })
-  notifySiteChange(id, { en: `The land motion or thresholds of ${input.name} were updated.`, es: `Se actualizaron el movimiento del terreno o los umbrales de ${input.name}.` })
+  kickJobs()
   return updated
 }
 

@@ -1,4 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { ApiClient } from '../support/client'
 import { ANALYST, PLANNER, PORT_PLANNER, READER, demoUser } from '../support/demo-users'
 import { startServer, type RunningServer } from '../support/server'
@@ -192,7 +192,7 @@ describe('outlooks', () => {
     expect(response.body.message).toMatch(/No published release for ocean-expansion, greenland, antarctica, land-water, regional-ocean, other under high-end-ice/)
   })
 
-  it('says when newer science is available, and a recompute uses it', async () => {
+  it('says when newer science is available, and recomputes the site with it in the background', async () => {
     const analyst = await as(ANALYST.email, ANALYST.password)
     const reviewer = await as(demoUser('reviewer@saltglass.example').email, demoUser('reviewer@saltglass.example').password)
     const [glaciers] = (await analyst.get('/api/releases?component=glaciers&scenario=SSP2-4.5&state=published')).body
@@ -202,10 +202,18 @@ describe('outlooks', () => {
 
     const stale = (await planner.get(`/api/outlooks/${outlookId}`)).body
     expect(stale.newerScience).toEqual([{ component: 'glaciers', usedVersion: 1, latestVersion: 2, latestReleaseId: next.body.id }])
-    const fresh = await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 7 })
-    expect(fresh.status).toBe(201)
-    expect(fresh.body.id).not.toBe(outlookId)
-    expect((await planner.get(`/api/outlooks/${fresh.body.id}`)).body.newerScience).toEqual([])
+    // The publication queued a recomputation of every site with an SSP2-4.5 outlook, same samples and seed.
+    const recomputed = await vi.waitFor(async () => {
+      const list = (await planner.get(`/api/sites/${siteId}/outlooks`)).body as Array<{ id: string, scenario: string, samples: number, seed: number, state: string }>
+      const row = list.find(o => o.id !== outlookId && o.scenario === 'SSP2-4.5' && o.samples === 20_000 && o.seed === 7 && o.state === 'done')
+      if (!row) throw new Error('not recomputed yet')
+      return row
+    }, { timeout: 20_000, interval: 100 })
+    expect((await planner.get(`/api/outlooks/${recomputed.id}`)).body.newerScience).toEqual([])
+    // Asking for it again finds the recomputed outlook in the store.
+    const again = await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 7 })
+    expect(again.status).toBe(200)
+    expect(again.body.id).toBe(recomputed.id)
   })
 
   it('answers at once with 202 when asked not to wait', async () => {

@@ -9,6 +9,8 @@ export const SERVER_ENTRY = resolve(ROOT, '.output/server/index.mjs')
 export interface RunningServer {
   url: string
   stop: () => Promise<void>
+  /** Resolves with the exit code (null when killed by a signal) once the process has ended. */
+  exited: Promise<number | null>
 }
 
 async function freePort(): Promise<number> {
@@ -43,6 +45,7 @@ export async function startServer(env: Record<string, string> = {}): Promise<Run
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   })
+  const exited = new Promise<number | null>(resolveExit => child.once('exit', code => resolveExit(code)))
   let output = ''
   child.stdout!.on('data', (chunk) => { output += chunk })
   child.stderr!.on('data', (chunk) => { output += chunk })
@@ -59,6 +62,7 @@ export async function startServer(env: Record<string, string> = {}): Promise<Run
 
   return {
     url,
+    exited,
     async stop() {
       if (child.exitCode !== null) return
       child.kill('SIGTERM')

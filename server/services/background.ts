@@ -1,0 +1,101 @@
+import { and, asc, eq, isNull, lt, lte, or, sql } from 'drizzle-orm'
+import { jobs } from '~~/server/db/schema'
+import { mailBriefingIssued, type Cause } from './notify'
+import { kickOutlooks } from './outlook-jobs'
+import { recomputeSite, startRecomputation, type JobOutcome, type RecomputeSitePayload } from './recompute'
+
+// Runs the durable jobs (server/utils/jobs.ts) on any app instance: claimed one at a time under a
+// lease with SKIP LOCKED, so each runs once however many instances share the database. A job that
+// throws is retried with backoff; one whose instance died is taken over when its lease runs out.
+
+export const MAX_JOB_ATTEMPTS = 5
+/** How soon a job waiting for outlooks looks again. */
+const WAIT_POLL_MS = 500
+
+const HANDLERS: Record<JobKind, (payload: Record<string, unknown>) => Promise<JobOutcome>> = {
+  'science-change': async (payload) => {
+    const db = await useDb()
+    const { scenario, cause, requestedBy } = payload as { scenario: string | null, cause: Cause, requestedBy?: string }
+    await db.transaction(tx => startRecomputation(tx, { scenario, cause, requestedBy: requestedBy ?? null }))
+    return { state: 'done' }
+  },
+  'recompute-site': payload => recomputeSite(payload as unknown as RecomputeSitePayload),
+  'briefing-issued': async (payload) => {
+    await mailBriefingIssued(payload.briefingId as string)
+    return { state: 'done' }
+  },
+}
+
+async function claimJob() {
+  const db = await useDb()
+  const now = new Date()
+  return db.transaction(async (tx) => {
+    const [due] = await tx.select({ id: jobs.id }).from(jobs)
+      .where(or(
+        and(eq(jobs.state, 'queued'), lte(jobs.runAfter, now)),
+        and(eq(jobs.state, 'running'), or(isNull(jobs.leaseUntil), lt(jobs.leaseUntil, now))),
+      ))
+      .orderBy(asc(jobs.runAfter)).limit(1).for('update', { skipLocked: true })
+    if (!due) return null
+    const [claimed] = await tx.update(jobs).set({ state: 'running', claimedBy: INSTANCE_ID, leaseUntil: new Date(now.getTime() + jobLeaseMs()) })
+      .where(eq(jobs.id, due.id)).returning()
+    return claimed ?? null
+  })
+}
+
+type Job = NonNullable<Awaited<ReturnType<typeof claimJob>>>
+const stillMine = (id: string) => and(eq(jobs.id, id), eq(jobs.state, 'running'), eq(jobs.claimedBy, INSTANCE_ID))
+
+async function runJob(job: Job) {
+  const db = await useDb()
+  try {
+    const outcome = await HANDLERS[job.kind as JobKind](job.payload)
+    if (outcome.state === 'done') {
+      await db.update(jobs).set({ state: 'done', finishedAt: new Date(), leaseUntil: null, error: null }).where(stillMine(job.id))
+    }
+    else {
+      await db.update(jobs).set({ state: 'queued', payload: outcome.payload, runAfter: new Date(Date.now() + WAIT_POLL_MS), leaseUntil: null }).where(stillMine(job.id))
+    }
+  }
+  catch (error) {
+    console.error(`[brinkwater] ${job.kind} job failed:`, error)
+    const attempts = job.attempts + 1
+    await db.update(jobs).set({
+      attempts, error: error instanceof Error ? error.message : String(error), leaseUntil: null,
+      state: attempts >= MAX_JOB_ATTEMPTS ? 'failed' : 'queued', runAfter: new Date(Date.now() + 1000 * 2 ** attempts),
+      ...(attempts >= MAX_JOB_ATTEMPTS ? { finishedAt: new Date() } : {}),
+    }).where(stillMine(job.id))
+  }
+}
+
+let running: Promise<void> | null = null
+let again = false
+
+/** Runs what is due now, then looks for due outlooks; calls made during a pass fold into one more. */
+export function kickBackgroundWork(): Promise<void> {
+  kickOutlooks()
+  if (running) {
+    again = true
+    return running
+  }
+  running = (async () => {
+    for (let job = await claimJob(); job; job = await claimJob()) {
+      await runJob(job)
+      kickOutlooks()
+    }
+  })().catch(error => console.error('[brinkwater] job pass failed:', error)).finally(() => {
+    running = null
+    if (again) {
+      again = false
+      kickBackgroundWork()
+    }
+  })
+  return running
+}
+
+/** Jobs queued and not yet finished, for the health check. */
+export async function pendingJobCount() {
+  const db = await useDb()
+  const [row] = await db.select({ count: sql<number>`count(*)::int` }).from(jobs).where(or(eq(jobs.state, 'queued'), eq(jobs.state, 'running')))
+  return row?.count ?? 0
+}

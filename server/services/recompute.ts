@@ -1,0 +1,71 @@
+import { and, eq, inArray } from 'drizzle-orm'
+import { jobs, outlooks, recomputations } from '~~/server/db/schema'
+import type { Database } from '~~/server/db/client'
+import { latestOutlooks, mailWhatChanged, type Cause, type Comparison } from './notify'
+import { queueOutlook } from './outlooks'
+import { siteWithThresholds } from './sites'
+
+// When the science or a site changes, every site with an outlook it affects gets that outlook
+// computed again with the same samples and seed, and the people watching the site are told what
+// changed. A change in the science is one recomputation (a batch the admin page follows) with a
+// job per site; the outlooks themselves are computed by whichever instance claims them.
+
+type Tx = Parameters<Parameters<Database['transaction']>[0]>[0]
+
+export interface RecomputeSitePayload {
+  siteId: string
+  /** Only these scenarios' outlooks; all of the site's when absent. */
+  scenarios?: string[]
+  cause: Cause
+  /** Filled by the job's first pass: each latest outlook and the outlook queued to replace it. */
+  pairs?: Array<{ before: string, after: string }>
+}
+
+/** Queues one recompute-site job per site that has a finished outlook of the scenario (null: any). */
+export async function startRecomputation(tx: Tx, options: { scenario: string | null, cause: Cause, requestedBy: string | null }) {
+  const siteIds = (await tx.selectDistinct({ siteId: outlooks.siteId }).from(outlooks)
+    .where(options.scenario ? and(eq(outlooks.state, 'done'), eq(outlooks.scenario, options.scenario)) : eq(outlooks.state, 'done')))
+    .map(row => row.siteId)
+  const [batch] = await tx.insert(recomputations).values({ scenario: options.scenario, cause: options.cause, requestedBy: options.requestedBy, siteCount: siteIds.length })
+    .returning({ id: recomputations.id })
+  if (siteIds.length) {
+    await tx.insert(jobs).values(siteIds.map(siteId => ({
+      kind: 'recompute-site', recomputationId: batch!.id,
+      payload: { siteId, cause: options.cause, ...(options.scenario ? { scenarios: [options.scenario] } : {}) } satisfies RecomputeSitePayload,
+    })))
+  }
+  return batch!.id
+}
+
+export type JobOutcome = { state: 'done' } | { state: 'waiting', payload: Record<string, unknown> }
+
+/**
+ * First pass: queue a new outlook for each of the site's latest ones (a science change that does
+ * not touch an outlook's inputs finds the stored one and changes nothing). Later passes wait until
+ * those are computed, then mail the watchers once.
+ */
+export async function recomputeSite(payload: RecomputeSitePayload): Promise<JobOutcome> {
+  if (!payload.pairs) {
+    const site = await siteWithThresholds(payload.siteId)
+    if (!site) return { state: 'done' }
+    const pairs: RecomputeSitePayload['pairs'] = []
+    for (const before of await latestOutlooks(payload.siteId)) {
+      if (payload.scenarios && !payload.scenarios.includes(before.scenario)) continue
+      // A scenario left incomplete by a withdrawal cannot be computed: its outlook stays as it was.
+      const queued = await queueOutlook(site, before, null).catch(() => null)
+      if (queued && queued.id !== before.id) pairs.push({ before: before.id, after: queued.id })
+    }
+    return pairs.length ? { state: 'waiting', payload: { ...payload, pairs } } : { state: 'done' }
+  }
+  const ids = payload.pairs.flatMap(pair => [pair.before, pair.after])
+  const db = await useDb()
+  const rows = new Map((await db.select().from(outlooks).where(inArray(outlooks.id, ids))).map(row => [row.id, row]))
+  if (payload.pairs.some(pair => rows.get(pair.after)?.state === 'running')) return { state: 'waiting', payload: { ...payload } }
+  const comparisons: Comparison[] = payload.pairs.flatMap(({ before, after }) => {
+    const old = rows.get(before)
+    const now = rows.get(after)
+    return old && now?.state === 'done' ? [{ scenario: now.scenario, before: old, after: now }] : []
+  })
+  await mailWhatChanged(payload.siteId, payload.cause, comparisons)
+  return { state: 'done' }
+}

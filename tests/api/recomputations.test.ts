@@ -1,0 +1,99 @@
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
+import { ApiClient } from '../support/client'
+import { ADMIN, ANALYST, PLANNER, demoUser } from '../support/demo-users'
+import { startServer, type RunningServer } from '../support/server'
+
+// New science queues a recomputation of every site with an outlook of its scenario: one durable
+// job per site, outlooks computed by whichever instance claims them, progress visible to admins.
+
+const REVIEWER = demoUser('reviewer@saltglass.example')
+let server: RunningServer
+let admin: ApiClient
+let planner: ApiClient
+
+async function as(email: string, password: string) {
+  const api = new ApiClient(server.url)
+  await api.signIn(email, password)
+  return api
+}
+
+interface Recomputation { id: string, scenario: string | null, siteCount: number, done: number, failed: number, pending: number, finishedAt: string | null, cause: Record<string, string> }
+
+/** Polls the admin list until the recomputation has finished. */
+function finished(id: string) {
+  return vi.waitFor(async () => {
+    const row = ((await admin.get('/api/admin/recomputations')).body.recomputations as Recomputation[]).find(r => r.id === id)
+    if (!row?.finishedAt) throw new Error('still running')
+    return row
+  }, { timeout: 30_000, interval: 100 })
+}
+
+beforeAll(async () => {
+  server = await startServer({ JOBS_POLL_MS: '100' })
+  admin = await as(ADMIN.email, ADMIN.password)
+  planner = await as(PLANNER.email, PLANNER.password)
+})
+afterAll(async () => { await server?.stop() })
+
+describe('recomputations', () => {
+  let siteIds: string[]
+
+  beforeAll(async () => {
+    siteIds = ((await planner.get('/api/sites')).body as Array<{ id: string }>).slice(0, 3).map(site => site.id)
+    for (const id of siteIds) {
+      const outlook = await planner.post(`/api/sites/${id}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 3 })
+      expect(outlook.status).toBe(201)
+    }
+  })
+
+  it('recomputes every site with an outlook of the scenario after a publication, and shows the progress to admins', async () => {
+    const analyst = await as(ANALYST.email, ANALYST.password)
+    const reviewer = await as(REVIEWER.email, REVIEWER.password)
+    const [glaciers] = (await analyst.get('/api/releases?component=glaciers&scenario=SSP2-4.5&state=published')).body
+    const next = await analyst.post('/api/releases', { seriesId: glaciers.seriesId, form: 'normal', baselineYear: 2020, anchorYears: [2050, 2100, 2150], mean: [0.07, 0.13, 0.18], sd: [0.01, 0.03, 0.04], method: 'm', citation: 'c', licence: 'l' })
+    await analyst.post(`/api/releases/${next.body.id}/submit`)
+    expect((await reviewer.post(`/api/releases/${next.body.id}/approve`)).status).toBe(200)
+
+    const batch = await vi.waitFor(async () => {
+      const list = (await admin.get('/api/admin/recomputations')).body.recomputations as Recomputation[]
+      const row = list.find(r => r.scenario === 'SSP2-4.5')
+      if (!row) throw new Error('not queued yet')
+      return row
+    }, { timeout: 10_000, interval: 100 })
+    expect(batch.siteCount).toBe(siteIds.length)
+    expect(batch.cause.en).toMatch(/A new release for .* \(version 2, SSP2-4\.5\) changes the outlook/)
+
+    const done = await finished(batch.id)
+    expect(done).toMatchObject({ done: siteIds.length, failed: 0, pending: 0 })
+    for (const id of siteIds) {
+      const outlooks = (await planner.get(`/api/sites/${id}/outlooks`)).body as Array<{ id: string, state: string, seed: number }>
+      // The old outlook is kept, and exactly one new one was computed with the same seed.
+      expect(outlooks.filter(o => o.seed === 3).map(o => o.state)).toEqual(['done', 'done'])
+      const latest = (await planner.get(`/api/outlooks/${outlooks[0]!.id}`)).body
+      expect(latest.releaseRefs.find((r: { component: string }) => r.component === 'glaciers').version).toBe(2)
+      expect(latest.newerScience).toEqual([])
+      expect(latest).not.toHaveProperty('claimedBy')
+    }
+  })
+
+  it('lets an admin recompute a scenario, leaving outlooks whose inputs have not changed alone', async () => {
+    const started = await admin.post('/api/admin/recomputations', { scenario: 'SSP2-4.5' })
+    expect(started.status).toBe(202)
+    const done = await finished(started.body.id)
+    expect(done).toMatchObject({ siteCount: siteIds.length, done: siteIds.length, failed: 0 })
+    for (const id of siteIds) {
+      expect(((await planner.get(`/api/sites/${id}/outlooks`)).body as unknown[]).length).toBe(2)
+    }
+    const audit = (await admin.get('/api/admin/audit')).body as Array<{ action: string, targetId: string }>
+    expect(audit.find(entry => entry.action === 'recomputation.started')?.targetId).toBe(started.body.id)
+  })
+
+  it('refuses an unknown scenario with a message naming it, and refuses everyone but admins', async () => {
+    const wrong = await admin.post('/api/admin/recomputations', { scenario: 'SSP9-9.9' })
+    expect(wrong.status).toBe(400)
+    expect(wrong.body.message).toMatch(/no scenario called SSP9-9\.9/)
+    expect((await planner.get('/api/admin/recomputations')).status).toBe(403)
+    expect((await planner.post('/api/admin/recomputations', { scenario: null })).status).toBe(403)
+    expect((await new ApiClient(server.url).get('/api/admin/recomputations')).status).toBe(401)
+  })
+})
