@@ -29,6 +29,8 @@ export interface SiteRecord {
   gumbelScale: number | null
   gumbelSource: string | null
   thresholds: { label: string, height: number, designLifeYears: number | null }[]
+  /** The version the form was opened on, sent back as If-Match so a save never overwrites a newer one. */
+  updatedAt: string
 }
 
 const inUnit = (metres: number, unit: HeightUnit) => Math.round(fromMetres(metres, unit) * 1000) / 1000

@@ -65,10 +65,15 @@ export async function createSite(planner: CurrentUser, input: SiteInput) {
   })
 }
 
-export async function updateSite(planner: CurrentUser, id: string, input: SiteInput) {
+export async function updateSite(planner: CurrentUser, id: string, input: SiteInput, expectedVersion?: string) {
   const before = await loadSite(planner, id)
   const db = await useDb()
   const updated = await db.transaction(async (tx) => {
+    // The row lock makes check-then-write one step: of two saves from the same version, one wins.
+    const [current] = await tx.select({ updatedAt: sites.updatedAt }).from(sites).where(eq(sites.id, id)).for('update')
+    if (expectedVersion && current!.updatedAt.toISOString() !== new Date(expectedVersion).toISOString()) {
+      throw createError({ statusCode: 412, message: 'Someone saved changes to this site after you opened it. Reload the page to see them, then make your changes again.' })
+    }
     const [site] = await tx.update(sites).set({ ...siteColumns(input), updatedAt: new Date() }).where(eq(sites.id, id)).returning()
     await replaceThresholds(tx, id, input.thresholds)
     await writeAudit(tx, planner, 'site.updated', { type: 'site', id }, {

@@ -81,6 +81,26 @@ describe('sites', () => {
   })
 })
 
+describe('two people editing one site', () => {
+  it('refuses the later save made from an older version (412), keeping the first', async () => {
+    const id = (await planner.post('/api/sites', site({ name: 'Shared Point' }))).body.id
+    const opened = (await planner.get(`/api/sites/${id}`)).body.updatedAt as string
+    const colleague = await as(PLANNER.email, PLANNER.password)
+    const first = await colleague.request('PATCH', `/api/sites/${id}`, site({ name: 'Shared Point (colleague)' }), { headers: { 'if-match': `"${opened}"` } })
+    expect(first.status).toBe(200)
+    const second = await planner.request('PATCH', `/api/sites/${id}`, site({ name: 'Shared Point (mine)' }), { headers: { 'if-match': `"${opened}"` } })
+    expect(second.status).toBe(412)
+    expect(second.body.message).toMatch(/Someone saved changes to this site after you opened it\. Reload/)
+    expect((await planner.get(`/api/sites/${id}`)).body.name).toBe('Shared Point (colleague)')
+    // From the current version the save goes through.
+    const current = (await planner.get(`/api/sites/${id}`)).body.updatedAt as string
+    expect((await planner.request('PATCH', `/api/sites/${id}`, site({ name: 'Shared Point (mine)' }), { headers: { 'if-match': `"${current}"` } })).status).toBe(200)
+    const garbled = await planner.request('PATCH', `/api/sites/${id}`, site(), { headers: { 'if-match': '"yesterday"' } })
+    expect(garbled.status).toBe(400)
+    expect(garbled.body.message).toMatch(/If-Match must be the site's updatedAt/)
+  })
+})
+
 describe('annual maxima', () => {
   it('fits a Gumbel by L-moments from a CSV of annual maxima and stores it on the site', async () => {
     const id = (await planner.post('/api/sites', site({ name: 'Maxima Point' }))).body.id
