@@ -15,7 +15,7 @@ export const ThresholdSchema = z.object({
   label: z.string({ error: 'Name the threshold, like "Harbour wall crest".' }).trim()
     .min(1, { error: 'Name the threshold, like "Harbour wall crest".' }).max(120, { error: 'Use at most 120 characters.' }),
   height: number('height', -5, 20, 'm'),
-  designLifeYears: z.number().int({ error: 'Enter whole years.' }).min(1, { error: 'A design life is at least 1 year.' })
+  designLifeYears: z.number({ error: 'Enter the design life in whole years, or leave it empty.' }).int({ error: 'Enter whole years.' }).min(1, { error: 'A design life is at least 1 year.' })
     .max(200, { error: 'A design life is at most 200 years.' }).nullable().optional(),
 })
 
@@ -36,7 +36,7 @@ export const SiteSchema = z.object({
     epoch: z.number({ error: 'Enter the reference year of the estimate.' }).int({ error: 'Enter a whole year.' })
       .min(1900, { error: 'The epoch must be 1900 or later.' }).max(2100, { error: 'The epoch must be 2100 or earlier.' }),
   }, { error: 'Enter the land motion.' }),
-  thresholds: z.array(ThresholdSchema).max(MAX_THRESHOLDS, { error: `At most ${MAX_THRESHOLDS} thresholds per site.` }).default([]),
+  thresholds: z.array(ThresholdSchema, { error: 'Send the thresholds as a list of { label, height }.' }).max(MAX_THRESHOLDS, { error: `At most ${MAX_THRESHOLDS} thresholds per site.` }).default([]),
   gumbel: z.object({
     location: number('Gumbel location', -10, 20, 'm'),
     scale: z.number({ error: 'Enter the Gumbel scale as a number.' }).positive({ error: 'The Gumbel scale must be above 0 m.' }).max(5, { error: 'The Gumbel scale must be at most 5 m.' }),
