@@ -61,9 +61,9 @@ const REFUSALS: Array<[string, Hostile]> = [
   ['a lone low surrogate in a threshold label', { as: 'planner', method: 'POST', path: '/api/sites', raw: JSON.stringify(site()).replace('"label":"Quay"', '"label":"\\udc00Quay"'), status: 400, message: /^thresholds\.0\.label: The text has a broken character/ }],
   ['a NUL byte in a field name', { as: 'planner', method: 'POST', path: '/api/sites', raw: JSON.stringify(site()).replace('"name"', '"na\\u0000me"'), status: 400, message: /A field name: Remove the NUL character/ }],
   ['a NUL byte inside an uploaded CSV', { as: 'analyst', method: 'POST', path: '/api/releases', body: quantiles(withCell('0.2\u0000')), status: 400, message: /^csv: Remove the NUL character/ }],
-  ['a NUL byte in a briefing title', { as: 'planner', method: 'POST', path: '/api/briefings', body: c => ({ outlookId: c.outlookId, title: 'Kelwick\u0000', thresholdIds: c.thresholdIds, years: [2050] }), status: 400, message: /^title: Remove the NUL character/ }],
+  ['a NUL byte in a briefing title', { as: 'planner', method: 'POST', path: '/api/briefings', body: (c: Ctx) => ({ outlookId: c.outlookId, title: 'Kelwick\u0000', thresholdIds: c.thresholdIds, years: [2050] }), status: 400, message: /^title: Remove the NUL character/ }],
   ['a 10,000-character site name', { as: 'planner', method: 'POST', path: '/api/sites', body: site({ name: 'W'.repeat(10_000) }), status: 400, message: /^name: Use at most 120 characters/ }],
-  ['4,001 emoji in the local context', { as: 'planner', method: 'POST', path: '/api/briefings', body: c => ({ outlookId: c.outlookId, title: 'Long', localContext: '🌊'.repeat(4_001), thresholdIds: c.thresholdIds, years: [2050] }), status: 400, message: /^localContext: Use at most 4000 characters/ }],
+  ['4,001 emoji in the local context', { as: 'planner', method: 'POST', path: '/api/briefings', body: (c: Ctx) => ({ outlookId: c.outlookId, title: 'Long', localContext: '🌊'.repeat(4_001), thresholdIds: c.thresholdIds, years: [2050] }), status: 400, message: /^localContext: Use at most 4000 characters/ }],
 
   // Numbers that are not numbers, or not sensible ones.
   ['a latitude sent as a string', { as: 'planner', method: 'POST', path: '/api/sites', body: site({ latitude: '48.1' }), status: 400, message: /^latitude: Enter the latitude as a number/ }],
@@ -76,19 +76,19 @@ const REFUSALS: Array<[string, Hostile]> = [
   ['a negative number of samples', { as: 'planner', method: 'POST', path: c => `/api/sites/${c.targetSiteId}/outlooks`, body: { scenario: 'SSP2-4.5', samples: -5 }, status: 400, message: /^samples: Use at least 1,000 samples/ }],
   ['a fractional number of samples', { as: 'planner', method: 'POST', path: c => `/api/sites/${c.targetSiteId}/outlooks`, body: { scenario: 'SSP2-4.5', samples: 1000.5 }, status: 400, message: /^samples: Enter a whole number of samples/ }],
   ['a seed above 2^53', { as: 'planner', method: 'POST', path: c => `/api/sites/${c.targetSiteId}/outlooks`, body: { scenario: 'SSP2-4.5', seed: 2 ** 53 + 2 }, status: 400, message: /^seed: .*The seed must be below 2,147,483,648/ }],
-  ['briefing years as strings', { as: 'planner', method: 'POST', path: '/api/briefings', body: c => ({ outlookId: c.outlookId, title: 'Years', thresholdIds: c.thresholdIds, years: ['2050'] }), status: 400, message: /^years\.0: Choose whole years from the outlook/ }],
+  ['briefing years as strings', { as: 'planner', method: 'POST', path: '/api/briefings', body: (c: Ctx) => ({ outlookId: c.outlookId, title: 'Years', thresholdIds: c.thresholdIds, years: ['2050'] }), status: 400, message: /^years\.0: Choose whole years from the outlook/ }],
 
   // Shapes that are not what the form sends.
   ['thresholds as an object', { as: 'planner', method: 'POST', path: '/api/sites', body: site({ thresholds: { label: 'Quay', height: 1 } }), status: 400, message: /^thresholds: Send the thresholds as a list/ }],
   ['land motion as an array', { as: 'planner', method: 'POST', path: '/api/sites', body: site({ landMotion: [-2, 0.5] }), status: 400, message: /^landMotion: Enter the land motion/ }],
   ['13 thresholds', { as: 'planner', method: 'POST', path: '/api/sites', body: site({ thresholds: Array.from({ length: 13 }, (_, i) => ({ label: `T${i}`, height: 1 })) }), status: 400, message: /^thresholds: At most 12 thresholds per site/ }],
-  ['a role that does not exist', { as: 'admin', method: 'POST', path: '/api/admin/users', body: c => ({ email: 'root@hostile.example', name: 'Root', role: 'superadmin', organisationId: c.portId, password: 'Hostile-harbour-gauge-9' }), status: 400, message: /^role: Choose one of: / }],
+  ['a role that does not exist', { as: 'admin', method: 'POST', path: '/api/admin/users', body: (c: Ctx) => ({ email: 'root@hostile.example', name: 'Root', role: 'superadmin', organisationId: c.portId, password: 'Hostile-harbour-gauge-9' }), status: 400, message: /^role: Choose one of: / }],
   ['disabled sent as the string "false"', { as: 'admin', method: 'PATCH', path: '/api/admin/users/00000000-0000-4000-8000-000000000000', body: { disabled: 'false' }, status: 400, message: /^disabled: disabled must be true or false/ }],
   ['an unknown locale', { as: 'reader', method: 'PATCH', path: '/api/me', body: { locale: 'xx' }, status: 400, message: /^locale: Choose one of: en, es/ }],
 
   // Addresses that try to add mail headers.
   ['a reset address carrying a Bcc header', { as: 'anonymous', method: 'POST', path: '/api/account/password-reset', body: { email: 'a@hostile.example\r\nBcc: everyone@hostile.example' }, status: 400, message: /^email: Enter a valid e-mail address/ }],
-  ['a watch address with a newline', { as: 'planner', method: 'POST', path: '/api/watches', body: c => ({ email: 'a@hostile.example\nSubject: hi', siteId: c.targetSiteId }), status: 400, message: /^email: Enter a valid e-mail address/ }],
+  ['a watch address with a newline', { as: 'planner', method: 'POST', path: '/api/watches', body: (c: Ctx) => ({ email: 'a@hostile.example\nSubject: hi', siteId: c.targetSiteId }), status: 400, message: /^email: Enter a valid e-mail address/ }],
   ['a sign-in address sent as an array', { as: 'anonymous', method: 'POST', path: '/api/auth/sign-in', body: { email: ['admin@caldwyn.example'], password: 'x' }, status: 400, message: /^email: Enter an e-mail address/ }],
 
   // Ids and parameters that are paths, SQL or not ids at all.
