@@ -1,5 +1,6 @@
 import { execFileSync } from 'node:child_process'
 import { mkdtempSync, writeFileSync } from 'node:fs'
+import { get as httpGet } from 'node:http'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -15,7 +16,7 @@ import { TestSmtp, isTo } from '../support/smtp'
 // thing to type (markup, SQL, unusual Unicode) is stored as typed and always shown escaped.
 
 type As = 'anonymous' | 'reader' | 'planner' | 'analyst' | 'admin'
-interface Ctx { targetSiteId: string, draftReleaseId: string, outlookId: string, thresholdIds: string[], portId: string }
+interface Ctx { briefingId: string, targetSiteId: string, draftReleaseId: string, outlookId: string, thresholdIds: string[], portId: string }
 type Value<T> = T | ((c: Ctx) => T)
 interface Hostile {
   as: As
@@ -39,6 +40,23 @@ const withCell = (cell: string) => `level,2100\n0.17,0.1\n0.5,${cell}\n0.83,0.4\
 const site = (overrides: Record<string, unknown> = {}) => ({ ...SITE_BODY('Hostile Point'), ...overrides })
 const land = (overrides: Record<string, unknown>) => site({ landMotion: { rateMmPerYear: -2, sigmaMmPerYear: 0.5, source: 'gps', epoch: 2020, ...overrides } })
 const nested = (depth: number) => `{"name":"Deep","thresholds":${'['.repeat(depth)}${']'.repeat(depth)}}`
+/** The text poppler reads from a PDF. */
+function pdfText(pdf: Buffer): string {
+  const file = join(mkdtempSync(join(tmpdir(), 'bw-hostile-')), 'briefing.pdf')
+  writeFileSync(file, pdf)
+  return execFileSync('pdftotext', ['-layout', file, '-'], { encoding: 'utf8' })
+}
+
+/** A GET with a forged Host header (fetch does not let a caller set Host). */
+function getWithHost(url: string, host: string): Promise<{ status: number, body: Buffer }> {
+  return new Promise((done, fail) => {
+    httpGet(url, { headers: { host } }, (response) => {
+      const chunks: Buffer[] = []
+      response.on('data', (chunk: Buffer) => chunks.push(chunk)).on('end', () => done({ status: response.statusCode ?? 0, body: Buffer.concat(chunks) }))
+    }).on('error', fail)
+  })
+}
+
 const resolve = <T>(value: Value<T>, c: Ctx): T => (typeof value === 'function' ? (value as (c: Ctx) => T)(c) : value)
 
 const REFUSALS: Array<[string, Hostile]> = [
@@ -102,6 +120,7 @@ const REFUSALS: Array<[string, Hostile]> = [
   ['a site filter of 1 OR 1=1', { as: 'planner', method: 'GET', path: '/api/briefings?siteId=1%20OR%201%3D1', status: 400, message: /^siteId: siteId must be a site id/ }],
   ['a component filter with markup', { as: 'anonymous', method: 'GET', path: `/api/releases?component=${encodeURIComponent(SCRIPT)}`, status: 400, message: /^component: Choose one of: / }],
   ['a scenario filter with SQL', { as: 'anonymous', method: 'GET', path: `/api/releases?scenario=${encodeURIComponent("' OR 1=1 --")}`, status: 400, message: /^scenario: Use 2–40 letters/ }],
+  ['a PDF paper size of <script>', { as: 'planner', method: 'GET', path: (c: Ctx) => `/api/briefings/${c.briefingId}/pdf?paper=${encodeURIComponent(SCRIPT)}`, status: 400, message: /^paper: paper must be a4 or letter/ }],
   ['an audit limit of abc', { as: 'admin', method: 'GET', path: '/api/admin/audit?limit=abc', status: 400, message: /^limit: Use a whole number from 1 to 500/ }],
   ['an audit limit of 1e9', { as: 'admin', method: 'GET', path: '/api/admin/audit?limit=1e9', status: 400, message: /^limit: Use a whole number from 1 to 500/ }],
   ['an unsubscribe token given twice', { as: 'anonymous', method: 'POST', path: `/api/watches/unsubscribe?token=${'a'.repeat(32)}&token=${'b'.repeat(32)}`, status: 400, message: /^token: / }],
@@ -152,6 +171,7 @@ beforeAll(async () => {
   ctx.targetSiteId = (await planner.post('/api/sites', SITE_BODY('Hostile target'))).body.id
   ctx.thresholdIds = (await planner.get(`/api/sites/${ctx.targetSiteId}`)).body.thresholds.map((t: { id: string }) => t.id)
   ctx.outlookId = (await planner.post(`/api/sites/${ctx.targetSiteId}/outlooks`, OUTLOOK_REQUEST)).body.id
+  ctx.briefingId = (await planner.post('/api/briefings', { outlookId: ctx.outlookId, title: 'Hostile target', thresholdIds: ctx.thresholdIds, years: [2050] })).body.id
   ctx.draftReleaseId = (await analyst.post('/api/releases', { ...quantiles(withCell('0.2')), series: { component: 'other', scenario: 'SSP2-4.5', title: 'Hostile draft' } })).body.id
   ctx.portId = (await admin.get('/api/organisations')).body.find((o: { kind: string }) => o.kind === 'port').id
 })
@@ -251,9 +271,7 @@ describe('hostile text a person may fairly type is kept as typed and shown escap
     it('the briefing PDF prints the names as plain text', async () => {
       const response = await clients.planner.fetchRaw(`/api/briefings/${briefingId}/pdf`)
       expect(response.status).toBe(200)
-      const file = join(mkdtempSync(join(tmpdir(), 'bw-hostile-')), 'briefing.pdf')
-      writeFileSync(file, Buffer.from(await response.arrayBuffer()))
-      const text = execFileSync('pdftotext', ['-layout', file, '-'], { encoding: 'utf8' })
+      const text = pdfText(Buffer.from(await response.arrayBuffer()))
       expect(text).toContain(IMG)
       expect(text).toContain(SCRIPT)
     })
@@ -265,6 +283,17 @@ describe('hostile text a person may fairly type is kept as typed and shown escap
       expect(mail.html).toContain('&lt;img src=x onerror=alert(1)&gt;')
       expect(mail.html).not.toContain(IMG)
       expect(mail.text).toContain(IMG)
+    })
+
+    it('a forged Host header does not put its own link into the shared PDF', async () => {
+      const { planner } = clients
+      expect((await planner.post(`/api/briefings/${briefingId}/issue`)).status).toBe(200)
+      const { shareToken } = (await planner.post(`/api/briefings/${briefingId}/share`)).body
+      const pdf = await getWithHost(`${server.url}/api/shared/${shareToken}/pdf`, 'forged.example')
+      expect(pdf.status).toBe(200)
+      const text = pdfText(pdf.body)
+      expect(text).not.toContain('forged.example')
+      expect(text).toContain(`${server.url}/shared/${shareToken}`)
     })
   })
 
