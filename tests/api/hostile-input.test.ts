@@ -248,23 +248,36 @@ describe('hostile text a person may fairly type is kept as typed and shown escap
 
   describe('markup in names comes back escaped in the page, the PDF and the e-mail', () => {
     let siteId: string
+    let outlookId: string
     let briefingId: string
+    let shareToken: string
+    let releaseId: string
 
     beforeAll(async () => {
-      const { planner } = clients
+      const { planner, analyst } = clients
       siteId = (await planner.post('/api/sites', site({ name: IMG, thresholds: [{ label: SCRIPT, height: 0.5 }] }))).body.id
       const thresholdIds = (await planner.get(`/api/sites/${siteId}`)).body.thresholds.map((t: { id: string }) => t.id)
-      const outlookId = (await planner.post(`/api/sites/${siteId}/outlooks`, OUTLOOK_REQUEST)).body.id
-      const briefing = await planner.post('/api/briefings', { outlookId, title: IMG, localContext: SCRIPT, thresholdIds, years: [2050, 2100] })
-      expect(briefing.status).toBe(201)
-      briefingId = briefing.body.id
+      outlookId = (await planner.post(`/api/sites/${siteId}/outlooks`, OUTLOOK_REQUEST)).body.id
+      const briefing = { outlookId, title: IMG, localContext: SCRIPT, audience: IMG, thresholdIds, years: [2050, 2100] }
+      const draft = await planner.post('/api/briefings', briefing)
+      expect(draft.status).toBe(201)
+      briefingId = draft.body.id
+      const shared = (await planner.post('/api/briefings', briefing)).body.id
+      expect((await planner.post(`/api/briefings/${shared}/issue`)).status).toBe(200)
+      shareToken = (await planner.post(`/api/briefings/${shared}/share`)).body.shareToken
+      const release = await analyst.post('/api/releases', { ...quantiles(withCell('0.2')), series: { component: 'antarctica', scenario: 'SSP2-4.5', title: IMG }, method: SCRIPT, citation: IMG })
+      expect(release.status).toBe(201)
+      releaseId = release.body.id
     })
 
     it.each([
-      ['the site page', () => `/sites/${siteId}`],
-      ['the briefing page', () => `/briefings/${briefingId}`],
-    ])('%s renders the names as text, never as markup', async (_name, path) => {
-      const response = await clients.planner.fetchRaw(path())
+      ['the site page', 'planner', () => `/sites/${siteId}`],
+      ['the outlook page', 'planner', () => `/sites/${siteId}/outlooks/${outlookId}`],
+      ['the briefing page', 'planner', () => `/briefings/${briefingId}`],
+      ['the shared briefing page, signed out', 'anonymous', () => `/shared/${shareToken}`],
+      ['the release page', 'analyst', () => `/library/releases/${releaseId}`],
+    ] as const)('%s renders the names as text, never as markup', async (_name, as, path) => {
+      const response = await clients[as].fetchRaw(path())
       expect(response.status).toBe(200)
       const html = await response.text()
       expect(html).toContain('&lt;img src=x onerror=alert(1)&gt;')
@@ -290,9 +303,6 @@ describe('hostile text a person may fairly type is kept as typed and shown escap
     })
 
     it('a forged Host header does not put its own link into the shared PDF', async () => {
-      const { planner } = clients
-      expect((await planner.post(`/api/briefings/${briefingId}/issue`)).status).toBe(200)
-      const { shareToken } = (await planner.post(`/api/briefings/${briefingId}/share`)).body
       const pdf = await getWithHost(`${server.url}/api/shared/${shareToken}/pdf`, 'forged.example')
       expect(pdf.status).toBe(200)
       const text = pdfText(pdf.body)
