@@ -227,6 +227,29 @@ describe('authorisation matrix', () => {
     }
   })
 
+  // The pages read the same API on the server; their HTML (and its payload) must not carry the record
+  // either. The role that may open such a page gets 404; another role may get 403 from the page's role check.
+  type ForeignPage = [name: string, opener: 'planner' | 'analyst', path: (f: MatrixFixtures['foreign']) => string]
+  it.each<ForeignPage>([
+    ['site', 'planner', f => `/sites/${f.siteId}`],
+    ['outlook', 'planner', f => `/sites/${f.siteId}/outlooks/${f.outlookId}`],
+    ['briefing', 'planner', f => `/briefings/${f.briefingIssued}`],
+    ['draft briefing editor', 'planner', f => `/briefings/${f.briefingDraft}/edit`],
+    ['release draft', 'analyst', f => `/library/releases/${f.releaseDraft}`],
+    ['series', 'analyst', f => `/library/series/${f.releaseSeries}`],
+    ['correlation set draft', 'analyst', f => `/library/correlation-sets/${f.correlationDraft}`],
+    ['grid draft', 'analyst', f => `/library/scale-factor-grids/${f.gridDraft}`],
+  ])('the page of another organisation\'s %s is not found for the %s and shows nobody any of it', async (_name, opener, path) => {
+    const url = path(fx.foreign)
+    for (const persona of ['planner', 'analyst'] as const) {
+      const response = await fx.clients[persona].fetchRaw(url)
+      if (persona === opener) expect(response.status, `${persona} ${url}`).toBe(404)
+      else expect([403, 404], `${persona} ${url}`).toContain(response.status)
+      const shown = (await response.text()).replaceAll(url, '')
+      for (const secret of secrets) expect(shown.includes(secret), `${persona} ${url} carries ${secret}`).toBe(false)
+    }
+  })
+
   it('left every record of the other organisations as it was', async () => {
     expect(await foreignSnapshot(fx)).toEqual(before)
   })
