@@ -8,7 +8,9 @@ const Query = z.object({ paper: z.enum(['a4', 'letter'], { error: 'paper must be
 /** Streams a briefing as a PDF with a file name that says what it is. */
 export async function sendBriefingPdf(event: H3Event, doc: BriefingDocument, path: string) {
   const { paper } = readValidQuery(event, Query)
-  const link = `${getRequestURL(event).origin}${path}`
+  // The app's configured address, never the request's Host header: a forged Host must not put its
+  // own link into a briefing that is shared and kept.
+  const link = `${appUrl()}${path}`
   const pdf = await renderPdf(briefingPdfDefinition(doc, link, paper === 'letter' ? 'LETTER' : 'A4'))
   const date = (doc.meta.issuedAt ?? new Date().toISOString()).slice(0, 10)
   const name = `brinkwater-${doc.meta.siteName}-${doc.meta.scenario}-v${doc.meta.version}-${doc.meta.issuedAt ? date : 'draft'}`

@@ -15,11 +15,16 @@ export const scenarioField = z.string({ error: 'Enter a scenario, like SSP2-4.5.
 const numberList = z.array(z.number({ error: 'Enter a number (not blank, NaN or infinity).' }), { error: 'Enter a list of numbers.' })
 const numberTable = z.array(numberList, { error: 'Enter a table of numbers.' })
 
+const DOI_HINT = 'Enter a DOI like 10.1234/abcd, or leave it empty.'
+const VERSION_HINT = 'Enter the version as a whole number from 1, or leave it out.'
+
 export const provenanceFields = {
   method: text('method statement', MAX_TEXT.method),
   citation: text('citation', MAX_TEXT.citation),
-  doi: z.string().trim().max(200).regex(/^10\.\d{4,9}\/\S+$/, { error: 'Enter a DOI like 10.1234/abcd, or leave it empty.' })
-    .optional().or(z.literal('').transform(() => undefined)),
+  doi: z.union([
+    z.string().trim().max(200, { error: 'Use at most 200 characters.' }).regex(/^10\.\d{4,9}\/\S+$/, { error: DOI_HINT }).optional(),
+    z.literal('').transform(() => undefined),
+  ], { error: DOI_HINT }),
   licence: text('licence', MAX_TEXT.licence),
 }
 
@@ -27,14 +32,14 @@ export const NewSeriesSchema = z.object({
   component: componentField,
   scenario: scenarioField,
   title: text('series title', MAX_TEXT.title),
-})
+}, { error: 'Describe the new series as { component, scenario, title }.' })
 
 /** The distribution part of a release as entered: numbers in `unit`, or a CSV table. */
 export const ReleaseContentSchema = z.object({
   form: z.enum(RELEASE_FORMS, { error: `Choose one of: ${RELEASE_FORMS.join(', ')}.` }),
   unit: z.enum(AMOUNT_UNITS, { error: `Choose one of: ${AMOUNT_UNITS.join(', ')}.` }).default('m'),
   baselineYear: z.number({ error: 'Enter the baseline year (zero rise there).' }).int({ error: 'Enter a whole year.' }),
-  anchorYears: z.array(z.number().int({ error: 'Enter whole years.' })).optional(),
+  anchorYears: z.array(z.number({ error: 'Enter whole years.' }).int({ error: 'Enter whole years.' }), { error: 'Enter the anchor years as a list of years.' }).optional(),
   mean: numberList.optional(),
   sd: numberList.optional(),
   shift: numberList.optional(),
@@ -49,7 +54,7 @@ export const ReleaseContentSchema = z.object({
 export const CreateReleaseSchema = ReleaseContentSchema.extend({
   seriesId: z.uuid({ error: 'Choose a series.' }).optional(),
   series: NewSeriesSchema.optional(),
-  version: z.number().int().positive().optional(),
+  version: z.number({ error: VERSION_HINT }).int({ error: VERSION_HINT }).positive({ error: VERSION_HINT }).optional(),
   ...provenanceFields,
 }).refine(body => Boolean(body.seriesId) !== Boolean(body.series), {
   error: 'Send either seriesId (a new version of a series) or series (a new series), not both.',
@@ -84,7 +89,7 @@ export const CreateCorrelationSetSchema = z.object({
     .min(2, { error: 'A correlation set relates at least two components.' })
     .refine(keys => new Set(keys).size === keys.length, { error: 'Each component may appear only once.' }),
   matrix: numberTable,
-  version: z.number().int().positive().optional(),
+  version: z.number({ error: VERSION_HINT }).int({ error: VERSION_HINT }).positive({ error: VERSION_HINT }).optional(),
   ...provenanceFields,
 })
 
@@ -96,7 +101,7 @@ export const CreateScaleFactorGridSchema = z.object({
   factors: numberTable.optional(),
   /** Alternatively a CSV: header `latitude,<lon>,<lon>…`, one row per latitude. */
   csv: z.string().optional(),
-  version: z.number().int().positive().optional(),
+  version: z.number({ error: VERSION_HINT }).int({ error: VERSION_HINT }).positive({ error: VERSION_HINT }).optional(),
   ...provenanceFields,
 })
 

@@ -1,3 +1,5 @@
+import { request as httpRequest } from 'node:http'
+
 // A tiny API client with one cookie jar per signed-in person.
 export interface ApiResponse<T = any> {
   status: number
@@ -36,6 +38,29 @@ export class ApiClient {
   /** The raw response (for binary bodies such as PDFs), with this client's cookies. */
   fetchRaw(path: string): Promise<Response> {
     return fetch(this.baseUrl + path, { headers: this.cookies.size ? { cookie: [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ') } : {} })
+  }
+
+  /** A request whose path goes out exactly as written: fetch would resolve `..` and `%2e%2e` first. */
+  requestVerbatim<T = any>(method: string, path: string): Promise<ApiResponse<T>> {
+    const { hostname, port } = new URL(this.baseUrl)
+    const headers: Record<string, string> = { accept: 'application/json' }
+    if (this.cookies.size) headers.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ')
+    return new Promise((resolve, reject) => {
+      const outgoing = httpRequest({ host: hostname, port, method, path, headers }, (incoming) => {
+        let text = ''
+        incoming.setEncoding('utf8').on('data', (chunk) => { text += chunk }).on('end', () => {
+          let parsed: unknown = text
+          try {
+            parsed = text ? JSON.parse(text) : undefined
+          }
+          catch { /* not JSON: keep the text */ }
+          const responseHeaders = new Headers()
+          for (const [name, value] of Object.entries(incoming.headers)) if (typeof value === 'string') responseHeaders.set(name, value)
+          resolve({ status: incoming.statusCode ?? 0, body: parsed as T, headers: responseHeaders })
+        })
+      })
+      outgoing.on('error', reject).end()
+    })
   }
 
   get<T = any>(path: string) { return this.request<T>('GET', path) }

@@ -2,12 +2,13 @@ import { desc, eq } from 'drizzle-orm'
 import { z } from 'zod'
 import { auditLog, users } from '~~/server/db/schema'
 
-const Query = z.object({ limit: z.coerce.number().int().min(1).max(500).default(100) })
+const LIMIT = 'Use a whole number from 1 to 500.'
+const Query = z.object({ limit: z.coerce.number({ error: LIMIT }).int({ error: LIMIT }).min(1, { error: LIMIT }).max(500, { error: LIMIT }).default(100) })
 
 // The latest privileged actions, newest first.
 export default defineEventHandler(async (event) => {
   await requireAdmin(event)
-  const { limit } = await getValidatedQuery(event, query => Query.parse(query))
+  const { limit } = readValidQuery(event, Query)
   const db = await useDb()
   return db.select({
     id: auditLog.id,

@@ -4,7 +4,8 @@ import { z } from 'zod'
 import { mailbox } from '~~/server/db/schema'
 
 const SHOWN_HEADERS = ['date', 'message-id', 'list-unsubscribe', 'list-unsubscribe-post', 'content-type']
-const Query = z.object({ limit: z.coerce.number().int().min(1).max(200).default(50) })
+const LIMIT = 'Use a whole number from 1 to 200.'
+const Query = z.object({ limit: z.coerce.number({ error: LIMIT }).int({ error: LIMIT }).min(1, { error: LIMIT }).max(200, { error: LIMIT }).default(50) })
 
 // What the local stand-in SMTP server received, newest first, parsed for reading.
 export default defineEventHandler(async (event) => {

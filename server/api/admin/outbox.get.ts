@@ -2,7 +2,8 @@ import { desc } from 'drizzle-orm'
 import { z } from 'zod'
 import { mailOutbox } from '~~/server/db/schema'
 
-const Query = z.object({ limit: z.coerce.number().int().min(1).max(500).default(100) })
+const LIMIT = 'Use a whole number from 1 to 500.'
+const Query = z.object({ limit: z.coerce.number({ error: LIMIT }).int({ error: LIMIT }).min(1, { error: LIMIT }).max(500, { error: LIMIT }).default(100) })
 
 // The outbox with each message's state, attempts and last error, so failures are visible.
 export default defineEventHandler(async (event) => {
