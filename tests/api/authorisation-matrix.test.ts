@@ -56,6 +56,8 @@ const ROUTES: Record<string, RouteCase> = {
   'admin/audit.get.ts': { unscoped: true, global: true, url: () => '/api/admin/audit', expect: adminOnly(200) },
   'admin/mailbox.get.ts': { unscoped: true, global: true, url: () => '/api/admin/mailbox', expect: adminOnly(200) },
   'admin/outbox.get.ts': { unscoped: true, global: true, url: () => '/api/admin/outbox', expect: adminOnly(200) },
+  'admin/recomputations/index.get.ts': { unscoped: true, global: true, url: () => '/api/admin/recomputations', expect: adminOnly(200) },
+  'admin/recomputations/index.post.ts': { unscoped: true, global: true, url: () => '/api/admin/recomputations', body: () => ({ scenario: 'SSP1-2.6' }), expect: adminOnly(202) },
   'admin/users/index.get.ts': { unscoped: true, global: true, url: () => '/api/admin/users', expect: adminOnly(200) },
   'admin/users/index.post.ts': {
     global: true, url: () => '/api/admin/users', expect: adminOnly(201),
