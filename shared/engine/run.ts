@@ -4,7 +4,7 @@ import { samplerTables } from './sampler-tables'
 import { TILE, tileScratch } from './tile-scratch'
 import { scoreTile, valueTile } from './tile-values'
 import { blockSumsByYear, gumbelTile, sumTile } from './tile-sums'
-import { cellsFromHistogram, countConstantYear, countYear, riseOfYear } from './tile-counts'
+import { countConstantYear, countYear, finishCounts, riseOfYear } from './tile-counts'
 import type { OutlookPlan, OutlookPartial } from './types'
 
 // The sample loop. Everything it touches is a typed array hoisted into a local, nothing is allocated
@@ -47,6 +47,7 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
   const partial = emptyPartial(plan, firstBlock, blockCount)
   const tables = samplerTables(plan)
   const scratch = tileScratch(plan)
+  scratch.histogram.set(tables.histogramStart)
   const yearCount = plan.years.length
   const scoresPerSample = plan.componentKeys.length + 1
   for (let b = 0; b < blockCount; b++) {
@@ -77,6 +78,6 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
     blockSumsByYear(plan, scratch, partial.blockSums, b * plan.sumsPerBlock)
     partial.samples += count
   }
-  cellsFromHistogram(plan, tables, partial)
+  finishCounts(plan, tables, scratch, partial)
   return partial
 }

@@ -3,6 +3,9 @@ import { COMPONENT_KIND_PIECEWISE, type OutlookPlan } from './types'
 // Lookup tables the sample loop derives from a plan. They depend on the plan alone, so they are built
 // once per plan (a worker samples the chunks of one plan many times) and kept while the plan lives.
 
+/** The sign bit of a working histogram count: set in cells that hold a cut. */
+export const HOLDS_CUT = -0x80000000
+
 /** Columns combined per pass of the per-sample sums: each pass keeps four independent accumulators. */
 export const PASS = 4
 
@@ -36,6 +39,11 @@ export interface SamplerTables {
   columnSlots: Int32Array[]
   /** Per histogram cell, its exceedance cell, or −1 − (cuts below it) when a cut falls inside it. */
   cellOfBin: Int32Array
+  /**
+   * Starting values of the working histogram: INT32_MIN in cells holding a cut, 0 elsewhere, so a
+   * count's sign says whether its samples need placing among the cuts one by one.
+   */
+  histogramStart: Int32Array
   lifeSegments: LifeSegment[][]
 }
 
@@ -104,6 +112,7 @@ function buildTables(plan: OutlookPlan): SamplerTables {
     kind === COMPONENT_KIND_PIECEWISE && paddedBreakpoints[c]!.length === PASS ? 1 : 0,
   )
 
+  const cellOfBin = exceedanceCellOfBin(plan)
   const columnSlots = Array.from({ length: columnCount - 1 }, (_, j) => {
     const used: number[] = []
     for (let slot = 0; slot < plan.valueCount; slot++) if (plan.valueBasis[slot] === j) used.push(slot)
@@ -123,7 +132,8 @@ function buildTables(plan: OutlookPlan): SamplerTables {
     inlinePiece,
     allColumns: Int32Array.from({ length: Math.ceil(columnCount / PASS) * PASS }, (_, k) => Math.min(k, columnCount)),
     columnSlots,
-    cellOfBin: exceedanceCellOfBin(plan),
+    cellOfBin,
+    histogramStart: cellOfBin.map((cell) => (cell < 0 ? HOLDS_CUT : 0)),
     lifeSegments: plan.lifeSpans.map((life) => lifeSegments(plan, life)),
   }
 }

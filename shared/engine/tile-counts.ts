@@ -1,4 +1,4 @@
-import { PASS, type SamplerTables } from './sampler-tables'
+import { HOLDS_CUT, PASS, type SamplerTables } from './sampler-tables'
 import { TILE, type TileScratch } from './tile-scratch'
 import type { OutlookPartial, OutlookPlan } from './types'
 
@@ -45,7 +45,7 @@ export function countYear(
   const cutCount = cuts.length
   const inverseResolution = 1 / plan.histogramResolution
   const cellCounts = partial.cellCounts
-  const histogram = partial.histogram
+  const histogram = scratch.histogram
   const riseAt = t * TILE
   const low = plan.histogramLow[t]!
   const lastBin = plan.histogramBins[t]! + 1
@@ -71,6 +71,10 @@ export function countYear(
   const keepRise = plan.gumbel !== null
   let minimum = partial.minimum[t]!
   let maximum = partial.maximum[t]!
+  // Samples in a histogram cell holding a cut (its working count is negative) are listed without a
+  // branch and placed exactly after the loop.
+  const listed = scratch.listed
+  let listedCount = 0
   for (let i = 0; i < tileCount; i++) {
     const value = (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]! + w2 * levels[b2 + i]! + w3 * levels[b3 + i]!
     if (keepRise) rise[riseAt + i] = value
@@ -79,16 +83,24 @@ export function countYear(
     let bin = (value - low) * inverseResolution + 1
     bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
     const at = histogramAt + bin
-    histogram[at]!++
-    const cellHint = cellOfBin[at]!
-    if (cellHint < 0) {
-      let cell = -1 - cellHint
-      while (cell < cutCount && cuts[cell]! < value) cell++
-      cellCounts[cellAt + cell]!++
-    }
+    const count = histogram[at]! + 1
+    histogram[at] = count
+    if (count < 0) listed[listedCount++] = i
   }
   partial.minimum[t] = minimum
   partial.maximum[t] = maximum
+  for (let k = 0; k < listedCount; k++) {
+    const i = listed[k]!
+    // The same arithmetic as above, so the same value (a kept rise is already the value).
+    const value = keepRise
+      ? rise[riseAt + i]!
+      : (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]! + w2 * levels[b2 + i]! + w3 * levels[b3 + i]!
+    let bin = (value - low) * inverseResolution + 1
+    bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
+    let cell = -1 - cellOfBin[histogramAt + bin]!
+    while (cell < cutCount && cuts[cell]! < value) cell++
+    cellCounts[cellAt + cell]!++
+  }
 }
 
 /**
@@ -108,7 +120,7 @@ export function countConstantYear(
   let bin = (value - plan.histogramLow[t]!) * (1 / plan.histogramResolution) + 1
   bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
   const at = plan.histogramOffset[t]! + bin
-  partial.histogram[at]! += tileCount
+  scratch.histogram[at]! += tileCount
   const cellHint = tables.cellOfBin[at]!
   if (cellHint < 0) {
     let cell = -1 - cellHint
@@ -120,15 +132,22 @@ export function countConstantYear(
   if (plan.gumbel !== null) scratch.rise.fill(value, t * TILE, t * TILE + tileCount)
 }
 
-/** Adds the samples of histogram cells without a cut to their exceedance cells (a fresh partial only). */
-export function cellsFromHistogram(plan: OutlookPlan, tables: SamplerTables, partial: OutlookPartial): void {
+/**
+ * The partial's histogram from the working counts (sign bits cleared), and the samples of histogram
+ * cells without a cut added to their exceedance cells.
+ */
+export function finishCounts(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, partial: OutlookPartial): void {
   const cellsPerYear = plan.cuts.length + 1
   const cellOfBin = tables.cellOfBin
+  const working = scratch.histogram
+  const histogram = partial.histogram
   for (let t = 0; t < plan.years.length; t++) {
     const at = plan.histogramOffset[t]!
-    for (let bin = 0; bin <= plan.histogramBins[t]! + 1; bin++) {
-      const cell = cellOfBin[at + bin]!
-      if (cell >= 0) partial.cellCounts[t * cellsPerYear + cell]! += partial.histogram[at + bin]!
+    for (let bin = at; bin <= at + plan.histogramBins[t]! + 1; bin++) {
+      const count = working[bin]! & ~HOLDS_CUT
+      histogram[bin] = count
+      const cell = cellOfBin[bin]!
+      if (cell >= 0) partial.cellCounts[t * cellsPerYear + cell]! += count
     }
   }
 }

@@ -33,6 +33,10 @@ export interface TileScratch {
   basis: Float64Array
   /** Total rise per year at [t·TILE + i] (years of several passes, and for the Gumbel sums). */
   rise: Float64Array
+  /** Tile samples of one year whose histogram cell holds a cut. */
+  listed: Int32Array
+  /** Working histogram counts of a call; the sign bit marks cells holding a cut (see `histogramStart`). */
+  histogram: Int32Array
   /** Per block: Σ basis, Σ basis_j·basis_k, Σ value, Σ value·basis_j. */
   basisSum: Float64Array
   basisCross: Float64Array
@@ -49,7 +53,7 @@ let kept: { key: string; scratch: TileScratch } | null = null
  */
 export function tileScratch(plan: OutlookPlan): TileScratch {
   const scoreRows = plan.componentKeys.length + 1
-  const key = [plan.blockSize, scoreRows, plan.valueCount, plan.basisCount, plan.years.length].join()
+  const key = [plan.blockSize, scoreRows, plan.valueCount, plan.basisCount, plan.years.length, plan.histogramSize].join()
   if (kept?.key === key) return kept.scratch
   const columnCount = plan.basisCount
   const scratch: TileScratch = {
@@ -64,6 +68,8 @@ export function tileScratch(plan: OutlookPlan): TileScratch {
     levels: new Float64Array((columnCount + 1) * TILE),
     basis: new Float64Array((columnCount + 1) * TILE),
     rise: new Float64Array(plan.years.length * TILE),
+    listed: new Int32Array(TILE),
+    histogram: new Int32Array(plan.histogramSize),
     basisSum: new Float64Array(columnCount),
     basisCross: new Float64Array(columnCount * columnCount),
     valueSum: new Float64Array(plan.valueCount),
