@@ -8,6 +8,8 @@ export const HOLDS_CUT = -0x80000000
 
 /** Columns combined per pass of the per-sample sums: each pass keeps four independent accumulators. */
 export const PASS = 4
+/** Anchor-value slots added per pass when a basis column is formed (W1: six components, two passes). */
+export const SLOTS_PER_PASS = 3
 
 export interface LifeSegment {
   /** Output-year index of the segment's start, or −1 for the baseline (rise 0). */
@@ -35,7 +37,7 @@ export interface SamplerTables {
   inlinePiece: Uint8Array
   /** Every basis column, padded with the zero row to whole passes. */
   allColumns: Int32Array
-  /** Per component basis column, its anchor-value slots in order, padded with the zero row (slot count) to passes. */
+  /** Per component basis column, its anchor-value slots in order, padded with the zero row (slot count) to threes. */
   columnSlots: Int32Array[]
   /** Per histogram cell, its exceedance cell, or −1 − (cuts below it) when a cut falls inside it. */
   cellOfBin: Int32Array
@@ -116,7 +118,7 @@ function buildTables(plan: OutlookPlan): SamplerTables {
   const columnSlots = Array.from({ length: columnCount - 1 }, (_, j) => {
     const used: number[] = []
     for (let slot = 0; slot < plan.valueCount; slot++) if (plan.valueBasis[slot] === j) used.push(slot)
-    const slots = padded((n) => new Int32Array(n), used.length, plan.valueCount)
+    const slots = new Int32Array(Math.max(1, Math.ceil(used.length / SLOTS_PER_PASS)) * SLOTS_PER_PASS).fill(plan.valueCount)
     slots.set(used)
     return slots
   })

@@ -1,4 +1,4 @@
-import { PASS, type SamplerTables } from './sampler-tables'
+import { PASS, SLOTS_PER_PASS, type SamplerTables } from './sampler-tables'
 import { TILE, type TileScratch } from './tile-scratch'
 import type { OutlookPlan } from './types'
 
@@ -21,19 +21,18 @@ export function sumTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileS
   const rowCount = columnCount + plan.valueCount
   const { values, basis, levels } = scratch
   const columns = tables.allColumns
-  // The centred basis: per column, the sum of its slots' centred values, in slot order, four per pass
+  // The centred basis: per column, the sum of its slots' centred values, in slot order, three per pass
   // (padding reads the zero row of `values`); land motion's column is its score.
   const landColumn = columnCount - 1
   for (let j = 0; j < landColumn; j++) {
     const slots = tables.columnSlots[j]!
     const at = j * TILE
-    for (let p = 0; p < slots.length; p += PASS) {
+    for (let p = 0; p < slots.length; p += SLOTS_PER_PASS) {
       const v0 = slots[p]! * TILE
       const v1 = slots[p + 1]! * TILE
       const v2 = slots[p + 2]! * TILE
-      const v3 = slots[p + 3]! * TILE
-      if (p === 0) for (let i = 0; i < tileCount; i++) basis[at + i] = values[v0 + i]! + values[v1 + i]! + values[v2 + i]! + values[v3 + i]!
-      else for (let i = 0; i < tileCount; i++) basis[at + i] = basis[at + i]! + values[v0 + i]! + values[v1 + i]! + values[v2 + i]! + values[v3 + i]!
+      if (p === 0) for (let i = 0; i < tileCount; i++) basis[at + i] = values[v0 + i]! + values[v1 + i]! + values[v2 + i]!
+      else for (let i = 0; i < tileCount; i++) basis[at + i] = basis[at + i]! + values[v0 + i]! + values[v1 + i]! + values[v2 + i]!
     }
   }
   basis.set(levels.subarray(landColumn * TILE, landColumn * TILE + tileCount), landColumn * TILE)
