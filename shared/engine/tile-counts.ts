@@ -75,8 +75,12 @@ export function countYear(
   // branch and placed exactly after the loop.
   const listed = scratch.listed
   let listedCount = 0
+  // Columns of the last pass that carry a weight (the rest are padding): most years need two or three.
+  const used = w3 !== 0 ? 4 : w2 !== 0 ? 3 : 2
   for (let i = 0; i < tileCount; i++) {
-    const value = (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]! + w2 * levels[b2 + i]! + w3 * levels[b3 + i]!
+    let value = (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]!
+    if (used > 2) value += w2 * levels[b2 + i]!
+    if (used > 3) value += w3 * levels[b3 + i]!
     if (keepRise) rise[riseAt + i] = value
     if (value < minimum) minimum = value
     if (value > maximum) maximum = value
@@ -92,9 +96,9 @@ export function countYear(
   for (let k = 0; k < listedCount; k++) {
     const i = listed[k]!
     // The same arithmetic as above, so the same value (a kept rise is already the value).
-    const value = keepRise
-      ? rise[riseAt + i]!
-      : (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]! + w2 * levels[b2 + i]! + w3 * levels[b3 + i]!
+    let value = keepRise ? rise[riseAt + i]! : (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]!
+    if (!keepRise && used > 2) value += w2 * levels[b2 + i]!
+    if (!keepRise && used > 3) value += w3 * levels[b3 + i]!
     let bin = (value - low) * inverseResolution + 1
     bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
     let cell = -1 - cellOfBin[histogramAt + bin]!
