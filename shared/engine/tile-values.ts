@@ -43,7 +43,12 @@ export function scoreTile(
       const l1 = weights[p + 1]!
       const l2 = weights[p + 2]!
       const l3 = weights[p + 3]!
-      if (p === 0) {
+      if (p === 0 && l2 === 0) {
+        // Two entries or fewer (the padding weighs zero).
+        for (let i = 0; i < tileCount; i++) scores[at + i] = l0 * independent[k0 + i]! + l1 * independent[k1 + i]!
+      } else if (p === 0 && l3 === 0) {
+        for (let i = 0; i < tileCount; i++) scores[at + i] = l0 * independent[k0 + i]! + l1 * independent[k1 + i]! + l2 * independent[k2 + i]!
+      } else if (p === 0) {
         for (let i = 0; i < tileCount; i++) {
           scores[at + i] = l0 * independent[k0 + i]! + l1 * independent[k1 + i]! + l2 * independent[k2 + i]! + l3 * independent[k3 + i]!
         }
@@ -164,9 +169,11 @@ function piecewiseThreeInline(plan: OutlookPlan, tables: SamplerTables, scratch:
   const zero0 = plan.valueAtZero[slot]!
   const zero1 = plan.valueAtZero[slot + 1]!
   const zero2 = plan.valueAtZero[slot + 2]!
+  // A table of five levels has three breakpoints: the padding (+∞) is never reached, so skip it.
+  const fourth = p3 !== Infinity
   for (let i = 0; i < tileCount; i++) {
     const z = scores[from + i]!
-    const line = base + (+(z >= p0) + +(z >= p1) + +(z >= p2) + +(z >= p3)) * anchors
+    const line = base + (+(z >= p0) + +(z >= p1) + +(z >= p2) + (fourth ? +(z >= p3) : 0)) * anchors
     const x0 = intercepts[line]! + slopes[line]! * z
     const x1 = intercepts[line + 1]! + slopes[line + 1]! * z
     const x2 = intercepts[line + 2]! + slopes[line + 2]! * z
