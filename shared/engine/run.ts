@@ -3,7 +3,7 @@ import { standardNormalQuantiles } from './normal'
 import { samplerTables } from './sampler-tables'
 import { TILE, tileScratch } from './tile-scratch'
 import { scoreTile, valueTile } from './tile-values'
-import { blockSumsByYear, gumbelTile, sumTile } from './tile-sums'
+import { basisFromValues, blockSumsByYear, gumbelTile, levelsFromBasis, sumTile } from './tile-sums'
 import { countConstantYear, countYear, finishCounts, riseOfYear } from './tile-counts'
 import type { OutlookPlan, OutlookPartial } from './types'
 
@@ -48,6 +48,8 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
   const tables = samplerTables(plan)
   const scratch = tileScratch(plan)
   scratch.histogram.set(tables.histogramStart)
+  scratch.sumsAreLevels = tables.hasDraws
+  scratch.sumsOf = tables.hasDraws ? scratch.levels : scratch.basis
   const yearCount = plan.years.length
   const scoresPerSample = plan.componentKeys.length + 1
   for (let b = 0; b < blockCount; b++) {
@@ -64,6 +66,8 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
       const tileCount = Math.min(TILE, count - tileStart)
       scoreTile(plan, tables, scratch, count, tileStart, tileCount)
       valueTile(plan, tables, scratch, tileCount)
+      if (scratch.sumsAreLevels) basisFromValues(plan, tables, scratch, tileCount)
+      else levelsFromBasis(plan, tables, scratch, tileCount)
       sumTile(plan, tables, scratch, tileCount)
       for (let t = 0; t < yearCount; t++) {
         if (tables.constantYear[t]) {

@@ -31,6 +31,13 @@ export interface TileScratch {
   levels: Float64Array
   /** Per column, the sum of its slots' centred values (land motion: the score): the basis of the sums. Row J zero. */
   basis: Float64Array
+  /**
+   * The rows the value loop adds each anchor value into: `levels` when a plan has uploaded draws (their
+   * rises must be exact, so the basis is formed from the values afterwards), otherwise `basis` (the
+   * levels are then the basis plus each column's value at zero, which saves a pass over the values).
+   */
+  sumsOf: Float64Array
+  sumsAreLevels: boolean
   /** Total rise per year at [t·TILE + i] (years of several passes, and for the Gumbel sums). */
   rise: Float64Array
   /** Tile samples of one year whose histogram cell holds a cut. */
@@ -67,6 +74,8 @@ export function tileScratch(plan: OutlookPlan): TileScratch {
     values: new Float64Array((plan.valueCount + 1) * TILE),
     levels: new Float64Array((columnCount + 1) * TILE),
     basis: new Float64Array((columnCount + 1) * TILE),
+    sumsOf: new Float64Array(0),
+    sumsAreLevels: true,
     rise: new Float64Array(plan.years.length * TILE),
     listed: new Int32Array(TILE),
     histogram: new Int32Array(plan.histogramSize),

@@ -13,17 +13,12 @@ function geometricRun(a: number, d: number, steps: number): number {
 }
 
 /**
- * Dot products over the tile: everything the moments and variance shares of every year need. Four
- * columns per pass, each with its own accumulator, so the sums do not wait on one another.
+ * The centred basis when the value loop summed levels: per column, the sum of its slots' centred values,
+ * in slot order, three per pass (padding reads the zero row of `values`); land motion's is its score.
  */
-export function sumTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, tileCount: number): void {
-  const columnCount = plan.basisCount
-  const rowCount = columnCount + plan.valueCount
-  const { values, basis, levels } = scratch
-  const columns = tables.allColumns
-  // The centred basis: per column, the sum of its slots' centred values, in slot order, three per pass
-  // (padding reads the zero row of `values`); land motion's column is its score.
-  const landColumn = columnCount - 1
+export function basisFromValues(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, tileCount: number): void {
+  const { values, basis } = scratch
+  const landColumn = plan.basisCount - 1
   for (let j = 0; j < landColumn; j++) {
     const slots = tables.columnSlots[j]!
     const at = j * TILE
@@ -35,7 +30,28 @@ export function sumTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileS
       else for (let i = 0; i < tileCount; i++) basis[at + i] = basis[at + i]! + values[v0 + i]! + values[v1 + i]! + values[v2 + i]!
     }
   }
-  basis.set(levels.subarray(landColumn * TILE, landColumn * TILE + tileCount), landColumn * TILE)
+}
+
+/** The levels when the value loop summed the centred basis: each column's basis plus its value at zero. */
+export function levelsFromBasis(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, tileCount: number): void {
+  const { levels, basis } = scratch
+  const landColumn = plan.basisCount - 1
+  for (let j = 0; j < landColumn; j++) {
+    const at = j * TILE
+    const zero = tables.columnAtZero[j]!
+    for (let i = 0; i < tileCount; i++) levels[at + i] = basis[at + i]! + zero
+  }
+}
+
+/**
+ * Dot products over the tile: everything the moments and variance shares of every year need. Four
+ * columns per pass, each with its own accumulator, so the sums do not wait on one another.
+ */
+export function sumTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, tileCount: number): void {
+  const columnCount = plan.basisCount
+  const rowCount = columnCount + plan.valueCount
+  const { values, basis } = scratch
+  const columns = tables.allColumns
   // Rows are the basis columns, then the anchor-value slots; two rows per pass share the column loads.
   for (let row = 0; row < rowCount; row += 2) {
     const second = Math.min(row + 1, rowCount - 1)

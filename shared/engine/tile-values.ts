@@ -119,9 +119,8 @@ function drawLines(plan: OutlookPlan, scratch: TileScratch, c: number, tileCount
  */
 export function valueTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, tileCount: number): void {
   const componentCount = plan.componentKeys.length
-  const levels = scratch.levels
   const landColumn = plan.basisCount - 1
-  levels.fill(0, 0, landColumn * TILE)
+  scratch.sumsOf.fill(0, 0, landColumn * TILE)
   for (let c = 0; c < componentCount; c++) {
     const kind = plan.kinds[c]!
     const anchors = plan.anchorCount[c]!
@@ -142,12 +141,13 @@ export function valueTile(plan: OutlookPlan, tables: SamplerTables, scratch: Til
   }
   const landScores = scratch.scoreFrom[componentCount]!
   const landAt = scratch.scoreAt[componentCount]!
-  levels.set(landScores.subarray(landAt, landAt + tileCount), landColumn * TILE)
+  scratch.levels.set(landScores.subarray(landAt, landAt + tileCount), landColumn * TILE)
+  scratch.basis.set(landScores.subarray(landAt, landAt + tileCount), landColumn * TILE)
 }
 
 /** Anchors a, a+1, a+2 of piecewise component c; the piece is found here (at most four breakpoints). */
 function piecewiseThreeInline(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, c: number, a: number, tileCount: number): void {
-  const { values, levels } = scratch
+  const { values, sumsOf: sums } = scratch
   const scores = scratch.scoreFrom[c]!
   const from = scratch.scoreAt[c]!
   const intercepts = plan.anchorIntercept
@@ -169,6 +169,11 @@ function piecewiseThreeInline(plan: OutlookPlan, tables: SamplerTables, scratch:
   const zero0 = plan.valueAtZero[slot]!
   const zero1 = plan.valueAtZero[slot + 1]!
   const zero2 = plan.valueAtZero[slot + 2]!
+  // What is taken off each value before it is summed: its value at zero when the sums are the centred
+  // basis, nothing when they are the levels (see `TileScratch.sumsOf`).
+  const taken0 = scratch.sumsAreLevels ? 0 : zero0
+  const taken1 = scratch.sumsAreLevels ? 0 : zero1
+  const taken2 = scratch.sumsAreLevels ? 0 : zero2
   // A table of five levels has three breakpoints: the padding (+∞) is never reached, so skip it.
   const fourth = p3 !== Infinity
   for (let i = 0; i < tileCount; i++) {
@@ -180,15 +185,15 @@ function piecewiseThreeInline(plan: OutlookPlan, tables: SamplerTables, scratch:
     values[o0 + i] = x0 - zero0
     values[o1 + i] = x1 - zero1
     values[o2 + i] = x2 - zero2
-    levels[j0 + i]! += x0
-    levels[j1 + i]! += x1
-    levels[j2 + i]! += x2
+    sums[j0 + i]! += x0 - taken0
+    sums[j1 + i]! += x1 - taken1
+    sums[j2 + i]! += x2 - taken2
   }
 }
 
 /** Anchors a, a+1, a+2 of piecewise component c, the piece already in `lineAt`. */
 function piecewiseThree(plan: OutlookPlan, scratch: TileScratch, c: number, a: number, tileCount: number): void {
-  const { values, levels, lineAt } = scratch
+  const { values, sumsOf: sums, lineAt } = scratch
   const scores = scratch.scoreFrom[c]!
   const from = scratch.scoreAt[c]!
   const intercepts = plan.anchorIntercept
@@ -204,6 +209,11 @@ function piecewiseThree(plan: OutlookPlan, scratch: TileScratch, c: number, a: n
   const zero0 = plan.valueAtZero[slot]!
   const zero1 = plan.valueAtZero[slot + 1]!
   const zero2 = plan.valueAtZero[slot + 2]!
+  // What is taken off each value before it is summed: its value at zero when the sums are the centred
+  // basis, nothing when they are the levels (see `TileScratch.sumsOf`).
+  const taken0 = scratch.sumsAreLevels ? 0 : zero0
+  const taken1 = scratch.sumsAreLevels ? 0 : zero1
+  const taken2 = scratch.sumsAreLevels ? 0 : zero2
   for (let i = 0; i < tileCount; i++) {
     const line = lineAt[at + i]! + a
     const z = scores[from + i]!
@@ -213,15 +223,15 @@ function piecewiseThree(plan: OutlookPlan, scratch: TileScratch, c: number, a: n
     values[o0 + i] = x0 - zero0
     values[o1 + i] = x1 - zero1
     values[o2 + i] = x2 - zero2
-    levels[j0 + i]! += x0
-    levels[j1 + i]! += x1
-    levels[j2 + i]! += x2
+    sums[j0 + i]! += x0 - taken0
+    sums[j1 + i]! += x1 - taken1
+    sums[j2 + i]! += x2 - taken2
   }
 }
 
 /** Anchor a of piecewise component c (the piece inline or from `lineAt`). */
 function piecewiseOne(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, c: number, a: number, tileCount: number): void {
-  const { values, levels, lineAt } = scratch
+  const { values, sumsOf: sums, lineAt } = scratch
   const scores = scratch.scoreFrom[c]!
   const from = scratch.scoreAt[c]!
   const intercepts = plan.anchorIntercept
@@ -231,6 +241,7 @@ function piecewiseOne(plan: OutlookPlan, tables: SamplerTables, scratch: TileScr
   const out = slot * TILE
   const into = plan.valueBasis[slot]! * TILE
   const zero = plan.valueAtZero[slot]!
+  const taken = scratch.sumsAreLevels ? 0 : zero
   const at = c * TILE
   if (tables.inlinePiece[c]) {
     const padded = tables.paddedBreakpoints[c]!
@@ -244,7 +255,7 @@ function piecewiseOne(plan: OutlookPlan, tables: SamplerTables, scratch: TileScr
       const line = base + (+(z >= p0) + +(z >= p1) + +(z >= p2) + +(z >= p3)) * anchors
       const level = intercepts[line]! + slopes[line]! * z
       values[out + i] = level - zero
-      levels[into + i]! += level
+      sums[into + i]! += level - taken
     }
     return
   }
@@ -252,33 +263,35 @@ function piecewiseOne(plan: OutlookPlan, tables: SamplerTables, scratch: TileScr
     const line = lineAt[at + i]! + a
     const level = intercepts[line]! + slopes[line]! * scores[from + i]!
     values[out + i] = level - zero
-    levels[into + i]! += level
+    sums[into + i]! += level - taken
   }
 }
 
 function drawOne(plan: OutlookPlan, scratch: TileScratch, c: number, a: number, tileCount: number): void {
-  const { values, levels, lineAt } = scratch
+  const { values, sumsOf: sums, lineAt } = scratch
   const intercepts = plan.anchorIntercept
   const slot = plan.valueStart[c]! + a
   const out = slot * TILE
   const into = plan.valueBasis[slot]! * TILE
   const zero = plan.valueAtZero[slot]!
+  const taken = scratch.sumsAreLevels ? 0 : zero
   const at = c * TILE
   for (let i = 0; i < tileCount; i++) {
     const level = intercepts[lineAt[at + i]! + a]!
     values[out + i] = level - zero
-    levels[into + i]! += level
+    sums[into + i]! += level - taken
   }
 }
 
 function lognormalOne(plan: OutlookPlan, scratch: TileScratch, c: number, a: number, tileCount: number): void {
-  const { values, levels } = scratch
+  const { values, sumsOf: sums } = scratch
   const scores = scratch.scoreFrom[c]!
   const from = scratch.scoreAt[c]!
   const slot = plan.valueStart[c]! + a
   const out = slot * TILE
   const into = plan.valueBasis[slot]! * TILE
   const zero = plan.valueAtZero[slot]!
+  const taken = scratch.sumsAreLevels ? 0 : zero
   const shift = plan.lognormalShift[slot]!
   const mu = plan.lognormalMu[slot]!
   const sigma = plan.lognormalSigma[slot]!
@@ -286,6 +299,6 @@ function lognormalOne(plan: OutlookPlan, scratch: TileScratch, c: number, a: num
   for (let i = 0; i < tileCount; i++) {
     const level = scale * (shift + Math.exp(mu + sigma * scores[from + i]!))
     values[out + i] = level - zero
-    levels[into + i]! += level
+    sums[into + i]! += level - taken
   }
 }
