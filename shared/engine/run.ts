@@ -3,7 +3,7 @@ import { standardNormalQuantiles } from './normal'
 import { samplerTables } from './sampler-tables'
 import { TILE, tileScratch } from './tile-scratch'
 import { scoreTile, valueTile } from './tile-values'
-import { basisFromValues, blockSumsByYear, gumbelTile, levelsFromBasis, sumTile } from './tile-sums'
+import { basisFromValues, blockSumsByYear, gumbelTile, sumTile } from './tile-sums'
 import { countConstantYear, countYear, finishCounts, riseOfYear } from './tile-counts'
 import type { OutlookPlan, OutlookPartial } from './types'
 
@@ -67,7 +67,6 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
       scoreTile(plan, tables, scratch, count, tileStart, tileCount)
       valueTile(plan, tables, scratch, tileCount)
       if (scratch.sumsAreLevels) basisFromValues(plan, tables, scratch, tileCount)
-      else levelsFromBasis(plan, tables, scratch, tileCount)
       sumTile(plan, tables, scratch, tileCount)
       for (let t = 0; t < yearCount; t++) {
         if (tables.constantYear[t]) {

@@ -39,8 +39,6 @@ export interface SamplerTables {
   allColumns: Int32Array
   /** Per component basis column, its anchor-value slots in order, padded with the zero row (slot count) to threes. */
   columnSlots: Int32Array[]
-  /** Per component basis column, its value when every score is zero (its slots' values at zero, summed in order). */
-  columnAtZero: Float64Array
   /** Whether any component is uploaded draws, whose rises must be formed exactly (see `TileScratch.sumsOf`). */
   hasDraws: boolean
   /** Per histogram cell, its exceedance cell, or −1 − (cuts below it) when a cut falls inside it. */
@@ -119,8 +117,6 @@ function buildTables(plan: OutlookPlan): SamplerTables {
   )
 
   const cellOfBin = exceedanceCellOfBin(plan)
-  const columnAtZero = new Float64Array(columnCount)
-  for (let slot = 0; slot < plan.valueCount; slot++) columnAtZero[plan.valueBasis[slot]!]! += plan.valueAtZero[slot]!
   const columnSlots = Array.from({ length: columnCount - 1 }, (_, j) => {
     const used: number[] = []
     for (let slot = 0; slot < plan.valueCount; slot++) if (plan.valueBasis[slot] === j) used.push(slot)
@@ -140,7 +136,6 @@ function buildTables(plan: OutlookPlan): SamplerTables {
     inlinePiece,
     allColumns: Int32Array.from({ length: Math.ceil(columnCount / PASS) * PASS }, (_, k) => Math.min(k, columnCount)),
     columnSlots,
-    columnAtZero,
     hasDraws: plan.kinds.some((kind) => kind === COMPONENT_KIND_DRAWS),
     cellOfBin,
     histogramStart: cellOfBin.map((cell) => (cell < 0 ? HOLDS_CUT : 0)),

@@ -5,16 +5,26 @@ import type { OutlookPartial, OutlookPlan } from './types'
 // Each year's rise, placed in the percentile histogram and among the exceedance heights.
 
 /**
- * rise(t) = land intercept + Σ_j weight_j · level_j over the tile, a few columns per pass: every pass but the
+ * A year's rise is intercept + Σ_j weight_j · row_j over the level rows (the land-motion intercept), or
+ * over the centred basis when the value loop summed that (the all-scores-zero rise, which adds each
+ * column's value at zero back).
+ */
+function riseIntercept(plan: OutlookPlan, scratch: TileScratch, t: number): number {
+  return scratch.sumsAreLevels ? plan.landIntercept[t]! : plan.center[t]!
+}
+
+/**
+ * rise(t) = intercept + Σ_j weight_j · level_j over the tile, a few columns per pass: every pass but the
  * last, which `countYear` adds as it reads the rise.
  */
 export function riseOfYear(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, t: number, tileCount: number): void {
-  const { rise, levels } = scratch
+  const rise = scratch.rise
+  const levels = scratch.sumsAreLevels ? scratch.levels : scratch.basis
   const columns = tables.yearColumns[t]!
   const weights = tables.yearWeights[t]!
   const out = t * TILE
   if (columns.length === PASS) return
-  rise.fill(plan.landIntercept[t]!, out, out + tileCount)
+  rise.fill(riseIntercept(plan, scratch, t), out, out + tileCount)
   for (let p = 0; p + PASS < columns.length; p += PASS) {
     const b0 = columns[p]! * TILE
     const b1 = columns[p + 1]! * TILE
@@ -51,7 +61,7 @@ export function countYear(
   const lastBin = plan.histogramBins[t]! + 1
   const histogramAt = plan.histogramOffset[t]!
   const cellAt = t * (cutCount + 1)
-  const levels = scratch.levels
+  const levels = scratch.sumsAreLevels ? scratch.levels : scratch.basis
   const columns = tables.yearColumns[t]!
   const weights = tables.yearWeights[t]!
   // The last pass of the rise (padded with the zero row, weight 0).
@@ -66,7 +76,7 @@ export function countYear(
   const w3 = weights[last + 3]!
   // One pass (the usual case) starts from the land-motion intercept; more start from `riseOfYear`'s sums.
   const onePass = last === 0
-  const intercept = plan.landIntercept[t]!
+  const intercept = riseIntercept(plan, scratch, t)
   // The Gumbel statistics read each year's rise back.
   const keepRise = plan.gumbel !== null
   let minimum = partial.minimum[t]!

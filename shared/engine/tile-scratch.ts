@@ -33,8 +33,8 @@ export interface TileScratch {
   basis: Float64Array
   /**
    * The rows the value loop adds each anchor value into: `levels` when a plan has uploaded draws (their
-   * rises must be exact, so the basis is formed from the values afterwards), otherwise `basis` (the
-   * levels are then the basis plus each column's value at zero, which saves a pass over the values).
+   * rises must be exact, so the basis is formed from the values afterwards), otherwise `basis` (rises
+   * are then formed from the basis about the all-scores-zero rise, which saves a pass over the values).
    */
   sumsOf: Float64Array
   sumsAreLevels: boolean

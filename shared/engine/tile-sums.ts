@@ -32,17 +32,6 @@ export function basisFromValues(plan: OutlookPlan, tables: SamplerTables, scratc
   }
 }
 
-/** The levels when the value loop summed the centred basis: each column's basis plus its value at zero. */
-export function levelsFromBasis(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, tileCount: number): void {
-  const { levels, basis } = scratch
-  const landColumn = plan.basisCount - 1
-  for (let j = 0; j < landColumn; j++) {
-    const at = j * TILE
-    const zero = tables.columnAtZero[j]!
-    for (let i = 0; i < tileCount; i++) levels[at + i] = basis[at + i]! + zero
-  }
-}
-
 /**
  * Dot products over the tile: everything the moments and variance shares of every year need. Four
  * columns per pass, each with its own accumulator, so the sums do not wait on one another.
