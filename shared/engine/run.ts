@@ -1,6 +1,6 @@
 import { fillOpenUniforms, blockStreamState } from './rng'
 import { standardNormalQuantiles } from './normal'
-import { samplerTables } from './sampler-tables'
+import { HOLDS_CUT, samplerTables } from './sampler-tables'
 import { TILE, tileScratch } from './tile-scratch'
 import { scoreTile, valueTile } from './tile-values'
 import { basisFromValues, blockSumsByYear, gumbelTile, sumTile } from './tile-sums'
@@ -47,7 +47,8 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
   const partial = emptyPartial(plan, firstBlock, blockCount)
   const tables = samplerTables(plan)
   const scratch = tileScratch(plan)
-  scratch.histogram.set(tables.histogramStart)
+  scratch.histogram.fill(0)
+  for (let k = 0; k < tables.cutCells.length; k++) scratch.histogram[tables.cutCells[k]!] = HOLDS_CUT
   scratch.sumsAreLevels = tables.hasDraws
   scratch.sumsOf = tables.hasDraws ? scratch.levels : scratch.basis
   const yearCount = plan.years.length

@@ -44,10 +44,10 @@ export interface SamplerTables {
   /** Per histogram cell, its exceedance cell, or −1 − (cuts below it) when a cut falls inside it. */
   cellOfBin: Int32Array
   /**
-   * Starting values of the working histogram: INT32_MIN in cells holding a cut, 0 elsewhere, so a
-   * count's sign says whether its samples need placing among the cuts one by one.
+   * The histogram cells holding a cut. The working histogram starts them at INT32_MIN (0 elsewhere), so
+   * a count's sign says whether its samples need placing among the cuts one by one.
    */
-  histogramStart: Int32Array
+  cutCells: Int32Array
   lifeSegments: LifeSegment[][]
 }
 
@@ -138,9 +138,15 @@ function buildTables(plan: OutlookPlan): SamplerTables {
     columnSlots,
     hasDraws: plan.kinds.some((kind) => kind === COMPONENT_KIND_DRAWS),
     cellOfBin,
-    histogramStart: cellOfBin.map((cell) => (cell < 0 ? HOLDS_CUT : 0)),
+    cutCells: cutCellsOf(cellOfBin),
     lifeSegments: plan.lifeSpans.map((life) => lifeSegments(plan, life)),
   }
+}
+
+function cutCellsOf(cellOfBin: Int32Array): Int32Array {
+  const cells: number[] = []
+  for (let cell = 0; cell < cellOfBin.length; cell++) if (cellOfBin[cell]! < 0) cells.push(cell)
+  return Int32Array.from(cells)
 }
 
 /** Annual steps baseline+1 … baseline+life, as runs between the knots (baseline, output years). */
@@ -171,24 +177,22 @@ export function lifeSegments(plan: OutlookPlan, lifeYears: number): LifeSegment[
 function exceedanceCellOfBin(plan: OutlookPlan): Int32Array {
   const cellOfBin = new Int32Array(plan.histogramSize)
   const inverseResolution = 1 / plan.histogramResolution
+  const cutCount = plan.cuts.length
+  const cutBins = new Int32Array(cutCount)
   for (let t = 0; t < plan.years.length; t++) {
     const low = plan.histogramLow[t]!
     const lastBin = plan.histogramBins[t]! + 1
     const at = plan.histogramOffset[t]!
-    let cut = 0
+    for (let cut = 0; cut < cutCount; cut++) {
+      // The same arithmetic as the sample loop (`countYear`), so the comparison with a bin is exact.
+      const cutBin = (plan.cuts[cut]! - low) * inverseResolution + 1
+      cutBins[cut] = cutBin < 0 ? 0 : cutBin > lastBin ? lastBin : cutBin | 0
+    }
+    // Cuts are sorted, so their cells are too: `below` counts the cuts in earlier cells.
+    let below = 0
     for (let bin = 0; bin <= lastBin; bin++) {
-      let below = cut
-      let holdsCut = false
-      while (cut < plan.cuts.length) {
-        // The same arithmetic as the sample loop (`histogramBin`), so the comparison with `bin` is exact.
-        let cutBin = (plan.cuts[cut]! - low) * inverseResolution + 1
-        cutBin = cutBin < 0 ? 0 : cutBin > lastBin ? lastBin : cutBin | 0
-        if (cutBin > bin) break
-        if (cutBin === bin) holdsCut = true
-        else below++
-        cut++
-      }
-      cellOfBin[at + bin] = holdsCut ? -1 - below : below
+      while (below < cutCount && cutBins[below]! < bin) below++
+      cellOfBin[at + bin] = below < cutCount && cutBins[below] === bin ? -1 - below : below
     }
   }
   return cellOfBin

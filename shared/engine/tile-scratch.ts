@@ -42,7 +42,7 @@ export interface TileScratch {
   rise: Float64Array
   /** Tile samples of one year whose histogram cell holds a cut. */
   listed: Int32Array
-  /** Working histogram counts of a call; the sign bit marks cells holding a cut (see `histogramStart`). */
+  /** Working histogram counts of a call; the sign bit marks cells holding a cut (see `cutCells`). */
   histogram: Int32Array
   /** Per block: Σ basis, Σ basis_j·basis_k, Σ value, Σ value·basis_j. */
   basisSum: Float64Array
