@@ -115,7 +115,8 @@ function drawLines(plan: OutlookPlan, scratch: TileScratch, c: number, tileCount
 
 /**
  * Each component's scaled anchor values less their all-scores-zero values (for the variance shares),
- * and each basis column's level: the sum of its slots' values.
+ * and per basis column the sum of its slots' values into `sumsOf`: the centred basis, or the plain
+ * levels when the plan has draws. The land-motion column is its score in both.
  */
 export function valueTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, tileCount: number): void {
   const componentCount = plan.componentKeys.length
