@@ -7,7 +7,18 @@ import { finishOutlook, mergePartials, planOutlook, type OutlookPartial, type Ou
 // into chunks handed to whichever thread is free; partials merge in block order, so the numbers
 // are the same bit for bit whatever the split (see shared/engine/README.md).
 
-const CHUNK_BLOCKS = 8
+/**
+ * Chunks shrink as a job nears its end (a share of what is left per free thread), so threads finish
+ * together; a chunk of at least a few blocks keeps the messages few, and a cap keeps progress moving.
+ */
+const MIN_CHUNK_BLOCKS = 2
+const MAX_CHUNK_BLOCKS = 32
+
+/** Blocks for the next chunk of a job with `remaining` blocks left, on a pool of `threads`. */
+function chunkBlocks(remaining: number, threads: number): number {
+  const share = Math.ceil(remaining / (2 * threads))
+  return Math.min(remaining, Math.max(MIN_CHUNK_BLOCKS, Math.min(MAX_CHUNK_BLOCKS, share)))
+}
 
 interface Job {
   id: number
@@ -34,7 +45,7 @@ class OutlookPool {
   private readonly jobs: Job[] = []
   private nextJobId = 1
 
-  constructor(size: number) {
+  constructor(private readonly size: number) {
     for (let i = 0; i < size; i++) this.idle.push(this.spawn())
   }
 
@@ -62,7 +73,7 @@ class OutlookPool {
       const job = this.jobs.find(j => j.nextBlock < j.plan.blockCount)
       if (!job) return
       const worker = this.idle.pop()!
-      const blockCount = Math.min(CHUNK_BLOCKS, job.plan.blockCount - job.nextBlock)
+      const blockCount = chunkBlocks(job.plan.blockCount - job.nextBlock, this.size)
       const plan = job.sentTo.has(worker) ? undefined : job.plan
       job.sentTo.add(worker)
       worker.postMessage({ jobId: job.id, plan, firstBlock: job.nextBlock, blockCount })

@@ -11,7 +11,7 @@ import {
 import { validateOutlookInput, type ValidatedOutlookInput } from './validate'
 
 /** Samples per block: the unit of reproducibility (each block has its own random stream). */
-export const BLOCK_SIZE = 8192
+export const BLOCK_SIZE = 2048
 
 /** Percentile histograms span each year's rise for every score within ±6; beyond goes to overflow cells. */
 const HISTOGRAM_SCORE_SPAN = 6

@@ -53,10 +53,15 @@ async function main() {
     }
     const single: number[] = []
     let singleResult: OutlookResult | null = null
+    // Warmed like the pool's threads, so both figures time compiled code.
+    const singleRun = () => {
+      const plan = planOutlook(input)
+      return finishOutlook(plan, runBlocks(plan, 0, plan.blockCount))
+    }
+    for (let i = 0; i < WARM_UPS; i++) singleRun()
     for (let i = 0; i < Math.min(RUNS, 5); i++) {
       const start = performance.now()
-      const plan = planOutlook(input)
-      singleResult = finishOutlook(plan, runBlocks(plan, 0, plan.blockCount))
+      singleResult = singleRun()
       single.push(performance.now() - start)
     }
     report[`N=${samples}`] = {
@@ -68,6 +73,8 @@ async function main() {
     }
   }
   report.peakRssMB = +(process.resourceUsage().maxRSS / 1024).toFixed(1)
+  // Other work on the machine shows here: figures taken beside builds or tests are not comparable.
+  report.loadAverageAtEnd = os.loadavg().map((x) => +x.toFixed(2))
   await pool.close()
   console.log(JSON.stringify(report, null, 2))
 }

@@ -1,0 +1,167 @@
+import { HOLDS_CUT, PASS, type SamplerTables } from './sampler-tables'
+import { TILE, type TileScratch } from './tile-scratch'
+import type { OutlookPartial, OutlookPlan } from './types'
+
+// Each year's rise, placed in the percentile histogram and among the exceedance heights.
+
+/**
+ * A year's rise is intercept + Σ_j weight_j · row_j over the level rows (the land-motion intercept), or
+ * over the centred basis when the value loop summed that (the all-scores-zero rise, which adds each
+ * column's value at zero back).
+ */
+function riseIntercept(plan: OutlookPlan, scratch: TileScratch, t: number): number {
+  return scratch.sumsAreLevels ? plan.landIntercept[t]! : plan.center[t]!
+}
+
+/**
+ * rise(t) = intercept + Σ_j weight_j · level_j over the tile, a few columns per pass: every pass but the
+ * last, which `countYear` adds as it reads the rise.
+ */
+export function riseOfYear(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, t: number, tileCount: number): void {
+  const rise = scratch.rise
+  const levels = scratch.sumsAreLevels ? scratch.levels : scratch.basis
+  const columns = tables.yearColumns[t]!
+  const weights = tables.yearWeights[t]!
+  const out = t * TILE
+  if (columns.length === PASS) return
+  rise.fill(riseIntercept(plan, scratch, t), out, out + tileCount)
+  for (let p = 0; p + PASS < columns.length; p += PASS) {
+    const b0 = columns[p]! * TILE
+    const b1 = columns[p + 1]! * TILE
+    const b2 = columns[p + 2]! * TILE
+    const b3 = columns[p + 3]! * TILE
+    const w0 = weights[p]!
+    const w1 = weights[p + 1]!
+    const w2 = weights[p + 2]!
+    const w3 = weights[p + 3]!
+    for (let i = 0; i < tileCount; i++) {
+      rise[out + i] = rise[out + i]! + w0 * levels[b0 + i]! + w1 * levels[b1 + i]! + w2 * levels[b2 + i]! + w3 * levels[b3 + i]!
+    }
+  }
+}
+
+/** Histogram, extremes, and the exceedance cell of samples in histogram cells that hold a cut, for year t. */
+export function countYear(
+  plan: OutlookPlan,
+  tables: SamplerTables,
+  scratch: TileScratch,
+  t: number,
+  tileCount: number,
+  partial: OutlookPartial,
+): void {
+  const rise = scratch.rise
+  const cellOfBin = tables.cellOfBin
+  const cuts = plan.cuts
+  const cutCount = cuts.length
+  const inverseResolution = 1 / plan.histogramResolution
+  const cellCounts = partial.cellCounts
+  const histogram = scratch.histogram
+  const riseAt = t * TILE
+  const low = plan.histogramLow[t]!
+  const lastBin = plan.histogramBins[t]! + 1
+  const histogramAt = plan.histogramOffset[t]!
+  const cellAt = t * (cutCount + 1)
+  const levels = scratch.sumsAreLevels ? scratch.levels : scratch.basis
+  const columns = tables.yearColumns[t]!
+  const weights = tables.yearWeights[t]!
+  // The last pass of the rise (padded with the zero row, weight 0).
+  const last = columns.length - PASS
+  const b0 = columns[last]! * TILE
+  const b1 = columns[last + 1]! * TILE
+  const b2 = columns[last + 2]! * TILE
+  const b3 = columns[last + 3]! * TILE
+  const w0 = weights[last]!
+  const w1 = weights[last + 1]!
+  const w2 = weights[last + 2]!
+  const w3 = weights[last + 3]!
+  // One pass (the usual case) starts from the land-motion intercept; more start from `riseOfYear`'s sums.
+  const onePass = last === 0
+  const intercept = riseIntercept(plan, scratch, t)
+  // The Gumbel statistics read each year's rise back.
+  const keepRise = plan.gumbel !== null
+  let minimum = partial.minimum[t]!
+  let maximum = partial.maximum[t]!
+  // Samples in a histogram cell holding a cut (its working count is negative) are listed without a
+  // branch and placed exactly after the loop.
+  const listed = scratch.listed
+  let listedCount = 0
+  // Columns of the last pass that carry a weight (the rest are padding): most years need two or three.
+  const used = w3 !== 0 ? 4 : w2 !== 0 ? 3 : 2
+  for (let i = 0; i < tileCount; i++) {
+    let value = (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]!
+    if (used > 2) value += w2 * levels[b2 + i]!
+    if (used > 3) value += w3 * levels[b3 + i]!
+    if (keepRise) rise[riseAt + i] = value
+    if (value < minimum) minimum = value
+    if (value > maximum) maximum = value
+    let bin = (value - low) * inverseResolution + 1
+    bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
+    const at = histogramAt + bin
+    const count = histogram[at]! + 1
+    histogram[at] = count
+    if (count < 0) listed[listedCount++] = i
+  }
+  partial.minimum[t] = minimum
+  partial.maximum[t] = maximum
+  for (let k = 0; k < listedCount; k++) {
+    const i = listed[k]!
+    // The same arithmetic as above, so the same value (a kept rise is already the value).
+    let value = keepRise ? rise[riseAt + i]! : (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]!
+    if (!keepRise && used > 2) value += w2 * levels[b2 + i]!
+    if (!keepRise && used > 3) value += w3 * levels[b3 + i]!
+    let bin = (value - low) * inverseResolution + 1
+    bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
+    let cell = -1 - cellOfBin[histogramAt + bin]!
+    while (cell < cutCount && cuts[cell]! < value) cell++
+    cellCounts[cellAt + cell]!++
+  }
+}
+
+/**
+ * A year whose weights are all zero (the baseline year): every sample's rise is the land-motion
+ * intercept, so the tile is counted at once.
+ */
+export function countConstantYear(
+  plan: OutlookPlan,
+  tables: SamplerTables,
+  scratch: TileScratch,
+  t: number,
+  tileCount: number,
+  partial: OutlookPartial,
+): void {
+  const value = plan.landIntercept[t]!
+  const lastBin = plan.histogramBins[t]! + 1
+  let bin = (value - plan.histogramLow[t]!) * (1 / plan.histogramResolution) + 1
+  bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
+  const at = plan.histogramOffset[t]! + bin
+  scratch.histogram[at]! += tileCount
+  const cellHint = tables.cellOfBin[at]!
+  if (cellHint < 0) {
+    let cell = -1 - cellHint
+    while (cell < plan.cuts.length && plan.cuts[cell]! < value) cell++
+    partial.cellCounts[t * (plan.cuts.length + 1) + cell]! += tileCount
+  }
+  if (value < partial.minimum[t]!) partial.minimum[t] = value
+  if (value > partial.maximum[t]!) partial.maximum[t] = value
+  if (plan.gumbel !== null) scratch.rise.fill(value, t * TILE, t * TILE + tileCount)
+}
+
+/**
+ * The partial's histogram from the working counts (sign bits cleared), and the samples of histogram
+ * cells without a cut added to their exceedance cells.
+ */
+export function finishCounts(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, partial: OutlookPartial): void {
+  const cellsPerYear = plan.cuts.length + 1
+  const cellOfBin = tables.cellOfBin
+  const working = scratch.histogram
+  const histogram = partial.histogram
+  for (let t = 0; t < plan.years.length; t++) {
+    const at = plan.histogramOffset[t]!
+    for (let bin = at; bin <= at + plan.histogramBins[t]! + 1; bin++) {
+      const count = working[bin]! & ~HOLDS_CUT
+      histogram[bin] = count
+      const cell = cellOfBin[bin]!
+      if (cell >= 0) partial.cellCounts[t * cellsPerYear + cell]! += count
+    }
+  }
+}

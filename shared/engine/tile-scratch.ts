@@ -1,0 +1,90 @@
+import type { OutlookPlan } from './types'
+
+/**
+ * Samples are processed in tiles so every step is a stride-1 loop over typed arrays; the tile split
+ * inside a block is fixed, so sums stay reproducible. A tile's working set stays in the core's L2 cache.
+ */
+export const TILE = 1024
+
+/** Working arrays of the sample loop. Their contents never outlive one call of `runBlocks`. */
+export interface TileScratch {
+  /** Uniforms of a block: component 0's for every sample, then component 1's, …, land motion's last. */
+  uniforms: Float64Array
+  /** Independent scores of a block, laid out like `uniforms`, then one zero row of TILE (padding). */
+  independent: Float64Array
+  /** Tail positions for the batch Φ⁻¹. */
+  tails: Int32Array
+  /** Correlated score of component c for tile sample i at [c·TILE + i] (rows that are not a copy). */
+  scores: Float64Array
+  /** Per score row, where the tile's scores are read: `scores` or `independent`, and the offset. */
+  scoreFrom: Float64Array[]
+  scoreAt: Int32Array
+  /** First anchor line of the piece or draw each sample picked, at [c·TILE + i]. */
+  lineAt: Int32Array
+  /** Scaled anchor value of slot v less its all-scores-zero value, at [v·TILE + i]; row V stays zero (padding). */
+  values: Float64Array
+  /**
+   * Per basis column j, the sum of its slots' scaled anchor values at [j·TILE + i] (land motion: the
+   * score); row J stays zero (padding). Each year's rise is formed from these, so a lone component's
+   * rise is its value exactly (a draw equal to a height does not exceed it).
+   */
+  levels: Float64Array
+  /** Per column, the sum of its slots' centred values (land motion: the score): the basis of the sums. Row J zero. */
+  basis: Float64Array
+  /**
+   * The rows the value loop adds each anchor value into: `levels` when a plan has uploaded draws (their
+   * rises must be exact, so the basis is formed from the values afterwards), otherwise `basis` (rises
+   * are then formed from the basis about the all-scores-zero rise, which saves a pass over the values).
+   */
+  sumsOf: Float64Array
+  sumsAreLevels: boolean
+  /** Total rise per year at [t·TILE + i] (years of several passes, and for the Gumbel sums). */
+  rise: Float64Array
+  /** Tile samples of one year whose histogram cell holds a cut. */
+  listed: Int32Array
+  /** Working histogram counts of a call; the sign bit marks cells holding a cut (see `cutCells`). */
+  histogram: Int32Array
+  /** Per block: Σ basis, Σ basis_j·basis_k, Σ value, Σ value·basis_j. */
+  basisSum: Float64Array
+  basisCross: Float64Array
+  valueSum: Float64Array
+  valueCross: Float64Array
+}
+
+let kept: { key: string; scratch: TileScratch } | null = null
+
+/**
+ * Scratch for a plan's shape. The last one is kept for the next call of the same shape: a worker
+ * samples request after request of the same sizes without allocating (and zeroing) a megabyte each time.
+ * Safe because sampling is synchronous: one call at a time per thread.
+ */
+export function tileScratch(plan: OutlookPlan): TileScratch {
+  const scoreRows = plan.componentKeys.length + 1
+  const key = [plan.blockSize, scoreRows, plan.valueCount, plan.basisCount, plan.years.length, plan.histogramSize].join()
+  if (kept?.key === key) return kept.scratch
+  const columnCount = plan.basisCount
+  const scratch: TileScratch = {
+    uniforms: new Float64Array(plan.blockSize * scoreRows),
+    independent: new Float64Array(plan.blockSize * scoreRows + TILE),
+    tails: new Int32Array(plan.blockSize * scoreRows),
+    scores: new Float64Array(scoreRows * TILE),
+    scoreFrom: [],
+    scoreAt: new Int32Array(scoreRows),
+    lineAt: new Int32Array((scoreRows - 1) * TILE),
+    values: new Float64Array((plan.valueCount + 1) * TILE),
+    levels: new Float64Array((columnCount + 1) * TILE),
+    basis: new Float64Array((columnCount + 1) * TILE),
+    sumsOf: new Float64Array(0),
+    sumsAreLevels: true,
+    rise: new Float64Array(plan.years.length * TILE),
+    listed: new Int32Array(TILE),
+    histogram: new Int32Array(plan.histogramSize),
+    basisSum: new Float64Array(columnCount),
+    basisCross: new Float64Array(columnCount * columnCount),
+    valueSum: new Float64Array(plan.valueCount),
+    valueCross: new Float64Array(plan.valueCount * columnCount),
+  }
+  for (let c = 0; c < scoreRows; c++) scratch.scoreFrom.push(scratch.scores)
+  kept = { key, scratch }
+  return scratch
+}

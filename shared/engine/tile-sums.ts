@@ -1,0 +1,240 @@
+import { PASS, SLOTS_PER_PASS, type SamplerTables } from './sampler-tables'
+import { TILE, type TileScratch } from './tile-scratch'
+import type { OutlookPlan } from './types'
+
+// The float sums of a tile and of a block: moments, variance-share sums and the Gumbel statistics.
+// Their order of addition is fixed by the tile and block split, which keeps them reproducible.
+
+/** Σ_{j=1..steps} exp(a + j·d), for a + j·d ≤ 0 on the run, without overflow or cancellation. */
+function geometricRun(a: number, d: number, steps: number): number {
+  if (d > 0) return Math.exp(a + steps * d) * (Math.expm1(-steps * d) / Math.expm1(-d))
+  if (d < 0) return Math.exp(a + d) * (Math.expm1(steps * d) / Math.expm1(d))
+  return steps * Math.exp(a)
+}
+
+/**
+ * The centred basis when the value loop summed levels: per column, the sum of its slots' centred values,
+ * in slot order, three per pass (padding reads the zero row of `values`); land motion's is its score.
+ */
+export function basisFromValues(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, tileCount: number): void {
+  const { values, basis } = scratch
+  const landColumn = plan.basisCount - 1
+  for (let j = 0; j < landColumn; j++) {
+    const slots = tables.columnSlots[j]!
+    const at = j * TILE
+    for (let p = 0; p < slots.length; p += SLOTS_PER_PASS) {
+      const v0 = slots[p]! * TILE
+      const v1 = slots[p + 1]! * TILE
+      const v2 = slots[p + 2]! * TILE
+      if (p === 0) for (let i = 0; i < tileCount; i++) basis[at + i] = values[v0 + i]! + values[v1 + i]! + values[v2 + i]!
+      else for (let i = 0; i < tileCount; i++) basis[at + i] = basis[at + i]! + values[v0 + i]! + values[v1 + i]! + values[v2 + i]!
+    }
+  }
+}
+
+/**
+ * Dot products over the tile: everything the moments and variance shares of every year need. Four
+ * columns per pass, each with its own accumulator, so the sums do not wait on one another.
+ */
+export function sumTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, tileCount: number): void {
+  const columnCount = plan.basisCount
+  const rowCount = columnCount + plan.valueCount
+  const { values, basis } = scratch
+  const columns = tables.allColumns
+  // Rows are the basis columns, then the anchor-value slots; two rows per pass share the column loads.
+  for (let row = 0; row < rowCount; row += 2) {
+    const second = Math.min(row + 1, rowCount - 1)
+    const sourceA = row < columnCount ? basis : values
+    const sourceB = second < columnCount ? basis : values
+    const atA = (row < columnCount ? row : row - columnCount) * TILE
+    const atB = (second < columnCount ? second : second - columnCount) * TILE
+    let sumA = 0
+    let sumB = 0
+    for (let p = 0; p < columns.length; p += PASS) {
+      const b0 = columns[p]! * TILE
+      const b1 = columns[p + 1]! * TILE
+      const b2 = columns[p + 2]! * TILE
+      const b3 = columns[p + 3]! * TILE
+      let a0 = 0
+      let a1 = 0
+      let a2 = 0
+      let a3 = 0
+      let c0 = 0
+      let c1 = 0
+      let c2 = 0
+      let c3 = 0
+      if (p === 0) {
+        for (let i = 0; i < tileCount; i++) {
+          const x = sourceA[atA + i]!
+          const y = sourceB[atB + i]!
+          const u0 = basis[b0 + i]!
+          const u1 = basis[b1 + i]!
+          const u2 = basis[b2 + i]!
+          const u3 = basis[b3 + i]!
+          sumA += x
+          sumB += y
+          a0 += x * u0
+          a1 += x * u1
+          a2 += x * u2
+          a3 += x * u3
+          c0 += y * u0
+          c1 += y * u1
+          c2 += y * u2
+          c3 += y * u3
+        }
+      } else {
+        for (let i = 0; i < tileCount; i++) {
+          const x = sourceA[atA + i]!
+          const y = sourceB[atB + i]!
+          const u0 = basis[b0 + i]!
+          const u1 = basis[b1 + i]!
+          const u2 = basis[b2 + i]!
+          const u3 = basis[b3 + i]!
+          a0 += x * u0
+          a1 += x * u1
+          a2 += x * u2
+          a3 += x * u3
+          c0 += y * u0
+          c1 += y * u1
+          c2 += y * u2
+          c3 += y * u3
+        }
+      }
+      addCross(scratch, columnCount, row, columns, p, a0, a1, a2, a3)
+      if (second !== row) addCross(scratch, columnCount, second, columns, p, c0, c1, c2, c3)
+    }
+    addSum(scratch, columnCount, row, sumA)
+    if (second !== row) addSum(scratch, columnCount, second, sumB)
+  }
+}
+
+/** Adds one pass's dot products of a row; padding columns point at the zero row and are not stored. */
+function addCross(
+  scratch: TileScratch,
+  columnCount: number,
+  row: number,
+  columns: Int32Array,
+  p: number,
+  c0: number,
+  c1: number,
+  c2: number,
+  c3: number,
+): void {
+  const target = row < columnCount ? scratch.basisCross : scratch.valueCross
+  const at = (row < columnCount ? row : row - columnCount) * columnCount
+  if (columns[p]! < columnCount) target[at + columns[p]!]! += c0
+  if (columns[p + 1]! < columnCount) target[at + columns[p + 1]!]! += c1
+  if (columns[p + 2]! < columnCount) target[at + columns[p + 2]!]! += c2
+  if (columns[p + 3]! < columnCount) target[at + columns[p + 3]!]! += c3
+}
+
+function addSum(scratch: TileScratch, columnCount: number, row: number, sum: number): void {
+  if (row < columnCount) scratch.basisSum[row]! += sum
+  else scratch.valueSum[row - columnCount]! += sum
+}
+
+/**
+ * A block's basis sums → its per-year sums. With x̃ an anchor value less its all-scores-zero value,
+ * dev(t) = Σ_j w_tj·basis_j and a part's deviation p̃_c(t) = Σ_a w_t,j(a)·x̃_a: Σdev = Σ_j w_tj Σbasis_j,
+ * Σdev² = Σ_jk w_tj w_tk Σbasis_j·basis_k, Σp̃·dev = Σ_a w_t,j(a) Σ_k w_tk Σx̃_a·basis_k. Land motion's
+ * deviation is slope·score, its score being the last basis column.
+ */
+export function blockSumsByYear(plan: OutlookPlan, scratch: TileScratch, sums: Float64Array, sumOffset: number): void {
+  const columnCount = plan.basisCount
+  const landColumn = columnCount - 1
+  const componentCount = plan.componentKeys.length
+  const partCount = componentCount + 1
+  const { basisSum, basisCross, valueSum, valueCross } = scratch
+  const weight = plan.basisWeight
+  const momentsAt = sumOffset + plan.sumLayout.moments
+  const partSumAt = sumOffset + plan.sumLayout.partSum
+  const partCrossAt = sumOffset + plan.sumLayout.partCross
+  for (let t = 0; t < plan.years.length; t++) {
+    const row = t * columnCount
+    let sum = 0
+    let squares = 0
+    for (let j = 0; j < columnCount; j++) {
+      sum += weight[row + j]! * basisSum[j]!
+      let inner = 0
+      for (let k = 0; k < columnCount; k++) inner += weight[row + k]! * basisCross[j * columnCount + k]!
+      squares += weight[row + j]! * inner
+    }
+    sums[momentsAt + 2 * t] = sum
+    sums[momentsAt + 2 * t + 1] = squares
+    for (let c = 0; c < componentCount; c++) {
+      let partSum = 0
+      let cross = 0
+      for (let a = 0; a < plan.anchorCount[c]!; a++) {
+        const slot = plan.valueStart[c]! + a
+        const w = weight[row + plan.valueBasis[slot]!]!
+        let inner = 0
+        for (let k = 0; k < columnCount; k++) inner += weight[row + k]! * valueCross[slot * columnCount + k]!
+        partSum += w * valueSum[slot]!
+        cross += w * inner
+      }
+      sums[partSumAt + t * partCount + c] = partSum
+      sums[partCrossAt + t * partCount + c] = cross
+    }
+    let landCross = 0
+    for (let k = 0; k < columnCount; k++) landCross += weight[row + k]! * basisCross[landColumn * columnCount + k]!
+    const landSlope = plan.landSlope[t]!
+    sums[partSumAt + t * partCount + componentCount] = landSlope * basisSum[landColumn]!
+    sums[partCrossAt + t * partCount + componentCount] = landSlope * landCross
+  }
+}
+
+export function gumbelTile(
+  plan: OutlookPlan,
+  tables: SamplerTables,
+  scratch: TileScratch,
+  tileCount: number,
+  sums: Float64Array,
+  sumOffset: number,
+): void {
+  const gumbel = plan.gumbel!
+  const inverseScale = 1 / gumbel.scale
+  const yearCount = plan.years.length
+  const rise = scratch.rise
+  const expAt = sumOffset + plan.sumLayout.gumbelExp
+  const chanceAt = sumOffset + plan.sumLayout.returnChance
+  const periods = gumbel.returnPeriods
+  for (let t = 0; t < yearCount; t++) {
+    const riseAt = t * TILE
+    const center = plan.center[t]!
+    let sum = 0
+    for (let i = 0; i < tileCount; i++) sum += Math.exp((rise[riseAt + i]! - center) * inverseScale)
+    sums[expAt + t]! += sum
+    for (let r = 0; r < periods.length; r++) {
+      // Annual chance of exceeding today's T-year level z_T after a rise: 1 − F(z_T − rise) =
+      // 1 − exp(−y_T·e^{rise/λ}), with y_T = −ln(1 − 1/T).
+      const reducedVariate = -Math.log1p(-1 / periods[r]!)
+      let chance = 0
+      for (let i = 0; i < tileCount; i++) chance -= Math.expm1(-reducedVariate * Math.exp(rise[riseAt + i]! * inverseScale))
+      sums[chanceAt + t * periods.length + r]! += chance
+    }
+  }
+  const lifeAt = sumOffset + plan.sumLayout.lifeNoExceedance
+  for (let s = 0; s < tables.lifeSegments.length; s++) {
+    const segments = tables.lifeSegments[s]!
+    const lifeThresholds = plan.thresholds.filter((threshold) => threshold.lifeSpanIndex === s)
+    for (let i = 0; i < tileCount; i++) {
+      let peak = 0
+      for (const segment of segments) {
+        const to = rise[segment.to * TILE + i]! * inverseScale
+        if (to > peak) peak = to
+      }
+      let total = 0
+      for (const segment of segments) {
+        const from = segment.from < 0 ? 0 : rise[segment.from * TILE + i]! * inverseScale
+        const to = rise[segment.to * TILE + i]! * inverseScale
+        total += geometricRun(from - peak, (to - from) / segment.span, segment.steps)
+      }
+      // ln Σ_years e^{rise/λ}; the chance of no exceedance in the life is Π_years F(h − rise) =
+      // exp(−e^{−(h−μ)/λ} · Σ_years e^{rise/λ}).
+      const logSum = peak + Math.log(total)
+      for (const threshold of lifeThresholds) {
+        sums[lifeAt + threshold.lifeSumIndex!]! += Math.exp(-Math.exp(logSum - (threshold.height - gumbel.location) * inverseScale))
+      }
+    }
+  }
+}

@@ -1,0 +1,305 @@
+import { PASS, type SamplerTables } from './sampler-tables'
+import { TILE, type TileScratch } from './tile-scratch'
+import { COMPONENT_KIND_DRAWS, COMPONENT_KIND_PIECEWISE, type OutlookPlan } from './types'
+
+// Scores → anchor values → basis levels, one tile at a time.
+
+/**
+ * Independent scores → correlated through the Cholesky factor (rows that are a unit vector read the
+ * independent scores in place), and the anchor line of every sample whose piece is not found inline.
+ * `count` is the block's sample count: independent row k starts at k·count.
+ */
+export function scoreTile(
+  plan: OutlookPlan,
+  tables: SamplerTables,
+  scratch: TileScratch,
+  count: number,
+  tileStart: number,
+  tileCount: number,
+): void {
+  const componentCount = plan.componentKeys.length
+  const { scores, independent } = scratch
+  const zeroAt = (componentCount + 1) * plan.blockSize
+  const rowAt = (k: number) => (k > componentCount ? zeroAt : k * count + tileStart)
+  // Correlated score c = Σ_k L[c][k] · independent k over the non-zero entries of row c, four per pass
+  // (padding reads the zero row); the land-motion score stays independent.
+  for (let c = 0; c <= componentCount; c++) {
+    if (tables.identityRow[c]) {
+      scratch.scoreFrom[c] = independent
+      scratch.scoreAt[c] = c * count + tileStart
+      continue
+    }
+    scratch.scoreFrom[c] = scores
+    scratch.scoreAt[c] = c * TILE
+    const columns = tables.choleskyColumns[c]!
+    const weights = tables.choleskyWeights[c]!
+    const at = c * TILE
+    for (let p = 0; p < columns.length; p += PASS) {
+      const k0 = rowAt(columns[p]!)
+      const k1 = rowAt(columns[p + 1]!)
+      const k2 = rowAt(columns[p + 2]!)
+      const k3 = rowAt(columns[p + 3]!)
+      const l0 = weights[p]!
+      const l1 = weights[p + 1]!
+      const l2 = weights[p + 2]!
+      const l3 = weights[p + 3]!
+      if (p === 0 && l2 === 0) {
+        // Two entries or fewer (the padding weighs zero).
+        for (let i = 0; i < tileCount; i++) scores[at + i] = l0 * independent[k0 + i]! + l1 * independent[k1 + i]!
+      } else if (p === 0 && l3 === 0) {
+        for (let i = 0; i < tileCount; i++) scores[at + i] = l0 * independent[k0 + i]! + l1 * independent[k1 + i]! + l2 * independent[k2 + i]!
+      } else if (p === 0) {
+        for (let i = 0; i < tileCount; i++) {
+          scores[at + i] = l0 * independent[k0 + i]! + l1 * independent[k1 + i]! + l2 * independent[k2 + i]! + l3 * independent[k3 + i]!
+        }
+      } else {
+        for (let i = 0; i < tileCount; i++) {
+          scores[at + i] = scores[at + i]! + l0 * independent[k0 + i]! + l1 * independent[k1 + i]! + l2 * independent[k2 + i]! + l3 * independent[k3 + i]!
+        }
+      }
+    }
+  }
+  for (let c = 0; c < componentCount; c++) {
+    if (plan.kinds[c] === COMPONENT_KIND_PIECEWISE && !tables.inlinePiece[c]) piecewiseLines(plan, tables, scratch, c, tileCount)
+    else if (plan.kinds[c] === COMPONENT_KIND_DRAWS) drawLines(plan, scratch, c, tileCount)
+  }
+}
+
+/**
+ * Piece = number of breakpoints at or below the score, counted four at a time (padded with +∞) as a
+ * sum of comparisons: no data-dependent branch in the loop body.
+ */
+function piecewiseLines(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, c: number, tileCount: number): void {
+  const scores = scratch.scoreFrom[c]!
+  const from = scratch.scoreAt[c]!
+  const lineAt = scratch.lineAt
+  const anchors = plan.anchorCount[c]!
+  const padded = tables.paddedBreakpoints[c]!
+  const at = c * TILE
+  for (let k = 0; k < padded.length; k += PASS) {
+    const p0 = padded[k]!
+    const p1 = padded[k + 1]!
+    const p2 = padded[k + 2]!
+    const p3 = padded[k + 3]!
+    const base = k === 0 ? plan.lineStart[c]! : 0
+    for (let i = 0; i < tileCount; i++) {
+      const z = scores[from + i]!
+      const step = (+(z >= p0) + +(z >= p1) + +(z >= p2) + +(z >= p3)) * anchors
+      lineAt[at + i] = (k === 0 ? base : lineAt[at + i]!) + step
+    }
+  }
+}
+
+/** Rank = number of breakpoints Φ⁻¹(j/n) at or below the score, by bisection. */
+function drawLines(plan: OutlookPlan, scratch: TileScratch, c: number, tileCount: number): void {
+  const scores = scratch.scoreFrom[c]!
+  const from = scratch.scoreAt[c]!
+  const breakpoints = plan.breakpoints
+  const first = plan.breakpointStart[c]!
+  const last = first + plan.breakpointCount[c]!
+  const anchors = plan.anchorCount[c]!
+  const lineBase = plan.lineStart[c]! - first * anchors
+  const at = c * TILE
+  for (let i = 0; i < tileCount; i++) {
+    const z = scores[from + i]!
+    let low = first
+    let high = last
+    while (low < high) {
+      const middle = (low + high) >>> 1
+      if (breakpoints[middle]! <= z) low = middle + 1
+      else high = middle
+    }
+    scratch.lineAt[at + i] = lineBase + low * anchors
+  }
+}
+
+/**
+ * Each component's scaled anchor values less their all-scores-zero values (for the variance shares),
+ * and per basis column the sum of its slots' values into `sumsOf`: the centred basis, or the plain
+ * levels when the plan has draws. The land-motion column is its score in both.
+ */
+export function valueTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, tileCount: number): void {
+  const componentCount = plan.componentKeys.length
+  const landColumn = plan.basisCount - 1
+  scratch.sumsOf.fill(0, 0, landColumn * TILE)
+  for (let c = 0; c < componentCount; c++) {
+    const kind = plan.kinds[c]!
+    const anchors = plan.anchorCount[c]!
+    for (let a = 0; a < anchors; a++) {
+      if (kind === COMPONENT_KIND_PIECEWISE) {
+        // Anchors in threes (then ones): each sample's piece and score are read once per group.
+        if (anchors - a >= 3) {
+          if (tables.inlinePiece[c]) piecewiseThreeInline(plan, tables, scratch, c, a, tileCount)
+          else piecewiseThree(plan, scratch, c, a, tileCount)
+          a += 2
+        } else piecewiseOne(plan, tables, scratch, c, a, tileCount)
+      } else if (kind === COMPONENT_KIND_DRAWS) {
+        drawOne(plan, scratch, c, a, tileCount)
+      } else {
+        lognormalOne(plan, scratch, c, a, tileCount)
+      }
+    }
+  }
+  const landScores = scratch.scoreFrom[componentCount]!
+  const landAt = scratch.scoreAt[componentCount]!
+  scratch.levels.set(landScores.subarray(landAt, landAt + tileCount), landColumn * TILE)
+  scratch.basis.set(landScores.subarray(landAt, landAt + tileCount), landColumn * TILE)
+}
+
+/** Anchors a, a+1, a+2 of piecewise component c; the piece is found here (at most four breakpoints). */
+function piecewiseThreeInline(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, c: number, a: number, tileCount: number): void {
+  const { values, sumsOf: sums } = scratch
+  const scores = scratch.scoreFrom[c]!
+  const from = scratch.scoreAt[c]!
+  const intercepts = plan.anchorIntercept
+  const slopes = plan.anchorSlope
+  const anchors = plan.anchorCount[c]!
+  const padded = tables.paddedBreakpoints[c]!
+  const p0 = padded[0]!
+  const p1 = padded[1]!
+  const p2 = padded[2]!
+  const p3 = padded[3]!
+  const base = plan.lineStart[c]! + a
+  const slot = plan.valueStart[c]! + a
+  const o0 = slot * TILE
+  const o1 = o0 + TILE
+  const o2 = o1 + TILE
+  const j0 = plan.valueBasis[slot]! * TILE
+  const j1 = plan.valueBasis[slot + 1]! * TILE
+  const j2 = plan.valueBasis[slot + 2]! * TILE
+  const zero0 = plan.valueAtZero[slot]!
+  const zero1 = plan.valueAtZero[slot + 1]!
+  const zero2 = plan.valueAtZero[slot + 2]!
+  // What is taken off each value before it is summed: its value at zero when the sums are the centred
+  // basis, nothing when they are the levels (see `TileScratch.sumsOf`).
+  const taken0 = scratch.sumsAreLevels ? 0 : zero0
+  const taken1 = scratch.sumsAreLevels ? 0 : zero1
+  const taken2 = scratch.sumsAreLevels ? 0 : zero2
+  // A table of five levels has three breakpoints: the padding (+∞) is never reached, so skip it.
+  const fourth = p3 !== Infinity
+  for (let i = 0; i < tileCount; i++) {
+    const z = scores[from + i]!
+    const line = base + (+(z >= p0) + +(z >= p1) + +(z >= p2) + (fourth ? +(z >= p3) : 0)) * anchors
+    const x0 = intercepts[line]! + slopes[line]! * z
+    const x1 = intercepts[line + 1]! + slopes[line + 1]! * z
+    const x2 = intercepts[line + 2]! + slopes[line + 2]! * z
+    values[o0 + i] = x0 - zero0
+    values[o1 + i] = x1 - zero1
+    values[o2 + i] = x2 - zero2
+    sums[j0 + i]! += x0 - taken0
+    sums[j1 + i]! += x1 - taken1
+    sums[j2 + i]! += x2 - taken2
+  }
+}
+
+/** Anchors a, a+1, a+2 of piecewise component c, the piece already in `lineAt`. */
+function piecewiseThree(plan: OutlookPlan, scratch: TileScratch, c: number, a: number, tileCount: number): void {
+  const { values, sumsOf: sums, lineAt } = scratch
+  const scores = scratch.scoreFrom[c]!
+  const from = scratch.scoreAt[c]!
+  const intercepts = plan.anchorIntercept
+  const slopes = plan.anchorSlope
+  const slot = plan.valueStart[c]! + a
+  const at = c * TILE
+  const o0 = slot * TILE
+  const o1 = o0 + TILE
+  const o2 = o1 + TILE
+  const j0 = plan.valueBasis[slot]! * TILE
+  const j1 = plan.valueBasis[slot + 1]! * TILE
+  const j2 = plan.valueBasis[slot + 2]! * TILE
+  const zero0 = plan.valueAtZero[slot]!
+  const zero1 = plan.valueAtZero[slot + 1]!
+  const zero2 = plan.valueAtZero[slot + 2]!
+  // What is taken off each value before it is summed: its value at zero when the sums are the centred
+  // basis, nothing when they are the levels (see `TileScratch.sumsOf`).
+  const taken0 = scratch.sumsAreLevels ? 0 : zero0
+  const taken1 = scratch.sumsAreLevels ? 0 : zero1
+  const taken2 = scratch.sumsAreLevels ? 0 : zero2
+  for (let i = 0; i < tileCount; i++) {
+    const line = lineAt[at + i]! + a
+    const z = scores[from + i]!
+    const x0 = intercepts[line]! + slopes[line]! * z
+    const x1 = intercepts[line + 1]! + slopes[line + 1]! * z
+    const x2 = intercepts[line + 2]! + slopes[line + 2]! * z
+    values[o0 + i] = x0 - zero0
+    values[o1 + i] = x1 - zero1
+    values[o2 + i] = x2 - zero2
+    sums[j0 + i]! += x0 - taken0
+    sums[j1 + i]! += x1 - taken1
+    sums[j2 + i]! += x2 - taken2
+  }
+}
+
+/** Anchor a of piecewise component c (the piece inline or from `lineAt`). */
+function piecewiseOne(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, c: number, a: number, tileCount: number): void {
+  const { values, sumsOf: sums, lineAt } = scratch
+  const scores = scratch.scoreFrom[c]!
+  const from = scratch.scoreAt[c]!
+  const intercepts = plan.anchorIntercept
+  const slopes = plan.anchorSlope
+  const anchors = plan.anchorCount[c]!
+  const slot = plan.valueStart[c]! + a
+  const out = slot * TILE
+  const into = plan.valueBasis[slot]! * TILE
+  const zero = plan.valueAtZero[slot]!
+  const taken = scratch.sumsAreLevels ? 0 : zero
+  const at = c * TILE
+  if (tables.inlinePiece[c]) {
+    const padded = tables.paddedBreakpoints[c]!
+    const p0 = padded[0]!
+    const p1 = padded[1]!
+    const p2 = padded[2]!
+    const p3 = padded[3]!
+    const base = plan.lineStart[c]! + a
+    for (let i = 0; i < tileCount; i++) {
+      const z = scores[from + i]!
+      const line = base + (+(z >= p0) + +(z >= p1) + +(z >= p2) + +(z >= p3)) * anchors
+      const level = intercepts[line]! + slopes[line]! * z
+      values[out + i] = level - zero
+      sums[into + i]! += level - taken
+    }
+    return
+  }
+  for (let i = 0; i < tileCount; i++) {
+    const line = lineAt[at + i]! + a
+    const level = intercepts[line]! + slopes[line]! * scores[from + i]!
+    values[out + i] = level - zero
+    sums[into + i]! += level - taken
+  }
+}
+
+function drawOne(plan: OutlookPlan, scratch: TileScratch, c: number, a: number, tileCount: number): void {
+  const { values, sumsOf: sums, lineAt } = scratch
+  const intercepts = plan.anchorIntercept
+  const slot = plan.valueStart[c]! + a
+  const out = slot * TILE
+  const into = plan.valueBasis[slot]! * TILE
+  const zero = plan.valueAtZero[slot]!
+  const taken = scratch.sumsAreLevels ? 0 : zero
+  const at = c * TILE
+  for (let i = 0; i < tileCount; i++) {
+    const level = intercepts[lineAt[at + i]! + a]!
+    values[out + i] = level - zero
+    sums[into + i]! += level - taken
+  }
+}
+
+function lognormalOne(plan: OutlookPlan, scratch: TileScratch, c: number, a: number, tileCount: number): void {
+  const { values, sumsOf: sums } = scratch
+  const scores = scratch.scoreFrom[c]!
+  const from = scratch.scoreAt[c]!
+  const slot = plan.valueStart[c]! + a
+  const out = slot * TILE
+  const into = plan.valueBasis[slot]! * TILE
+  const zero = plan.valueAtZero[slot]!
+  const taken = scratch.sumsAreLevels ? 0 : zero
+  const shift = plan.lognormalShift[slot]!
+  const mu = plan.lognormalMu[slot]!
+  const sigma = plan.lognormalSigma[slot]!
+  const scale = plan.lognormalScale[slot]!
+  for (let i = 0; i < tileCount; i++) {
+    const level = scale * (shift + Math.exp(mu + sigma * scores[from + i]!))
+    values[out + i] = level - zero
+    sums[into + i]! += level - taken
+  }
+}
