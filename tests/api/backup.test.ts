@@ -8,6 +8,9 @@ import { ApiClient } from '../support/client'
 import { PLANNER } from '../support/demo-users'
 import { createTestDatabase, startServer, TEST_DATABASE_URL, type RunningServer, type TestDatabase } from '../support/server'
 
+// Three server starts and four command runs, each opening the database: generous on a busy machine.
+const ROUND_TRIP_TIMEOUT = 240_000
+
 const newSite = (name: string) => ({
   name,
   latitude: 48.2,
@@ -99,7 +102,7 @@ describe('backup and restore', () => {
     await roundTrip({ PGLITE_DATA_DIR: dataDir }, join(folder, 'pglite-backups'), /Stop the app first/)
     const beside = await readdir(folder)
     expect(beside.some(name => name.startsWith('pglite.before-restore-'))).toBe(true)
-  })
+  }, ROUND_TRIP_TIMEOUT)
 
   it('refuses a file that is not a backup, and leaves the folder as it was', async () => {
     const dataDir = join(folder, 'untouched')
@@ -133,6 +136,6 @@ if (TEST_DATABASE_URL) {
       const backupDir = join(folder, 'backups')
       await roundTrip({ DATABASE_URL: database.url }, backupDir, /Stop every app instance first/)
       expect((await readdir(backupDir)).some(name => name.startsWith('brinkwater-before-restore-'))).toBe(true)
-    })
+    }, ROUND_TRIP_TIMEOUT)
   })
 }

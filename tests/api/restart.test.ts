@@ -7,6 +7,9 @@ import { ApiClient } from '../support/client'
 import { PLANNER } from '../support/demo-users'
 import { createTestDatabase, startServer, TEST_DATABASE_URL, type RunningServer, type TestDatabase } from '../support/server'
 
+// Two server starts on a file database (PGlite's first open creates it): generous on a busy machine.
+const RESTART_TIMEOUT = 180_000
+
 const newSite = (name: string) => ({
   name,
   latitude: 48.3,
@@ -56,7 +59,7 @@ describe('data survives a restart', () => {
     await survivesRestart({ PGLITE_DATA_DIR: dataDir })
     // A clean stop hands the folder back.
     expect(existsSync(`${dataDir}.pid`)).toBe(false)
-  })
+  }, RESTART_TIMEOUT)
 
   it('a second server on a PGlite folder in use is refused, and the first keeps working', async () => {
     const dataDir = join(folder, 'shared')
@@ -76,7 +79,7 @@ describe('data survives a restart', () => {
     finally {
       await first.stop()
     }
-  })
+  }, RESTART_TIMEOUT)
 })
 
 // Only where a PostgreSQL server is given (CI's second API run); the PGlite cases always run.
@@ -88,6 +91,6 @@ if (TEST_DATABASE_URL) {
 
     it('in a PostgreSQL database', async () => {
       await survivesRestart({ DATABASE_URL: database.url })
-    })
+    }, RESTART_TIMEOUT)
   })
 }
