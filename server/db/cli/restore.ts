@@ -8,7 +8,7 @@ import { PGlite } from '@electric-sql/pglite'
 import pg from 'pg'
 import { APPLICATION_NAME, databaseOptionsFromEnv, describeUrl } from '../client'
 import { claimDataDir, dataDirHolder } from '../data-dir-lock'
-import { backupPath, parseArgs, runCli, timestamp } from './backup-files'
+import { BACKUP_FOLDER, backupPath, parseArgs, runCli, timestamp } from './backup-files'
 import { backupServer } from './backup'
 import { runPgTool } from './pg-tools'
 
@@ -82,7 +82,7 @@ export async function restoreServer(file: string, url: string, force: boolean) {
     throw new Error(`The app is connected to ${where} (${state.appConnections} connections). Stop every app instance first, then run the restore again (--force restores anyway).`)
   }
   if (state.tables > 0 && !force) {
-    throw new Error(`${where} already holds data. Restoring replaces it: stop the app, then run the restore again with --force (the current data is dumped into backups/ first).`)
+    throw new Error(`${where} already holds data. Restoring replaces it: stop the app, then run the restore again with --force (the current data is dumped into ${BACKUP_FOLDER} first).`)
   }
   const keptAs = state.tables > 0 ? await backupServer(url, await backupPath('postgresql', 'brinkwater-before-restore')) : undefined
   // One transaction: a failed restore leaves the database as it was.
