@@ -1,6 +1,7 @@
 import { and, eq, gt, sql } from 'drizzle-orm'
 import type { DatabaseHandle, DatabaseKind } from '~~/server/db/client'
 import { mailOutbox } from '~~/server/db/schema'
+import { scrubError } from './health-scrub'
 
 // What GET /api/health reports. The route is public, so nothing here names a host, an address,
 // a user or a secret: only kinds, counts, ages and a scrubbed error text.
@@ -58,17 +59,6 @@ async function probeDatabase(handle: DatabaseHandle): Promise<DatabaseHealth> {
   const journal = await migrationJournal()
   const latest = journal.find(entry => entry.when === Number(row?.latest))?.tag ?? null
   return { ok: true, kind: handle.kind, latencyMs, migrations: { applied: Number(row?.applied ?? 0), expected: journal.length, latest } }
-}
-
-/** Removes anything that could name a person, a host or a credential from an error text. */
-export function scrubError(text: string) {
-  return text
-    .replace(/\b[\w+-]+:\/\/\S+/g, '[url]')
-    .replace(/[\w.+-]+@[\w-]+(\.[\w-]+)+/g, '[address]')
-    .replace(/\b\d{1,3}(\.\d{1,3}){3}(:\d+)?\b/g, '[host]')
-    .replace(/\[?(?:[0-9a-f]{0,4}:){2,7}[0-9a-f]{0,4}\]?(?::\d+)?/gi, '[host]')
-    .replace(/\b(?=[\w-]*[a-z])[\w-]+(\.[\w-]+)+\b/gi, match => /^\d+(\.\d+)+$/.test(match) ? match : '[host]')
-    .slice(0, 200)
 }
 
 async function probeMail(): Promise<MailHealth> {
