@@ -12,6 +12,8 @@ export const SERVER_ENTRY = resolve(ROOT, '.output/server/index.mjs')
 export interface RunningServer {
   url: string
   stop: () => Promise<void>
+  /** Resolves with the exit code (null when killed by a signal) once the process has ended. */
+  exited: Promise<number | null>
   /** What the server has written to stdout and stderr so far. */
   output: () => string
 }
@@ -70,6 +72,7 @@ async function launch(env: Record<string, string>, ownDatabase: TestDatabase | u
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   })
+  const exited = new Promise<number | null>(resolveExit => child.once('exit', code => resolveExit(code)))
   let output = ''
   child.stdout!.on('data', (chunk) => { output += chunk })
   child.stderr!.on('data', (chunk) => { output += chunk })
@@ -89,6 +92,7 @@ async function launch(env: Record<string, string>, ownDatabase: TestDatabase | u
 
   return {
     url,
+    exited,
     output: () => output,
     async stop() {
       await stopChild(child)
