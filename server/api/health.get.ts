@@ -1,14 +1,10 @@
-import { sql } from 'drizzle-orm'
+import { checkHealth } from '~~/server/services/health'
 
-// Public liveness and readiness: answers once the database is open and migrated.
+// Public on purpose (load balancers and monitors ask it without signing in), so it reports only
+// kinds, counts and ages: no hosts, addresses or secrets. 503 when the database does not answer.
 export default defineEventHandler(async (event) => {
-  try {
-    const handle = await useDbHandle()
-    await handle.db.execute(sql`select 1`)
-    return { status: 'ok', database: handle.describe }
-  }
-  catch {
-    setResponseStatus(event, 503)
-    return { status: 'unavailable', database: 'not reachable' }
-  }
+  const health = await checkHealth()
+  if (health.status === 'down') setResponseStatus(event, 503)
+  setResponseHeader(event, 'cache-control', 'no-store')
+  return health
 })

@@ -1,21 +1,32 @@
-import { mkdir } from 'node:fs/promises'
 import { PGlite } from '@electric-sql/pglite'
 import type { PgDatabase, PgQueryResultHKT } from 'drizzle-orm/pg-core'
-import { drizzle } from 'drizzle-orm/pglite'
-import { migrate } from 'drizzle-orm/pglite/migrator'
+import { drizzle as drizzlePglite } from 'drizzle-orm/pglite'
+import { migrate as migratePglite } from 'drizzle-orm/pglite/migrator'
+import { drizzle as drizzleNodePg } from 'drizzle-orm/node-postgres'
+import { migrate as migrateNodePg } from 'drizzle-orm/node-postgres/migrator'
+import pg from 'pg'
+import { claimDataDir } from './data-dir-lock'
 import * as schema from './schema'
 
 /**
- * The one database type routes see. Both drizzle's PGlite driver and (later) node-postgres
- * produce a PgDatabase, so a PostgreSQL server can be plugged in here without touching routes.
+ * The one database type routes see. Both drizzle's PGlite driver and node-postgres produce a
+ * PgDatabase, so routes and services never know which one they run on.
  */
 export type Database = PgDatabase<PgQueryResultHKT, typeof schema>
 
+export type DatabaseKind = 'pglite' | 'postgresql'
+
 export interface DatabaseHandle {
   db: Database
-  /** Where the data lives, for logs and the health check; never contains a password. */
+  kind: DatabaseKind
+  /** Where the data lives, for logs; never contains a password. */
   describe: string
   migrate: (migrationsFolder: string) => Promise<void>
+  /**
+   * Runs `work` while no other app instance on the same database runs its own `exclusive` work,
+   * so instances starting side by side do not migrate or seed twice.
+   */
+  exclusive: <T>(work: () => Promise<T>) => Promise<T>
   close: () => Promise<void>
 }
 
@@ -24,27 +35,101 @@ export interface DatabaseOptions {
   url?: string
   /** PGlite data folder, or `memory://` for a throw-away database. */
   dataDir: string
+  /** Most connections one app instance holds to a PostgreSQL server. */
+  poolSize?: number
 }
 
+/** Connections from the app carry this name, so `db:restore` can see whether the app is running. */
+export const APPLICATION_NAME = 'brinkwater'
+/** Any fixed number: the advisory lock instances take while migrating and seeding. */
+const START_LOCK = 7_160_514_203
+
 export async function openDatabase(options: DatabaseOptions): Promise<DatabaseHandle> {
-  if (options.url) {
-    throw new Error('DATABASE_URL is set, but this build only runs on embedded PGlite. Unset DATABASE_URL to use PGlite under PGLITE_DATA_DIR.')
+  return options.url ? openServer(options.url, options.poolSize) : openPglite(options.dataDir)
+}
+
+async function openPglite(dataDir: string): Promise<DatabaseHandle> {
+  const inMemory = dataDir === 'memory://'
+  const release = inMemory ? async () => {} : await claimDataDir(dataDir)
+  try {
+    const client = inMemory ? new PGlite() : new PGlite(dataDir)
+    await client.waitReady
+    const db = drizzlePglite({ client, schema }) as unknown as Database
+    return {
+      db,
+      kind: 'pglite',
+      describe: inMemory ? 'PGlite (in memory)' : `PGlite (${dataDir})`,
+      migrate: folder => migratePglite(drizzlePglite({ client, schema }), { migrationsFolder: folder }),
+      // One process owns the folder (claimDataDir), so there is nobody to wait for.
+      exclusive: work => work(),
+      close: async () => {
+        await client.close()
+        await release()
+      },
+    }
   }
-  const inMemory = options.dataDir === 'memory://'
-  if (!inMemory) await mkdir(options.dataDir, { recursive: true })
-  const client = inMemory ? new PGlite() : new PGlite(options.dataDir)
-  await client.waitReady
-  const db = drizzle({ client, schema }) as unknown as Database
+  catch (error) {
+    await release()
+    throw error
+  }
+}
+
+async function openServer(url: string, poolSize = 10): Promise<DatabaseHandle> {
+  // Two at least: `exclusive` holds one while migrating through another.
+  const pool = new pg.Pool({ connectionString: url, max: Math.max(2, poolSize), connectionTimeoutMillis: 10_000, application_name: APPLICATION_NAME })
+  // An idle connection the server drops must not crash the process; the next query reconnects.
+  pool.on('error', error => console.error('[brinkwater] A pooled database connection failed:', error.message))
+  const db = drizzleNodePg({ client: pool, schema }) as unknown as Database
+  // Fail at start, with the reason, rather than on the first request.
+  try {
+    await pool.query('select 1')
+  }
+  catch (error) {
+    await pool.end()
+    throw new Error(`Could not connect to the PostgreSQL server at ${describeUrl(url)}: ${error instanceof Error ? error.message : error}`)
+  }
   return {
     db,
-    describe: inMemory ? 'PGlite (in memory)' : `PGlite (${options.dataDir})`,
-    migrate: folder => migrate(drizzle({ client, schema }), { migrationsFolder: folder }),
-    close: () => client.close(),
+    kind: 'postgresql',
+    describe: `PostgreSQL (${describeUrl(url)})`,
+    migrate: folder => migrateNodePg(drizzleNodePg({ client: pool, schema }), { migrationsFolder: folder }),
+    exclusive: async (work) => {
+      const holder = await pool.connect()
+      try {
+        await holder.query('select pg_advisory_lock($1)', [START_LOCK])
+        try {
+          return await work()
+        }
+        finally {
+          await holder.query('select pg_advisory_unlock($1)', [START_LOCK])
+        }
+      }
+      finally {
+        holder.release()
+      }
+    },
+    close: () => pool.end(),
+  }
+}
+
+/** `user@host:port/database`, without the password. */
+export function describeUrl(url: string) {
+  try {
+    const parsed = new URL(url)
+    const user = parsed.username ? `${decodeURIComponent(parsed.username)}@` : ''
+    return `${user}${parsed.host}${parsed.pathname}`
+  }
+  catch {
+    return 'an unreadable DATABASE_URL'
   }
 }
 
 export const DEFAULT_DATA_DIR = '.data/pglite'
 
 export function databaseOptionsFromEnv(env: NodeJS.ProcessEnv = process.env): DatabaseOptions {
-  return { url: env.DATABASE_URL || undefined, dataDir: env.PGLITE_DATA_DIR || DEFAULT_DATA_DIR }
+  return {
+    url: env.DATABASE_URL || undefined,
+    dataDir: env.PGLITE_DATA_DIR || DEFAULT_DATA_DIR,
+    poolSize: Number(env.DATABASE_POOL_SIZE) || undefined,
+  }
 }

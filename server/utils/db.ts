@@ -16,10 +16,21 @@ export async function useDbHandle() {
 
 async function start() {
   const handle = await openDatabase(databaseOptionsFromEnv())
-  await handle.migrate(await materialiseAssets('migrations'))
-  if (process.env.SEED_DEMO !== 'false' && await isEmpty(handle.db)) {
-    await seedDemo(handle.db, hashPassword)
-    console.info('[brinkwater] Empty database: seeded the illustrative demo coast.')
+  try {
+    const migrations = await materialiseAssets('migrations')
+    // Instances starting side by side on one server take turns, so only the first seeds.
+    await handle.exclusive(async () => {
+      await handle.migrate(migrations)
+      if (process.env.SEED_DEMO !== 'false' && await isEmpty(handle.db)) {
+        await seedDemo(handle.db, hashPassword)
+        console.info('[brinkwater] Empty database: seeded the illustrative demo coast.')
+      }
+    })
   }
+  catch (error) {
+    await handle.close().catch(() => {})
+    throw error
+  }
+  console.info(`[brinkwater] Database: ${handle.describe}.`)
   return handle
 }

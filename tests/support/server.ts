@@ -2,6 +2,9 @@ import { spawn, type ChildProcess } from 'node:child_process'
 import { once } from 'node:events'
 import { createServer } from 'node:net'
 import { resolve } from 'node:path'
+import { createTestDatabase, TEST_DATABASE_URL, type TestDatabase } from './database'
+
+export { createTestDatabase, TEST_DATABASE_URL, type TestDatabase } from './database'
 
 export const ROOT = resolve(import.meta.dirname, '../..')
 export const SERVER_ENTRY = resolve(ROOT, '.output/server/index.mjs')
@@ -11,6 +14,13 @@ export interface RunningServer {
   stop: () => Promise<void>
   /** Resolves with the exit code (null when killed by a signal) once the process has ended. */
   exited: Promise<number | null>
+  /** What the server has written to stdout and stderr so far. */
+  output: () => string
+}
+
+export interface StartOptions {
+  /** false: resolve once listening even if the health check answers 503 (database-fault tests). */
+  requireHealthy?: boolean
 }
 
 async function freePort(): Promise<number> {
@@ -24,10 +34,26 @@ async function freePort(): Promise<number> {
 }
 
 /**
- * Starts the built server on a free loopback port with its own in-memory PGlite database,
- * seeded with the demo coast, and resolves once it answers its health check.
+ * Starts the built server on a free loopback port with a database of its own, seeded with the
+ * demo coast, and resolves once it answers its health check. The database is in-memory PGlite,
+ * or, when BRINKWATER_TEST_DATABASE_URL is set, a fresh database on that PostgreSQL server,
+ * dropped by `stop()`. Pass `DATABASE_URL` (from `createTestDatabase()`) to start several servers
+ * on one database, or `PGLITE_DATA_DIR` for a PGlite folder; then the caller owns that database.
  */
-export async function startServer(env: Record<string, string> = {}): Promise<RunningServer> {
+export async function startServer(env: Record<string, string> = {}, options: StartOptions = {}): Promise<RunningServer> {
+  const ownDatabase: TestDatabase | undefined = TEST_DATABASE_URL && !env.DATABASE_URL && !env.PGLITE_DATA_DIR
+    ? await createTestDatabase()
+    : undefined
+  try {
+    return await launch(env, ownDatabase, options.requireHealthy ?? true)
+  }
+  catch (error) {
+    await ownDatabase?.drop()
+    throw error
+  }
+}
+
+async function launch(env: Record<string, string>, ownDatabase: TestDatabase | undefined, requireHealthy: boolean): Promise<RunningServer> {
   const port = await freePort()
   const url = `http://127.0.0.1:${port}`
   const child: ChildProcess = spawn(process.execPath, [SERVER_ENTRY], {
@@ -38,6 +64,7 @@ export async function startServer(env: Record<string, string> = {}): Promise<Run
       HOST: '127.0.0.1',
       PORT: String(port),
       PGLITE_DATA_DIR: 'memory://',
+      DATABASE_URL: ownDatabase?.url ?? '',
       NUXT_SESSION_PASSWORD: 'test-session-password-at-least-32-characters-long',
       PRECOMPUTE_DEMO_OUTLOOKS: 'false',
       APP_URL: url,
@@ -58,15 +85,25 @@ export async function startServer(env: Record<string, string> = {}): Promise<Run
 
   // The health route waits for migration and seeding, so one answer means ready.
   const health = await fetch(`${url}/api/health`)
-  if (!health.ok) throw new Error(`The server is not healthy (${health.status}):\n${output}`)
+  if (requireHealthy && !health.ok) {
+    await stopChild(child)
+    throw new Error(`The server is not healthy (${health.status}):\n${output}`)
+  }
 
   return {
     url,
     exited,
+    output: () => output,
     async stop() {
-      if (child.exitCode !== null) return
-      child.kill('SIGTERM')
-      await once(child, 'exit')
+      await stopChild(child)
+      await ownDatabase?.drop()
     },
   }
+}
+
+async function stopChild(child: ChildProcess) {
+  if (child.exitCode !== null || child.signalCode !== null) return
+  const exited = once(child, 'exit')
+  child.kill('SIGTERM')
+  await exited
 }

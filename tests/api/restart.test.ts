@@ -1,0 +1,96 @@
+import { existsSync } from 'node:fs'
+import { mkdtemp, rm } from 'node:fs/promises'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { ApiClient } from '../support/client'
+import { PLANNER } from '../support/demo-users'
+import { createTestDatabase, startServer, TEST_DATABASE_URL, type RunningServer, type TestDatabase } from '../support/server'
+
+// Two server starts on a file database (PGlite's first open creates it): generous on a busy machine.
+const RESTART_TIMEOUT = 180_000
+
+const newSite = (name: string) => ({
+  name,
+  latitude: 48.3,
+  longitude: -34.6,
+  referenceLevel: 'Mean sea level 2020 at the restart gauge',
+  landMotion: { rateMmPerYear: -1.5, sigmaMmPerYear: 0.4, source: 'gps', reference: 'Restart station', epoch: 2021 },
+  thresholds: [{ label: 'Slipway', height: 0.7 }],
+})
+
+async function plannerOn(server: RunningServer) {
+  const api = new ApiClient(server.url)
+  await api.signIn(PLANNER.email, PLANNER.password)
+  return api
+}
+
+/** Creates a site, stops the server with SIGTERM, starts a new one on the same data, reads it. */
+async function survivesRestart(env: Record<string, string>) {
+  const first = await startServer(env)
+  let id: string
+  try {
+    const created = await (await plannerOn(first)).post('/api/sites', newSite('Restart Quay'))
+    expect(created.status).toBe(201)
+    id = created.body.id
+  }
+  finally {
+    await first.stop()
+  }
+  const second = await startServer(env)
+  try {
+    const read = await (await plannerOn(second)).get(`/api/sites/${id}`)
+    expect(read.status).toBe(200)
+    expect(read.body).toMatchObject({ name: 'Restart Quay', landMotionRate: -1.5 })
+    expect(read.body.thresholds.map((t: { label: string }) => t.label)).toEqual(['Slipway'])
+  }
+  finally {
+    await second.stop()
+  }
+}
+
+describe('data survives a restart', () => {
+  let folder: string
+  beforeAll(async () => { folder = await mkdtemp(join(tmpdir(), 'brinkwater-restart-')) })
+  afterAll(async () => { await rm(folder, { recursive: true, force: true }) })
+
+  it('in a PGlite data folder', async () => {
+    const dataDir = join(folder, 'pglite')
+    await survivesRestart({ PGLITE_DATA_DIR: dataDir })
+    // A clean stop hands the folder back.
+    expect(existsSync(`${dataDir}.pid`)).toBe(false)
+  }, RESTART_TIMEOUT)
+
+  it('a second server on a PGlite folder in use is refused, and the first keeps working', async () => {
+    const dataDir = join(folder, 'shared')
+    const first = await startServer({ PGLITE_DATA_DIR: dataDir })
+    try {
+      const second = await startServer({ PGLITE_DATA_DIR: dataDir }, { requireHealthy: false })
+      try {
+        const health = await fetch(`${second.url}/api/health`)
+        expect(health.status).toBe(503)
+        expect(second.output()).toContain('is in use by process')
+      }
+      finally {
+        await second.stop()
+      }
+      expect((await (await plannerOn(first)).get('/api/sites')).status).toBe(200)
+    }
+    finally {
+      await first.stop()
+    }
+  }, RESTART_TIMEOUT)
+})
+
+// Only where a PostgreSQL server is given (CI's second API run); the PGlite cases always run.
+if (TEST_DATABASE_URL) {
+  describe('data survives a restart on a PostgreSQL server', () => {
+    let database: TestDatabase
+    beforeAll(async () => { database = await createTestDatabase() })
+    afterAll(async () => { await database?.drop() })
+
+    it('in a PostgreSQL database', async () => {
+      await survivesRestart({ DATABASE_URL: database.url })
+    }, RESTART_TIMEOUT)
+  })
+}
