@@ -1,7 +1,7 @@
 import { defineConfig } from 'vitest/config'
 
 // Two layers run by `npm test`: plain-Node unit tests and API tests against the built server.
-// Browser tests (the e2e project) run separately with `npm run test:e2e`, which checks for Chromium first.
+// `npm run test:postgres` runs what needs a PostgreSQL server. Browser tests (the e2e project) run separately with `npm run test:e2e`, which checks for Chromium first.
 export default defineConfig({
   test: {
     projects: [
@@ -19,6 +19,19 @@ export default defineConfig({
           globalSetup: ['tests/support/build.ts'],
           environment: 'node',
           testTimeout: 60_000,
+          hookTimeout: 240_000,
+          fileParallelism: false,
+        },
+      },
+      {
+        // Needs a PostgreSQL server: BRINKWATER_TEST_DATABASE_URL (`.ci/run` starts one). Several app
+        // instances on one database, which embedded PGlite cannot do.
+        test: {
+          name: 'postgres',
+          include: ['tests/postgres/**/*.test.ts'],
+          globalSetup: ['tests/support/build.ts'],
+          environment: 'node',
+          testTimeout: 120_000,
           hookTimeout: 240_000,
           fileParallelism: false,
         },

@@ -5,6 +5,8 @@ export default defineNitroPlugin((nitroApp) => {
     process.exitCode = 1
   })
   nitroApp.hooks.hook('close', async () => {
-    await (await useDbHandle()).close()
+    // A database that never opened has nothing to close (its error was reported above).
+    const handle = await useDbHandle().catch(() => null)
+    await handle?.close()
   })
 })

@@ -11,7 +11,7 @@ export async function listRecomputations(limit = 20) {
   const counts = batches.length
     ? await db.select({
         recomputationId: jobs.recomputationId, state: jobs.state,
-        count: sql<number>`count(*)::int`, lastFinished: sql<string | null>`max(${jobs.finishedAt})`,
+        count: sql<number>`count(*)::int`, lastFinished: sql<Date | null>`max(${jobs.finishedAt})`.mapWith(jobs.finishedAt),
       }).from(jobs).where(inArray(jobs.recomputationId, batches.map(b => b.id))).groupBy(jobs.recomputationId, jobs.state)
     : []
   const [queue] = await db.select({ count: sql<number>`count(*)::int` }).from(outlooks).where(eq(outlooks.state, 'running'))
@@ -21,10 +21,10 @@ export async function listRecomputations(limit = 20) {
       const mine = counts.filter(c => c.recomputationId === batch.id)
       const of = (state: string) => mine.find(c => c.state === state)?.count ?? 0
       const pending = of('queued') + of('running')
-      const lastFinished = mine.map(c => c.lastFinished).filter(Boolean).sort().at(-1) ?? null
+      const lastFinished = mine.map(c => c.lastFinished?.getTime() ?? 0).reduce((a, b) => Math.max(a, b), 0)
       return {
         ...batch, done: of('done'), failed: of('failed'), pending,
-        finishedAt: pending === 0 ? (lastFinished ? new Date(lastFinished).toISOString() : batch.createdAt.toISOString()) : null,
+        finishedAt: pending === 0 ? new Date(lastFinished || batch.createdAt.getTime()).toISOString() : null,
       }
     }),
   }

@@ -91,6 +91,9 @@ export async function createRelease(actor: CurrentUser, input: CreateReleaseInpu
     if (draws) await tx.insert(releaseDraws).values({ releaseId: created!.id, drawCount: draws.length, anchorCount: columns.anchorYears.length, values: encodeDraws(draws) })
     await writeAudit(tx, actor, 'release.drafted', { type: 'release', id: created!.id }, { series: seriesRow.id, version })
     return created!
+  }).catch((error) => {
+    if (isUniqueViolation(error)) throw createError({ statusCode: 409, message: `Someone started version ${version} of this series at the same moment. Open the series to see it before starting another.` })
+    throw error
   })
 }
 

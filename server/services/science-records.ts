@@ -24,6 +24,12 @@ async function nextVersion(table: Table, sameSeries: SQL, requested: number | un
   return next
 }
 
+/** Two people starting the same version at once: the second hears so (the version is unique). */
+function sameMoment(error: unknown, version: number, kind: ReviewedKind): never {
+  if (isUniqueViolation(error)) throw createError({ statusCode: 409, message: `Someone started version ${version} of this ${KIND_LABEL[kind]} at the same moment. Reload to see it before starting another.` })
+  throw error
+}
+
 const provenance = (input: { method: string, citation: string, doi?: string, licence: string }) =>
   ({ method: input.method, citation: input.citation, doi: input.doi ?? null, licence: input.licence })
 
@@ -39,7 +45,7 @@ export async function createCorrelationSet(actor: CurrentUser, input: CreateCorr
     }).returning({ id: correlationSets.id, version: correlationSets.version, state: correlationSets.state })
     await writeAudit(tx, actor, 'correlation-set.drafted', { type: 'correlation-set', id: created!.id }, { version })
     return created!
-  })
+  }).catch(error => sameMoment(error, version, 'correlation-set'))
 }
 
 function gridFrom(input: CreateScaleFactorGridInput): ScaleFactorGrid {
@@ -64,7 +70,7 @@ export async function createScaleFactorGrid(actor: CurrentUser, input: CreateSca
     }).returning({ id: scaleFactorGrids.id, version: scaleFactorGrids.version, state: scaleFactorGrids.state })
     await writeAudit(tx, actor, 'scale-factor-grid.drafted', { type: 'scale-factor-grid', id: created!.id }, { version })
     return { ...created!, warnings: gridWarnings(grid) }
-  })
+  }).catch(error => sameMoment(error, version, 'scale-factor-grid'))
 }
 
 function visible(table: Table, viewer: CurrentUser | null) {

@@ -141,6 +141,14 @@ describe('publishing a release', () => {
     expect(csv.body.split('\r\n')[0]).toBe('level,2050,2100,2150')
   })
 
+  it('lets only one of two versions started at the same moment through, and tells the other why (409)', async () => {
+    const [land] = (await author.get('/api/releases?component=land-water&scenario=SSP1-2.6&state=published')).body
+    const body = { seriesId: land.seriesId, form: 'normal', baselineYear: 2020, anchorYears: [2050, 2100, 2150], mean: [0.01, 0.02, 0.03], sd: [0.005, 0.01, 0.015], method: 'm', citation: 'c', licence: 'l' }
+    const answers = await Promise.all([author.post('/api/releases', body), author.post('/api/releases', body)])
+    expect(answers.map(r => r.status).sort()).toEqual([201, 409])
+    expect(answers.find(r => r.status === 409)!.body.message).toMatch(/(at the same moment|still a draft)/)
+  })
+
   it('previews a release without saving it', async () => {
     const preview = await author.post('/api/releases/preview', { form: 'normal', baselineYear: 2020, anchorYears: [2100], mean: [0.5], sd: [0.1] })
     expect(preview.status).toBe(200)
