@@ -1,0 +1,76 @@
+import type { H3Event } from 'h3'
+import { and, eq } from 'drizzle-orm'
+import { briefings } from '~~/server/db/schema'
+
+// The HTML of shared briefing pages, kept in memory so a link passed round a council meeting is
+// rendered once, not for every reader. An issued briefing never changes, so its page only changes
+// with the reader's language and cookies. Rules:
+// - only anonymous GETs without a query string (no session cookie) are cached or served from here;
+// - every hit asks the database whether the link is still shared, so a revoked link answers 404
+//   at once, on every app instance;
+// - each response gets a fresh CSP nonce: the page is stored with the nonce it was rendered with,
+//   and on the way out that value is replaced in the header and the tags by this response's nonce.
+//   Markup injected into the page could not have known the render-time nonce, so it stays blocked.
+
+interface CachedPage { body: string, headers: Record<string, string>, nonce: string, storedAt: number }
+
+const MAX_PAGES = 100
+const MAX_AGE_MS = 10 * 60_000
+const pages = new Map<string, CachedPage>()
+const TOKEN_PATH = /^\/shared\/([\w-]{20,64})$/
+// Headers that belong to one response only.
+const NOT_REPLAYED = new Set(['set-cookie', 'content-length', 'date', 'connection', 'transfer-encoding', 'keep-alive'])
+const SESSION_COOKIE = 'brinkwater-session='
+
+/** The share token when this request may use the cache; undefined otherwise. */
+export function cacheableSharedToken(event: H3Event): string | undefined {
+  if (event.method !== 'GET') return undefined
+  const cookies = getRequestHeader(event, 'cookie') ?? ''
+  if (cookies.includes(SESSION_COOKIE)) return undefined
+  return TOKEN_PATH.exec(event.path)?.[1]
+}
+
+/** Everything that can change the rendered page for one token: host (links), language and cookies (locale, units). */
+export function sharedPageKey(event: H3Event, token: string) {
+  return [token, ...['host', 'x-forwarded-host', 'x-forwarded-proto', 'accept-language', 'cookie']
+    .map(name => (getRequestHeader(event, name) ?? '').slice(0, 512))].join('\n')
+}
+
+export async function shareIsLive(token: string) {
+  const db = await useDb()
+  const [row] = await db.select({ id: briefings.id }).from(briefings)
+    .where(and(eq(briefings.shareToken, token), eq(briefings.state, 'issued'))).limit(1)
+  return row !== undefined
+}
+
+export function cachedSharedPage(key: string): CachedPage | undefined {
+  const page = pages.get(key)
+  if (!page) return undefined
+  if (Date.now() - page.storedAt > MAX_AGE_MS) {
+    pages.delete(key)
+    return undefined
+  }
+  return page
+}
+
+export function storeSharedPage(key: string, body: string, headers: Record<string, string>, nonce: string) {
+  const kept = Object.fromEntries(Object.entries(headers).filter(([name]) => !NOT_REPLAYED.has(name.toLowerCase())))
+  pages.delete(key)
+  pages.set(key, { body, headers: kept, nonce, storedAt: Date.now() })
+  // A Map keeps insertion order: the first key is the oldest page.
+  while (pages.size > MAX_PAGES) pages.delete(pages.keys().next().value!)
+}
+
+/** Forgets every cached page of a token (it was revoked). */
+export function forgetSharedPages(token: string) {
+  for (const key of pages.keys()) if (key.startsWith(`${token}\n`)) pages.delete(key)
+}
+
+/** The stored page with its render-time nonce replaced by this response's. */
+export function withFreshNonce(page: CachedPage, nonce: string | undefined) {
+  if (!nonce || !page.nonce) return { body: page.body, headers: page.headers }
+  const headers = { ...page.headers }
+  const csp = headers['content-security-policy']
+  if (csp) headers['content-security-policy'] = csp.replaceAll(`'nonce-${page.nonce}'`, `'nonce-${nonce}'`)
+  return { body: page.body.replaceAll(`nonce="${page.nonce}"`, `nonce="${nonce}"`), headers }
+}
