@@ -38,6 +38,9 @@ export class ApiClient {
     return fetch(this.baseUrl + path, { headers: this.cookies.size ? { cookie: [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ') } : {} })
   }
 
+  /** This client's cookies as a Cookie header (for tools that send their own requests). */
+  cookieHeader() { return [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ') }
+
   get<T = any>(path: string) { return this.request<T>('GET', path) }
   post<T = any>(path: string, body?: unknown) { return this.request<T>('POST', path, body) }
   patch<T = any>(path: string, body?: unknown) { return this.request<T>('PATCH', path, body) }

@@ -8,6 +8,8 @@ export const SERVER_ENTRY = resolve(ROOT, '.output/server/index.mjs')
 
 export interface RunningServer {
   url: string
+  /** The server's process id (the load test reads its peak memory from /proc). */
+  pid: number
   stop: () => Promise<void>
 }
 
@@ -59,6 +61,7 @@ export async function startServer(env: Record<string, string> = {}): Promise<Run
 
   return {
     url,
+    pid: child.pid!,
     async stop() {
       if (child.exitCode !== null) return
       child.kill('SIGTERM')
