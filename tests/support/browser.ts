@@ -17,18 +17,39 @@ export function launchBrowser(): Promise<Browser> {
 
 /**
  * A fresh signed-out context whose pages may talk only to the app: any other request is
- * blocked and recorded, so a test can assert that nothing left the machine.
+ * blocked and recorded, so a test can assert that nothing left the machine. Content security
+ * policy violations are recorded too.
  */
 export async function isolatedContext(browser: Browser, baseURL: string) {
   const context = await browser.newContext({ baseURL, viewport: { width: 1280, height: 860 } })
   const external: string[] = []
+  const cspViolations = await watchContentSecurityPolicy(context)
   await context.route('**/*', (route) => {
     const url = route.request().url()
     if (url.startsWith(baseURL) || url.startsWith('data:') || url.startsWith('blob:')) return route.continue()
     external.push(url)
     return route.abort()
   })
-  return { context, external }
+  return { context, external, cspViolations }
+}
+
+/**
+ * Collects every content security policy violation in a context's pages: the page's own
+ * securitypolicyviolation events and Chromium's console reports (which also cover workers), so a
+ * test can assert that the policy blocked nothing the app needs.
+ */
+async function watchContentSecurityPolicy(context: BrowserContext) {
+  const violations: string[] = []
+  await context.addInitScript(() => {
+    document.addEventListener('securitypolicyviolation', (event) => {
+      console.error(`Content Security Policy violation: ${event.effectiveDirective} blocked ${event.blockedURI || 'inline code'} (${event.sourceFile}:${event.lineNumber})`)
+    })
+  })
+  context.on('console', (message) => {
+    if (/Content Security Policy/i.test(message.text())) violations.push(`${message.page()?.url() ?? 'a worker'}: ${message.text()}`)
+  })
+  context.on('weberror', error => /Content Security Policy/i.test(String(error.error())) && violations.push(String(error.error())))
+  return violations
 }
 
 /** Goes to a path and waits until Vue has hydrated it, so clicks reach their handlers. */
