@@ -6,8 +6,8 @@ import { briefings } from '~~/server/db/schema'
 // rendered once, not for every reader. An issued briefing never changes, so its page only changes
 // with the reader's language and cookies. Rules:
 // - only anonymous GETs without a query string (no session cookie) are cached or served from here;
-// - every hit asks the database whether the link is still shared, so a revoked link answers 404
-//   at once, on every app instance;
+// - a revoked link answers 404 at once on the instance that revoked it, and within a second on any
+//   other instance sharing the database (hits re-check the link at most once a second);
 // - each response gets a fresh CSP nonce: the page is stored with the nonce it was rendered with,
 //   and on the way out that value is replaced in the header and the tags by this response's nonce.
 //   Markup injected into the page could not have known the render-time nonce, so it stays blocked.
@@ -36,10 +36,20 @@ export function sharedPageKey(event: H3Event, token: string) {
     .map(name => (getRequestHeader(event, name) ?? '').slice(0, 512))].join('\n')
 }
 
+// A page hit asks the database at most once a second per link (one query costs more than serving
+// the page). The instance that revokes a link forgets it at once (forgetSharedPages, called by
+// setSharing); another instance sharing the database stops serving it within this interval.
+const LIVE_RECHECK_MS = 1000
+const liveUntil = new Map<string, number>()
+
 export async function shareIsLive(token: string) {
+  const now = Date.now()
+  if ((liveUntil.get(token) ?? 0) > now) return true
   const db = await useDb()
   const [row] = await db.select({ id: briefings.id }).from(briefings)
     .where(and(eq(briefings.shareToken, token), eq(briefings.state, 'issued'))).limit(1)
+  if (row) liveUntil.set(token, now + LIVE_RECHECK_MS)
+  else liveUntil.delete(token)
   return row !== undefined
 }
 
@@ -63,12 +73,13 @@ export function storeSharedPage(key: string, body: string, headers: Record<strin
 
 /** Forgets every cached page of a token (it was revoked). */
 export function forgetSharedPages(token: string) {
+  liveUntil.delete(token)
   for (const key of pages.keys()) if (key.startsWith(`${token}\n`)) pages.delete(key)
 }
 
 /** The stored page with its render-time nonce replaced by this response's. */
-export function withFreshNonce(page: CachedPage, nonce: string | undefined) {
-  if (!nonce || !page.nonce) return { body: page.body, headers: page.headers }
+export function withFreshNonce(page: CachedPage, nonce: string) {
+  if (!page.nonce) return { body: page.body, headers: page.headers }
   const headers = { ...page.headers }
   const csp = headers['content-security-policy']
   if (csp) headers['content-security-policy'] = csp.replaceAll(`'nonce-${page.nonce}'`, `'nonce-${nonce}'`)
