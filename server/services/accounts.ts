@@ -3,7 +3,7 @@ import { and, eq, gt, isNull } from 'drizzle-orm'
 import { accountTokens, organisations, users } from '~~/server/db/schema'
 import type { z } from 'zod'
 import type { InvitationSchema } from '#shared/schemas/accounts'
-import { passwordProblem } from '#shared/schemas/users'
+import { passwordAddressProblem } from '#shared/schemas/users'
 import type { CurrentUser } from '../utils/auth'
 import { invitationMail, passwordResetMail } from '../mail/templates'
 import { hashToken } from './watches'
@@ -45,7 +45,7 @@ async function usableToken(kind: string, token: string) {
 
 /** The address is known only from the token, so this password rule is checked here, not in the schema. */
 function checkPasswordForAddress(password: string, email: string) {
-  const problem = passwordProblem(password, email)
+  const problem = passwordAddressProblem(password, email)
   if (problem) throw createError({ statusCode: 400, message: `password: ${problem}`, data: { issues: [{ field: 'password', message: problem }] } })
 }
 

@@ -21,7 +21,7 @@ function current(key: string, now: number): Window | undefined {
 function tooMany(event: H3Event | undefined, window: Window, now: number, message: string): never {
   const seconds = Math.max(1, Math.ceil((window.resetAt - now) / 1000))
   const minutes = Math.ceil(seconds / 60)
-  if (event) setResponseHeader(event, 'retry-after', String(seconds))
+  if (event) setResponseHeader(event, 'retry-after', seconds)
   throw createError({
     statusCode: 429,
     message: `${message} Try again in ${minutes} minute${minutes === 1 ? '' : 's'}.`,

@@ -37,7 +37,8 @@ describe('cross-site request forgery', () => {
   it('refuses a state-changing request from another site, with a message saying why', async () => {
     const planner = from(newClientAddress())
     await planner.signIn(PLANNER.email, PLANNER.password)
-    for (const headers of [{ origin: 'https://elsewhere.example' }, { 'sec-fetch-site': 'cross-site' }, { 'sec-fetch-site': 'same-site' }, { origin: 'null' }]) {
+    const forgeries: Record<string, string>[] = [{ origin: 'https://elsewhere.example' }, { 'sec-fetch-site': 'cross-site' }, { 'sec-fetch-site': 'same-site' }, { origin: 'null' }]
+    for (const headers of forgeries) {
       const forged = await planner.request('PATCH', '/api/me', { locale: 'es' }, { headers })
       expect(forged.status, JSON.stringify(headers)).toBe(403)
       expect(forged.body.message).toBe('This request came from another site, so it was refused. Open Brinkwater itself and try again there.')
