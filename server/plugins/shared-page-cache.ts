@@ -15,24 +15,50 @@ export default defineNitroPlugin((nitroApp) => {
 
   nitroApp.hooks.hook('beforeResponse', (event, response) => {
     const key = event.context.sharedPageKey as string | undefined
-    if (!key || getResponseStatus(event) !== 200 || typeof response.body !== 'string') return
-    const headers = Object.fromEntries(Object.entries(getResponseHeaders(event))
-      .filter((entry): entry is [string, string] => typeof entry[1] === 'string'))
-    if (!headers['content-type']?.startsWith('text/html')) return
-    storeSharedPage(key, response.body, headers, event.context.security?.nonce ?? '')
-    setResponseHeader(event, 'x-page-cache', 'miss')
+    if (!key) return
+    if (getResponseStatus(event) === 200 && typeof response.body === 'string') {
+      const headers = Object.fromEntries(Object.entries(getResponseHeaders(event))
+        .filter((entry): entry is [string, string] => typeof entry[1] === 'string'))
+      if (headers['content-type']?.startsWith('text/html')) {
+        storeSharedPage(key, response.body, headers, event.context.security?.nonce ?? '')
+        setResponseHeader(event, 'x-page-cache', 'miss')
+      }
+    }
+    event.context.sharedPageRendered?.()
   })
+  // Whatever happened to the render (an error, a closed connection), let waiting readers go on.
+  nitroApp.hooks.hook('afterResponse', event => event.context.sharedPageRendered?.())
+  nitroApp.hooks.hook('error', (_error, { event }) => event?.context.sharedPageRendered?.())
 })
 
-/** Answers from the cache when it may (true); otherwise marks the request for storing (false). */
+// Pages being rendered now, by key: a burst of readers arriving before the first render finished
+// waits for it instead of rendering the same page hundreds of times over.
+const rendering = new Map<string, Promise<void>>()
+const RENDER_WAIT_MS = 5000
+
+/** Answers from the cache when it may (true); otherwise lets the app render (false). */
 async function serveStoredPage(event: H3Event) {
   const token = cacheableSharedToken(event)
   if (!token) return false
   const key = sharedPageKey(event, token)
-  const page = cachedSharedPage(key)
+  let page = cachedSharedPage(key)
+  const inFlight = rendering.get(key)
+  if (!page && inFlight) {
+    await Promise.race([inFlight, new Promise(resolve => setTimeout(resolve, RENDER_WAIT_MS).unref())])
+    page = cachedSharedPage(key)
+  }
   if (!page || !(await shareIsLive(token))) {
     // A revoked link is forgotten and rendered as "no longer shared" (404) by the app.
     if (page) forgetSharedPages(token)
+    if (!rendering.has(key)) {
+      let done!: () => void
+      const render = new Promise<void>((resolve) => { done = resolve })
+      rendering.set(key, render)
+      event.context.sharedPageRendered = () => {
+        if (rendering.get(key) === render) rendering.delete(key)
+        done()
+      }
+    }
     event.context.sharedPageKey = key
     return false
   }

@@ -62,9 +62,11 @@ if (!existsSync(SERVER_ENTRY)) {
 const server = await startServer()
 try {
   const { shareToken, outlookId, cookie } = await sharedBriefing(server)
-  // One request first, so the run measures the cached page as readers meet it after the first one.
-  const first = await fetch(`${server.url}/shared/${shareToken}`)
+  // One request first (with the same headers as the run, which pick the cached copy), so the run
+  // measures the page as readers meet it after the first one.
+  const first = await fetch(`${server.url}/shared/${shareToken}`, { headers: { accept: 'text/html', 'accept-language': '' } })
   if (first.status !== 200) throw new Error(`The shared page answered ${first.status}`)
+  await first.text()
   const page = await run('shared briefing page (anonymous HTML)', `${server.url}/shared/${shareToken}`, { accept: 'text/html' })
   const outlook = await run('stored outlook read (signed-in planner)', `${server.url}/api/outlooks/${outlookId}`, { cookie, accept: 'application/json' })
   const peak = peakRssMb(server.pid)
