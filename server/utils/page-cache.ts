@@ -30,10 +30,18 @@ export function cacheableSharedToken(event: H3Event): string | undefined {
   return TOKEN_PATH.exec(event.path)?.[1]
 }
 
-/** Everything that can change the rendered page for one token: host (links), language and cookies (locale, units). */
+// The cookies the server reads while rendering (language, units, scenario); a new one that changes
+// what the server renders must be added here.
+const RENDER_COOKIES = ['brinkwater_locale', 'brinkwater_units', 'brinkwater_scenario']
+
+/** Everything that can change the rendered page for one token: host (links), language and those cookies. */
 export function sharedPageKey(event: H3Event, token: string) {
-  return [token, ...['host', 'x-forwarded-host', 'x-forwarded-proto', 'accept-language', 'cookie']
-    .map(name => (getRequestHeader(event, name) ?? '').slice(0, 512))].join('\n')
+  const cookies = parseCookies(event)
+  return [
+    token,
+    ...['host', 'x-forwarded-host', 'x-forwarded-proto', 'accept-language'].map(name => (getRequestHeader(event, name) ?? '').slice(0, 512)),
+    ...RENDER_COOKIES.map(name => (cookies[name] ?? '').slice(0, 64)),
+  ].join('\n')
 }
 
 // A page hit asks the database at most once a second per link (one query costs more than serving
