@@ -12,7 +12,9 @@ import { briefings } from '~~/server/db/schema'
 //   and on the way out that value is replaced in the header and the tags by this response's nonce.
 //   Markup injected into the page could not have known the render-time nonce, so it stays blocked.
 
-interface CachedPage { body: string, headers: Record<string, string>, nonce: string, storedAt: number }
+// The page is kept as bytes split where the render-time nonce stood, so a hit joins bytes with its
+// own nonce instead of searching and re-encoding the whole page.
+interface CachedPage { parts: Buffer[], headers: Record<string, string>, nonce: string, storedAt: number }
 
 const MAX_PAGES = 100
 const MAX_AGE_MS = 10 * 60_000
@@ -73,8 +75,9 @@ export function cachedSharedPage(key: string): CachedPage | undefined {
 
 export function storeSharedPage(key: string, body: string, headers: Record<string, string>, nonce: string) {
   const kept = Object.fromEntries(Object.entries(headers).filter(([name]) => !NOT_REPLAYED.has(name.toLowerCase())))
+  const parts = nonce ? body.split(`nonce="${nonce}"`) : [body]
   pages.delete(key)
-  pages.set(key, { body, headers: kept, nonce, storedAt: Date.now() })
+  pages.set(key, { parts: parts.map(part => Buffer.from(part)), headers: kept, nonce, storedAt: Date.now() })
   // A Map keeps insertion order: the first key is the oldest page.
   while (pages.size > MAX_PAGES) pages.delete(pages.keys().next().value!)
 }
@@ -85,11 +88,12 @@ export function forgetSharedPages(token: string) {
   for (const key of pages.keys()) if (key.startsWith(`${token}\n`)) pages.delete(key)
 }
 
-/** The stored page with its render-time nonce replaced by this response's. */
+/** The stored page with its render-time nonce replaced by a fresh one, in the tags and the header. */
 export function withFreshNonce(page: CachedPage, nonce: string) {
-  if (!page.nonce) return { body: page.body, headers: page.headers }
+  if (!page.nonce) return { body: Buffer.concat(page.parts), headers: page.headers }
   const headers = { ...page.headers }
   const csp = headers['content-security-policy']
   if (csp) headers['content-security-policy'] = csp.replaceAll(`'nonce-${page.nonce}'`, `'nonce-${nonce}'`)
-  return { body: page.body.replaceAll(`nonce="${page.nonce}"`, `nonce="${nonce}"`), headers }
+  const attribute = Buffer.from(`nonce="${nonce}"`)
+  return { body: Buffer.concat(page.parts.flatMap((part, i) => (i ? [attribute, part] : [part]))), headers }
 }
