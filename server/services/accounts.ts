@@ -3,6 +3,7 @@ import { and, eq, gt, isNull } from 'drizzle-orm'
 import { accountTokens, organisations, users } from '~~/server/db/schema'
 import type { z } from 'zod'
 import type { InvitationSchema } from '#shared/schemas/accounts'
+import { passwordAddressProblem } from '#shared/schemas/users'
 import type { CurrentUser } from '../utils/auth'
 import { invitationMail, passwordResetMail } from '../mail/templates'
 import { hashToken } from './watches'
@@ -42,6 +43,12 @@ async function usableToken(kind: string, token: string) {
   return row
 }
 
+/** The address is known only from the token, so this password rule is checked here, not in the schema. */
+function checkPasswordForAddress(password: string, email: string) {
+  const problem = passwordAddressProblem(password, email)
+  if (problem) throw createError({ statusCode: 400, message: `password: ${problem}`, data: { issues: [{ field: 'password', message: problem }] } })
+}
+
 export async function describeInvitation(token: string) {
   const row = await usableToken('invitation', token)
   const db = await useDb()
@@ -51,6 +58,7 @@ export async function describeInvitation(token: string) {
 
 export async function acceptInvitation(token: string, password: string) {
   const row = await usableToken('invitation', token)
+  checkPasswordForAddress(password, row.email)
   const passwordHash = await hashPassword(password)
   const db = await useDb()
   return db.transaction(async (tx) => {
@@ -80,6 +88,7 @@ export async function requestPasswordReset(email: string, language: 'en' | 'es')
 
 export async function completePasswordReset(token: string, password: string) {
   const row = await usableToken('password-reset', token)
+  checkPasswordForAddress(password, row.email)
   const passwordHash = await hashPassword(password)
   const db = await useDb()
   await db.transaction(async (tx) => {

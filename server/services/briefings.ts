@@ -137,6 +137,8 @@ export async function setSharing(planner: CurrentUser, id: string, shared: boole
   const token = shared ? (row.shareToken ?? randomBytes(24).toString('base64url')) : null
   const db = await useDb()
   await db.update(briefings).set({ shareToken: token, updatedAt: new Date() }).where(eq(briefings.id, id))
+  // The page cache drops the revoked link's pages now, rather than at its next check.
+  if (!shared && row.shareToken) forgetSharedPages(row.shareToken)
   await writeAudit(db, planner, shared ? 'briefing.shared' : 'briefing.unshared', { type: 'briefing', id })
   return { shareToken: token }
 }

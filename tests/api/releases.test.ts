@@ -26,8 +26,8 @@ beforeAll(async () => {
   // An analyst of another organisation, to prove drafts stay inside their own.
   const admin = await as(ADMIN.email, ADMIN.password)
   const council = (await admin.get('/api/organisations')).body.find((org: { kind: string }) => org.kind === 'council')
-  await admin.post('/api/admin/users', { email: 'analyst@caldwyn.example', name: 'Council Analyst', role: 'analyst', organisationId: council.id, password: 'council-analyst-pass' })
-  outsider = await as('analyst@caldwyn.example', 'council-analyst-pass')
+  await admin.post('/api/admin/users', { email: 'analyst@caldwyn.example', name: 'Council Analyst', role: 'analyst', organisationId: council.id, password: 'quay-lantern-harbour' })
+  outsider = await as('analyst@caldwyn.example', 'quay-lantern-harbour')
 })
 afterAll(async () => { await server?.stop() })
 

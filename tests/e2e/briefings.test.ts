@@ -11,6 +11,7 @@ let server: RunningServer
 let browser: Browser
 let context: BrowserContext
 let external: string[]
+let cspViolations: string[]
 let page: Page
 let outlookId: string
 /** An issued briefing made through the API, for the tests that read one rather than make one. */
@@ -21,7 +22,8 @@ const SECTIONS = ['1. Summary', '2. Charts', '3. Chances by year', '4. What this
 
 async function startSession(email: string, password: string) {
   await context.close()
-  ;({ context, external } = await isolatedContext(browser, server.url))
+  expect(cspViolations, 'content security policy violations').toEqual([])
+  ;({ context, external, cspViolations } = await isolatedContext(browser, server.url))
   page = await context.newPage()
   await signIn(page, email, password)
 }
@@ -48,13 +50,14 @@ beforeAll(async () => {
   expect((await planner.request.post(`/api/briefings/${issuedId}/issue`)).ok()).toBe(true)
   await setup.context.close()
   expect(setup.external).toEqual([])
+  expect(setup.cspViolations).toEqual([])
 })
 afterAll(async () => {
   await browser?.close()
   await server?.stop()
 })
 beforeEach(async () => {
-  ({ context, external } = await isolatedContext(browser, server.url))
+  ({ context, external, cspViolations } = await isolatedContext(browser, server.url))
   page = await context.newPage()
 })
 // Screenshots are kept for every failure (and for every test with BRINKWATER_SCREENSHOTS=all).
@@ -62,6 +65,7 @@ afterEach(async (ctx) => {
   if (ctx.task.result?.state === 'fail' || process.env.BRINKWATER_SCREENSHOTS === 'all') await screenshot(page, `briefings-${ctx.task.name}`)
   await context.close()
   expect(external, 'requests that left the app').toEqual([])
+  expect(cspViolations, 'content security policy violations').toEqual([])
 })
 
 // Steps worth looking at by eye, kept only when every screenshot is asked for.
@@ -137,6 +141,13 @@ describe('issuing and sharing a briefing', () => {
     expect(await reader.getByTestId('briefing-toolbar').count()).toBe(0)
     await noAxeFaults(reader, 'shared page')
     await snap(reader, 'shared')
+    // Later visits are served from the page cache with a fresh nonce: the page still hydrates and the
+    // policy blocks nothing. (The first visit set the language cookie, so the second renders once more.)
+    await open(reader, shareUrl)
+    const cached = await open(reader, shareUrl)
+    expect(cached?.headers()['x-page-cache']).toBe('hit')
+    expect(await reader.getByTestId('briefing-title').textContent()).toBe('Kelwick harbour: sea level to 2100')
+    expect(visitor.cspViolations, 'content security policy violations on the shared page').toEqual([])
 
     await page.getByTestId('share-revoke').click()
     await expect.poll(() => page.getByTestId('share-status').textContent()).toMatch(/revoked/)
@@ -147,6 +158,7 @@ describe('issuing and sharing a briefing', () => {
     await snap(reader, 'revoked')
     await visitor.context.close()
     expect(visitor.external).toEqual([])
+    expect(visitor.cspViolations).toEqual([])
 
     await open(page, '/briefings')
     const row = page.getByTestId(`briefing-row-${briefingPath.split('/').pop()}`)

@@ -9,7 +9,7 @@ let server: RunningServer
 let browser: Browser
 // Each test may act as several people at once (a planner, the admin, a visitor from an e-mail):
 // every one gets a fresh isolated context, all with external requests blocked.
-let people: { name: string, context: BrowserContext, external: string[], page: Page }[]
+let people: { name: string, context: BrowserContext, external: string[], cspViolations: string[], page: Page }[]
 
 beforeAll(async () => {
   server = await startServer()
@@ -27,12 +27,13 @@ afterEach(async (ctx) => {
     await person.context.close()
   }
   for (const person of people) expect(person.external, `requests that left the app (${person.name})`).toEqual([])
+  for (const person of people) expect(person.cspViolations, `content security policy violations (${person.name})`).toEqual([])
 })
 
 async function person(name: string) {
-  const { context, external } = await isolatedContext(browser, server.url)
+  const { context, external, cspViolations } = await isolatedContext(browser, server.url)
   const page = await context.newPage()
-  people.push({ name, context, external, page })
+  people.push({ name, context, external, cspViolations, page })
   return page
 }
 const snap = (page: Page, name: string) => (process.env.BRINKWATER_SCREENSHOTS === 'all' ? screenshot(page, `mail-step-${name}`) : undefined)

@@ -23,6 +23,8 @@ describe('a planner at work on the map and the outlook page', () => {
     await page.waitForURL('**/sites')
     await mapReady()
     expect(await page.getByTestId('site-table').locator('tbody tr').count()).toBe(5)
+    // The map drew its style with its worker, its own font and canvas under the content security policy.
+    expect(suite.cspViolations, 'content security policy violations on the map page').toEqual([])
     await noAxeFaults('sites page')
     await snap('map')
 
@@ -76,6 +78,8 @@ describe('a planner at work on the map and the outlook page', () => {
     for (const chart of ['exceedance-chart', 'fan-chart', 'timeline-chart', 'variance-chart']) {
       expect(await page.getByTestId(chart).getByTestId('chart-table').last().locator('tbody tr').count(), chart).toBeGreaterThan(3)
     }
+    await page.getByTestId('exceedance-chart').locator('svg').first().waitFor()
+    expect(suite.cspViolations, 'content security policy violations on the outlook page').toEqual([])
     const triggers = page.getByTestId('timeline-chart').getByTestId('chart-table').first()
     expect(await triggers.locator('tbody th').allTextContents()).toEqual(['Harbour wall crest (0.50 m)'])
     expect(await page.getByTestId('fan-chart').locator('svg').count()).toBeGreaterThan(0)

@@ -1,4 +1,4 @@
-import { mkdir } from 'node:fs/promises'
+import { mkdir, readFile } from 'node:fs/promises'
 import { createRequire } from 'node:module'
 import { resolve } from 'node:path'
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core'
@@ -17,18 +17,39 @@ export function launchBrowser(): Promise<Browser> {
 
 /**
  * A fresh signed-out context whose pages may talk only to the app: any other request is
- * blocked and recorded, so a test can assert that nothing left the machine.
+ * blocked and recorded, so a test can assert that nothing left the machine. Content security
+ * policy violations are recorded too.
  */
 export async function isolatedContext(browser: Browser, baseURL: string) {
   const context = await browser.newContext({ baseURL, viewport: { width: 1280, height: 860 } })
   const external: string[] = []
+  const cspViolations = await watchContentSecurityPolicy(context)
   await context.route('**/*', (route) => {
     const url = route.request().url()
     if (url.startsWith(baseURL) || url.startsWith('data:') || url.startsWith('blob:')) return route.continue()
     external.push(url)
     return route.abort()
   })
-  return { context, external }
+  return { context, external, cspViolations }
+}
+
+/**
+ * Collects every content security policy violation in a context's pages: the page's own
+ * securitypolicyviolation events and Chromium's console reports (which also cover workers), so a
+ * test can assert that the policy blocked nothing the app needs.
+ */
+async function watchContentSecurityPolicy(context: BrowserContext) {
+  const violations: string[] = []
+  await context.addInitScript(() => {
+    document.addEventListener('securitypolicyviolation', (event) => {
+      console.error(`Content Security Policy violation: ${event.effectiveDirective} blocked ${event.blockedURI || 'inline code'} (${event.sourceFile}:${event.lineNumber})`)
+    })
+  })
+  context.on('console', (message) => {
+    if (/Content Security Policy/i.test(message.text())) violations.push(`${message.page()?.url() ?? 'a worker'}: ${message.text()}`)
+  })
+  context.on('weberror', error => /Content Security Policy/i.test(String(error.error())) && violations.push(String(error.error())))
+  return violations
 }
 
 /** Goes to a path and waits until Vue has hydrated it, so clicks reach their handlers. */
@@ -48,9 +69,14 @@ export async function signIn(page: Page, email: string, password: string) {
 
 export interface AxeViolation { id: string, impact: string, help: string, nodes: { target: string[] }[] }
 
+let axeSource: string | undefined
+
 /** Serious and critical accessibility violations on the current page, by axe-core. */
 export async function seriousAxeViolations(page: Page): Promise<AxeViolation[]> {
-  await page.addScriptTag({ path: require.resolve('axe-core/axe.min.js') })
+  // Evaluated through the DevTools protocol, not added as a <script>: the app's content security
+  // policy (rightly) blocks inline scripts without its nonce.
+  axeSource ??= await readFile(require.resolve('axe-core/axe.min.js'), 'utf8')
+  await page.evaluate(axeSource)
   const violations = await page.evaluate(async () => {
     const result = await (window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: AxeViolation[] }> } })
       .axe.run(document, { resultTypes: ['violations'] })

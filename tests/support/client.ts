@@ -62,6 +62,8 @@ export class ApiClient {
       outgoing.on('error', reject).end()
     })
   }
+  /** This client's cookies as a Cookie header (for tools that send their own requests). */
+  cookieHeader() { return [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ') }
 
   get<T = any>(path: string) { return this.request<T>('GET', path) }
   post<T = any>(path: string, body?: unknown) { return this.request<T>('POST', path, body) }

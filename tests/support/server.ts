@@ -11,6 +11,8 @@ export const SERVER_ENTRY = resolve(ROOT, '.output/server/index.mjs')
 
 export interface RunningServer {
   url: string
+  /** The server's process id (the load test reads its peak memory from /proc). */
+  pid: number
   stop: () => Promise<void>
   /** Resolves with the exit code (null when killed by a signal) once the process has ended. */
   exited: Promise<number | null>
@@ -94,6 +96,7 @@ async function launch(env: Record<string, string>, ownDatabase: TestDatabase | u
     url,
     exited,
     output: () => output,
+    pid: child.pid!,
     async stop() {
       await stopChild(child)
       await ownDatabase?.drop()

@@ -1,0 +1,18 @@
+// Security settings that depend on where the app runs, decided once at start from APP_URL: over https
+// the session cookie is Secure, browsers are told to stay on https (HSTS) and to upgrade stray http
+// requests; over plain http (loopback, a test host) those would break sign-in or send the browser to
+// a port that does not exist.
+export default defineNitroPlugin((nitroApp) => {
+  const https = appUrl().startsWith('https:')
+  // nuxt-auth-utils reads its cookie options from the runtime config of the request, which Nitro
+  // builds from the environment (NUXT_SESSION_COOKIE_SECURE); an explicit setting wins.
+  process.env.NUXT_SESSION_COOKIE_SECURE ??= String(https)
+
+  if (!https) return
+  nitroApp.hooks.hook('nuxt-security:routeRules', (rules) => {
+    const all = rules['/**'] ??= {}
+    const headers = all.headers ||= {}
+    headers.strictTransportSecurity = { maxAge: 31_536_000, includeSubdomains: true }
+    if (headers.contentSecurityPolicy) headers.contentSecurityPolicy['upgrade-insecure-requests'] = true
+  })
+})

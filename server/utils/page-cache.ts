@@ -1,0 +1,99 @@
+import type { H3Event } from 'h3'
+import { and, eq } from 'drizzle-orm'
+import { briefings } from '~~/server/db/schema'
+
+// The HTML of shared briefing pages, kept in memory so a link passed round a council meeting is
+// rendered once, not for every reader. An issued briefing never changes, so its page only changes
+// with the reader's language and cookies. Rules:
+// - only anonymous GETs without a query string (no session cookie) are cached or served from here;
+// - a revoked link answers 404 at once on the instance that revoked it, and within a second on any
+//   other instance sharing the database (hits re-check the link at most once a second);
+// - each response gets a fresh CSP nonce: the page is stored with the nonce it was rendered with,
+//   and on the way out that value is replaced in the header and the tags by this response's nonce.
+//   Markup injected into the page could not have known the render-time nonce, so it stays blocked.
+
+// The page is kept as bytes split where the render-time nonce stood, so a hit joins bytes with its
+// own nonce instead of searching and re-encoding the whole page.
+interface CachedPage { parts: Buffer[], headers: Record<string, string>, nonce: string, storedAt: number }
+
+const MAX_PAGES = 100
+const MAX_AGE_MS = 10 * 60_000
+const pages = new Map<string, CachedPage>()
+const TOKEN_PATH = /^\/shared\/([\w-]{20,64})$/
+// Headers that belong to one response only.
+const NOT_REPLAYED = new Set(['set-cookie', 'content-length', 'date', 'connection', 'transfer-encoding', 'keep-alive'])
+const SESSION_COOKIE = 'brinkwater-session='
+
+/** The share token when this request may use the cache; undefined otherwise. */
+export function cacheableSharedToken(event: H3Event): string | undefined {
+  if (event.method !== 'GET') return undefined
+  const cookies = getRequestHeader(event, 'cookie') ?? ''
+  if (cookies.includes(SESSION_COOKIE)) return undefined
+  return TOKEN_PATH.exec(event.path)?.[1]
+}
+
+// The cookies the server reads while rendering (language, units, scenario); a new one that changes
+// what the server renders must be added here.
+const RENDER_COOKIES = ['brinkwater_locale', 'brinkwater_units', 'brinkwater_scenario']
+
+/** Everything that can change the rendered page for one token: host (links), language and those cookies. */
+export function sharedPageKey(event: H3Event, token: string) {
+  const cookies = parseCookies(event)
+  return [
+    token,
+    ...['host', 'x-forwarded-host', 'x-forwarded-proto', 'accept-language'].map(name => (getRequestHeader(event, name) ?? '').slice(0, 512)),
+    ...RENDER_COOKIES.map(name => (cookies[name] ?? '').slice(0, 64)),
+  ].join('\n')
+}
+
+// A page hit asks the database at most once a second per link (one query costs more than serving
+// the page). The instance that revokes a link forgets it at once (forgetSharedPages, called by
+// setSharing); another instance sharing the database stops serving it within this interval.
+const LIVE_RECHECK_MS = 1000
+const liveUntil = new Map<string, number>()
+
+export async function shareIsLive(token: string) {
+  const now = Date.now()
+  if ((liveUntil.get(token) ?? 0) > now) return true
+  const db = await useDb()
+  const [row] = await db.select({ id: briefings.id }).from(briefings)
+    .where(and(eq(briefings.shareToken, token), eq(briefings.state, 'issued'))).limit(1)
+  if (row) liveUntil.set(token, now + LIVE_RECHECK_MS)
+  else liveUntil.delete(token)
+  return row !== undefined
+}
+
+export function cachedSharedPage(key: string): CachedPage | undefined {
+  const page = pages.get(key)
+  if (!page) return undefined
+  if (Date.now() - page.storedAt > MAX_AGE_MS) {
+    pages.delete(key)
+    return undefined
+  }
+  return page
+}
+
+export function storeSharedPage(key: string, body: string, headers: Record<string, string>, nonce: string) {
+  const kept = Object.fromEntries(Object.entries(headers).filter(([name]) => !NOT_REPLAYED.has(name.toLowerCase())))
+  const parts = nonce ? body.split(`nonce="${nonce}"`) : [body]
+  pages.delete(key)
+  pages.set(key, { parts: parts.map(part => Buffer.from(part)), headers: kept, nonce, storedAt: Date.now() })
+  // A Map keeps insertion order: the first key is the oldest page.
+  while (pages.size > MAX_PAGES) pages.delete(pages.keys().next().value!)
+}
+
+/** Forgets every cached page of a token (it was revoked). */
+export function forgetSharedPages(token: string) {
+  liveUntil.delete(token)
+  for (const key of pages.keys()) if (key.startsWith(`${token}\n`)) pages.delete(key)
+}
+
+/** The stored page with its render-time nonce replaced by a fresh one, in the tags and the header. */
+export function withFreshNonce(page: CachedPage, nonce: string) {
+  if (!page.nonce) return { body: Buffer.concat(page.parts), headers: page.headers }
+  const headers = { ...page.headers }
+  const csp = headers['content-security-policy']
+  if (csp) headers['content-security-policy'] = csp.replaceAll(`'nonce-${page.nonce}'`, `'nonce-${nonce}'`)
+  const attribute = Buffer.from(`nonce="${nonce}"`)
+  return { body: Buffer.concat(page.parts.flatMap((part, i) => (i ? [attribute, part] : [part]))), headers }
+}

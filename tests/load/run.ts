@@ -1,0 +1,105 @@
+// `npm run load`: the built server on loopback with a database in a temporary folder, a shared
+// briefing set up through the API as the demo planner, then autocannon against (a) the public shared
+// briefing page and (b) a stored outlook read by a signed-in planner. Prints JSON; build first.
+//
+// Set-up runs in a first server process (creating the database, computing the outlook); the load
+// runs against a second process opened on the same folder, as a deployed server is: PGlite's
+// first-time initdb alone peaks at about 700 MB, while opening an existing folder takes about 250 MB.
+import { existsSync, readFileSync } from 'node:fs'
+import { mkdtemp, rm } from 'node:fs/promises'
+import { cpus, loadavg, tmpdir, totalmem } from 'node:os'
+import { join } from 'node:path'
+import autocannon from 'autocannon'
+import { ApiClient } from '../support/client'
+import { PLANNER } from '../support/demo-users'
+import { SERVER_ENTRY, startServer, type RunningServer } from '../support/server'
+
+const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 200)
+const SECONDS = Number(process.env.LOAD_SECONDS ?? 10)
+const TARGETS = { pageP95Ms: 100, errors: 0, peakRssMb: 400 }
+
+/** Peak resident memory of a process so far (VmHWM), in MB. */
+function peakRssMb(pid: number) {
+  const line = readFileSync(`/proc/${pid}/status`, 'utf8').split('\n').find(l => l.startsWith('VmHWM:'))
+  return line ? Math.round(Number(line.replace(/\D+/g, '')) / 102.4) / 10 : null
+}
+
+async function sharedBriefing(server: RunningServer) {
+  const planner = new ApiClient(server.url)
+  await planner.signIn(PLANNER.email, PLANNER.password)
+  const site = (await planner.get('/api/sites')).body.find((s: { name: string }) => s.name === 'Kelwick')
+  const thresholdIds = (await planner.get(`/api/sites/${site.id}`)).body.thresholds.map((t: { id: string }) => t.id)
+  const outlook = await planner.post(`/api/sites/${site.id}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, wait: true })
+  if (outlook.status >= 300) throw new Error(`The outlook failed: ${outlook.status} ${JSON.stringify(outlook.body)}`)
+  const draft = await planner.post('/api/briefings', {
+    outlookId: outlook.body.id, comparisonOutlookIds: [], title: 'Kelwick: sea level to 2100 (load test)', audience: 'Harbour committee',
+    localContext: 'Quay Street floods at spring tides.', language: 'en', units: 'm', thresholdIds, years: [2050, 2100],
+  })
+  if (draft.status !== 201) throw new Error(`The briefing failed: ${draft.status} ${JSON.stringify(draft.body)}`)
+  await planner.post(`/api/briefings/${draft.body.id}/issue`)
+  const { shareToken } = (await planner.post(`/api/briefings/${draft.body.id}/share`)).body
+  const cookie = planner.cookieHeader()
+  return { shareToken: shareToken as string, outlookId: outlook.body.id as string, cookie }
+}
+
+function run(name: string, url: string, headers: Record<string, string> = {}) {
+  return new Promise<Record<string, unknown>>((resolve, reject) => {
+    // Every response time, so p95 is exact (autocannon's summary has p90 and p97.5 but no p95).
+    const times: number[] = []
+    const instance = autocannon({ url, connections: CONNECTIONS, duration: SECONDS, headers }, (error, result) => {
+      if (error) return reject(error)
+      times.sort((a, b) => a - b)
+      const at = (p: number) => Math.round((times[Math.min(times.length - 1, Math.ceil((p / 100) * times.length) - 1)] ?? NaN) * 10) / 10
+      resolve({
+        name, url: url.replace(/\/shared\/[\w-]+/, '/shared/<token>'), connections: CONNECTIONS, seconds: SECONDS,
+        latencyMs: { p50: at(50), p95: at(95), p99: at(99), max: at(100) },
+        requestsPerSecond: result.requests.average, requests: result.requests.total,
+        errors: result.errors, timeouts: result.timeouts, non2xx: result.non2xx,
+      })
+    })
+    instance.on('response', (_client: unknown, _status: number, _bytes: number, responseTime: number) => times.push(responseTime))
+  })
+}
+
+if (!existsSync(SERVER_ENTRY)) {
+  console.error('No built server: run `npm run build` first.')
+  process.exit(1)
+}
+const dataDir = await mkdtemp(join(tmpdir(), 'brinkwater-load-'))
+const setupServer = await startServer({ PGLITE_DATA_DIR: dataDir })
+let setup: Awaited<ReturnType<typeof sharedBriefing>>
+let setupPeakRssMb: number | null
+try {
+  setup = await sharedBriefing(setupServer)
+  setupPeakRssMb = peakRssMb(setupServer.pid)
+}
+finally {
+  await setupServer.stop()
+}
+const server = await startServer({ PGLITE_DATA_DIR: dataDir })
+try {
+  const { shareToken, outlookId, cookie } = setup
+  // One request first (with the same headers as the run, which pick the cached copy), so the run
+  // measures the page as readers meet it after the first one.
+  const first = await fetch(`${server.url}/shared/${shareToken}`, { headers: { accept: 'text/html', 'accept-language': '' } })
+  if (first.status !== 200) throw new Error(`The shared page answered ${first.status}`)
+  await first.text()
+  const page = await run('shared briefing page (anonymous HTML)', `${server.url}/shared/${shareToken}`, { accept: 'text/html' })
+  const pagePeakRssMb = peakRssMb(server.pid)
+  const outlook = await run('stored outlook read (signed-in planner)', `${server.url}/api/outlooks/${outlookId}`, { cookie, accept: 'application/json' })
+  const peak = peakRssMb(server.pid)
+  const pageLatency = page.latencyMs as { p95: number }
+  const errors = [page, outlook].reduce((sum, r) => sum + (r.errors as number) + (r.timeouts as number) + (r.non2xx as number), 0)
+  console.log(JSON.stringify({
+    date: new Date().toISOString(), node: process.version, cpus: cpus().length, cpu: cpus()[0]?.model,
+    memoryGb: Math.round(totalmem() / 2 ** 30), loadAverage: loadavg().map(v => Math.round(v * 100) / 100),
+    results: [page, outlook],
+    serverPeakRssMb: { afterPage: pagePeakRssMb, afterOutlookReads: peak, setupProcess: setupPeakRssMb },
+    targets: TARGETS,
+    met: { pageP95: pageLatency.p95 <= TARGETS.pageP95Ms, errors: errors === TARGETS.errors, peakRss: peak !== null && peak <= TARGETS.peakRssMb },
+  }, null, 2))
+}
+finally {
+  await server.stop()
+  await rm(dataDir, { recursive: true, force: true })
+}
