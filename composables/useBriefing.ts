@@ -26,6 +26,8 @@ export interface BriefingView extends Omit<BriefingRow, 'siteName'> {
   outlookIds: string[]
   canEdit: boolean
   shareToken: string | null
+  /** The configured public address (APP_URL) that links are built on. */
+  appUrl: string
   document: BriefingDocument
 }
 

@@ -309,6 +309,14 @@ describe('hostile text a person may fairly type is kept as typed and shown escap
       expect(text).not.toContain('forged.example')
       expect(text).toContain(`${server.url}/shared/${shareToken}`)
     })
+
+    it('a forged Host header does not put its own link into the shared page', async () => {
+      const page = await getWithHost(`${server.url}/shared/${shareToken}`, 'forged.example')
+      expect(page.status).toBe(200)
+      const html = page.body.toString('utf8')
+      expect(html).not.toContain('forged.example')
+      expect(html).toContain(`${server.url}/shared/${shareToken}`)
+    })
   })
 
   it('exports neutralise formula cells: a threshold label =cmd|… is written with a leading quote', async () => {

@@ -9,5 +9,6 @@ export default defineEventHandler(async (event) => {
   const document = await briefingDocument(row)
   const { document: _frozen, shareToken, ...briefing } = row
   const canEdit = user.role === 'planner'
-  return { ...briefing, shareToken: canEdit ? shareToken : null, shared: shareToken !== null, canEdit, document }
+  // Links are built on the configured address (APP_URL), never on the request's Host header.
+  return { ...briefing, shareToken: canEdit ? shareToken : null, shared: shareToken !== null, canEdit, document, appUrl: appUrl() }
 })

@@ -7,5 +7,6 @@ const Params = z.object({ token: z.string().regex(/^[\w-]{20,64}$/) })
 export default defineEventHandler(async (event) => {
   const { token } = readValidParams(event, Params)
   const briefing = await sharedBriefing(token)
-  return { id: briefing.id, version: briefing.version, issuedAt: briefing.issuedAt, siteId: briefing.siteId, document: await briefingDocument(briefing) }
+  // The address printed on the page is the configured one (APP_URL), never the request's Host header.
+  return { id: briefing.id, version: briefing.version, issuedAt: briefing.issuedAt, siteId: briefing.siteId, link: `${appUrl()}/shared/${token}`, document: await briefingDocument(briefing) }
 })
