@@ -5,7 +5,7 @@ import { validateOutlookInput } from '#shared/engine'
 import { ENGINE_VERSION } from '#shared/engine/version'
 import type { OutlookRequest } from '#shared/schemas/sites'
 import type { CurrentUser } from '../utils/auth'
-import { correlationFor, latestReleases, scaleFactorsAt, scienceFor } from './science-inputs'
+import { correlationFor, latestReleaseVersions, scaleFactorsAt, scienceFor } from './science-inputs'
 import { awaitOutlook, kickOutlooks } from './outlook-jobs'
 import { loadSite } from './sites'
 
@@ -102,7 +102,7 @@ export interface NewerScience { component: string, usedVersion: number, latestVe
 
 /** Which releases an outlook used have since been superseded or withdrawn, and by what. */
 export async function newerScience(scenario: string, refs: OutlookReleaseRef[]): Promise<NewerScience[]> {
-  const latest = await latestReleases(scenario)
+  const latest = await latestReleaseVersions(scenario)
   return refs.flatMap((ref): NewerScience[] => {
     const now = latest.get(ref.component)
     if (!now) return [{ component: ref.component, usedVersion: ref.version, latestVersion: null, latestReleaseId: null }]

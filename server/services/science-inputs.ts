@@ -32,6 +32,21 @@ export async function latestReleases(scenario: string) {
   return latest
 }
 
+/**
+ * The latest published release of each component for a scenario: id and version only, for the
+ * newer-science check every outlook read makes (the parameters can be large and are not needed).
+ */
+export async function latestReleaseVersions(scenario: string) {
+  const db = await useDb()
+  const rows = await db.select({ id: releases.id, version: releases.version, component: series.component })
+    .from(releases).innerJoin(series, eq(series.id, releases.seriesId))
+    .where(and(eq(series.scenario, scenario), eq(releases.state, 'published')))
+    .orderBy(desc(releases.publishedAt))
+  const latest = new Map<string, typeof rows[number]>()
+  for (const row of rows) if (!latest.has(row.component)) latest.set(row.component, row)
+  return latest
+}
+
 export async function scienceFor(scenario: string): Promise<ScienceComponent[]> {
   const latest = await latestReleases(scenario)
   const missing = COMPONENTS.filter(component => !latest.has(component))

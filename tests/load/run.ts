@@ -12,7 +12,7 @@ import { join } from 'node:path'
 import autocannon from 'autocannon'
 import { ApiClient } from '../support/client'
 import { PLANNER } from '../support/demo-users'
-import { SERVER_ENTRY, startServer, type RunningServer } from '../support/server'
+import { SERVER_ENTRY, createTestDatabase, startServer, TEST_DATABASE_URL, type RunningServer } from '../support/server'
 
 const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 200)
 const SECONDS = Number(process.env.LOAD_SECONDS ?? 10)
@@ -65,8 +65,12 @@ if (!existsSync(SERVER_ENTRY)) {
   console.error('No built server: run `npm run build` first.')
   process.exit(1)
 }
-const dataDir = await mkdtemp(join(tmpdir(), 'brinkwater-load-'))
-const setupServer = await startServer({ PGLITE_DATA_DIR: dataDir })
+// The database both servers share: a PGlite folder by default; with BRINKWATER_TEST_DATABASE_URL, a fresh
+// database on that PostgreSQL server (the app process then holds no database engine of its own).
+const postgres = TEST_DATABASE_URL ? await createTestDatabase() : undefined
+const dataDir = postgres ? undefined : await mkdtemp(join(tmpdir(), 'brinkwater-load-'))
+const databaseEnv: Record<string, string> = postgres ? { DATABASE_URL: postgres.url } : { PGLITE_DATA_DIR: dataDir! }
+const setupServer = await startServer(databaseEnv)
 let setup: Awaited<ReturnType<typeof sharedBriefing>>
 let setupPeakRssMb: number | null
 try {
@@ -76,7 +80,7 @@ try {
 finally {
   await setupServer.stop()
 }
-const server = await startServer({ PGLITE_DATA_DIR: dataDir })
+const server = await startServer(databaseEnv)
 try {
   const { shareToken, outlookId, cookie } = setup
   // One request first (with the same headers as the run, which pick the cached copy), so the run
@@ -91,7 +95,7 @@ try {
   const pageLatency = page.latencyMs as { p95: number }
   const errors = [page, outlook].reduce((sum, r) => sum + (r.errors as number) + (r.timeouts as number) + (r.non2xx as number), 0)
   console.log(JSON.stringify({
-    date: new Date().toISOString(), node: process.version, cpus: cpus().length, cpu: cpus()[0]?.model,
+    date: new Date().toISOString(), database: postgres ? 'postgresql' : 'pglite', node: process.version, cpus: cpus().length, cpu: cpus()[0]?.model,
     memoryGb: Math.round(totalmem() / 2 ** 30), loadAverage: loadavg().map(v => Math.round(v * 100) / 100),
     results: [page, outlook],
     serverPeakRssMb: { afterPage: pagePeakRssMb, afterOutlookReads: peak, setupProcess: setupPeakRssMb },
@@ -101,5 +105,6 @@ try {
 }
 finally {
   await server.stop()
-  await rm(dataDir, { recursive: true, force: true })
+  if (dataDir) await rm(dataDir, { recursive: true, force: true })
+  await postgres?.drop()
 }
