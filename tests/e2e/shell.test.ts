@@ -15,7 +15,7 @@ const nav = () => page.getByTestId('main-nav')
 describe('the shell for each role', () => {
   // Sites and briefings belong to organisations that plan: their planners and readers see them.
   it.each([
-    { demo: ADMIN, links: ['Overview', 'Library', 'Watches', 'Users', 'Invitations', 'Mailbox', 'Outbox', 'Audit log'] },
+    { demo: ADMIN, links: ['Overview', 'Library', 'Watches', 'Users', 'Invitations', 'Mailbox', 'Outbox', 'Recomputations', 'Audit log'] },
     { demo: ANALYST, links: ['Overview', 'Library', 'Watches'] },
     { demo: PLANNER, links: ['Overview', 'Sites', 'Briefings', 'Library', 'Watches'] },
     { demo: READER, links: ['Overview', 'Sites', 'Briefings', 'Library', 'Watches'] },
