@@ -9,8 +9,6 @@ import { recomputeSite, startRecomputation, type JobOutcome, type RecomputeSiteP
 // throws is retried with backoff; one whose instance died is taken over when its lease runs out.
 
 export const MAX_JOB_ATTEMPTS = 5
-/** How soon a job waiting for outlooks looks again. */
-const WAIT_POLL_MS = 500
 
 const HANDLERS: Record<JobKind, (payload: Record<string, unknown>) => Promise<JobOutcome>> = {
   'science-change': async (payload) => {
@@ -54,7 +52,7 @@ async function runJob(job: Job) {
       await db.update(jobs).set({ state: 'done', finishedAt: new Date(), leaseUntil: null, error: null }).where(stillMine(job.id))
     }
     else {
-      await db.update(jobs).set({ state: 'queued', payload: outcome.payload, runAfter: new Date(Date.now() + WAIT_POLL_MS), leaseUntil: null }).where(stillMine(job.id))
+      await db.update(jobs).set({ state: 'queued', payload: outcome.payload, runAfter: new Date(Date.now() + outcome.retryInMs), leaseUntil: null }).where(stillMine(job.id))
     }
   }
   catch (error) {

@@ -19,7 +19,12 @@ export interface RecomputeSitePayload {
   cause: Cause
   /** Filled by the job's first pass: each latest outlook and the outlook queued to replace it. */
   pairs?: Array<{ before: string, after: string }>
+  /** How many times the job has found its outlooks still running. */
+  checks?: number
 }
+
+const FIRST_WAIT_MS = 500
+const MAX_WAIT_MS = 5000
 
 /** Queues one recompute-site job per site that has a finished outlook of the scenario (null: any). */
 export async function startRecomputation(tx: Tx, options: { scenario: string | null, cause: Cause, requestedBy: string | null }) {
@@ -37,7 +42,7 @@ export async function startRecomputation(tx: Tx, options: { scenario: string | n
   return batch!.id
 }
 
-export type JobOutcome = { state: 'done' } | { state: 'waiting', payload: Record<string, unknown> }
+export type JobOutcome = { state: 'done' } | { state: 'waiting', payload: Record<string, unknown>, retryInMs: number }
 
 /**
  * First pass: queue a new outlook for each of the site's latest ones (a science change that does
@@ -55,12 +60,19 @@ export async function recomputeSite(payload: RecomputeSitePayload): Promise<JobO
       const queued = await queueOutlook(site, before, null).catch(() => null)
       if (queued && queued.id !== before.id) pairs.push({ before: before.id, after: queued.id })
     }
-    return pairs.length ? { state: 'waiting', payload: { ...payload, pairs } } : { state: 'done' }
+    return pairs.length ? { state: 'waiting', payload: { ...payload, pairs }, retryInMs: FIRST_WAIT_MS } : { state: 'done' }
+  }
+  const db = await useDb()
+  // A light look first: while any new outlook is still being computed, wait longer each time, so a
+  // batch of hundreds of sites does not keep the database busy asking.
+  const afters = payload.pairs.map(pair => pair.after)
+  const states = await db.select({ id: outlooks.id, state: outlooks.state }).from(outlooks).where(inArray(outlooks.id, afters))
+  if (states.some(row => row.state === 'running')) {
+    const checks = (payload.checks ?? 0) + 1
+    return { state: 'waiting', payload: { ...payload, checks }, retryInMs: Math.min(MAX_WAIT_MS, FIRST_WAIT_MS * 2 ** (checks - 1)) }
   }
   const ids = payload.pairs.flatMap(pair => [pair.before, pair.after])
-  const db = await useDb()
   const rows = new Map((await db.select().from(outlooks).where(inArray(outlooks.id, ids))).map(row => [row.id, row]))
-  if (payload.pairs.some(pair => rows.get(pair.after)?.state === 'running')) return { state: 'waiting', payload: { ...payload } }
   const comparisons: Comparison[] = payload.pairs.flatMap(({ before, after }) => {
     const old = rows.get(before)
     const now = rows.get(after)

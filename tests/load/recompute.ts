@@ -51,10 +51,15 @@ async function main() {
       if (created.status !== 201) throw new Error(`Site ${i + 1}: ${created.status} ${JSON.stringify(created.body)}`)
       ids.push(created.body.id)
     }
+    console.error(`created ${SITES} sites`)
     const waiting = async () => (await admin.get('/api/admin/recomputations')).body.outlooksWaiting as number
     let started = performance.now()
     for (const id of ids) await planner.post(`/api/sites/${id}/outlooks`, { scenario: SCENARIO, samples: SAMPLES, seed: 1, wait: false })
-    while (await waiting() > 0) await delay(POLL_MS)
+    console.error(`queued ${SITES} outlooks after ${Math.round(performance.now() - started)} ms`)
+    for (let left = await waiting(); left > 0; left = await waiting()) {
+      console.error(`${left} outlooks still to compute`)
+      await delay(POLL_MS)
+    }
     const firstRunMs = performance.now() - started
 
     const analyst = await as(url, ANALYST.email, ANALYST.password)
