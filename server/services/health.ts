@@ -1,6 +1,6 @@
 import { and, eq, gt, sql } from 'drizzle-orm'
 import type { DatabaseHandle, DatabaseKind } from '~~/server/db/client'
-import { mailOutbox } from '~~/server/db/schema'
+import { jobs, mailOutbox, outlooks } from '~~/server/db/schema'
 import { scrubError } from './health-scrub'
 
 // What GET /api/health reports. The route is public, so nothing here names a host, an address,
@@ -25,10 +25,21 @@ export interface MailHealth {
   lastError?: string
 }
 
+/** Background work shared by every instance on the database (server/services/background.ts). */
+export interface WorkHealth {
+  /** Outlooks queued or being computed. */
+  outlooksRunning: number
+  /** Jobs queued, waiting on outlooks or running. */
+  jobsPending: number
+  /** Jobs given up on after every retry (their error is in the server log). */
+  jobsFailed: number
+}
+
 export interface Health {
   status: 'ok' | 'degraded' | 'down'
   database: DatabaseHealth
   mail: MailHealth | null
+  work: WorkHealth | null
 }
 
 const PROBE_TIMEOUT_MS = 3_000
@@ -82,6 +93,18 @@ async function probeMail(): Promise<MailHealth> {
   }
 }
 
+async function probeWork(): Promise<WorkHealth> {
+  const db = await useDb()
+  const [[outlookCounts], [jobCounts]] = await Promise.all([
+    db.select({ running: sql<number>`count(*)::int`.mapWith(Number) }).from(outlooks).where(eq(outlooks.state, 'running')),
+    db.select({
+      pending: sql<number>`count(*) filter (where ${jobs.state} in ('queued', 'running'))::int`.mapWith(Number),
+      failed: sql<number>`count(*) filter (where ${jobs.state} = 'failed')::int`.mapWith(Number),
+    }).from(jobs),
+  ])
+  return { outlooksRunning: outlookCounts?.running ?? 0, jobsPending: jobCounts?.pending ?? 0, jobsFailed: jobCounts?.failed ?? 0 }
+}
+
 export async function checkHealth(): Promise<Health> {
   let database: DatabaseHealth
   try {
@@ -90,10 +113,13 @@ export async function checkHealth(): Promise<Health> {
     database = await withTimeout(probeDatabase(handle), PROBE_TIMEOUT_MS, 'The database')
   }
   catch {
-    return { status: 'down', database: { ok: false, kind: process.env.DATABASE_URL ? 'postgresql' : 'pglite', latencyMs: null, migrations: null }, mail: null }
+    return { status: 'down', database: { ok: false, kind: process.env.DATABASE_URL ? 'postgresql' : 'pglite', latencyMs: null, migrations: null }, mail: null, work: null }
   }
-  const mail = await withTimeout(probeMail(), PROBE_TIMEOUT_MS, 'The mail outbox').catch(() => null)
+  const [mail, work] = await Promise.all([
+    withTimeout(probeMail(), PROBE_TIMEOUT_MS, 'The mail outbox').catch(() => null),
+    withTimeout(probeWork(), PROBE_TIMEOUT_MS, 'The job queue').catch(() => null),
+  ])
   const degraded = !mail || mail.failing > 0 || mail.oldestQueuedSeconds > MAIL_STALE_SECONDS
     || (database.migrations !== null && database.migrations.applied < database.migrations.expected)
-  return { status: degraded ? 'degraded' : 'ok', database, mail }
+  return { status: degraded ? 'degraded' : 'ok', database, mail, work }
 }

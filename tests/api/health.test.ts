@@ -20,7 +20,7 @@ describe('health of a working server', () => {
   beforeAll(async () => { server = await startServer() })
   afterAll(async () => { await server?.stop() })
 
-  it('answers anyone with the database kind, its migrations and an empty mail queue', async () => {
+  it('answers anyone with the database kind, its migrations, an empty mail queue and no background work', async () => {
     const response = await new ApiClient(server.url).get('/api/health')
     expect(response.status).toBe(200)
     expect(response.headers.get('cache-control')).toBe('no-store')
@@ -32,6 +32,7 @@ describe('health of a working server', () => {
         migrations: { applied: journal.entries.length, expected: journal.entries.length, latest: journal.entries.at(-1)!.tag },
       },
       mail: { transport: 'stand-in', queued: 0, failing: 0, failed: 0, oldestQueuedSeconds: 0 },
+      work: { outlooksRunning: 0, jobsPending: 0, jobsFailed: 0 },
     })
     expect(response.body.database.latencyMs).toBeGreaterThanOrEqual(0)
     expect(response.body.mail).not.toHaveProperty('lastError')
@@ -81,7 +82,7 @@ describe('health when the database does not answer', () => {
   it('answers 503 "down" and names neither the server nor the password', async () => {
     const response = await new ApiClient(server.url).get('/api/health')
     expect(response.status).toBe(503)
-    expect(response.body).toMatchObject({ status: 'down', database: { ok: false, kind: 'postgresql', latencyMs: null }, mail: null })
+    expect(response.body).toMatchObject({ status: 'down', database: { ok: false, kind: 'postgresql', latencyMs: null }, mail: null, work: null })
     expectNothingPrivate(response.body, 's3cret-word', String(closedPort), 'brinkwater:')
   })
 })
