@@ -1,4 +1,4 @@
-import { and, asc, eq, isNull, lt, lte, or, sql } from 'drizzle-orm'
+import { and, asc, eq, isNull, lt, lte, or } from 'drizzle-orm'
 import { jobs } from '~~/server/db/schema'
 import { mailBriefingIssued, type Cause } from './notify'
 import { kickOutlooks } from './outlook-jobs'
@@ -89,11 +89,4 @@ export function kickBackgroundWork(): Promise<void> {
     }
   })
   return running
-}
-
-/** Jobs queued and not yet finished, for the health check. */
-export async function pendingJobCount() {
-  const db = await useDb()
-  const [row] = await db.select({ count: sql<number>`count(*)::int` }).from(jobs).where(or(eq(jobs.state, 'queued'), eq(jobs.state, 'running')))
-  return row?.count ?? 0
 }

@@ -20,11 +20,7 @@ const newSite = (name: string) => ({
   thresholds: [{ label: 'Sea wall', height: 0.9 }],
 })
 
-async function plannerOn(server: RunningServer) {
-  const api = new ApiClient(server.url)
-  await api.signIn(PLANNER.email, PLANNER.password)
-  return api
-}
+const plannerOn = (server: RunningServer) => ApiClient.signedIn(server.url, PLANNER.email, PLANNER.password)
 
 /** Runs `work` against a server started on the given database, then stops it. */
 async function withServer<T>(env: Record<string, string>, work: (planner: ApiClient) => Promise<T>) {

@@ -15,12 +15,6 @@ const LEASE = { JOB_LEASE_MS: '1500', JOBS_POLL_MS: '100' }
 let dataDir: string
 let server: RunningServer | undefined
 
-async function as(url: string, email: string, password: string) {
-  const api = new ApiClient(url)
-  await api.signIn(email, password)
-  return api
-}
-
 /** The same data folder, started again; the previous process must have ended. */
 async function start(env: Record<string, string> = {}) {
   server = await startServer({ PGLITE_DATA_DIR: dataDir, ...LEASE, ...env })
@@ -38,14 +32,14 @@ afterAll(async () => {
 describe('killed mid-write', () => {
   it('an outlook whose result was being written is computed again after the restart, once', async () => {
     const crashing = await start({ BRINKWATER_FAULT: 'outlook-write' })
-    const planner = await as(crashing.url, PLANNER.email, PLANNER.password)
+    const planner = await ApiClient.signedIn(crashing.url, PLANNER.email, PLANNER.password)
     const [site] = (await planner.get('/api/sites')).body
     const queued = await planner.post(`/api/sites/${site.id}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 5, wait: false })
     expect(queued.status).toBe(202)
     expect(await crashing.exited).toBeNull()
 
     const restarted = await start()
-    const again = await as(restarted.url, PLANNER.email, PLANNER.password)
+    const again = await ApiClient.signedIn(restarted.url, PLANNER.email, PLANNER.password)
     const outlook = await vi.waitFor(async () => {
       const body = (await again.get(`/api/outlooks/${queued.body.id}`)).body
       if (body.state === 'running') throw new Error('not yet recomputed')
@@ -60,8 +54,8 @@ describe('killed mid-write', () => {
 
   it('a publication cut off inside its transaction leaves the old version published and the new one in review', async () => {
     const crashing = await start({ BRINKWATER_FAULT: 'release-publish' })
-    const analyst = await as(crashing.url, ANALYST.email, ANALYST.password)
-    const reviewer = await as(crashing.url, REVIEWER.email, REVIEWER.password)
+    const analyst = await ApiClient.signedIn(crashing.url, ANALYST.email, ANALYST.password)
+    const reviewer = await ApiClient.signedIn(crashing.url, REVIEWER.email, REVIEWER.password)
     const [glaciers] = (await analyst.get('/api/releases?component=glaciers&scenario=SSP5-8.5&state=published')).body
     const next = await analyst.post('/api/releases', { seriesId: glaciers.seriesId, form: 'normal', baselineYear: 2020, anchorYears: [2050, 2100, 2150], mean: [0.08, 0.16, 0.22], sd: [0.01, 0.03, 0.04], method: 'm', citation: 'c', licence: 'l' })
     await analyst.post(`/api/releases/${next.body.id}/submit`)
@@ -69,14 +63,14 @@ describe('killed mid-write', () => {
     expect(await crashing.exited).toBeNull()
 
     const restarted = await start()
-    const after = await as(restarted.url, REVIEWER.email, REVIEWER.password)
+    const after = await ApiClient.signedIn(restarted.url, REVIEWER.email, REVIEWER.password)
     expect((await after.get(`/api/releases/${next.body.id}`)).body.state).toBe('in-review')
     const published = (await after.get(`/api/releases?component=glaciers&scenario=SSP5-8.5&state=published`)).body as Array<{ id: string }>
     expect(published.map(r => r.id)).toEqual([glaciers.id])
     // Nothing of the cut-off transaction is left: the approval can be made again, and is audited once.
     expect((await after.post(`/api/releases/${next.body.id}/approve`)).body.state).toBe('published')
     expect((await after.get(`/api/releases/${glaciers.id}`)).body.state).toBe('superseded')
-    const admin = await as(restarted.url, ADMIN.email, ADMIN.password)
+    const admin = await ApiClient.signedIn(restarted.url, ADMIN.email, ADMIN.password)
     const audit = (await admin.get('/api/admin/audit')).body as Array<{ action: string, targetId: string }>
     expect(audit.filter(entry => entry.action === 'release.published' && entry.targetId === next.body.id)).toHaveLength(1)
     await restarted.stop()

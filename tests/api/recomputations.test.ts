@@ -11,12 +11,6 @@ let server: RunningServer
 let admin: ApiClient
 let planner: ApiClient
 
-async function as(email: string, password: string) {
-  const api = new ApiClient(server.url)
-  await api.signIn(email, password)
-  return api
-}
-
 interface Recomputation { id: string, scenario: string | null, siteCount: number, done: number, failed: number, pending: number, finishedAt: string | null, cause: Record<string, string> }
 
 /** Polls the admin list until the recomputation has finished. */
@@ -30,8 +24,8 @@ function finished(id: string) {
 
 beforeAll(async () => {
   server = await startServer({ JOBS_POLL_MS: '100' })
-  admin = await as(ADMIN.email, ADMIN.password)
-  planner = await as(PLANNER.email, PLANNER.password)
+  admin = await ApiClient.signedIn(server.url, ADMIN.email, ADMIN.password)
+  planner = await ApiClient.signedIn(server.url, PLANNER.email, PLANNER.password)
 })
 afterAll(async () => { await server?.stop() })
 
@@ -47,8 +41,8 @@ describe('recomputations', () => {
   })
 
   it('recomputes every site with an outlook of the scenario after a publication, and shows the progress to admins', async () => {
-    const analyst = await as(ANALYST.email, ANALYST.password)
-    const reviewer = await as(REVIEWER.email, REVIEWER.password)
+    const analyst = await ApiClient.signedIn(server.url, ANALYST.email, ANALYST.password)
+    const reviewer = await ApiClient.signedIn(server.url, REVIEWER.email, REVIEWER.password)
     const [glaciers] = (await analyst.get('/api/releases?component=glaciers&scenario=SSP2-4.5&state=published')).body
     const next = await analyst.post('/api/releases', { seriesId: glaciers.seriesId, form: 'normal', baselineYear: 2020, anchorYears: [2050, 2100, 2150], mean: [0.07, 0.13, 0.18], sd: [0.01, 0.03, 0.04], method: 'm', citation: 'c', licence: 'l' })
     await analyst.post(`/api/releases/${next.body.id}/submit`)

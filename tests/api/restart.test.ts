@@ -19,11 +19,7 @@ const newSite = (name: string) => ({
   thresholds: [{ label: 'Slipway', height: 0.7 }],
 })
 
-async function plannerOn(server: RunningServer) {
-  const api = new ApiClient(server.url)
-  await api.signIn(PLANNER.email, PLANNER.password)
-  return api
-}
+const plannerOn = (server: RunningServer) => ApiClient.signedIn(server.url, PLANNER.email, PLANNER.password)
 
 /** Creates a site, stops the server with SIGTERM, starts a new one on the same data, reads it. */
 async function survivesRestart(env: Record<string, string>) {

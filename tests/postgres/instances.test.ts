@@ -21,12 +21,6 @@ let smtp: TestSmtp
 let a: RunningServer
 let b: RunningServer
 
-async function as(server: RunningServer, email: string, password: string) {
-  const api = new ApiClient(server.url)
-  await api.signIn(email, password)
-  return api
-}
-
 beforeAll(async () => {
   database = await createTestDatabase()
   smtp = await new TestSmtp().start()
@@ -51,8 +45,8 @@ describe('two instances on one database', () => {
   })
 
   it('shares a recomputation after a publication: each outlook computed once, each e-mail sent once', async () => {
-    const plannerA = await as(a, PLANNER.email, PLANNER.password)
-    const plannerB = await as(b, PLANNER.email, PLANNER.password)
+    const plannerA = await ApiClient.signedIn(a.url, PLANNER.email, PLANNER.password)
+    const plannerB = await ApiClient.signedIn(b.url, PLANNER.email, PLANNER.password)
     const sites = ((await plannerA.get('/api/sites')).body as Array<{ id: string }>).slice(0, SITES)
     for (const [i, site] of sites.entries()) {
       const planner = i % 2 ? plannerB : plannerA
@@ -65,14 +59,14 @@ describe('two instances on one database', () => {
     }
 
     // Published through instance B, reviewed through instance A.
-    const analyst = await as(b, ANALYST.email, ANALYST.password)
-    const reviewer = await as(a, REVIEWER.email, REVIEWER.password)
+    const analyst = await ApiClient.signedIn(b.url, ANALYST.email, ANALYST.password)
+    const reviewer = await ApiClient.signedIn(a.url, REVIEWER.email, REVIEWER.password)
     const [antarctica] = (await analyst.get('/api/releases?component=antarctica&scenario=SSP5-8.5&state=published')).body
     const next = await analyst.post('/api/releases', { seriesId: antarctica.seriesId, form: 'normal', baselineYear: 2020, anchorYears: [2050, 2100, 2150], mean: [0.05, 0.2, 0.45], sd: [0.02, 0.1, 0.25], method: 'm', citation: 'c', licence: 'l' })
     expect((await analyst.post(`/api/releases/${next.body.id}/submit`)).status).toBe(200)
     expect((await reviewer.post(`/api/releases/${next.body.id}/approve`)).status).toBe(200)
 
-    const admin = await as(b, ADMIN.email, ADMIN.password)
+    const admin = await ApiClient.signedIn(b.url, ADMIN.email, ADMIN.password)
     const batch = await vi.waitFor(async () => {
       const row = (await admin.get('/api/admin/recomputations')).body.recomputations.find((r: { scenario: string }) => r.scenario === 'SSP5-8.5')
       if (!row?.finishedAt) throw new Error('recomputation not finished')
@@ -101,11 +95,11 @@ describe('two instances on one database', () => {
   })
 
   it('lets only one of two simultaneous approvals of a release through', async () => {
-    const analyst = await as(a, ANALYST.email, ANALYST.password)
+    const analyst = await ApiClient.signedIn(a.url, ANALYST.email, ANALYST.password)
     const [glaciers] = (await analyst.get('/api/releases?component=glaciers&scenario=SSP1-2.6&state=published')).body
     const next = await analyst.post('/api/releases', { seriesId: glaciers.seriesId, form: 'normal', baselineYear: 2020, anchorYears: [2050, 2100, 2150], mean: [0.05, 0.09, 0.12], sd: [0.01, 0.02, 0.03], method: 'm', citation: 'c', licence: 'l' })
     await analyst.post(`/api/releases/${next.body.id}/submit`)
-    const [viaA, viaB] = await Promise.all([as(a, REVIEWER.email, REVIEWER.password), as(b, REVIEWER.email, REVIEWER.password)])
+    const [viaA, viaB] = await Promise.all([ApiClient.signedIn(a.url, REVIEWER.email, REVIEWER.password), ApiClient.signedIn(b.url, REVIEWER.email, REVIEWER.password)])
     const answers = await Promise.all([viaA.post(`/api/releases/${next.body.id}/approve`), viaB.post(`/api/releases/${next.body.id}/approve`)])
     expect(answers.map(r => r.status).sort()).toEqual([200, 409])
     const { rows } = await sql.query(`select count(*)::int as n from audit_log where action = 'release.published' and target_id = $1`, [next.body.id])

@@ -69,6 +69,13 @@ export class ApiClient {
   post<T = any>(path: string, body?: unknown) { return this.request<T>('POST', path, body) }
   patch<T = any>(path: string, body?: unknown) { return this.request<T>('PATCH', path, body) }
 
+  /** A client for `baseUrl` already signed in as this person. */
+  static async signedIn(baseUrl: string, email: string, password: string) {
+    const api = new ApiClient(baseUrl)
+    await api.signIn(email, password)
+    return api
+  }
+
   async signIn(email: string, password: string) {
     const response = await this.post('/api/auth/sign-in', { email, password })
     if (response.status !== 200) throw new Error(`Sign-in as ${email} failed: ${response.status} ${JSON.stringify(response.body)}`)
