@@ -37,6 +37,8 @@ export interface DatabaseOptions {
   dataDir: string
   /** Most connections one app instance holds to a PostgreSQL server. */
   poolSize?: number
+  /** PGlite's shared_buffers, a PostgreSQL memory setting such as `32MB` (PGLITE_SHARED_BUFFERS). */
+  sharedBuffers?: string
 }
 
 /** Connections from the app carry this name, so `db:restore` can see whether the app is running. */
@@ -45,14 +47,28 @@ export const APPLICATION_NAME = 'brinkwater'
 const START_LOCK = 7_160_514_203
 
 export async function openDatabase(options: DatabaseOptions): Promise<DatabaseHandle> {
-  return options.url ? openServer(options.url, options.poolSize) : openPglite(options.dataDir)
+  return options.url ? openServer(options.url, options.poolSize) : openPglite(options.dataDir, options.sharedBuffers)
 }
 
-async function openPglite(dataDir: string): Promise<DatabaseHandle> {
+/**
+ * PGlite's buffer pool lives inside the app process and is touched as soon as the database opens, so
+ * PostgreSQL's server default (128 MB, sized for a machine of its own) costs the app about 100 MB of
+ * resident memory more than 32 MB does. An app's working set (sites, releases, the latest outlooks) fits
+ * in 32 MB, and a page that misses is read from the operating system's file cache.
+ */
+export const DEFAULT_PGLITE_SHARED_BUFFERS = '32MB'
+const MEMORY_SETTING = /^[1-9]\d{0,6}(?:kB|MB|GB)$/
+
+async function openPglite(dataDir: string, sharedBuffers = DEFAULT_PGLITE_SHARED_BUFFERS): Promise<DatabaseHandle> {
+  if (!MEMORY_SETTING.test(sharedBuffers)) {
+    throw new Error(`PGLITE_SHARED_BUFFERS is "${sharedBuffers}": give a whole number with kB, MB or GB, such as 32MB.`)
+  }
   const inMemory = dataDir === 'memory://'
   const release = inMemory ? async () => {} : await claimDataDir(dataDir)
   try {
-    const client = inMemory ? new PGlite() : new PGlite(dataDir)
+    // PGlite's own start parameters, with the buffer pool set (startParams replaces them, so repeat them).
+    const startParams = [...PGlite.defaultStartParams, '-c', `shared_buffers=${sharedBuffers}`]
+    const client = new PGlite({ dataDir: inMemory ? undefined : dataDir, startParams })
     await client.waitReady
     const db = drizzlePglite({ client, schema }) as unknown as Database
     return {
@@ -131,5 +147,6 @@ export function databaseOptionsFromEnv(env: NodeJS.ProcessEnv = process.env): Da
     url: env.DATABASE_URL || undefined,
     dataDir: env.PGLITE_DATA_DIR || DEFAULT_DATA_DIR,
     poolSize: Number(env.DATABASE_POOL_SIZE) || undefined,
+    sharedBuffers: env.PGLITE_SHARED_BUFFERS || undefined,
   }
 }
