@@ -2,6 +2,7 @@ import { and, desc, eq } from 'drizzle-orm'
 import { correlationSets, releaseDraws, releases, scaleFactorGrids, series } from '~~/server/db/schema'
 import { interpolateFactor } from '#shared/releases/grid'
 import { COMPONENTS } from '#shared/types/science'
+import { sharedReads } from '../utils/shared-reads'
 import { decodeDraws } from './releases'
 
 // The published science an outlook uses for one scenario: the latest published release of every
@@ -35,8 +36,9 @@ export async function latestReleases(scenario: string) {
 /**
  * The latest published release of each component for a scenario: id and version only, for the
  * newer-science check every outlook read makes (the parameters can be large and are not needed).
+ * Concurrent calls share one query (`sharedReads`).
  */
-export async function latestReleaseVersions(scenario: string) {
+export const latestReleaseVersions = sharedReads(async (scenario: string) => {
   const db = await useDb()
   const rows = await db.select({ id: releases.id, version: releases.version, component: series.component })
     .from(releases).innerJoin(series, eq(series.id, releases.seriesId))
@@ -44,8 +46,8 @@ export async function latestReleaseVersions(scenario: string) {
     .orderBy(desc(releases.publishedAt))
   const latest = new Map<string, typeof rows[number]>()
   for (const row of rows) if (!latest.has(row.component)) latest.set(row.component, row)
-  return latest
-}
+  return latest as ReadonlyMap<string, typeof rows[number]>
+})
 
 export async function scienceFor(scenario: string): Promise<ScienceComponent[]> {
   const latest = await latestReleases(scenario)

@@ -3,6 +3,7 @@ import { eq } from 'drizzle-orm'
 import { organisations, users } from '~~/server/db/schema'
 import type { Role } from '#shared/types/roles'
 import type { SessionUser } from '#shared/types/user'
+import { sharedReads } from './shared-reads'
 
 export type CurrentUser = SessionUser
 
@@ -51,7 +52,8 @@ export function assertSameOrganisation(user: CurrentUser, organisationId: string
   }
 }
 
-export async function loadSessionUser(id: string): Promise<CurrentUser | undefined> {
+/** The signed-in user's row as routes see it; undefined when missing or disabled (concurrent calls share a query). */
+export const loadSessionUser = sharedReads(async (id: string): Promise<CurrentUser | undefined> => {
   const db = await useDb()
   const [row] = await db.select({
     id: users.id,
@@ -69,4 +71,4 @@ export async function loadSessionUser(id: string): Promise<CurrentUser | undefin
   if (!row || row.disabled) return undefined
   const { disabled: _disabled, ...user } = row
   return { ...user, locale: user.locale === 'es' ? 'es' : 'en' }
-}
+})
