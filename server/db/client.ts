@@ -1,4 +1,3 @@
-import { PGlite } from '@electric-sql/pglite'
 import type { PgDatabase, PgQueryResultHKT } from 'drizzle-orm/pg-core'
 import { drizzle as drizzlePglite } from 'drizzle-orm/pglite'
 import { migrate as migratePglite } from 'drizzle-orm/pglite/migrator'
@@ -6,6 +5,7 @@ import { drizzle as drizzleNodePg } from 'drizzle-orm/node-postgres'
 import { migrate as migrateNodePg } from 'drizzle-orm/node-postgres/migrator'
 import pg from 'pg'
 import { claimDataDir } from './data-dir-lock'
+import { LeanPGlite } from './pglite-client'
 import * as schema from './schema'
 
 /**
@@ -67,9 +67,8 @@ async function openPglite(dataDir: string, sharedBuffers = DEFAULT_PGLITE_SHARED
   const release = inMemory ? async () => {} : await claimDataDir(dataDir)
   try {
     // PGlite's own start parameters, with the buffer pool set (startParams replaces them, so repeat them).
-    const startParams = [...PGlite.defaultStartParams, '-c', `shared_buffers=${sharedBuffers}`]
-    const client = new PGlite({ dataDir: inMemory ? undefined : dataDir, startParams })
-    await client.waitReady
+    const startParams = [...LeanPGlite.defaultStartParams, '-c', `shared_buffers=${sharedBuffers}`]
+    const client = await LeanPGlite.open({ dataDir: inMemory ? undefined : dataDir, startParams })
     const db = drizzlePglite({ client, schema }) as unknown as Database
     return {
       db,

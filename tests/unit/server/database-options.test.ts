@@ -17,7 +17,7 @@ describe('the embedded database\'s buffer pool (PGLITE_SHARED_BUFFERS)', () => {
   it('is the setting the running database uses', async () => {
     const handle = await openDatabase({ dataDir: 'memory://', sharedBuffers: '16MB' })
     try {
-      const result = await handle.db.execute(sql`show shared_buffers`)
+      const result = await handle.db.execute(sql`show shared_buffers`) as unknown as { rows: unknown[] }
       expect(result.rows).toEqual([{ shared_buffers: '16MB' }])
     }
     finally {
