@@ -1,16 +1,26 @@
 import { eq } from 'drizzle-orm'
 import { outlooks, sites } from '~~/server/db/schema'
 import type { CurrentUser } from '../utils/auth'
+import { sharedReads } from '../utils/shared-reads'
 import { newerScience } from './outlooks'
 
 type OutlookRow = typeof outlooks.$inferSelect
 
-// A finished outlook never changes, so the latest ones read are kept in memory, already turned into
-// JSON: a room full of people opening the same outlook skips reading, parsing and re-serialising its
-// 120 kB result each time (measured with `npm run load`). Running and failed outlooks, the site's own
-// fields and the newer-science check are always read fresh.
-interface Kept { row: OutlookRow, json: string }
-const finished = new Map<string, Kept>()
+// A finished outlook never changes, so the latest ones read are kept in memory as the UTF-8 bytes of
+// their stored fields: a room full of people opening the same outlook skips reading, parsing and
+// re-serialising its 120 kB result, and every response sends the same bytes instead of a fresh copy
+// (which, held while slow readers drain it, filled the heap under `npm run load`). Only what the live
+// fields need of the row is kept beside them, not the parsed result. Running and failed outlooks, the
+// site's own fields and the newer-science check are always read fresh.
+interface Loaded {
+  siteId: string
+  scenario: string
+  releaseRefs: OutlookRow['releaseRefs']
+  progress: number | null
+  /** The stored fields as JSON without the closing brace, ready for the live fields to follow. */
+  head: Buffer
+}
+const finished = new Map<string, Loaded>()
 const MAX_FINISHED = 50
 
 /** What a reader sees of the stored row: which instance holds the lease is the server's business. */
@@ -19,35 +29,52 @@ function readerFields(row: OutlookRow) {
   return rest
 }
 
-async function loadOutlook(id: string): Promise<{ row: OutlookRow, json?: string } | undefined> {
+function loaded(row: OutlookRow): Loaded {
+  const json = JSON.stringify(readerFields(row))
+  return {
+    siteId: row.siteId,
+    scenario: row.scenario,
+    releaseRefs: row.releaseRefs,
+    progress: row.state === 'running' ? row.progress : null,
+    head: Buffer.from(json.slice(0, -1)),
+  }
+}
+
+async function loadOutlook(id: string): Promise<Loaded | undefined> {
   const kept = finished.get(id)
   if (kept) return kept
   const db = await useDb()
   const [row] = await db.select().from(outlooks).where(eq(outlooks.id, id))
-  if (row?.state !== 'done') return row && { row }
-  const fresh = { row, json: JSON.stringify(readerFields(row)) }
+  if (!row) return undefined
+  if (row.state !== 'done') return loaded(row)
+  const fresh = loaded(row)
   finished.set(id, fresh)
   // A Map keeps insertion order: the first key is the oldest.
   if (finished.size > MAX_FINISHED) finished.delete(finished.keys().next().value!)
   return fresh
 }
 
-/** The outlook as JSON text, with its site's name, progress and whether newer science exists. */
-export async function getOutlookJson(user: CurrentUser, id: string): Promise<string> {
-  const loaded = await loadOutlook(id)
+/** What a reader needs of an outlook's site: who owns it, and the fields shown beside the outlook. */
+const siteOfOutlook = sharedReads(async (siteId: string) => {
   const db = await useDb()
-  const [site] = loaded
-    ? await db.select({ name: sites.name, organisationId: sites.organisationId, referenceLevel: sites.referenceLevel }).from(sites).where(eq(sites.id, loaded.row.siteId))
-    : []
-  if (!loaded || !site || site.organisationId !== user.organisationId) throw createError({ statusCode: 404, message: 'No such outlook.' })
-  const { row } = loaded
+  const [site] = await db.select({ name: sites.name, organisationId: sites.organisationId, referenceLevel: sites.referenceLevel }).from(sites).where(eq(sites.id, siteId))
+  return site
+})
+
+/**
+ * The outlook as one JSON object in two pieces of UTF-8: its stored fields (shared by every reader of
+ * a finished outlook), then its site's name, progress and whether newer science exists.
+ */
+export async function getOutlookBody(user: CurrentUser, id: string): Promise<[Buffer, Buffer]> {
+  const outlook = await loadOutlook(id)
+  const site = outlook && await siteOfOutlook(outlook.siteId)
+  if (!outlook || !site || site.organisationId !== user.organisationId) throw createError({ statusCode: 404, message: 'No such outlook.' })
   const live = JSON.stringify({
     siteName: site.name,
     referenceLevel: site.referenceLevel,
-    progress: row.state === 'running' ? row.progress : null,
-    newerScience: await newerScience(row.scenario, row.releaseRefs),
+    progress: outlook.progress,
+    newerScience: await newerScience(outlook.scenario, outlook.releaseRefs),
   })
-  // Two JSON objects joined into one: the stored fields, then the live ones (no key is in both).
-  const stored = loaded.json ?? JSON.stringify(readerFields(row))
-  return `${stored.slice(0, -1)},${live.slice(1)}`
+  // The stored object's closing brace was left off, so the live fields continue it (no key is in both).
+  return [outlook.head, Buffer.from(`,${live.slice(1)}`)]
 }

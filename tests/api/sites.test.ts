@@ -172,6 +172,25 @@ describe('outlooks', () => {
     expect((await planner.get(`/api/outlooks/${other}`)).body.result.byYear).not.toEqual(a.body.result.byYear)
   })
 
+  it('sends a kept outlook as one JSON document whose length counts bytes, with the site as it is now', async () => {
+    const named = (await planner.post('/api/sites', site({ name: 'Pørt Ærwick – Ōtaki quay' }))).body.id
+    const id = (await planner.post(`/api/sites/${named}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 7 })).body.id
+    const read = async () => {
+      const response = await planner.fetchRaw(`/api/outlooks/${id}`)
+      const bytes = Buffer.from(await response.arrayBuffer())
+      expect(response.headers.get('content-type')).toMatch(/^application\/json/)
+      expect(Number(response.headers.get('content-length'))).toBe(bytes.length)
+      return JSON.parse(bytes.toString('utf8'))
+    }
+    const first = await read()
+    expect(first).toMatchObject({ id, siteName: 'Pørt Ærwick – Ōtaki quay', state: 'done', newerScience: [] })
+    // The stored part is kept after the first read; the site's own fields are read fresh every time.
+    expect((await planner.patch(`/api/sites/${named}`, site({ name: 'Ōtaki quay' }))).status).toBe(200)
+    const second = await read()
+    expect(second.siteName).toBe('Ōtaki quay')
+    expect(second.result).toEqual(first.result)
+  })
+
   it('adds the land sinking to the rise: a sinking site is likelier to pass a height than a rising one', async () => {
     const sinking = (await planner.post('/api/sites', site({ name: 'Sinking', landMotion: { rateMmPerYear: -8, sigmaMmPerYear: 0, source: 'model', epoch: 2020 } }))).body.id
     const rising = (await planner.post('/api/sites', site({ name: 'Rising', landMotion: { rateMmPerYear: 8, sigmaMmPerYear: 0, source: 'model', epoch: 2020 } }))).body.id
