@@ -1,4 +1,5 @@
 import type { H3Event } from 'h3'
+import { deepFreeze } from '../utils/deep-freeze'
 
 // useRuntimeConfig(event) copies the whole runtime config and looks every key up in the environment
 // again, once per request (1–2 ms of CPU per request under `npm run load`; the session and i18n ask
@@ -6,14 +7,6 @@ import type { H3Event } from 'h3'
 // copy is made at the first request (after plugins such as security-runtime.ts have set theirs) and
 // every request shares it. It is frozen, so code that tried to change it per request would fail
 // loudly instead of leaking into other requests.
-function deepFreeze<T>(value: T): T {
-  if (value && typeof value === 'object' && !Object.isFrozen(value)) {
-    Object.freeze(value)
-    for (const child of Object.values(value)) deepFreeze(child)
-  }
-  return value
-}
-
 export default defineNitroPlugin((nitroApp) => {
   let shared: ReturnType<typeof useRuntimeConfig> | undefined
   nitroApp.hooks.hook('request', (event) => {

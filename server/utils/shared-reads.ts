@@ -1,3 +1,5 @@
+import { deepFreeze } from './deep-freeze'
+
 /**
  * Reads that many requests make at once with the same key (who is signed in, a site's name, the latest
  * releases of a scenario) share one database query while it is pending: a request that arrives while an
@@ -25,14 +27,4 @@ export function sharedReads<T>(read: (key: string) => Promise<T>): (key: string)
     query.then(forget, forget)
     return query
   }
-}
-
-function deepFreeze<T>(value: T): T {
-  if (value instanceof Map) {
-    for (const entry of value.values()) deepFreeze(entry)
-  }
-  else if (value && typeof value === 'object' && !Object.isFrozen(value)) {
-    for (const entry of Object.values(value)) deepFreeze(entry)
-  }
-  return value && typeof value === 'object' ? Object.freeze(value) : value
 }
