@@ -1,4 +1,4 @@
-// Security settings that depend on where the app runs, decided once at start from APP_URL: over https
+// Settings that depend on where the app runs, decided once at start from APP_URL: over https
 // the session cookie is Secure, browsers are told to stay on https (HSTS) and to upgrade stray http
 // requests; over plain http (loopback, a test host) those would break sign-in or send the browser to
 // a port that does not exist.
@@ -7,6 +7,9 @@ export default defineNitroPlugin((nitroApp) => {
   // nuxt-auth-utils reads its cookie options from the runtime config of the request, which Nitro
   // builds from the environment (NUXT_SESSION_COOKIE_SECURE); an explicit setting wins.
   process.env.NUXT_SESSION_COOKIE_SECURE ??= String(https)
+  // i18n builds the page's language links from its base URL (and warns in every page's console
+  // without one): the app's configured address, like every other link the app prints.
+  process.env.NUXT_PUBLIC_I18N_BASE_URL ??= appUrl()
 
   if (!https) return
   nitroApp.hooks.hook('nuxt-security:routeRules', (rules) => {
