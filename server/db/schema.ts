@@ -352,3 +352,15 @@ export const jobs = pgTable('jobs', {
   index('jobs_due_idx').on(table.state, table.runAfter),
   index('jobs_recomputation_idx').on(table.recomputationId),
 ])
+
+/**
+ * Fixed-window counts for rate limits (failed sign-ins, public writes), kept in the database so that
+ * every app instance counts against the same limit. Ended windows are swept now and then.
+ */
+export const rateWindows = pgTable('rate_windows', {
+  key: text('key').primaryKey(),
+  count: integer('count').notNull(),
+  resetAt: timestamp('reset_at', { withTimezone: true }).notNull(),
+}, table => [
+  index('rate_windows_reset_idx').on(table.resetAt),
+])

@@ -1,25 +1,53 @@
 import type { H3Event } from 'h3'
+import { sql } from 'drizzle-orm'
 
-// A small fixed-window limiter kept in memory: enough to stop one address or one client from
-// flooding public write endpoints or guessing passwords. Several app instances each keep their own
-// count, so behind a load balancer the real limit is the limit times the number of instances.
+// A small fixed-window limiter, enough to stop one address or one client from flooding public write
+// endpoints or guessing passwords. The counts live in the database (`rate_windows`), counted with one
+// atomic upsert on the database's clock, so several app instances share one limit instead of each
+// allowing the full amount.
 
-interface Window { count: number, resetAt: number }
-const windows = new Map<string, Window>()
-// Windows that ended are dropped now and then, so one-off keys (addresses, clients) do not pile up.
+interface Window { count: number, secondsLeft: number }
+type Row = { count: number, seconds_left: number }
+
+const rows = (result: unknown) => (result as { rows: Row[] }).rows
+const toWindow = (row: Row | undefined): Window | undefined => row && { count: Number(row.count), secondsLeft: Number(row.seconds_left) }
+
+// Windows that ended are deleted now and then, so one-off keys (addresses, clients) do not pile up.
+const SWEEP_EVERY_MS = 60_000
 let nextSweep = 0
 
-function current(key: string, now: number): Window | undefined {
-  if (now >= nextSweep) {
-    for (const [k, w] of windows) if (w.resetAt <= now) windows.delete(k)
-    nextSweep = now + 60_000
-  }
-  const window = windows.get(key)
-  return window && window.resetAt > now ? window : undefined
+async function sweep() {
+  const now = Date.now()
+  if (now < nextSweep) return
+  nextSweep = now + SWEEP_EVERY_MS
+  const db = await useDb()
+  await db.execute(sql`delete from rate_windows where reset_at <= now()`)
 }
 
-function tooMany(event: H3Event | undefined, window: Window, now: number, message: string): never {
-  const seconds = Math.max(1, Math.ceil((window.resetAt - now) / 1000))
+/** Counts one call for `key` and returns its window: a new one if none is open. */
+async function count(key: string, windowMs: number): Promise<Window> {
+  const db = await useDb()
+  const result = await db.execute(sql`
+    insert into rate_windows (key, count, reset_at) values (${key}, 1, now() + ${windowMs / 1000}::float8 * interval '1 second')
+    on conflict (key) do update set
+      count = case when rate_windows.reset_at <= now() then 1 else rate_windows.count + 1 end,
+      reset_at = case when rate_windows.reset_at <= now() then excluded.reset_at else rate_windows.reset_at end
+    returning count, greatest(1, ceil(extract(epoch from reset_at - now())))::int as seconds_left`)
+  await sweep()
+  return toWindow(rows(result)[0])!
+}
+
+/** The open window of `key`, if any, without counting. */
+async function peek(key: string): Promise<Window | undefined> {
+  const db = await useDb()
+  const result = await db.execute(sql`
+    select count, greatest(1, ceil(extract(epoch from reset_at - now())))::int as seconds_left
+    from rate_windows where key = ${key} and reset_at > now()`)
+  return toWindow(rows(result)[0])
+}
+
+function tooMany(event: H3Event | undefined, window: Window, message: string): never {
+  const seconds = window.secondsLeft
   const minutes = Math.ceil(seconds / 60)
   if (event) setResponseHeader(event, 'retry-after', seconds)
   throw createError({
@@ -30,37 +58,25 @@ function tooMany(event: H3Event | undefined, window: Window, now: number, messag
 }
 
 /** Counts this call; past `limit` calls in the window, 429 with Retry-After. */
-export function rateLimit(key: string, limit: number, windowMs: number, what: string, event?: H3Event) {
-  const now = Date.now()
-  const window = current(key, now)
-  if (!window) {
-    windows.set(key, { count: 1, resetAt: now + windowMs })
-    return
-  }
-  window.count++
-  if (window.count > limit) tooMany(event, window, now, `Too many ${what}.`)
+export async function rateLimit(key: string, limit: number, windowMs: number, what: string, event?: H3Event) {
+  const window = await count(key, windowMs)
+  if (window.count > limit) tooMany(event, window, `Too many ${what}.`)
 }
 
 /** 429 with Retry-After once `limit` failures were counted for this key in its window. */
-export function refuseIfLocked(event: H3Event, key: string, limit: number, message: string) {
-  const now = Date.now()
-  const window = current(key, now)
-  if (window && window.count >= limit) tooMany(event, window, now, message)
+export async function refuseIfLocked(event: H3Event, key: string, limit: number, message: string) {
+  const window = await peek(key)
+  if (window && window.count >= limit) tooMany(event, window, message)
 }
 
 /** Counts one failure; returns the count so far in this window. */
-export function countFailure(key: string, windowMs: number): number {
-  const now = Date.now()
-  const window = current(key, now)
-  if (!window) {
-    windows.set(key, { count: 1, resetAt: now + windowMs })
-    return 1
-  }
-  return ++window.count
+export async function countFailure(key: string, windowMs: number): Promise<number> {
+  return (await count(key, windowMs)).count
 }
 
-export function clearFailures(key: string) {
-  windows.delete(key)
+export async function clearFailures(key: string) {
+  const db = await useDb()
+  await db.execute(sql`delete from rate_windows where key = ${key}`)
 }
 
 export function clientKey(event: H3Event) {

@@ -2,12 +2,13 @@ import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { ApiClient } from '../support/client'
 import { createTestDatabase, type TestDatabase } from '../support/database'
-import { ADMIN, ANALYST, PLANNER, demoUser } from '../support/demo-users'
+import { ADMIN, ANALYST, PLANNER, READER, demoUser } from '../support/demo-users'
 import { startServer, type RunningServer } from '../support/server'
 import { TestSmtp, addressesOf } from '../support/smtp'
 
 // Two app instances on one PostgreSQL database, sending to one SMTP server: every job, outlook
-// and e-mail is taken by exactly one of them, and concurrent changes to one record serialise.
+// and e-mail is taken by exactly one of them, concurrent changes to one record serialise, and rate
+// limits count across both.
 // The test reads the database directly to see who did what.
 
 const REVIEWER = demoUser('reviewer@saltglass.example')
@@ -104,5 +105,16 @@ describe('two instances on one database', () => {
     expect(answers.map(r => r.status).sort()).toEqual([200, 409])
     const { rows } = await sql.query(`select count(*)::int as n from audit_log where action = 'release.published' and target_id = $1`, [next.body.id])
     expect(rows[0].n).toBe(1)
+  })
+
+  it('counts failed sign-ins on both instances against one lock', async () => {
+    const attempt = (server: RunningServer, password: string) => new ApiClient(server.url).post('/api/auth/sign-in', { email: READER.email, password })
+    // Ten failures, alternating between the instances: each saw five, the lock is for ten.
+    for (let i = 0; i < 10; i++) expect((await attempt(i % 2 ? b : a, `wrong-${i}`)).status).toBe(401)
+    for (const server of [a, b]) {
+      const locked = await attempt(server, READER.password)
+      expect(locked.status).toBe(429)
+      expect(locked.body.message).toMatch(/^Too many failed sign-ins for this address, so it is locked for now\. Try again in 15 minutes\.$/)
+    }
   })
 })

@@ -17,9 +17,9 @@ const clientFailureKey = (client: string) => `sign-in:client:${client}`
 
 export default defineEventHandler(async (event) => {
   const client = clientKey(event)
-  refuseIfLocked(event, clientFailureKey(client), CLIENT_FAILURES, 'Too many failed sign-ins from this connection.')
+  await refuseIfLocked(event, clientFailureKey(client), CLIENT_FAILURES, 'Too many failed sign-ins from this connection.')
   const { email, password } = await readValidBody(event, SignInSchema)
-  refuseIfLocked(event, addressKey(email), ADDRESS_FAILURES, 'Too many failed sign-ins for this address, so it is locked for now.')
+  await refuseIfLocked(event, addressKey(email), ADDRESS_FAILURES, 'Too many failed sign-ins for this address, so it is locked for now.')
 
   const db = await useDb()
   const [row] = await db.select({ id: users.id, hash: users.passwordHash, disabled: users.disabled, organisationId: users.organisationId })
@@ -27,8 +27,8 @@ export default defineEventHandler(async (event) => {
   // Verify against a stand-in hash when the address is unknown, so timing does not tell either.
   const valid = await verifyPassword(row?.hash ?? await standInHash(), password)
   if (!row || !valid) {
-    const forAddress = countFailure(addressKey(email), WINDOW_MS)
-    const forClient = countFailure(clientFailureKey(client), WINDOW_MS)
+    const forAddress = await countFailure(addressKey(email), WINDOW_MS)
+    const forClient = await countFailure(clientFailureKey(client), WINDOW_MS)
     await recordFailure(db, { email, userId: row?.id ?? null, organisationId: row?.organisationId ?? null, client, forAddress, forClient })
     throw createError({ statusCode: 401, message: GENERIC_REFUSAL })
   }
@@ -36,7 +36,7 @@ export default defineEventHandler(async (event) => {
 
   const user = await loadSessionUser(row.id)
   if (!user) throw createError({ statusCode: 401, message: GENERIC_REFUSAL })
-  clearFailures(addressKey(email))
+  await clearFailures(addressKey(email))
   await setUserSession(event, { user, loggedInAt: new Date().toISOString() })
   await writeAudit(db, user, 'session.signed-in', { type: 'user', id: user.id })
   return { user }

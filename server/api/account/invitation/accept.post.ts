@@ -3,7 +3,7 @@ import { acceptInvitation } from '~~/server/services/accounts'
 
 // Accept an invitation: the account is created with the chosen password and signed in.
 export default defineEventHandler(async (event) => {
-  rateLimit(`invitation:${clientKey(event)}`, 20, 3_600_000, 'attempts from this connection', event)
+  await rateLimit(`invitation:${clientKey(event)}`, 20, 3_600_000, 'attempts from this connection', event)
   const { token, password } = await readValidBody(event, AcceptInvitationSchema)
   const id = await acceptInvitation(token, password)
   const user = await loadSessionUser(id)
