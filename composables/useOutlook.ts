@@ -1,4 +1,5 @@
 import type { OutlookResult } from '#shared/engine'
+import type { StoredOutlookNote } from '#shared/types/outlook-notes'
 
 /** GET /api/outlooks/[id] as the page reads it (dates arrive as strings; the result is the engine's). */
 export interface OutlookView {
@@ -14,7 +15,7 @@ export interface OutlookView {
   state: 'running' | 'done' | 'failed'
   progress: number | null
   error: string | null
-  notes: string[]
+  notes: StoredOutlookNote[]
   releaseRefs: { component: string, releaseId: string, seriesId: string, version: number, citation: string, title: string, scale: number, scaleSource: string | null }[]
   input: {
     baselineYear: number

@@ -1,5 +1,6 @@
 import { chanceAsOdds, formatChance, headlineSentence, likelihoodPhrase, type Language } from '#shared/wording/chance'
 import { fromMetres } from '#shared/units'
+import type { StoredOutlookNote } from '#shared/types/outlook-notes'
 
 /**
  * Chances and heights for sites and outlooks in the reader's language and units. Every probability
@@ -13,6 +14,7 @@ export function useOutlookText() {
   const chance = (probability: number) => formatChance(probability, language.value)
   const word = (probability: number) => likelihoodPhrase(probability, language.value)
   const number = (value: number, digits = 1) => value.toLocaleString(locale.value, { minimumFractionDigits: digits, maximumFractionDigits: digits })
+  const component = (key: string) => (key === 'land-motion' ? t('outlook.landMotion') : t(`components.${key}`))
 
   return {
     language,
@@ -32,7 +34,14 @@ export function useOutlookText() {
       const motion = mmPerYear < 0 ? t('sites.motion.sinking') : mmPerYear > 0 ? t('sites.motion.rising') : t('sites.motion.still')
       return `${number(mmPerYear, 1)} ${t('sites.units.mmPerYear')} (${motion})`
     },
-    component: (key: string) => (key === 'land-motion' ? t('outlook.landMotion') : t(`components.${key}`)),
+    component,
+    /** A note on how the outlook was put together, in the reader's language (older outlooks stored English text). */
+    note: (note: StoredOutlookNote) => {
+      if (typeof note === 'string') return note
+      if (note.kind === 'unscaled') return t('outlook.notes.unscaled', { components: note.components.map(component).join(', ') })
+      if (note.kind === 'uncorrelated') return t('outlook.notes.uncorrelated', { scenario: note.scenario })
+      return t('outlook.notes.lifeBeyondReleases', { threshold: note.threshold, year: note.lastYear })
+    },
     date: (value: string | Date | null | undefined) => value ? new Date(value).toLocaleString(locale.value, { dateStyle: 'medium', timeStyle: 'short' }) : '—',
   }
 }

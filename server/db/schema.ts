@@ -1,6 +1,7 @@
 import { boolean, customType, doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core'
 import { ORGANISATION_KINDS, ROLES } from '../../shared/types/roles'
 import { AMOUNT_UNITS, LAND_MOTION_SOURCES, OUTLOOK_STATES, RELEASE_FORMS, REVIEW_STATES } from '../../shared/types/science'
+import type { StoredOutlookNote } from '../../shared/types/outlook-notes'
 
 export const roleEnum = pgEnum('role', ROLES)
 export const organisationKindEnum = pgEnum('organisation_kind', ORGANISATION_KINDS)
@@ -192,7 +193,7 @@ export const outlooks = pgTable('outlooks', {
   input: jsonb('input').$type<Record<string, unknown>>().notNull(),
   releaseRefs: jsonb('release_refs').$type<OutlookReleaseRef[]>().notNull(),
   correlationSetId: uuid('correlation_set_id').references(() => correlationSets.id),
-  notes: jsonb('notes').$type<string[]>().notNull().default([]),
+  notes: jsonb('notes').$type<StoredOutlookNote[]>().notNull().default([]),
   result: jsonb('result').$type<Record<string, unknown>>(),
   /** The first threshold's chance in the headline year, kept small for site lists. */
   headline: jsonb('headline').$type<OutlookHeadline>(),

@@ -4,6 +4,7 @@ import { outlooks, type OutlookReleaseRef } from '~~/server/db/schema'
 import { validateOutlookInput } from '#shared/engine'
 import { ENGINE_VERSION } from '#shared/engine/version'
 import type { OutlookRequest } from '#shared/schemas/sites'
+import type { OutlookNote } from '#shared/types/outlook-notes'
 import type { CurrentUser } from '../utils/auth'
 import { correlationFor, latestReleaseVersions, scaleFactorsAt, scienceFor } from './science-inputs'
 import { awaitOutlook, kickOutlooks } from './outlook-jobs'
@@ -29,10 +30,10 @@ export async function assembleOutlook(site: Site, request: OutlookRequest, basel
   const [{ set, matrix }, scales] = await Promise.all([correlationFor(request.scenario, components), scaleFactorsAt(site.latitude, site.longitude)])
   const horizon = Math.min(...science.map(s => (s.release.anchorYears as number[]).at(-1)!))
   const years = outlookYears(baselineYear, horizon)
-  const notes: string[] = []
+  const notes: OutlookNote[] = []
   const unscaled = components.filter(c => !scales.get(c)!.gridId)
-  if (unscaled.length) notes.push(`No published scale-factor grid covers this site for ${unscaled.join(', ')}; a factor of 1.0 (the global mean) was used.`)
-  if (!set) notes.push(`No correlation set is published for ${request.scenario}; the components were sampled as independent.`)
+  if (unscaled.length) notes.push({ kind: 'unscaled', components: unscaled })
+  if (!set) notes.push({ kind: 'uncorrelated', scenario: request.scenario })
 
   const input = {
     baselineYear,
@@ -45,7 +46,7 @@ export async function assembleOutlook(site: Site, request: OutlookRequest, basel
     heights: HEIGHT_GRID,
     thresholds: site.thresholds.map((t) => {
       const lifeFits = t.designLifeYears !== null && baselineYear + t.designLifeYears <= years.at(-1)!
-      if (t.designLifeYears !== null && !lifeFits) notes.push(`The design life of "${t.label}" ends after ${years.at(-1)}, beyond the releases; its chance over the life is not given.`)
+      if (t.designLifeYears !== null && !lifeFits) notes.push({ kind: 'life-beyond-releases', threshold: t.label, lastYear: years.at(-1)! })
       return { key: t.id, height: t.height, ...(lifeFits ? { designLifeYears: t.designLifeYears! } : {}) }
     }),
     ...(site.gumbelLocation !== null && site.gumbelScale !== null ? { gumbel: { location: site.gumbelLocation, scale: site.gumbelScale } } : {}),

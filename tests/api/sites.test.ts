@@ -153,8 +153,9 @@ describe('outlooks', () => {
     expect(outlook.releaseRefs.map((r: { component: string }) => r.component).sort()).toEqual(['antarctica', 'glaciers', 'greenland', 'land-water', 'ocean-expansion', 'other', 'regional-ocean'])
     expect(outlook.releaseRefs.find((r: { component: string }) => r.component === 'greenland').version).toBe(2)
     expect(outlook.releaseRefs.find((r: { component: string }) => r.component === 'antarctica').scaleSource).toMatch(/fingerprint/)
-    expect(outlook.notes.join(' ')).toMatch(/factor of 1\.0/)
-    expect(outlook.notes.join(' ')).toMatch(/No correlation set is published for SSP2-4.5/)
+    // Notes are stored as facts, worded on the page in the reader's language.
+    expect(outlook.notes).toContainEqual({ kind: 'unscaled', components: expect.arrayContaining(['glaciers']) })
+    expect(outlook.notes).toContainEqual({ kind: 'uncorrelated', scenario: 'SSP2-4.5' })
     expect(outlook.result.thresholds).toHaveLength(2)
     expect(outlook.newerScience).toEqual([])
   })
@@ -170,6 +171,15 @@ describe('outlooks', () => {
     expect(b.body.result.byYear).toEqual(a.body.result.byYear)
     const other = (await planner.post(`/api/sites/${twin}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 8 })).body.id
     expect((await planner.get(`/api/outlooks/${other}`)).body.result.byYear).not.toEqual(a.body.result.byYear)
+  })
+
+  it('notes a design life that ends past the releases, and gives no chance over it', async () => {
+    const long = (await planner.post('/api/sites', site({ name: 'Long Life Point', thresholds: [{ label: 'Sea wall for two centuries', height: 1.5, designLifeYears: 200 }] }))).body.id
+    const id = (await planner.post(`/api/sites/${long}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 7 })).body.id
+    const outlook = (await planner.get(`/api/outlooks/${id}`)).body
+    const lastYear = outlook.result.years.at(-1)
+    expect(outlook.notes).toContainEqual({ kind: 'life-beyond-releases', threshold: 'Sea wall for two centuries', lastYear })
+    expect(outlook.input.thresholds[0].designLifeYears).toBeUndefined()
   })
 
   it('sends a kept outlook as one JSON document whose length counts bytes, with the site as it is now', async () => {

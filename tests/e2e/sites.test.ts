@@ -84,6 +84,7 @@ describe('a planner at work on the map and the outlook page', () => {
     expect(await triggers.locator('tbody th').allTextContents()).toEqual(['Harbour wall crest (0.50 m)'])
     expect(await page.getByTestId('fan-chart').locator('svg').count()).toBeGreaterThan(0)
     expect(await page.getByTestId('outlook-inputs').textContent()).toMatch(/Input hash[0-9a-f]{64}/)
+    expect(await page.getByTestId('outlook-notes').textContent()).toContain('No correlation set is published for SSP2-4.5; the components were sampled as independent.')
     expect(await page.getByTestId('cautions').textContent()).toContain('projections, not predictions')
     await noAxeFaults('outlook page')
     await snap('outlook')
@@ -94,6 +95,8 @@ describe('a planner at work on the map and the outlook page', () => {
     await page.getByTestId('language-switcher').selectOption('es')
     await expect.poll(async () => (await sentences())[0]).toMatch(/^Hay una probabilidad del .* de que el mar aquí esté más de 1,6 ft por encima de .* en 2050\.$/)
     expect(await page.getByRole('heading', { level: 1 }).textContent()).toBe('Perspectiva para Test Harbour')
+    // The notes on how it was put together are stored as facts and worded in the reader's language.
+    expect(await page.getByTestId('outlook-notes').textContent()).toContain('No hay ningún conjunto de correlaciones publicado para SSP2-4.5; los componentes se muestrearon como independientes.')
     await noAxeFaults('outlook page in Spanish')
     await snap('outlook-es-ft')
 
