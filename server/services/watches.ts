@@ -51,16 +51,42 @@ export async function requestWatch(request: z.infer<typeof WatchRequestSchema>, 
   })
 }
 
-export async function confirmWatch(token: string) {
+/** The pending watch a confirmation link belongs to: 404 once used or unknown, 410 once expired. */
+async function pendingWatch(token: string) {
   const db = await useDb()
   const [watch] = await db.select().from(watches).where(eq(watches.confirmTokenHash, hashToken(token)))
   if (!watch) throw createError({ statusCode: 404, message: 'This confirmation link has already been used or is not valid. If you are not receiving updates, ask again from the site or briefing page.' })
   if (watch.confirmExpiresAt && watch.confirmExpiresAt <= new Date()) {
     throw createError({ statusCode: 410, message: 'This confirmation link has expired. Ask again from the site or briefing page.' })
   }
+  return watch
+}
+
+async function siteName(siteId: string) {
+  const db = await useDb()
+  const [site] = await db.select({ name: sites.name }).from(sites).where(eq(sites.id, siteId))
+  return site!.name
+}
+
+/** What a confirmation link would start, without starting it (the page shows it before the press). */
+export async function describeConfirmLink(token: string) {
+  const watch = await pendingWatch(token)
+  return { site: await siteName(watch.siteId), email: watch.email }
+}
+
+export async function confirmWatch(token: string) {
+  const watch = await pendingWatch(token)
+  const db = await useDb()
   await db.update(watches).set({ state: 'active', confirmedAt: new Date(), confirmTokenHash: null, confirmExpiresAt: null }).where(eq(watches.id, watch.id))
-  const [site] = await db.select({ name: sites.name }).from(sites).where(eq(sites.id, watch.siteId))
-  return { site: site!.name, email: watch.email }
+  return { site: await siteName(watch.siteId), email: watch.email }
+}
+
+/** What an unsubscribe link would stop, and whether it already is stopped, without stopping it. */
+export async function describeUnsubscribeLink(token: string) {
+  const db = await useDb()
+  const [watch] = await db.select().from(watches).where(eq(watches.unsubscribeToken, token))
+  if (!watch) throw createError({ statusCode: 404, message: 'This unsubscribe link is not valid; copy the whole link from the e-mail.' })
+  return { site: await siteName(watch.siteId), email: watch.email, stopped: watch.state === 'unsubscribed' }
 }
 
 export async function unsubscribe(token: string) {
@@ -68,6 +94,5 @@ export async function unsubscribe(token: string) {
   const [watch] = await db.update(watches).set({ state: 'unsubscribed', unsubscribedAt: new Date(), confirmTokenHash: null })
     .where(eq(watches.unsubscribeToken, token)).returning()
   if (!watch) throw createError({ statusCode: 404, message: 'This unsubscribe link is not valid; copy the whole link from the e-mail.' })
-  const [site] = await db.select({ name: sites.name }).from(sites).where(eq(sites.id, watch.siteId))
-  return { site: site!.name, email: watch.email }
+  return { site: await siteName(watch.siteId), email: watch.email }
 }

@@ -115,6 +115,8 @@ const ROUTES: Record<string, RouteCase> = {
   },
   'watches/[id].delete.ts': { url: (fx, scope, persona) => `/api/watches/${scope === 'other' || persona === 'anonymous' ? fx.foreign.watchId : fx.home.watchOf[persona]}`, expect: members },
   'watches/confirm.post.ts': { unscoped: true, url: () => '/api/watches/confirm', body: () => ({ token: UNKNOWN_TOKEN }), expect: anyone(404) },
+  'watches/confirm.get.ts': { unscoped: true, url: () => `/api/watches/confirm?token=${UNKNOWN_TOKEN}`, expect: anyone(404) },
+  'watches/unsubscribe.get.ts': { unscoped: true, url: () => `/api/watches/unsubscribe?token=${UNKNOWN_TOKEN}`, expect: anyone(404) },
   'watches/unsubscribe.post.ts': { unscoped: true, url: () => `/api/watches/unsubscribe?token=${UNKNOWN_TOKEN}`, expect: anyone(404) },
 
   // Science: published records are public; drafts stay inside their organisation; analysts act.

@@ -66,12 +66,19 @@ describe('watching a site by e-mail', () => {
     expect(rawHeader(mail, 'List-Unsubscribe-Post')).toBe('List-Unsubscribe=One-Click')
     expect(mail.html).toContain('Confirm the watch')
 
+    // Looking the link up names the site and the address and changes nothing: the watch still waits.
+    const token = new URL(linkIn(mail, `${server.url}/watches/confirm?token=`)).searchParams.get('token')!
+    const lookUp = () => new ApiClient(server.url).get(`/api/watches/confirm?token=${token}`)
+    expect((await lookUp()).body).toEqual({ site: 'Fennmouth', email: 'councillor@example.org' })
+    expect((await lookUp()).status).toBe(200)
+
     const confirmed = await confirm(mail)
     expect(confirmed.status).toBe(200)
     expect(confirmed.body).toEqual({ site: 'Fennmouth', email: 'councillor@example.org' })
     const replay = await confirm(mail)
     expect(replay.status).toBe(404)
     expect(replay.body.message).toMatch(/already been used or is not valid/)
+    expect((await lookUp()).status).toBe(404)
   })
 
   it('sends exactly one "what changed" e-mail per watcher, in their language, with the numbers before and after', async () => {
@@ -103,8 +110,13 @@ describe('watching a site by e-mail', () => {
   it('stops at once after the one-click unsubscribe', async () => {
     const last = smtp.to('councillor@example.org').at(-1)!
     const link = rawHeader(last, 'List-Unsubscribe')!.slice(1, -1)
+    // Opening the link (GET, as mail scanners do) only describes it.
+    const described = async () => (await fetch(link)).json()
+    expect(await described()).toEqual({ site: 'Fennmouth', email: 'councillor@example.org', stopped: false })
+    expect(await described()).toEqual({ site: 'Fennmouth', email: 'councillor@example.org', stopped: false })
     const response = await fetch(link, { method: 'POST', body: 'List-Unsubscribe=One-Click', headers: { 'content-type': 'application/x-www-form-urlencoded' } })
     expect(response.status).toBe(200)
+    expect(await described()).toEqual({ site: 'Fennmouth', email: 'councillor@example.org', stopped: true })
 
     await publishGlaciers(0.17)
     await smtp.next(m => isTo('vecina@example.org')(m) && /Cambió/.test(m.subject ?? '') && /0\.17/.test(m.text ?? ''))
@@ -176,5 +188,6 @@ describe('a mail server that is down loses nothing', () => {
     const response = await new ApiClient(faulty.url).post('/api/watches/confirm', { token })
     expect(response.status).toBe(410)
     expect(response.body.message).toMatch(/expired/)
+    expect((await new ApiClient(faulty.url).get(`/api/watches/confirm?token=${token}`)).status).toBe(410)
   })
 })

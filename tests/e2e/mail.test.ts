@@ -100,15 +100,16 @@ describe('watching a site by e-mail', () => {
     const confirmPath = linkIn(text, '/watches/confirm?token=')
     await open(visitor, confirmPath)
     expect(await heading(visitor)).toBe('Confirm your watch')
+    expect(await visitor.getByTestId('watch-link-about').textContent()).toBe(`You asked for e-mails about Kelwick at ${PLANNER.email}.`)
     await noAxeFaults(visitor, 'confirm a watch')
     await visitor.getByRole('button', { name: 'Confirm the watch' }).click()
     await expect.poll(() => heading(visitor)).toBe('You are watching Kelwick')
     expect(await visitor.getByRole('status').textContent()).toContain(PLANNER.email)
     await snap(visitor, 'confirmed')
-    // The link works once: pressing again on a fresh load says so kindly.
+    // The link works once: a fresh load says so at once, with nothing to press.
     await open(visitor, confirmPath)
-    await visitor.getByRole('button', { name: 'Confirm the watch' }).click()
     await expect.poll(() => visitor.getByRole('alert').textContent()).toMatch(/already been used/)
+    expect(await visitor.getByRole('button', { name: 'Confirm the watch' }).count()).toBe(0)
 
     await planner.reload()
     await expect.poll(() => planner.getByTestId('watch-row-Kelwick').textContent()).toMatch(/Active/)
@@ -118,6 +119,7 @@ describe('watching a site by e-mail', () => {
     await open(visitor, linkIn(text, '/watches/unsubscribe?token='))
     await visitor.getByTestId('language-switcher').selectOption('es')
     await expect.poll(() => heading(visitor)).toBe('Detener un seguimiento')
+    expect(await visitor.getByTestId('watch-link-about').textContent()).toBe(`Los correos sobre Kelwick llegan a ${PLANNER.email}.`)
     await noAxeFaults(visitor, 'unsubscribe (es)')
     await visitor.getByRole('button', { name: 'Dejar de recibir estos correos' }).click()
     await expect.poll(() => heading(visitor)).toBe('Seguimiento detenido')
