@@ -12,11 +12,7 @@ let thresholdIds: string[]
 let outlookId: string
 let comparisonId: string
 
-async function as(email: string, password: string) {
-  const api = new ApiClient(server.url)
-  await api.signIn(email, password)
-  return api
-}
+const as = (email: string, password: string) => ApiClient.signedIn(server.url, email, password)
 
 const briefing = (overrides: Record<string, unknown> = {}) => ({
   outlookId, comparisonOutlookIds: [comparisonId], title: 'Kelwick: sea level to 2100', audience: 'Harbour committee',

@@ -13,11 +13,7 @@ const anonymous = () => new ApiClient(server.url)
 const QUANTILE_CSV = 'level,2050,2100\n0.05,0.02,0.05\n0.17,0.03,0.08\n0.5,0.05,0.12\n0.83,0.07,0.17\n0.95,0.09,0.22\n'
 const provenance = { method: 'Test posterior from a statistical model of altimetry.', citation: 'Test group (2026).', licence: 'CC BY 4.0' }
 
-async function as(email: string, password: string) {
-  const api = new ApiClient(server.url)
-  await api.signIn(email, password)
-  return api
-}
+const as = (email: string, password: string) => ApiClient.signedIn(server.url, email, password)
 
 beforeAll(async () => {
   server = await startServer()

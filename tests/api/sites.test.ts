@@ -18,11 +18,7 @@ const site = (overrides: Record<string, unknown> = {}) => ({
   ...overrides,
 })
 
-async function as(email: string, password: string) {
-  const api = new ApiClient(server.url)
-  await api.signIn(email, password)
-  return api
-}
+const as = (email: string, password: string) => ApiClient.signedIn(server.url, email, password)
 
 async function siteCount(api: ApiClient) {
   return (await api.get('/api/sites')).body.length

@@ -14,11 +14,7 @@ let shareToken: string
 let siteId: string
 let outlookId: string
 
-async function as(email: string, password: string) {
-  const api = new ApiClient(server.url)
-  await api.signIn(email, password)
-  return api
-}
+const as = (email: string, password: string) => ApiClient.signedIn(server.url, email, password)
 
 async function watch(email: string, language = 'en') {
   const response = await new ApiClient(server.url).post('/api/watches', { shareToken, email, language })

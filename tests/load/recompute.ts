@@ -20,12 +20,6 @@ function peakRssMb(pid: number) {
   return line ? Math.round(Number(line.replace(/\D+/g, '')) / 102.4) / 10 : null
 }
 
-async function as(url: string, email: string, password: string) {
-  const api = new ApiClient(url)
-  await api.signIn(email, password)
-  return api
-}
-
 /** Sites spread over the invented coast, each with its own land motion and one threshold. */
 function site(i: number) {
   return {
@@ -43,8 +37,8 @@ async function main() {
   const server = await startServer({ JOBS_POLL_MS: '200' })
   try {
     const url = server.url
-    const planner = await as(url, PLANNER.email, PLANNER.password)
-    const admin = await as(url, ADMIN.email, ADMIN.password)
+    const planner = await ApiClient.signedIn(url, PLANNER.email, PLANNER.password)
+    const admin = await ApiClient.signedIn(url, ADMIN.email, ADMIN.password)
     const ids: string[] = []
     for (let i = 0; i < SITES; i++) {
       const created = await planner.post('/api/sites', site(i))
@@ -62,9 +56,9 @@ async function main() {
     }
     const firstRunMs = performance.now() - started
 
-    const analyst = await as(url, ANALYST.email, ANALYST.password)
+    const analyst = await ApiClient.signedIn(url, ANALYST.email, ANALYST.password)
     const reviewerUser = demoUser('reviewer@saltglass.example')
-    const reviewer = await as(url, reviewerUser.email, reviewerUser.password)
+    const reviewer = await ApiClient.signedIn(url, reviewerUser.email, reviewerUser.password)
     const [glaciers] = (await analyst.get(`/api/releases?component=glaciers&scenario=${SCENARIO}&state=published`)).body
     const next = await analyst.post('/api/releases', { seriesId: glaciers.seriesId, form: 'normal', baselineYear: 2020, anchorYears: [2050, 2100, 2150], mean: [0.07, 0.13, 0.18], sd: [0.01, 0.03, 0.04], method: 'Load test', citation: 'Load test', licence: 'CC BY 4.0' })
     await analyst.post(`/api/releases/${next.body.id}/submit`)
