@@ -8,12 +8,11 @@ export const TILE = 1024
 
 /** Working arrays of the sample loop. Their contents never outlive one call of `runBlocks`. */
 export interface TileScratch {
-  /** Uniforms of a block: component 0's for every sample, then component 1's, …, land motion's last. */
-  uniforms: Float64Array
-  /** Independent scores of a block, laid out like `uniforms`, then one zero row of TILE (padding). */
+  /**
+   * Independent scores of a block: component 0's for every sample, then component 1's, …, land motion's
+   * last; then one zero row of TILE (padding).
+   */
   independent: Float64Array
-  /** Tail positions for the batch Φ⁻¹. */
-  tails: Int32Array
   /** Correlated score of component c for tile sample i at [c·TILE + i] (rows that are not a copy). */
   scores: Float64Array
   /** Per score row, where the tile's scores are read: `scores` or `independent`, and the offset. */
@@ -64,9 +63,7 @@ export function tileScratch(plan: OutlookPlan): TileScratch {
   if (kept?.key === key) return kept.scratch
   const columnCount = plan.basisCount
   const scratch: TileScratch = {
-    uniforms: new Float64Array(plan.blockSize * scoreRows),
     independent: new Float64Array(plan.blockSize * scoreRows + TILE),
-    tails: new Int32Array(plan.blockSize * scoreRows),
     scores: new Float64Array(scoreRows * TILE),
     scoreFrom: [],
     scoreAt: new Int32Array(scoreRows),
