@@ -87,7 +87,11 @@ export function countYear(
   let listedCount = 0
   // Columns of the last pass that carry a weight (the rest are padding): most years need two or three.
   const used = w3 !== 0 ? 4 : w2 !== 0 ? 3 : 2
-  for (let i = 0; i < tileCount; i++) {
+  if (onePass && !keepRise && used < 4) {
+    listedCount = countOnePass(histogram, levels, listed, histogramAt, b0, b1, b2, w0, w1, w2, used === 3, intercept, low, inverseResolution, lastBin, tileCount, partial.minimum, partial.maximum, t)
+    minimum = partial.minimum[t]!
+    maximum = partial.maximum[t]!
+  } else for (let i = 0; i < tileCount; i++) {
     let value = (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]!
     if (used > 2) value += w2 * levels[b2 + i]!
     if (used > 3) value += w3 * levels[b3 + i]!
@@ -115,6 +119,72 @@ export function countYear(
     while (cell < cutCount && cuts[cell]! < value) cell++
     cellCounts[cellAt + cell]!++
   }
+}
+
+/**
+ * `countYear`'s loop for the usual year: one pass of two or three columns and no rise kept. The
+ * optimizing compiler neither hoists loop-invariant tests nor drops overflow checks on index sums, so
+ * this copy has no such tests inside (one loop per column count) and its index sums are `| 0`. Same
+ * arithmetic, in the same order, as the general loop. Returns how many samples it listed.
+ */
+function countOnePass(
+  histogram: Int32Array,
+  levels: Float64Array,
+  listed: Int32Array,
+  histogramAt: number,
+  b0: number,
+  b1: number,
+  b2: number,
+  w0: number,
+  w1: number,
+  w2: number,
+  threeColumns: boolean,
+  intercept: number,
+  low: number,
+  inverseResolution: number,
+  lastBin: number,
+  tileCount: number,
+  minima: Float64Array,
+  maxima: Float64Array,
+  t: number,
+): number {
+  let minimum = minima[t]!
+  let maximum = maxima[t]!
+  let listedCount = 0
+  if (threeColumns) {
+    for (let i = 0; i < tileCount; i = (i + 1) | 0) {
+      const value = intercept + w0 * levels[(b0 + i) | 0]! + w1 * levels[(b1 + i) | 0]! + w2 * levels[(b2 + i) | 0]!
+      if (value < minimum) minimum = value
+      if (value > maximum) maximum = value
+      let bin = (value - low) * inverseResolution + 1
+      bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
+      const at = (histogramAt + bin) | 0
+      const count = (histogram[at]! + 1) | 0
+      histogram[at] = count
+      if (count < 0) {
+        listed[listedCount] = i
+        listedCount = (listedCount + 1) | 0
+      }
+    }
+  } else {
+    for (let i = 0; i < tileCount; i = (i + 1) | 0) {
+      const value = intercept + w0 * levels[(b0 + i) | 0]! + w1 * levels[(b1 + i) | 0]!
+      if (value < minimum) minimum = value
+      if (value > maximum) maximum = value
+      let bin = (value - low) * inverseResolution + 1
+      bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
+      const at = (histogramAt + bin) | 0
+      const count = (histogram[at]! + 1) | 0
+      histogram[at] = count
+      if (count < 0) {
+        listed[listedCount] = i
+        listedCount = (listedCount + 1) | 0
+      }
+    }
+  }
+  minima[t] = minimum
+  maxima[t] = maximum
+  return listedCount
 }
 
 /**

@@ -67,6 +67,10 @@ export function fillNormalScores(state: Uint32Array, out: Float64Array, at: numb
   let s2 = state[2]! | 0
   let s3 = state[3]! | 0
   const end = at + count
+  // Module constants read into locals: the optimizing compiler re-reads (and re-checks) module
+  // bindings on every iteration otherwise.
+  const inner = INNER
+  const width = WIDTH
   for (let n = at; n < end; n++) {
     // xoshiro128** step (see rng.ts).
     const m = Math.imul(s1, 5)
@@ -78,11 +82,12 @@ export function fillNormalScores(state: Uint32Array, out: Float64Array, at: numb
     s0 ^= s3
     s2 ^= t
     s3 = (s3 << 11) | (s3 >>> 21)
-    const strip = word & STRIP_MASK
-    // Sign and magnitude from the high 24 bits, offset by one half so the values are symmetric about 0.
-    const position = (word >> STRIP_BITS) + 0.5
-    if (Math.abs(position) < INNER[strip]!) {
-      out[n] = position * WIDTH[strip]!
+    // Strip from the low 8 bits; sign and magnitude from the high 24, offset by one half so the values
+    // are symmetric about 0 (literals, not STRIP_MASK and STRIP_BITS, for the reason above).
+    const strip = word & 255
+    const position = (word >> 8) + 0.5
+    if (Math.abs(position) < inner[strip]!) {
+      out[n] = position * width[strip]!
       continue
     }
     state[0] = s0
