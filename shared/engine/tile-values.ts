@@ -177,18 +177,19 @@ function piecewiseThreeInline(plan: OutlookPlan, tables: SamplerTables, scratch:
   const taken2 = scratch.sumsAreLevels ? 0 : zero2
   // A table of five levels has three breakpoints: the padding (+∞) is never reached, so skip it.
   const fourth = p3 !== Infinity
-  for (let i = 0; i < tileCount; i++) {
-    const z = scores[from + i]!
-    const line = base + (+(z >= p0) + +(z >= p1) + +(z >= p2) + (fourth ? +(z >= p3) : 0)) * anchors
+  // Index sums are `| 0`: without it each carries an int32 overflow check (see `countOnePass`).
+  for (let i = 0; i < tileCount; i = (i + 1) | 0) {
+    const z = scores[(from + i) | 0]!
+    const line = (base + (+(z >= p0) + +(z >= p1) + +(z >= p2) + (fourth ? +(z >= p3) : 0)) * anchors) | 0
     const x0 = intercepts[line]! + slopes[line]! * z
-    const x1 = intercepts[line + 1]! + slopes[line + 1]! * z
-    const x2 = intercepts[line + 2]! + slopes[line + 2]! * z
-    values[o0 + i] = x0 - zero0
-    values[o1 + i] = x1 - zero1
-    values[o2 + i] = x2 - zero2
-    sums[j0 + i]! += x0 - taken0
-    sums[j1 + i]! += x1 - taken1
-    sums[j2 + i]! += x2 - taken2
+    const x1 = intercepts[(line + 1) | 0]! + slopes[(line + 1) | 0]! * z
+    const x2 = intercepts[(line + 2) | 0]! + slopes[(line + 2) | 0]! * z
+    values[(o0 + i) | 0] = x0 - zero0
+    values[(o1 + i) | 0] = x1 - zero1
+    values[(o2 + i) | 0] = x2 - zero2
+    sums[(j0 + i) | 0]! += x0 - taken0
+    sums[(j1 + i) | 0]! += x1 - taken1
+    sums[(j2 + i) | 0]! += x2 - taken2
   }
 }
 

@@ -71,7 +71,7 @@ export function fillNormalScores(state: Uint32Array, out: Float64Array, at: numb
   // bindings on every iteration otherwise.
   const inner = INNER
   const width = WIDTH
-  for (let n = at; n < end; n++) {
+  for (let n = at; n < end; n = (n + 1) | 0) {
     // xoshiro128** step (see rng.ts).
     const m = Math.imul(s1, 5)
     const word = Math.imul((m << 7) | (m >>> 25), 9)
