@@ -50,7 +50,7 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
   scratch.histogram.fill(0)
   for (let k = 0; k < tables.cutCells.length; k++) scratch.histogram[tables.cutCells[k]!] = HOLDS_CUT
   scratch.sumsAreLevels = tables.hasDraws
-  scratch.sumsOf = tables.hasDraws ? scratch.levels : scratch.basis
+  scratch.sumsAt = tables.hasDraws ? scratch.levelsAt : scratch.basisAt
   const yearCount = plan.years.length
   const scoresPerSample = plan.componentKeys.length + 1
   for (let b = 0; b < blockCount; b++) {

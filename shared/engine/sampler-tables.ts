@@ -39,7 +39,7 @@ export interface SamplerTables {
   allColumns: Int32Array
   /** Per component basis column, its anchor-value slots in order, padded with the zero row (slot count) to threes. */
   columnSlots: Int32Array[]
-  /** Whether any component is uploaded draws, whose rises must be formed exactly (see `TileScratch.sumsOf`). */
+  /** Whether any component is uploaded draws, whose rises must be formed exactly (see `TileScratch.sumsAt`). */
   hasDraws: boolean
   /** Per histogram cell, its exceedance cell, or −1 − (cuts below it) when a cut falls inside it. */
   cellOfBin: Int32Array

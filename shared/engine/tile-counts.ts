@@ -19,17 +19,18 @@ function riseIntercept(plan: OutlookPlan, scratch: TileScratch, t: number): numb
  */
 export function riseOfYear(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, t: number, tileCount: number): void {
   const rise = scratch.rise
-  const levels = scratch.sumsAreLevels ? scratch.levels : scratch.basis
+  const levels = scratch.rows
+  const levelsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
   const columns = tables.yearColumns[t]!
   const weights = tables.yearWeights[t]!
   const out = t * TILE
   if (columns.length === PASS) return
   rise.fill(riseIntercept(plan, scratch, t), out, out + tileCount)
   for (let p = 0; p + PASS < columns.length; p += PASS) {
-    const b0 = columns[p]! * TILE
-    const b1 = columns[p + 1]! * TILE
-    const b2 = columns[p + 2]! * TILE
-    const b3 = columns[p + 3]! * TILE
+    const b0 = levelsAt + columns[p]! * TILE
+    const b1 = levelsAt + columns[p + 1]! * TILE
+    const b2 = levelsAt + columns[p + 2]! * TILE
+    const b3 = levelsAt + columns[p + 3]! * TILE
     const w0 = weights[p]!
     const w1 = weights[p + 1]!
     const w2 = weights[p + 2]!
@@ -61,15 +62,16 @@ export function countYear(
   const lastBin = plan.histogramBins[t]! + 1
   const histogramAt = plan.histogramOffset[t]!
   const cellAt = t * (cutCount + 1)
-  const levels = scratch.sumsAreLevels ? scratch.levels : scratch.basis
+  const levels = scratch.rows
+  const levelsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
   const columns = tables.yearColumns[t]!
   const weights = tables.yearWeights[t]!
   // The last pass of the rise (padded with the zero row, weight 0).
   const last = columns.length - PASS
-  const b0 = columns[last]! * TILE
-  const b1 = columns[last + 1]! * TILE
-  const b2 = columns[last + 2]! * TILE
-  const b3 = columns[last + 3]! * TILE
+  const b0 = levelsAt + columns[last]! * TILE
+  const b1 = levelsAt + columns[last + 1]! * TILE
+  const b2 = levelsAt + columns[last + 2]! * TILE
+  const b3 = levelsAt + columns[last + 3]! * TILE
   const w0 = weights[last]!
   const w1 = weights[last + 1]!
   const w2 = weights[last + 2]!

@@ -17,15 +17,17 @@ function geometricRun(a: number, d: number, steps: number): number {
  * in slot order, three per pass (padding reads the zero row of `values`); land motion's is its score.
  */
 export function basisFromValues(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, tileCount: number): void {
-  const { values, basis } = scratch
+  // Values and basis are rows of the same array (see `TileScratch.rows`).
+  const values = scratch.rows
+  const basis = values
   const landColumn = plan.basisCount - 1
   for (let j = 0; j < landColumn; j++) {
     const slots = tables.columnSlots[j]!
-    const at = j * TILE
+    const at = scratch.basisAt + j * TILE
     for (let p = 0; p < slots.length; p += SLOTS_PER_PASS) {
-      const v0 = slots[p]! * TILE
-      const v1 = slots[p + 1]! * TILE
-      const v2 = slots[p + 2]! * TILE
+      const v0 = scratch.valuesAt + slots[p]! * TILE
+      const v1 = scratch.valuesAt + slots[p + 1]! * TILE
+      const v2 = scratch.valuesAt + slots[p + 2]! * TILE
       if (p === 0) for (let i = 0; i < tileCount; i++) basis[at + i] = values[v0 + i]! + values[v1 + i]! + values[v2 + i]!
       else for (let i = 0; i < tileCount; i++) basis[at + i] = basis[at + i]! + values[v0 + i]! + values[v1 + i]! + values[v2 + i]!
     }
@@ -40,7 +42,10 @@ export function sumTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileS
   const columnCount = plan.basisCount
   const landColumn = columnCount - 1
   const rowCount = 1 + plan.valueCount
-  const { values, basis } = scratch
+  // Values and basis are rows of the same array (see `TileScratch.rows`).
+  const values = scratch.rows
+  const basis = values
+  const { valuesAt, basisAt } = scratch
   const columns = tables.allColumns
   // Rows are the land-motion column, then the anchor-value slots; two rows per pass share the column
   // loads. A component column's own row is the sum of its slots' rows (`basisRowsFromValues`).
@@ -49,15 +54,15 @@ export function sumTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileS
     const second = Math.min(row + 1, rowCount - 1)
     const sourceA = row === 0 ? basis : values
     const sourceB = second === 0 ? basis : values
-    const atA = (row === 0 ? landColumn : row - 1) * TILE
-    const atB = (second === 0 ? landColumn : second - 1) * TILE
+    const atA = row === 0 ? basisAt + landColumn * TILE : valuesAt + (row - 1) * TILE
+    const atB = second === 0 ? basisAt + landColumn * TILE : valuesAt + (second - 1) * TILE
     let sumA = 0
     let sumB = 0
     for (let p = 0; p < columns.length; p += PASS) {
-      const b0 = columns[p]! * TILE
-      const b1 = columns[p + 1]! * TILE
-      const b2 = columns[p + 2]! * TILE
-      const b3 = columns[p + 3]! * TILE
+      const b0 = basisAt + columns[p]! * TILE
+      const b1 = basisAt + columns[p + 1]! * TILE
+      const b2 = basisAt + columns[p + 2]! * TILE
+      const b3 = basisAt + columns[p + 3]! * TILE
       let a0 = 0
       let a1 = 0
       let a2 = 0
