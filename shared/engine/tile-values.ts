@@ -182,7 +182,7 @@ function piecewiseThreeInline(plan: OutlookPlan, tables: SamplerTables, scratch:
   // Index sums are `| 0`: without it each carries an int32 overflow check (see `countOnePass`).
   for (let i = 0; i < tileCount; i = (i + 1) | 0) {
     const z = scores[(from + i) | 0]!
-    const line = (base + (+(z >= p0) + +(z >= p1) + +(z >= p2) + (fourth ? +(z >= p3) : 0)) * anchors) | 0
+    const line = (base + Math.imul(+(z >= p0) + +(z >= p1) + +(z >= p2) + (fourth ? +(z >= p3) : 0), anchors)) | 0
     const x0 = intercepts[line]! + slopes[line]! * z
     const x1 = intercepts[(line + 1) | 0]! + slopes[(line + 1) | 0]! * z
     const x2 = intercepts[(line + 2) | 0]! + slopes[(line + 2) | 0]! * z
