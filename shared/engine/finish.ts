@@ -22,6 +22,13 @@ function proportion(count: number, n: number): Estimate {
   return { value, se: proportionStandardError(value, n) }
 }
 
+/**
+ * The histograms' running totals, kept between calls of the same size: finishing is synchronous and
+ * no view outlives its call, and a pooled request would otherwise allocate (and collect) half a
+ * megabyte on its critical path.
+ */
+let cumulativeScratch: Uint32Array | undefined
+
 /** Turns the merged statistics of every block into the outlook. */
 export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): OutlookResult {
   if (merged.firstBlock !== 0 || merged.blockCount !== plan.blockCount || merged.samples !== plan.samples) {
@@ -46,7 +53,8 @@ export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): Outloo
     return counts
   })
 
-  const cumulative = cumulativeCounts(merged.histogram, plan.histogramOffset, plan.histogramBins)
+  cumulativeScratch = cumulativeCounts(merged.histogram, plan.histogramOffset, plan.histogramBins, cumulativeScratch)
+  const cumulative = cumulativeScratch
   const byYear: YearOutlook[] = plan.years.map((year, t) => {
     const meanDeviation = sums[layout.moments + 2 * t]! / n
     const variance = Math.max(0, sums[layout.moments + 2 * t + 1]! / n - meanDeviation * meanDeviation)

@@ -19,10 +19,17 @@ export function mergePartials(plan: OutlookPlan, partials: OutlookPartial[]): Ou
   const first = ordered[0]!.firstBlock
   const blockCount = ordered.reduce((sum, partial) => sum + partial.blockCount, 0)
   const merged = emptyPartial(plan, first, blockCount)
-  for (const partial of ordered) {
+  // The first partial is copied, the others added (this runs on the caller's thread after the last
+  // worker answers, so it is on every pooled request's critical path).
+  merged.cellCounts.set(ordered[0]!.cellCounts)
+  merged.histogram.set(ordered[0]!.histogram)
+  for (let p = 0; p < ordered.length; p++) {
+    const partial = ordered[p]!
     merged.samples += partial.samples
-    for (let i = 0; i < merged.cellCounts.length; i++) merged.cellCounts[i]! += partial.cellCounts[i]!
-    for (let i = 0; i < merged.histogram.length; i++) merged.histogram[i]! += partial.histogram[i]!
+    if (p > 0) {
+      addCounts(merged.cellCounts, partial.cellCounts)
+      addCounts(merged.histogram, partial.histogram)
+    }
     for (let t = 0; t < merged.minimum.length; t++) {
       if (partial.minimum[t]! < merged.minimum[t]!) merged.minimum[t] = partial.minimum[t]!
       if (partial.maximum[t]! > merged.maximum[t]!) merged.maximum[t] = partial.maximum[t]!
@@ -30,4 +37,8 @@ export function mergePartials(plan: OutlookPlan, partials: OutlookPartial[]): Ou
     merged.blockSums.set(partial.blockSums, (partial.firstBlock - first) * plan.sumsPerBlock)
   }
   return merged
+}
+
+function addCounts(into: Uint32Array, from: Uint32Array): void {
+  for (let i = 0; i < into.length; i++) into[i] = (into[i]! + from[i]!) >>> 0
 }

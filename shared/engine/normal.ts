@@ -1,9 +1,8 @@
 // Standard normal quantile function Φ⁻¹ by Wichura's algorithm AS 241 (PPND16), Applied Statistics
 // 37(3):477–484, 1988: rational approximations with relative error about 1e-16 over (0, 1). The engine
-// turns each uniform into a score with it, so a score's quantile level is exact to double precision,
-// which is what the quantile-table and sample-draw release forms need; the central branch (85 % of calls)
-// needs no logarithm. Coefficients are the published ones rounded to the 17 significant digits a double
-// holds: the same numbers.
+// places the breakpoints of quantile tables and uploaded draws with it (scores themselves come from the
+// ziggurat, `ziggurat.ts`). Coefficients are the published ones rounded to the 17 significant digits a
+// double holds: the same numbers.
 
 const SPLIT_CENTRAL = 0.425
 const SPLIT_TAIL = 5
@@ -60,26 +59,6 @@ export function standardNormalQuantile(p: number): number {
     return NaN
   }
   return tailQuantile(p)
-}
-
-/**
- * Φ⁻¹ of the first `count` values of `levels` (all strictly inside (0, 1)) into `out`, bit for bit the
- * same as `standardNormalQuantile`. Two passes keep the common case free of unpredictable branches: every
- * value goes through the central rational function while tail positions are listed without a branch,
- * then the ~15 % in the tails are recomputed. `tails` needs room for `count` indices.
- */
-export function standardNormalQuantiles(levels: Float64Array, out: Float64Array, count: number, tails: Int32Array): void {
-  let tailCount = 0
-  for (let i = 0; i < count; i++) {
-    const q = levels[i]! - 0.5
-    tails[tailCount] = i
-    tailCount += +(Math.abs(q) > SPLIT_CENTRAL)
-    out[i] = centralQuantile(q)
-  }
-  for (let k = 0; k < tailCount; k++) {
-    const i = tails[k]!
-    out[i] = tailQuantile(levels[i]!)
-  }
 }
 
 /**

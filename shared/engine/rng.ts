@@ -2,7 +2,8 @@
 //
 // Generator: xoshiro128** 1.1 (D. Blackman and S. Vigna, "Scrambled linear pseudorandom number
 // generators", ACM TOMS 47(4), 2021; reference code at prng.di.unimi.it). 32-bit words suit
-// JavaScript's Math.imul and uint32 arithmetic, so the hot loop never touches BigInt.
+// JavaScript's Math.imul and uint32 arithmetic, so the hot loop never touches BigInt. The sample loop
+// turns the outputs into normal scores itself (`ziggurat.ts`, generator inlined).
 //
 // Seeding: SplitMix64 (G. Steele, D. Lea, C. Flood, "Fast splittable pseudorandom number generators",
 // OOPSLA 2014), the seeder the xoshiro authors recommend. Each block of samples has its own stream:
@@ -57,33 +58,4 @@ export function nextUint32(state: Uint32Array): number {
   state[2] = n2 ^ t
   state[3] = (n3 << 11) | (n3 >>> 21)
   return result
-}
-
-const TWO_TO_MINUS_32 = 1 / 4294967296
-
-/**
- * Fills `out` with uniforms strictly inside (0, 1): (k + 0.5) / 2^32 for a 32-bit output k.
- * Never 0 or 1, so an inverse CDF never returns ±Infinity.
- */
-export function fillOpenUniforms(state: Uint32Array, out: Float64Array, count: number): void {
-  let s0 = state[0]! | 0
-  let s1 = state[1]! | 0
-  let s2 = state[2]! | 0
-  let s3 = state[3]! | 0
-  for (let i = 0; i < count; i++) {
-    const m = Math.imul(s1, 5)
-    const result = Math.imul((m << 7) | (m >>> 25), 9) >>> 0
-    const t = s1 << 9
-    s2 ^= s0
-    s3 ^= s1
-    s1 ^= s2
-    s0 ^= s3
-    s2 ^= t
-    s3 = (s3 << 11) | (s3 >>> 21)
-    out[i] = (result + 0.5) * TWO_TO_MINUS_32
-  }
-  state[0] = s0
-  state[1] = s1
-  state[2] = s2
-  state[3] = s3
 }

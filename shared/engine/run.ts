@@ -1,5 +1,5 @@
-import { fillOpenUniforms, blockStreamState } from './rng'
-import { standardNormalQuantiles } from './normal'
+import { blockStreamState } from './rng'
+import { fillNormalScores } from './ziggurat'
 import { HOLDS_CUT, samplerTables } from './sampler-tables'
 import { TILE, tileScratch } from './tile-scratch'
 import { scoreTile, valueTile } from './tile-values'
@@ -11,9 +11,9 @@ import type { OutlookPlan, OutlookPartial } from './types'
 // per sample or per block, and each block draws from its own stream, so blocks may run on any thread
 // in any order.
 //
-// Random stream order inside a block of n samples: n uniforms for component 0 (one per sample, in
-// sample order), then n for component 1, …, then n for land motion; each uniform becomes a score
-// through Φ⁻¹.
+// Random stream order inside a block of n samples: n scores for component 0 (one per sample, in
+// sample order), then n for component 1, …, then n for land motion, each drawn from the block's stream
+// by the ziggurat method (`ziggurat.ts`).
 //
 // A component's rise in any year is a fixed mix of its anchor values (linear interpolation in time), so a
 // sample is reduced to a few basis values (per-anchor sums over components sharing time weights, plus the
@@ -50,15 +50,14 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
   scratch.histogram.fill(0)
   for (let k = 0; k < tables.cutCells.length; k++) scratch.histogram[tables.cutCells[k]!] = HOLDS_CUT
   scratch.sumsAreLevels = tables.hasDraws
-  scratch.sumsOf = tables.hasDraws ? scratch.levels : scratch.basis
+  scratch.sumsAt = tables.hasDraws ? scratch.levelsAt : scratch.basisAt
   const yearCount = plan.years.length
   const scoresPerSample = plan.componentKeys.length + 1
   for (let b = 0; b < blockCount; b++) {
     const blockIndex = firstBlock + b
     const count = Math.min(plan.blockSize, plan.samples - blockIndex * plan.blockSize)
     const stream = blockStreamState(plan.seed, blockIndex)
-    fillOpenUniforms(stream, scratch.uniforms, count * scoresPerSample)
-    standardNormalQuantiles(scratch.uniforms, scratch.independent, count * scoresPerSample, scratch.tails)
+    fillNormalScores(stream, scratch.independent, 0, count * scoresPerSample)
     scratch.basisSum.fill(0)
     scratch.basisCross.fill(0)
     scratch.valueSum.fill(0)

@@ -39,7 +39,7 @@ export interface SamplerTables {
   allColumns: Int32Array
   /** Per component basis column, its anchor-value slots in order, padded with the zero row (slot count) to threes. */
   columnSlots: Int32Array[]
-  /** Whether any component is uploaded draws, whose rises must be formed exactly (see `TileScratch.sumsOf`). */
+  /** Whether any component is uploaded draws, whose rises must be formed exactly (see `TileScratch.sumsAt`). */
   hasDraws: boolean
   /** Per histogram cell, its exceedance cell, or −1 − (cuts below it) when a cut falls inside it. */
   cellOfBin: Int32Array
@@ -188,12 +188,18 @@ function exceedanceCellOfBin(plan: OutlookPlan): Int32Array {
       const cutBin = (plan.cuts[cut]! - low) * inverseResolution + 1
       cutBins[cut] = cutBin < 0 ? 0 : cutBin > lastBin ? lastBin : cutBin | 0
     }
-    // Cuts are sorted, so their cells are too: `below` counts the cuts in earlier cells.
+    // Cuts are sorted, so their cells are too: `below` counts the cuts in earlier cells. Runs of cells
+    // between cut cells are filled at once (this runs on every worker for every request).
     let below = 0
-    for (let bin = 0; bin <= lastBin; bin++) {
-      while (below < cutCount && cutBins[below]! < bin) below++
-      cellOfBin[at + bin] = below < cutCount && cutBins[below] === bin ? -1 - below : below
+    let bin = 0
+    while (below < cutCount) {
+      const cutBin = cutBins[below]!
+      cellOfBin.fill(below, at + bin, at + cutBin)
+      cellOfBin[at + cutBin] = -1 - below
+      while (below < cutCount && cutBins[below] === cutBin) below++
+      bin = cutBin + 1
     }
+    cellOfBin.fill(below, at + bin, at + lastBin + 1)
   }
   return cellOfBin
 }

@@ -17,15 +17,20 @@ export interface HistogramView {
   minimum: number
   maximum: number
   /** Optional running totals of `counts` within the year (inclusive, same offsets): rank look-ups by bisection. */
-  cumulative?: Float64Array
+  cumulative?: Uint32Array
 }
 
-/** Running totals of each year's histogram cells, restarting at every year's underflow cell. */
-export function cumulativeCounts(counts: Uint32Array, offsets: ArrayLike<number>, bins: ArrayLike<number>): Float64Array {
-  const cumulative = new Float64Array(counts.length)
+/**
+ * Running totals of each year's histogram cells, restarting at every year's underflow cell (exact: a
+ * year holds at most 2,000,000 samples). Written into `into` when it has the right length (finishing
+ * is synchronous, so a caller may reuse one array), otherwise into a new array.
+ */
+export function cumulativeCounts(counts: Uint32Array, offsets: ArrayLike<number>, bins: ArrayLike<number>, into?: Uint32Array): Uint32Array {
+  const cumulative = into?.length === counts.length ? into : new Uint32Array(counts.length)
   for (let t = 0; t < offsets.length; t++) {
     let total = 0
-    for (let k = offsets[t]!; k <= offsets[t]! + bins[t]! + 1; k++) {
+    const end = offsets[t]! + bins[t]! + 1
+    for (let k = offsets[t]!; k <= end; k++) {
       total += counts[k]!
       cumulative[k] = total
     }

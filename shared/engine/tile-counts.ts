@@ -19,17 +19,18 @@ function riseIntercept(plan: OutlookPlan, scratch: TileScratch, t: number): numb
  */
 export function riseOfYear(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, t: number, tileCount: number): void {
   const rise = scratch.rise
-  const levels = scratch.sumsAreLevels ? scratch.levels : scratch.basis
+  const levels = scratch.rows
+  const levelsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
   const columns = tables.yearColumns[t]!
   const weights = tables.yearWeights[t]!
   const out = t * TILE
   if (columns.length === PASS) return
   rise.fill(riseIntercept(plan, scratch, t), out, out + tileCount)
   for (let p = 0; p + PASS < columns.length; p += PASS) {
-    const b0 = columns[p]! * TILE
-    const b1 = columns[p + 1]! * TILE
-    const b2 = columns[p + 2]! * TILE
-    const b3 = columns[p + 3]! * TILE
+    const b0 = levelsAt + columns[p]! * TILE
+    const b1 = levelsAt + columns[p + 1]! * TILE
+    const b2 = levelsAt + columns[p + 2]! * TILE
+    const b3 = levelsAt + columns[p + 3]! * TILE
     const w0 = weights[p]!
     const w1 = weights[p + 1]!
     const w2 = weights[p + 2]!
@@ -61,15 +62,16 @@ export function countYear(
   const lastBin = plan.histogramBins[t]! + 1
   const histogramAt = plan.histogramOffset[t]!
   const cellAt = t * (cutCount + 1)
-  const levels = scratch.sumsAreLevels ? scratch.levels : scratch.basis
+  const levels = scratch.rows
+  const levelsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
   const columns = tables.yearColumns[t]!
   const weights = tables.yearWeights[t]!
   // The last pass of the rise (padded with the zero row, weight 0).
   const last = columns.length - PASS
-  const b0 = columns[last]! * TILE
-  const b1 = columns[last + 1]! * TILE
-  const b2 = columns[last + 2]! * TILE
-  const b3 = columns[last + 3]! * TILE
+  const b0 = levelsAt + columns[last]! * TILE
+  const b1 = levelsAt + columns[last + 1]! * TILE
+  const b2 = levelsAt + columns[last + 2]! * TILE
+  const b3 = levelsAt + columns[last + 3]! * TILE
   const w0 = weights[last]!
   const w1 = weights[last + 1]!
   const w2 = weights[last + 2]!
@@ -87,7 +89,11 @@ export function countYear(
   let listedCount = 0
   // Columns of the last pass that carry a weight (the rest are padding): most years need two or three.
   const used = w3 !== 0 ? 4 : w2 !== 0 ? 3 : 2
-  for (let i = 0; i < tileCount; i++) {
+  if (onePass && !keepRise && used < 4) {
+    listedCount = countOnePass(histogram, levels, listed, histogramAt, b0, b1, b2, w0, w1, w2, used === 3, intercept, low, inverseResolution, lastBin, tileCount, partial.minimum, partial.maximum, t)
+    minimum = partial.minimum[t]!
+    maximum = partial.maximum[t]!
+  } else for (let i = 0; i < tileCount; i++) {
     let value = (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]!
     if (used > 2) value += w2 * levels[b2 + i]!
     if (used > 3) value += w3 * levels[b3 + i]!
@@ -115,6 +121,72 @@ export function countYear(
     while (cell < cutCount && cuts[cell]! < value) cell++
     cellCounts[cellAt + cell]!++
   }
+}
+
+/**
+ * `countYear`'s loop for the usual year: one pass of two or three columns and no rise kept. The
+ * optimizing compiler neither hoists loop-invariant tests nor drops overflow checks on index sums, so
+ * this copy has no such tests inside (one loop per column count) and its index sums are `| 0`. Same
+ * arithmetic, in the same order, as the general loop. Returns how many samples it listed.
+ */
+function countOnePass(
+  histogram: Int32Array,
+  levels: Float64Array,
+  listed: Int32Array,
+  histogramAt: number,
+  b0: number,
+  b1: number,
+  b2: number,
+  w0: number,
+  w1: number,
+  w2: number,
+  threeColumns: boolean,
+  intercept: number,
+  low: number,
+  inverseResolution: number,
+  lastBin: number,
+  tileCount: number,
+  minima: Float64Array,
+  maxima: Float64Array,
+  t: number,
+): number {
+  let minimum = minima[t]!
+  let maximum = maxima[t]!
+  let listedCount = 0
+  if (threeColumns) {
+    for (let i = 0; i < tileCount; i = (i + 1) | 0) {
+      const value = intercept + w0 * levels[(b0 + i) | 0]! + w1 * levels[(b1 + i) | 0]! + w2 * levels[(b2 + i) | 0]!
+      if (value < minimum) minimum = value
+      if (value > maximum) maximum = value
+      let bin = (value - low) * inverseResolution + 1
+      bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
+      const at = (histogramAt + bin) | 0
+      const count = (histogram[at]! + 1) | 0
+      histogram[at] = count
+      if (count < 0) {
+        listed[listedCount] = i
+        listedCount = (listedCount + 1) | 0
+      }
+    }
+  } else {
+    for (let i = 0; i < tileCount; i = (i + 1) | 0) {
+      const value = intercept + w0 * levels[(b0 + i) | 0]! + w1 * levels[(b1 + i) | 0]!
+      if (value < minimum) minimum = value
+      if (value > maximum) maximum = value
+      let bin = (value - low) * inverseResolution + 1
+      bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
+      const at = (histogramAt + bin) | 0
+      const count = (histogram[at]! + 1) | 0
+      histogram[at] = count
+      if (count < 0) {
+        listed[listedCount] = i
+        listedCount = (listedCount + 1) | 0
+      }
+    }
+  }
+  minima[t] = minimum
+  maxima[t] = maximum
+  return listedCount
 }
 
 /**

@@ -8,12 +8,11 @@ export const TILE = 1024
 
 /** Working arrays of the sample loop. Their contents never outlive one call of `runBlocks`. */
 export interface TileScratch {
-  /** Uniforms of a block: component 0's for every sample, then component 1's, …, land motion's last. */
-  uniforms: Float64Array
-  /** Independent scores of a block, laid out like `uniforms`, then one zero row of TILE (padding). */
+  /**
+   * Independent scores of a block: component 0's for every sample, then component 1's, …, land motion's
+   * last; then one zero row of TILE (padding).
+   */
   independent: Float64Array
-  /** Tail positions for the batch Φ⁻¹. */
-  tails: Int32Array
   /** Correlated score of component c for tile sample i at [c·TILE + i] (rows that are not a copy). */
   scores: Float64Array
   /** Per score row, where the tile's scores are read: `scores` or `independent`, and the offset. */
@@ -21,22 +20,28 @@ export interface TileScratch {
   scoreAt: Int32Array
   /** First anchor line of the piece or draw each sample picked, at [c·TILE + i]. */
   lineAt: Int32Array
-  /** Scaled anchor value of slot v less its all-scores-zero value, at [v·TILE + i]; row V stays zero (padding). */
-  values: Float64Array
   /**
-   * Per basis column j, the sum of its slots' scaled anchor values at [j·TILE + i] (land motion: the
-   * score); row J stays zero (padding). Each year's rise is formed from these, so a lone component's
-   * rise is its value exactly (a draw equal to a height does not exceed it).
+   * The tile's value, basis and level rows in one array: the optimizing compiler checks a typed array's
+   * map and bounds anew on every loop iteration, once per array object, so kernels that read several
+   * kinds of row read them all from this one.
    */
-  levels: Float64Array
-  /** Per column, the sum of its slots' centred values (land motion: the score): the basis of the sums. Row J zero. */
-  basis: Float64Array
+  rows: Float64Array
+  /** Scaled anchor value of slot v less its all-scores-zero value, at rows[valuesAt + v·TILE + i]; row V stays zero (padding). */
+  valuesAt: number
+  /** Per column, the sum of its slots' centred values (land motion: the score) at rows[basisAt + j·TILE + i]: the basis of the sums. Row J zero. */
+  basisAt: number
   /**
-   * The rows the value loop adds each anchor value into: `levels` when a plan has uploaded draws (their
-   * rises must be exact, so the basis is formed from the values afterwards), otherwise `basis` (rises
+   * Per basis column j, the sum of its slots' scaled anchor values at rows[levelsAt + j·TILE + i] (land
+   * motion: the score); row J stays zero (padding). Each year's rise is formed from these when the plan
+   * has draws, so a lone component's rise is its value exactly (a draw equal to a height does not exceed it).
+   */
+  levelsAt: number
+  /**
+   * The rows the value loop adds each anchor value into: the levels when a plan has uploaded draws (their
+   * rises must be exact, so the basis is formed from the values afterwards), otherwise the basis (rises
    * are then formed from the basis about the all-scores-zero rise, which saves a pass over the values).
    */
-  sumsOf: Float64Array
+  sumsAt: number
   sumsAreLevels: boolean
   /** Total rise per year at [t·TILE + i] (years of several passes, and for the Gumbel sums). */
   rise: Float64Array
@@ -64,17 +69,16 @@ export function tileScratch(plan: OutlookPlan): TileScratch {
   if (kept?.key === key) return kept.scratch
   const columnCount = plan.basisCount
   const scratch: TileScratch = {
-    uniforms: new Float64Array(plan.blockSize * scoreRows),
     independent: new Float64Array(plan.blockSize * scoreRows + TILE),
-    tails: new Int32Array(plan.blockSize * scoreRows),
     scores: new Float64Array(scoreRows * TILE),
     scoreFrom: [],
     scoreAt: new Int32Array(scoreRows),
     lineAt: new Int32Array((scoreRows - 1) * TILE),
-    values: new Float64Array((plan.valueCount + 1) * TILE),
-    levels: new Float64Array((columnCount + 1) * TILE),
-    basis: new Float64Array((columnCount + 1) * TILE),
-    sumsOf: new Float64Array(0),
+    rows: new Float64Array((plan.valueCount + 1 + 2 * (columnCount + 1)) * TILE),
+    valuesAt: 0,
+    basisAt: (plan.valueCount + 1) * TILE,
+    levelsAt: (plan.valueCount + 1 + columnCount + 1) * TILE,
+    sumsAt: 0,
     sumsAreLevels: true,
     rise: new Float64Array(plan.years.length * TILE),
     listed: new Int32Array(TILE),

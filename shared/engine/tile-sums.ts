@@ -17,15 +17,17 @@ function geometricRun(a: number, d: number, steps: number): number {
  * in slot order, three per pass (padding reads the zero row of `values`); land motion's is its score.
  */
 export function basisFromValues(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, tileCount: number): void {
-  const { values, basis } = scratch
+  // Values and basis are rows of the same array (see `TileScratch.rows`).
+  const values = scratch.rows
+  const basis = values
   const landColumn = plan.basisCount - 1
   for (let j = 0; j < landColumn; j++) {
     const slots = tables.columnSlots[j]!
-    const at = j * TILE
+    const at = scratch.basisAt + j * TILE
     for (let p = 0; p < slots.length; p += SLOTS_PER_PASS) {
-      const v0 = slots[p]! * TILE
-      const v1 = slots[p + 1]! * TILE
-      const v2 = slots[p + 2]! * TILE
+      const v0 = scratch.valuesAt + slots[p]! * TILE
+      const v1 = scratch.valuesAt + slots[p + 1]! * TILE
+      const v2 = scratch.valuesAt + slots[p + 2]! * TILE
       if (p === 0) for (let i = 0; i < tileCount; i++) basis[at + i] = values[v0 + i]! + values[v1 + i]! + values[v2 + i]!
       else for (let i = 0; i < tileCount; i++) basis[at + i] = basis[at + i]! + values[v0 + i]! + values[v1 + i]! + values[v2 + i]!
     }
@@ -38,23 +40,29 @@ export function basisFromValues(plan: OutlookPlan, tables: SamplerTables, scratc
  */
 export function sumTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, tileCount: number): void {
   const columnCount = plan.basisCount
-  const rowCount = columnCount + plan.valueCount
-  const { values, basis } = scratch
+  const landColumn = columnCount - 1
+  const rowCount = 1 + plan.valueCount
+  // Values and basis are rows of the same array (see `TileScratch.rows`).
+  const values = scratch.rows
+  const basis = values
+  const { valuesAt, basisAt } = scratch
   const columns = tables.allColumns
-  // Rows are the basis columns, then the anchor-value slots; two rows per pass share the column loads.
+  // Rows are the land-motion column, then the anchor-value slots; two rows per pass share the column
+  // loads. A component column's own row is the sum of its slots' rows (`basisRowsFromValues`).
+  // Index sums are `| 0` so they carry no overflow checks (see `countOnePass`).
   for (let row = 0; row < rowCount; row += 2) {
     const second = Math.min(row + 1, rowCount - 1)
-    const sourceA = row < columnCount ? basis : values
-    const sourceB = second < columnCount ? basis : values
-    const atA = (row < columnCount ? row : row - columnCount) * TILE
-    const atB = (second < columnCount ? second : second - columnCount) * TILE
+    const sourceA = row === 0 ? basis : values
+    const sourceB = second === 0 ? basis : values
+    const atA = row === 0 ? basisAt + landColumn * TILE : valuesAt + (row - 1) * TILE
+    const atB = second === 0 ? basisAt + landColumn * TILE : valuesAt + (second - 1) * TILE
     let sumA = 0
     let sumB = 0
     for (let p = 0; p < columns.length; p += PASS) {
-      const b0 = columns[p]! * TILE
-      const b1 = columns[p + 1]! * TILE
-      const b2 = columns[p + 2]! * TILE
-      const b3 = columns[p + 3]! * TILE
+      const b0 = basisAt + columns[p]! * TILE
+      const b1 = basisAt + columns[p + 1]! * TILE
+      const b2 = basisAt + columns[p + 2]! * TILE
+      const b3 = basisAt + columns[p + 3]! * TILE
       let a0 = 0
       let a1 = 0
       let a2 = 0
@@ -64,13 +72,13 @@ export function sumTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileS
       let c2 = 0
       let c3 = 0
       if (p === 0) {
-        for (let i = 0; i < tileCount; i++) {
-          const x = sourceA[atA + i]!
-          const y = sourceB[atB + i]!
-          const u0 = basis[b0 + i]!
-          const u1 = basis[b1 + i]!
-          const u2 = basis[b2 + i]!
-          const u3 = basis[b3 + i]!
+        for (let i = 0; i < tileCount; i = (i + 1) | 0) {
+          const x = sourceA[(atA + i) | 0]!
+          const y = sourceB[(atB + i) | 0]!
+          const u0 = basis[(b0 + i) | 0]!
+          const u1 = basis[(b1 + i) | 0]!
+          const u2 = basis[(b2 + i) | 0]!
+          const u3 = basis[(b3 + i) | 0]!
           sumA += x
           sumB += y
           a0 += x * u0
@@ -83,13 +91,13 @@ export function sumTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileS
           c3 += y * u3
         }
       } else {
-        for (let i = 0; i < tileCount; i++) {
-          const x = sourceA[atA + i]!
-          const y = sourceB[atB + i]!
-          const u0 = basis[b0 + i]!
-          const u1 = basis[b1 + i]!
-          const u2 = basis[b2 + i]!
-          const u3 = basis[b3 + i]!
+        for (let i = 0; i < tileCount; i = (i + 1) | 0) {
+          const x = sourceA[(atA + i) | 0]!
+          const y = sourceB[(atB + i) | 0]!
+          const u0 = basis[(b0 + i) | 0]!
+          const u1 = basis[(b1 + i) | 0]!
+          const u2 = basis[(b2 + i) | 0]!
+          const u3 = basis[(b3 + i) | 0]!
           a0 += x * u0
           a1 += x * u1
           a2 += x * u2
@@ -108,7 +116,10 @@ export function sumTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileS
   }
 }
 
-/** Adds one pass's dot products of a row; padding columns point at the zero row and are not stored. */
+/**
+ * Adds one pass's dot products of a row (0: land motion's basis column, r ≥ 1: value slot r − 1);
+ * padding columns point at the zero row and are not stored.
+ */
 function addCross(
   scratch: TileScratch,
   columnCount: number,
@@ -120,8 +131,8 @@ function addCross(
   c2: number,
   c3: number,
 ): void {
-  const target = row < columnCount ? scratch.basisCross : scratch.valueCross
-  const at = (row < columnCount ? row : row - columnCount) * columnCount
+  const target = row === 0 ? scratch.basisCross : scratch.valueCross
+  const at = (row === 0 ? columnCount - 1 : row - 1) * columnCount
   if (columns[p]! < columnCount) target[at + columns[p]!]! += c0
   if (columns[p + 1]! < columnCount) target[at + columns[p + 1]!]! += c1
   if (columns[p + 2]! < columnCount) target[at + columns[p + 2]!]! += c2
@@ -129,8 +140,25 @@ function addCross(
 }
 
 function addSum(scratch: TileScratch, columnCount: number, row: number, sum: number): void {
-  if (row < columnCount) scratch.basisSum[row]! += sum
-  else scratch.valueSum[row - columnCount]! += sum
+  if (row === 0) scratch.basisSum[columnCount - 1]! += sum
+  else scratch.valueSum[row - 1]! += sum
+}
+
+/**
+ * A component column's basis value is the sum of its slots' centred values, so its sums and dot
+ * products are the sums of theirs (in slot order): the sample loop forms only the slots' and land
+ * motion's, and the shares' parts add up to the total's variance by construction.
+ */
+function basisRowsFromValues(plan: OutlookPlan, scratch: TileScratch): void {
+  const columnCount = plan.basisCount
+  const { basisSum, basisCross, valueSum, valueCross } = scratch
+  basisSum.fill(0, 0, columnCount - 1)
+  basisCross.fill(0, 0, (columnCount - 1) * columnCount)
+  for (let slot = 0; slot < plan.valueCount; slot++) {
+    const j = plan.valueBasis[slot]!
+    basisSum[j]! += valueSum[slot]!
+    for (let k = 0; k < columnCount; k++) basisCross[j * columnCount + k]! += valueCross[slot * columnCount + k]!
+  }
 }
 
 /**
@@ -144,6 +172,7 @@ export function blockSumsByYear(plan: OutlookPlan, scratch: TileScratch, sums: F
   const landColumn = columnCount - 1
   const componentCount = plan.componentKeys.length
   const partCount = componentCount + 1
+  basisRowsFromValues(plan, scratch)
   const { basisSum, basisCross, valueSum, valueCross } = scratch
   const weight = plan.basisWeight
   const momentsAt = sumOffset + plan.sumLayout.moments

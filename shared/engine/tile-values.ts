@@ -115,13 +115,13 @@ function drawLines(plan: OutlookPlan, scratch: TileScratch, c: number, tileCount
 
 /**
  * Each component's scaled anchor values less their all-scores-zero values (for the variance shares),
- * and per basis column the sum of its slots' values into `sumsOf`: the centred basis, or the plain
+ * and per basis column the sum of its slots' values into the rows at `sumsAt`: the centred basis, or the plain
  * levels when the plan has draws. The land-motion column is its score in both.
  */
 export function valueTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, tileCount: number): void {
   const componentCount = plan.componentKeys.length
   const landColumn = plan.basisCount - 1
-  scratch.sumsOf.fill(0, 0, landColumn * TILE)
+  scratch.rows.fill(0, scratch.sumsAt, scratch.sumsAt + landColumn * TILE)
   for (let c = 0; c < componentCount; c++) {
     const kind = plan.kinds[c]!
     const anchors = plan.anchorCount[c]!
@@ -142,13 +142,15 @@ export function valueTile(plan: OutlookPlan, tables: SamplerTables, scratch: Til
   }
   const landScores = scratch.scoreFrom[componentCount]!
   const landAt = scratch.scoreAt[componentCount]!
-  scratch.levels.set(landScores.subarray(landAt, landAt + tileCount), landColumn * TILE)
-  scratch.basis.set(landScores.subarray(landAt, landAt + tileCount), landColumn * TILE)
+  scratch.rows.set(landScores.subarray(landAt, landAt + tileCount), scratch.levelsAt + landColumn * TILE)
+  scratch.rows.set(landScores.subarray(landAt, landAt + tileCount), scratch.basisAt + landColumn * TILE)
 }
 
 /** Anchors a, a+1, a+2 of piecewise component c; the piece is found here (at most four breakpoints). */
 function piecewiseThreeInline(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, c: number, a: number, tileCount: number): void {
-  const { values, sumsOf: sums } = scratch
+  // Values and sums are rows of the same array (see `TileScratch.rows`).
+  const values = scratch.rows
+  const sums = values
   const scores = scratch.scoreFrom[c]!
   const from = scratch.scoreAt[c]!
   const intercepts = plan.anchorIntercept
@@ -161,57 +163,60 @@ function piecewiseThreeInline(plan: OutlookPlan, tables: SamplerTables, scratch:
   const p3 = padded[3]!
   const base = plan.lineStart[c]! + a
   const slot = plan.valueStart[c]! + a
-  const o0 = slot * TILE
+  const o0 = scratch.valuesAt + slot * TILE
   const o1 = o0 + TILE
   const o2 = o1 + TILE
-  const j0 = plan.valueBasis[slot]! * TILE
-  const j1 = plan.valueBasis[slot + 1]! * TILE
-  const j2 = plan.valueBasis[slot + 2]! * TILE
+  const j0 = scratch.sumsAt + plan.valueBasis[slot]! * TILE
+  const j1 = scratch.sumsAt + plan.valueBasis[slot + 1]! * TILE
+  const j2 = scratch.sumsAt + plan.valueBasis[slot + 2]! * TILE
   const zero0 = plan.valueAtZero[slot]!
   const zero1 = plan.valueAtZero[slot + 1]!
   const zero2 = plan.valueAtZero[slot + 2]!
   // What is taken off each value before it is summed: its value at zero when the sums are the centred
-  // basis, nothing when they are the levels (see `TileScratch.sumsOf`).
+  // basis, nothing when they are the levels (see `TileScratch.sumsAt`).
   const taken0 = scratch.sumsAreLevels ? 0 : zero0
   const taken1 = scratch.sumsAreLevels ? 0 : zero1
   const taken2 = scratch.sumsAreLevels ? 0 : zero2
   // A table of five levels has three breakpoints: the padding (+∞) is never reached, so skip it.
   const fourth = p3 !== Infinity
-  for (let i = 0; i < tileCount; i++) {
-    const z = scores[from + i]!
-    const line = base + (+(z >= p0) + +(z >= p1) + +(z >= p2) + (fourth ? +(z >= p3) : 0)) * anchors
+  // Index sums are `| 0`: without it each carries an int32 overflow check (see `countOnePass`).
+  for (let i = 0; i < tileCount; i = (i + 1) | 0) {
+    const z = scores[(from + i) | 0]!
+    const line = (base + Math.imul(+(z >= p0) + +(z >= p1) + +(z >= p2) + (fourth ? +(z >= p3) : 0), anchors)) | 0
     const x0 = intercepts[line]! + slopes[line]! * z
-    const x1 = intercepts[line + 1]! + slopes[line + 1]! * z
-    const x2 = intercepts[line + 2]! + slopes[line + 2]! * z
-    values[o0 + i] = x0 - zero0
-    values[o1 + i] = x1 - zero1
-    values[o2 + i] = x2 - zero2
-    sums[j0 + i]! += x0 - taken0
-    sums[j1 + i]! += x1 - taken1
-    sums[j2 + i]! += x2 - taken2
+    const x1 = intercepts[(line + 1) | 0]! + slopes[(line + 1) | 0]! * z
+    const x2 = intercepts[(line + 2) | 0]! + slopes[(line + 2) | 0]! * z
+    values[(o0 + i) | 0] = x0 - zero0
+    values[(o1 + i) | 0] = x1 - zero1
+    values[(o2 + i) | 0] = x2 - zero2
+    sums[(j0 + i) | 0]! += x0 - taken0
+    sums[(j1 + i) | 0]! += x1 - taken1
+    sums[(j2 + i) | 0]! += x2 - taken2
   }
 }
 
 /** Anchors a, a+1, a+2 of piecewise component c, the piece already in `lineAt`. */
 function piecewiseThree(plan: OutlookPlan, scratch: TileScratch, c: number, a: number, tileCount: number): void {
-  const { values, sumsOf: sums, lineAt } = scratch
+  const values = scratch.rows
+  const sums = values
+  const lineAt = scratch.lineAt
   const scores = scratch.scoreFrom[c]!
   const from = scratch.scoreAt[c]!
   const intercepts = plan.anchorIntercept
   const slopes = plan.anchorSlope
   const slot = plan.valueStart[c]! + a
   const at = c * TILE
-  const o0 = slot * TILE
+  const o0 = scratch.valuesAt + slot * TILE
   const o1 = o0 + TILE
   const o2 = o1 + TILE
-  const j0 = plan.valueBasis[slot]! * TILE
-  const j1 = plan.valueBasis[slot + 1]! * TILE
-  const j2 = plan.valueBasis[slot + 2]! * TILE
+  const j0 = scratch.sumsAt + plan.valueBasis[slot]! * TILE
+  const j1 = scratch.sumsAt + plan.valueBasis[slot + 1]! * TILE
+  const j2 = scratch.sumsAt + plan.valueBasis[slot + 2]! * TILE
   const zero0 = plan.valueAtZero[slot]!
   const zero1 = plan.valueAtZero[slot + 1]!
   const zero2 = plan.valueAtZero[slot + 2]!
   // What is taken off each value before it is summed: its value at zero when the sums are the centred
-  // basis, nothing when they are the levels (see `TileScratch.sumsOf`).
+  // basis, nothing when they are the levels (see `TileScratch.sumsAt`).
   const taken0 = scratch.sumsAreLevels ? 0 : zero0
   const taken1 = scratch.sumsAreLevels ? 0 : zero1
   const taken2 = scratch.sumsAreLevels ? 0 : zero2
@@ -232,15 +237,17 @@ function piecewiseThree(plan: OutlookPlan, scratch: TileScratch, c: number, a: n
 
 /** Anchor a of piecewise component c (the piece inline or from `lineAt`). */
 function piecewiseOne(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, c: number, a: number, tileCount: number): void {
-  const { values, sumsOf: sums, lineAt } = scratch
+  const values = scratch.rows
+  const sums = values
+  const lineAt = scratch.lineAt
   const scores = scratch.scoreFrom[c]!
   const from = scratch.scoreAt[c]!
   const intercepts = plan.anchorIntercept
   const slopes = plan.anchorSlope
   const anchors = plan.anchorCount[c]!
   const slot = plan.valueStart[c]! + a
-  const out = slot * TILE
-  const into = plan.valueBasis[slot]! * TILE
+  const out = scratch.valuesAt + slot * TILE
+  const into = scratch.sumsAt + plan.valueBasis[slot]! * TILE
   const zero = plan.valueAtZero[slot]!
   const taken = scratch.sumsAreLevels ? 0 : zero
   const at = c * TILE
@@ -269,11 +276,13 @@ function piecewiseOne(plan: OutlookPlan, tables: SamplerTables, scratch: TileScr
 }
 
 function drawOne(plan: OutlookPlan, scratch: TileScratch, c: number, a: number, tileCount: number): void {
-  const { values, sumsOf: sums, lineAt } = scratch
+  const values = scratch.rows
+  const sums = values
+  const lineAt = scratch.lineAt
   const intercepts = plan.anchorIntercept
   const slot = plan.valueStart[c]! + a
-  const out = slot * TILE
-  const into = plan.valueBasis[slot]! * TILE
+  const out = scratch.valuesAt + slot * TILE
+  const into = scratch.sumsAt + plan.valueBasis[slot]! * TILE
   const zero = plan.valueAtZero[slot]!
   const taken = scratch.sumsAreLevels ? 0 : zero
   const at = c * TILE
@@ -285,12 +294,14 @@ function drawOne(plan: OutlookPlan, scratch: TileScratch, c: number, a: number, 
 }
 
 function lognormalOne(plan: OutlookPlan, scratch: TileScratch, c: number, a: number, tileCount: number): void {
-  const { values, sumsOf: sums } = scratch
+  // Values and sums are rows of the same array (see `TileScratch.rows`).
+  const values = scratch.rows
+  const sums = values
   const scores = scratch.scoreFrom[c]!
   const from = scratch.scoreAt[c]!
   const slot = plan.valueStart[c]! + a
-  const out = slot * TILE
-  const into = plan.valueBasis[slot]! * TILE
+  const out = scratch.valuesAt + slot * TILE
+  const into = scratch.sumsAt + plan.valueBasis[slot]! * TILE
   const zero = plan.valueAtZero[slot]!
   const taken = scratch.sumsAreLevels ? 0 : zero
   const shift = plan.lognormalShift[slot]!

@@ -9,7 +9,7 @@ import { loadWorkload } from './workload'
 // merge the partials and finish the outlook.
 
 const RUNS = Number(process.env.BENCH_RUNS ?? 7)
-const WARM_UPS = 3
+const WARM_UPS = Number(process.env.BENCH_WARM_UPS ?? 3)
 const WORKERS = Number(process.env.BENCH_WORKERS ?? 2)
 const MAIN_SHARE = process.env.BENCH_MAIN_SHARE === '1'
 
