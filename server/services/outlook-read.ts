@@ -1,6 +1,7 @@
-import { eq } from 'drizzle-orm'
+import { eq, sql } from 'drizzle-orm'
 import { outlooks, sites } from '~~/server/db/schema'
 import type { CurrentUser } from '../utils/auth'
+import { preparedQuery } from '../utils/prepared-query'
 import { sharedReads } from '../utils/shared-reads'
 import { newerScience } from './outlooks'
 
@@ -55,9 +56,10 @@ async function loadOutlook(id: string): Promise<Loaded | undefined> {
 }
 
 /** What a reader needs of an outlook's site: who owns it, and the fields shown beside the outlook. */
+const siteQuery = preparedQuery(db => db.select({ name: sites.name, organisationId: sites.organisationId, referenceLevel: sites.referenceLevel })
+  .from(sites).where(eq(sites.id, sql.placeholder('siteId'))).prepare('outlook_site'))
 const siteOfOutlook = sharedReads(async (siteId: string) => {
-  const db = await useDb()
-  const [site] = await db.select({ name: sites.name, organisationId: sites.organisationId, referenceLevel: sites.referenceLevel }).from(sites).where(eq(sites.id, siteId))
+  const [site] = await (await siteQuery()).execute({ siteId })
   return site
 })
 

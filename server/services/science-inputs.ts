@@ -1,7 +1,8 @@
-import { and, desc, eq } from 'drizzle-orm'
+import { and, desc, eq, sql } from 'drizzle-orm'
 import { correlationSets, releaseDraws, releases, scaleFactorGrids, series } from '~~/server/db/schema'
 import { interpolateFactor } from '#shared/releases/grid'
 import { COMPONENTS } from '#shared/types/science'
+import { preparedQuery } from '../utils/prepared-query'
 import { sharedReads } from '../utils/shared-reads'
 import { decodeDraws } from './releases'
 
@@ -33,17 +34,19 @@ export async function latestReleases(scenario: string) {
   return latest
 }
 
+const releaseVersionsQuery = preparedQuery(db => db.select({ id: releases.id, version: releases.version, component: series.component })
+  .from(releases).innerJoin(series, eq(series.id, releases.seriesId))
+  .where(and(eq(series.scenario, sql.placeholder('scenario')), eq(releases.state, 'published')))
+  .orderBy(desc(releases.publishedAt))
+  .prepare('latest_release_versions'))
+
 /**
  * The latest published release of each component for a scenario: id and version only, for the
  * newer-science check every outlook read makes (the parameters can be large and are not needed).
  * Concurrent calls share one query (`sharedReads`).
  */
 export const latestReleaseVersions = sharedReads(async (scenario: string) => {
-  const db = await useDb()
-  const rows = await db.select({ id: releases.id, version: releases.version, component: series.component })
-    .from(releases).innerJoin(series, eq(series.id, releases.seriesId))
-    .where(and(eq(series.scenario, scenario), eq(releases.state, 'published')))
-    .orderBy(desc(releases.publishedAt))
+  const rows = await (await releaseVersionsQuery()).execute({ scenario })
   const latest = new Map<string, typeof rows[number]>()
   for (const row of rows) if (!latest.has(row.component)) latest.set(row.component, row)
   return latest as ReadonlyMap<string, typeof rows[number]>

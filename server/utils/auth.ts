@@ -1,8 +1,9 @@
 import type { H3Event } from 'h3'
-import { eq } from 'drizzle-orm'
+import { eq, sql } from 'drizzle-orm'
 import { organisations, users } from '~~/server/db/schema'
 import type { Role } from '#shared/types/roles'
 import type { SessionUser } from '#shared/types/user'
+import { preparedQuery } from './prepared-query'
 import { sharedReads } from './shared-reads'
 
 export type CurrentUser = SessionUser
@@ -52,22 +53,24 @@ export function assertSameOrganisation(user: CurrentUser, organisationId: string
   }
 }
 
+const sessionUserQuery = preparedQuery(db => db.select({
+  id: users.id,
+  email: users.email,
+  name: users.name,
+  role: users.role,
+  locale: users.locale,
+  disabled: users.disabled,
+  organisationId: users.organisationId,
+  organisationName: organisations.name,
+  organisationIllustrative: organisations.illustrative,
+}).from(users)
+  .innerJoin(organisations, eq(organisations.id, users.organisationId))
+  .where(eq(users.id, sql.placeholder('id')))
+  .prepare('session_user'))
+
 /** The signed-in user's row as routes see it; undefined when missing or disabled (concurrent calls share a query). */
 export const loadSessionUser = sharedReads(async (id: string): Promise<CurrentUser | undefined> => {
-  const db = await useDb()
-  const [row] = await db.select({
-    id: users.id,
-    email: users.email,
-    name: users.name,
-    role: users.role,
-    locale: users.locale,
-    disabled: users.disabled,
-    organisationId: users.organisationId,
-    organisationName: organisations.name,
-    organisationIllustrative: organisations.illustrative,
-  }).from(users)
-    .innerJoin(organisations, eq(organisations.id, users.organisationId))
-    .where(eq(users.id, id))
+  const [row] = await (await sessionUserQuery()).execute({ id })
   if (!row || row.disabled) return undefined
   const { disabled: _disabled, ...user } = row
   return { ...user, locale: user.locale === 'es' ? 'es' : 'en' }
