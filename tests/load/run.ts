@@ -12,7 +12,7 @@ import { join } from 'node:path'
 import autocannon from 'autocannon'
 import { ApiClient } from '../support/client'
 import { PLANNER } from '../support/demo-users'
-import { SERVER_ENTRY, createTestDatabase, startServer, TEST_DATABASE_URL, type RunningServer } from '../support/server'
+import { SERVER_ENTRY, SERVER_NODE_OPTIONS, createTestDatabase, startServer, TEST_DATABASE_URL, type RunningServer } from '../support/server'
 
 const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 200)
 const SECONDS = Number(process.env.LOAD_SECONDS ?? 10)
@@ -95,7 +95,7 @@ try {
   const pageLatency = page.latencyMs as { p95: number }
   const errors = [page, outlook].reduce((sum, r) => sum + (r.errors as number) + (r.timeouts as number) + (r.non2xx as number), 0)
   console.log(JSON.stringify({
-    date: new Date().toISOString(), database: postgres ? 'postgresql' : 'pglite', node: process.version, cpus: cpus().length, cpu: cpus()[0]?.model,
+    date: new Date().toISOString(), database: postgres ? 'postgresql' : 'pglite', node: process.version, serverNodeOptions: SERVER_NODE_OPTIONS.join(' '), cpus: cpus().length, cpu: cpus()[0]?.model,
     memoryGb: Math.round(totalmem() / 2 ** 30), loadAverage: loadavg().map(v => Math.round(v * 100) / 100),
     results: [page, outlook],
     serverPeakRssMb: { afterPage: pagePeakRssMb, afterOutlookReads: peak, setupProcess: setupPeakRssMb },

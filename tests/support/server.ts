@@ -1,5 +1,6 @@
 import { spawn, type ChildProcess } from 'node:child_process'
 import { once } from 'node:events'
+import { readFileSync } from 'node:fs'
 import { createServer } from 'node:net'
 import { resolve } from 'node:path'
 import { createTestDatabase, TEST_DATABASE_URL, type TestDatabase } from './database'
@@ -8,6 +9,8 @@ export { createTestDatabase, TEST_DATABASE_URL, type TestDatabase } from './data
 
 export const ROOT = resolve(import.meta.dirname, '../..')
 export const SERVER_ENTRY = resolve(ROOT, '.output/server/index.mjs')
+/** The Node options `npm start` runs the built server with (package.json `config`), so tests run it the same way. */
+export const SERVER_NODE_OPTIONS: string[] = JSON.parse(readFileSync(resolve(ROOT, 'package.json'), 'utf8')).config.serverNodeOptions.split(' ')
 
 export interface RunningServer {
   url: string
@@ -58,7 +61,7 @@ export async function startServer(env: Record<string, string> = {}, options: Sta
 async function launch(env: Record<string, string>, ownDatabase: TestDatabase | undefined, requireHealthy: boolean): Promise<RunningServer> {
   const port = await freePort()
   const url = `http://127.0.0.1:${port}`
-  const child: ChildProcess = spawn(process.execPath, [SERVER_ENTRY], {
+  const child: ChildProcess = spawn(process.execPath, [...SERVER_NODE_OPTIONS, SERVER_ENTRY], {
     cwd: ROOT,
     env: {
       ...process.env,
