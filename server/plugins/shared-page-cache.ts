@@ -63,11 +63,15 @@ async function serveStoredPage(event: H3Event) {
     return false
   }
   // The same nonce format as nuxt-security's: 16 random bytes, base64.
-  const { body, headers } = withFreshNonce(page, randomBytes(16).toString('base64'))
+  const { chunks, length, headers } = withFreshNonce(page, randomBytes(16).toString('base64'))
   setResponseHeaders(event, headers)
   setResponseHeader(event, 'x-page-cache', 'hit')
-  setResponseHeader(event, 'content-length', body.length)
-  // Straight to the socket: h3's send() waits a turn of the event loop first.
-  event.node.res.end(body)
+  setResponseHeader(event, 'content-length', length)
+  // Straight to the socket (h3's send() waits a turn of the event loop first), the pieces corked into
+  // one write; end() uncorks.
+  const response = event.node.res
+  response.cork()
+  for (const chunk of chunks) response.write(chunk)
+  response.end()
   return true
 }

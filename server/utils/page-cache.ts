@@ -88,12 +88,19 @@ export function forgetSharedPages(token: string) {
   for (const key of pages.keys()) if (key.startsWith(`${token}\n`)) pages.delete(key)
 }
 
-/** The stored page with its render-time nonce replaced by a fresh one, in the tags and the header. */
+/**
+ * The stored page with its render-time nonce replaced by a fresh one, in the tags and the header, as
+ * the stored pieces with the new attribute between them: written one after another, so no request
+ * copies the whole page (the copies were most of the garbage under `npm run load`).
+ */
 export function withFreshNonce(page: CachedPage, nonce: string) {
-  if (!page.nonce) return { body: Buffer.concat(page.parts), headers: page.headers }
+  if (!page.nonce) return { chunks: page.parts, length: byteLength(page.parts), headers: page.headers }
   const headers = { ...page.headers }
   const csp = headers['content-security-policy']
   if (csp) headers['content-security-policy'] = csp.replaceAll(`'nonce-${page.nonce}'`, `'nonce-${nonce}'`)
   const attribute = Buffer.from(`nonce="${nonce}"`)
-  return { body: Buffer.concat(page.parts.flatMap((part, i) => (i ? [attribute, part] : [part]))), headers }
+  const chunks = page.parts.flatMap((part, i) => (i ? [attribute, part] : [part]))
+  return { chunks, length: byteLength(chunks), headers }
 }
+
+const byteLength = (chunks: Buffer[]) => chunks.reduce((sum, chunk) => sum + chunk.length, 0)
