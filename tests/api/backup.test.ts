@@ -6,19 +6,11 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { runDbCli } from '../support/cli'
 import { ApiClient } from '../support/client'
 import { PLANNER } from '../support/demo-users'
+import { SITE_BODY } from '../support/matrix-fixtures'
 import { createTestDatabase, startServer, TEST_DATABASE_URL, type RunningServer, type TestDatabase } from '../support/server'
 
 // Three server starts and four command runs, each opening the database: generous on a busy machine.
 const ROUND_TRIP_TIMEOUT = 240_000
-
-const newSite = (name: string) => ({
-  name,
-  latitude: 48.2,
-  longitude: -34.4,
-  referenceLevel: 'Mean sea level 2020 at the backup gauge',
-  landMotion: { rateMmPerYear: -2, sigmaMmPerYear: 0.5, source: 'gps', reference: 'Backup station', epoch: 2020 },
-  thresholds: [{ label: 'Sea wall', height: 0.9 }],
-})
 
 const plannerOn = (server: RunningServer) => ApiClient.signedIn(server.url, PLANNER.email, PLANNER.password)
 
@@ -40,7 +32,7 @@ async function withServer<T>(env: Record<string, string>, work: (planner: ApiCli
 async function roundTrip(env: Record<string, string>, backupDir: string, refusedWhileRunning: RegExp) {
   const cliEnv = { ...env, BACKUP_DIR: backupDir }
   const kept = await withServer(env, async (planner) => {
-    const created = await planner.post('/api/sites', newSite('Backup Harbour'))
+    const created = await planner.post('/api/sites', SITE_BODY('Backup Harbour'))
     expect(created.status).toBe(201)
     return created.body.id as string
   })
@@ -56,8 +48,8 @@ async function roundTrip(env: Record<string, string>, backupDir: string, refused
   let later: string
   try {
     const planner = await plannerOn(server)
-    expect((await planner.patch(`/api/sites/${kept}`, newSite('Renamed after the backup'))).status).toBe(200)
-    const created = await planner.post('/api/sites', newSite('Built after the backup'))
+    expect((await planner.patch(`/api/sites/${kept}`, SITE_BODY('Renamed after the backup'))).status).toBe(200)
+    const created = await planner.post('/api/sites', SITE_BODY('Built after the backup'))
     expect(created.status).toBe(201)
     later = created.body.id
 

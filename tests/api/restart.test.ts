@@ -5,19 +5,11 @@ import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient } from '../support/client'
 import { PLANNER } from '../support/demo-users'
+import { SITE_BODY } from '../support/matrix-fixtures'
 import { createTestDatabase, startServer, TEST_DATABASE_URL, type RunningServer, type TestDatabase } from '../support/server'
 
 // Two server starts on a file database (PGlite's first open creates it): generous on a busy machine.
 const RESTART_TIMEOUT = 180_000
-
-const newSite = (name: string) => ({
-  name,
-  latitude: 48.3,
-  longitude: -34.6,
-  referenceLevel: 'Mean sea level 2020 at the restart gauge',
-  landMotion: { rateMmPerYear: -1.5, sigmaMmPerYear: 0.4, source: 'gps', reference: 'Restart station', epoch: 2021 },
-  thresholds: [{ label: 'Slipway', height: 0.7 }],
-})
 
 const plannerOn = (server: RunningServer) => ApiClient.signedIn(server.url, PLANNER.email, PLANNER.password)
 
@@ -26,7 +18,7 @@ async function survivesRestart(env: Record<string, string>) {
   const first = await startServer(env)
   let id: string
   try {
-    const created = await (await plannerOn(first)).post('/api/sites', newSite('Restart Quay'))
+    const created = await (await plannerOn(first)).post('/api/sites', SITE_BODY('Restart Quay'))
     expect(created.status).toBe(201)
     id = created.body.id
   }
@@ -37,8 +29,8 @@ async function survivesRestart(env: Record<string, string>) {
   try {
     const read = await (await plannerOn(second)).get(`/api/sites/${id}`)
     expect(read.status).toBe(200)
-    expect(read.body).toMatchObject({ name: 'Restart Quay', landMotionRate: -1.5 })
-    expect(read.body.thresholds.map((t: { label: string }) => t.label)).toEqual(['Slipway'])
+    expect(read.body).toMatchObject({ name: 'Restart Quay', landMotionRate: -2 })
+    expect(read.body.thresholds.map((t: { label: string }) => t.label)).toEqual(['Quay'])
   }
   finally {
     await second.stop()
