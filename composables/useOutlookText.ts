@@ -14,6 +14,7 @@ export function useOutlookText() {
   const chance = (probability: number) => formatChance(probability, language.value)
   const word = (probability: number) => likelihoodPhrase(probability, language.value)
   const number = (value: number, digits = 1) => value.toLocaleString(locale.value, { minimumFractionDigits: digits, maximumFractionDigits: digits })
+  const dateTime = useDateTime()
   const component = (key: string) => (key === 'land-motion' ? t('outlook.landMotion') : t(`components.${key}`))
 
   return {
@@ -42,6 +43,6 @@ export function useOutlookText() {
       if (note.kind === 'uncorrelated') return t('outlook.notes.uncorrelated', { scenario: note.scenario })
       return t('outlook.notes.lifeBeyondReleases', { threshold: note.threshold, year: note.lastYear })
     },
-    date: (value: string | Date | null | undefined) => value ? new Date(value).toLocaleString(locale.value, { dateStyle: 'medium', timeStyle: 'short' }) : '—',
+    date: (value: string | Date | null | undefined) => dateTime(value) || '—',
   }
 }

@@ -12,6 +12,9 @@ type Row = { count: number, seconds_left: number }
 const rows = (result: unknown) => (result as { rows: Row[] }).rows
 const toWindow = (row: Row | undefined): Window | undefined => row && { count: Number(row.count), secondsLeft: Number(row.seconds_left) }
 
+/** Whole seconds until the window resets (at least 1), on the database's clock like the window itself. */
+const SECONDS_LEFT = sql.raw('greatest(1, ceil(extract(epoch from reset_at - now())))::int as seconds_left')
+
 // Windows that ended are deleted now and then, so one-off keys (addresses, clients) do not pile up.
 const SWEEP_EVERY_MS = 60_000
 let nextSweep = 0
@@ -32,7 +35,7 @@ async function count(key: string, windowMs: number): Promise<Window> {
     on conflict (key) do update set
       count = case when rate_windows.reset_at <= now() then 1 else rate_windows.count + 1 end,
       reset_at = case when rate_windows.reset_at <= now() then excluded.reset_at else rate_windows.reset_at end
-    returning count, greatest(1, ceil(extract(epoch from reset_at - now())))::int as seconds_left`)
+    returning count, ${SECONDS_LEFT}`)
   await sweep()
   return toWindow(rows(result)[0])!
 }
@@ -41,8 +44,7 @@ async function count(key: string, windowMs: number): Promise<Window> {
 async function peek(key: string): Promise<Window | undefined> {
   const db = await useDb()
   const result = await db.execute(sql`
-    select count, greatest(1, ceil(extract(epoch from reset_at - now())))::int as seconds_left
-    from rate_windows where key = ${key} and reset_at > now()`)
+    select count, ${SECONDS_LEFT} from rate_windows where key = ${key} and reset_at > now()`)
   return toWindow(rows(result)[0])
 }
 
