@@ -124,6 +124,10 @@ describe('watching a site by e-mail', () => {
     await visitor.getByRole('button', { name: 'Dejar de recibir estos correos' }).click()
     await expect.poll(() => heading(visitor)).toBe('Seguimiento detenido')
     await snap(visitor, 'unsubscribed')
+    // Opened again, the stop link says the watch is already stopped, with nothing to press.
+    await open(visitor, linkIn(text, '/watches/unsubscribe?token='))
+    await expect.poll(() => visitor.getByTestId('watch-link-about').textContent()).toBe(`Este seguimiento ya está detenido: ${PLANNER.email} no recibe correos sobre Kelwick.`)
+    expect(await visitor.getByRole('button', { name: 'Dejar de recibir estos correos' }).count()).toBe(0)
 
     await planner.reload()
     await expect.poll(() => planner.getByTestId('watch-empty').isVisible()).toBe(true)
