@@ -31,9 +31,10 @@ let cumulativeScratch: Uint32Array | undefined
 
 /** Turns the merged statistics of every block into the outlook. */
 export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): OutlookResult {
-  if (merged.firstBlock !== 0 || merged.blockCount !== plan.blockCount || merged.samples !== plan.samples) {
+  // Merging refuses a block twice, so all blocks and all samples means every block exactly once.
+  if (merged.blockCount !== plan.blockCount || merged.samples !== plan.samples) {
     throw new RangeError(
-      `an outlook needs all ${plan.blockCount} blocks (${plan.samples} samples); got blocks ${merged.firstBlock}…${merged.firstBlock + merged.blockCount - 1} (${merged.samples} samples)`,
+      `an outlook needs all ${plan.blockCount} blocks (${plan.samples} samples); got ${merged.blockCount} blocks (${merged.samples} samples)`,
     )
   }
   const n = plan.samples

@@ -2,29 +2,33 @@ import type { OutlookPartial, OutlookPlan } from './types'
 import { emptyPartial } from './run'
 
 /**
- * Combines partials of consecutive block runs (any order, any split). Counts add exactly; per-block sums
- * are laid out by block index, so later totals are summed in block order whatever the split was.
+ * Combines partials of any blocks, in any order and any split, as long as no block comes twice. Counts
+ * add exactly; per-block sums are laid out by block index, so later totals are summed in block order
+ * whatever the split was.
  */
 export function mergePartials(plan: OutlookPlan, partials: OutlookPartial[]): OutlookPartial {
   if (!partials.length) throw new RangeError('nothing to merge: pass at least one partial')
-  const ordered = [...partials].sort((a, b) => a.firstBlock - b.firstBlock)
-  for (let i = 1; i < ordered.length; i++) {
-    const previous = ordered[i - 1]!
-    if (previous.firstBlock + previous.blockCount !== ordered[i]!.firstBlock) {
-      throw new RangeError(
-        `partials must cover consecutive blocks: one ends at block ${previous.firstBlock + previous.blockCount - 1}, the next starts at ${ordered[i]!.firstBlock}`,
-      )
+  // Where each block's sums go in the merged partial: its rank among the blocks present.
+  const position = new Int32Array(plan.blockCount).fill(-1)
+  for (const partial of partials) {
+    for (let k = 0; k < partial.blockCount; k++) {
+      const block = partial.blocks[k]!
+      if (position[block] !== -1) throw new RangeError(`block ${block} comes in two partials: each block must be sampled once`)
+      position[block] = 0
     }
   }
-  const first = ordered[0]!.firstBlock
-  const blockCount = ordered.reduce((sum, partial) => sum + partial.blockCount, 0)
-  const merged = emptyPartial(plan, first, blockCount)
+  let blockCount = 0
+  for (let block = 0; block < plan.blockCount; block++) if (position[block] === 0) position[block] = blockCount++
+  const merged = emptyPartial(plan, blockCount)
+  merged.blockCount = blockCount
+  for (let block = 0; block < plan.blockCount; block++) if (position[block] !== -1) merged.blocks[position[block]!] = block
   // The first partial is copied, the others added (this runs on the caller's thread after the last
   // worker answers, so it is on every pooled request's critical path).
-  merged.cellCounts.set(ordered[0]!.cellCounts)
-  merged.histogram.set(ordered[0]!.histogram)
-  for (let p = 0; p < ordered.length; p++) {
-    const partial = ordered[p]!
+  merged.cellCounts.set(partials[0]!.cellCounts)
+  merged.histogram.set(partials[0]!.histogram)
+  const size = plan.sumsPerBlock
+  for (let p = 0; p < partials.length; p++) {
+    const partial = partials[p]!
     merged.samples += partial.samples
     if (p > 0) {
       addCounts(merged.cellCounts, partial.cellCounts)
@@ -34,7 +38,9 @@ export function mergePartials(plan: OutlookPlan, partials: OutlookPartial[]): Ou
       if (partial.minimum[t]! < merged.minimum[t]!) merged.minimum[t] = partial.minimum[t]!
       if (partial.maximum[t]! > merged.maximum[t]!) merged.maximum[t] = partial.maximum[t]!
     }
-    merged.blockSums.set(partial.blockSums, (partial.firstBlock - first) * plan.sumsPerBlock)
+    for (let k = 0; k < partial.blockCount; k++) {
+      merged.blockSums.set(partial.blockSums.subarray(k * size, (k + 1) * size), position[partial.blocks[k]!]! * size)
+    }
   }
   return merged
 }

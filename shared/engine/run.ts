@@ -20,18 +20,25 @@ import type { OutlookPlan, OutlookPartial } from './types'
 // land-motion score) before any year is formed: each year's rise is then a short weighted sum, and the
 // moments and variance-share sums of every year follow from dot products of the basis values per block.
 
-export function emptyPartial(plan: OutlookPlan, firstBlock: number, blockCount: number): OutlookPartial {
+/** An empty partial with room for `capacity` blocks. */
+export function emptyPartial(plan: OutlookPlan, capacity: number): OutlookPartial {
   return {
-    firstBlock,
-    blockCount,
+    blocks: new Int32Array(capacity),
+    blockCount: 0,
     samples: 0,
     cellCounts: new Uint32Array(plan.years.length * (plan.cuts.length + 1)),
     histogram: new Uint32Array(plan.histogramSize),
     minimum: new Float64Array(plan.years.length).fill(Infinity),
     maximum: new Float64Array(plan.years.length).fill(-Infinity),
-    blockSums: new Float64Array(blockCount * plan.sumsPerBlock),
+    blockSums: new Float64Array(capacity * plan.sumsPerBlock),
   }
 }
+
+/**
+ * Where a thread gets its next block: a block index, or −1 when none is left. Threads sharing a run
+ * draw from one counter, so a thread that runs slower (or starts later) simply samples fewer blocks.
+ */
+export type NextBlock = () => number
 
 /** Samples blocks firstBlock … firstBlock+blockCount−1 and returns their mergeable statistics. */
 export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: number): OutlookPartial {
@@ -44,7 +51,18 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
   ) {
     throw new RangeError(`blocks ${firstBlock}…${firstBlock + blockCount - 1} are outside this plan's ${plan.blockCount} blocks`)
   }
-  const partial = emptyPartial(plan, firstBlock, blockCount)
+  let next = firstBlock
+  const end = firstBlock + blockCount
+  return runClaimedBlocks(plan, () => (next < end ? next++ : -1), blockCount)
+}
+
+/**
+ * Samples every block `nextBlock` hands out, until it answers −1 (or `capacity` blocks are done), into
+ * one partial. Blocks must come in ascending order (a shared counter gives them so); each is sampled
+ * from its own stream, so the merged statistics are the same bits however the blocks were shared out.
+ */
+export function runClaimedBlocks(plan: OutlookPlan, nextBlock: NextBlock, capacity: number = plan.blockCount): OutlookPartial {
+  const partial = emptyPartial(plan, capacity)
   const tables = samplerTables(plan)
   const scratch = tileScratch(plan)
   scratch.histogram.fill(0)
@@ -53,8 +71,14 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
   scratch.sumsAt = tables.hasDraws ? scratch.levelsAt : scratch.basisAt
   const yearCount = plan.years.length
   const scoresPerSample = plan.componentKeys.length + 1
-  for (let b = 0; b < blockCount; b++) {
-    const blockIndex = firstBlock + b
+  for (let b = 0; b < capacity; b++) {
+    const blockIndex = nextBlock()
+    if (blockIndex === -1) break
+    if (!Number.isInteger(blockIndex) || blockIndex < 0 || blockIndex >= plan.blockCount || (b > 0 && blockIndex <= partial.blocks[b - 1]!)) {
+      throw new RangeError(`block ${blockIndex} is not a next block of this plan's ${plan.blockCount}: blocks come once each, in ascending order`)
+    }
+    partial.blocks[b] = blockIndex
+    partial.blockCount = b + 1
     const count = Math.min(plan.blockSize, plan.samples - blockIndex * plan.blockSize)
     const stream = blockStreamState(plan.seed, blockIndex)
     fillNormalScores(stream, scratch.independent, 0, count * scoresPerSample)
@@ -82,5 +106,8 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
     partial.samples += count
   }
   finishCounts(plan, tables, scratch, partial)
+  // Views of what was used; the whole buffers still travel (transferred, not copied) between threads.
+  partial.blocks = partial.blocks.subarray(0, partial.blockCount)
+  partial.blockSums = partial.blockSums.subarray(0, partial.blockCount * plan.sumsPerBlock)
   return partial
 }

@@ -227,13 +227,20 @@ export function finishCounts(plan: OutlookPlan, tables: SamplerTables, scratch: 
   const cellOfBin = tables.cellOfBin
   const working = scratch.histogram
   const histogram = partial.histogram
+  const cellCounts = partial.cellCounts
+  const notHoldsCut = ~HOLDS_CUT
+  // Most cells are empty (the histogram spans every score within ±6): they are skipped, the partial's
+  // histogram being new and zero. This loop runs once per call on every pooled request's critical path.
   for (let t = 0; t < plan.years.length; t++) {
     const at = plan.histogramOffset[t]!
-    for (let bin = at; bin <= at + plan.histogramBins[t]! + 1; bin++) {
-      const count = working[bin]! & ~HOLDS_CUT
+    const end = at + plan.histogramBins[t]! + 1
+    const cellAt = t * cellsPerYear
+    for (let bin = at; bin <= end; bin++) {
+      const count = working[bin]! & notHoldsCut
+      if (count === 0) continue
       histogram[bin] = count
       const cell = cellOfBin[bin]!
-      if (cell >= 0) partial.cellCounts[t * cellsPerYear + cell]! += count
+      if (cell >= 0) cellCounts[cellAt + cell]! += count
     }
   }
 }

@@ -120,9 +120,10 @@ export interface SumLayout {
   lifeNoExceedance: number
 }
 
-/** Mergeable statistics of a run of consecutive blocks. */
+/** Mergeable statistics of some blocks of a plan (consecutive or not). */
 export interface OutlookPartial {
-  firstBlock: number
+  /** The blocks sampled, ascending; `blockSums` follows this order. */
+  blocks: Int32Array
   blockCount: number
   samples: number
   /** Per year, (cuts + 1) cells: how many samples have exactly k cuts strictly below their rise. */
@@ -131,7 +132,7 @@ export interface OutlookPartial {
   /** Per year, smallest and largest rise seen (exact under any merge order). */
   minimum: Float64Array
   maximum: Float64Array
-  /** blockCount × plan.sumsPerBlock, in block order. */
+  /** blockCount × plan.sumsPerBlock, in the order of `blocks`. */
   blockSums: Float64Array
 }
 

@@ -1,5 +1,5 @@
 import { Worker } from 'node:worker_threads'
-import { finishOutlook, mergePartials, runBlocks, type OutlookPartial, type OutlookPlan, type OutlookResult } from '../../shared/engine'
+import { finishOutlook, mergePartials, runClaimedBlocks, type OutlookPartial, type OutlookPlan, type OutlookResult } from '../../shared/engine'
 
 /**
  * A worker keeps its sampling scratch between requests; what it still allocates per request (the plan
@@ -13,35 +13,26 @@ export interface PoolRequest {
   runId: number
   /** Sent only when the worker has not seen this run yet. */
   plan?: OutlookPlan
-  firstBlock: number
-  blockCount: number
+  /** The run's shared counter: the next block to sample is claimed with Atomics.add. */
+  nextBlock: Int32Array
 }
 
 export type PoolReply = { partial: OutlookPartial; error?: undefined } | { error: string; partial?: undefined }
 
-/**
- * Contiguous block ranges with samples as even as possible (the last block may be short): the run takes
- * as long as its largest share.
- */
-export function splitBlocks(plan: OutlookPlan, shares: number): Array<[number, number]> {
-  const ranges: Array<[number, number]> = []
-  let first = 0
-  for (let s = 0; s < shares; s++) {
-    const remainingSamples = plan.samples - first * plan.blockSize
-    const target = remainingSamples / (shares - s)
-    let count = 0
-    while (first + count < plan.blockCount && (count + 0.5) * plan.blockSize <= target) count++
-    if (s === shares - 1) count = plan.blockCount - first
-    ranges.push([first, count])
-    first += count
+/** A claim on a run's shared block counter: each call takes the next block, −1 when all are taken. */
+export function claimFrom(counter: Int32Array, blockCount: number): () => number {
+  return () => {
+    const block = Atomics.add(counter, 0, 1)
+    return block < blockCount ? block : -1
   }
-  return ranges
 }
 
 /**
- * A small persistent pool: blocks are split into contiguous ranges, one per worker plus one for the
- * calling thread when `mainShare` is on. Results are bit-identical to a single-thread run. A plan is sent
- * to a worker once per run id; a new request is a new run.
+ * A small persistent pool. Every thread of a run (the workers, and the calling thread when `mainShare`
+ * is on) claims blocks one at a time from one shared counter until none are left, so a thread that
+ * starts late or runs slowly on a busy machine takes fewer blocks instead of holding up the run.
+ * Results are bit-identical to a single-thread run. A plan is sent to a worker once per run id; a new
+ * request is a new run.
  */
 export class OutlookPool {
   private readonly workers: Worker[]
@@ -73,20 +64,15 @@ export class OutlookPool {
   }
 
   async run(plan: OutlookPlan, runId: number = this.newRun()): Promise<OutlookResult> {
-    const shares = this.workers.length + (this.mainShare ? 1 : 0)
-    const ranges = splitBlocks(plan, shares)
+    const nextBlock = new Int32Array(new SharedArrayBuffer(4))
     const pending = this.workers.map((_, w) => {
-      const [firstBlock, blockCount] = ranges[w]!
-      const plainRequest: PoolRequest = { runId, firstBlock, blockCount }
+      const plainRequest: PoolRequest = { runId, nextBlock }
       const request = this.seenRun[w] === runId ? plainRequest : { ...plainRequest, plan }
       this.seenRun[w] = runId
       return this.request(w, request)
     })
     const partials: OutlookPartial[] = []
-    if (this.mainShare) {
-      const [firstBlock, blockCount] = ranges[ranges.length - 1]!
-      partials.push(runBlocks(plan, firstBlock, blockCount))
-    }
+    if (this.mainShare) partials.push(runClaimedBlocks(plan, claimFrom(nextBlock, plan.blockCount)))
     partials.push(...(await Promise.all(pending)))
     return finishOutlook(plan, mergePartials(plan, partials))
   }

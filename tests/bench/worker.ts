@@ -1,9 +1,9 @@
 import { parentPort } from 'node:worker_threads'
-import { runBlocks, type OutlookPlan } from '../../shared/engine'
-import type { PoolReply, PoolRequest } from './pool'
+import { runClaimedBlocks, type OutlookPlan } from '../../shared/engine'
+import { claimFrom, type PoolReply, type PoolRequest } from './pool'
 
-// A pool thread: keeps the plan of the run it last saw and samples the block ranges it is asked for.
-// The plan travels only with the first request of a run; later requests of the same run send the id.
+// A pool thread: keeps the plan of the run it last saw and samples the blocks it claims from the run's
+// shared counter. The plan travels only with the first request of a run; later requests send the id.
 
 let current: { runId: number; plan: OutlookPlan } | null = null
 
@@ -13,9 +13,9 @@ parentPort!.on('message', (request: PoolRequest) => {
     parentPort!.postMessage({ error: `no plan for run ${request.runId}` } satisfies PoolReply)
     return
   }
-  const partial = runBlocks(current.plan, request.firstBlock, request.blockCount)
+  const partial = runClaimedBlocks(current.plan, claimFrom(request.nextBlock, current.plan.blockCount))
   // Partials are plain typed arrays; their buffers move to the caller instead of being copied.
-  const transfer = [partial.cellCounts, partial.histogram, partial.minimum, partial.maximum, partial.blockSums].map(
+  const transfer = [partial.blocks, partial.cellCounts, partial.histogram, partial.minimum, partial.maximum, partial.blockSums].map(
     (array) => array.buffer as ArrayBuffer,
   )
   parentPort!.postMessage({ partial } satisfies PoolReply, transfer)

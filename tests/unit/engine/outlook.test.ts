@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import jStatPkg from 'jstat'
-import { BLOCK_SIZE, finishOutlook, mergePartials, planOutlook, runBlocks, runOutlook } from '../../../shared/engine'
+import { BLOCK_SIZE, finishOutlook, mergePartials, planOutlook, runBlocks, runClaimedBlocks, runOutlook } from '../../../shared/engine'
 import { allNumbers, baseInput, normalComponent } from './helpers'
 
 const { jStat } = jStatPkg
@@ -292,8 +292,36 @@ describe('reproducible and chunkable', () => {
   it('refuses to finish without every block, and to merge overlapping runs', () => {
     const plan = planOutlook(input)
     expect(() => finishOutlook(plan, runBlocks(plan, 0, 2))).toThrow(/needs all 6 blocks/)
-    expect(() => mergePartials(plan, [runBlocks(plan, 0, 2), runBlocks(plan, 1, 2)])).toThrow(/consecutive blocks/)
+    expect(() => mergePartials(plan, [runBlocks(plan, 0, 2), runBlocks(plan, 1, 2)])).toThrow(/block 1 comes in two partials/)
     expect(() => runBlocks(plan, 5, 2)).toThrow(RangeError)
+  })
+
+  it('threads claiming blocks from one counter, in whatever interleaving, give the same bits', () => {
+    const plan = planOutlook(input)
+    const whole = finishOutlook(plan, runBlocks(plan, 0, plan.blockCount))
+    // Two "threads" share one counter; the slow one gets a single claim in while the fast one samples.
+    let next = 0
+    const claim = () => (next < plan.blockCount ? next++ : -1)
+    const slowClaims: number[] = []
+    const fast = runClaimedBlocks(plan, () => {
+      const block = claim()
+      if (block === 2) slowClaims.push(claim())
+      return block
+    })
+    const slow = runClaimedBlocks(plan, () => slowClaims.shift() ?? -1)
+    expect(Array.from(fast.blocks)).toEqual([0, 1, 2, 4, 5])
+    expect(Array.from(slow.blocks)).toEqual([3])
+    const again = finishOutlook(plan, mergePartials(plan, [slow, fast]))
+    const bytes = (result: typeof whole) => Buffer.from(Float64Array.from(allNumbers(result)).buffer)
+    expect(bytes(again).equals(bytes(whole))).toBe(true)
+  })
+
+  it('refuses blocks out of order or outside the plan from a claim', () => {
+    const plan = planOutlook(input)
+    const handOut = (blocks: number[]) => () => blocks.shift() ?? -1
+    expect(() => runClaimedBlocks(plan, handOut([2, 1]))).toThrow(/ascending order/)
+    expect(() => runClaimedBlocks(plan, handOut([0, 0]))).toThrow(/ascending order/)
+    expect(() => runClaimedBlocks(plan, handOut([6]))).toThrow(/block 6 is not a next block of this plan's 6/)
   })
 })
 
