@@ -1,7 +1,7 @@
 import { blockStreamState } from './rng'
 import { fillNormalScores } from './ziggurat'
 import { HOLDS_CUT, samplerTables } from './sampler-tables'
-import { TILE, tileScratch } from './tile-scratch'
+import { ROW_PADDING, TILE, tileScratch } from './tile-scratch'
 import { scoreTile, valueTile } from './tile-values'
 import { basisFromValues, blockSumsByYear, gumbelTile, sumTile } from './tile-sums'
 import { countConstantYear, countYear, finishCounts, riseOfYear } from './tile-counts'
@@ -81,7 +81,8 @@ export function runClaimedBlocks(plan: OutlookPlan, nextBlock: NextBlock, capaci
     partial.blockCount = b + 1
     const count = Math.min(plan.blockSize, plan.samples - blockIndex * plan.blockSize)
     const stream = blockStreamState(plan.seed, blockIndex)
-    fillNormalScores(stream, scratch.independent, 0, count * scoresPerSample)
+    // One call per score row (the same stream, in the same order) so rows can be padded apart.
+    for (let k = 0; k < scoresPerSample; k++) fillNormalScores(stream, scratch.independent, k * (count + ROW_PADDING), count)
     scratch.basisSum.fill(0)
     scratch.basisCross.fill(0)
     scratch.valueSum.fill(0)

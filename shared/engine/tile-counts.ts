@@ -1,8 +1,14 @@
 import { HOLDS_CUT, PASS, type SamplerTables } from './sampler-tables'
-import { TILE, type TileScratch } from './tile-scratch'
+import { ROW, TILE, type TileScratch } from './tile-scratch'
 import type { OutlookPartial, OutlookPlan } from './types'
 
 // Each year's rise, placed in the percentile histogram and among the exceedance heights.
+
+/**
+ * The histogram cell of each sample of the tile, for one year at a time. A module array rather than a
+ * field of the scratch: passed to `countOnePass` as one more argument, it made that loop 8 % slower.
+ */
+const CELLS = new Int32Array(TILE)
 
 /**
  * A year's rise is intercept + Σ_j weight_j · row_j over the level rows (the land-motion intercept), or
@@ -23,14 +29,14 @@ export function riseOfYear(plan: OutlookPlan, tables: SamplerTables, scratch: Ti
   const levelsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
   const columns = tables.yearColumns[t]!
   const weights = tables.yearWeights[t]!
-  const out = t * TILE
+  const out = t * ROW
   if (columns.length === PASS) return
   rise.fill(riseIntercept(plan, scratch, t), out, out + tileCount)
   for (let p = 0; p + PASS < columns.length; p += PASS) {
-    const b0 = levelsAt + columns[p]! * TILE
-    const b1 = levelsAt + columns[p + 1]! * TILE
-    const b2 = levelsAt + columns[p + 2]! * TILE
-    const b3 = levelsAt + columns[p + 3]! * TILE
+    const b0 = levelsAt + columns[p]! * ROW
+    const b1 = levelsAt + columns[p + 1]! * ROW
+    const b2 = levelsAt + columns[p + 2]! * ROW
+    const b3 = levelsAt + columns[p + 3]! * ROW
     const w0 = weights[p]!
     const w1 = weights[p + 1]!
     const w2 = weights[p + 2]!
@@ -57,7 +63,7 @@ export function countYear(
   const inverseResolution = 1 / plan.histogramResolution
   const cellCounts = partial.cellCounts
   const histogram = scratch.histogram
-  const riseAt = t * TILE
+  const riseAt = t * ROW
   const low = plan.histogramLow[t]!
   const lastBin = plan.histogramBins[t]! + 1
   const histogramAt = plan.histogramOffset[t]!
@@ -68,10 +74,10 @@ export function countYear(
   const weights = tables.yearWeights[t]!
   // The last pass of the rise (padded with the zero row, weight 0).
   const last = columns.length - PASS
-  const b0 = levelsAt + columns[last]! * TILE
-  const b1 = levelsAt + columns[last + 1]! * TILE
-  const b2 = levelsAt + columns[last + 2]! * TILE
-  const b3 = levelsAt + columns[last + 3]! * TILE
+  const b0 = levelsAt + columns[last]! * ROW
+  const b1 = levelsAt + columns[last + 1]! * ROW
+  const b2 = levelsAt + columns[last + 2]! * ROW
+  const b3 = levelsAt + columns[last + 3]! * ROW
   const w0 = weights[last]!
   const w1 = weights[last + 1]!
   const w2 = weights[last + 2]!
@@ -153,6 +159,7 @@ function countOnePass(
   let minimum = minima[t]!
   let maximum = maxima[t]!
   let listedCount = 0
+  const cells = CELLS
   if (threeColumns) {
     for (let i = 0; i < tileCount; i = (i + 1) | 0) {
       const value = intercept + w0 * levels[(b0 + i) | 0]! + w1 * levels[(b1 + i) | 0]! + w2 * levels[(b2 + i) | 0]!
@@ -160,13 +167,7 @@ function countOnePass(
       if (value > maximum) maximum = value
       let bin = (value - low) * inverseResolution + 1
       bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
-      const at = (histogramAt + bin) | 0
-      const count = (histogram[at]! + 1) | 0
-      histogram[at] = count
-      if (count < 0) {
-        listed[listedCount] = i
-        listedCount = (listedCount + 1) | 0
-      }
+      cells[i] = (histogramAt + bin) | 0
     }
   } else {
     for (let i = 0; i < tileCount; i = (i + 1) | 0) {
@@ -175,13 +176,18 @@ function countOnePass(
       if (value > maximum) maximum = value
       let bin = (value - low) * inverseResolution + 1
       bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
-      const at = (histogramAt + bin) | 0
-      const count = (histogram[at]! + 1) | 0
-      histogram[at] = count
-      if (count < 0) {
-        listed[listedCount] = i
-        listedCount = (listedCount + 1) | 0
-      }
+      cells[i] = (histogramAt + bin) | 0
+    }
+  }
+  // The increments in a loop of their own: each cell index is ready long before its turn, so the
+  // processor runs the loads and stores of many samples ahead instead of waiting on the arithmetic.
+  for (let i = 0; i < tileCount; i = (i + 1) | 0) {
+    const at = cells[i]!
+    const count = (histogram[at]! + 1) | 0
+    histogram[at] = count
+    if (count < 0) {
+      listed[listedCount] = i
+      listedCount = (listedCount + 1) | 0
     }
   }
   minima[t] = minimum
@@ -215,7 +221,7 @@ export function countConstantYear(
   }
   if (value < partial.minimum[t]!) partial.minimum[t] = value
   if (value > partial.maximum[t]!) partial.maximum[t] = value
-  if (plan.gumbel !== null) scratch.rise.fill(value, t * TILE, t * TILE + tileCount)
+  if (plan.gumbel !== null) scratch.rise.fill(value, t * ROW, t * ROW + tileCount)
 }
 
 /**

@@ -1,5 +1,5 @@
 import { PASS, SLOTS_PER_PASS, type SamplerTables } from './sampler-tables'
-import { TILE, type TileScratch } from './tile-scratch'
+import { ROW, type TileScratch } from './tile-scratch'
 import type { OutlookPlan } from './types'
 
 // The float sums of a tile and of a block: moments, variance-share sums and the Gumbel statistics.
@@ -23,11 +23,11 @@ export function basisFromValues(plan: OutlookPlan, tables: SamplerTables, scratc
   const landColumn = plan.basisCount - 1
   for (let j = 0; j < landColumn; j++) {
     const slots = tables.columnSlots[j]!
-    const at = scratch.basisAt + j * TILE
+    const at = scratch.basisAt + j * ROW
     for (let p = 0; p < slots.length; p += SLOTS_PER_PASS) {
-      const v0 = scratch.valuesAt + slots[p]! * TILE
-      const v1 = scratch.valuesAt + slots[p + 1]! * TILE
-      const v2 = scratch.valuesAt + slots[p + 2]! * TILE
+      const v0 = scratch.valuesAt + slots[p]! * ROW
+      const v1 = scratch.valuesAt + slots[p + 1]! * ROW
+      const v2 = scratch.valuesAt + slots[p + 2]! * ROW
       if (p === 0) for (let i = 0; i < tileCount; i++) basis[at + i] = values[v0 + i]! + values[v1 + i]! + values[v2 + i]!
       else for (let i = 0; i < tileCount; i++) basis[at + i] = basis[at + i]! + values[v0 + i]! + values[v1 + i]! + values[v2 + i]!
     }
@@ -54,15 +54,15 @@ export function sumTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileS
     const second = Math.min(row + 1, rowCount - 1)
     const sourceA = row === 0 ? basis : values
     const sourceB = second === 0 ? basis : values
-    const atA = row === 0 ? basisAt + landColumn * TILE : valuesAt + (row - 1) * TILE
-    const atB = second === 0 ? basisAt + landColumn * TILE : valuesAt + (second - 1) * TILE
+    const atA = row === 0 ? basisAt + landColumn * ROW : valuesAt + (row - 1) * ROW
+    const atB = second === 0 ? basisAt + landColumn * ROW : valuesAt + (second - 1) * ROW
     let sumA = 0
     let sumB = 0
     for (let p = 0; p < columns.length; p += PASS) {
-      const b0 = basisAt + columns[p]! * TILE
-      const b1 = basisAt + columns[p + 1]! * TILE
-      const b2 = basisAt + columns[p + 2]! * TILE
-      const b3 = basisAt + columns[p + 3]! * TILE
+      const b0 = basisAt + columns[p]! * ROW
+      const b1 = basisAt + columns[p + 1]! * ROW
+      const b2 = basisAt + columns[p + 2]! * ROW
+      const b3 = basisAt + columns[p + 3]! * ROW
       let a0 = 0
       let a1 = 0
       let a2 = 0
@@ -228,7 +228,7 @@ export function gumbelTile(
   const chanceAt = sumOffset + plan.sumLayout.returnChance
   const periods = gumbel.returnPeriods
   for (let t = 0; t < yearCount; t++) {
-    const riseAt = t * TILE
+    const riseAt = t * ROW
     const center = plan.center[t]!
     let sum = 0
     for (let i = 0; i < tileCount; i++) sum += Math.exp((rise[riseAt + i]! - center) * inverseScale)
@@ -249,13 +249,13 @@ export function gumbelTile(
     for (let i = 0; i < tileCount; i++) {
       let peak = 0
       for (const segment of segments) {
-        const to = rise[segment.to * TILE + i]! * inverseScale
+        const to = rise[segment.to * ROW + i]! * inverseScale
         if (to > peak) peak = to
       }
       let total = 0
       for (const segment of segments) {
-        const from = segment.from < 0 ? 0 : rise[segment.from * TILE + i]! * inverseScale
-        const to = rise[segment.to * TILE + i]! * inverseScale
+        const from = segment.from < 0 ? 0 : rise[segment.from * ROW + i]! * inverseScale
+        const to = rise[segment.to * ROW + i]! * inverseScale
         total += geometricRun(from - peak, (to - from) / segment.span, segment.steps)
       }
       // ln Σ_years e^{rise/λ}; the chance of no exceedance in the life is Π_years F(h − rise) =

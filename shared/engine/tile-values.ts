@@ -1,5 +1,5 @@
 import { PASS, type SamplerTables } from './sampler-tables'
-import { TILE, type TileScratch } from './tile-scratch'
+import { ROW, ROW_PADDING, type TileScratch } from './tile-scratch'
 import { COMPONENT_KIND_DRAWS, COMPONENT_KIND_PIECEWISE, type OutlookPlan } from './types'
 
 // Scores → anchor values → basis levels, one tile at a time.
@@ -7,7 +7,7 @@ import { COMPONENT_KIND_DRAWS, COMPONENT_KIND_PIECEWISE, type OutlookPlan } from
 /**
  * Independent scores → correlated through the Cholesky factor (rows that are a unit vector read the
  * independent scores in place), and the anchor line of every sample whose piece is not found inline.
- * `count` is the block's sample count: independent row k starts at k·count.
+ * `count` is the block's sample count: independent row k starts at k·(count + ROW_PADDING).
  */
 export function scoreTile(
   plan: OutlookPlan,
@@ -19,21 +19,22 @@ export function scoreTile(
 ): void {
   const componentCount = plan.componentKeys.length
   const { scores, independent } = scratch
-  const zeroAt = (componentCount + 1) * plan.blockSize
-  const rowAt = (k: number) => (k > componentCount ? zeroAt : k * count + tileStart)
+  const stride = count + ROW_PADDING
+  const zeroAt = (componentCount + 1) * (plan.blockSize + ROW_PADDING)
+  const rowAt = (k: number) => (k > componentCount ? zeroAt : k * stride + tileStart)
   // Correlated score c = Σ_k L[c][k] · independent k over the non-zero entries of row c, four per pass
   // (padding reads the zero row); the land-motion score stays independent.
   for (let c = 0; c <= componentCount; c++) {
     if (tables.identityRow[c]) {
       scratch.scoreFrom[c] = independent
-      scratch.scoreAt[c] = c * count + tileStart
+      scratch.scoreAt[c] = c * stride + tileStart
       continue
     }
     scratch.scoreFrom[c] = scores
-    scratch.scoreAt[c] = c * TILE
+    scratch.scoreAt[c] = c * ROW
     const columns = tables.choleskyColumns[c]!
     const weights = tables.choleskyWeights[c]!
-    const at = c * TILE
+    const at = c * ROW
     for (let p = 0; p < columns.length; p += PASS) {
       const k0 = rowAt(columns[p]!)
       const k1 = rowAt(columns[p + 1]!)
@@ -75,7 +76,7 @@ function piecewiseLines(plan: OutlookPlan, tables: SamplerTables, scratch: TileS
   const lineAt = scratch.lineAt
   const anchors = plan.anchorCount[c]!
   const padded = tables.paddedBreakpoints[c]!
-  const at = c * TILE
+  const at = c * ROW
   for (let k = 0; k < padded.length; k += PASS) {
     const p0 = padded[k]!
     const p1 = padded[k + 1]!
@@ -99,7 +100,7 @@ function drawLines(plan: OutlookPlan, scratch: TileScratch, c: number, tileCount
   const last = first + plan.breakpointCount[c]!
   const anchors = plan.anchorCount[c]!
   const lineBase = plan.lineStart[c]! - first * anchors
-  const at = c * TILE
+  const at = c * ROW
   for (let i = 0; i < tileCount; i++) {
     const z = scores[from + i]!
     let low = first
@@ -121,7 +122,7 @@ function drawLines(plan: OutlookPlan, scratch: TileScratch, c: number, tileCount
 export function valueTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, tileCount: number): void {
   const componentCount = plan.componentKeys.length
   const landColumn = plan.basisCount - 1
-  scratch.rows.fill(0, scratch.sumsAt, scratch.sumsAt + landColumn * TILE)
+  scratch.rows.fill(0, scratch.sumsAt, scratch.sumsAt + landColumn * ROW)
   for (let c = 0; c < componentCount; c++) {
     const kind = plan.kinds[c]!
     const anchors = plan.anchorCount[c]!
@@ -142,8 +143,8 @@ export function valueTile(plan: OutlookPlan, tables: SamplerTables, scratch: Til
   }
   const landScores = scratch.scoreFrom[componentCount]!
   const landAt = scratch.scoreAt[componentCount]!
-  scratch.rows.set(landScores.subarray(landAt, landAt + tileCount), scratch.levelsAt + landColumn * TILE)
-  scratch.rows.set(landScores.subarray(landAt, landAt + tileCount), scratch.basisAt + landColumn * TILE)
+  scratch.rows.set(landScores.subarray(landAt, landAt + tileCount), scratch.levelsAt + landColumn * ROW)
+  scratch.rows.set(landScores.subarray(landAt, landAt + tileCount), scratch.basisAt + landColumn * ROW)
 }
 
 /** Anchors a, a+1, a+2 of piecewise component c; the piece is found here (at most four breakpoints). */
@@ -163,12 +164,12 @@ function piecewiseThreeInline(plan: OutlookPlan, tables: SamplerTables, scratch:
   const p3 = padded[3]!
   const base = plan.lineStart[c]! + a
   const slot = plan.valueStart[c]! + a
-  const o0 = scratch.valuesAt + slot * TILE
-  const o1 = o0 + TILE
-  const o2 = o1 + TILE
-  const j0 = scratch.sumsAt + plan.valueBasis[slot]! * TILE
-  const j1 = scratch.sumsAt + plan.valueBasis[slot + 1]! * TILE
-  const j2 = scratch.sumsAt + plan.valueBasis[slot + 2]! * TILE
+  const o0 = scratch.valuesAt + slot * ROW
+  const o1 = o0 + ROW
+  const o2 = o1 + ROW
+  const j0 = scratch.sumsAt + plan.valueBasis[slot]! * ROW
+  const j1 = scratch.sumsAt + plan.valueBasis[slot + 1]! * ROW
+  const j2 = scratch.sumsAt + plan.valueBasis[slot + 2]! * ROW
   const zero0 = plan.valueAtZero[slot]!
   const zero1 = plan.valueAtZero[slot + 1]!
   const zero2 = plan.valueAtZero[slot + 2]!
@@ -205,13 +206,13 @@ function piecewiseThree(plan: OutlookPlan, scratch: TileScratch, c: number, a: n
   const intercepts = plan.anchorIntercept
   const slopes = plan.anchorSlope
   const slot = plan.valueStart[c]! + a
-  const at = c * TILE
-  const o0 = scratch.valuesAt + slot * TILE
-  const o1 = o0 + TILE
-  const o2 = o1 + TILE
-  const j0 = scratch.sumsAt + plan.valueBasis[slot]! * TILE
-  const j1 = scratch.sumsAt + plan.valueBasis[slot + 1]! * TILE
-  const j2 = scratch.sumsAt + plan.valueBasis[slot + 2]! * TILE
+  const at = c * ROW
+  const o0 = scratch.valuesAt + slot * ROW
+  const o1 = o0 + ROW
+  const o2 = o1 + ROW
+  const j0 = scratch.sumsAt + plan.valueBasis[slot]! * ROW
+  const j1 = scratch.sumsAt + plan.valueBasis[slot + 1]! * ROW
+  const j2 = scratch.sumsAt + plan.valueBasis[slot + 2]! * ROW
   const zero0 = plan.valueAtZero[slot]!
   const zero1 = plan.valueAtZero[slot + 1]!
   const zero2 = plan.valueAtZero[slot + 2]!
@@ -246,11 +247,11 @@ function piecewiseOne(plan: OutlookPlan, tables: SamplerTables, scratch: TileScr
   const slopes = plan.anchorSlope
   const anchors = plan.anchorCount[c]!
   const slot = plan.valueStart[c]! + a
-  const out = scratch.valuesAt + slot * TILE
-  const into = scratch.sumsAt + plan.valueBasis[slot]! * TILE
+  const out = scratch.valuesAt + slot * ROW
+  const into = scratch.sumsAt + plan.valueBasis[slot]! * ROW
   const zero = plan.valueAtZero[slot]!
   const taken = scratch.sumsAreLevels ? 0 : zero
-  const at = c * TILE
+  const at = c * ROW
   if (tables.inlinePiece[c]) {
     const padded = tables.paddedBreakpoints[c]!
     const p0 = padded[0]!
@@ -281,11 +282,11 @@ function drawOne(plan: OutlookPlan, scratch: TileScratch, c: number, a: number, 
   const lineAt = scratch.lineAt
   const intercepts = plan.anchorIntercept
   const slot = plan.valueStart[c]! + a
-  const out = scratch.valuesAt + slot * TILE
-  const into = scratch.sumsAt + plan.valueBasis[slot]! * TILE
+  const out = scratch.valuesAt + slot * ROW
+  const into = scratch.sumsAt + plan.valueBasis[slot]! * ROW
   const zero = plan.valueAtZero[slot]!
   const taken = scratch.sumsAreLevels ? 0 : zero
-  const at = c * TILE
+  const at = c * ROW
   for (let i = 0; i < tileCount; i++) {
     const level = intercepts[lineAt[at + i]! + a]!
     values[out + i] = level - zero
@@ -300,8 +301,8 @@ function lognormalOne(plan: OutlookPlan, scratch: TileScratch, c: number, a: num
   const scores = scratch.scoreFrom[c]!
   const from = scratch.scoreAt[c]!
   const slot = plan.valueStart[c]! + a
-  const out = scratch.valuesAt + slot * TILE
-  const into = scratch.sumsAt + plan.valueBasis[slot]! * TILE
+  const out = scratch.valuesAt + slot * ROW
+  const into = scratch.sumsAt + plan.valueBasis[slot]! * ROW
   const zero = plan.valueAtZero[slot]!
   const taken = scratch.sumsAreLevels ? 0 : zero
   const shift = plan.lognormalShift[slot]!
