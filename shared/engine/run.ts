@@ -5,6 +5,7 @@ import { ROW_PADDING, TILE, tileScratch } from './tile-scratch'
 import { scoreTile, valueTile } from './tile-values'
 import { basisFromValues, blockSumsByYear, gumbelTile, sumTile } from './tile-sums'
 import { countConstantYear, countYear, finishCounts, riseOfYear } from './tile-counts'
+import { countYearPair } from './tile-pairs'
 import type { OutlookPlan, OutlookPartial } from './types'
 
 // The sample loop. Everything it touches is a typed array hoisted into a local, nothing is allocated
@@ -93,7 +94,9 @@ export function runClaimedBlocks(plan: OutlookPlan, nextBlock: NextBlock, capaci
       valueTile(plan, tables, scratch, tileCount)
       if (scratch.sumsAreLevels) basisFromValues(plan, tables, scratch, tileCount)
       sumTile(plan, tables, scratch, tileCount)
+      for (const pair of tables.yearPairs) countYearPair(plan, tables, scratch, pair, tileCount, partial)
       for (let t = 0; t < yearCount; t++) {
+        if (tables.pairedYear[t]) continue
         if (tables.constantYear[t]) {
           countConstantYear(plan, tables, scratch, t, tileCount, partial)
           continue

@@ -20,12 +20,25 @@ export interface LifeSegment {
   steps: number
 }
 
+/** Two output years counted in one pass (see `tile-pairs.ts`). */
+export interface YearPair {
+  first: number
+  second: number
+  /** The union of the two years' columns, ascending, padded with the zero row to three. */
+  columns: Int32Array
+  /** The first year's weight on each of those columns, then the second's (zero where a year has none). */
+  weights: Float64Array
+}
+
 export interface SamplerTables {
   /** Per year, the basis columns with a non-zero weight, padded with the zero row to whole passes. */
   yearColumns: Int32Array[]
   yearWeights: Float64Array[]
   /** Per year: true when every weight is zero, so every sample's rise is the land-motion intercept. */
   constantYear: Uint8Array
+  /** Years counted two at a time, and per year whether it is in one of those pairs. */
+  yearPairs: YearPair[]
+  pairedYear: Uint8Array
   /** Per score row, the non-zero entries of its Cholesky row (land motion: itself), padded to passes. */
   choleskyColumns: Int32Array[]
   choleskyWeights: Float64Array[]
@@ -125,10 +138,15 @@ function buildTables(plan: OutlookPlan): SamplerTables {
     return slots
   })
 
+  const yearPairs = pairYears(plan, yearColumns, yearWeights, constantYear)
+  const pairedYear = new Uint8Array(plan.years.length)
+  for (const pair of yearPairs) pairedYear[pair.first] = pairedYear[pair.second] = 1
   return {
     yearColumns,
     yearWeights,
     constantYear,
+    yearPairs,
+    pairedYear,
     choleskyColumns,
     choleskyWeights,
     identityRow,
@@ -141,6 +159,44 @@ function buildTables(plan: OutlookPlan): SamplerTables {
     cutCells: cutCellsOf(cellOfBin),
     lifeSegments: plan.lifeSpans.map((life) => lifeSegments(plan, life)),
   }
+}
+
+/**
+ * Consecutive years that `countOnePass` would count alone (one pass of at most three weighted columns,
+ * no rise kept for the Gumbel sums) are paired while their columns together number three or fewer:
+ * in W1, 2030 with 2040, 2050 with 2060, …, 2130 with 2140.
+ */
+function pairYears(plan: OutlookPlan, yearColumns: Int32Array[], yearWeights: Float64Array[], constantYear: Uint8Array): YearPair[] {
+  const pairs: YearPair[] = []
+  if (plan.gumbel !== null) return pairs
+  const zeroRow = plan.basisCount
+  const weighted = (t: number) => Array.from(yearColumns[t]!).filter((_, k) => yearWeights[t]![k] !== 0)
+  const alone = (t: number) => !constantYear[t] && yearColumns[t]!.length === PASS && weighted(t).length <= 3
+  let waiting = -1
+  for (let t = 0; t < plan.years.length; t++) {
+    if (!alone(t)) continue
+    if (waiting < 0) {
+      waiting = t
+      continue
+    }
+    const union = [...new Set([...weighted(waiting), ...weighted(t)])].sort((a, b) => a - b)
+    if (union.length > 3) {
+      waiting = t
+      continue
+    }
+    const columns = new Int32Array(3).fill(zeroRow)
+    columns.set(union)
+    const weights = new Float64Array(6)
+    ;[waiting, t].forEach((year, y) => {
+      yearColumns[year]!.forEach((column, k) => {
+        const at = union.indexOf(column)
+        if (at >= 0) weights[3 * y + at] = yearWeights[year]![k]!
+      })
+    })
+    pairs.push({ first: waiting, second: t, columns, weights })
+    waiting = -1
+  }
+  return pairs
 }
 
 function cutCellsOf(cellOfBin: Int32Array): Int32Array {

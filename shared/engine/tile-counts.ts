@@ -57,17 +57,12 @@ export function countYear(
   partial: OutlookPartial,
 ): void {
   const rise = scratch.rise
-  const cellOfBin = tables.cellOfBin
-  const cuts = plan.cuts
-  const cutCount = cuts.length
   const inverseResolution = 1 / plan.histogramResolution
-  const cellCounts = partial.cellCounts
   const histogram = scratch.histogram
   const riseAt = t * ROW
   const low = plan.histogramLow[t]!
   const lastBin = plan.histogramBins[t]! + 1
   const histogramAt = plan.histogramOffset[t]!
-  const cellAt = t * (cutCount + 1)
   const levels = scratch.rows
   const levelsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
   const columns = tables.yearColumns[t]!
@@ -115,9 +110,53 @@ export function countYear(
   }
   partial.minimum[t] = minimum
   partial.maximum[t] = maximum
+  placeListed(plan, tables, scratch, t, listed, listedCount, partial)
+}
+
+/**
+ * The exceedance cells of year t's listed samples (those in histogram cells holding a cut), each value
+ * formed again with the same arithmetic as when it was counted, so it is the same value (a kept rise is
+ * already the value).
+ */
+export function placeListed(
+  plan: OutlookPlan,
+  tables: SamplerTables,
+  scratch: TileScratch,
+  t: number,
+  listed: Int32Array,
+  listedCount: number,
+  partial: OutlookPartial,
+): void {
+  const rise = scratch.rise
+  const cellOfBin = tables.cellOfBin
+  const cuts = plan.cuts
+  const cutCount = cuts.length
+  const inverseResolution = 1 / plan.histogramResolution
+  const cellCounts = partial.cellCounts
+  const riseAt = t * ROW
+  const low = plan.histogramLow[t]!
+  const lastBin = plan.histogramBins[t]! + 1
+  const histogramAt = plan.histogramOffset[t]!
+  const cellAt = t * (cutCount + 1)
+  const levels = scratch.rows
+  const levelsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
+  const columns = tables.yearColumns[t]!
+  const weights = tables.yearWeights[t]!
+  const last = columns.length - PASS
+  const b0 = levelsAt + columns[last]! * ROW
+  const b1 = levelsAt + columns[last + 1]! * ROW
+  const b2 = levelsAt + columns[last + 2]! * ROW
+  const b3 = levelsAt + columns[last + 3]! * ROW
+  const w0 = weights[last]!
+  const w1 = weights[last + 1]!
+  const w2 = weights[last + 2]!
+  const w3 = weights[last + 3]!
+  const onePass = last === 0
+  const intercept = riseIntercept(plan, scratch, t)
+  const keepRise = plan.gumbel !== null
+  const used = w3 !== 0 ? 4 : w2 !== 0 ? 3 : 2
   for (let k = 0; k < listedCount; k++) {
     const i = listed[k]!
-    // The same arithmetic as above, so the same value (a kept rise is already the value).
     let value = keepRise ? rise[riseAt + i]! : (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]!
     if (!keepRise && used > 2) value += w2 * levels[b2 + i]!
     if (!keepRise && used > 3) value += w3 * levels[b3 + i]!
@@ -158,7 +197,6 @@ function countOnePass(
 ): number {
   let minimum = minima[t]!
   let maximum = maxima[t]!
-  let listedCount = 0
   const cells = CELLS
   if (threeColumns) {
     for (let i = 0; i < tileCount; i = (i + 1) | 0) {
@@ -179,8 +217,18 @@ function countOnePass(
       cells[i] = (histogramAt + bin) | 0
     }
   }
-  // The increments in a loop of their own: each cell index is ready long before its turn, so the
-  // processor runs the loads and stores of many samples ahead instead of waiting on the arithmetic.
+  minima[t] = minimum
+  maxima[t] = maximum
+  return addToHistogram(histogram, cells, listed, tileCount)
+}
+
+/**
+ * Adds each sample to its histogram cell and lists the samples whose cell holds a cut; returns how many.
+ * A loop of its own: each cell index is ready long before its turn, so the processor runs the loads and
+ * stores of many samples ahead instead of waiting on the arithmetic that found them.
+ */
+export function addToHistogram(histogram: Int32Array, cells: Int32Array, listed: Int32Array, tileCount: number): number {
+  let listedCount = 0
   for (let i = 0; i < tileCount; i = (i + 1) | 0) {
     const at = cells[i]!
     const count = (histogram[at]! + 1) | 0
@@ -190,8 +238,6 @@ function countOnePass(
       listedCount = (listedCount + 1) | 0
     }
   }
-  minima[t] = minimum
-  maxima[t] = maximum
   return listedCount
 }
 

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import jStatPkg from 'jstat'
 import { BLOCK_SIZE, finishOutlook, mergePartials, planOutlook, runBlocks, runClaimedBlocks, runOutlook } from '../../../shared/engine'
+import { samplerTables } from '../../../shared/engine/sampler-tables'
 import { allNumbers, baseInput, normalComponent } from './helpers'
 
 const { jStat } = jStatPkg
@@ -314,6 +315,24 @@ describe('reproducible and chunkable', () => {
     const again = finishOutlook(plan, mergePartials(plan, [slow, fast]))
     const bytes = (result: typeof whole) => Buffer.from(Float64Array.from(allNumbers(result)).buffer)
     expect(bytes(again).equals(bytes(whole))).toBe(true)
+  })
+
+  it('counts a year the same whether it shares a counting pass with another year or not', () => {
+    const years = [2030, 2040, 2060, 2080, 2100]
+    const input = baseInput({
+      years,
+      samples: 3 * BLOCK_SIZE + 7,
+      components: [normalComponent('ocean-expansion', { 2050: [0.1, 0.03], 2100: [0.3, 0.08] }), normalComponent('glaciers', { 2050: [0.05, 0.02], 2100: [0.12, 0.04] })],
+      landMotion: { rateMmPerYear: -2, sigmaMmPerYear: 0.5, epoch: 2000 },
+      heights: { from: 0, to: 0.6, step: 0.02 },
+    })
+    // 2030 with 2040 and 2060 with 2080 are counted in pairs; 2100 alone.
+    expect(samplerTables(planOutlook(input)).yearPairs.map((pair) => [pair.first, pair.second])).toEqual([[0, 1], [2, 3]])
+    const together = runOutlook(input)
+    years.forEach((year, t) => {
+      const alone = runOutlook({ ...input, years: [year] })
+      expect(alone.byYear[0]).toEqual(together.byYear[t])
+    })
   })
 
   it('refuses blocks out of order or outside the plan from a claim', () => {
