@@ -3,36 +3,30 @@ import { dirname, join } from 'node:path'
 import { Worker } from 'node:worker_threads'
 import { finishOutlook, mergePartials, planOutlook, type OutlookPartial, type OutlookPlan, type OutlookResult } from '#shared/engine'
 
-// Outlooks run off the request thread on a small pool of worker threads. A job's blocks are cut
-// into chunks handed to whichever thread is free; partials merge in block order, so the numbers
-// are the same bit for bit whatever the split (see shared/engine/README.md).
+// Outlooks run off the request thread on a small pool of worker threads. Every free thread joins the
+// oldest job and claims its blocks one at a time from a counter the threads share, so a thread that
+// starts late or runs slowly takes fewer blocks; each thread answers once with one partial. Partials
+// merge in block order, so the numbers are the same bit for bit whatever the split (see
+// shared/engine/README.md).
 
-/**
- * Chunks shrink as a job nears its end (a share of what is left per free thread), so threads finish
- * together; a chunk of at least a few blocks keeps the messages few, and a cap keeps progress moving.
- */
-const MIN_CHUNK_BLOCKS = 2
-const MAX_CHUNK_BLOCKS = 32
-
-/** Blocks for the next chunk of a job with `remaining` blocks left, on a pool of `threads`. */
-function chunkBlocks(remaining: number, threads: number): number {
-  const share = Math.ceil(remaining / (2 * threads))
-  return Math.min(remaining, Math.max(MIN_CHUNK_BLOCKS, Math.min(MAX_CHUNK_BLOCKS, share)))
-}
+/** How often a running job's progress (blocks claimed) is reported: the outlook page and its lease. */
+const PROGRESS_EVERY_MS = 250
 
 interface Job {
   id: number
   plan: OutlookPlan
-  nextBlock: number
+  /** Next block to claim, shared with the threads (Atomics). */
+  nextBlock: Int32Array
   partials: OutlookPartial[]
-  blocksDone: number
+  /** Threads working on the job that have not answered yet. */
+  working: Set<Worker>
   sentTo: Set<Worker>
   onProgress: (fraction: number) => void
   resolve: (result: OutlookResult) => void
   reject: (error: Error) => void
 }
 
-interface Reply { jobId: number, firstBlock: number, partial?: OutlookPartial, error?: string }
+interface Reply { jobId: number, partial?: OutlookPartial, error?: string }
 
 function workerScript() {
   const configured = useRuntimeConfig().outlookWorkerPath as string | undefined
@@ -40,12 +34,15 @@ function workerScript() {
   return configured || join(dirname(process.argv[1]!), 'workers/outlook-worker.mjs')
 }
 
+const claimed = (job: Job) => Math.min(Atomics.load(job.nextBlock, 0), job.plan.blockCount)
+
 class OutlookPool {
   private readonly idle: Worker[] = []
   private readonly jobs: Job[] = []
   private nextJobId = 1
+  private progressTimer: ReturnType<typeof setInterval> | null = null
 
-  constructor(private readonly size: number) {
+  constructor(size: number) {
     for (let i = 0; i < size; i++) this.idle.push(this.spawn())
   }
 
@@ -54,49 +51,62 @@ class OutlookPool {
     worker.unref()
     worker.on('message', (reply: Reply) => this.receive(worker, reply))
     worker.on('error', (error: Error) => {
-      // A crashed thread fails the jobs it was serving and is replaced.
-      for (const job of this.jobs.filter(j => j.sentTo.has(worker))) this.fail(job, error)
+      // A crashed thread fails the jobs it was serving (its claimed blocks are lost) and is replaced.
+      for (const job of this.jobs.filter(j => j.working.has(worker))) this.fail(job, error)
       this.idle.push(this.spawn())
+      this.dispatch()
     })
     return worker
   }
 
   run(plan: OutlookPlan, onProgress: (fraction: number) => void = () => {}): Promise<OutlookResult> {
     return new Promise((resolve, reject) => {
-      this.jobs.push({ id: this.nextJobId++, plan, nextBlock: 0, partials: [], blocksDone: 0, sentTo: new Set(), onProgress, resolve, reject })
+      const nextBlock = new Int32Array(new SharedArrayBuffer(Int32Array.BYTES_PER_ELEMENT))
+      this.jobs.push({ id: this.nextJobId++, plan, nextBlock, partials: [], working: new Set(), sentTo: new Set(), onProgress, resolve, reject })
       this.dispatch()
+      this.progressTimer ??= setInterval(() => this.reportProgress(), PROGRESS_EVERY_MS).unref()
     })
   }
 
   private dispatch() {
     while (this.idle.length) {
-      const job = this.jobs.find(j => j.nextBlock < j.plan.blockCount)
+      const job = this.jobs.find(j => claimed(j) < j.plan.blockCount)
       if (!job) return
       const worker = this.idle.pop()!
-      const blockCount = chunkBlocks(job.plan.blockCount - job.nextBlock, this.size)
       const plan = job.sentTo.has(worker) ? undefined : job.plan
       job.sentTo.add(worker)
-      worker.postMessage({ jobId: job.id, plan, firstBlock: job.nextBlock, blockCount })
-      job.nextBlock += blockCount
+      job.working.add(worker)
+      worker.postMessage({ jobId: job.id, plan, nextBlock: job.nextBlock })
     }
   }
 
   private receive(worker: Worker, reply: Reply) {
     this.idle.push(worker)
     const job = this.jobs.find(j => j.id === reply.jobId)
-    if (job && reply.error) this.fail(job, new Error(reply.error))
-    else if (job && reply.partial) {
-      job.partials.push(reply.partial)
-      job.blocksDone += reply.partial.blockCount
-      job.onProgress(job.blocksDone / job.plan.blockCount)
-      if (job.blocksDone === job.plan.blockCount) this.finish(job)
+    if (job) {
+      job.working.delete(worker)
+      if (reply.error) this.fail(job, new Error(reply.error))
+      else if (reply.partial) {
+        job.partials.push(reply.partial)
+        // A thread answers when no block is left to claim; the job is done when all of its threads have.
+        if (!job.working.size) this.finish(job)
+      }
     }
     this.dispatch()
+  }
+
+  private reportProgress() {
+    for (const job of this.jobs) job.onProgress(claimed(job) / job.plan.blockCount)
+    if (!this.jobs.length && this.progressTimer) {
+      clearInterval(this.progressTimer)
+      this.progressTimer = null
+    }
   }
 
   private finish(job: Job) {
     this.jobs.splice(this.jobs.indexOf(job), 1)
     try {
+      job.onProgress(1)
       job.resolve(finishOutlook(job.plan, mergePartials(job.plan, job.partials)))
     }
     catch (error) {
@@ -107,6 +117,8 @@ class OutlookPool {
   private fail(job: Job, error: Error) {
     const index = this.jobs.indexOf(job)
     if (index >= 0) this.jobs.splice(index, 1)
+    // Threads still on the job stop at the next claim.
+    Atomics.store(job.nextBlock, 0, job.plan.blockCount)
     job.reject(error)
   }
 }

@@ -1,22 +1,32 @@
 import { parentPort } from 'node:worker_threads'
-import { runBlocks, type OutlookPlan } from '../../shared/engine'
+import { runClaimedBlocks, type OutlookPlan } from '../../shared/engine'
 
-// A pool thread: samples the block ranges it is asked for. The plan of a job is sent once per
-// thread and kept until the next job; partial statistics go back with their buffers transferred.
+// A pool thread: samples the blocks of a job it claims from the job's shared counter, until none are
+// left, and answers with one partial. The plan of a job is sent once per thread and kept until the
+// next job; partial statistics go back with their buffers transferred.
 
-export interface ChunkRequest { jobId: number, plan?: OutlookPlan, firstBlock: number, blockCount: number }
+export interface JobRequest {
+  jobId: number
+  plan?: OutlookPlan
+  /** The job's counter: the next block to sample, taken with Atomics.add by every thread on the job. */
+  nextBlock: Int32Array
+}
 
 let current: { jobId: number, plan: OutlookPlan } | null = null
 
-parentPort!.on('message', (request: ChunkRequest) => {
+parentPort!.on('message', (request: JobRequest) => {
   try {
     if (request.plan) current = { jobId: request.jobId, plan: request.plan }
     if (!current || current.jobId !== request.jobId) throw new Error(`No plan for job ${request.jobId}`)
-    const partial = runBlocks(current.plan, request.firstBlock, request.blockCount)
+    const plan = current.plan
+    const partial = runClaimedBlocks(plan, () => {
+      const block = Atomics.add(request.nextBlock, 0, 1)
+      return block < plan.blockCount ? block : -1
+    })
     const buffers = Object.values(partial).filter(ArrayBuffer.isView).map(view => (view as Float64Array).buffer as ArrayBuffer)
-    parentPort!.postMessage({ jobId: request.jobId, firstBlock: request.firstBlock, partial }, buffers)
+    parentPort!.postMessage({ jobId: request.jobId, partial }, buffers)
   }
   catch (error) {
-    parentPort!.postMessage({ jobId: request.jobId, firstBlock: request.firstBlock, error: error instanceof Error ? error.message : String(error) })
+    parentPort!.postMessage({ jobId: request.jobId, error: error instanceof Error ? error.message : String(error) })
   }
 })
