@@ -47,6 +47,45 @@ export function riseOfYear(plan: OutlookPlan, tables: SamplerTables, scratch: Ti
   }
 }
 
+/** Where year t's last pass of the rise reads its columns, with their weights (padding weighs zero). */
+interface LastPass {
+  b0: number
+  b1: number
+  b2: number
+  b3: number
+  w0: number
+  w1: number
+  w2: number
+  w3: number
+  /** One pass (the usual case) starts from the intercept; more start from `riseOfYear`'s sums. */
+  onePass: boolean
+  intercept: number
+  /** Columns of the pass that carry a weight: most years need two or three. */
+  used: number
+}
+
+function lastPass(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, t: number): LastPass {
+  const levelsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
+  const columns = tables.yearColumns[t]!
+  const weights = tables.yearWeights[t]!
+  const last = columns.length - PASS
+  const w2 = weights[last + 2]!
+  const w3 = weights[last + 3]!
+  return {
+    b0: levelsAt + columns[last]! * ROW,
+    b1: levelsAt + columns[last + 1]! * ROW,
+    b2: levelsAt + columns[last + 2]! * ROW,
+    b3: levelsAt + columns[last + 3]! * ROW,
+    w0: weights[last]!,
+    w1: weights[last + 1]!,
+    w2,
+    w3,
+    onePass: last === 0,
+    intercept: riseIntercept(plan, scratch, t),
+    used: w3 !== 0 ? 4 : w2 !== 0 ? 3 : 2,
+  }
+}
+
 /** Histogram, extremes, and the exceedance cell of samples in histogram cells that hold a cut, for year t. */
 export function countYear(
   plan: OutlookPlan,
@@ -64,22 +103,7 @@ export function countYear(
   const lastBin = plan.histogramBins[t]! + 1
   const histogramAt = plan.histogramOffset[t]!
   const levels = scratch.rows
-  const levelsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
-  const columns = tables.yearColumns[t]!
-  const weights = tables.yearWeights[t]!
-  // The last pass of the rise (padded with the zero row, weight 0).
-  const last = columns.length - PASS
-  const b0 = levelsAt + columns[last]! * ROW
-  const b1 = levelsAt + columns[last + 1]! * ROW
-  const b2 = levelsAt + columns[last + 2]! * ROW
-  const b3 = levelsAt + columns[last + 3]! * ROW
-  const w0 = weights[last]!
-  const w1 = weights[last + 1]!
-  const w2 = weights[last + 2]!
-  const w3 = weights[last + 3]!
-  // One pass (the usual case) starts from the land-motion intercept; more start from `riseOfYear`'s sums.
-  const onePass = last === 0
-  const intercept = riseIntercept(plan, scratch, t)
+  const { b0, b1, b2, b3, w0, w1, w2, w3, onePass, intercept, used } = lastPass(plan, tables, scratch, t)
   // The Gumbel statistics read each year's rise back.
   const keepRise = plan.gumbel !== null
   let minimum = partial.minimum[t]!
@@ -88,8 +112,6 @@ export function countYear(
   // branch and placed exactly after the loop.
   const listed = scratch.listed
   let listedCount = 0
-  // Columns of the last pass that carry a weight (the rest are padding): most years need two or three.
-  const used = w3 !== 0 ? 4 : w2 !== 0 ? 3 : 2
   if (onePass && !keepRise && used < 4) {
     listedCount = countOnePass(histogram, levels, listed, histogramAt, b0, b1, b2, w0, w1, w2, used === 3, intercept, low, inverseResolution, lastBin, tileCount, partial.minimum, partial.maximum, t)
     minimum = partial.minimum[t]!
@@ -139,22 +161,8 @@ export function placeListed(
   const histogramAt = plan.histogramOffset[t]!
   const cellAt = t * (cutCount + 1)
   const levels = scratch.rows
-  const levelsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
-  const columns = tables.yearColumns[t]!
-  const weights = tables.yearWeights[t]!
-  const last = columns.length - PASS
-  const b0 = levelsAt + columns[last]! * ROW
-  const b1 = levelsAt + columns[last + 1]! * ROW
-  const b2 = levelsAt + columns[last + 2]! * ROW
-  const b3 = levelsAt + columns[last + 3]! * ROW
-  const w0 = weights[last]!
-  const w1 = weights[last + 1]!
-  const w2 = weights[last + 2]!
-  const w3 = weights[last + 3]!
-  const onePass = last === 0
-  const intercept = riseIntercept(plan, scratch, t)
+  const { b0, b1, b2, b3, w0, w1, w2, w3, onePass, intercept, used } = lastPass(plan, tables, scratch, t)
   const keepRise = plan.gumbel !== null
-  const used = w3 !== 0 ? 4 : w2 !== 0 ? 3 : 2
   for (let k = 0; k < listedCount; k++) {
     const i = listed[k]!
     let value = keepRise ? rise[riseAt + i]! : (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]!

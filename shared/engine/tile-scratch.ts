@@ -9,7 +9,7 @@ export const TILE = 1024
  * Rows are TILE values apart plus two cache lines. Addresses 4 KB apart fall in the same set of the
  * level-1 data cache (32 KB, 8 ways), so rows exactly 8 KB apart all competed for the same 8 lines:
  * a kernel touching seven rows, or two threads sharing a core, evicted its own data. Padded, the rows
- * spread over the sets; W1 at 100k samples went from 19–23 ms to a steady 18.5 ms on one thread.
+ * spread over the sets (with the cell loop of `countOnePass`, W1 ran 3–8 % faster on one thread).
  */
 export const ROW_PADDING = 16
 export const ROW = TILE + ROW_PADDING
@@ -21,12 +21,12 @@ export interface TileScratch {
    * last, each row `count + ROW_PADDING` apart; then one zero row (padding).
    */
   independent: Float64Array
-  /** Correlated score of component c for tile sample i at [c·TILE + i] (rows that are not a copy). */
+  /** Correlated score of component c for tile sample i at [c·ROW + i] (rows that are not a copy). */
   scores: Float64Array
   /** Per score row, where the tile's scores are read: `scores` or `independent`, and the offset. */
   scoreFrom: Float64Array[]
   scoreAt: Int32Array
-  /** First anchor line of the piece or draw each sample picked, at [c·TILE + i]. */
+  /** First anchor line of the piece or draw each sample picked, at [c·ROW + i]. */
   lineAt: Int32Array
   /**
    * The tile's value, basis and level rows in one array: the optimizing compiler checks a typed array's
@@ -34,12 +34,12 @@ export interface TileScratch {
    * kinds of row read them all from this one.
    */
   rows: Float64Array
-  /** Scaled anchor value of slot v less its all-scores-zero value, at rows[valuesAt + v·TILE + i]; row V stays zero (padding). */
+  /** Scaled anchor value of slot v less its all-scores-zero value, at rows[valuesAt + v·ROW + i]; row V stays zero (padding). */
   valuesAt: number
-  /** Per column, the sum of its slots' centred values (land motion: the score) at rows[basisAt + j·TILE + i]: the basis of the sums. Row J zero. */
+  /** Per column, the sum of its slots' centred values (land motion: the score) at rows[basisAt + j·ROW + i]: the basis of the sums. Row J zero. */
   basisAt: number
   /**
-   * Per basis column j, the sum of its slots' scaled anchor values at rows[levelsAt + j·TILE + i] (land
+   * Per basis column j, the sum of its slots' scaled anchor values at rows[levelsAt + j·ROW + i] (land
    * motion: the score); row J stays zero (padding). Each year's rise is formed from these when the plan
    * has draws, so a lone component's rise is its value exactly (a draw equal to a height does not exceed it).
    */
@@ -51,7 +51,7 @@ export interface TileScratch {
    */
   sumsAt: number
   sumsAreLevels: boolean
-  /** Total rise per year at [t·TILE + i] (years of several passes, and for the Gumbel sums). */
+  /** Total rise per year at [t·ROW + i] (years of several passes, and for the Gumbel sums). */
   rise: Float64Array
   /** Tile samples of one year whose histogram cell holds a cut. */
   listed: Int32Array
