@@ -1,5 +1,5 @@
 import { parentPort } from 'node:worker_threads'
-import { runClaimedBlocks, type OutlookPlan } from '../../shared/engine'
+import { claimFromCounter, runClaimedBlocks, type OutlookPlan } from '../../shared/engine'
 
 // A pool thread: samples the blocks of a job it claims from the job's shared counter, until none are
 // left, and answers with one partial. The plan of a job is sent once per thread and kept until the
@@ -18,11 +18,7 @@ parentPort!.on('message', (request: JobRequest) => {
   try {
     if (request.plan) current = { jobId: request.jobId, plan: request.plan }
     if (!current || current.jobId !== request.jobId) throw new Error(`No plan for job ${request.jobId}`)
-    const plan = current.plan
-    const partial = runClaimedBlocks(plan, () => {
-      const block = Atomics.add(request.nextBlock, 0, 1)
-      return block < plan.blockCount ? block : -1
-    })
+    const partial = runClaimedBlocks(current.plan, claimFromCounter(request.nextBlock, current.plan.blockCount))
     const buffers = Object.values(partial).filter(ArrayBuffer.isView).map(view => (view as Float64Array).buffer as ArrayBuffer)
     parentPort!.postMessage({ jobId: request.jobId, partial }, buffers)
   }

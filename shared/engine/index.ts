@@ -18,7 +18,7 @@ export { validateOutlookInput, expandHeightRange, type ValidatedOutlookInput } f
 export { validateRelease, validateCorrelationMatrix, releaseIssues } from './release-validation'
 export { releaseSchema, type ParsedRelease } from './schema'
 export { planOutlook, BLOCK_SIZE } from './plan'
-export { runBlocks, runClaimedBlocks, type NextBlock } from './run'
+export { claimFromCounter, runBlocks, runClaimedBlocks, type NextBlock } from './run'
 export { mergePartials } from './merge'
 export { finishOutlook, PERCENTILE_LEVELS } from './finish'
 export { runOutlook } from './outlook'

@@ -41,6 +41,14 @@ export function emptyPartial(plan: OutlookPlan, capacity: number): OutlookPartia
  */
 export type NextBlock = () => number
 
+/** Claims on a counter shared by threads (a SharedArrayBuffer): each call takes the next block, −1 when all are taken. */
+export function claimFromCounter(counter: Int32Array, blockCount: number): NextBlock {
+  return () => {
+    const block = Atomics.add(counter, 0, 1)
+    return block < blockCount ? block : -1
+  }
+}
+
 /** Samples blocks firstBlock … firstBlock+blockCount−1 and returns their mergeable statistics. */
 export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: number): OutlookPartial {
   if (

@@ -5,8 +5,8 @@ import type { OutlookPartial, OutlookPlan } from './types'
 
 // Two years counted in one pass over the tile. Most output years lie between the same two anchor
 // years, so their rises are weighted sums of the same three rows (two anchor columns and land motion):
-// reading each sample's three values once for two years halves the loads and the loop overhead, which
-// dominate `countOnePass` (each typed-array read also costs the optimizing compiler a bounds check).
+// each sample's three values are read once for both years, and the loop runs once. On W1 that made the
+// sample loop 1–3 % faster (each typed-array read costs the optimizing compiler a bounds check too).
 
 /** Histogram cells of each tile sample for the pair's first and second year. */
 const FIRST_CELLS = new Int32Array(TILE)

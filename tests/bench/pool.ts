@@ -1,5 +1,5 @@
 import { Worker } from 'node:worker_threads'
-import { finishOutlook, mergePartials, runClaimedBlocks, type OutlookPartial, type OutlookPlan, type OutlookResult } from '../../shared/engine'
+import { claimFromCounter, finishOutlook, mergePartials, runClaimedBlocks, type OutlookPartial, type OutlookPlan, type OutlookResult } from '../../shared/engine'
 
 /**
  * A worker keeps its sampling scratch between requests; what it still allocates per request (the plan
@@ -18,14 +18,6 @@ export interface PoolRequest {
 }
 
 export type PoolReply = { partial: OutlookPartial; error?: undefined } | { error: string; partial?: undefined }
-
-/** A claim on a run's shared block counter: each call takes the next block, −1 when all are taken. */
-export function claimFrom(counter: Int32Array, blockCount: number): () => number {
-  return () => {
-    const block = Atomics.add(counter, 0, 1)
-    return block < blockCount ? block : -1
-  }
-}
 
 /**
  * A small persistent pool. Every thread of a run (the workers, and the calling thread when `mainShare`
@@ -72,7 +64,7 @@ export class OutlookPool {
       return this.request(w, request)
     })
     const partials: OutlookPartial[] = []
-    if (this.mainShare) partials.push(runClaimedBlocks(plan, claimFrom(nextBlock, plan.blockCount)))
+    if (this.mainShare) partials.push(runClaimedBlocks(plan, claimFromCounter(nextBlock, plan.blockCount)))
     partials.push(...(await Promise.all(pending)))
     return finishOutlook(plan, mergePartials(plan, partials))
   }

@@ -1,6 +1,6 @@
 import { parentPort } from 'node:worker_threads'
-import { runClaimedBlocks, type OutlookPlan } from '../../shared/engine'
-import { claimFrom, type PoolReply, type PoolRequest } from './pool'
+import { claimFromCounter, runClaimedBlocks, type OutlookPlan } from '../../shared/engine'
+import type { PoolReply, PoolRequest } from './pool'
 
 // A pool thread: keeps the plan of the run it last saw and samples the blocks it claims from the run's
 // shared counter. The plan travels only with the first request of a run; later requests send the id.
@@ -13,7 +13,7 @@ parentPort!.on('message', (request: PoolRequest) => {
     parentPort!.postMessage({ error: `no plan for run ${request.runId}` } satisfies PoolReply)
     return
   }
-  const partial = runClaimedBlocks(current.plan, claimFrom(request.nextBlock, current.plan.blockCount))
+  const partial = runClaimedBlocks(current.plan, claimFromCounter(request.nextBlock, current.plan.blockCount))
   // Partials are plain typed arrays; their buffers move to the caller instead of being copied.
   const transfer = [partial.blocks, partial.cellCounts, partial.histogram, partial.minimum, partial.maximum, partial.blockSums].map(
     (array) => array.buffer as ArrayBuffer,

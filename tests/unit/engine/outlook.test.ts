@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import jStatPkg from 'jstat'
-import { BLOCK_SIZE, finishOutlook, mergePartials, planOutlook, runBlocks, runClaimedBlocks, runOutlook } from '../../../shared/engine'
+import { BLOCK_SIZE, claimFromCounter, finishOutlook, mergePartials, planOutlook, runBlocks, runClaimedBlocks, runOutlook } from '../../../shared/engine'
 import { samplerTables } from '../../../shared/engine/sampler-tables'
 import { allNumbers, baseInput, normalComponent } from './helpers'
 
@@ -333,6 +333,13 @@ describe('reproducible and chunkable', () => {
       const alone = runOutlook({ ...input, years: [year] })
       expect(alone.byYear[0]).toEqual(together.byYear[t])
     })
+  })
+
+  it('hands out each block of a shared counter once, whichever claim asks, then −1', () => {
+    const counter = new Int32Array(new SharedArrayBuffer(Int32Array.BYTES_PER_ELEMENT))
+    const one = claimFromCounter(counter, 3)
+    const other = claimFromCounter(counter, 3)
+    expect([one(), other(), one(), other(), one()]).toEqual([0, 1, 2, -1, -1])
   })
 
   it('refuses blocks out of order or outside the plan from a claim', () => {
