@@ -1,4 +1,5 @@
-import { boolean, customType, doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core'
+import { sql } from 'drizzle-orm'
+import { boolean, customType, doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, unique, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { ORGANISATION_KINDS, ROLES } from '../../shared/types/roles'
 import { AMOUNT_UNITS, LAND_MOTION_SOURCES, OUTLOOK_STATES, RELEASE_FORMS, REVIEW_STATES } from '../../shared/types/science'
 import type { StoredOutlookNote } from '../../shared/types/outlook-notes'
@@ -74,6 +75,9 @@ const reviewed = () => ({
   withdrawnAt: timestamp('withdrawn_at', { withTimezone: true }),
 })
 
+/** A reviewed record not yet published: a draft or in review (for the one-per-series indexes). */
+const UNPUBLISHED = sql`state in ('draft', 'in-review')`
+
 export const series = pgTable('series', {
   id: uuid('id').primaryKey().defaultRandom(),
   component: text('component').notNull(),
@@ -100,6 +104,9 @@ export const releases = pgTable('releases', {
 }, table => [
   unique('releases_series_version').on(table.seriesId, table.version),
   index('releases_state_idx').on(table.state),
+  // At most one version of a series is a draft or in review. The services check first, with a message;
+  // this catches two requests that both passed the check at the same moment.
+  uniqueIndex('releases_one_unpublished').on(table.seriesId).where(UNPUBLISHED),
 ])
 
 /** Uploaded draws, stored compactly: little-endian float64, draw-major (draws × anchor years). */
@@ -117,7 +124,10 @@ export const correlationSets = pgTable('correlation_sets', {
   components: jsonb('components').$type<string[]>().notNull(),
   matrix: jsonb('matrix').$type<number[][]>().notNull(),
   ...reviewed(),
-}, table => [unique('correlation_sets_version').on(table.organisationId, table.scenario, table.version)])
+}, table => [
+  unique('correlation_sets_version').on(table.organisationId, table.scenario, table.version),
+  uniqueIndex('correlation_sets_one_unpublished').on(table.organisationId, table.scenario).where(UNPUBLISHED),
+])
 
 export const scaleFactorGrids = pgTable('scale_factor_grids', {
   id: uuid('id').primaryKey().defaultRandom(),
@@ -128,7 +138,10 @@ export const scaleFactorGrids = pgTable('scale_factor_grids', {
   /** factors[i][j] at latitudes[i], longitudes[j]. */
   factors: jsonb('factors').$type<number[][]>().notNull(),
   ...reviewed(),
-}, table => [unique('scale_factor_grids_version').on(table.organisationId, table.component, table.version)])
+}, table => [
+  unique('scale_factor_grids_version').on(table.organisationId, table.component, table.version),
+  uniqueIndex('scale_factor_grids_one_unpublished').on(table.organisationId, table.component).where(UNPUBLISHED),
+])
 
 // ---- Coastal sites and their outlooks ----
 

@@ -107,6 +107,18 @@ describe('two instances on one database', () => {
     expect(rows[0].n).toBe(1)
   })
 
+  it('keeps one unpublished version per series, even past two checks made at the same moment', async () => {
+    const analyst = await ApiClient.signedIn(a.url, ANALYST.email, ANALYST.password)
+    const [land] = (await analyst.get('/api/releases?component=land-water&scenario=SSP5-8.5&state=published')).body
+    const draft = await analyst.post('/api/releases', { seriesId: land.seriesId, form: 'normal', baselineYear: 2020, anchorYears: [2050, 2100, 2150], mean: [0.01, 0.02, 0.03], sd: [0.005, 0.01, 0.015], method: 'm', citation: 'c', licence: 'l' })
+    expect(draft.status).toBe(201)
+    // What a second request does when it checked for an open version before the first committed and
+    // read the highest version after: a draft of the next version. The database refuses it.
+    const columns = 'series_id, organisation_id, form, baseline_year, anchor_years, parameters, entered_unit, summary, method, citation, licence, author_id'
+    const copy = sql.query(`insert into releases (version, state, ${columns}) select version + 1, 'draft', ${columns} from releases where id = $1`, [draft.body.id])
+    await expect(copy).rejects.toMatchObject({ code: '23505', constraint: 'releases_one_unpublished' })
+  })
+
   it('counts failed sign-ins on both instances against one lock', async () => {
     const attempt = (server: RunningServer, password: string) => new ApiClient(server.url).post('/api/auth/sign-in', { email: READER.email, password })
     // Ten failures, alternating between the instances: each saw five, the lock is for ten.

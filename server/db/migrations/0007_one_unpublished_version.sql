@@ -1,0 +1,3 @@
+CREATE UNIQUE INDEX "correlation_sets_one_unpublished" ON "correlation_sets" USING btree ("organisation_id","scenario") WHERE state in ('draft', 'in-review');--> statement-breakpoint
+CREATE UNIQUE INDEX "releases_one_unpublished" ON "releases" USING btree ("series_id") WHERE state in ('draft', 'in-review');--> statement-breakpoint
+CREATE UNIQUE INDEX "scale_factor_grids_one_unpublished" ON "scale_factor_grids" USING btree ("organisation_id","component") WHERE state in ('draft', 'in-review');
