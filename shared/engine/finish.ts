@@ -10,7 +10,7 @@ const NO_SPREAD = 1e-24
 /** Totals over all blocks, added in block order so the result does not depend on how blocks were split. */
 function totalSums(plan: OutlookPlan, partial: OutlookPartial): Float64Array {
   const totals = new Float64Array(plan.sumsPerBlock)
-  for (let b = 0; b < partial.blockCount; b++) {
+  for (let b = 0; b < partial.blocks.length; b++) {
     const at = b * plan.sumsPerBlock
     for (let k = 0; k < plan.sumsPerBlock; k++) totals[k]! += partial.blockSums[at + k]!
   }
@@ -32,9 +32,9 @@ let cumulativeScratch: Uint32Array | undefined
 /** Turns the merged statistics of every block into the outlook. */
 export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): OutlookResult {
   // Merging refuses a block twice, so all blocks and all samples means every block exactly once.
-  if (merged.blockCount !== plan.blockCount || merged.samples !== plan.samples) {
+  if (merged.blocks.length !== plan.blockCount || merged.samples !== plan.samples) {
     throw new RangeError(
-      `an outlook needs all ${plan.blockCount} blocks (${plan.samples} samples); got ${merged.blockCount} blocks (${merged.samples} samples)`,
+      `an outlook needs all ${plan.blockCount} blocks (${plan.samples} samples); got ${merged.blocks.length} blocks (${merged.samples} samples)`,
     )
   }
   const n = plan.samples

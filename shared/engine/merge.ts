@@ -11,7 +11,7 @@ export function mergePartials(plan: OutlookPlan, partials: OutlookPartial[]): Ou
   // Where each block's sums go in the merged partial: its rank among the blocks present.
   const position = new Int32Array(plan.blockCount).fill(-1)
   for (const partial of partials) {
-    for (let k = 0; k < partial.blockCount; k++) {
+    for (let k = 0; k < partial.blocks.length; k++) {
       const block = partial.blocks[k]!
       if (position[block] !== -1) throw new RangeError(`block ${block} comes in two partials: each block must be sampled once`)
       position[block] = 0
@@ -20,7 +20,6 @@ export function mergePartials(plan: OutlookPlan, partials: OutlookPartial[]): Ou
   let blockCount = 0
   for (let block = 0; block < plan.blockCount; block++) if (position[block] === 0) position[block] = blockCount++
   const merged = emptyPartial(plan, blockCount)
-  merged.blockCount = blockCount
   for (let block = 0; block < plan.blockCount; block++) if (position[block] !== -1) merged.blocks[position[block]!] = block
   // The first partial is copied, the others added (this runs on the caller's thread after the last
   // worker answers, so it is on every pooled request's critical path).
@@ -38,7 +37,7 @@ export function mergePartials(plan: OutlookPlan, partials: OutlookPartial[]): Ou
       if (partial.minimum[t]! < merged.minimum[t]!) merged.minimum[t] = partial.minimum[t]!
       if (partial.maximum[t]! > merged.maximum[t]!) merged.maximum[t] = partial.maximum[t]!
     }
-    for (let k = 0; k < partial.blockCount; k++) {
+    for (let k = 0; k < partial.blocks.length; k++) {
       merged.blockSums.set(partial.blockSums.subarray(k * size, (k + 1) * size), position[partial.blocks[k]!]! * size)
     }
   }

@@ -21,17 +21,16 @@ import type { OutlookPlan, OutlookPartial } from './types'
 // land-motion score) before any year is formed: each year's rise is then a short weighted sum, and the
 // moments and variance-share sums of every year follow from dot products of the basis values per block.
 
-/** An empty partial with room for `capacity` blocks. */
-export function emptyPartial(plan: OutlookPlan, capacity: number): OutlookPartial {
+/** An empty partial for `blockCount` blocks (their indices and sums still to be filled in). */
+export function emptyPartial(plan: OutlookPlan, blockCount: number): OutlookPartial {
   return {
-    blocks: new Int32Array(capacity),
-    blockCount: 0,
+    blocks: new Int32Array(blockCount),
     samples: 0,
     cellCounts: new Uint32Array(plan.years.length * (plan.cuts.length + 1)),
     histogram: new Uint32Array(plan.histogramSize),
     minimum: new Float64Array(plan.years.length).fill(Infinity),
     maximum: new Float64Array(plan.years.length).fill(-Infinity),
-    blockSums: new Float64Array(capacity * plan.sumsPerBlock),
+    blockSums: new Float64Array(blockCount * plan.sumsPerBlock),
   }
 }
 
@@ -80,6 +79,7 @@ export function runClaimedBlocks(plan: OutlookPlan, nextBlock: NextBlock, capaci
   scratch.sumsAt = tables.hasDraws ? scratch.levelsAt : scratch.basisAt
   const yearCount = plan.years.length
   const scoresPerSample = plan.componentKeys.length + 1
+  let done = 0
   for (let b = 0; b < capacity; b++) {
     const blockIndex = nextBlock()
     if (blockIndex === -1) break
@@ -87,7 +87,7 @@ export function runClaimedBlocks(plan: OutlookPlan, nextBlock: NextBlock, capaci
       throw new RangeError(`block ${blockIndex} is not a next block of this plan's ${plan.blockCount}: blocks come once each, in ascending order`)
     }
     partial.blocks[b] = blockIndex
-    partial.blockCount = b + 1
+    done = b + 1
     const count = Math.min(plan.blockSize, plan.samples - blockIndex * plan.blockSize)
     const stream = blockStreamState(plan.seed, blockIndex)
     // One call per score row (the same stream, in the same order) so rows can be padded apart.
@@ -119,7 +119,7 @@ export function runClaimedBlocks(plan: OutlookPlan, nextBlock: NextBlock, capaci
   }
   finishCounts(plan, tables, scratch, partial)
   // Views of what was used; the whole buffers still travel (transferred, not copied) between threads.
-  partial.blocks = partial.blocks.subarray(0, partial.blockCount)
-  partial.blockSums = partial.blockSums.subarray(0, partial.blockCount * plan.sumsPerBlock)
+  partial.blocks = partial.blocks.subarray(0, done)
+  partial.blockSums = partial.blockSums.subarray(0, done * plan.sumsPerBlock)
   return partial
 }

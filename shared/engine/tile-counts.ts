@@ -47,8 +47,15 @@ export function riseOfYear(plan: OutlookPlan, tables: SamplerTables, scratch: Ti
   }
 }
 
-/** Where year t's last pass of the rise reads its columns, with their weights (padding weighs zero). */
-interface LastPass {
+/**
+ * What counting year t reads: its histogram's place and bounds, and where the last pass of its rise reads
+ * its columns, with their weights (padding weighs zero).
+ */
+interface YearCounting {
+  low: number
+  lastBin: number
+  histogramAt: number
+  riseAt: number
   b0: number
   b1: number
   b2: number
@@ -64,7 +71,7 @@ interface LastPass {
   used: number
 }
 
-function lastPass(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, t: number): LastPass {
+function yearCounting(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, t: number): YearCounting {
   const levelsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
   const columns = tables.yearColumns[t]!
   const weights = tables.yearWeights[t]!
@@ -72,6 +79,10 @@ function lastPass(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch
   const w2 = weights[last + 2]!
   const w3 = weights[last + 3]!
   return {
+    low: plan.histogramLow[t]!,
+    lastBin: plan.histogramBins[t]! + 1,
+    histogramAt: plan.histogramOffset[t]!,
+    riseAt: t * ROW,
     b0: levelsAt + columns[last]! * ROW,
     b1: levelsAt + columns[last + 1]! * ROW,
     b2: levelsAt + columns[last + 2]! * ROW,
@@ -98,12 +109,8 @@ export function countYear(
   const rise = scratch.rise
   const inverseResolution = 1 / plan.histogramResolution
   const histogram = scratch.histogram
-  const riseAt = t * ROW
-  const low = plan.histogramLow[t]!
-  const lastBin = plan.histogramBins[t]! + 1
-  const histogramAt = plan.histogramOffset[t]!
   const levels = scratch.rows
-  const { b0, b1, b2, b3, w0, w1, w2, w3, onePass, intercept, used } = lastPass(plan, tables, scratch, t)
+  const { low, lastBin, histogramAt, riseAt, b0, b1, b2, b3, w0, w1, w2, w3, onePass, intercept, used } = yearCounting(plan, tables, scratch, t)
   // The Gumbel statistics read each year's rise back.
   const keepRise = plan.gumbel !== null
   let minimum = partial.minimum[t]!
@@ -155,13 +162,9 @@ export function placeListed(
   const cutCount = cuts.length
   const inverseResolution = 1 / plan.histogramResolution
   const cellCounts = partial.cellCounts
-  const riseAt = t * ROW
-  const low = plan.histogramLow[t]!
-  const lastBin = plan.histogramBins[t]! + 1
-  const histogramAt = plan.histogramOffset[t]!
   const cellAt = t * (cutCount + 1)
   const levels = scratch.rows
-  const { b0, b1, b2, b3, w0, w1, w2, w3, onePass, intercept, used } = lastPass(plan, tables, scratch, t)
+  const { low, lastBin, histogramAt, riseAt, b0, b1, b2, b3, w0, w1, w2, w3, onePass, intercept, used } = yearCounting(plan, tables, scratch, t)
   const keepRise = plan.gumbel !== null
   for (let k = 0; k < listedCount; k++) {
     const i = listed[k]!

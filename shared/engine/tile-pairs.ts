@@ -15,7 +15,7 @@ const SECOND_CELLS = new Int32Array(TILE)
  * The pair's constants, handed to `pairCells` in one array: with its twenty-odd numbers as arguments
  * the loop ran slower (see `countOnePass`).
  */
-const CONSTANTS = new Float64Array(16)
+const CONSTANTS = new Float64Array(13)
 
 /**
  * Histogram, extremes and exceedance cells of a pair's two years. Each year's value is formed exactly

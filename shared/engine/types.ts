@@ -124,7 +124,6 @@ export interface SumLayout {
 export interface OutlookPartial {
   /** The blocks sampled, ascending; `blockSums` follows this order. */
   blocks: Int32Array
-  blockCount: number
   samples: number
   /** Per year, (cuts + 1) cells: how many samples have exactly k cuts strictly below their rise. */
   cellCounts: Uint32Array
@@ -132,7 +131,7 @@ export interface OutlookPartial {
   /** Per year, smallest and largest rise seen (exact under any merge order). */
   minimum: Float64Array
   maximum: Float64Array
-  /** blockCount × plan.sumsPerBlock, in the order of `blocks`. */
+  /** blocks.length × plan.sumsPerBlock, in the order of `blocks`. */
   blockSums: Float64Array
 }
 
