@@ -52,6 +52,17 @@ async function watchContentSecurityPolicy(context: BrowserContext) {
   return violations
 }
 
+/**
+ * Makes the context's pages a browser that never goes idle, as Chromium can be with a chart or map
+ * animating: `requestIdleCallback` accepts callbacks and never calls them. Installed before any page
+ * script runs, so the app's own copy of the function is this one.
+ */
+export function withholdIdleCallbacks(context: BrowserContext) {
+  return context.addInitScript(() => {
+    window.requestIdleCallback = () => 0
+  })
+}
+
 /** Goes to a path and waits until Vue has hydrated it, so clicks reach their handlers. */
 export async function open(page: Page, path: string) {
   const response = await page.goto(path)
