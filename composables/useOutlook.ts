@@ -20,14 +20,21 @@ export interface OutlookView {
   input: {
     baselineYear: number
     landMotion: { rateMmPerYear: number, sigmaMmPerYear: number, epoch: number }
-    thresholds: { key: string, height: number, designLifeYears?: number }[]
+    thresholds: { key: string, height: number, kind?: 'mean-sea-level' | 'flood-level', designLifeYears?: number, lifeStartYear?: number }[]
     gumbel?: { location: number, scale: number }
+    /** How the engine's heights (above mean sea level at the epoch) read above the datum; absent on outlooks stored before datums. */
+    datum?: { name: string, kind: 'mean-sea-level' | 'land-survey' | 'chart', offset: number, referenceEpoch: number }
   }
   newerScience: { component: string, usedVersion: number, latestVersion: number | null, latestReleaseId: string | null }[]
   durationMs: number | null
   createdAt: string
   finishedAt: string | null
   result: OutlookResult | null
+}
+
+/** The datum offset and reference epoch an outlook's heights are stated with. */
+export function outlookDatum(outlook: Pick<OutlookView, 'input'>) {
+  return { offset: outlook.input.datum?.offset ?? 0, referenceEpoch: outlook.input.datum?.referenceEpoch ?? outlook.input.baselineYear }
 }
 
 /** How often a running outlook is asked for its progress. */

@@ -1,7 +1,7 @@
 import { sql } from 'drizzle-orm'
 import { boolean, customType, doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, unique, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { ORGANISATION_KINDS, ROLES } from '../../shared/types/roles'
-import { AMOUNT_UNITS, LAND_MOTION_SOURCES, OUTLOOK_STATES, RELEASE_FORMS, REVIEW_STATES } from '../../shared/types/science'
+import { AMOUNT_UNITS, DATUM_KINDS, LAND_MOTION_SOURCES, OUTLOOK_STATES, RELEASE_FORMS, REVIEW_STATES, THRESHOLD_KINDS } from '../../shared/types/science'
 import type { StoredOutlookNote } from '../../shared/types/outlook-notes'
 
 export const roleEnum = pgEnum('role', ROLES)
@@ -147,6 +147,8 @@ export const scaleFactorGrids = pgTable('scale_factor_grids', {
 
 export const landMotionSourceEnum = pgEnum('land_motion_source', LAND_MOTION_SOURCES)
 export const outlookStateEnum = pgEnum('outlook_state', OUTLOOK_STATES)
+export const datumKindEnum = pgEnum('datum_kind', DATUM_KINDS)
+export const thresholdKindEnum = pgEnum('threshold_kind', THRESHOLD_KINDS)
 
 export const sites = pgTable('sites', {
   id: uuid('id').primaryKey().defaultRandom(),
@@ -154,17 +156,27 @@ export const sites = pgTable('sites', {
   name: text('name').notNull(),
   latitude: doublePrecision('latitude').notNull(),
   longitude: doublePrecision('longitude').notNull(),
-  /** Which datum heights here are measured from, in the planner's words. */
+  /** The datum every height here is measured above, by name in the planner's words. */
   referenceLevel: text('reference_level').notNull(),
+  datumKind: datumKindEnum('datum_kind').notNull(),
+  /** Mean sea level at the reference epoch, metres above the datum (0 when the datum is that mean sea level). */
+  datumOffset: doublePrecision('datum_offset').notNull(),
+  /** The year rise is counted from: fixed per site, never the calendar year. */
+  referenceEpoch: integer('reference_epoch').notNull(),
   /** mm/yr, negative = sinking (which adds to local rise). */
   landMotionRate: doublePrecision('land_motion_rate').notNull(),
   landMotionSigma: doublePrecision('land_motion_sigma').notNull(),
   landMotionSource: landMotionSourceEnum('land_motion_source').notNull(),
   landMotionReference: text('land_motion_reference').notNull().default(''),
   landMotionEpoch: integer('land_motion_epoch').notNull(),
-  /** Gumbel statistics of annual maximum water level (metres above the reference level). */
+  /** Gumbel statistics of annual maximum water level: location at the reference epoch and scale, metres above the datum. */
   gumbelLocation: doublePrecision('gumbel_location'),
   gumbelScale: doublePrecision('gumbel_scale'),
+  /** From a fit of annual maxima: how fast the location moved (m/yr), and standard errors of the three. */
+  gumbelTrend: doublePrecision('gumbel_trend'),
+  gumbelLocationSe: doublePrecision('gumbel_location_se'),
+  gumbelScaleSe: doublePrecision('gumbel_scale_se'),
+  gumbelTrendSe: doublePrecision('gumbel_trend_se'),
   /** 'entered', or the number of annual maxima the fit used. */
   gumbelSource: text('gumbel_source'),
   createdBy: uuid('created_by').notNull().references(() => users.id),
@@ -176,8 +188,11 @@ export const thresholds = pgTable('thresholds', {
   id: uuid('id').primaryKey().defaultRandom(),
   siteId: uuid('site_id').notNull().references(() => sites.id, { onDelete: 'cascade' }),
   label: text('label').notNull(),
-  /** Metres above the site's reference level. */
+  /** Metres above the site's datum. */
   height: doublePrecision('height').notNull(),
+  kind: thresholdKindEnum('kind').notNull().default('mean-sea-level'),
+  /** Flood levels only: the asset's first year of service and its life in years. */
+  buildYear: integer('build_year'),
   designLifeYears: integer('design_life_years'),
   position: integer('position').notNull().default(0),
 }, table => [index('thresholds_site_idx').on(table.siteId)])

@@ -64,7 +64,7 @@ export function whatChangedMail(m: WhatChanged): MailBody {
   const es = m.language === 'es'
   const blocks: Block[] = [
     { paragraphs: [m.cause, es ? 'Estas son las cifras antes y después del cambio.' : 'Here are the numbers before and after the change.'] },
-    { heading: es ? 'Probabilidad de superar cada umbral' : 'Chance of exceeding each threshold', rows: [[es ? 'Umbral' : 'Threshold', es ? 'Año' : 'Year', es ? 'Antes' : 'Before', es ? 'Después' : 'After'], ...m.chances.map(r => [r.threshold, String(r.year), r.before, r.after])] },
+    { heading: es ? 'La probabilidad para cada umbral' : 'The chance for each threshold', rows: [[es ? 'Umbral' : 'Threshold', es ? 'Año' : 'Year', es ? 'Antes' : 'Before', es ? 'Después' : 'After'], ...m.chances.map(r => [r.threshold, String(r.year), r.before, r.after])] },
     { heading: es ? 'Subida: estimación central (rango probable)' : 'Rise: middle estimate (likely range)', rows: [[es ? 'Escenario' : 'Scenario', es ? 'Año' : 'Year', es ? 'Antes' : 'Before', es ? 'Después' : 'After'], ...m.ranges.map(r => [r.scenario, String(r.year), r.before, r.after])] },
   ]
   if (m.releases.length) {

@@ -50,9 +50,9 @@ export function briefingPdfDefinition(doc: BriefingDocument, absoluteLink: strin
     { stack: [{ text: text.chartFan, bold: true, margin: [0, 8, 0, 0] }, { svg: chartSvg(fanChartOption(doc, PDF_FONT), chartWidth, 250), width: chartWidth }], unbreakable: true },
 
     heading(3, text.sections.table),
-    table([text.tableHead.scenario, text.tableHead.threshold, ...doc.table.years.map(String)],
-      doc.table.rows.map(row => [row.scenario, `${row.threshold} (${row.height})`, ...row.chances.map(c => c.text)]),
-      ['auto', '*', ...doc.table.years.map(() => 'auto')]),
+    table([text.tableHead.scenario, text.tableHead.threshold, text.tableHead.measure, ...doc.table.years.map(String)],
+      doc.table.rows.map(row => [row.scenario, `${row.threshold} (${row.height})`, row.measure ?? '', ...row.chances.map(c => c.text)]),
+      ['auto', '*', '*', ...doc.table.years.map(() => 'auto')]),
     ...(doc.extremes
       ? [{
           stack: [
@@ -68,6 +68,7 @@ export function briefingPdfDefinition(doc: BriefingDocument, absoluteLink: strin
     table([text.basisHead.component, text.basisHead.scenario, text.basisHead.version, text.basisHead.state, text.basisHead.scale, text.basisHead.citation],
       doc.basis.releases.map(r => [r.component, r.scenario, String(r.version), r.state, r.scale, r.citation]),
       ['auto', 'auto', 'auto', 'auto', 'auto', '*']),
+    ...(doc.basis.datum ? [{ text: doc.basis.datum, margin: [0, 6, 0, 2] } as Content] : []),
     { text: doc.basis.landMotion, margin: [0, 6, 0, 2] },
     { text: doc.basis.sampling, margin: [0, 0, 0, 2] },
     ...doc.basis.notes.map(note => ({ text: note, color: MUTED }) as Content),

@@ -1,5 +1,6 @@
 import { randomBytes } from 'node:crypto'
 import { and, desc, eq, inArray } from 'drizzle-orm'
+import type { DatumKind } from '#shared/types/science'
 import { briefings, organisations, outlooks, releases, sites, thresholds } from '~~/server/db/schema'
 import { buildBriefingDocument, type BriefingDocument, type BriefingOutlook } from '#shared/briefing/document'
 import type { OutlookResult } from '#shared/engine'
@@ -68,6 +69,12 @@ export async function updateBriefing(planner: CurrentUser, id: string, input: Up
   return updated
 }
 
+/** The datum an outlook's heights were computed with (outlooks stored before datums have none: the site's then). */
+function datumOf(outlook: { input: unknown } | undefined) {
+  const datum = (outlook?.input as { datum?: { name: string, kind: DatumKind, offset: number, referenceEpoch: number } } | undefined)?.datum
+  return datum ? { referenceLevel: datum.name, datumKind: datum.kind, datumOffset: datum.offset, referenceEpoch: datum.referenceEpoch } : {}
+}
+
 /** The document as it reads now (drafts) or as it was frozen (issued). */
 export async function briefingDocument(row: Briefing, issuedAt: Date | null = row.issuedAt): Promise<BriefingDocument> {
   if (row.document) return row.document as unknown as BriefingDocument
@@ -91,7 +98,7 @@ export async function briefingDocument(row: Briefing, issuedAt: Date | null = ro
     language: row.language === 'es' ? 'es' : 'en', units: row.units === 'ft' ? 'ft' : 'm',
     title: row.title, audience: row.audience, localContext: row.localContext, version: row.version,
     previousVersion: previous?.version ?? null, issuedAt: issuedAt?.toISOString() ?? null, livePath: `/briefings/${row.id}`,
-    illustrative: site!.illustrative, site: site!.site,
+    illustrative: site!.illustrative, site: { ...site!.site, ...datumOf(stored.find(o => o.id === row.outlookIds[0])) },
     thresholds: row.thresholdIds.map(id => chosen.find(t => t.id === id)!).filter(Boolean),
     years: row.years, outlooks: ordered,
   })

@@ -12,6 +12,10 @@ import { unsubscribeHeaders, unsubscribeUrl } from './watches'
 // watcher, in the watcher's language.
 
 const KEY_YEARS = [2050, 2100]
+const MEASURE: Record<Language, { meanSeaLevel: string, flood: string }> = {
+  en: { meanSeaLevel: 'mean sea level above it', flood: 'flood level: chance the water reaches it that year' },
+  es: { meanSeaLevel: 'nivel medio del mar por encima', flood: 'cota de inundación: probabilidad de que el agua la alcance ese año' },
+}
 export type Cause = Record<Language, string>
 
 async function activeWatches(siteId: string) {
@@ -42,16 +46,27 @@ function describe(comparisons: Comparison[], labels: Map<string, string>, langua
   for (const { scenario, before, after } of comparisons) {
     const b = before.result as unknown as OutlookResult
     const a = after.result as unknown as OutlookResult
+    const offset = (outlook: typeof before) => (outlook.input as { datum?: { offset: number } }).datum?.offset ?? 0
     for (const threshold of a.thresholds) {
       const old = b.thresholds.find(t => t.key === threshold.key)
+      // A flood level's number is the chance that the water reaches it in that year; a mean-sea-level
+      // threshold's is the chance the mean sea is above it. The row says which.
+      const chanceIn = (t: typeof threshold | undefined, index: number) => {
+        if (!t || index < 0) return null
+        if (t.kind === 'flood-level') return t.flood?.annualChance[index]?.value ?? null
+        return t.byYear[index]?.value ?? null
+      }
+      const what = threshold.kind === 'flood-level' ? MEASURE[language].flood : MEASURE[language].meanSeaLevel
       for (const year of KEY_YEARS) {
         const ta = a.years.indexOf(year)
         const tb = b.years.indexOf(year)
-        if (ta < 0) continue
+        const now = chanceIn(threshold, ta)
+        if (now === null) continue
+        const was = old?.kind === threshold.kind ? chanceIn(old, tb) : null
         chances.push({
-          threshold: `${labels.get(threshold.key) ?? threshold.key} (${height(threshold.height)}, ${scenario})`, year,
-          before: old && tb >= 0 ? formatChance(old.byYear[tb]!.value, language) : '—',
-          after: formatChance(threshold.byYear[ta]!.value, language),
+          threshold: `${labels.get(threshold.key) ?? threshold.key} (${height(threshold.height + offset(after))}, ${what}, ${scenario})`, year,
+          before: was === null ? '—' : formatChance(was, language),
+          after: formatChance(now, language),
         })
       }
     }

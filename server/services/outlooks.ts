@@ -5,6 +5,7 @@ import { validateOutlookInput } from '#shared/engine'
 import { ENGINE_VERSION } from '#shared/engine/version'
 import type { OutlookRequest } from '#shared/schemas/sites'
 import type { OutlookNote } from '#shared/types/outlook-notes'
+import type { DatumKind } from '#shared/types/science'
 import type { CurrentUser } from '../utils/auth'
 import { correlationFor, latestReleaseVersions, scaleFactorsAt, scienceFor } from './science-inputs'
 import { awaitOutlook, kickOutlooks } from './outlook-jobs'
@@ -12,28 +13,42 @@ import { loadSite } from './sites'
 
 type Site = Awaited<ReturnType<typeof loadSite>>
 
-/** Heights the exceedance curves are drawn on, metres above the reference level. */
+/** Rise heights the exceedance curves are drawn on, metres above mean sea level at the reference epoch. */
 export const HEIGHT_GRID = { from: -1, to: 4, step: 0.02 }
 const DECADE = 10
 
-/** Output years: the baseline ("today"), then each decade up to the shortest release horizon. */
-export function outlookYears(baselineYear: number, horizon: number) {
-  const years = [baselineYear]
-  for (let year = Math.floor(baselineYear / DECADE) * DECADE + DECADE; year <= horizon; year += DECADE) years.push(year)
+/**
+ * Output years: the site's reference epoch, then each decade up to the shortest release horizon. They
+ * depend on the site and the science only, never on the calendar, so the same inputs give the same
+ * outlook in any year.
+ */
+export function outlookYears(referenceEpoch: number, horizon: number) {
+  const years = [referenceEpoch]
+  for (let year = Math.floor(referenceEpoch / DECADE) * DECADE + DECADE; year <= horizon; year += DECADE) years.push(year)
   return years
 }
 
+/**
+ * What the page, briefing and e-mails need to state heights as the planner entered them: the engine
+ * works in metres above mean sea level at the reference epoch, the planner above the datum.
+ */
+export interface OutlookDatum { name: string, kind: DatumKind, offset: number, referenceEpoch: number }
+
 /** Everything that goes into one run, with the provenance stored beside it. */
-export async function assembleOutlook(site: Site, request: OutlookRequest, baselineYear = new Date().getUTCFullYear()) {
+export async function assembleOutlook(site: Site, request: OutlookRequest) {
   const science = await scienceFor(request.scenario)
   const components = science.map(s => s.component)
   const [{ set, matrix }, scales] = await Promise.all([correlationFor(request.scenario, components), scaleFactorsAt(site.latitude, site.longitude)])
   const horizon = Math.min(...science.map(s => (s.release.anchorYears as number[]).at(-1)!))
+  const baselineYear = site.referenceEpoch
   const years = outlookYears(baselineYear, horizon)
   const notes: OutlookNote[] = []
   const unscaled = components.filter(c => !scales.get(c)!.gridId)
   if (unscaled.length) notes.push({ kind: 'unscaled', components: unscaled })
   if (!set) notes.push({ kind: 'uncorrelated', scenario: request.scenario })
+  // Heights above the datum → metres above mean sea level at the epoch, where rise is counted from.
+  const aboveEpochMean = (height: number) => height - site.datumOffset
+  const hasStatistics = site.gumbelLocation !== null && site.gumbelScale !== null
 
   const input = {
     baselineYear,
@@ -44,12 +59,21 @@ export async function assembleOutlook(site: Site, request: OutlookRequest, basel
     ...(matrix ? { correlation: matrix } : {}),
     landMotion: { rateMmPerYear: site.landMotionRate, sigmaMmPerYear: site.landMotionSigma, epoch: site.landMotionEpoch },
     heights: HEIGHT_GRID,
-    thresholds: site.thresholds.map((t) => {
-      const lifeFits = t.designLifeYears !== null && baselineYear + t.designLifeYears <= years.at(-1)!
-      if (t.designLifeYears !== null && !lifeFits) notes.push({ kind: 'life-beyond-releases', threshold: t.label, lastYear: years.at(-1)! })
-      return { key: t.id, height: t.height, ...(lifeFits ? { designLifeYears: t.designLifeYears! } : {}) }
+    thresholds: site.thresholds.flatMap((t) => {
+      if (t.kind === 'flood-level' && !hasStatistics) return []
+      const base = { key: t.id, height: aboveEpochMean(t.height), kind: t.kind }
+      if (t.kind !== 'flood-level' || t.designLifeYears === null || t.buildYear === null) return [base]
+      const lastYearOfLife = t.buildYear + t.designLifeYears - 1
+      if (lastYearOfLife > years.at(-1)!) {
+        notes.push({ kind: 'life-beyond-releases', threshold: t.label, lastYear: years.at(-1)! })
+        return [base]
+      }
+      return [{ ...base, designLifeYears: t.designLifeYears, lifeStartYear: t.buildYear }]
     }),
-    ...(site.gumbelLocation !== null && site.gumbelScale !== null ? { gumbel: { location: site.gumbelLocation, scale: site.gumbelScale } } : {}),
+    ...(hasStatistics ? { gumbel: { location: aboveEpochMean(site.gumbelLocation!), scale: site.gumbelScale! } } : {}),
+    // Not read by the engine: how to state its heights above the site's datum (part of the hash, so a
+    // changed datum is a changed outlook).
+    datum: { name: site.referenceLevel, kind: site.datumKind, offset: site.datumOffset, referenceEpoch: site.referenceEpoch } satisfies OutlookDatum,
   }
   const releaseRefs: OutlookReleaseRef[] = science.map(s => ({
     component: s.component, releaseId: s.releaseId, seriesId: s.seriesId, version: s.version, citation: s.citation, title: s.title,

@@ -8,13 +8,17 @@ import { latestReleases } from './science-inputs'
 /** The year a site's headline number is given for (or the last year before it). */
 export const HEADLINE_YEAR = 2100
 
-/** The first threshold's chance of being exceeded in the headline year. */
-export function headlineOf(result: OutlookResult, labels: Map<string, string>): OutlookHeadline | null {
-  const threshold = result.thresholds[0]
+/**
+ * The first mean-sea-level threshold's chance of being passed in the headline year, its height above
+ * the site's datum (`datumOffset`: mean sea level at the epoch above the datum). A flood level's
+ * numbers mean something else and are never the headline.
+ */
+export function headlineOf(result: OutlookResult, labels: Map<string, string>, datumOffset = 0): OutlookHeadline | null {
+  const threshold = result.thresholds.find(t => t.kind !== 'flood-level')
   if (!threshold) return null
   let index = result.years.findLastIndex(year => year <= HEADLINE_YEAR)
   if (index < 0) index = 0
-  return { thresholdLabel: labels.get(threshold.key) ?? threshold.key, height: threshold.height, year: result.years[index]!, probability: threshold.byYear[index]!.value }
+  return { thresholdLabel: labels.get(threshold.key) ?? threshold.key, height: threshold.height + datumOffset, year: result.years[index]!, probability: threshold.byYear[index]!.value }
 }
 
 export async function listSites(user: CurrentUser) {

@@ -1,7 +1,8 @@
 import { asc, eq, inArray } from 'drizzle-orm'
 import { annualMaxima, sites, thresholds } from '~~/server/db/schema'
 import type { Database } from '~~/server/db/client'
-import type { SiteInput } from '#shared/schemas/sites'
+import { GUMBEL_BOUNDS, type SiteInput } from '#shared/schemas/sites'
+import { fitAnnualMaximaCsv } from '#shared/releases/annual-maxima'
 import type { CurrentUser } from '../utils/auth'
 
 type Tx = Parameters<Parameters<Database['transaction']>[0]>[0]
@@ -28,13 +29,19 @@ function siteColumns(input: SiteInput) {
     latitude: input.latitude,
     longitude: input.longitude,
     referenceLevel: input.referenceLevel,
+    datumKind: input.datum.kind,
+    datumOffset: input.datum.offset,
+    referenceEpoch: input.referenceEpoch,
     landMotionRate: input.landMotion.rateMmPerYear,
     landMotionSigma: input.landMotion.sigmaMmPerYear,
     landMotionSource: input.landMotion.source,
     landMotionReference: input.landMotion.reference,
     landMotionEpoch: input.landMotion.epoch,
     ...(input.gumbel !== undefined
-      ? { gumbelLocation: input.gumbel?.location ?? null, gumbelScale: input.gumbel?.scale ?? null, gumbelSource: input.gumbel ? 'entered' : null }
+      ? {
+          gumbelLocation: input.gumbel?.location ?? null, gumbelScale: input.gumbel?.scale ?? null, gumbelSource: input.gumbel ? 'entered' : null,
+          gumbelTrend: null, gumbelLocationSe: null, gumbelScaleSe: null, gumbelTrendSe: null,
+        }
       : {}),
   }
 }
@@ -46,7 +53,7 @@ function siteColumns(input: SiteInput) {
 async function replaceThresholds(tx: Tx, siteId: string, list: SiteInput['thresholds']) {
   const existing = await tx.select({ id: thresholds.id }).from(thresholds).where(eq(thresholds.siteId, siteId)).orderBy(asc(thresholds.position))
   for (const [position, t] of list.entries()) {
-    const values = { label: t.label, height: t.height, designLifeYears: t.designLifeYears ?? null, position }
+    const values = { label: t.label, height: t.height, kind: t.kind, buildYear: t.buildYear ?? null, designLifeYears: t.designLifeYears ?? null, position }
     const current = existing[position]
     if (current) await tx.update(thresholds).set(values).where(eq(thresholds.id, current.id))
     else await tx.insert(thresholds).values({ ...values, siteId })
@@ -55,7 +62,21 @@ async function replaceThresholds(tx: Tx, siteId: string, list: SiteInput['thresh
   if (extra.length) await tx.delete(thresholds).where(inArray(thresholds.id, extra))
 }
 
+/**
+ * A flood level is compared with the total water level, so the site must keep extreme-water
+ * statistics. The body may leave them out (they stay as stored), so this is checked against both.
+ */
+function requireStatisticsForFloodLevels(input: SiteInput, stored: { gumbelLocation: number | null } | null) {
+  const hasStatistics = input.gumbel !== undefined ? input.gumbel !== null : stored?.gumbelLocation != null
+  if (hasStatistics) return
+  const issues = input.thresholds.flatMap((t, i) => t.kind === 'flood-level'
+    ? [{ field: `thresholds.${i}.kind`, message: 'A flood level is compared with the total water level and needs the site\'s extreme-water statistics; enter them or make this a mean-sea-level threshold.' }]
+    : [])
+  if (issues.length) throw createError({ statusCode: 400, message: issues.map(i => `${i.field}: ${i.message}`).join(' '), data: { issues } })
+}
+
 export async function createSite(planner: CurrentUser, input: SiteInput) {
+  requireStatisticsForFloodLevels(input, null)
   const db = await useDb()
   return db.transaction(async (tx) => {
     const [site] = await tx.insert(sites).values({ ...siteColumns(input), organisationId: planner.organisationId, createdBy: planner.id }).returning()
@@ -67,6 +88,7 @@ export async function createSite(planner: CurrentUser, input: SiteInput) {
 
 export async function updateSite(planner: CurrentUser, id: string, input: SiteInput, expectedVersion?: string) {
   const before = await loadSite(planner, id)
+  requireStatisticsForFloodLevels(input, before)
   const db = await useDb()
   const updated = await db.transaction(async (tx) => {
     // The row lock makes check-then-write one step: of two saves from the same version, one wins.
@@ -81,22 +103,39 @@ export async function updateSite(planner: CurrentUser, id: string, input: SiteIn
       thresholds: { before: before.thresholds.map(t => [t.label, t.height]), after: input.thresholds.map(t => [t.label, t.height]) },
     })
     // Its outlooks are recomputed and its watchers told, in the background (server/services/background.ts).
-    await enqueueJob(tx, 'recompute-site', { siteId: id, cause: { en: `The land motion or thresholds of ${input.name} were updated.`, es: `Se actualizaron el movimiento del terreno o los umbrales de ${input.name}.` } })
+    await enqueueJob(tx, 'recompute-site', { siteId: id, cause: { en: `The datum, reference epoch, land motion or thresholds of ${input.name} were updated.`, es: `Se actualizaron el datum, la época de referencia, el movimiento del terreno o los umbrales de ${input.name}.` } })
     return site!
   })
   kickJobs()
   return updated
 }
 
-export async function replaceAnnualMaxima(planner: CurrentUser, id: string, fit: { maxima: { year: number, value: number }[], gumbel: { location: number, scale: number }, sampleSize: number }) {
-  await loadSite(planner, id)
+/**
+ * Annual maxima (CSV year,value, metres above the datum) fitted with a location that moves in time,
+ * stored on the site with the fit's location at the reference epoch, trend and standard errors. The
+ * site's outlooks are recomputed and its watchers told, as for any edit.
+ */
+export async function replaceAnnualMaxima(planner: CurrentUser, id: string, csv: string) {
+  const site = await loadSite(planner, id)
+  const { maxima, fit, sampleSize } = asBadRequest(() => fitAnnualMaximaCsv(csv, site.referenceEpoch))
+  // A site never stores statistics the form would refuse.
+  const { location, scale } = GUMBEL_BOUNDS
+  if (fit.location < location.min || fit.location > location.max || fit.scale > scale.max) {
+    const message = `The fitted Gumbel location ${fit.location.toFixed(2)} m and scale ${fit.scale.toFixed(2)} m are outside what a site accepts (location ${location.min} to ${location.max} m, scale up to ${scale.max} m above the datum); check the values are metres above this site's datum.`
+    throw createError({ statusCode: 400, message: `csv: ${message}`, data: { issues: [{ field: 'csv', message }] } })
+  }
   const db = await useDb()
   await db.transaction(async (tx) => {
     await tx.delete(annualMaxima).where(eq(annualMaxima.siteId, id))
-    await tx.insert(annualMaxima).values(fit.maxima.map(m => ({ siteId: id, ...m })))
+    await tx.insert(annualMaxima).values(maxima.map(m => ({ siteId: id, ...m })))
     await tx.update(sites).set({
-      gumbelLocation: fit.gumbel.location, gumbelScale: fit.gumbel.scale, gumbelSource: `fitted:${fit.sampleSize}`, updatedAt: new Date(),
+      gumbelLocation: fit.location, gumbelScale: fit.scale, gumbelSource: `fitted:${sampleSize}`,
+      gumbelTrend: fit.trendPerYear, gumbelLocationSe: fit.se.location, gumbelScaleSe: fit.se.scale, gumbelTrendSe: fit.se.trendPerYear,
+      updatedAt: new Date(),
     }).where(eq(sites.id, id))
-    await writeAudit(tx, planner, 'site.annual-maxima', { type: 'site', id }, { years: fit.sampleSize, ...fit.gumbel })
+    await writeAudit(tx, planner, 'site.annual-maxima', { type: 'site', id }, { years: sampleSize, location: fit.location, scale: fit.scale, trendPerYear: fit.trendPerYear })
+    await enqueueJob(tx, 'recompute-site', { siteId: id, cause: { en: `New annual maxima were fitted for ${site.name}.`, es: `Se ajustaron nuevos máximos anuales para ${site.name}.` } })
   })
+  kickJobs()
+  return { fit, sampleSize, referenceEpoch: site.referenceEpoch }
 }

@@ -1,6 +1,8 @@
 import type { OutlookResult } from '../engine'
 import { formatHeight, type HeightUnit } from '../units'
 import { chanceAsOdds, formatChance, likelihoodPhrase, type Language } from '../wording/chance'
+import { designLifeLevelSentence, floodYearSentence, lifeSentence } from '../wording/flood'
+import type { DatumKind, ThresholdKind } from '../types/science'
 import { BRIEFING_TEXT, type BriefingText } from './text'
 
 // A briefing as a document: every sentence and number, in one language and one unit, built from
@@ -37,8 +39,13 @@ export interface BriefingSource {
     landMotionSource: string
     landMotionReference: string
     landMotionEpoch: number
+    datumKind: DatumKind
+    /** Mean sea level at the reference epoch, metres above the datum. */
+    datumOffset: number
+    referenceEpoch: number
   }
-  thresholds: { id: string, label: string, height: number }[]
+  /** Heights above the datum, as the planner entered them. */
+  thresholds: { id: string, label: string, height: number, kind: ThresholdKind }[]
   years: number[]
   /** The first is the outlook the briefing is issued from; the others are compared with it. */
   outlooks: BriefingOutlook[]
@@ -55,9 +62,9 @@ export interface BriefingDocument {
     exceedance: { year: number, values: number[] }[]
     fan: { years: number[], p1: number[], p5: number[], p17: number[], p50: number[], p83: number[], p95: number[], p99: number[] }
   }
-  table: { years: number[], rows: { scenario: string, threshold: string, height: string, chances: ChanceCell[] }[] }
+  table: { years: number[], rows: { scenario: string, threshold: string, height: string, measure: string, chances: ChanceCell[] }[] }
   extremes: { year: number, allowance: string, amplification: string }[] | null
-  basis: { releases: { component: string, scenario: string, version: number, citation: string, state: string, scale: string }[], landMotion: string, sampling: string, notes: string[], method: string[] }
+  basis: { releases: { component: string, scenario: string, version: number, citation: string, state: string, scale: string }[], datum: string, landMotion: string, sampling: string, notes: string[], method: string[] }
   cautions: string[]
 }
 
@@ -103,24 +110,52 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
   })
   const thresholdOf = (outlook: BriefingOutlook, id: string) => outlook.result.thresholds.find(t => t.key === id)
 
-  const lines = source.thresholds.flatMap(threshold => yearIndexes.map((t) => {
-    const p = thresholdOf(primary, threshold.id)?.byYear[t]?.value ?? 0
-    return text.chanceLine(chanceAsOdds(p, source.language), formatChance(p, source.language), likelihoodPhrase(p, source.language), height(threshold.height), threshold.label, result.years[t]!)
-  }))
-  const ranges = yearIndexes.map(t => text.rangeSentence(result.years[t]!, height(percentile(result, t, 0.5)), height(percentile(result, t, 0.17)), height(percentile(result, t, 0.83))))
+  const site = source.site
+  const floodContext = { datum: site.referenceLevel, unit: source.units, language: source.language }
+  // The engine's heights are above mean sea level at the epoch; the planner's above the datum.
+  const aboveDatum = (metres: number) => metres + site.datumOffset
+  const isFlood = (threshold: { kind?: ThresholdKind }) => threshold.kind === 'flood-level'
+  // The height the outlook was computed with, which the site's current one may have moved from since.
+  const heightOf = (threshold: BriefingSource['thresholds'][number], found: ReturnType<typeof thresholdOf>) => height(found ? aboveDatum(found.height) : threshold.height)
+
+  const lines = source.thresholds.flatMap((threshold) => {
+    const found = thresholdOf(primary, threshold.id)
+    if (isFlood(threshold)) {
+      if (!found?.flood) return []
+      const flood = found.flood
+      const years = yearIndexes.map(t => text.floodLine(threshold.label, heightOf(threshold, found), floodYearSentence({
+        year: result.years[t]!, height: aboveDatum(found.height), annualChance: flood.annualChance[t]!.value, expectedPerYear: flood.expectedPerYear[t]!,
+      }, floodContext)))
+      const life = found.lifeExceedance && found.designLifeYears && found.lifeStartYear
+        ? [lifeSentence({ buildYear: found.lifeStartYear, lifeYears: found.designLifeYears, chance: found.lifeExceedance.value }, source.language)]
+        : []
+      const level = found.designLifeLevel ? [designLifeLevelSentence({ chance: found.designLifeLevel.chance, level: aboveDatum(found.designLifeLevel.level) }, floodContext)] : []
+      return [...years, ...life, ...level]
+    }
+    return yearIndexes.map((t) => {
+      const p = found?.byYear[t]?.value ?? 0
+      return text.chanceLine(chanceAsOdds(p, source.language), formatChance(p, source.language), likelihoodPhrase(p, source.language), heightOf(threshold, found), threshold.label, result.years[t]!)
+    })
+  })
+  const ranges = yearIndexes.map(t => text.rangeSentence(result.years[t]!, height(percentile(result, t, 0.5)), height(percentile(result, t, 0.17)), height(percentile(result, t, 0.83)), site.referenceEpoch))
 
   const { from, to } = chartHeights(result, yearIndexes)
   const series = (level: number) => result.byYear.map((_, t) => percentile(result, t, level))
 
   const rows = source.outlooks.flatMap(outlook => source.thresholds.map((threshold) => {
     const found = thresholdOf(outlook, threshold.id)
+    const chanceAt = (index: number) => {
+      if (index < 0 || !found) return Number.NaN
+      if (isFlood(threshold)) return found.flood?.annualChance[index]?.value ?? Number.NaN
+      return found.byYear[index]?.value ?? Number.NaN
+    }
     return {
       scenario: outlook.scenario,
       threshold: threshold.label,
-      height: height(threshold.height),
+      height: heightOf(threshold, found),
+      measure: isFlood(threshold) ? text.measures.flood : text.measures.meanSeaLevel,
       chances: source.years.map((year) => {
-        const index = outlook.result.years.indexOf(year)
-        const p = index >= 0 && found ? found.byYear[index]!.value : Number.NaN
+        const p = chanceAt(outlook.result.years.indexOf(year))
         return { probability: p, text: Number.isNaN(p) ? '—' : formatChance(p, source.language) }
       }),
     }
@@ -133,7 +168,6 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
       })
     : null
 
-  const site = source.site
   return {
     meta: {
       language: source.language, units: source.units, title: source.title, audience: source.audience, localContext: source.localContext,
@@ -154,6 +188,7 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
         component: text.components[ref.component] ?? ref.component, scenario: outlook.scenario, version: ref.version,
         citation: ref.citation, state: text.states[ref.state] ?? ref.state, scale: ref.scale.toLocaleString(source.language, { maximumFractionDigits: 3 }),
       }))),
+      datum: text.datum(site.referenceLevel, text.datumKinds[site.datumKind] ?? site.datumKind, height(site.datumOffset), site.referenceEpoch),
       landMotion: text.landMotion(`${site.landMotionRate.toLocaleString(source.language)} mm`, `${site.landMotionSigma.toLocaleString(source.language)} mm`, text.sources[site.landMotionSource] ?? site.landMotionSource, site.landMotionEpoch, site.landMotionReference),
       sampling: text.sampling(primary.samples.toLocaleString(source.language), primary.seed),
       notes: source.outlooks.flatMap(outlook => outlookNotes(outlook, text)),

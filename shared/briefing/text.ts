@@ -7,13 +7,18 @@ export interface BriefingText {
   documentKind: string
   sections: { summary: string, charts: string, table: string, basis: string, cautions: string, provenance: string, context: string }
   summaryIntro: (site: string, scenario: string) => string
-  rangeSentence: (year: number, median: string, low: string, high: string) => string
+  rangeSentence: (year: number, median: string, low: string, high: string, epoch: number) => string
   chanceLine: (odds: string, chance: string, word: string, height: string, threshold: string, year: number) => string
+  /** A flood level's line starts with its name and height; the sentence comes from wording/flood. */
+  floodLine: (threshold: string, height: string, sentence: string) => string
+  datum: (name: string, kind: string, offset: string, epoch: number) => string
+  datumKinds: Record<string, string>
+  measures: { meanSeaLevel: string, flood: string }
   chartExceedance: string
   chartExceedanceAxis: { x: string, y: string }
   chartFan: string
   chartFanLegend: { median: string, likely: string, veryLikely: string, extreme: string }
-  tableHead: { scenario: string, threshold: string }
+  tableHead: { scenario: string, threshold: string, measure: string }
   extremesTitle: string
   extremesHead: { year: string, allowance: string, amplification: string }
   extremesNote: string
@@ -37,13 +42,17 @@ const en: BriefingText = {
   documentKind: 'Sea-level briefing',
   sections: { summary: 'Summary', charts: 'Charts', table: 'Chances by year', basis: 'What this rests on', cautions: 'What this is not', provenance: 'About this document', context: 'Local context' },
   summaryIntro: (site, scenario) => `How high the sea may rise at ${site} under the ${scenario} scenario, counting the land's own sinking or uplift.`,
-  rangeSentence: (year, median, low, high) => `By ${year} the middle estimate of the rise is ${median}; it is likely (two chances in three) to lie between ${low} and ${high}.`,
-  chanceLine: (odds, chance, word, height, threshold, year) => `${threshold} (${height}): ${odds} — ${chance}, ${word} — that the sea is higher than this by ${year}.`,
+  rangeSentence: (year, median, low, high, epoch) => `Between ${epoch} and ${year} the middle estimate of the rise is ${median}; it is likely (two chances in three) to lie between ${low} and ${high}.`,
+  chanceLine: (odds, chance, word, height, threshold, year) => `${threshold} (${height}): ${odds} — ${chance}, ${word} — that the mean sea level here is higher than this by ${year}.`,
+  floodLine: (threshold, height, sentence) => `${threshold} (flood level, ${height}): ${sentence}`,
+  datum: (name, kind, offset, epoch) => `Heights are above ${name} (${kind}); mean sea level stood ${offset} above it in ${epoch}, the year every rise here is counted from. The rise already expected between ${epoch} and today is part of every chance.`,
+  datumKinds: { 'mean-sea-level': 'mean sea level at an epoch', 'land-survey': 'a land survey datum', 'chart': 'a chart datum' },
+  measures: { meanSeaLevel: 'Mean sea level above it by that year', flood: 'Flood level: the water reaches it in that year' },
   chartExceedance: 'Chance that the rise exceeds each height',
-  chartExceedanceAxis: { x: 'Rise above the reference level', y: 'Chance of exceeding' },
+  chartExceedanceAxis: { x: 'Rise of mean sea level since the reference epoch', y: 'Chance of exceeding' },
   chartFan: 'Rise over time: middle estimate and ranges',
   chartFanLegend: { median: 'Middle estimate', likely: 'Likely range (17–83 %)', veryLikely: 'Very likely range (5–95 %)', extreme: '1–99 %' },
-  tableHead: { scenario: 'Scenario', threshold: 'Threshold' },
+  tableHead: { scenario: 'Scenario', threshold: 'Threshold', measure: 'Chance of' },
   extremesTitle: 'Flood allowance and frequency',
   extremesHead: { year: 'Year', allowance: 'Allowance', amplification: 'Floods more often (×)' },
   extremesNote: 'The allowance is how much to raise an asset so that the expected number of floods stays as it is today; the second column is how many times more often today\'s floods would be expected.',
@@ -52,7 +61,8 @@ const en: BriefingText = {
   sampling: (samples, seed) => `Computed from ${samples} Monte Carlo samples with seed ${seed}; the same inputs and seed give the same numbers.`,
   method: [
     'Each source of rise is taken from its latest published, reviewed release and sampled together with the others (keeping their published correlations) and with the land motion, many thousands of times.',
-    'The chances above are the share of those samples in which the local rise exceeds each height; the ranges are their percentiles.',
+    'For a mean-sea-level threshold, the chance is the share of those samples in which the local rise of the mean sea exceeds it; the ranges are their percentiles.',
+    'For a flood level, each sample\'s rise is added to the site\'s annual maximum water levels (a Gumbel distribution fitted to the local record): the chance in a year is the average over the samples of the chance that the year\'s highest water reaches the level, and the chance over an asset\'s life counts every year of that life.',
   ],
   cautions: [
     'Projections are not predictions. They depend on the releases and assumptions listed here and will change as the science does.',
@@ -77,13 +87,17 @@ const es: BriefingText = {
   documentKind: 'Informe sobre el nivel del mar',
   sections: { summary: 'Resumen', charts: 'Gráficos', table: 'Probabilidades por año', basis: 'En qué se basa', cautions: 'Lo que este informe no es', provenance: 'Sobre este documento', context: 'Contexto local' },
   summaryIntro: (site, scenario) => `Cuánto puede subir el mar en ${site} en el escenario ${scenario}, contando el hundimiento o levantamiento del propio terreno.`,
-  rangeSentence: (year, median, low, high) => `En ${year} la estimación central de la subida es ${median}; es probable (dos de cada tres posibilidades) que esté entre ${low} y ${high}.`,
-  chanceLine: (odds, chance, word, height, threshold, year) => `${threshold} (${height}): ${odds} — ${chance}, ${word} — de que el mar esté por encima en ${year}.`,
+  rangeSentence: (year, median, low, high, epoch) => `Entre ${epoch} y ${year} la estimación central de la subida es ${median}; es probable (dos de cada tres posibilidades) que esté entre ${low} y ${high}.`,
+  chanceLine: (odds, chance, word, height, threshold, year) => `${threshold} (${height}): ${odds} — ${chance}, ${word} — de que el nivel medio del mar aquí esté por encima en ${year}.`,
+  floodLine: (threshold, height, sentence) => `${threshold} (cota de inundación, ${height}): ${sentence}`,
+  datum: (name, kind, offset, epoch) => `Las alturas se miden sobre ${name} (${kind}); el nivel medio del mar estaba ${offset} por encima en ${epoch}, el año desde el que se cuenta toda subida aquí. La subida ya esperada entre ${epoch} y hoy forma parte de cada probabilidad.`,
+  datumKinds: { 'mean-sea-level': 'nivel medio del mar en una época', 'land-survey': 'un datum de nivelación terrestre', 'chart': 'un cero hidrográfico' },
+  measures: { meanSeaLevel: 'Nivel medio del mar por encima en ese año', flood: 'Cota de inundación: el agua la alcanza en ese año' },
   chartExceedance: 'Probabilidad de que la subida supere cada altura',
-  chartExceedanceAxis: { x: 'Subida sobre el nivel de referencia', y: 'Probabilidad de superarla' },
+  chartExceedanceAxis: { x: 'Subida del nivel medio del mar desde la época de referencia', y: 'Probabilidad de superarla' },
   chartFan: 'Subida a lo largo del tiempo: estimación central y rangos',
   chartFanLegend: { median: 'Estimación central', likely: 'Rango probable (17–83 %)', veryLikely: 'Rango muy probable (5–95 %)', extreme: '1–99 %' },
-  tableHead: { scenario: 'Escenario', threshold: 'Umbral' },
+  tableHead: { scenario: 'Escenario', threshold: 'Umbral', measure: 'Probabilidad de' },
   extremesTitle: 'Margen de inundación y frecuencia',
   extremesHead: { year: 'Año', allowance: 'Margen', amplification: 'Inundaciones más frecuentes (×)' },
   extremesNote: 'El margen es cuánto elevar una infraestructura para que el número esperado de inundaciones siga como hoy; la segunda columna indica cuántas veces más a menudo se esperarían las inundaciones de hoy.',
@@ -92,7 +106,8 @@ const es: BriefingText = {
   sampling: (samples, seed) => `Calculado con ${samples} muestras de Monte Carlo y semilla ${seed}; los mismos datos y semilla dan las mismas cifras.`,
   method: [
     'Cada fuente de subida se toma de su última versión publicada y revisada y se muestrea junto con las demás (respetando sus correlaciones publicadas) y con el movimiento del terreno, muchos miles de veces.',
-    'Las probabilidades son la proporción de esas muestras en las que la subida local supera cada altura; los rangos son sus percentiles.',
+    'Para un umbral del nivel medio, la probabilidad es la proporción de esas muestras en las que la subida local del nivel medio lo supera; los rangos son sus percentiles.',
+    'Para una cota de inundación, la subida de cada muestra se suma a los niveles máximos anuales del sitio (una distribución de Gumbel ajustada al registro local): la probabilidad en un año es la media, sobre las muestras, de la probabilidad de que el agua más alta del año alcance la cota, y la probabilidad durante la vida útil cuenta cada año de esa vida.',
   ],
   cautions: [
     'Las proyecciones no son predicciones. Dependen de las versiones y los supuestos aquí indicados y cambiarán con la ciencia.',

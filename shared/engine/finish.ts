@@ -1,6 +1,16 @@
-import { gumbelReturnLevel } from './gumbel'
-import { cumulativeCounts, histogramQuantile, percentileStandardError, proportionStandardError, type HistogramView } from './statistics'
-import type { Estimate, OutlookPartial, OutlookPlan, OutlookResult, ThresholdOutlook, YearGumbel, YearOutlook } from './types'
+import { designLifeLevel } from './design-life'
+import { cumulativeCounts, histogramQuantile, meanFromDeviations, percentileStandardError, proportionStandardError, type HistogramView } from './statistics'
+import type {
+  Estimate,
+  FloodLevelOutlook,
+  OutlookPartial,
+  OutlookPlan,
+  OutlookResult,
+  ThresholdOutlook,
+  ThresholdPlan,
+  YearGumbel,
+  YearOutlook,
+} from './types'
 
 export const PERCENTILE_LEVELS = [0.01, 0.05, 0.17, 0.5, 0.83, 0.95, 0.99] as const
 
@@ -20,6 +30,12 @@ function totalSums(plan: OutlookPlan, partial: OutlookPartial): Float64Array {
 function proportion(count: number, n: number): Estimate {
   const value = count / n
   return { value, se: proportionStandardError(value, n) }
+}
+
+/** A mean chance from its deviation sums at `at` (see `SumLayout`); rounding may not take it outside [0, 1]. */
+function meanChance(reference: number, sums: Float64Array, at: number, n: number): Estimate {
+  const estimate = meanFromDeviations(reference, sums[at]!, sums[at + 1]!, n)
+  return { value: Math.min(1, Math.max(0, estimate.value)), se: estimate.se }
 }
 
 /**
@@ -98,22 +114,29 @@ export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): Outloo
   })
 
   const thresholds: ThresholdOutlook[] = plan.thresholds.map((threshold) => {
-    const probabilities = plan.years.map((_, t) => proportion(exceedanceCounts[t]![threshold.cutIndex]!, n))
-    const lifeExceedance =
-      threshold.lifeSumIndex === null
-        ? null
-        : proportion(n - sums[layout.lifeNoExceedance + threshold.lifeSumIndex]!, n)
-    return {
+    const about = {
       key: threshold.key,
       height: threshold.height,
+      kind: threshold.kind,
       designLifeYears: threshold.designLifeYears,
-      byYear: probabilities,
-      triggerYears: plan.tolerances.map((tolerance) => {
-        const index = probabilities.findIndex((probability) => probability.value >= tolerance)
-        return { tolerance, year: index < 0 ? null : plan.years[index]! }
-      }),
-      lifeExceedance,
+      lifeStartYear: threshold.lifeStartYear,
     }
+    if (threshold.cutIndex !== null) {
+      const cut = threshold.cutIndex
+      const probabilities = plan.years.map((_, t) => proportion(exceedanceCounts[t]![cut]!, n))
+      return {
+        ...about,
+        byYear: probabilities,
+        triggerYears: plan.tolerances.map((tolerance) => {
+          const index = probabilities.findIndex((probability) => probability.value >= tolerance)
+          return { tolerance, year: index < 0 ? null : plan.years[index]! }
+        }),
+        flood: null,
+        lifeExceedance: null,
+        designLifeLevel: null,
+      }
+    }
+    return { ...about, byYear: [], triggerYears: [], ...floodThreshold(plan, merged, sums, threshold) }
   })
 
   return {
@@ -139,18 +162,56 @@ function yearGumbel(plan: OutlookPlan, sums: Float64Array, t: number, n: number)
   const layout = plan.sumLayout
   // Sums hold exp((rise − center)/λ), so the log-sum-exp needs only the center added back.
   const allowance = plan.center[t]! + gumbel.scale * Math.log(sums[layout.gumbelExp + t]! / n)
-  const periods = gumbel.returnPeriods
+  const levelCount = gumbel.levels.length
   return {
     allowance,
     amplification: Math.exp(allowance / gumbel.scale),
-    returnPeriods: periods.map((today, r) => {
-      const annualChance = proportion(sums[layout.returnChance + t * periods.length + r]!, n)
+    returnPeriods: gumbel.returnPeriods.map((today, r) => {
+      const at = t * levelCount + r
+      const annualChance = meanChance(gumbel.levelReference[at]!, sums, layout.annualChance + 2 * at, n)
       return {
         today,
-        level: gumbelReturnLevel(gumbel, today),
+        level: gumbel.levels[r]!,
         newReturnPeriod: annualChance.value > 0 ? 1 / annualChance.value : Infinity,
         annualChance,
       }
     }),
+  }
+}
+
+/**
+ * A flood level's outlook: per year the mean annual chance that the annual maximum exceeds it, the
+ * expected exceedances a year e^{−(h−μ)/λ}·mean e^{rise/λ} (from the allowance's sums, in logs so a rise
+ * far above λ does not overflow), and with a design life the chance over the life and the design-life level.
+ */
+function floodThreshold(
+  plan: OutlookPlan,
+  merged: OutlookPartial,
+  sums: Float64Array,
+  threshold: ThresholdPlan,
+): Pick<ThresholdOutlook, 'flood' | 'lifeExceedance' | 'designLifeLevel'> {
+  const gumbel = plan.gumbel!
+  const layout = plan.sumLayout
+  const n = plan.samples
+  const levelCount = gumbel.levels.length
+  const shift = threshold.height - gumbel.location
+  const flood: FloodLevelOutlook = { annualChance: [], expectedPerYear: [], returnPeriodYears: [] }
+  plan.years.forEach((_, t) => {
+    const at = t * levelCount + threshold.levelIndex!
+    const chance = meanChance(gumbel.levelReference[at]!, sums, layout.annualChance + 2 * at, n)
+    flood.annualChance.push(chance)
+    flood.expectedPerYear.push(Math.exp((plan.center[t]! - shift) / gumbel.scale + Math.log(sums[layout.gumbelExp + t]! / n)))
+    flood.returnPeriodYears.push(chance.value > 0 ? 1 / chance.value : null)
+  })
+  if (threshold.lifeSpanIndex === null) return { flood, lifeExceedance: null, designLifeLevel: null }
+  const none = meanChance(threshold.lifeReference!, sums, layout.lifeNoExceedance + 2 * threshold.lifeSumIndex!, n)
+  const span = plan.lifeSpans[threshold.lifeSpanIndex]!
+  return {
+    flood,
+    lifeExceedance: { value: 1 - none.value, se: none.se },
+    designLifeLevel: {
+      chance: threshold.designLifeChance,
+      level: designLifeLevel(span, merged.lifeHistogram, gumbel, threshold.designLifeChance),
+    },
   }
 }

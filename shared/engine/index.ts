@@ -6,6 +6,8 @@ export {
   DEFAULT_TOLERANCES,
   DEFAULT_RETURN_PERIODS,
   MAX_SAMPLES,
+  THRESHOLD_KINDS,
+  DEFAULT_DESIGN_LIFE_CHANCE,
   type OutlookInput,
   type ParsedOutlookInput,
   type ReleaseInput,
@@ -29,6 +31,8 @@ export type {
   YearOutlook,
   YearGumbel,
   ThresholdOutlook,
+  ThresholdKind,
+  FloodLevelOutlook,
   Estimate,
   PercentileEstimate,
 } from './types'

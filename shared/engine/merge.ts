@@ -25,6 +25,7 @@ export function mergePartials(plan: OutlookPlan, partials: OutlookPartial[]): Ou
   // worker answers, so it is on every pooled request's critical path).
   merged.cellCounts.set(partials[0]!.cellCounts)
   merged.histogram.set(partials[0]!.histogram)
+  merged.lifeHistogram.set(partials[0]!.lifeHistogram)
   const size = plan.sumsPerBlock
   for (let p = 0; p < partials.length; p++) {
     const partial = partials[p]!
@@ -32,6 +33,7 @@ export function mergePartials(plan: OutlookPlan, partials: OutlookPartial[]): Ou
     if (p > 0) {
       addCounts(merged.cellCounts, partial.cellCounts)
       addCounts(merged.histogram, partial.histogram)
+      addCounts(merged.lifeHistogram, partial.lifeHistogram)
     }
     for (let t = 0; t < merged.minimum.length; t++) {
       if (partial.minimum[t]! < merged.minimum[t]!) merged.minimum[t] = partial.minimum[t]!

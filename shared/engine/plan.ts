@@ -6,8 +6,8 @@ import {
   LAND_MOTION_KEY,
   type OutlookPlan,
   type SumLayout,
-  type ThresholdPlan,
 } from './types'
+import { planThresholds } from './threshold-plan'
 import { validateOutlookInput, type ValidatedOutlookInput } from './validate'
 
 /** Samples per block: the unit of reproducibility (each block has its own random stream). */
@@ -198,40 +198,27 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
     histogramSize += histogramBins[t]! + 2
   }
 
-  const cuts = Float64Array.from(new Set([...input.heights, ...input.thresholds.map((threshold) => threshold.height)])).sort()
+  // Flood levels are compared with the total water level, never counted against the rise.
+  const riseHeights = input.thresholds.filter((threshold) => threshold.kind === 'mean-sea-level').map((threshold) => threshold.height)
+  const cuts = Float64Array.from(new Set([...input.heights, ...riseHeights])).sort()
   const cutPosition = (height: number) => cuts.indexOf(height)
   const buckets = bucketIndex(cuts)
-
-  const lifeSpans: number[] = []
-  let lifeSums = 0
-  const thresholds: ThresholdPlan[] = input.thresholds.map((threshold, i) => {
-    const life = threshold.designLifeYears ?? null
-    let lifeSpanIndex: number | null = null
-    if (life !== null && input.gumbel) {
-      lifeSpanIndex = lifeSpans.indexOf(life)
-      if (lifeSpanIndex < 0) lifeSpanIndex = lifeSpans.push(life) - 1
-    }
-    return {
-      key: threshold.key ?? `threshold-${i + 1}`,
-      height: threshold.height,
-      designLifeYears: life,
-      cutIndex: cutPosition(threshold.height),
-      lifeSpanIndex,
-      lifeSumIndex: lifeSpanIndex === null ? null : lifeSums++,
-    }
-  })
+  const { thresholds, lifeSpans, lifeHistogramSize, gumbel } = planThresholds(input, cutPosition, center, low, high)
 
   const partCount = componentCount + 1
-  const returnPeriods = input.gumbel ? input.gumbel.returnPeriods : []
+  const levelCount = gumbel ? gumbel.levels.length : 0
+  const gumbelExp = 2 * yearCount + 2 * partCount * yearCount
+  const annualChance = gumbelExp + (gumbel ? yearCount : 0)
   const sumLayout: SumLayout = {
     moments: 0,
     partSum: 2 * yearCount,
     partCross: 2 * yearCount + partCount * yearCount,
-    gumbelExp: 2 * yearCount + 2 * partCount * yearCount,
-    returnChance: 2 * yearCount + 2 * partCount * yearCount + (input.gumbel ? yearCount : 0),
-    lifeNoExceedance: 2 * yearCount + 2 * partCount * yearCount + (input.gumbel ? yearCount : 0) + returnPeriods.length * yearCount,
+    gumbelExp,
+    annualChance,
+    lifeNoExceedance: annualChance + 2 * levelCount * yearCount,
   }
-  const sumsPerBlock = sumLayout.lifeNoExceedance + lifeSums
+  const lifeThresholds = thresholds.filter((threshold) => threshold.lifeSumIndex !== null).length
+  const sumsPerBlock = sumLayout.lifeNoExceedance + 2 * lifeThresholds
 
   const factor = input.choleskyFactor ?? identityFactor(componentCount)
   const identity = identityFactor(componentCount)
@@ -282,10 +269,9 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
     histogramSize,
     thresholds,
     tolerances: [...input.tolerances],
-    gumbel: input.gumbel
-      ? { location: input.gumbel.location, scale: input.gumbel.scale, returnPeriods: [...input.gumbel.returnPeriods] }
-      : null,
+    gumbel,
     lifeSpans,
+    lifeHistogramSize,
     sumsPerBlock,
     sumLayout,
   }

@@ -28,6 +28,7 @@ export function emptyPartial(plan: OutlookPlan, blockCount: number): OutlookPart
     samples: 0,
     cellCounts: new Uint32Array(plan.years.length * (plan.cuts.length + 1)),
     histogram: new Uint32Array(plan.histogramSize),
+    lifeHistogram: new Uint32Array(plan.lifeHistogramSize),
     minimum: new Float64Array(plan.years.length).fill(Infinity),
     maximum: new Float64Array(plan.years.length).fill(-Infinity),
     blockSums: new Float64Array(blockCount * plan.sumsPerBlock),
@@ -112,7 +113,7 @@ export function runClaimedBlocks(plan: OutlookPlan, nextBlock: NextBlock, capaci
         riseOfYear(plan, tables, scratch, t, tileCount)
         countYear(plan, tables, scratch, t, tileCount, partial)
       }
-      if (plan.gumbel !== null) gumbelTile(plan, tables, scratch, tileCount, partial.blockSums, b * plan.sumsPerBlock)
+      if (plan.gumbel !== null) gumbelTile(plan, tables, scratch, tileCount, partial.blockSums, b * plan.sumsPerBlock, partial.lifeHistogram)
     }
     blockSumsByYear(plan, scratch, partial.blockSums, b * plan.sumsPerBlock)
     partial.samples += count

@@ -15,8 +15,10 @@ export interface LifeSegment {
   /** Output-year index of the segment's start, or −1 for the baseline (rise 0). */
   from: number
   to: number
-  /** Years between the two knots, and how many annual steps of the life fall in the segment. */
+  /** Years between the two knots. */
   span: number
+  /** The life's years in the segment: `steps` years from the start knot's year + `first`. */
+  first: number
   steps: number
 }
 
@@ -61,7 +63,10 @@ export interface SamplerTables {
    * a count's sign says whether its samples need placing among the cuts one by one.
    */
   cutCells: Int32Array
+  /** Per life span (`plan.lifeSpans`), its annual steps as runs between knots. */
   lifeSegments: LifeSegment[][]
+  /** Per life span, the indices of the thresholds that have it. */
+  lifeThresholds: Int32Array[]
 }
 
 const cache = new WeakMap<OutlookPlan, SamplerTables>()
@@ -157,7 +162,14 @@ function buildTables(plan: OutlookPlan): SamplerTables {
     hasDraws: plan.kinds.some((kind) => kind === COMPONENT_KIND_DRAWS),
     cellOfBin,
     cutCells: cutCellsOf(cellOfBin),
-    lifeSegments: plan.lifeSpans.map((life) => lifeSegments(plan, life)),
+    lifeSegments: plan.lifeSpans.map((span) => lifeSegments(plan.baselineYear, plan.years, span.startYear, span.years)),
+    lifeThresholds: plan.lifeSpans.map((_, s) => {
+      const indices: number[] = []
+      plan.thresholds.forEach((threshold, k) => {
+        if (threshold.lifeSpanIndex === s) indices.push(k)
+      })
+      return Int32Array.from(indices)
+    }),
   }
 }
 
@@ -205,19 +217,28 @@ function cutCellsOf(cellOfBin: Int32Array): Int32Array {
   return Int32Array.from(cells)
 }
 
-/** Annual steps baseline+1 … baseline+life, as runs between the knots (baseline, output years). */
-export function lifeSegments(plan: OutlookPlan, lifeYears: number): LifeSegment[] {
+/**
+ * The annual steps startYear … startYear + lifeYears − 1 as runs between the knots: the baseline year
+ * (rise 0) and the output years. A year on a knot belongs to the run ending there, except the baseline
+ * year itself, which the first run includes. Every step must lie between the baseline and the last
+ * output year (validation checks this).
+ */
+export function lifeSegments(baselineYear: number, years: readonly number[], startYear: number, lifeYears: number): LifeSegment[] {
   const segments: LifeSegment[] = []
-  const end = plan.baselineYear + lifeYears
-  let fromYear = plan.baselineYear
+  const end = startYear + lifeYears - 1
+  let fromYear = baselineYear
   let from = -1
-  for (let t = 0; t < plan.years.length && fromYear < end; t++) {
-    const year = plan.years[t]!
+  let includesStart = true
+  for (let t = 0; t < years.length && fromYear < end + (includesStart ? 1 : 0); t++) {
+    const year = years[t]!
     if (year <= fromYear) {
       if (year === fromYear) from = t
       continue
     }
-    segments.push({ from, to: t, span: year - fromYear, steps: Math.min(year, end) - fromYear })
+    const low = Math.max(startYear, includesStart ? fromYear : fromYear + 1)
+    const high = Math.min(end, year)
+    if (high >= low) segments.push({ from, to: t, span: year - fromYear, first: low - fromYear, steps: high - low + 1 })
+    includesStart = false
     fromYear = year
     from = t
   }

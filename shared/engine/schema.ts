@@ -80,10 +80,26 @@ export const heightRangeSchema = z.object({
   step: z.number().positive('must be a positive step in metres'),
 })
 
+export const THRESHOLD_KINDS = ['mean-sea-level', 'flood-level'] as const
+export const DEFAULT_DESIGN_LIFE_CHANCE = 0.1
+
+/**
+ * A height in metres above mean sea level at the outlook's baseline year. A `mean-sea-level` threshold is
+ * compared with the rise, a `flood-level` with the total water level (annual maximum plus rise).
+ */
 export const thresholdSchema = z.object({
   key: z.string().min(1).optional(),
   height: finite,
+  kind: z.enum(THRESHOLD_KINDS).default('mean-sea-level'),
   designLifeYears: z.number().int('must be a whole number of years').positive('must be at least 1 year').optional(),
+  /** First year of the asset's life (its build year); required with designLifeYears. */
+  lifeStartYear: year.optional(),
+  /** Chance of at least one exceedance during the life that the design-life level is defined by. */
+  designLifeChance: z
+    .number()
+    .gt(0, 'must be a chance above 0')
+    .lt(1, 'must be a chance below 1')
+    .default(DEFAULT_DESIGN_LIFE_CHANCE),
 })
 
 export const gumbelSchema = z.object({

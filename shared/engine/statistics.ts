@@ -1,8 +1,29 @@
-// Summaries read from mergeable counts.
+import type { Estimate } from './types'
+
+// Summaries read from mergeable counts and sums.
+
+/**
+ * A variance below this fraction of the mean square it is taken from is what rounding leaves of the
+ * difference of two sums over up to two million samples (each adds a relative error of 2⁻⁵³).
+ */
+const CANCELLATION = 1e-9
 
 /** Monte Carlo standard error of a proportion p estimated from n samples. */
 export function proportionStandardError(p: number, n: number): number {
   return n > 0 ? Math.sqrt(Math.max(0, p * (1 - p)) / n) : 0
+}
+
+/**
+ * Mean of per-sample values from Σd and Σd² of their deviations d from `reference`, with the standard
+ * error of a mean, √(s²/N). Taken about a reference near the values, so values without spread (a rise
+ * with no uncertainty) have deviations of exactly zero and report a standard error of 0.
+ */
+export function meanFromDeviations(reference: number, sum: number, squares: number, n: number): Estimate {
+  const meanDeviation = sum / n
+  const meanSquare = squares / n
+  const spread = meanSquare - meanDeviation * meanDeviation
+  const variance = spread > CANCELLATION * meanSquare ? spread : 0
+  return { value: reference + meanDeviation, se: n > 1 ? Math.sqrt(variance / (n - 1)) : 0 }
 }
 
 export interface HistogramView {

@@ -1,16 +1,13 @@
+import { annualExceedance, factoredExceedance, lifeLogSum, lifeNoExceedance } from './flood-chance'
 import { PASS, SLOTS_PER_PASS, type SamplerTables } from './sampler-tables'
-import { ROW, type TileScratch } from './tile-scratch'
+import { ROW, TILE, type TileScratch } from './tile-scratch'
 import type { OutlookPlan } from './types'
 
 // The float sums of a tile and of a block: moments, variance-share sums and the Gumbel statistics.
 // Their order of addition is fixed by the tile and block split, which keeps them reproducible.
 
-/** Σ_{j=1..steps} exp(a + j·d), for a + j·d ≤ 0 on the run, without overflow or cancellation. */
-function geometricRun(a: number, d: number, steps: number): number {
-  if (d > 0) return Math.exp(a + steps * d) * (Math.expm1(-steps * d) / Math.expm1(-d))
-  if (d < 0) return Math.exp(a + d) * (Math.expm1(steps * d) / Math.expm1(d))
-  return steps * Math.exp(a)
-}
+/** Per tile sample, e^{(rise − center)/λ} of the year at hand (a module array, like `CELLS` in `tile-counts.ts`). */
+const GROWTH = new Float64Array(TILE)
 
 /**
  * The centred basis when the value loop summed levels: per column, the sum of its slots' centred values,
@@ -212,6 +209,12 @@ export function blockSumsByYear(plan: OutlookPlan, scratch: TileScratch, sums: F
   }
 }
 
+/**
+ * The Gumbel sums of a tile: Σ exp((rise − center)/λ) per year; per year and Gumbel level the annual
+ * chance of exceeding it, as deviations from the reference chance and their squares (their spread gives
+ * the standard error of the mean chance); per life span each sample's ln Σ_years e^{rise/λ}, counted in
+ * the span's histogram and turned into each of its thresholds' chance of no exceedance in the life.
+ */
 export function gumbelTile(
   plan: OutlookPlan,
   tables: SamplerTables,
@@ -219,50 +222,70 @@ export function gumbelTile(
   tileCount: number,
   sums: Float64Array,
   sumOffset: number,
+  lifeHistogram: Uint32Array,
 ): void {
   const gumbel = plan.gumbel!
   const inverseScale = 1 / gumbel.scale
   const yearCount = plan.years.length
   const rise = scratch.rise
   const expAt = sumOffset + plan.sumLayout.gumbelExp
-  const chanceAt = sumOffset + plan.sumLayout.returnChance
-  const periods = gumbel.returnPeriods
+  const chanceAt = sumOffset + plan.sumLayout.annualChance
+  const levels = gumbel.levels
+  const growth = GROWTH
   for (let t = 0; t < yearCount; t++) {
     const riseAt = t * ROW
     const center = plan.center[t]!
     let sum = 0
-    for (let i = 0; i < tileCount; i++) sum += Math.exp((rise[riseAt + i]! - center) * inverseScale)
+    for (let i = 0; i < tileCount; i++) {
+      const value = Math.exp((rise[riseAt + i]! - center) * inverseScale)
+      growth[i] = value
+      sum += value
+    }
     sums[expAt + t]! += sum
-    for (let r = 0; r < periods.length; r++) {
-      // Annual chance of exceeding today's T-year level z_T after a rise: 1 − F(z_T − rise) =
-      // 1 − exp(−y_T·e^{rise/λ}), with y_T = −ln(1 − 1/T).
-      const reducedVariate = -Math.log1p(-1 / periods[r]!)
-      let chance = 0
-      for (let i = 0; i < tileCount; i++) chance -= Math.expm1(-reducedVariate * Math.exp(rise[riseAt + i]! * inverseScale))
-      sums[chanceAt + t * periods.length + r]! += chance
+    for (let k = 0; k < levels.length; k++) {
+      const factor = gumbel.levelFactor[t * levels.length + k]!
+      const reference = gumbel.levelReference[t * levels.length + k]!
+      let deviations = 0
+      let squares = 0
+      if (factor > 0) {
+        for (let i = 0; i < tileCount; i++) {
+          const deviation = factoredExceedance(growth[i]!, factor) - reference
+          deviations += deviation
+          squares += deviation * deviation
+        }
+      } else {
+        const shift = levels[k]! - gumbel.location
+        for (let i = 0; i < tileCount; i++) {
+          const deviation = annualExceedance(rise[riseAt + i]!, shift, inverseScale) - reference
+          deviations += deviation
+          squares += deviation * deviation
+        }
+      }
+      const at = chanceAt + 2 * (t * levels.length + k)
+      sums[at]! += deviations
+      sums[at + 1]! += squares
     }
   }
   const lifeAt = sumOffset + plan.sumLayout.lifeNoExceedance
   for (let s = 0; s < tables.lifeSegments.length; s++) {
     const segments = tables.lifeSegments[s]!
-    const lifeThresholds = plan.thresholds.filter((threshold) => threshold.lifeSpanIndex === s)
+    const span = plan.lifeSpans[s]!
+    const members = tables.lifeThresholds[s]!
+    const inverseWidth = 1 / span.width
+    // Cell k holds values within half a width of origin + (firstBin + k − 1)·width (see `LifeSpan`).
+    const cellShift = 1.5 - span.firstBin
+    const lastCell = span.bins + 1
     for (let i = 0; i < tileCount; i++) {
-      let peak = 0
-      for (const segment of segments) {
-        const to = rise[segment.to * ROW + i]! * inverseScale
-        if (to > peak) peak = to
-      }
-      let total = 0
-      for (const segment of segments) {
-        const from = segment.from < 0 ? 0 : rise[segment.from * ROW + i]! * inverseScale
-        const to = rise[segment.to * ROW + i]! * inverseScale
-        total += geometricRun(from - peak, (to - from) / segment.span, segment.steps)
-      }
-      // ln Σ_years e^{rise/λ}; the chance of no exceedance in the life is Π_years F(h − rise) =
-      // exp(−e^{−(h−μ)/λ} · Σ_years e^{rise/λ}).
-      const logSum = peak + Math.log(total)
-      for (const threshold of lifeThresholds) {
-        sums[lifeAt + threshold.lifeSumIndex!]! += Math.exp(-Math.exp(logSum - (threshold.height - gumbel.location) * inverseScale))
+      const logSum = lifeLogSum(segments, rise, ROW, i, inverseScale)
+      let cell = (logSum - span.origin) * inverseWidth + cellShift
+      cell = cell < 0 ? 0 : cell > lastCell ? lastCell : cell | 0
+      lifeHistogram[span.histogramOffset + cell]!++
+      for (let m = 0; m < members.length; m++) {
+        const threshold = plan.thresholds[members[m]!]!
+        const deviation = lifeNoExceedance(logSum, threshold.height - gumbel.location, inverseScale) - threshold.lifeReference!
+        const at = lifeAt + 2 * threshold.lifeSumIndex!
+        sums[at]! += deviation
+        sums[at + 1]! += deviation * deviation
       }
     }
   }

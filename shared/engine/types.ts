@@ -9,16 +9,43 @@ export type ComponentKind = typeof COMPONENT_KIND_PIECEWISE | typeof COMPONENT_K
 
 export const LAND_MOTION_KEY = 'land-motion'
 
+export type ThresholdKind = 'mean-sea-level' | 'flood-level'
+
 export interface ThresholdPlan {
   key: string
   height: number
+  kind: ThresholdKind
   designLifeYears: number | null
-  /** Index of this height in `cuts`. */
-  cutIndex: number
-  /** Index into `lifeSpans` (null without design life or without Gumbel statistics). */
+  lifeStartYear: number | null
+  designLifeChance: number
+  /** Index of this height in `cuts` (mean-sea-level only, else null). */
+  cutIndex: number | null
+  /** Index of this height in `gumbel.levels` (flood-level only, else null). */
+  levelIndex: number | null
+  /** Index into `lifeSpans` (flood levels with a design life, else null). */
   lifeSpanIndex: number | null
-  /** Offset of this threshold's life sum after `sumLayout.lifeNoExceedance` (null when none). */
+  /** Which pair of life sums after `sumLayout.lifeNoExceedance` is this threshold's (null when none). */
   lifeSumIndex: number | null
+  /** Chance of no exceedance during the life along the all-scores-zero trajectory: the life sums' reference. */
+  lifeReference: number | null
+}
+
+/**
+ * A run of L annual maxima, years startYear … startYear + L − 1, and the histogram of each sample's
+ * ln Σ_years e^{rise/λ} over it, cells [underflow, bins…, overflow] from `histogramOffset` in
+ * `OutlookPartial.lifeHistogram`. Bin k (1-based) holds values within half a width of
+ * origin + (firstBin + k − 1)·width; origin is ln L, the value for no rise.
+ */
+export interface LifeSpan {
+  startYear: number
+  years: number
+  origin: number
+  width: number
+  firstBin: number
+  bins: number
+  histogramOffset: number
+  /** ln Σ_years e^{rise/λ} along the all-scores-zero trajectory. */
+  referenceLogSum: number
 }
 
 /**
@@ -97,9 +124,20 @@ export interface OutlookPlan {
   thresholds: ThresholdPlan[]
   tolerances: number[]
 
-  gumbel: { location: number; scale: number; returnPeriods: number[] } | null
-  /** Distinct design lives (years), each a run of annual steps after the baseline year. */
-  lifeSpans: number[]
+  gumbel: {
+    location: number
+    scale: number
+    returnPeriods: number[]
+    /** Heights whose annual chance of being exceeded is summed per year: today's T-year levels, then the flood levels. */
+    levels: number[]
+    /** Per year and level: e^{(center − (level − μ))/λ}, or 0 where the loop uses the direct form (`annualFactor`). */
+    levelFactor: Float64Array
+    /** Per year and level: the annual chance along the all-scores-zero trajectory, the sums' reference. */
+    levelReference: Float64Array
+  } | null
+  /** Distinct (start year, design life) pairs of flood levels. */
+  lifeSpans: LifeSpan[]
+  lifeHistogramSize: number
   /** Sums per block, in this order: see `sumLayout`. */
   sumsPerBlock: number
   sumLayout: SumLayout
@@ -114,9 +152,12 @@ export interface SumLayout {
   partCross: number
   /** Per year: Σ exp((rise − center)/λ). */
   gumbelExp: number
-  /** Per year and return period: Σ annual chance of exceeding today's T-year level. */
-  returnChance: number
-  /** Per threshold with a design life: Σ chance of no exceedance during the life. */
+  /**
+   * Per year and Gumbel level (`gumbel.levels`): Σd and Σd², d a sample's annual chance of exceeding the
+   * level less `gumbel.levelReference`'s (about a reference, so a rise without spread gives exactly zero spread).
+   */
+  annualChance: number
+  /** Per threshold with a design life: Σd and Σd², d its chance of no exceedance during the life less `lifeReference`. */
   lifeNoExceedance: number
 }
 
@@ -128,6 +169,8 @@ export interface OutlookPartial {
   /** Per year, (cuts + 1) cells: how many samples have exactly k cuts strictly below their rise. */
   cellCounts: Uint32Array
   histogram: Uint32Array
+  /** Per life span, counts of ln Σ_years e^{rise/λ} (see `LifeSpan`). */
+  lifeHistogram: Uint32Array
   /** Per year, smallest and largest rise seen (exact under any merge order). */
   minimum: Float64Array
   maximum: Float64Array
@@ -169,20 +212,37 @@ export interface YearGumbel {
     level: number
     /** 1 / (mean annual chance of exceeding that level), years. */
     newReturnPeriod: number
+    /** Mean over samples of the annual chance; its SE is that of a mean of per-sample chances. */
     annualChance: Estimate
   }>
 }
 
+export interface FloodLevelOutlook {
+  /** Per output year: chance that year's annual maximum exceeds the height, mean over samples of 1 − F(h − rise). */
+  annualChance: Estimate[]
+  /** Per output year: expected number of exceedances a year, e^{−(h−μ)/λ} · mean e^{rise/λ} (the Gumbel's Poisson rate). */
+  expectedPerYear: number[]
+  /** Per output year: 1 / annualChance, years; null where the chance is 0. */
+  returnPeriodYears: Array<number | null>
+}
+
 export interface ThresholdOutlook {
   key: string
+  /** Metres above mean sea level at the baseline year. */
   height: number
+  kind: ThresholdKind
   designLifeYears: number | null
-  /** P(rise > height) per output year. */
+  lifeStartYear: number | null
+  /** mean-sea-level only: P(rise > height) per output year. Empty for a flood level: it is never worded from the mean-sea-level chance. */
   byYear: Estimate[]
-  /** First output year whose P reaches each tolerance; null = not within the horizon. */
+  /** mean-sea-level only: first output year whose P reaches each tolerance (null = not within the horizon); empty for a flood level. */
   triggerYears: Array<{ tolerance: number; year: number | null }>
-  /** Chance of at least one exceedance of the height by the total water level during the design life. */
+  /** flood-level only (null otherwise). */
+  flood: FloodLevelOutlook | null
+  /** flood-level with a life: chance of at least one exceedance during years lifeStartYear … lifeStartYear+L−1. */
   lifeExceedance: Estimate | null
+  /** flood-level with a life: the height (same reference as `height`) with `chance` of at least one exceedance during the life (design-life level, Rootzén & Katz 2013, Water Resources Research). */
+  designLifeLevel: { chance: number; level: number } | null
 }
 
 export interface OutlookResult {

@@ -47,6 +47,55 @@ function checkRelease(
   }
 }
 
+/**
+ * A flood level is compared with the total water level, so it needs the Gumbel statistics; a design life
+ * belongs to a flood level and runs over the annual maxima of years lifeStartYear … lifeStartYear + L − 1,
+ * which must lie between the baseline year and the last output year (the rise is known only there).
+ */
+function thresholdIssues(input: ParsedOutlookInput): EngineInputIssue[] {
+  const issues: EngineInputIssue[] = []
+  const lastYear = input.years[input.years.length - 1]!
+  input.thresholds.forEach((threshold, i) => {
+    const path = `thresholds[${i}]`
+    const life = threshold.designLifeYears
+    const start = threshold.lifeStartYear
+    if (threshold.kind === 'flood-level' && !input.gumbel) {
+      issues.push({
+        path: `${path}.kind`,
+        message: "a flood level compares the total water level (annual maximum plus rise) with the height, so it needs the site's extreme-water statistics (gumbel location and scale); add them or make it a mean-sea-level threshold",
+      })
+    }
+    if (life !== undefined && threshold.kind === 'mean-sea-level') {
+      issues.push({
+        path: `${path}.designLifeYears`,
+        message: 'a design life counts floods over an asset\'s life, which a mean-sea-level threshold does not have; make it a flood level (kind "flood-level") or remove the design life',
+      })
+    }
+    if (life !== undefined && start === undefined) {
+      issues.push({ path: `${path}.lifeStartYear`, message: 'is needed with designLifeYears: give the first year of the asset\'s life (its build year)' })
+    }
+    if (start !== undefined && life === undefined) {
+      issues.push({ path: `${path}.designLifeYears`, message: 'is needed with lifeStartYear: give the asset\'s design life in years, or remove lifeStartYear' })
+    }
+    if (start !== undefined && start < input.baselineYear) {
+      issues.push({
+        path: `${path}.lifeStartYear`,
+        message: `the life would start in ${start}, before the reference epoch ${input.baselineYear} that heights and rise are counted from; start it in ${input.baselineYear} or later`,
+      })
+    }
+    if (start !== undefined && life !== undefined) {
+      const end = start + life - 1
+      if (end > lastYear) {
+        issues.push({
+          path: `${path}.designLifeYears`,
+          message: `the design life runs from ${start} to ${end}, after the last output year ${lastYear}; add output years up to ${end} or shorten the life`,
+        })
+      }
+    }
+  })
+  return issues
+}
+
 /** Parses and checks an outlook request; throws EngineInputError listing every problem. */
 export function validateOutlookInput(raw: unknown): ValidatedOutlookInput {
   const parsed = outlookInputSchema.safeParse(raw)
@@ -109,19 +158,7 @@ export function validateOutlookInput(raw: unknown): ValidatedOutlookInput {
     }
   }
 
-  if (input.gumbel) {
-    const lastYear = input.years[input.years.length - 1]!
-    input.thresholds.forEach((threshold, i) => {
-      if (threshold.designLifeYears === undefined) return
-      const end = input.baselineYear + threshold.designLifeYears
-      if (end > lastYear) {
-        issues.push({
-          path: `thresholds[${i}].designLifeYears`,
-          message: `the design life ends in ${end}, after the last output year ${lastYear}; add output years up to ${end} or shorten the life`,
-        })
-      }
-    })
-  }
+  issues.push(...thresholdIssues(input))
 
   if (issues.length) throw new EngineInputError(issues)
   return { ...input, heights, choleskyFactor }

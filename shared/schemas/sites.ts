@@ -1,33 +1,48 @@
 import { z } from 'zod'
 import { MAX_SAMPLES } from '../engine'
-import { LAND_MOTION_SOURCES } from '../types/science'
+import { DATUM_KINDS, LAND_MOTION_SOURCES, THRESHOLD_KINDS } from '../types/science'
 import { scenarioField } from './releases'
 
-// Coastal sites as a planner enters them. Heights are metres above the site's reference level;
-// land motion is mm/yr with negative meaning the land sinks (which adds to the local rise).
+// Coastal sites as a planner enters them. Heights are metres above the site's datum; rise is counted
+// from the site's reference epoch; land motion is mm/yr with negative meaning the land sinks (which
+// adds to the local rise).
 
 const number = (what: string, min: number, max: number, unit: string) =>
   z.number({ error: `Enter the ${what} as a number.` })
     .min(min, { error: `The ${what} must be at least ${min} ${unit}.` })
     .max(max, { error: `The ${what} must be at most ${max} ${unit}.` })
 
+const year = (what: string) => z.number({ error: `Enter the ${what} as a year.` }).int({ error: 'Enter a whole year.' })
+  .min(1900, { error: `The ${what} must be 1900 or later.` }).max(2100, { error: `The ${what} must be 2100 or earlier.` })
+
 export const ThresholdSchema = z.object({
   label: z.string({ error: 'Name the threshold, like "Harbour wall crest".' }).trim()
     .min(1, { error: 'Name the threshold, like "Harbour wall crest".' }).max(120, { error: 'Use at most 120 characters.' }),
   height: number('height', -5, 20, 'm'),
+  kind: z.enum(THRESHOLD_KINDS, { error: 'Say whether the height is for the mean sea level or a flood level (the total water level).' }).default('mean-sea-level'),
+  buildYear: year('build year').nullable().optional(),
   designLifeYears: z.number({ error: 'Enter the design life in whole years, or leave it empty.' }).int({ error: 'Enter whole years.' }).min(1, { error: 'A design life is at least 1 year.' })
     .max(200, { error: 'A design life is at most 200 years.' }).nullable().optional(),
 }, { error: 'Enter each threshold as { label, height }.' })
 
 export const MAX_THRESHOLDS = 12
 
-export const SiteSchema = z.object({
+/** Bounds of extreme-water statistics, in metres above the datum: the form, the API and an upload's fit share them. */
+export const GUMBEL_BOUNDS = { location: { min: -10, max: 20 }, scale: { max: 5 } } as const
+
+const SiteFields = z.object({
   name: z.string({ error: 'Enter the site name.' }).trim().min(1, { error: 'Enter the site name.' }).max(120, { error: 'Use at most 120 characters.' }),
   latitude: number('latitude', -90, 90, 'degrees'),
   longitude: number('longitude', -180, 180, 'degrees'),
   referenceLevel: z.string({ error: 'Say which level heights here are measured from.' }).trim()
-    .min(1, { error: 'Say which level heights here are measured from, like "local chart datum" or "mean sea level 2000–2019".' })
+    .min(1, { error: 'Name the datum heights here are measured above, like "Harbour chart datum" or "mean sea level 1995–2014".' })
     .max(300, { error: 'Use at most 300 characters.' }),
+  datum: z.object({
+    kind: z.enum(DATUM_KINDS, { error: 'Choose the kind of datum: mean sea level at an epoch, a land survey datum or a chart datum.' }),
+    offset: z.number({ error: 'Enter how many metres mean sea level at the reference epoch stands above the datum (0 when the datum is that mean sea level).' })
+      .min(-50, { error: 'The datum offset must be at least -50 m.' }).max(50, { error: 'The datum offset must be at most 50 m.' }),
+  }, { error: 'Enter the datum: its kind and its offset to mean sea level.' }),
+  referenceEpoch: year('reference epoch'),
   landMotion: z.object({
     rateMmPerYear: number('land-motion rate', -100, 100, 'mm/yr'),
     sigmaMmPerYear: number('land-motion uncertainty', 0, 50, 'mm/yr'),
@@ -38,16 +53,40 @@ export const SiteSchema = z.object({
   }, { error: 'Enter the land motion.' }),
   thresholds: z.array(ThresholdSchema, { error: 'Send the thresholds as a list of { label, height }.' }).max(MAX_THRESHOLDS, { error: `At most ${MAX_THRESHOLDS} thresholds per site.` }).default([]),
   gumbel: z.object({
-    location: number('Gumbel location', -10, 20, 'm'),
-    scale: z.number({ error: 'Enter the Gumbel scale as a number.' }).positive({ error: 'The Gumbel scale must be above 0 m.' }).max(5, { error: 'The Gumbel scale must be at most 5 m.' }),
+    location: number('Gumbel location', GUMBEL_BOUNDS.location.min, GUMBEL_BOUNDS.location.max, 'm'),
+    scale: z.number({ error: 'Enter the Gumbel scale as a number.' }).positive({ error: 'The Gumbel scale must be above 0 m.' })
+      .max(GUMBEL_BOUNDS.scale.max, { error: `The Gumbel scale must be at most ${GUMBEL_BOUNDS.scale.max} m.` }),
   }).nullable().optional(),
 })
+
+type SiteFieldsInput = z.infer<typeof SiteFields>
+
+/** Rules between fields: a life needs a build year on a flood level, and starts at or after the reference epoch. */
+function checkThresholds(site: SiteFieldsInput, context: z.RefinementCtx) {
+  site.thresholds.forEach((threshold, i) => {
+    const issue = (field: string, message: string) => context.addIssue({ code: 'custom', path: ['thresholds', i, field], message })
+    const hasLife = threshold.designLifeYears != null
+    const hasBuild = threshold.buildYear != null
+    if (threshold.kind === 'mean-sea-level' && (hasLife || hasBuild)) {
+      issue(hasLife ? 'designLifeYears' : 'buildYear', 'A build year and design life belong to a flood level (the total water level over the asset\'s life); make this threshold a flood level or leave them empty.')
+    }
+    if (hasLife && !hasBuild) issue('buildYear', 'Enter the year the asset starts to serve: its design life counts from then.')
+    if (hasBuild && !hasLife) issue('designLifeYears', 'Enter the design life in years, or leave the build year empty too.')
+    if (hasBuild && threshold.buildYear! < site.referenceEpoch) {
+      issue('buildYear', `The build year ${threshold.buildYear} is before the reference epoch ${site.referenceEpoch}; rise is counted from the epoch, so use a build year from ${site.referenceEpoch} on or an earlier epoch.`)
+    }
+    if (threshold.kind === 'flood-level' && site.gumbel === null) {
+      issue('kind', 'A flood level is compared with the total water level and needs the site\'s extreme-water statistics; enter them or make this a mean-sea-level threshold.')
+    }
+  })
+}
+
+export const SiteSchema = SiteFields.superRefine(checkThresholds)
 
 export const AnnualMaximaSchema = z.object({
   csv: z.string({ error: 'Upload a CSV of annual maxima with the columns year,value.' }).max(1_000_000, { error: 'The file is larger than 1 MB.' }),
 })
 
-export const MIN_ANNUAL_MAXIMA = 10
 
 export const OutlookRequestSchema = z.object({
   scenario: scenarioField,

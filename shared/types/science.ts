@@ -25,5 +25,19 @@ export type AmountUnit = typeof AMOUNT_UNITS[number]
 export const LAND_MOTION_SOURCES = ['gps', 'insar', 'model', 'other'] as const
 export type LandMotionSource = typeof LAND_MOTION_SOURCES[number]
 
+/**
+ * What a site's heights are measured above: mean sea level at an epoch, a land survey (levelling)
+ * datum, or a chart datum. Each carries its offset to mean sea level at the site's reference epoch.
+ */
+export const DATUM_KINDS = ['mean-sea-level', 'land-survey', 'chart'] as const
+export type DatumKind = typeof DATUM_KINDS[number]
+
+/**
+ * A mean-sea-level threshold is a height the mean sea level may pass; a flood level is a height of the
+ * total water level (a crest, a floor, a road), reached by the annual maxima on top of the mean.
+ */
+export const THRESHOLD_KINDS = ['mean-sea-level', 'flood-level'] as const
+export type ThresholdKind = typeof THRESHOLD_KINDS[number]
+
 export const OUTLOOK_STATES = ['running', 'done', 'failed'] as const
 export type OutlookState = typeof OUTLOOK_STATES[number]

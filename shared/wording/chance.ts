@@ -79,8 +79,8 @@ export interface HeadlineParts {
 }
 
 /**
- * "There is a 23 % chance (unlikely) that the sea here will be more than 0.50 m above <reference>
- * by 2070."
+ * "There is a 23 % chance (unlikely) that the mean sea level here will be more than 0.50 m above
+ * <datum> by 2070." Only for mean-sea-level thresholds: a flood level is worded in wording/flood.ts.
  */
 export function headlineSentence(parts: HeadlineParts): string {
   const { probability, language } = parts
@@ -90,6 +90,6 @@ export function headlineSentence(parts: HeadlineParts): string {
   const note = samplingNote(parts.standardError, language)
   const qualifier = note ? `(${word}; ${note})` : `(${word})`
   return language === 'es'
-    ? `Hay una probabilidad del ${chance} ${qualifier} de que el mar aquí esté más de ${height} por encima de ${parts.referenceLevel} en ${parts.year}.`
-    : `There is a ${chance} chance ${qualifier} that the sea here will be more than ${height} above ${parts.referenceLevel} by ${parts.year}.`
+    ? `Hay una probabilidad del ${chance} ${qualifier} de que el nivel medio del mar aquí esté más de ${height} por encima de ${parts.referenceLevel} en ${parts.year}.`
+    : `There is a ${chance} chance ${qualifier} that the mean sea level here will be more than ${height} above ${parts.referenceLevel} by ${parts.year}.`
 }

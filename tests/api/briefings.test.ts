@@ -42,8 +42,14 @@ describe('briefings', () => {
     expect(body).toMatchObject({ state: 'draft', version: 1, canEdit: true, shared: false })
     const doc = body.document
     expect(doc.meta).toMatchObject({ siteName: 'Kelwick', scenario: 'SSP2-4.5', illustrative: true, issuedAt: null })
-    expect(doc.summary.lines).toHaveLength(4)
-    expect(doc.summary.lines[0]).toMatch(/^High-tide flooding of Quay Street \(0\.50 m\): .+ — (\d+|less than 1|more than 99)\u00A0%, [a-z ]+ — that the sea is higher than this by 2050\.$/)
+    // Two years of the mean-sea-level threshold; two years, the life and the design-life level of the flood level.
+    expect(doc.summary.lines).toHaveLength(6)
+    expect(doc.summary.lines[0]).toMatch(/^High-tide flooding of Quay Street \(0\.50 m\): .+ — (\d+|less than 1|more than 99)\u00A0%, [a-z ]+ — that the mean sea level here is higher than this by 2050\.$/)
+    const wall = doc.summary.lines.filter((line: string) => /^Sea wall crest|^Built in|design-life level/.test(line))
+    expect(wall).toHaveLength(4)
+    expect(wall[0]).toMatch(/^Sea wall crest \(flood level, 2\.30 m\): In 2050 the water is expected to reach 2\.30 m above .+: a .+ chance in any one year\.$/)
+    expect(wall.join(' ')).not.toMatch(/exceptionally unlikely/)
+    expect(doc.table.rows.map((r: { measure: string }) => r.measure)).toContain('Flood level: the water reaches it in that year')
     expect(doc.table.rows.map((r: { scenario: string }) => r.scenario)).toEqual(['SSP2-4.5', 'SSP2-4.5', 'SSP5-8.5', 'SSP5-8.5'])
     expect(doc.extremes).toHaveLength(2)
     expect(doc.basis.releases.length).toBe(14)

@@ -92,11 +92,12 @@ describe('watching a site by e-mail', () => {
     const after = (await planner.get(`/api/outlooks/${outlooks[0].id}`)).body
     expect(after.releaseRefs.find((r: { component: string }) => r.component === 'glaciers').releaseId).toBe(releaseId)
     const year = after.result.years.indexOf(2100)
-    const chance = (o: { result: { thresholds: { byYear: { value: number }[] }[] } }) => formatChance(o.result.thresholds[1]!.byYear[year]!.value, 'en')
-    expect(english.text).toContain(`Railway embankment (1.50 m, SSP2-4.5)  |  2100  |  ${chance(before)}  |  ${chance(after)}`)
+    // The railway embankment is a flood level: its number is the chance the water reaches it in that year.
+    const chance = (o: { result: { thresholds: { flood: { annualChance: { value: number }[] } }[] } }) => formatChance(o.result.thresholds[1]!.flood.annualChance[year]!.value, 'en')
+    expect(english.text).toContain(`Railway embankment (1.90 m, flood level: chance the water reaches it that year, SSP2-4.5)  |  2100  |  ${chance(before)}  |  ${chance(after)}`)
     expect(english.text).toMatch(/Glaciers \(SSP2-4\.5\) {2}\| {2}v1 {2}\| {2}v2 {2}\| {2}Glaciers revised \(0\.16\)/)
     expect(english.text).toMatch(new RegExp(`Read the latest briefing: ${server.url}/shared/${shareToken}`))
-    expect(spanish.text).toContain('Probabilidad de superar cada umbral')
+    expect(spanish.text).toContain('La probabilidad para cada umbral')
 
     await expect.poll(async () => (await (await as(ADMIN.email, ADMIN.password)).get('/api/admin/outbox')).body.messages.filter((m: { state: string }) => m.state === 'queued').length).toBe(0)
     expect(smtp.to('councillor@example.org').filter(m => /has changed/.test(m.subject ?? ''))).toHaveLength(1)

@@ -48,7 +48,8 @@ describe('a planner at work on the map and the outlook page', () => {
     expect(longitude).toBeLessThan(-31.5)
 
     await page.getByLabel('Site name').fill('Test Harbour')
-    await page.getByLabel('Reference level').fill(REFERENCE)
+    await page.getByLabel('Reference epoch (year)').fill('2020')
+    await page.getByLabel('Datum name').fill(REFERENCE)
     await page.getByLabel(/^Rate/).fill('-3')
     await expect.poll(() => page.getByTestId('land-hint').textContent()).toMatch(/^Sinking 3\.0 mm\/yr adds about 0\.2\d m to the local rise between 20\d\d and 2100\.$/)
     await page.getByLabel(/^Uncertainty/).fill('0.8')
@@ -73,7 +74,7 @@ describe('a planner at work on the map and the outlook page', () => {
 
     const english = await sentences()
     expect(english).toHaveLength(2)
-    expect(english[0]).toMatch(new RegExp(`^There is a (\\d+|less than 1|more than 99)\u00A0% chance \\([a-z ;±.0-9\u00A0%]+\\) that the sea here will be more than 0\\.50 m above ${REFERENCE.replace(/[()]/g, '\\$&')} by 2050\\.$`))
+    expect(english[0]).toMatch(new RegExp(`^There is a (\\d+|less than 1|more than 99)\u00A0% chance \\([a-z ;±.0-9\u00A0%]+\\) that the mean sea level here will be more than 0\\.50 m above ${REFERENCE.replace(/[()]/g, '\\$&')} by 2050\\.$`))
     expect(english[1]).toMatch(/more than 0\.50 m above .* by 2100\.$/)
     for (const chart of ['exceedance-chart', 'fan-chart', 'timeline-chart', 'variance-chart']) {
       expect(await page.getByTestId(chart).getByTestId('chart-table').last().locator('tbody tr').count(), chart).toBeGreaterThan(3)
@@ -93,7 +94,7 @@ describe('a planner at work on the map and the outlook page', () => {
     await expect.poll(async () => (await sentences())[0]).toContain('more than 1.6 ft above')
 
     await page.getByTestId('language-switcher').selectOption('es')
-    await expect.poll(async () => (await sentences())[0]).toMatch(/^Hay una probabilidad del .* de que el mar aquí esté más de 1,6 ft por encima de .* en 2050\.$/)
+    await expect.poll(async () => (await sentences())[0]).toMatch(/^Hay una probabilidad del .* de que el nivel medio del mar aquí esté más de 1,6 ft por encima de .* en 2050\.$/)
     expect(await page.getByRole('heading', { level: 1 }).textContent()).toBe('Perspectiva para Test Harbour')
     // The notes on how it was put together are stored as facts and worded in the reader's language.
     expect(await page.getByTestId('outlook-notes').textContent()).toContain('No hay ningún conjunto de correlaciones publicado para SSP2-4.5; los componentes se muestrearon como independientes.')

@@ -27,6 +27,8 @@ function site(i: number) {
     latitude: 47.2 + (i % 20) * 0.08,
     longitude: -35.5 + Math.floor(i / 20) * 0.2,
     referenceLevel: 'Mean sea level 2020 (load test)',
+    datum: { kind: 'mean-sea-level', offset: 0 },
+    referenceEpoch: 2020,
     landMotion: { rateMmPerYear: -3 + (i % 7), sigmaMmPerYear: 0.5, source: 'gps', reference: 'Load test', epoch: 2020 },
     thresholds: [{ label: 'Quay', height: 0.6 + (i % 5) * 0.1 }],
   }

@@ -20,6 +20,8 @@ export const SITE_BODY = (name: string) => ({
   latitude: 47.7,
   longitude: -34.8,
   referenceLevel: 'Mean sea level 2020 (illustrative)',
+  datum: { kind: 'mean-sea-level', offset: 0 },
+  referenceEpoch: 2020,
   landMotion: { rateMmPerYear: -2, sigmaMmPerYear: 0.5, source: 'gps', reference: '', epoch: 2020 },
   thresholds: [{ label: 'Quay', height: 0.8 }],
 })
@@ -29,7 +31,7 @@ export const newCorrelationSet = (scenario: string, title: string) => ({ scenari
 // Far from the demo coast, so publishing one never changes a demo outlook.
 export const newGrid = (component: string, title: string) => ({ component, title, latitudes: [-60, -50], longitudes: [100, 110], factors: [[1, 1], [1, 1]], ...PROVENANCE })
 export const OUTLOOK_REQUEST = { scenario: 'SSP2-4.5', samples: 2000, seed: 5 }
-export const ANNUAL_MAXIMA_CSV = `year,value\n${Array.from({ length: 12 }, (_, i) => `${2000 + i},${(1.4 + (i % 5) * 0.05).toFixed(2)}`).join('\n')}\n`
+export const ANNUAL_MAXIMA_CSV = `year,value\n${Array.from({ length: 24 }, (_, i) => `${2000 + i},${(1.4 + (i % 5) * 0.05).toFixed(2)}`).join('\n')}\n`
 
 type Kind = 'releases' | 'correlation-sets' | 'scale-factor-grids'
 interface Reviewed { read: string, submit: string, approve: string, return: string, withdraw: string, series?: string }

@@ -18,8 +18,8 @@ function source(probability: number, overrides: Partial<BriefingSource> = {}): B
   return {
     language: 'en', units: 'm', title: 'Test', audience: '', localContext: '', version: 1, previousVersion: null, issuedAt: null,
     livePath: '/briefings/x', illustrative: false,
-    site: { name: 'Testport', referenceLevel: 'MSL 2020', landMotionRate: -2, landMotionSigma: 0.5, landMotionSource: 'gps', landMotionReference: 'Station T', landMotionEpoch: 2020 },
-    thresholds: [{ id: 't1', label: 'Quay', height: 0.5 }],
+    site: { name: 'Testport', referenceLevel: 'MSL 2020', landMotionRate: -2, landMotionSigma: 0.5, landMotionSource: 'gps', landMotionReference: 'Station T', landMotionEpoch: 2020, datumKind: 'mean-sea-level', datumOffset: 0, referenceEpoch: 2020 },
+    thresholds: [{ id: 't1', label: 'Quay', height: 0.5, kind: 'mean-sea-level' }],
     years: [2100],
     outlooks: [{ scenario: 'SSP2-4.5', inputHash: 'abc', samples: 4000, seed: 5, correlated: false, result: patched, releaseRefs: [{ component: 'glaciers', version: 3, citation: 'Cite (2026)', state: 'published', scale: 1, scaleSource: null }] }],
     ...overrides,
@@ -31,17 +31,17 @@ const line = (p: number, overrides: Partial<BriefingSource> = {}) => buildBriefi
 describe('briefing summary sentences', () => {
   it('give the chance as odds and a number first, then the calibrated word, at the edges and boundaries', () => {
     // [pub] Mastrandrea et al. (2010) Table 1 for the words; a boundary takes the more cautious word.
-    expect(line(0)).toBe('Quay (0.50 m): less than 1 in 100 — less than 1 %, exceptionally unlikely — that the sea is higher than this by 2100.')
-    expect(line(0.01)).toBe('Quay (0.50 m): about a 1-in-100 chance — 1 %, extremely unlikely — that the sea is higher than this by 2100.')
-    expect(line(0.33)).toBe('Quay (0.50 m): about a 1-in-3 chance — 33 %, about as likely as not — that the sea is higher than this by 2100.')
-    expect(line(0.66)).toBe('Quay (0.50 m): about 2 in 3 — 66 %, about as likely as not — that the sea is higher than this by 2100.')
-    expect(line(0.99)).toBe('Quay (0.50 m): about 99 in 100 — 99 %, extremely likely — that the sea is higher than this by 2100.')
-    expect(line(1)).toBe('Quay (0.50 m): near certain — more than 99 %, virtually certain — that the sea is higher than this by 2100.')
+    expect(line(0)).toBe('Quay (0.50 m): less than 1 in 100 — less than 1 %, exceptionally unlikely — that the mean sea level here is higher than this by 2100.')
+    expect(line(0.01)).toBe('Quay (0.50 m): about a 1-in-100 chance — 1 %, extremely unlikely — that the mean sea level here is higher than this by 2100.')
+    expect(line(0.33)).toBe('Quay (0.50 m): about a 1-in-3 chance — 33 %, about as likely as not — that the mean sea level here is higher than this by 2100.')
+    expect(line(0.66)).toBe('Quay (0.50 m): about 2 in 3 — 66 %, about as likely as not — that the mean sea level here is higher than this by 2100.')
+    expect(line(0.99)).toBe('Quay (0.50 m): about 99 in 100 — 99 %, extremely likely — that the mean sea level here is higher than this by 2100.')
+    expect(line(1)).toBe('Quay (0.50 m): near certain — more than 99 %, virtually certain — that the mean sea level here is higher than this by 2100.')
   })
 
   it('speaks Spanish and feet when issued that way', () => {
     // [practice] 0.5 m = 1.64 ft.
-    expect(line(0.25, { language: 'es', units: 'ft' })).toBe('Quay (1,6 ft): aproximadamente 1 entre 4 — 25 %, improbable — de que el mar esté por encima en 2100.')
+    expect(line(0.25, { language: 'es', units: 'ft' })).toBe('Quay (1,6 ft): aproximadamente 1 entre 4 — 25 %, improbable — de que el nivel medio del mar aquí esté por encima en 2100.')
     const doc = buildBriefingDocument(source(0.25, { language: 'es' }))
     expect(doc.cautions[0]).toMatch(/^Las proyecciones no son predicciones/)
     expect(doc.basis.notes.join(' ')).toMatch(/ningún factor de escala publicado cubre este sitio para Glaciares/)
@@ -50,8 +50,9 @@ describe('briefing summary sentences', () => {
   it('states the median and likely range, the table, extremes, basis and cautions', () => {
     const doc = buildBriefingDocument(source(0.5))
     // [practice] a normal rise of 0.5 ± 0.1 m: median 0.50 m, likely range 0.40–0.60 m (±0.954 sd), to sampling error.
-    expect(doc.summary.ranges[0]).toMatch(/^By 2100 the middle estimate of the rise is 0\.(49|50|51) m; it is likely \(two chances in three\) to lie between 0\.(39|40|41) m and 0\.(59|60|61) m\.$/)
-    expect(doc.table.rows).toEqual([{ scenario: 'SSP2-4.5', threshold: 'Quay', height: '0.50 m', chances: [{ probability: 0.5, text: '50\u00A0%' }] }])
+    expect(doc.summary.ranges[0]).toMatch(/^Between 2020 and 2100 the middle estimate of the rise is 0\.(49|50|51) m; it is likely \(two chances in three\) to lie between 0\.(39|40|41) m and 0\.(59|60|61) m\.$/)
+    expect(doc.table.rows).toEqual([{ scenario: 'SSP2-4.5', threshold: 'Quay', height: '0.50 m', measure: 'Mean sea level above it by that year', chances: [{ probability: 0.5, text: '50\u00A0%' }] }])
+    expect(doc.basis.datum).toMatch(/^Heights are above MSL 2020 \(mean sea level at an epoch\); mean sea level stood 0\.00 m above it in 2020, the year every rise here is counted from\./)
     expect(doc.extremes).toHaveLength(1)
     expect(doc.basis.releases[0]).toMatchObject({ component: 'Glaciers', version: 3, citation: 'Cite (2026)' })
     expect(doc.basis.landMotion).toMatch(/^Land motion: -2 mm ± 0.5 mm per year \(negative means the land sinks/)

@@ -103,25 +103,37 @@ describe('allowance and amplification in an outlook', () => {
     const result = withRise(0, 0, {
       years: [2010, 2030, 2050, 2100],
       samples: 1000,
-      thresholds: [{ key: 'quay', height: level100, designLifeYears: 30 }, { key: 'long', height: level100, designLifeYears: 100 }],
+      thresholds: [
+        { key: 'quay', kind: 'flood-level', height: level100, designLifeYears: 30, lifeStartYear: 2001 },
+        { key: 'long', kind: 'flood-level', height: level100, designLifeYears: 100, lifeStartYear: 2001 },
+      ],
     })
     expect(result.thresholds[0]!.lifeExceedance!.value).toBeCloseTo(0.26, 3)
     expect(result.thresholds[1]!.lifeExceedance!.value).toBeCloseTo(0.634, 3)
   })
 
   it('with a rise, multiplies the annual chances of no exceedance year by year', () => {
-    // Rise 0.4 m by 2100 from 2000, linear; life of 60 years: Π_{t=1..60} F(h − 0.004 t).
+    // [practice] independent annual maxima: P(none in the life) = Π_years F(h − rise_year); rise 0.4 m by
+    // 2100 from 2000, linear, so 0.004 m a year; a life of 60 years from 2001 and of 30 from 2045.
     const location = 1
     const scale = 0.1
     const height = gumbelReturnLevel({ location, scale }, 100)
     const result = withRise(0.4, 0, {
       years: [2050, 2100],
       samples: 100,
-      thresholds: [{ height, designLifeYears: 60 }],
+      thresholds: [
+        { kind: 'flood-level', height, designLifeYears: 60, lifeStartYear: 2001 },
+        { kind: 'flood-level', height, designLifeYears: 30, lifeStartYear: 2045 },
+      ],
     })
-    let none = 1
-    for (let t = 1; t <= 60; t++) none *= Math.exp(-Math.exp(-(height - 0.004 * t - location) / scale))
-    expect(result.thresholds[0]!.lifeExceedance!.value).toBeCloseTo(1 - none, 10)
+    const noneDuring = (first: number, last: number) => {
+      let none = 1
+      for (let year = first; year <= last; year++) none *= Math.exp(-Math.exp(-(height - 0.004 * (year - 2000) - location) / scale))
+      return none
+    }
+    expect(result.thresholds[0]!.lifeExceedance!.value).toBeCloseTo(1 - noneDuring(2001, 2060), 10)
+    expect(result.thresholds[1]!.lifeExceedance!.value).toBeCloseTo(1 - noneDuring(2045, 2074), 10)
+    expect(result.thresholds[1]!.lifeExceedance!.se).toBe(0)
   })
 })
 

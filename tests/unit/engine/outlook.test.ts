@@ -375,11 +375,19 @@ describe('outputs', () => {
   })
 
   it('states the percentile resolution and never returns NaN', () => {
-    const result = runOutlook(baseInput({ years: [2000, 2050, 2100], thresholds: [{ height: 0.2, designLifeYears: 30 }] }))
+    const result = runOutlook(
+      baseInput({
+        years: [2000, 2050, 2100],
+        gumbel: { location: 1, scale: 0.1 },
+        thresholds: [{ height: 0.2 }, { kind: 'flood-level', height: 1.2, designLifeYears: 30, lifeStartYear: 2000 }],
+      }),
+    )
     expect(result.percentileResolution).toBe(0.001)
     expect(result.byYear[0]!.varianceShare).toBeNull()
     expect(result.byYear[0]!.percentiles.every((p) => p.value === 0)).toBe(true)
     expect(result.thresholds[0]!.lifeExceedance).toBeNull()
+    expect(result.thresholds[0]!.flood).toBeNull()
+    expect(result.thresholds[1]!.lifeExceedance).not.toBeNull()
     expect(allNumbers(result).some(Number.isNaN)).toBe(false)
   })
 })

@@ -17,6 +17,8 @@ function refusal(input: unknown): EngineInputError {
   throw new Error('input was accepted')
 }
 
+const gumbel = { location: 1, scale: 0.1 }
+
 const two = [normalComponent('a', { 2100: [0.3, 0.1] }), normalComponent('b', { 2100: [0.2, 0.1] }), normalComponent('c', { 2100: [0.1, 0.1] })]
 
 const cases: Array<[string, Partial<OutlookInput> | Record<string, unknown>, string, RegExp]> = [
@@ -51,8 +53,15 @@ const cases: Array<[string, Partial<OutlookInput> | Record<string, unknown>, str
   ['tolerance 0', { tolerances: [0] }, 'tolerances[0]', /above 0/],
   ['gumbel scale', { gumbel: { location: 1, scale: 0 } }, 'gumbel.scale', /positive Gumbel scale/],
   ['return period', { gumbel: { location: 1, scale: 0.1, returnPeriods: [1] } }, 'gumbel.returnPeriods[0]', /above 1 year/],
-  ['life past horizon', { gumbel: { location: 1, scale: 0.1 }, thresholds: [{ height: 1, designLifeYears: 150 }] }, 'thresholds[0].designLifeYears', /ends in 2150.*last output year 2100/],
   ['fractional life', { thresholds: [{ height: 1, designLifeYears: 2.5 }] }, 'thresholds[0].designLifeYears', /whole number/],
+  ['unknown threshold kind', { thresholds: [{ height: 1, kind: 'wave-height' }] }, 'thresholds[0].kind', /.+/],
+  ['life chance of 1', { thresholds: [{ height: 1, designLifeChance: 1 }] }, 'thresholds[0].designLifeChance', /below 1/],
+  ['flood level without extremes', { thresholds: [{ height: 1.2, kind: 'flood-level' }] }, 'thresholds[0].kind', /flood level compares the total water level.*extreme-water statistics/],
+  ['life on a mean-sea-level threshold', { gumbel, thresholds: [{ height: 0.5, designLifeYears: 30, lifeStartYear: 2030 }] }, 'thresholds[0].designLifeYears', /make it a flood level/],
+  ['life without a start', { gumbel, thresholds: [{ height: 1.2, kind: 'flood-level', designLifeYears: 30 }] }, 'thresholds[0].lifeStartYear', /needed with designLifeYears.*build year/],
+  ['start without a life', { gumbel, thresholds: [{ height: 1.2, kind: 'flood-level', lifeStartYear: 2030 }] }, 'thresholds[0].designLifeYears', /needed with lifeStartYear/],
+  ['life before the reference epoch', { gumbel, thresholds: [{ height: 1.2, kind: 'flood-level', designLifeYears: 30, lifeStartYear: 1990 }] }, 'thresholds[0].lifeStartYear', /start in 1990, before the reference epoch 2000/],
+  ['life past horizon', { gumbel, thresholds: [{ height: 1.2, kind: 'flood-level', designLifeYears: 50, lifeStartYear: 2060 }] }, 'thresholds[0].designLifeYears', /runs from 2060 to 2109, after the last output year 2100/],
   ['absurd value', { components: [normalComponent('a', { 2100: [1e6, 0.1] })] }, 'components[0].release.mean[0]', /at most 1000/],
 ]
 
@@ -72,6 +81,14 @@ describe('invalid inputs', () => {
 
   it('refuses a non-object input', () => {
     expect(refusal(null).issues.length).toBeGreaterThan(0)
+  })
+
+  it('accepts a life of the last output years, from the baseline year, or of the very last one', () => {
+    // [practice] L annual maxima from year s are years s … s + L − 1: 2051 + 50 − 1 = 2100
+    for (const [lifeStartYear, designLifeYears] of [[2051, 50], [2000, 101], [2100, 1]] as const) {
+      const thresholds = [{ height: 1.2, kind: 'flood-level' as const, lifeStartYear, designLifeYears }]
+      expect(() => planOutlook({ ...baseInput(), gumbel, thresholds })).not.toThrow()
+    }
   })
 
   it('accepts a perfectly correlated (semi-definite) matrix', () => {

@@ -43,9 +43,9 @@ describe('chances in words', () => {
 
   it('builds the headline sentence in the chosen units and language', () => {
     const parts = { probability: 0.234, standardError: 0.0013, height: 0.5, year: 2070, referenceLevel: 'mean sea level 2020', unit: 'm' as const, language: 'en' as const }
-    expect(nb(headlineSentence(parts))).toBe('There is a 23 % chance (unlikely) that the sea here will be more than 0.50 m above mean sea level 2020 by 2070.')
+    expect(nb(headlineSentence(parts))).toBe('There is a 23 % chance (unlikely) that the mean sea level here will be more than 0.50 m above mean sea level 2020 by 2070.')
     // [practice] 0.5 m is 1.64 ft (international foot, 0.3048 m).
     expect(nb(headlineSentence({ ...parts, unit: 'ft' }))).toContain('more than 1.6 ft above')
-    expect(nb(headlineSentence({ ...parts, language: 'es' }))).toBe('Hay una probabilidad del 23 % (improbable) de que el mar aquí esté más de 0,50 m por encima de mean sea level 2020 en 2070.')
+    expect(nb(headlineSentence({ ...parts, language: 'es' }))).toBe('Hay una probabilidad del 23 % (improbable) de que el nivel medio del mar aquí esté más de 0,50 m por encima de mean sea level 2020 en 2070.')
   })
 })

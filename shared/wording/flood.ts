@@ -1,0 +1,57 @@
+import { formatHeight, type HeightUnit } from '../units'
+import { formatChance, likelihoodPhrase, type Language } from './chance'
+
+// Flood levels in plain words. A flood level is a height of the total water level (a crest, a floor,
+// a road), reached by the year's highest tides and surges on top of the mean sea level: its numbers
+// are a chance in a given year, how often, and the chance over an asset's life — never the chance
+// that the mean sea level passes it.
+
+export interface FloodWordingContext { datum: string, unit: HeightUnit, language: Language }
+
+const height = (metres: number, context: FloodWordingContext) => formatHeight(metres, context.unit, context.language)
+const number = (value: number, language: Language, digits: number) => value.toLocaleString(language, { maximumSignificantDigits: digits })
+
+/** "about once every 40 years" / "about 3 times a year": how often the water reaches a level. */
+export function howOften(expectedPerYear: number, language: Language): string {
+  const es = language === 'es'
+  if (!(expectedPerYear > 0)) return es ? 'nunca en las muestras' : 'never in the samples'
+  if (expectedPerYear >= 1.5) return es ? `unas ${number(expectedPerYear, language, 2)} veces al año` : `about ${number(expectedPerYear, language, 2)} times a year`
+  if (expectedPerYear >= 0.75) return es ? 'aproximadamente una vez al año' : 'about once a year'
+  const years = 1 / expectedPerYear
+  return es ? `aproximadamente una vez cada ${number(years, language, 2)} años` : `about once every ${number(years, language, 2)} years`
+}
+
+/**
+ * "In 2070 the water is expected to reach 2.30 m above <datum> about once every 4 years: a 22 % chance
+ * in any one year."
+ */
+export function floodYearSentence(parts: { year: number, height: number, annualChance: number, expectedPerYear: number }, context: FloodWordingContext): string {
+  const often = howOften(parts.expectedPerYear, context.language)
+  const chance = formatChance(parts.annualChance, context.language)
+  const level = height(parts.height, context)
+  return context.language === 'es'
+    ? `En ${parts.year} se espera que el agua alcance ${level} sobre ${context.datum} ${often}: una probabilidad del ${chance} en un año cualquiera.`
+    : `In ${parts.year} the water is expected to reach ${level} above ${context.datum} ${often}: a ${chance} chance in any one year.`
+}
+
+/**
+ * "Built in 2031 for 50 years (2031–2080): a 97 % chance (very likely) that the water reaches the
+ * level at least once in that time."
+ */
+export function lifeSentence(parts: { buildYear: number, lifeYears: number, chance: number }, language: Language): string {
+  const end = parts.buildYear + parts.lifeYears - 1
+  const chance = formatChance(parts.chance, language)
+  const word = likelihoodPhrase(parts.chance, language)
+  return language === 'es'
+    ? `Construida en ${parts.buildYear} para ${parts.lifeYears} años (${parts.buildYear}–${end}): una probabilidad del ${chance} (${word}) de que el agua alcance la cota al menos una vez en ese tiempo.`
+    : `Built in ${parts.buildYear} for ${parts.lifeYears} years (${parts.buildYear}–${end}): a ${chance} chance (${word}) that the water reaches the level at least once in that time.`
+}
+
+/** "For a 10 % chance of at least one overtopping in that life, the level would have to be 2.95 m above <datum> (design-life level)." */
+export function designLifeLevelSentence(parts: { chance: number, level: number }, context: FloodWordingContext): string {
+  const chance = formatChance(parts.chance, context.language)
+  const level = height(parts.level, context)
+  return context.language === 'es'
+    ? `Para que la probabilidad de al menos un rebase en esa vida útil sea del ${chance}, la cota tendría que estar a ${level} sobre ${context.datum} (cota de vida útil de diseño).`
+    : `For a ${chance} chance of at least one overtopping in that life, the level would have to be ${level} above ${context.datum} (design-life level).`
+}
