@@ -126,10 +126,12 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
       const years = yearIndexes.map(t => text.floodLine(threshold.label, heightOf(threshold, found), floodYearSentence({
         year: result.years[t]!, height: aboveDatum(found.height), annualChance: flood.annualChance[t]!.value, expectedPerYear: flood.expectedPerYear[t]!,
       }, floodContext)))
+      // Every line names its level: a briefing may list several.
+      const named = (sentence: string) => text.floodLine(threshold.label, heightOf(threshold, found), sentence)
       const life = found.lifeExceedance && found.designLifeYears && found.lifeStartYear
-        ? [lifeSentence({ buildYear: found.lifeStartYear, lifeYears: found.designLifeYears, chance: found.lifeExceedance.value }, source.language)]
+        ? [named(lifeSentence({ buildYear: found.lifeStartYear, lifeYears: found.designLifeYears, chance: found.lifeExceedance.value }, source.language))]
         : []
-      const level = found.designLifeLevel ? [designLifeLevelSentence({ chance: found.designLifeLevel.chance, level: aboveDatum(found.designLifeLevel.level) }, floodContext)] : []
+      const level = found.designLifeLevel ? [named(designLifeLevelSentence({ chance: found.designLifeLevel.chance, level: aboveDatum(found.designLifeLevel.level) }, floodContext))] : []
       return [...years, ...life, ...level]
     }
     return yearIndexes.map((t) => {

@@ -47,11 +47,11 @@ export function lifeSentence(parts: { buildYear: number, lifeYears: number, chan
     : `Built in ${parts.buildYear} for ${parts.lifeYears} years (${parts.buildYear}–${end}): a ${chance} chance (${word}) that the water reaches the level at least once in that time.`
 }
 
-/** "For a 10 % chance of at least one overtopping in that life, the level would have to be 2.95 m above <datum> (design-life level)." */
+/** "For a 10 % chance of at least one overtopping in that life, the level would have to be 2.95 m above <datum>: its design-life level." */
 export function designLifeLevelSentence(parts: { chance: number, level: number }, context: FloodWordingContext): string {
   const chance = formatChance(parts.chance, context.language)
   const level = height(parts.level, context)
   return context.language === 'es'
-    ? `Para que la probabilidad de al menos un rebase en esa vida útil sea del ${chance}, la cota tendría que estar a ${level} sobre ${context.datum} (cota de vida útil de diseño).`
-    : `For a ${chance} chance of at least one overtopping in that life, the level would have to be ${level} above ${context.datum} (design-life level).`
+    ? `Para que la probabilidad de al menos un rebase en esa vida útil sea del ${chance}, la cota tendría que estar a ${level} sobre ${context.datum}: es la cota de vida útil de diseño.`
+    : `For a ${chance} chance of at least one overtopping in that life, the level would have to be ${level} above ${context.datum}: its design-life level.`
 }

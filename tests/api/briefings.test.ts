@@ -45,9 +45,11 @@ describe('briefings', () => {
     // Two years of the mean-sea-level threshold; two years, the life and the design-life level of the flood level.
     expect(doc.summary.lines).toHaveLength(6)
     expect(doc.summary.lines[0]).toMatch(/^High-tide flooding of Quay Street \(0\.50 m\): .+ — (\d+|less than 1|more than 99)\u00A0%, [a-z ]+ — that the mean sea level here is higher than this by 2050\.$/)
-    const wall = doc.summary.lines.filter((line: string) => /^Sea wall crest|^Built in|design-life level/.test(line))
+    const wall = doc.summary.lines.filter((line: string) => /^Sea wall crest \(flood level/.test(line))
     expect(wall).toHaveLength(4)
     expect(wall[0]).toMatch(/^Sea wall crest \(flood level, 2\.30 m\): In 2050 the water is expected to reach 2\.30 m above .+: a .+ chance in any one year\.$/)
+    expect(wall[2]).toMatch(/^Sea wall crest \(flood level, 2\.30 m\): Built in 2031 for 50 years \(2031–2080\): a .+ chance \(.+\) that the water reaches the level at least once in that time\.$/)
+    expect(wall[3]).toMatch(/: its design-life level\.$/)
     expect(wall.join(' ')).not.toMatch(/exceptionally unlikely/)
     expect(doc.table.rows.map((r: { measure: string }) => r.measure)).toContain('Flood level: the water reaches it in that year')
     expect(doc.table.rows.map((r: { scenario: string }) => r.scenario)).toEqual(['SSP2-4.5', 'SSP2-4.5', 'SSP5-8.5', 'SSP5-8.5'])
