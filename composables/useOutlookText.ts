@@ -27,7 +27,7 @@ export function useOutlookText() {
     odds: (probability: number) => chanceAsOdds(probability, language.value),
     /** "23 % (unlikely)" */
     chanceWithWord: (probability: number) => `${chance(probability)} (${word(probability)})`,
-    sentence: (parts: { probability: number, standardError: number, height: number, year: number, referenceLevel: string }) =>
+    sentence: (parts: { probability: number, standardError: number, extrapolated?: boolean, height: number, year: number, referenceLevel: string }) =>
       headlineSentence({ ...parts, unit: preferences.units, language: language.value }),
     number,
     /** Land motion as typed, with its meaning: "−4.8 mm/yr (sinking)". */

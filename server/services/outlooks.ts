@@ -34,6 +34,15 @@ export function outlookYears(referenceEpoch: number, horizon: number) {
  */
 export interface OutlookDatum { name: string, kind: DatumKind, offset: number, referenceEpoch: number }
 
+/**
+ * A fitted site's parameter uncertainty, sampled with each trajectory. Only the standard errors are
+ * stored, so location and scale are drawn as uncorrelated: a stated simplification (the two estimates
+ * of a Gumbel fit correlate by about 0.3 [memory: asymptotic covariance of the Gumbel MLE]).
+ */
+function fitUncertainty(site: Site) {
+  return site.gumbelLocationSe !== null && site.gumbelScaleSe !== null ? { locationSe: site.gumbelLocationSe, scaleSe: site.gumbelScaleSe } : {}
+}
+
 /** Everything that goes into one run, with the provenance stored beside it. */
 export async function assembleOutlook(site: Site, request: OutlookRequest) {
   const science = await scienceFor(request.scenario)
@@ -70,7 +79,7 @@ export async function assembleOutlook(site: Site, request: OutlookRequest) {
       }
       return [{ ...base, designLifeYears: t.designLifeYears, lifeStartYear: t.buildYear }]
     }),
-    ...(hasStatistics ? { gumbel: { location: aboveEpochMean(site.gumbelLocation!), scale: site.gumbelScale! } } : {}),
+    ...(hasStatistics ? { gumbel: { location: aboveEpochMean(site.gumbelLocation!), scale: site.gumbelScale!, ...fitUncertainty(site) } } : {}),
     // Not read by the engine: how to state its heights above the site's datum (part of the hash, so a
     // changed datum is a changed outlook).
     datum: { name: site.referenceLevel, kind: site.datumKind, offset: site.datumOffset, referenceEpoch: site.referenceEpoch } satisfies OutlookDatum,

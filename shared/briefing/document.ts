@@ -1,6 +1,6 @@
 import type { OutlookResult } from '../engine'
 import { formatHeight, type HeightUnit } from '../units'
-import { chanceAsOdds, formatChance, likelihoodPhrase, type Language } from '../wording/chance'
+import { BEYOND_RANGE, chanceAsOdds, formatChance, likelihoodPhrase, type Language } from '../wording/chance'
 import { designLifeLevelSentence, floodYearSentence, lifeSentence } from '../wording/flood'
 import type { DatumKind, ThresholdKind } from '../types/science'
 import { BRIEFING_TEXT, type BriefingText } from './text'
@@ -135,8 +135,10 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
       return [...years, ...life, ...level]
     }
     return yearIndexes.map((t) => {
-      const p = found?.byYear[t]?.value ?? 0
-      return text.chanceLine(chanceAsOdds(p, source.language), formatChance(p, source.language), likelihoodPhrase(p, source.language), heightOf(threshold, found), threshold.label, result.years[t]!)
+      const estimate = found?.byYear[t]
+      const p = estimate?.value ?? 0
+      const word = estimate?.extrapolated ? BEYOND_RANGE[source.language] : likelihoodPhrase(p, source.language)
+      return text.chanceLine(chanceAsOdds(p, source.language), formatChance(p, source.language), word, heightOf(threshold, found), threshold.label, result.years[t]!)
     })
   })
   const ranges = yearIndexes.map(t => text.rangeSentence(result.years[t]!, height(percentile(result, t, 0.5)), height(percentile(result, t, 0.17)), height(percentile(result, t, 0.83)), site.referenceEpoch))
@@ -166,7 +168,9 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
   const extremes = result.gumbel
     ? yearIndexes.map((t) => {
         const g = result.byYear[t]!.gumbel!
-        return { year: result.years[t]!, allowance: height(g.allowance), amplification: g.amplification.toLocaleString(source.language, { maximumSignificantDigits: 3 }) }
+        // A heavy-tailed release makes both unbounded: the figures are for its tail capped, and say so.
+        const capped = g.settled === false ? ` (${text.unsettled})` : ''
+        return { year: result.years[t]!, allowance: `${height(g.allowance)}${capped}`, amplification: `${g.amplification.toLocaleString(source.language, { maximumSignificantDigits: 3 })}${capped}` }
       })
     : null
 

@@ -22,6 +22,8 @@ export interface BriefingText {
   extremesTitle: string
   extremesHead: { year: string, allowance: string, amplification: string }
   extremesNote: string
+  /** Beside an allowance that a heavy-tailed release leaves unbounded. */
+  unsettled: string
   basisHead: { component: string, scenario: string, version: string, citation: string, state: string, scale: string }
   landMotion: (rate: string, sigma: string, source: string, epoch: number, reference: string) => string
   sampling: (samples: string, seed: number) => string
@@ -56,6 +58,7 @@ const en: BriefingText = {
   extremesTitle: 'Flood allowance and frequency',
   extremesHead: { year: 'Year', allowance: 'Allowance', amplification: 'Floods more often (×)' },
   extremesNote: 'The allowance is how much to raise an asset so that the expected number of floods stays as it is today; the second column is how many times more often today\'s floods would be expected.',
+  unsettled: 'not a settled value: a release\'s heavy tail is capped at its 99.9th percentile',
   basisHead: { component: 'Source of rise', scenario: 'Scenario', version: 'Version', citation: 'Citation', state: 'State', scale: 'Scale factor' },
   landMotion: (rate, sigma, source, epoch, reference) => `Land motion: ${rate} ± ${sigma} per year (negative means the land sinks, which adds to the rise), from ${source}, reference year ${epoch}. ${reference}`,
   sampling: (samples, seed) => `Computed from ${samples} Monte Carlo samples with seed ${seed}; the same inputs and seed give the same numbers.`,
@@ -101,6 +104,7 @@ const es: BriefingText = {
   extremesTitle: 'Margen de inundación y frecuencia',
   extremesHead: { year: 'Año', allowance: 'Margen', amplification: 'Inundaciones más frecuentes (×)' },
   extremesNote: 'El margen es cuánto elevar una infraestructura para que el número esperado de inundaciones siga como hoy; la segunda columna indica cuántas veces más a menudo se esperarían las inundaciones de hoy.',
+  unsettled: 'no es un valor estable: la cola larga de una versión se limita a su percentil 99,9',
   basisHead: { component: 'Fuente de subida', scenario: 'Escenario', version: 'Versión', citation: 'Cita', state: 'Estado', scale: 'Factor de escala' },
   landMotion: (rate, sigma, source, epoch, reference) => `Movimiento del terreno: ${rate} ± ${sigma} al año (negativo significa que el terreno se hunde, lo que suma a la subida), según ${source}, año de referencia ${epoch}. ${reference}`,
   sampling: (samples, seed) => `Calculado con ${samples} muestras de Monte Carlo y semilla ${seed}; los mismos datos y semilla dan las mismas cifras.`,

@@ -61,3 +61,28 @@ export function designLifeLevel(
   }
   return gumbel.location - gumbel.scale * x
 }
+
+/**
+ * With uncertain parameters (one location and scale per trajectory) the chance of none no longer
+ * depends on the height through one per-sample number, so it is summed at fixed heights (`grid`,
+ * `GumbelUncertainty.lifeGrid`) and the level is found between the two that bracket 1 − chance,
+ * interpolating linearly in ln(−ln(mean chance of none)): for one Gumbel that is exactly linear in the
+ * height (ln L − (h − μ)/λ plus the rise's term), so only the mixture's curvature between two grid
+ * heights is approximated. Outside the grid the nearest end is returned.
+ */
+export function gridDesignLifeLevel(grid: Float64Array, sums: Float64Array, at: number, n: number, chance: number): number {
+  const target = 1 - chance
+  const reduced = (none: number) => Math.log(-Math.log(none))
+  // The mean chance of none rises with the height.
+  if (sums[at]! / n >= target) return grid[0]!
+  for (let g = 1; g < grid.length; g++) {
+    const upper = sums[at + g]! / n
+    if (upper < target) continue
+    const lower = sums[at + g - 1]! / n
+    const along = lower > 0 && upper < 1
+      ? (reduced(lower) - reduced(target)) / (reduced(lower) - reduced(upper))
+      : (target - lower) / (upper - lower)
+    return grid[g - 1]! + (grid[g]! - grid[g - 1]!) * along
+  }
+  return grid[grid.length - 1]!
+}

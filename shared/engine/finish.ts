@@ -1,4 +1,6 @@
-import { designLifeLevel } from './design-life'
+import { designLifeLevel, gridDesignLifeLevel } from './design-life'
+import { LIFE_GRID_POINTS } from './gumbel-uncertainty'
+import { annualCounts } from './tile-triggers'
 import { cumulativeCounts, histogramQuantile, meanFromDeviations, percentileStandardError, proportionStandardError, type HistogramView } from './statistics'
 import type {
   Estimate,
@@ -14,8 +16,30 @@ import type {
 
 export const PERCENTILE_LEVELS = [0.01, 0.05, 0.17, 0.5, 0.83, 0.95, 0.99] as const
 
+/** Zero events in N trials: the one-sided 95 % upper bound on their chance is about 3/N. */
+const RULE_OF_THREE = 3
+
 /** Variance below this (m²) means the rise has no spread, e.g. in the baseline year. */
 const NO_SPREAD = 1e-24
+
+/** A component with at least this variance share in a year counts for extrapolation (README, "Extrapolated"). */
+const EXTRAPOLATION_SHARE = 0.05
+const LEVEL_TOLERANCE = 1e-12
+
+/**
+ * Whether the rise's level `level` in a year lies beyond the published levels of a quantile-form
+ * component that carries a non-negligible share of that year's variance.
+ */
+function extrapolated(plan: OutlookPlan, varianceShare: Record<string, number> | null, level: number): boolean {
+  if (varianceShare === null) return false
+  for (let c = 0; c < plan.componentKeys.length; c++) {
+    const low = plan.publishedLevels[2 * c]!
+    const high = plan.publishedLevels[2 * c + 1]!
+    // The tolerance keeps a level on the edge (0.05 against 1 − 0.95) inside.
+    if ((level < low - LEVEL_TOLERANCE || level > high + LEVEL_TOLERANCE) && varianceShare[plan.componentKeys[c]!]! >= EXTRAPOLATION_SHARE) return true
+  }
+  return false
+}
 
 /** Totals over all blocks, added in block order so the result does not depend on how blocks were split. */
 function totalSums(plan: OutlookPlan, partial: OutlookPartial): Float64Array {
@@ -27,9 +51,16 @@ function totalSums(plan: OutlookPlan, partial: OutlookPartial): Float64Array {
   return totals
 }
 
+/**
+ * A proportion of samples with its binomial SE; a count of 0 or N (SE 0) also gets the rule of three's
+ * one-sided 95 % bound, −ln(0.05)/N ≈ 3/N.
+ */
 function proportion(count: number, n: number): Estimate {
   const value = count / n
-  return { value, se: proportionStandardError(value, n) }
+  const estimate: Estimate = { value, se: proportionStandardError(value, n) }
+  if (count === 0) estimate.upperBound95 = Math.min(1, RULE_OF_THREE / n)
+  else if (count === n) estimate.lowerBound95 = Math.max(0, 1 - RULE_OF_THREE / n)
+  return estimate
 }
 
 /** A mean chance from its deviation sums at `at` (see `SumLayout`); rounding may not take it outside [0, 1]. */
@@ -104,6 +135,7 @@ export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): Outloo
         level,
         value: histogramQuantile(view, level),
         se: percentileStandardError(view, level),
+        extrapolated: extrapolated(plan, varianceShare, level),
       })),
       exceedance: plan.heightCutIndex.length
         ? Array.from(plan.heightCutIndex, (cut) => proportion(exceedanceCounts[t]![cut]!, n))
@@ -113,6 +145,7 @@ export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): Outloo
     }
   })
 
+  let countedIndex = 0
   const thresholds: ThresholdOutlook[] = plan.thresholds.map((threshold) => {
     const about = {
       key: threshold.key,
@@ -123,13 +156,21 @@ export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): Outloo
     }
     if (threshold.cutIndex !== null) {
       const cut = threshold.cutIndex
-      const probabilities = plan.years.map((_, t) => proportion(exceedanceCounts[t]![cut]!, n))
+      const probabilities = plan.years.map((_, t) => {
+        const estimate = proportion(exceedanceCounts[t]![cut]!, n)
+        // P(rise > h) = p puts h at the rise's level 1 − p.
+        estimate.extrapolated = extrapolated(plan, byYear[t]!.varianceShare, 1 - estimate.value)
+        return estimate
+      })
+      const trigger = plan.trigger!
+      const annual = annualCounts(plan, merged.triggerCounts, countedIndex++, (t) => exceedanceCounts[t]![cut]!)
       return {
         ...about,
         byYear: probabilities,
+        // The first calendar year whose chance (count / N, as in byYear) reaches the tolerance.
         triggerYears: plan.tolerances.map((tolerance) => {
-          const index = probabilities.findIndex((probability) => probability.value >= tolerance)
-          return { tolerance, year: index < 0 ? null : plan.years[index]! }
+          const index = annual.findIndex((count) => count / n >= tolerance)
+          return { tolerance, year: index < 0 ? null : trigger.firstYear + index }
         }),
         flood: null,
         lifeExceedance: null,
@@ -161,11 +202,20 @@ function yearGumbel(plan: OutlookPlan, sums: Float64Array, t: number, n: number)
   if (!gumbel) return null
   const layout = plan.sumLayout
   // Sums hold exp((rise − center)/λ), so the log-sum-exp needs only the center added back.
-  const allowance = plan.center[t]! + gumbel.scale * Math.log(sums[layout.gumbelExp + t]! / n)
+  const meanGrowth = sums[layout.gumbelExp + t]! / n
+  const allowance = plan.center[t]! + gumbel.scale * Math.log(meanGrowth)
+  const amplification = Math.exp(allowance / gumbel.scale)
+  // Delta method: the allowance is λ·ln of a mean, the amplification the mean times e^{center/λ}.
+  const growthSe = meanFromDeviations(1, sums[layout.gumbelGrowth + 2 * t]!, sums[layout.gumbelGrowth + 2 * t + 1]!, n).se
+  const settled = gumbel.heavy.unsettled[t] === 0
   const levelCount = gumbel.levels.length
   return {
     allowance,
-    amplification: Math.exp(allowance / gumbel.scale),
+    amplification,
+    settled,
+    ...(settled ? {} : { unsettledReason: 'heavy-tail' as const }),
+    allowanceSe: (gumbel.scale * growthSe) / meanGrowth,
+    amplificationSe: (amplification * growthSe) / meanGrowth,
     returnPeriods: gumbel.returnPeriods.map((today, r) => {
       const at = t * levelCount + r
       const annualChance = meanChance(gumbel.levelReference[at]!, sums, layout.annualChance + 2 * at, n)
@@ -195,12 +245,17 @@ function floodThreshold(
   const n = plan.samples
   const levelCount = gumbel.levels.length
   const shift = threshold.height - gumbel.location
-  const flood: FloodLevelOutlook = { annualChance: [], expectedPerYear: [], returnPeriodYears: [] }
+  const flood: FloodLevelOutlook = { annualChance: [], expectedPerYear: [], expectedPerYearSettled: [], returnPeriodYears: [] }
   plan.years.forEach((_, t) => {
     const at = t * levelCount + threshold.levelIndex!
     const chance = meanChance(gumbel.levelReference[at]!, sums, layout.annualChance + 2 * at, n)
     flood.annualChance.push(chance)
-    flood.expectedPerYear.push(Math.exp((plan.center[t]! - shift) / gumbel.scale + Math.log(sums[layout.gumbelExp + t]! / n)))
+    flood.expectedPerYear.push(
+      gumbel.uncertainty
+        ? sums[layout.expectedCount + at]! / n
+        : Math.exp((plan.center[t]! - shift) / gumbel.scale + Math.log(sums[layout.gumbelExp + t]! / n)),
+    )
+    flood.expectedPerYearSettled.push(gumbel.heavy.unsettled[t] === 0)
     flood.returnPeriodYears.push(chance.value > 0 ? 1 / chance.value : null)
   })
   if (threshold.lifeSpanIndex === null) return { flood, lifeExceedance: null, designLifeLevel: null }
@@ -211,7 +266,9 @@ function floodThreshold(
     lifeExceedance: { value: 1 - none.value, se: none.se },
     designLifeLevel: {
       chance: threshold.designLifeChance,
-      level: designLifeLevel(span, merged.lifeHistogram, gumbel, threshold.designLifeChance),
+      level: gumbel.uncertainty
+        ? gridDesignLifeLevel(gumbel.uncertainty.lifeGrid[threshold.lifeSpanIndex]!, sums, layout.lifeGrid + threshold.lifeSpanIndex * LIFE_GRID_POINTS, n, threshold.designLifeChance)
+        : designLifeLevel(span, merged.lifeHistogram, gumbel, threshold.designLifeChance),
     },
   }
 }

@@ -26,6 +26,7 @@ export function mergePartials(plan: OutlookPlan, partials: OutlookPartial[]): Ou
   merged.cellCounts.set(partials[0]!.cellCounts)
   merged.histogram.set(partials[0]!.histogram)
   merged.lifeHistogram.set(partials[0]!.lifeHistogram)
+  merged.triggerCounts.set(partials[0]!.triggerCounts)
   const size = plan.sumsPerBlock
   for (let p = 0; p < partials.length; p++) {
     const partial = partials[p]!
@@ -34,6 +35,8 @@ export function mergePartials(plan: OutlookPlan, partials: OutlookPartial[]): Ou
       addCounts(merged.cellCounts, partial.cellCounts)
       addCounts(merged.histogram, partial.histogram)
       addCounts(merged.lifeHistogram, partial.lifeHistogram)
+      // Difference counts are signed; their sums stay within ±2³¹ (at most two million samples).
+      for (let i = 0; i < merged.triggerCounts.length; i++) merged.triggerCounts[i] = (merged.triggerCounts[i]! + partial.triggerCounts[i]!) | 0
     }
     for (let t = 0; t < merged.minimum.length; t++) {
       if (partial.minimum[t]! < merged.minimum[t]!) merged.minimum[t] = partial.minimum[t]!

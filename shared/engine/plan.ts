@@ -1,13 +1,17 @@
 import { identityFactor } from './correlation'
+import { standardNormalQuantile } from './normal'
 import { anchorValuesAt, buildComponentTable, componentRiseAt, type ComponentTable } from './releases'
 import {
   COMPONENT_KIND_DRAWS,
   COMPONENT_KIND_PIECEWISE,
   LAND_MOTION_KEY,
+  type HeavyTail,
   type OutlookPlan,
   type SumLayout,
 } from './types'
 import { planThresholds } from './threshold-plan'
+import { planTriggers } from './trigger-plan'
+import { LIFE_GRID_POINTS, planUncertainty } from './gumbel-uncertainty'
 import { validateOutlookInput, type ValidatedOutlookInput } from './validate'
 
 /** Samples per block: the unit of reproducibility (each block has its own random stream). */
@@ -68,6 +72,41 @@ function sameWeights(a: Float64Array[], b: Float64Array[]): boolean {
   return true
 }
 
+/** Score at which lognormal parts are capped in the allowance's sums: Φ⁻¹(0.999). */
+export const HEAVY_TAIL_CAP_SCORE = standardNormalQuantile(0.999)
+
+/** The lognormal slots whose tail makes E[e^{rise/λ}] infinite, and where (see `HeavyTail`). */
+function heavyTail(
+  shift: Float64Array,
+  mu: Float64Array,
+  sigma: Float64Array,
+  scale: Float64Array,
+  valueAtZero: Float64Array,
+  valueBasis: Int32Array,
+  basisWeight: Float64Array,
+  basisCount: number,
+  yearCount: number,
+): HeavyTail {
+  const slots: number[] = []
+  for (let slot = 0; slot < sigma.length; slot++) if (sigma[slot]! > 0 && scale[slot]! !== 0) slots.push(slot)
+  const weight = new Float64Array(yearCount * slots.length)
+  const unsettled = new Uint8Array(yearCount)
+  slots.forEach((slot, h) => {
+    for (let t = 0; t < yearCount; t++) {
+      const w = basisWeight[t * basisCount + valueBasis[slot]!]!
+      weight[t * slots.length + h] = w
+      if (w * scale[slot]! > 0) unsettled[t] = 1
+    }
+  })
+  return {
+    slots: Int32Array.from(slots),
+    cap: Float64Array.from(slots, (slot) => scale[slot]! * (shift[slot]! + Math.exp(mu[slot]! + sigma[slot]! * HEAVY_TAIL_CAP_SCORE)) - valueAtZero[slot]!),
+    sign: Float64Array.from(slots, (slot) => Math.sign(scale[slot]!)),
+    weight,
+    unsettled,
+  }
+}
+
 /** Validates an outlook request and precomputes everything the sample loop needs. */
 export function planOutlook(rawInput: unknown): OutlookPlan {
   const input = validateOutlookInput(rawInput)
@@ -115,6 +154,7 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
   // columns, so a sample's rise in every year comes from a handful of per-anchor sums.
   const groupWeights: Float64Array[][] = []
   const groupFirstColumn: number[] = []
+  const groupRelease: Array<{ baselineYear: number; anchorYears: number[] }> = []
   let basisCount = 0
   tables.forEach((table, c) => {
     const anchors = anchorCount[c]!
@@ -125,6 +165,7 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
       first = basisCount
       groupWeights.push(table.relativeWeights)
       groupFirstColumn.push(first)
+      groupRelease.push(input.components[c]!.release)
       basisCount += anchors
     }
     valueAtZero.set(anchorValuesAt(table, 0, anchors), valueStart[c]!)
@@ -203,7 +244,23 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
   const cuts = Float64Array.from(new Set([...input.heights, ...riseHeights])).sort()
   const cutPosition = (height: number) => cuts.indexOf(height)
   const buckets = bucketIndex(cuts)
-  const { thresholds, lifeSpans, lifeHistogramSize, gumbel } = planThresholds(input, cutPosition, center, low, high)
+  const { thresholds, lifeSpans, lifeHistogramSize, gumbel: planned } = planThresholds(input, cutPosition, center, low, high)
+  const gumbel = planned && {
+    ...planned,
+    heavy: heavyTail(lognormalShift, lognormalMu, lognormalSigma, lognormalScale, valueAtZero, valueBasis, basisWeight, basisCount, yearCount),
+    uncertainty: input.gumbel ? planUncertainty(input.gumbel, lifeSpans) : null,
+  }
+
+  const counted = thresholds.flatMap((threshold, k) => (threshold.cutIndex === null ? [] : [k]))
+  const trigger = planTriggers(
+    input,
+    groupRelease.map((release, g) => ({ firstColumn: groupFirstColumn[g]!, release })),
+    basisCount,
+    valueBasis,
+    valueAtZero,
+    counted,
+    counted.map((k) => thresholds[k]!.height),
+  )
 
   const partCount = componentCount + 1
   const levelCount = gumbel ? gumbel.levels.length : 0
@@ -216,9 +273,16 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
     gumbelExp,
     annualChance,
     lifeNoExceedance: annualChance + 2 * levelCount * yearCount,
+    gumbelGrowth: 0,
+    expectedCount: 0,
+    lifeGrid: 0,
   }
   const lifeThresholds = thresholds.filter((threshold) => threshold.lifeSumIndex !== null).length
-  const sumsPerBlock = sumLayout.lifeNoExceedance + 2 * lifeThresholds
+  sumLayout.gumbelGrowth = sumLayout.lifeNoExceedance + 2 * lifeThresholds
+  sumLayout.expectedCount = sumLayout.gumbelGrowth + (gumbel ? 2 * yearCount : 0)
+  const uncertain = gumbel?.uncertainty ?? null
+  sumLayout.lifeGrid = sumLayout.expectedCount + (uncertain ? levelCount * yearCount : 0)
+  const sumsPerBlock = sumLayout.lifeGrid + (uncertain ? uncertain.lifeGrid.length * LIFE_GRID_POINTS : 0)
 
   const factor = input.choleskyFactor ?? identityFactor(componentCount)
   const identity = identityFactor(componentCount)
@@ -256,6 +320,14 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
     basisWeight,
     landIntercept,
     landSlope,
+    publishedLevels: Float64Array.from(
+      input.components.flatMap(({ release }) => {
+        if (release.form !== 'quantiles') return [0, 1]
+        const first = release.levels[0]!
+        const last = release.levels[release.levels.length - 1]!
+        return [Math.max(first, 1 - last), Math.min(last, 1 - first)]
+      }),
+    ),
     center,
     cuts,
     heightCutIndex: Int32Array.from(input.heights, cutPosition),
@@ -270,6 +342,7 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
     thresholds,
     tolerances: [...input.tolerances],
     gumbel,
+    trigger,
     lifeSpans,
     lifeHistogramSize,
     sumsPerBlock,

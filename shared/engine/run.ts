@@ -6,6 +6,8 @@ import { scoreTile, valueTile } from './tile-values'
 import { basisFromValues, blockSumsByYear, gumbelTile, sumTile } from './tile-sums'
 import { countConstantYear, countYear, finishCounts, riseOfYear } from './tile-counts'
 import { countYearPair } from './tile-pairs'
+import { triggerTile } from './tile-triggers'
+import { drawParameterScores, tileParameters } from './gumbel-uncertainty'
 import type { OutlookPlan, OutlookPartial } from './types'
 
 // The sample loop. Everything it touches is a typed array hoisted into a local, nothing is allocated
@@ -29,6 +31,7 @@ export function emptyPartial(plan: OutlookPlan, blockCount: number): OutlookPart
     cellCounts: new Uint32Array(plan.years.length * (plan.cuts.length + 1)),
     histogram: new Uint32Array(plan.histogramSize),
     lifeHistogram: new Uint32Array(plan.lifeHistogramSize),
+    triggerCounts: new Int32Array(plan.trigger ? plan.trigger.heights.length * (plan.trigger.yearCount + 1) : 0),
     minimum: new Float64Array(plan.years.length).fill(Infinity),
     maximum: new Float64Array(plan.years.length).fill(-Infinity),
     blockSums: new Float64Array(blockCount * plan.sumsPerBlock),
@@ -80,6 +83,7 @@ export function runClaimedBlocks(plan: OutlookPlan, nextBlock: NextBlock, capaci
   scratch.sumsAt = tables.hasDraws ? scratch.levelsAt : scratch.basisAt
   const yearCount = plan.years.length
   const scoresPerSample = plan.componentKeys.length + 1
+  const uncertain = plan.gumbel?.uncertainty != null
   let done = 0
   for (let b = 0; b < capacity; b++) {
     const blockIndex = nextBlock()
@@ -93,6 +97,8 @@ export function runClaimedBlocks(plan: OutlookPlan, nextBlock: NextBlock, capaci
     const stream = blockStreamState(plan.seed, blockIndex)
     // One call per score row (the same stream, in the same order) so rows can be padded apart.
     for (let k = 0; k < scoresPerSample; k++) fillNormalScores(stream, scratch.independent, k * (count + ROW_PADDING), count)
+    // Parameter scores come after every other row, so plans without them draw exactly as before.
+    if (uncertain) drawParameterScores(stream, count)
     scratch.basisSum.fill(0)
     scratch.basisCross.fill(0)
     scratch.valueSum.fill(0)
@@ -113,6 +119,8 @@ export function runClaimedBlocks(plan: OutlookPlan, nextBlock: NextBlock, capaci
         riseOfYear(plan, tables, scratch, t, tileCount)
         countYear(plan, tables, scratch, t, tileCount, partial)
       }
+      if (plan.trigger !== null) triggerTile(plan, scratch, tileCount, partial.triggerCounts)
+      if (uncertain) tileParameters(plan, count, tileStart, tileCount)
       if (plan.gumbel !== null) gumbelTile(plan, tables, scratch, tileCount, partial.blockSums, b * plan.sumsPerBlock, partial.lifeHistogram)
     }
     blockSumsByYear(plan, scratch, partial.blockSums, b * plan.sumsPerBlock)

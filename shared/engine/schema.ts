@@ -108,6 +108,11 @@ export const gumbelSchema = z.object({
   returnPeriods: z
     .array(z.number().gt(1, 'must be a return period above 1 year'))
     .default([...DEFAULT_RETURN_PERIODS]),
+  /** Standard errors of the fitted location and scale (metres): each trajectory then draws its own pair. */
+  locationSe: nonNegative.optional(),
+  scaleSe: nonNegative.optional(),
+  /** Correlation of the location and scale estimates (default 0). */
+  locationScaleCorrelation: z.number().min(-1, 'must be at least -1').max(1, 'must be at most 1').optional(),
 })
 
 export const outlookInputSchema = z.object({

@@ -16,7 +16,8 @@ export interface PlannedThresholds {
   thresholds: ThresholdPlan[]
   lifeSpans: LifeSpan[]
   lifeHistogramSize: number
-  gumbel: OutlookPlan['gumbel']
+  /** Without `heavy` and `uncertainty`, which the plan adds. */
+  gumbel: Omit<NonNullable<OutlookPlan['gumbel']>, 'heavy' | 'uncertainty'> | null
 }
 
 /**

@@ -1,4 +1,5 @@
 import { annualExceedance, factoredExceedance, lifeLogSum, lifeNoExceedance } from './flood-chance'
+import { TILE_PARAMETERS } from './gumbel-uncertainty'
 import { PASS, SLOTS_PER_PASS, type SamplerTables } from './sampler-tables'
 import { ROW, TILE, type TileScratch } from './tile-scratch'
 import type { OutlookPlan } from './types'
@@ -210,6 +211,116 @@ export function blockSumsByYear(plan: OutlookPlan, scratch: TileScratch, sums: F
 }
 
 /**
+ * Annual chances and expected exceedances of every Gumbel level in year t with each sample's own
+ * location and scale (`TILE_PARAMETERS`): chance −expm1(−e^e), expected e^e, e = (rise + μ_s − level)/λ_s.
+ */
+function uncertainLevels(plan: OutlookPlan, t: number, tileCount: number, rise: Float64Array, sums: Float64Array, sumOffset: number): void {
+  const gumbel = plan.gumbel!
+  const levels = gumbel.levels
+  const riseAt = t * ROW
+  const parameters = TILE_PARAMETERS
+  const chanceAt = sumOffset + plan.sumLayout.annualChance
+  const expectedAt = sumOffset + plan.sumLayout.expectedCount
+  for (let k = 0; k < levels.length; k++) {
+    const level = levels[k]!
+    const reference = gumbel.levelReference[t * levels.length + k]!
+    let deviations = 0
+    let squares = 0
+    let expected = 0
+    for (let i = 0; i < tileCount; i++) {
+      const rate = Math.exp((rise[riseAt + i]! + parameters[i]! - level) * parameters[TILE + i]!)
+      const deviation = -Math.expm1(-rate) - reference
+      deviations += deviation
+      squares += deviation * deviation
+      expected += rate
+    }
+    const at = chanceAt + 2 * (t * levels.length + k)
+    sums[at]! += deviations
+    sums[at + 1]! += squares
+    sums[expectedAt + t * levels.length + k]! += expected
+  }
+}
+
+/**
+ * Life chances with each sample's own parameters: ln Σ_years e^{rise/λ_s}, each life threshold's chance
+ * of no exceedance, and the chance of none at every height of the span's grid (for the design-life level).
+ */
+function uncertainLife(
+  plan: OutlookPlan,
+  tables: SamplerTables,
+  tileCount: number,
+  rise: Float64Array,
+  sums: Float64Array,
+  sumOffset: number,
+): void {
+  const gumbel = plan.gumbel!
+  const grids = gumbel.uncertainty!.lifeGrid
+  const parameters = TILE_PARAMETERS
+  const lifeAt = sumOffset + plan.sumLayout.lifeNoExceedance
+  const gridAt = sumOffset + plan.sumLayout.lifeGrid
+  for (let s = 0; s < tables.lifeSegments.length; s++) {
+    const segments = tables.lifeSegments[s]!
+    const members = tables.lifeThresholds[s]!
+    const grid = grids[s]!
+    const at = gridAt + s * grid.length
+    for (let i = 0; i < tileCount; i++) {
+      const location = parameters[i]!
+      const inverseScale = parameters[TILE + i]!
+      const logSum = lifeLogSum(segments, rise, ROW, i, inverseScale)
+      for (let m = 0; m < members.length; m++) {
+        const threshold = plan.thresholds[members[m]!]!
+        const deviation = lifeNoExceedance(logSum, threshold.height - location, inverseScale) - threshold.lifeReference!
+        const sumAt = lifeAt + 2 * threshold.lifeSumIndex!
+        sums[sumAt]! += deviation
+        sums[sumAt + 1]! += deviation * deviation
+      }
+      for (let g = 0; g < grid.length; g++) sums[at + g]! += lifeNoExceedance(logSum, grid[g]! - location, inverseScale)
+    }
+  }
+}
+
+/** Σg, Σ(g − 1) and Σ(g − 1)² of the capped growth (`cappedGrowthSums`). */
+const CAPPED = new Float64Array(3)
+
+/**
+ * A year whose rise has a lognormal part felt with a positive weight (see `HeavyTail`): the allowance's
+ * sums over the growth with each such part held at its cap when past it. Only the rare samples past a
+ * cap (0.1 % per part) differ from `growth`, which keeps the uncapped value for the chances.
+ */
+function cappedGrowthSums(
+  plan: OutlookPlan,
+  scratch: TileScratch,
+  t: number,
+  tileCount: number,
+  growth: Float64Array,
+  inverseScale: number,
+): Float64Array {
+  const heavy = plan.gumbel!.heavy
+  const slotCount = heavy.slots.length
+  const values = scratch.rows
+  let sum = 0
+  let deviations = 0
+  let squares = 0
+  for (let i = 0; i < tileCount; i++) {
+    let excess = 0
+    for (let h = 0; h < slotCount; h++) {
+      // Past the cap when the value is beyond it on the side its scale grows to.
+      const over = heavy.sign[h]! * (values[scratch.valuesAt + heavy.slots[h]! * ROW + i]! - heavy.cap[h]!)
+      if (over > 0) excess -= heavy.weight[t * slotCount + h]! * heavy.sign[h]! * over
+    }
+    const value = excess === 0 ? growth[i]! : growth[i]! * Math.exp(excess * inverseScale)
+    sum += value
+    const deviation = value - 1
+    deviations += deviation
+    squares += deviation * deviation
+  }
+  CAPPED[0] = sum
+  CAPPED[1] = deviations
+  CAPPED[2] = squares
+  return CAPPED
+}
+
+/**
  * The Gumbel sums of a tile: Σ exp((rise − center)/λ) per year; per year and Gumbel level the annual
  * chance of exceeding it, as deviations from the reference chance and their squares (their spread gives
  * the standard error of the mean chance); per life span each sample's ln Σ_years e^{rise/λ}, counted in
@@ -232,16 +343,35 @@ export function gumbelTile(
   const chanceAt = sumOffset + plan.sumLayout.annualChance
   const levels = gumbel.levels
   const growth = GROWTH
+  const heavy = gumbel.heavy
+  const growthAt = sumOffset + plan.sumLayout.gumbelGrowth
   for (let t = 0; t < yearCount; t++) {
     const riseAt = t * ROW
     const center = plan.center[t]!
     let sum = 0
+    let deviations = 0
+    let squares = 0
     for (let i = 0; i < tileCount; i++) {
       const value = Math.exp((rise[riseAt + i]! - center) * inverseScale)
       growth[i] = value
       sum += value
+      const deviation = value - 1
+      deviations += deviation
+      squares += deviation * deviation
+    }
+    if (heavy.unsettled[t] === 1) {
+      const capped = cappedGrowthSums(plan, scratch, t, tileCount, growth, inverseScale)
+      sum = capped[0]!
+      deviations = capped[1]!
+      squares = capped[2]!
     }
     sums[expAt + t]! += sum
+    sums[growthAt + 2 * t]! += deviations
+    sums[growthAt + 2 * t + 1]! += squares
+    if (gumbel.uncertainty !== null) {
+      uncertainLevels(plan, t, tileCount, rise, sums, sumOffset)
+      continue
+    }
     for (let k = 0; k < levels.length; k++) {
       const factor = gumbel.levelFactor[t * levels.length + k]!
       const reference = gumbel.levelReference[t * levels.length + k]!
@@ -267,6 +397,10 @@ export function gumbelTile(
     }
   }
   const lifeAt = sumOffset + plan.sumLayout.lifeNoExceedance
+  if (gumbel.uncertainty !== null) {
+    uncertainLife(plan, tables, tileCount, rise, sums, sumOffset)
+    return
+  }
   for (let s = 0; s < tables.lifeSegments.length; s++) {
     const segments = tables.lifeSegments[s]!
     const span = plan.lifeSpans[s]!

@@ -49,6 +49,36 @@ export interface LifeSpan {
 }
 
 /**
+ * Annual trigger years: the rise is linear in time between knots (see `planTriggers`), so each sample's
+ * exceedance of a mean-sea-level threshold over a knot interval is a run of years at one end, counted
+ * as +1/−1 in a per-threshold difference array over the calendar years firstYear … firstYear + yearCount − 1.
+ */
+export interface TriggerPlan {
+  firstYear: number
+  yearCount: number
+  /** Ascending; the first is the baseline year (rise 0), the last the last output year. */
+  knotYears: Int32Array
+  /** 1 where a knot is an output year: its count is the output year's exact one, not counted again. */
+  knotIsOutput: Uint8Array
+  /** Per knot, the weight of each basis column (row-major, knots × basisCount). */
+  knotWeight: Float64Array
+  /**
+   * Per knot, the basis columns with a non-zero weight, padded to passes of four with the zero row
+   * (index basisCount, weight 0): knotColumns[knotColumnStart[k] … knotColumnStart[k + 1]), weights alike.
+   */
+  knotColumns: Int32Array
+  knotColumnWeight: Float64Array
+  knotColumnStart: Int32Array
+  /** Rise at each knot when every score is zero (intercept over the centred basis). */
+  knotCenter: Float64Array
+  /** Land motion's intercept at each knot (intercept over the levels, when the plan has draws). */
+  knotLandIntercept: Float64Array
+  /** Index in `thresholds` of each counted (mean-sea-level) threshold, and its height. */
+  thresholdIndex: Int32Array
+  heights: Float64Array
+}
+
+/**
  * Everything a sampling thread needs, precomputed from a validated input. Rise tables already carry
  * the component's scale factor and are expressed relative to the outlook's baseline year.
  */
@@ -104,6 +134,12 @@ export interface OutlookPlan {
   landIntercept: Float64Array
   landSlope: Float64Array
 
+  /**
+   * Per component, the probability levels inside which its values are published (quantile forms: the
+   * outermost levels pₖ folded so that both tails count, [max(p₁, 1 − pₘ), min(pₘ, 1 − p₁)]); [0, 1] for
+   * other forms, which are never extrapolated. Pairs [low, high].
+   */
+  publishedLevels: Float64Array
   /** Rise when every score is zero: the reference point of float sums, so they stay well conditioned. */
   center: Float64Array
 
@@ -134,13 +170,55 @@ export interface OutlookPlan {
     levelFactor: Float64Array
     /** Per year and level: the annual chance along the all-scores-zero trajectory, the sums' reference. */
     levelReference: Float64Array
+    /** `HeavyTail` of the plan's lognormal components (none: empty arrays, every year settled). */
+    heavy: HeavyTail
+    /** Parameter uncertainty: each trajectory draws its own location and scale (null: the central pair for all). */
+    uncertainty: GumbelUncertainty | null
   } | null
+  /** Annual counting for trigger years; null without mean-sea-level thresholds. */
+  trigger: TriggerPlan | null
   /** Distinct (start year, design life) pairs of flood levels. */
   lifeSpans: LifeSpan[]
   lifeHistogramSize: number
   /** Sums per block, in this order: see `sumLayout`. */
   sumsPerBlock: number
   sumLayout: SumLayout
+}
+
+/**
+ * E[e^{rise/λ}] is infinite when the rise has a lognormal part felt with a positive weight (a tail
+ * heavier than exponential), so in such years the allowance's sums use the rise with each lognormal
+ * anchor value held at its value for score Φ⁻¹(0.999) = 3.0902 when the score is beyond it.
+ */
+export interface HeavyTail {
+  /** Anchor-value slots of lognormal components with sigma > 0 and a non-zero scale. */
+  slots: Int32Array
+  /** Per heavy slot, its centred value (less `valueAtZero`) at the cap score. */
+  cap: Float64Array
+  /** Per heavy slot, the sign of its scale: the side its values pass the cap from. */
+  sign: Float64Array
+  /** Per year and heavy slot (row-major): the weight of the slot's basis column in that year. */
+  weight: Float64Array
+  /** Per year, 1 where some heavy slot's value is felt with a positive sign (scale · weight > 0). */
+  unsettled: Uint8Array
+}
+
+/**
+ * Per trajectory, location μ + σ_μ·z₁ and scale max(λ + σ_λ·(ρz₁ + √(1−ρ²)·z₂), λ·SCALE_FLOOR), z₁ and z₂
+ * two more independent scores drawn after land motion's. Flood chances, expected counts and life chances
+ * use the trajectory's pair; the allowance and amplification keep the central λ.
+ */
+export interface GumbelUncertainty {
+  locationSe: number
+  scaleSe: number
+  correlation: number
+  /** Scale never falls below this fraction of the central scale. */
+  scaleFloor: number
+  /**
+   * Per life span, the heights at which its chance of no exceedance is summed (`SumLayout.lifeGrid`):
+   * the design-life level is read between them (see `design-life.ts`).
+   */
+  lifeGrid: Float64Array[]
 }
 
 export interface SumLayout {
@@ -159,6 +237,12 @@ export interface SumLayout {
   annualChance: number
   /** Per threshold with a design life: Σd and Σd², d its chance of no exceedance during the life less `lifeReference`. */
   lifeNoExceedance: number
+  /** Per year: Σd and Σd², d = exp((rise − center)/λ) − 1 (capped where unsettled, as `gumbelExp`): the allowance's SE. */
+  gumbelGrowth: number
+  /** With parameter uncertainty, per year and Gumbel level: Σ e^{(rise − (level − μ_s))/λ_s}, the expected exceedances. */
+  expectedCount: number
+  /** With parameter uncertainty, per life span and grid height: Σ of each sample's chance of no exceedance. */
+  lifeGrid: number
 }
 
 /** Mergeable statistics of some blocks of a plan (consecutive or not). */
@@ -171,6 +255,12 @@ export interface OutlookPartial {
   histogram: Uint32Array
   /** Per life span, counts of ln Σ_years e^{rise/λ} (see `LifeSpan`). */
   lifeHistogram: Uint32Array
+  /**
+   * Per counted threshold m, calendar-year cells [m·(yearCount + 1) …]: a difference array of the
+   * samples above the threshold in years strictly between knots (running sums give the counts), plus
+   * direct counts at knots that are not output years (see `TriggerPlan`). Adds exactly under merging.
+   */
+  triggerCounts: Int32Array
   /** Per year, smallest and largest rise seen (exact under any merge order). */
   minimum: Float64Array
   maximum: Float64Array
@@ -182,6 +272,19 @@ export interface Estimate {
   value: number
   /** Monte Carlo standard error. */
   se: number
+  /**
+   * Only on a proportion of samples whose count is 0: the one-sided 95 % upper bound min(1, 3/N) (rule
+   * of three), so "0 ± 0" can be said as "below 3/N".
+   */
+  upperBound95?: number
+  /** Only on a proportion whose count is N: the one-sided 95 % lower bound max(0, 1 − 3/N). */
+  lowerBound95?: number
+  /**
+   * On every percentile and every mean-sea-level `byYear` chance: true when it rests on a quantile-form
+   * release beyond its outermost published levels (rule in the engine README, "Extrapolated"); such a
+   * value gets no likelihood word.
+   */
+  extrapolated?: boolean
 }
 
 export interface PercentileEstimate extends Estimate {
@@ -205,6 +308,18 @@ export interface YearGumbel {
   allowance: number
   /** mean(exp(rise/λ)): how many times more often any high level is reached. */
   amplification: number
+  /**
+   * false where the rise has a lognormal part (a tail heavier than exponential): E[exp(rise/λ)] is then
+   * infinite and the two values above are those of the rise with each lognormal part capped at its
+   * score-3.0902 (99.9th percentile) value, finite and stable in N but a stated convention.
+   */
+  settled: boolean
+  /** Why not settled (absent when settled). */
+  unsettledReason?: 'heavy-tail'
+  /** Monte Carlo standard error of `allowance` (delta method: λ·se(mean g)/mean g, g = exp(rise/λ)); 0 with no spread. */
+  allowanceSe: number
+  /** Monte Carlo standard error of `amplification`. */
+  amplificationSe: number
   returnPeriods: Array<{
     /** Today's return period T, years. */
     today: number
@@ -222,6 +337,8 @@ export interface FloodLevelOutlook {
   annualChance: Estimate[]
   /** Per output year: expected number of exceedances a year, e^{−(h−μ)/λ} · mean e^{rise/λ} (the Gumbel's Poisson rate). */
   expectedPerYear: number[]
+  /** Per output year: false where `expectedPerYear` uses the capped rise of an unsettled year (see `YearGumbel.settled`). */
+  expectedPerYearSettled: boolean[]
   /** Per output year: 1 / annualChance, years; null where the chance is 0. */
   returnPeriodYears: Array<number | null>
 }

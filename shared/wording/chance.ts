@@ -68,9 +68,20 @@ export function samplingNote(standardError: number, language: Language): string 
   return language === 'es' ? `± ${margin} por el muestreo` : `± ${margin} from sampling`
 }
 
+/**
+ * Said instead of a calibrated word where a chance depends on a release beyond its outermost published
+ * level: the release does not describe that tail, so no likelihood word is earned.
+ */
+export const BEYOND_RANGE: Record<Language, string> = {
+  en: 'beyond the range the releases describe',
+  es: 'fuera del rango que describen las versiones publicadas',
+}
+
 export interface HeadlineParts {
   probability: number
   standardError: number
+  /** The chance lies beyond the outermost level a release publishes: no calibrated word is given. */
+  extrapolated?: boolean
   height: number
   year: number
   referenceLevel: string
@@ -85,7 +96,7 @@ export interface HeadlineParts {
 export function headlineSentence(parts: HeadlineParts): string {
   const { probability, language } = parts
   const chance = formatChance(probability, language)
-  const word = likelihoodPhrase(probability, language)
+  const word = parts.extrapolated ? BEYOND_RANGE[language] : likelihoodPhrase(probability, language)
   const height = formatHeight(parts.height, parts.unit, language === 'es' ? 'es' : 'en')
   const note = samplingNote(parts.standardError, language)
   const qualifier = note ? `(${word}; ${note})` : `(${word})`

@@ -360,17 +360,17 @@ describe('outputs', () => {
       }),
     )
     const road = result.thresholds[0]!
+    // Trigger years are calendar years: an output year reaching the tolerance bounds the trigger from above.
     const probability = (year: number) => road.byYear[result.years.indexOf(year)]!.value
     for (const { tolerance, year } of road.triggerYears) {
-      if (year === null) {
-        expect(result.years.every((y) => probability(y) < tolerance)).toBe(true)
-      } else {
-        expect(probability(year)).toBeGreaterThanOrEqual(tolerance)
-        expect(result.years.filter((y) => y < year).every((y) => probability(y) < tolerance)).toBe(true)
-      }
+      const decadal = result.years.find((y) => probability(y) >= tolerance)
+      if (year === null) expect(decadal).toBeUndefined()
+      else if (decadal !== undefined) expect(year).toBeLessThanOrEqual(decadal)
     }
     expect(road.triggerYears.map((t) => t.tolerance)).toEqual([0.01, 0.05, 0.1, 0.33, 0.5])
-    expect(road.triggerYears.find((t) => t.tolerance === 0.5)!.year).toBe(2100)
+    // [practice] the median of the normal rise is its mean 0.1 + 0.004·(y − 2050) m, which passes 0.25 m
+    // after 2087.5: 2088 (P ≈ 0.51, 3 SE above 50 % at 20k; 2087 is as far below).
+    expect(road.triggerYears.find((t) => t.tolerance === 0.5)!.year).toBe(2088)
     expect(result.thresholds[1]!.triggerYears.every((t) => t.year === null)).toBe(true)
   })
 

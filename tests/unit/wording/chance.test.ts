@@ -48,4 +48,12 @@ describe('chances in words', () => {
     expect(nb(headlineSentence({ ...parts, unit: 'ft' }))).toContain('more than 1.6 ft above')
     expect(nb(headlineSentence({ ...parts, language: 'es' }))).toBe('Hay una probabilidad del 23 % (improbable) de que el nivel medio del mar aquí esté más de 0,50 m por encima de mean sea level 2020 en 2070.')
   })
+
+  it('gives no calibrated word to a chance that lies beyond what the releases publish', () => {
+    const parts = { probability: 0.004, standardError: 0.0002, extrapolated: true, height: 1.2, year: 2100, referenceLevel: 'chart datum', unit: 'm' as const, language: 'en' as const }
+    const sentence = nb(headlineSentence(parts))
+    expect(sentence).toBe('There is a less than 1 % chance (beyond the range the releases describe) that the mean sea level here will be more than 1.20 m above chart datum by 2100.')
+    expect(sentence).not.toMatch(/unlikely/)
+    expect(nb(headlineSentence({ ...parts, language: 'es' }))).toMatch(/\(fuera del rango que describen las versiones publicadas\)/)
+  })
 })

@@ -1,0 +1,130 @@
+import { ROW, TILE, type TileScratch } from './tile-scratch'
+import { KNOT_PASS } from './trigger-plan'
+import type { OutlookPlan } from './types'
+
+// Annual counts for trigger years (see `TriggerPlan`). Between two knots a sample's rise is a straight
+// line, so the years in which it exceeds a height form a run at one end of the interval: samples above
+// at both ends count once per tile for every year between, and for a sample that crosses the height
+// one division finds the run, which goes into a difference array as +1 and −1.
+// The counts are exact integers (up to rounding of the crossing point itself), not interpolated chances.
+
+/** Each knot's rise for the tile's samples at [k·TILE + i]; grown to the largest plan seen. */
+let knotRise = new Float64Array(0)
+
+export function triggerTile(plan: OutlookPlan, scratch: TileScratch, tileCount: number, counts: Int32Array): void {
+  const trigger = plan.trigger!
+  const knotCount = trigger.knotYears.length
+  if (knotRise.length < knotCount * TILE) knotRise = new Float64Array(knotCount * TILE)
+  const rise = knotRise
+  const rows = scratch.rows
+  const rowsAt = scratch.sumsAt
+  const intercepts = scratch.sumsAreLevels ? trigger.knotLandIntercept : trigger.knotCenter
+  // Knot 0 is the baseline year, where every trajectory's rise is exactly zero.
+  rise.fill(0, 0, tileCount)
+  const columns = trigger.knotColumns
+  const weights = trigger.knotColumnWeight
+  for (let k = 1; k < knotCount; k++) {
+    const out = k * TILE
+    const intercept = intercepts[k]!
+    // Four columns per pass, the first pass starting from the intercept (padding reads the zero row).
+    for (let c = trigger.knotColumnStart[k]!; c < trigger.knotColumnStart[k + 1]!; c += KNOT_PASS) {
+      const b0 = rowsAt + columns[c]! * ROW
+      const b1 = rowsAt + columns[c + 1]! * ROW
+      const b2 = rowsAt + columns[c + 2]! * ROW
+      const b3 = rowsAt + columns[c + 3]! * ROW
+      const w0 = weights[c]!
+      const w1 = weights[c + 1]!
+      const w2 = weights[c + 2]!
+      const w3 = weights[c + 3]!
+      if (c === trigger.knotColumnStart[k]) {
+        for (let i = 0; i < tileCount; i = (i + 1) | 0) {
+          rise[(out + i) | 0] = intercept + w0 * rows[(b0 + i) | 0]! + w1 * rows[(b1 + i) | 0]! + w2 * rows[(b2 + i) | 0]! + w3 * rows[(b3 + i) | 0]!
+        }
+      } else {
+        for (let i = 0; i < tileCount; i = (i + 1) | 0) {
+          rise[(out + i) | 0] = rise[(out + i) | 0]! + w0 * rows[(b0 + i) | 0]! + w1 * rows[(b1 + i) | 0]! + w2 * rows[(b2 + i) | 0]! + w3 * rows[(b3 + i) | 0]!
+        }
+      }
+    }
+  }
+  countTriggers(plan, tileCount, counts)
+}
+
+/** The difference-array counts of every counted threshold from the knots' rises (see `triggerTile`). */
+function countTriggers(plan: OutlookPlan, tileCount: number, counts: Int32Array): void {
+  const trigger = plan.trigger!
+  const knotCount = trigger.knotYears.length
+  const rise = knotRise
+  const stride = trigger.yearCount + 1
+  for (let m = 0; m < trigger.heights.length; m++) {
+    const height = trigger.heights[m]!
+    const base = m * stride
+    for (let k = 1; k < knotCount; k++) {
+      const span = trigger.knotYears[k]! - trigger.knotYears[k - 1]!
+      // Cell of the interval's start year; offset o ∈ 1 … span is year start + o.
+      const at = base + trigger.knotYears[k - 1]! - trigger.firstYear
+      const fromAt = (k - 1) * TILE
+      const toAt = k * TILE
+      const countEnd = trigger.knotIsOutput[k] === 0
+      // Most samples lie on one side of the height at both ends: above at both, every year between is
+      // above (the rise is a straight line), counted once for the tile; below at both, none is. Only
+      // samples that cross it inside the interval need the crossing year.
+      let through = 0
+      let ends = 0
+      for (let i = 0; i < tileCount; i++) {
+        const r0 = rise[fromAt + i]!
+        const r1 = rise[toAt + i]!
+        const above0 = r0 > height ? 1 : 0
+        const above1 = r1 > height ? 1 : 0
+        through += above0 & above1
+        ends += above1
+        // Usually well predicted: a tenth of the samples or fewer cross a height within one interval.
+        if (above0 === above1) continue
+        // Offsets o strictly inside whose rise r0 + (r1 − r0)·o/span exceeds the height: after the
+        // crossing when rising, before it when falling.
+        const crossing = ((height - r0) * span) / (r1 - r0)
+        let first = 1
+        let last = span - 1
+        if (above1 === 1) first = crossing >= 1 ? Math.floor(crossing) + 1 : 1
+        else last = crossing < span ? Math.ceil(crossing) - 1 : span - 1
+        if (first <= last) {
+          counts[at + first]!++
+          counts[at + last + 1]!--
+        }
+      }
+      if (span > 1) {
+        counts[at + 1]! += through
+        counts[at + span]! -= through
+      }
+      if (countEnd) {
+        counts[at + span]! += ends
+        counts[at + span + 1]! -= ends
+      }
+    }
+  }
+}
+
+/**
+ * Samples above each counted threshold per calendar year, from the difference array; output years take
+ * the exact count of the exceedance cells (`outputCount`), the baseline year its zero rise.
+ */
+export function annualCounts(
+  plan: OutlookPlan,
+  counts: Int32Array,
+  m: number,
+  outputCount: (t: number) => number,
+): Float64Array {
+  const trigger = plan.trigger!
+  const stride = trigger.yearCount + 1
+  const annual = new Float64Array(trigger.yearCount)
+  let running = 0
+  for (let y = 0; y < trigger.yearCount; y++) {
+    running += counts[m * stride + y]!
+    annual[y] = running
+  }
+  annual[0] = 0 > trigger.heights[m]! ? plan.samples : 0
+  plan.years.forEach((year, t) => {
+    annual[year - trigger.firstYear] = outputCount(t)
+  })
+  return annual
+}

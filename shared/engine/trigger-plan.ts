@@ -1,0 +1,86 @@
+import { relativeAnchorWeights } from './timeline'
+import type { TriggerPlan } from './types'
+import type { ValidatedOutlookInput } from './validate'
+
+/** Columns a knot's rise adds per pass over the tile. */
+export const KNOT_PASS = 4
+
+/**
+ * What annual trigger years need. Along one trajectory every component is linear in time between its
+ * release's baseline and anchor years, and land motion is linear throughout, so the rise is linear
+ * between consecutive knots: the outlook's baseline, the output years, and every release's baseline and
+ * anchor years in between. Each knot's rise is a fixed mix of the basis columns, like an output year's.
+ *
+ * `groups` lists, per basis column group (components sharing time weights), its first column and a
+ * release with those weights; `valueBasis` and `valueAtZero` are the plan's.
+ */
+export function planTriggers(
+  input: ValidatedOutlookInput,
+  groups: Array<{ firstColumn: number; release: { baselineYear: number; anchorYears: number[] } }>,
+  basisCount: number,
+  valueBasis: Int32Array,
+  valueAtZero: Float64Array,
+  thresholdIndex: number[],
+  heights: number[],
+): TriggerPlan | null {
+  if (!thresholdIndex.length) return null
+  const baseline = input.baselineYear
+  const last = input.years[input.years.length - 1]!
+  const knotSet = new Set<number>([baseline, ...input.years])
+  for (const component of input.components) {
+    for (const year of [component.release.baselineYear, ...component.release.anchorYears]) {
+      if (year > baseline && year < last) knotSet.add(year)
+    }
+  }
+  const knotYears = Int32Array.from([...knotSet].sort((a, b) => a - b))
+  const knotCount = knotYears.length
+  const years = Array.from(knotYears)
+  const knotWeight = new Float64Array(knotCount * basisCount)
+  for (const group of groups) {
+    const weights = relativeAnchorWeights(group.release.baselineYear, group.release.anchorYears, baseline, years)
+    for (let k = 0; k < knotCount; k++) knotWeight.set(weights[k]!, k * basisCount + group.firstColumn)
+  }
+  const landIntercept = new Float64Array(knotCount)
+  const landColumn = basisCount - 1
+  for (let k = 0; k < knotCount; k++) {
+    const elapsed = knotYears[k]! - baseline
+    landIntercept[k] = input.landMotion ? (-input.landMotion.rateMmPerYear / 1000) * elapsed : 0
+    knotWeight[k * basisCount + landColumn] = input.landMotion ? (-input.landMotion.sigmaMmPerYear / 1000) * elapsed : 0
+  }
+  const center = Float64Array.from(landIntercept)
+  for (let k = 0; k < knotCount; k++) {
+    for (let slot = 0; slot < valueBasis.length; slot++) center[k]! += knotWeight[k * basisCount + valueBasis[slot]!]! * valueAtZero[slot]!
+  }
+  // Columns each knot reads (non-zero weights), flattened and padded to whole passes of four with the
+  // zero row (column basisCount, weight 0): knot k's are columns[columnStart[k] … columnStart[k + 1]).
+  const columns: number[] = []
+  const columnWeights: number[] = []
+  const columnStart = new Int32Array(knotCount + 1)
+  for (let k = 0; k < knotCount; k++) {
+    columnStart[k] = columns.length
+    for (let j = 0; j < basisCount; j++) {
+      if (knotWeight[k * basisCount + j] === 0) continue
+      columns.push(j)
+      columnWeights.push(knotWeight[k * basisCount + j]!)
+    }
+    while ((columns.length - columnStart[k]!) % KNOT_PASS !== 0 || columns.length === columnStart[k]) {
+      columns.push(basisCount)
+      columnWeights.push(0)
+    }
+  }
+  columnStart[knotCount] = columns.length
+  return {
+    firstYear: baseline,
+    yearCount: last - baseline + 1,
+    knotYears,
+    knotIsOutput: Uint8Array.from(knotYears, (year) => (input.years.includes(year) ? 1 : 0)),
+    knotWeight,
+    knotColumns: Int32Array.from(columns),
+    knotColumnWeight: Float64Array.from(columnWeights),
+    knotColumnStart: columnStart,
+    knotCenter: center,
+    knotLandIntercept: landIntercept,
+    thresholdIndex: Int32Array.from(thresholdIndex),
+    heights: Float64Array.from(heights),
+  }
+}
