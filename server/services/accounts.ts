@@ -4,7 +4,8 @@ import { accountTokens, organisations, users } from '~~/server/db/schema'
 import type { z } from 'zod'
 import type { InvitationSchema } from '#shared/schemas/accounts'
 import { passwordAddressProblem } from '#shared/schemas/users'
-import type { CurrentUser } from '../utils/auth'
+import { assertMayGrant, type CurrentUser } from '../utils/auth'
+import { organisationForPeople } from './users'
 import { invitationMail, passwordResetMail } from '../mail/templates'
 import { hashToken } from './watches'
 
@@ -16,11 +17,11 @@ const RESET_HOURS = 1
 const newToken = () => randomBytes(24).toString('base64url')
 
 export async function inviteUser(admin: CurrentUser, input: z.infer<typeof InvitationSchema>) {
+  assertMayGrant(admin, input.role)
+  const organisation = await organisationForPeople(admin, input.organisationId)
   const db = await useDb()
   const [existing] = await db.select({ id: users.id }).from(users).where(eq(users.email, input.email))
   if (existing) throw createError({ statusCode: 409, message: `email: ${input.email} already has an account.` })
-  const [organisation] = await db.select().from(organisations).where(eq(organisations.id, input.organisationId))
-  if (!organisation) throw createError({ statusCode: 400, message: 'organisationId: No such organisation. Choose one from the list.' })
   const token = newToken()
   await db.transaction(async (tx) => {
     const [row] = await tx.insert(accountTokens).values({
@@ -29,7 +30,7 @@ export async function inviteUser(admin: CurrentUser, input: z.infer<typeof Invit
     }).returning({ id: accountTokens.id })
     const mail = invitationMail(input.language, admin.name, organisation.name, input.role, `${appUrl()}/account/invitation?token=${token}`)
     await queueMail(tx, { to: input.email, ...mail, dedupeKey: `invitation:${row!.id}` })
-    await writeAudit(tx, admin, 'user.invited', { type: 'invitation', id: row!.id }, { email: input.email, role: input.role })
+    await writeAudit(tx, admin, 'user.invited', { type: 'invitation', id: row!.id }, { email: input.email, role: input.role }, organisation.id)
   })
 }
 

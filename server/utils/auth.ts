@@ -41,7 +41,27 @@ export async function requireRole(event: H3Event, ...roles: Role[]): Promise<Cur
   return user
 }
 
-export const requireAdmin = (event: H3Event) => requireRole(event, 'admin')
+/** An organisation's administrator, or the operator (who administers every organisation). */
+export async function requireAdmin(event: H3Event): Promise<CurrentUser> {
+  const user = await requireUser(event)
+  if (user.role !== 'admin' && user.role !== 'operator') throw createError({ statusCode: 403, message: 'This needs the admin role.' })
+  return user
+}
+/** The instance's operator: organisations, the demo mailbox, instance-wide work. */
+export const requireOperator = (event: H3Event) => requireRole(event, 'operator')
+
+/**
+ * Which organisation's people this administrator may act on: the operator every one (null), an
+ * admin only their own.
+ */
+export const administeredOrganisation = (admin: CurrentUser): string | null => admin.role === 'operator' ? null : admin.organisationId
+
+/** Only the operator may make someone an operator: an admin who could would hold every organisation. */
+export function assertMayGrant(admin: CurrentUser, role: Role | undefined) {
+  if (role === 'operator' && admin.role !== 'operator') {
+    throw createError({ statusCode: 403, message: 'role: Making someone an operator needs the operator role.', data: { issues: [{ field: 'role', message: 'Choose a role other than operator.' }] } })
+  }
+}
 
 /**
  * Organisation scoping: a record of another organisation answers 404, exactly like a missing

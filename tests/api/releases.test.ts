@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient } from '../support/client'
-import { ADMIN, ANALYST, PLANNER, READER, demoUser } from '../support/demo-users'
+import { ADMIN, ANALYST, OPERATOR, PLANNER, READER, demoUser } from '../support/demo-users'
 import { startServer, type RunningServer } from '../support/server'
 
 const REVIEWER = demoUser('reviewer@saltglass.example')
@@ -76,8 +76,8 @@ describe('publishing a release', () => {
     const listed = (await anonymous().get('/api/releases?component=glaciers&scenario=SSP2-4.5')).body.filter((r: { seriesId: string }) => r.seriesId === created.body.seriesId)
     expect(listed.map((r: { version: number }) => r.version)).toEqual([2])
 
-    const admin = await as(ADMIN.email, ADMIN.password)
-    const actions = (await admin.get('/api/admin/audit?limit=50')).body
+    const operator = await as(OPERATOR.email, OPERATOR.password)
+    const actions = (await operator.get('/api/admin/audit?limit=50')).body
       .filter((entry: { targetId: string }) => [v1, second.body.id].includes(entry.targetId)).map((entry: { action: string }) => entry.action)
     expect(actions).toEqual(expect.arrayContaining(['release.drafted', 'release.submitted', 'release.published', 'release.superseded']))
   })
