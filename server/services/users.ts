@@ -1,7 +1,7 @@
 import { and, asc, eq, ne } from 'drizzle-orm'
 import { organisations, users } from '~~/server/db/schema'
 import type { CreateUserInput, UpdateUserInput } from '#shared/schemas/users'
-import { administeredOrganisation, assertMayGrant, type CurrentUser } from '../utils/auth'
+import { administeredOrganisation, assertMayGrant, endSessions, type CurrentUser } from '../utils/auth'
 
 // People are administered by their organisation's admins, and by the operator for every organisation.
 // An organisation an admin does not administer reads as missing, exactly like one that does not exist.
@@ -61,6 +61,8 @@ export async function updateUser(admin: CurrentUser, id: string, patch: UpdateUs
 
     const [updated] = await tx.update(users).set({ ...patch, updatedAt: new Date() }).where(eq(users.id, id))
       .returning({ id: users.id, email: users.email, name: users.name, role: users.role, organisationId: users.organisationId, disabled: users.disabled })
+    // Disabling ends the user's sessions for good: enabling them again later does not revive old cookies.
+    if (patch.disabled === true && !target.disabled) await endSessions(tx, id)
     await writeAudit(tx, admin, 'user.updated', { type: 'user', id }, { before: { role: target.role, disabled: target.disabled, name: target.name }, after: patch }, target.organisationId)
     return updated!
   })
