@@ -106,10 +106,12 @@ export async function updateRelease(actor: CurrentUser, id: string, input: Relea
   const { columns, draws } = prepare(input)
   return db.transaction(async (tx) => {
     // Re-check under a lock: a submit may have raced this edit.
-    const [locked] = await tx.select({ state: releases.state }).from(releases).where(eq(releases.id, id)).for('update')
+    const [locked] = await tx.select({ state: releases.state, coauthorIds: releases.coauthorIds }).from(releases).where(eq(releases.id, id)).for('update')
     if (locked?.state !== 'draft') throw createError({ statusCode: 409, message: 'This version left the draft state while you were editing; start a new version instead.' })
+    // Whoever changes a colleague's draft becomes one of its authors, so they cannot approve it later.
+    const coauthorIds = actor.id === row.authorId || locked.coauthorIds.includes(actor.id) ? locked.coauthorIds : [...locked.coauthorIds, actor.id]
     const [updated] = await tx.update(releases).set({
-      ...columns, method: input.method, citation: input.citation, doi: input.doi ?? null, licence: input.licence, updatedAt: new Date(),
+      ...columns, coauthorIds, method: input.method, citation: input.citation, doi: input.doi ?? null, licence: input.licence, updatedAt: new Date(),
     }).where(eq(releases.id, id)).returning({ id: releases.id, version: releases.version, state: releases.state })
     await tx.delete(releaseDraws).where(eq(releaseDraws.releaseId, id))
     if (draws) await tx.insert(releaseDraws).values({ releaseId: id, drawCount: draws.length, anchorCount: columns.anchorYears.length, values: encodeDraws(draws) })
@@ -134,6 +136,7 @@ const listColumns = {
   publishedAt: releases.publishedAt,
   updatedAt: releases.updatedAt,
   authorId: releases.authorId,
+  coauthorIds: releases.coauthorIds,
   seriesId: series.id,
   component: series.component,
   scenario: series.scenario,

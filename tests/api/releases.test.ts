@@ -82,6 +82,23 @@ describe('publishing a release', () => {
     expect(actions).toEqual(expect.arrayContaining(['release.drafted', 'release.submitted', 'release.published', 'release.superseded']))
   })
 
+  it('refuses approval by a colleague who edited the draft: they are one of its authors', async () => {
+    const draft = (await author.post('/api/releases', {
+      series: { component: 'greenland', scenario: 'SSP2-4.5', title: 'Greenland posterior (two people)' }, form: 'normal', unit: 'mm', baselineYear: 2020, anchorYears: [2100], mean: [40], sd: [10], ...provenance,
+    })).body
+    // The colleague rewrites the content and the method, then tries to publish it alone.
+    const edited = await reviewer.request('PATCH', `/api/releases/${draft.id}`, { form: 'normal', unit: 'mm', baselineYear: 2020, anchorYears: [2100], mean: [400], sd: [1], ...provenance, method: 'Changed by the reviewer.' })
+    expect(edited.status).toBe(200)
+    expect((await reviewer.post(`/api/releases/${draft.id}/submit`)).status).toBe(200)
+    expect((await reviewer.get(`/api/releases/${draft.id}`)).body.actions).toEqual(['return'])
+    const refused = await reviewer.post(`/api/releases/${draft.id}/approve`)
+    expect(refused.status).toBe(403)
+    expect(refused.body.message).toMatch(/You changed this version's content, so you are one of its authors/)
+    // The original author may not approve either; the release stays in review for a third analyst.
+    expect((await author.post(`/api/releases/${draft.id}/approve`)).status).toBe(403)
+    expect((await author.get(`/api/releases/${draft.id}`)).body.state).toBe('in-review')
+  })
+
   it('keeps other organisations out of drafts: they cannot see, edit, submit or approve them', async () => {
     const draft = (await author.post('/api/releases', {
       series: { component: 'other', scenario: 'SSP1-2.6', title: 'Private draft (test)' }, form: 'normal', baselineYear: 2020, anchorYears: [2100], mean: [0.01], sd: [0.005], ...provenance,
