@@ -2,8 +2,6 @@ import { and, desc, eq, inArray, max, or, type SQL } from 'drizzle-orm'
 import { alias, type AnyPgColumn } from 'drizzle-orm/pg-core'
 import { organisations, releaseDraws, releases, series, users } from '~~/server/db/schema'
 import type { ParsedRelease } from '#shared/engine'
-import { buildRelease } from '#shared/releases/content'
-import { releaseBands } from '#shared/releases/summary'
 import type { CreateReleaseInput, ReleaseContentInput } from '#shared/schemas/releases'
 import { judgeEdit } from '#shared/review/rules'
 import { PUBLIC_STATES, type ReviewState } from '#shared/types/science'
@@ -29,10 +27,9 @@ export function decodeDraws(values: Buffer, drawCount: number, anchorCount: numb
   return Array.from({ length: drawCount }, (_, d) => Array.from(flat.subarray(d * anchorCount, (d + 1) * anchorCount)))
 }
 
-/** A release as entered → the row's distribution columns, its bands and its draws (if any). */
-function prepare(input: ReleaseContentInput) {
-  const release = asBadRequest(() => buildRelease(input))
-  const summary = releaseBands(release)
+/** A release as entered → the row's distribution columns, its bands and its draws (if any), worked off the request thread. */
+async function prepare(input: ReleaseContentInput) {
+  const { release, bands: summary } = await releaseWork({ input, years: 'anchors' })
   const { form, baselineYear, anchorYears, ...rest } = release as ParsedRelease & { draws?: number[][] }
   const draws = 'draws' in rest ? rest.draws as number[][] : null
   if (draws) delete (rest as { draws?: unknown }).draws
@@ -73,7 +70,7 @@ async function nextVersion(seriesId: string | undefined, requested: number | und
 export async function createRelease(actor: CurrentUser, input: CreateReleaseInput) {
   const existing = await seriesFor(actor, input)
   const version = await nextVersion(existing?.id, input.version)
-  const { columns, draws } = prepare(input)
+  const { columns, draws } = await prepare(input)
   const db = await useDb()
   return db.transaction(async (tx) => {
     const seriesRow = existing ?? (await tx.insert(series).values({ ...input.series!, organisationId: actor.organisationId }).returning())[0]!
@@ -103,7 +100,7 @@ export async function updateRelease(actor: CurrentUser, id: string, input: Relea
   if (!row) throw createError({ statusCode: 404, message: 'No such release.' })
   const verdict = judgeEdit(row, actor)
   if (!verdict.ok) throw createError({ statusCode: verdict.status, message: verdict.message })
-  const { columns, draws } = prepare(input)
+  const { columns, draws } = await prepare(input)
   return db.transaction(async (tx) => {
     // Re-check under a lock: a submit may have raced this edit.
     const [locked] = await tx.select({ state: releases.state, coauthorIds: releases.coauthorIds }).from(releases).where(eq(releases.id, id)).for('update')

@@ -46,4 +46,18 @@ describe('release size limits', () => {
     expect(create.body.message).toMatch(message)
     expect((await analyst.get('/api/releases?state=draft')).body.length).toBe(before)
   })
+
+  it('stops release work that runs past its time budget with a 503 that says what to do, and goes on answering', async () => {
+    const hurried = await startServer({ RELEASE_WORK_MS: '1' })
+    try {
+      const api = await ApiClient.signedIn(hurried.url, ANALYST.email, ANALYST.password)
+      const answer = await api.post('/api/releases/preview', { form: 'normal', baselineYear: 2020, anchorYears: [2100], mean: [0.1], sd: [0.01], ...provenance })
+      expect(answer.status).toBe(503)
+      expect(answer.body.message).toMatch(/took longer than .* so it was stopped\. Send fewer draws or anchor years/)
+      expect((await api.get('/api/me')).status).toBe(200)
+    }
+    finally {
+      await hurried.stop()
+    }
+  })
 })
