@@ -13,14 +13,15 @@ const ITEMS: NavItem[] = [
   { to: '/library', labelKey: 'nav.library' },
   // Anyone signed in may watch sites (their own address); the list lives on this page.
   { to: '/watches', labelKey: 'watches.nav', signedIn: true },
-  { to: '/admin/users', labelKey: 'nav.adminUsers', roles: ['admin'] },
-  { to: '/admin/invitations', labelKey: 'account.invite.nav', roles: ['admin'] },
-  // The stand-in mailbox and the outbox: where admins see what was sent and what failed.
-  { to: '/admin/mailbox', labelKey: 'mailbox.nav', roles: ['admin'] },
-  { to: '/admin/outbox', labelKey: 'mailbox.outbox.nav', roles: ['admin'] },
-  // Recomputations of many sites after new science, with their progress.
-  { to: '/admin/recomputations', labelKey: 'recomputations.nav', roles: ['admin'] },
-  { to: '/admin/audit', labelKey: 'nav.adminAudit', roles: ['admin'] },
+  // An organisation's admins keep its people, outbox and audit; the operator keeps every organisation's.
+  { to: '/admin/users', labelKey: 'nav.adminUsers', roles: ['admin', 'operator'] },
+  { to: '/admin/invitations', labelKey: 'account.invite.nav', roles: ['admin', 'operator'] },
+  // The demo's stand-in mailbox holds everyone's reset links: the operator's alone.
+  { to: '/admin/mailbox', labelKey: 'mailbox.nav', roles: ['operator'] },
+  { to: '/admin/outbox', labelKey: 'mailbox.outbox.nav', roles: ['admin', 'operator'] },
+  // Recomputations of every organisation's sites after new science, with their progress.
+  { to: '/admin/recomputations', labelKey: 'recomputations.nav', roles: ['operator'] },
+  { to: '/admin/audit', labelKey: 'nav.adminAudit', roles: ['admin', 'operator'] },
 ]
 
 export function useNavigation() {

@@ -3,28 +3,31 @@ import { join } from 'node:path'
 import { build } from 'esbuild'
 import { defineNuxtModule } from 'nuxt/kit'
 
-// Outlooks run on worker threads, which need a script file of their own. This bundles
-// server/workers/outlook-worker.ts (and the engine it imports) with esbuild: into .nuxt for
-// `nuxt dev`, and beside the built server (.output/server/workers) for production.
+// Outlooks and a release's checks run on worker threads, which need script files of their own. This
+// bundles server/workers/outlook-worker.ts and release-worker.ts (and the engine they import) with
+// esbuild: into .nuxt for `nuxt dev`, and beside the built server (.output/server/workers) for production.
 export default defineNuxtModule({
   meta: { name: 'outlook-worker' },
   setup(_options, nuxt) {
-    const entry = join(nuxt.options.rootDir, 'server/workers/outlook-worker.ts')
-    const bundle = (outfile: string) => build({ entryPoints: [entry], outfile, bundle: true, platform: 'node', format: 'esm', target: 'node20', logLevel: 'warning' })
+    const entry = (name: string) => join(nuxt.options.rootDir, `server/workers/${name}.ts`)
+    const bundleOne = (name: string, dir: string) => build({ entryPoints: [entry(name)], outfile: join(dir, `${name}.mjs`), bundle: true, platform: 'node', format: 'esm', target: 'node20', logLevel: 'warning' })
+    const bundle = (dir: string) => Promise.all([bundleOne('outlook-worker', dir), bundleOne('release-worker', dir)])
 
     if (nuxt.options.dev) {
-      const outfile = join(nuxt.options.buildDir, 'workers/outlook-worker.mjs')
-      nuxt.options.runtimeConfig.outlookWorkerPath = outfile
+      const dir = join(nuxt.options.buildDir, 'workers')
+      nuxt.options.runtimeConfig.outlookWorkerPath = join(dir, 'outlook-worker.mjs')
+      nuxt.options.runtimeConfig.releaseWorkerPath = join(dir, 'release-worker.mjs')
       nuxt.hook('nitro:build:before', async () => {
-        await mkdir(join(nuxt.options.buildDir, 'workers'), { recursive: true })
-        await bundle(outfile)
+        await mkdir(dir, { recursive: true })
+        await bundle(dir)
       })
       return
     }
     nuxt.options.runtimeConfig.outlookWorkerPath = ''
+    nuxt.options.runtimeConfig.releaseWorkerPath = ''
     nuxt.hook('nitro:init', (nitro) => {
       nitro.hooks.hook('compiled', async () => {
-        await bundle(join(nitro.options.output.serverDir, 'workers/outlook-worker.mjs'))
+        await bundle(join(nitro.options.output.serverDir, 'workers'))
       })
     })
   },

@@ -9,6 +9,6 @@ export default defineEventHandler(async (event) => {
   const db = await useDb()
   await db.update(users).set({ locale, updatedAt: new Date() }).where(eq(users.id, current.id))
   const user = { ...current, locale }
-  await replaceUserSession(event, { user })
+  await refreshSessionSnapshot(event, user)
   return { user }
 })

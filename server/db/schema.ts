@@ -25,6 +25,11 @@ export const users = pgTable('users', {
   organisationId: uuid('organisation_id').notNull().references(() => organisations.id),
   locale: text('locale').notNull().default('en'),
   disabled: boolean('disabled').notNull().default(false),
+  /**
+   * Sessions carry the generation they were signed in under; raising it (sign-out, password
+   * change or reset, disabling) ends every session of this user at once, wherever its cookie is.
+   */
+  sessionGeneration: integer('session_generation').notNull().default(0),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 }, table => [index('users_organisation_idx').on(table.organisationId)])
@@ -64,6 +69,8 @@ const reviewed = () => ({
   doi: text('doi'),
   licence: text('licence').notNull(),
   authorId: uuid('author_id').notNull().references(() => users.id),
+  /** Everyone else who changed this version's content: like the author, none of them may approve it. */
+  coauthorIds: uuid('coauthor_ids').array().notNull().default(sql`'{}'::uuid[]`),
   reviewerId: uuid('reviewer_id').references(() => users.id),
   reviewNote: text('review_note'),
   withdrawalReason: text('withdrawal_reason'),

@@ -4,7 +4,8 @@ import { accountTokens, organisations, users } from '~~/server/db/schema'
 import type { z } from 'zod'
 import type { InvitationSchema } from '#shared/schemas/accounts'
 import { passwordAddressProblem } from '#shared/schemas/users'
-import type { CurrentUser } from '../utils/auth'
+import { assertMayGrant, endSessions, type CurrentUser } from '../utils/auth'
+import { organisationForPeople } from './users'
 import { invitationMail, passwordResetMail } from '../mail/templates'
 import { hashToken } from './watches'
 
@@ -16,11 +17,11 @@ const RESET_HOURS = 1
 const newToken = () => randomBytes(24).toString('base64url')
 
 export async function inviteUser(admin: CurrentUser, input: z.infer<typeof InvitationSchema>) {
+  assertMayGrant(admin, input.role)
+  const organisation = await organisationForPeople(admin, input.organisationId)
   const db = await useDb()
   const [existing] = await db.select({ id: users.id }).from(users).where(eq(users.email, input.email))
   if (existing) throw createError({ statusCode: 409, message: `email: ${input.email} already has an account.` })
-  const [organisation] = await db.select().from(organisations).where(eq(organisations.id, input.organisationId))
-  if (!organisation) throw createError({ statusCode: 400, message: 'organisationId: No such organisation. Choose one from the list.' })
   const token = newToken()
   await db.transaction(async (tx) => {
     const [row] = await tx.insert(accountTokens).values({
@@ -29,7 +30,7 @@ export async function inviteUser(admin: CurrentUser, input: z.infer<typeof Invit
     }).returning({ id: accountTokens.id })
     const mail = invitationMail(input.language, admin.name, organisation.name, input.role, `${appUrl()}/account/invitation?token=${token}`)
     await queueMail(tx, { to: input.email, ...mail, dedupeKey: `invitation:${row!.id}` })
-    await writeAudit(tx, admin, 'user.invited', { type: 'invitation', id: row!.id }, { email: input.email, role: input.role })
+    await writeAudit(tx, admin, 'user.invited', { type: 'invitation', id: row!.id }, { email: input.email, role: input.role }, organisation.id)
   })
 }
 
@@ -81,6 +82,8 @@ export async function requestPasswordReset(email: string, language: 'en' | 'es')
   if (!user || user.disabled) return
   const token = newToken()
   await db.transaction(async (tx) => {
+    // Only the newest link works: one left in an old e-mail or someone else's hands no longer does.
+    await voidResetLinks(tx, user.id)
     const [row] = await tx.insert(accountTokens).values({ kind: 'password-reset', tokenHash: hashToken(token), email, userId: user.id, expiresAt: new Date(Date.now() + RESET_HOURS * 3_600_000) }).returning({ id: accountTokens.id })
     await queueMail(tx, { to: email, ...passwordResetMail(language, `${appUrl()}/account/reset?token=${token}`), dedupeKey: `reset:${row!.id}` })
   })
@@ -96,6 +99,17 @@ export async function completePasswordReset(token: string, password: string) {
       .where(and(eq(accountTokens.id, row.id), isNull(accountTokens.usedAt))).returning()
     if (!claimed) throw createError({ statusCode: 404, message: 'This reset link has already been used.' })
     await tx.update(users).set({ passwordHash, updatedAt: new Date() }).where(eq(users.id, row.userId!))
+    // A new password ends every session (a stolen cookie included) and every other link.
+    await endSessions(tx, row.userId!)
+    await voidResetLinks(tx, row.userId!)
     await writeAudit(tx, null, 'user.password-reset', { type: 'user', id: row.userId })
   })
+}
+
+type Tx = Parameters<Parameters<Awaited<ReturnType<typeof useDb>>['transaction']>[0]>[0]
+
+/** Mark every unused reset link of this user as used. */
+function voidResetLinks(tx: Tx, userId: string) {
+  return tx.update(accountTokens).set({ usedAt: new Date() })
+    .where(and(eq(accountTokens.kind, 'password-reset'), eq(accountTokens.userId, userId), isNull(accountTokens.usedAt)))
 }

@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto'
 import { and, desc, eq } from 'drizzle-orm'
 import { outlooks, type OutlookReleaseRef } from '~~/server/db/schema'
 import { validateOutlookInput } from '#shared/engine'
+import { minOf } from '#shared/engine/arrays'
 import { ENGINE_VERSION } from '#shared/engine/version'
 import type { OutlookRequest } from '#shared/schemas/sites'
 import type { OutlookNote } from '#shared/types/outlook-notes'
@@ -48,7 +49,7 @@ export async function assembleOutlook(site: Site, request: OutlookRequest) {
   const science = await scienceFor(request.scenario)
   const components = science.map(s => s.component)
   const [{ set, matrix }, scales] = await Promise.all([correlationFor(request.scenario, components), scaleFactorsAt(site.latitude, site.longitude)])
-  const horizon = Math.min(...science.map(s => (s.release.anchorYears as number[]).at(-1)!))
+  const horizon = minOf(science.map(s => (s.release.anchorYears as number[]).at(-1)!))
   const baselineYear = site.referenceEpoch
   const years = outlookYears(baselineYear, horizon)
   const notes: OutlookNote[] = []

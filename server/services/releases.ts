@@ -2,8 +2,6 @@ import { and, desc, eq, inArray, max, or, type SQL } from 'drizzle-orm'
 import { alias, type AnyPgColumn } from 'drizzle-orm/pg-core'
 import { organisations, releaseDraws, releases, series, users } from '~~/server/db/schema'
 import type { ParsedRelease } from '#shared/engine'
-import { buildRelease } from '#shared/releases/content'
-import { releaseBands } from '#shared/releases/summary'
 import type { CreateReleaseInput, ReleaseContentInput } from '#shared/schemas/releases'
 import { judgeEdit } from '#shared/review/rules'
 import { PUBLIC_STATES, type ReviewState } from '#shared/types/science'
@@ -29,10 +27,9 @@ export function decodeDraws(values: Buffer, drawCount: number, anchorCount: numb
   return Array.from({ length: drawCount }, (_, d) => Array.from(flat.subarray(d * anchorCount, (d + 1) * anchorCount)))
 }
 
-/** A release as entered → the row's distribution columns, its bands and its draws (if any). */
-function prepare(input: ReleaseContentInput) {
-  const release = asBadRequest(() => buildRelease(input))
-  const summary = releaseBands(release)
+/** A release as entered → the row's distribution columns, its bands and its draws (if any), worked off the request thread. */
+async function prepare(input: ReleaseContentInput) {
+  const { release, bands: summary } = await releaseWork({ input, years: 'anchors' })
   const { form, baselineYear, anchorYears, ...rest } = release as ParsedRelease & { draws?: number[][] }
   const draws = 'draws' in rest ? rest.draws as number[][] : null
   if (draws) delete (rest as { draws?: unknown }).draws
@@ -73,7 +70,7 @@ async function nextVersion(seriesId: string | undefined, requested: number | und
 export async function createRelease(actor: CurrentUser, input: CreateReleaseInput) {
   const existing = await seriesFor(actor, input)
   const version = await nextVersion(existing?.id, input.version)
-  const { columns, draws } = prepare(input)
+  const { columns, draws } = await prepare(input)
   const db = await useDb()
   return db.transaction(async (tx) => {
     const seriesRow = existing ?? (await tx.insert(series).values({ ...input.series!, organisationId: actor.organisationId }).returning())[0]!
@@ -103,13 +100,15 @@ export async function updateRelease(actor: CurrentUser, id: string, input: Relea
   if (!row) throw createError({ statusCode: 404, message: 'No such release.' })
   const verdict = judgeEdit(row, actor)
   if (!verdict.ok) throw createError({ statusCode: verdict.status, message: verdict.message })
-  const { columns, draws } = prepare(input)
+  const { columns, draws } = await prepare(input)
   return db.transaction(async (tx) => {
     // Re-check under a lock: a submit may have raced this edit.
-    const [locked] = await tx.select({ state: releases.state }).from(releases).where(eq(releases.id, id)).for('update')
+    const [locked] = await tx.select({ state: releases.state, coauthorIds: releases.coauthorIds }).from(releases).where(eq(releases.id, id)).for('update')
     if (locked?.state !== 'draft') throw createError({ statusCode: 409, message: 'This version left the draft state while you were editing; start a new version instead.' })
+    // Whoever changes a colleague's draft becomes one of its authors, so they cannot approve it later.
+    const coauthorIds = actor.id === row.authorId || locked.coauthorIds.includes(actor.id) ? locked.coauthorIds : [...locked.coauthorIds, actor.id]
     const [updated] = await tx.update(releases).set({
-      ...columns, method: input.method, citation: input.citation, doi: input.doi ?? null, licence: input.licence, updatedAt: new Date(),
+      ...columns, coauthorIds, method: input.method, citation: input.citation, doi: input.doi ?? null, licence: input.licence, updatedAt: new Date(),
     }).where(eq(releases.id, id)).returning({ id: releases.id, version: releases.version, state: releases.state })
     await tx.delete(releaseDraws).where(eq(releaseDraws.releaseId, id))
     if (draws) await tx.insert(releaseDraws).values({ releaseId: id, drawCount: draws.length, anchorCount: columns.anchorYears.length, values: encodeDraws(draws) })
@@ -134,6 +133,7 @@ const listColumns = {
   publishedAt: releases.publishedAt,
   updatedAt: releases.updatedAt,
   authorId: releases.authorId,
+  coauthorIds: releases.coauthorIds,
   seriesId: series.id,
   component: series.component,
   scenario: series.scenario,

@@ -44,7 +44,7 @@ export async function applyReviewAction(kind: ReviewedKind, id: string, action: 
   const updated = await db.transaction(async (tx) => {
     // Lock the row so two reviewers cannot both publish, or publish and withdraw, at once.
     const [row] = await tx.select({
-      id: table.id, state: table.state, authorId: table.authorId, version: table.version, organisationId: table.organisationId,
+      id: table.id, state: table.state, authorId: table.authorId, coauthorIds: table.coauthorIds, version: table.version, organisationId: table.organisationId,
     }).from(table).where(eq(table.id, id)).for('update')
     if (!row || row.organisationId !== actor.organisationId) {
       throw createError({ statusCode: 404, message: `No such ${KIND_LABEL[kind]}.` })

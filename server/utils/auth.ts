@@ -1,6 +1,7 @@
 import type { H3Event } from 'h3'
-import { eq, sql } from 'drizzle-orm'
+import { and, eq, sql } from 'drizzle-orm'
 import { organisations, users } from '~~/server/db/schema'
+import type { Database } from '~~/server/db/client'
 import type { Role } from '#shared/types/roles'
 import type { SessionUser } from '#shared/types/user'
 import { preparedQuery } from './prepared-query'
@@ -16,20 +17,49 @@ export async function requireUser(event: H3Event): Promise<CurrentUser> {
   const session = await getUserSession(event)
   const id = session.user?.id
   if (!id) throw createError({ statusCode: 401, message: 'Sign in to continue.' })
-  const user = await loadSessionUser(id)
-  if (!user) {
+  const row = await loadSessionRow(id)
+  if (!row) {
     await clearUserSession(event)
     throw createError({ statusCode: 401, message: 'Your account is no longer active. Ask an administrator if this is unexpected.' })
   }
-  event.context.user = user
-  return user
+  if (row.generation !== session.generation) {
+    await clearUserSession(event)
+    throw createError({ statusCode: 401, message: 'This session has ended (signed out, or the password was changed). Sign in again.' })
+  }
+  event.context.user = row.user
+  return row.user
 }
 
 /** The signed-in user, or null for anyone else (public routes that show more to members). */
 export async function optionalUser(event: H3Event): Promise<CurrentUser | null> {
   const session = await getUserSession(event)
   const id = session.user?.id
-  return id ? (await loadSessionUser(id)) ?? null : null
+  const row = id ? await loadSessionRow(id) : undefined
+  return row && row.generation === session.generation ? row.user : null
+}
+
+/** Start a session for this user under their current generation (sign-in, accepted invitation). */
+export async function startSession(event: H3Event, id: string): Promise<CurrentUser | undefined> {
+  const row = await loadSessionRow(id)
+  if (!row) return undefined
+  await replaceUserSession(event, { user: row.user, generation: row.generation, loggedInAt: new Date().toISOString() })
+  return row.user
+}
+
+/** Refresh the session's snapshot of the user, keeping the session itself (its generation and start). */
+export async function refreshSessionSnapshot(event: H3Event, user: CurrentUser) {
+  const { id: _id, ...session } = await getUserSession(event)
+  await replaceUserSession(event, { ...session, user })
+}
+
+/**
+ * End every session of a user, on every device: their cookies carry the old generation. Pass the
+ * generation a session was signed in under to end sessions only if that one is still live, so a
+ * cookie that has already ended cannot sign its owner out of a newer session.
+ */
+export async function endSessions(db: Pick<Database, 'update'>, userId: string, ifGeneration?: number) {
+  const which = ifGeneration === undefined ? eq(users.id, userId) : and(eq(users.id, userId), eq(users.sessionGeneration, ifGeneration))
+  await db.update(users).set({ sessionGeneration: sql`${users.sessionGeneration} + 1` }).where(which)
 }
 
 /** Signed in and holding one of the given roles; otherwise 403 naming what is needed. */
@@ -41,7 +71,27 @@ export async function requireRole(event: H3Event, ...roles: Role[]): Promise<Cur
   return user
 }
 
-export const requireAdmin = (event: H3Event) => requireRole(event, 'admin')
+/** An organisation's administrator, or the operator (who administers every organisation). */
+export async function requireAdmin(event: H3Event): Promise<CurrentUser> {
+  const user = await requireUser(event)
+  if (user.role !== 'admin' && user.role !== 'operator') throw createError({ statusCode: 403, message: 'This needs the admin role.' })
+  return user
+}
+/** The instance's operator: organisations, the demo mailbox, instance-wide work. */
+export const requireOperator = (event: H3Event) => requireRole(event, 'operator')
+
+/**
+ * Which organisation's people this administrator may act on: the operator every one (null), an
+ * admin only their own.
+ */
+export const administeredOrganisation = (admin: CurrentUser): string | null => admin.role === 'operator' ? null : admin.organisationId
+
+/** Only the operator may make someone an operator: an admin who could would hold every organisation. */
+export function assertMayGrant(admin: CurrentUser, role: Role | undefined) {
+  if (role === 'operator' && admin.role !== 'operator') {
+    throw createError({ statusCode: 403, message: 'role: Making someone an operator needs the operator role.', data: { issues: [{ field: 'role', message: 'Choose a role other than operator.' }] } })
+  }
+}
 
 /**
  * Organisation scoping: a record of another organisation answers 404, exactly like a missing
@@ -60,6 +110,7 @@ const sessionUserQuery = preparedQuery(db => db.select({
   role: users.role,
   locale: users.locale,
   disabled: users.disabled,
+  generation: users.sessionGeneration,
   organisationId: users.organisationId,
   organisationName: organisations.name,
   organisationIllustrative: organisations.illustrative,
@@ -68,10 +119,13 @@ const sessionUserQuery = preparedQuery(db => db.select({
   .where(eq(users.id, sql.placeholder('id')))
   .prepare('session_user'))
 
-/** The signed-in user's row as routes see it; undefined when missing or disabled (concurrent calls share a query). */
-export const loadSessionUser = sharedReads(async (id: string): Promise<CurrentUser | undefined> => {
+/** The signed-in user's row and session generation; undefined when missing or disabled (concurrent calls share a query). */
+const loadSessionRow = sharedReads(async (id: string): Promise<{ user: CurrentUser, generation: number } | undefined> => {
   const [row] = await (await sessionUserQuery()).execute({ id })
   if (!row || row.disabled) return undefined
-  const { disabled: _disabled, ...user } = row
-  return { ...user, locale: user.locale === 'es' ? 'es' : 'en' }
+  const { disabled: _disabled, generation, ...user } = row
+  return { user: { ...user, locale: user.locale === 'es' ? 'es' : 'en' }, generation }
 })
+
+/** The user's row as routes see it; undefined when missing or disabled. */
+export const loadSessionUser = async (id: string) => (await loadSessionRow(id))?.user

@@ -1,3 +1,4 @@
+import { maxOf, minOf } from './arrays'
 import { EngineInputError } from './errors'
 import { fitGumbelByLMoments } from './gumbel'
 
@@ -142,7 +143,7 @@ function maximise(problem: Problem, start: number[], maxIterations: number): { t
     const { gradient, information } = derivatives(problem, theta)
     let L = cholesky(information)
     const exact = L !== null
-    let tau = 1e-6 * Math.max(1, ...information.map((row, i) => Math.abs(row[i]!)))
+    let tau = 1e-6 * Math.max(1, maxOf(information.map((row, i) => Math.abs(row[i]!))))
     while (!L && Number.isFinite(tau)) {
       L = cholesky(shifted(information, tau))
       tau *= 10
@@ -222,8 +223,8 @@ export function fitGumbelWithTrend(
   // Time counted from the epoch, so the fitted intercept and its standard error are those at the epoch.
   const times = maxima.map((m) => m.year - referenceEpoch)
   const years = maxima.map((m) => m.year)
-  const firstYear = Math.min(...years)
-  const lastYear = Math.max(...years)
+  const firstYear = minOf(years)
+  const lastYear = maxOf(years)
   if (firstYear === lastYear) {
     throw new EngineInputError([{ path: 'annualMaxima', message: `all maxima are from ${firstYear}; a trend needs maxima from different years` }])
   }
@@ -240,8 +241,8 @@ export function fitGumbelWithTrend(
   }
   const slope = sxy / sxx
   const residuals = values.map((x, i) => x - slope * times[i]!)
-  const spread = Math.max(...residuals) - Math.min(...residuals)
-  const size = Math.max(1, ...values.map(Math.abs))
+  const spread = maxOf(residuals) - minOf(residuals)
+  const size = Math.max(1, maxOf(values.map(Math.abs)))
   if (!(spread > 1e-9 * size)) {
     throw new EngineInputError([{
       path: 'annualMaxima',

@@ -1,3 +1,4 @@
+import { appendAll } from './arrays'
 import { identityFactor } from './correlation'
 import { standardNormalQuantile } from './normal'
 import { anchorValuesAt, buildComponentTable, componentRiseAt, type ComponentTable } from './releases'
@@ -135,13 +136,13 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
     kinds[c] = table.kind
     breakpointStart[c] = breakpoints.length
     breakpointCount[c] = table.breakpoints.length
-    breakpoints.push(...table.breakpoints)
+    appendAll(breakpoints, table.breakpoints)
     anchorCount[c] = table.relativeWeights[0]?.length ?? 0
     valueStart[c] = valueCount
     valueCount += anchorCount[c]!
     lineStart[c] = anchorIntercept.length
-    anchorIntercept.push(...table.anchorIntercept)
-    anchorSlope.push(...table.anchorSlope)
+    appendAll(anchorIntercept, table.anchorIntercept)
+    appendAll(anchorSlope, table.anchorSlope)
   })
 
   const lognormalShift = new Float64Array(valueCount)

@@ -1,3 +1,4 @@
+import { appendAll } from './arrays'
 import { choleskySemiDefinite, correlationShapeIssues } from './correlation'
 import { EngineInputError, formatPath, type EngineInputIssue } from './errors'
 import { checkStrictlyIncreasing, releaseIssues } from './release-validation'
@@ -29,7 +30,7 @@ function checkRelease(
   input: ParsedOutlookInput,
   issues: EngineInputIssue[],
 ): void {
-  issues.push(...releaseIssues(release, path))
+  appendAll(issues, releaseIssues(release, path))
   const anchors = release.anchorYears
   if (release.baselineYear > input.baselineYear) {
     issues.push({
@@ -143,7 +144,7 @@ export function validateOutlookInput(raw: unknown): ValidatedOutlookInput {
   let choleskyFactor: Float64Array | null = null
   if (input.correlation) {
     const shapeIssues = correlationShapeIssues(input.correlation, input.components.length)
-    issues.push(...shapeIssues)
+    appendAll(issues, shapeIssues)
     if (!shapeIssues.length) {
       const result = choleskySemiDefinite(input.correlation)
       if ('failsAtRow' in result) {
@@ -158,7 +159,7 @@ export function validateOutlookInput(raw: unknown): ValidatedOutlookInput {
     }
   }
 
-  issues.push(...thresholdIssues(input))
+  appendAll(issues, thresholdIssues(input))
 
   if (issues.length) throw new EngineInputError(issues)
   return { ...input, heights, choleskyFactor }

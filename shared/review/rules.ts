@@ -6,7 +6,8 @@ import type { ReviewState } from '../types/science'
 export const REVIEW_ACTIONS = ['submit', 'approve', 'return', 'withdraw'] as const
 export type ReviewAction = typeof REVIEW_ACTIONS[number]
 
-export interface ReviewSubject { state: ReviewState, authorId: string, version: number }
+/** `coauthorIds`: everyone else who changed the version's content; like its author, none may approve it. */
+export interface ReviewSubject { state: ReviewState, authorId: string, coauthorIds?: readonly string[], version: number }
 export interface ReviewActor { id: string, role: string }
 
 export type ReviewVerdict =
@@ -45,6 +46,10 @@ export function judgeReviewAction(action: ReviewAction, subject: ReviewSubject, 
   }
   if (action === 'approve' && subject.authorId === actor.id) {
     return { ok: false, status: 403, message: 'You wrote this version; another analyst must review and approve it.' }
+  }
+  // Two people must have looked at the content: whoever edited a colleague's draft wrote part of it.
+  if (action === 'approve' && subject.coauthorIds?.includes(actor.id)) {
+    return { ok: false, status: 403, message: 'You changed this version\'s content, so you are one of its authors; an analyst who did not write it must review and approve it.' }
   }
   return { ok: true, to: rule.to }
 }

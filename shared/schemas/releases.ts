@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { MAX_TEXT } from '../releases/limits'
+import { MAX_ANCHOR_YEARS, MAX_DRAW_VALUES, MAX_QUANTILE_LEVELS, MAX_TEXT, MAX_UPLOADED_DRAWS } from '../releases/limits'
 import { AMOUNT_UNITS, COMPONENTS, RELEASE_FORMS, REVIEW_STATES, SCENARIO_PATTERN } from '../types/science'
 
 // Requests about published science. Per-form numbers are checked by the engine's release rules
@@ -14,6 +14,20 @@ export const scenarioField = z.string({ error: 'Enter a scenario, like SSP2-4.5.
 
 const numberList = z.array(z.number({ error: 'Enter a number (not blank, NaN or infinity).' }), { error: 'Enter a list of numbers.' })
 const numberTable = z.array(numberList, { error: 'Enter a table of numbers.' })
+
+// The same limits as a CSV upload, for numbers sent as JSON: the engine runs on what passes here, on
+// the request thread, so nothing an analyst sends may make it run for long.
+const atMost = (max: number, what: string) => ({ error: `Use at most ${max.toLocaleString('en')} ${what}.` })
+const anchorYearsField = z.array(z.number({ error: 'Enter whole years.' }).int({ error: 'Enter whole years.' }), { error: 'Enter the anchor years as a list of years.' })
+  .max(MAX_ANCHOR_YEARS, atMost(MAX_ANCHOR_YEARS, 'anchor years'))
+const perAnchorList = numberList.max(MAX_ANCHOR_YEARS, atMost(MAX_ANCHOR_YEARS, 'anchor years'))
+const levelsField = numberList.max(MAX_QUANTILE_LEVELS, atMost(MAX_QUANTILE_LEVELS, 'probability levels'))
+const quantileValues = z.array(levelsField, { error: 'Enter a table of numbers.' }).max(MAX_ANCHOR_YEARS, atMost(MAX_ANCHOR_YEARS, 'anchor years'))
+const drawsField = z.array(perAnchorList, { error: 'Enter a table of numbers.' })
+  .max(MAX_UPLOADED_DRAWS, { error: `Use at most ${MAX_UPLOADED_DRAWS.toLocaleString('en')} draws; thin the draws evenly.` })
+  .refine(draws => draws.reduce((sum, row) => sum + row.length, 0) <= MAX_DRAW_VALUES, {
+    error: `Use at most ${MAX_DRAW_VALUES.toLocaleString('en')} values in all (draws × anchor years); thin the draws or use fewer anchor years.`,
+  })
 
 const DOI_HINT = 'Enter a DOI like 10.1234/abcd, or leave it empty.'
 const VERSION_HINT = 'Enter the version as a whole number from 1, or leave it out.'
@@ -39,15 +53,15 @@ export const ReleaseContentSchema = z.object({
   form: z.enum(RELEASE_FORMS, { error: `Choose one of: ${RELEASE_FORMS.join(', ')}.` }),
   unit: z.enum(AMOUNT_UNITS, { error: `Choose one of: ${AMOUNT_UNITS.join(', ')}.` }).default('m'),
   baselineYear: z.number({ error: 'Enter the baseline year (zero rise there).' }).int({ error: 'Enter a whole year.' }),
-  anchorYears: z.array(z.number({ error: 'Enter whole years.' }).int({ error: 'Enter whole years.' }), { error: 'Enter the anchor years as a list of years.' }).optional(),
-  mean: numberList.optional(),
-  sd: numberList.optional(),
-  shift: numberList.optional(),
-  mu: numberList.optional(),
-  sigma: numberList.optional(),
-  levels: numberList.optional(),
-  values: numberTable.optional(),
-  draws: numberTable.optional(),
+  anchorYears: anchorYearsField.optional(),
+  mean: perAnchorList.optional(),
+  sd: perAnchorList.optional(),
+  shift: perAnchorList.optional(),
+  mu: perAnchorList.optional(),
+  sigma: perAnchorList.optional(),
+  levels: levelsField.optional(),
+  values: quantileValues.optional(),
+  draws: drawsField.optional(),
   csv: z.string().optional(),
 })
 
@@ -88,7 +102,9 @@ export const CreateCorrelationSetSchema = z.object({
   components: z.array(componentField, { error: 'List the components the matrix relates, in row order.' })
     .min(2, { error: 'A correlation set relates at least two components.' })
     .refine(keys => new Set(keys).size === keys.length, { error: 'Each component may appear only once.' }),
-  matrix: numberTable,
+  // One row and column per component, and there are only so many components.
+  matrix: z.array(numberList.max(COMPONENTS.length, atMost(COMPONENTS.length, 'columns')), { error: 'Enter a table of numbers.' })
+    .max(COMPONENTS.length, atMost(COMPONENTS.length, 'rows')),
   version: z.number({ error: VERSION_HINT }).int({ error: VERSION_HINT }).positive({ error: VERSION_HINT }).optional(),
   ...provenanceFields,
 })

@@ -4,6 +4,10 @@ import type { SessionUser } from './user'
 declare module '#auth-utils' {
   // eslint-disable-next-line @typescript-eslint/no-empty-object-type -- augmentation: the module's User becomes ours
   interface User extends SessionUser {}
+  interface UserSession {
+    /** The user's session generation at sign-in; once the database's has moved on, the session has ended. */
+    generation?: number
+  }
 }
 
 export {}

@@ -1,5 +1,6 @@
 // Roles and organisation kinds are shared by the schema, the guards and the UI.
-export const ROLES = ['admin', 'analyst', 'planner', 'reader'] as const
+// `operator` runs the instance (organisations, the demo mailbox); `admin` runs one organisation's people.
+export const ROLES = ['operator', 'admin', 'analyst', 'planner', 'reader'] as const
 export type Role = typeof ROLES[number]
 
 export const ORGANISATION_KINDS = ['council', 'port', 'science', 'consultancy', 'other'] as const

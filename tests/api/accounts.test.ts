@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient } from '../support/client'
-import { ADMIN, READER } from '../support/demo-users'
+import { ADMIN, OPERATOR, READER } from '../support/demo-users'
 import { startServer, type RunningServer } from '../support/server'
 import { TestSmtp, isTo, linkIn } from '../support/smtp'
 
@@ -23,15 +23,15 @@ afterAll(async () => {
 
 describe('invitations', () => {
   it('an admin invites by e-mail; the link sets a password once and signs the new user in', async () => {
-    const port = (await admin.get('/api/organisations')).body.find((o: { kind: string }) => o.kind === 'port')
-    const sent = await admin.post('/api/admin/invitations', { email: 'engineer@skerrow.example', name: 'Bryn Oakes', role: 'planner', organisationId: port.id, language: 'es' })
+    const council = (await admin.get('/api/organisations')).body.find((o: { kind: string }) => o.kind === 'council')
+    const sent = await admin.post('/api/admin/invitations', { email: 'engineer@skerrow.example', name: 'Bryn Oakes', role: 'planner', organisationId: council.id, language: 'es' })
     expect(sent.status).toBe(202)
     const mail = await smtp.next(isTo('engineer@skerrow.example'))
     expect(mail.subject).toBe('Invitación a Brinkwater de Morwen Tallis')
     const token = tokenFrom(mail.text!, '/account/invitation')
 
     const preview = await new ApiClient(server.url).get(`/api/account/invitation?token=${token}`)
-    expect(preview.body).toMatchObject({ email: 'engineer@skerrow.example', role: 'planner', organisation: port.name })
+    expect(preview.body).toMatchObject({ email: 'engineer@skerrow.example', role: 'planner', organisation: council.name })
 
     const short = await new ApiClient(server.url).post('/api/account/invitation/accept', { token, password: 'short' })
     expect(short.status).toBe(400)
@@ -40,7 +40,7 @@ describe('invitations', () => {
     const invitee = new ApiClient(server.url)
     const accepted = await invitee.post('/api/account/invitation/accept', { token, password: 'a-fine-long-password' })
     expect(accepted.status).toBe(201)
-    expect((await invitee.get('/api/me')).body.user).toMatchObject({ email: 'engineer@skerrow.example', role: 'planner', organisationName: port.name })
+    expect((await invitee.get('/api/me')).body.user).toMatchObject({ email: 'engineer@skerrow.example', role: 'planner', organisationName: council.name })
 
     const replay = await new ApiClient(server.url).post('/api/account/invitation/accept', { token, password: 'another-long-password' })
     expect(replay.status).toBe(404)
@@ -82,5 +82,14 @@ describe('password reset', () => {
     const statuses: number[] = []
     for (let i = 0; i < 4; i++) statuses.push((await new ApiClient(server.url).post('/api/account/password-reset', { email: 'flood@example.org' })).status)
     expect(statuses).toEqual([202, 202, 202, 429])
+  })
+})
+
+describe('the demo mailbox', () => {
+  it('is not there once a real mail server is set: mail belongs in people\'s own inboxes', async () => {
+    const operator = await ApiClient.signedIn(server.url, OPERATOR.email, OPERATOR.password)
+    const answer = await operator.get('/api/admin/mailbox')
+    expect(answer.status).toBe(404)
+    expect(answer.body.message).toMatch(/SMTP_URL/)
   })
 })

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient } from '../support/client'
-import { ADMIN, ANALYST, PLANNER, PORT_PLANNER, READER } from '../support/demo-users'
+import { ADMIN, ANALYST, OPERATOR, PLANNER, PORT_PLANNER, READER } from '../support/demo-users'
 import { startServer, type RunningServer } from '../support/server'
 
 let server: RunningServer
@@ -10,7 +10,7 @@ beforeAll(async () => { server = await startServer() })
 afterAll(async () => { await server?.stop() })
 
 describe('signing in', () => {
-  it.each([ADMIN, ANALYST, PLANNER, PORT_PLANNER, READER])('signs in $email with the seeded role', async (demo) => {
+  it.each([OPERATOR, ADMIN, ANALYST, PLANNER, PORT_PLANNER, READER])('signs in $email with the seeded role', async (demo) => {
     const api = client()
     const user = await api.signIn(demo.email, demo.password)
     expect(user).toMatchObject({ email: demo.email, role: demo.role, organisationIllustrative: true })
@@ -89,6 +89,11 @@ describe('administering users', () => {
     await api.signIn(ADMIN.email, ADMIN.password)
     return api
   }
+  async function operator() {
+    const api = client()
+    await api.signIn(OPERATOR.email, OPERATOR.password)
+    return api
+  }
 
   async function userId(api: ApiClient, email: string): Promise<string> {
     const list = await api.get('/api/admin/users')
@@ -96,7 +101,7 @@ describe('administering users', () => {
   }
 
   it('creates a user who can then sign in, and writes it to the audit log', async () => {
-    const api = await admin()
+    const api = await operator()
     const organisations = (await api.get('/api/organisations')).body
     const port = organisations.find((org: { kind: string }) => org.kind === 'port')
     const created = await api.post('/api/admin/users', {
@@ -131,7 +136,7 @@ describe('administering users', () => {
   })
 
   it('disabling a user ends their session at once and refuses their sign-in', async () => {
-    const api = await admin()
+    const api = await operator()
     const planner = client()
     await planner.signIn(PORT_PLANNER.email, PORT_PLANNER.password)
     const id = await userId(api, PORT_PLANNER.email)
@@ -177,7 +182,7 @@ describe('administering users', () => {
     expect(empty.body.message).toMatch(/at least one of name, role or disabled/)
     const role = await api.patch(`/api/admin/users/${id}`, { role: 'superuser' })
     expect(role.status).toBe(400)
-    expect(role.body.message).toMatch(/^role: Choose one of: admin, analyst, planner, reader/)
+    expect(role.body.message).toMatch(/^role: Choose one of: operator, admin, analyst, planner, reader/)
     expect((await api.patch('/api/admin/users/00000000-0000-4000-8000-000000000000', { role: 'reader' })).status).toBe(404)
     expect((await api.patch('/api/admin/users/../../etc', { role: 'reader' })).status).toBe(404)
   })

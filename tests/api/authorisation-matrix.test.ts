@@ -11,8 +11,9 @@ import { ROOT, startServer, type RunningServer } from '../support/server'
 // about a record of that organisation and about one of another organisation. Another
 // organisation's private record answers 404 exactly like a missing one, never 403 (which would
 // confirm it exists) and never with its data. A role that is not enough answers 403 before the
-// record is looked up, so it reveals nothing either. Admins administer every organisation (users,
-// invitations, mailbox, audit): those routes are marked `global`.
+// record is looked up, so it reveals nothing either. An admin administers their own organisation's
+// people, outbox and audit; the operator administers every organisation (routes marked `global`)
+// and alone reads the demo mailbox and starts recomputations.
 
 type Scope = 'own' | 'other'
 type Status = number | [own: number, other: number]
@@ -28,18 +29,20 @@ interface RouteCase {
   unscoped?: true
   /** Public by design: a share link opens another organisation's issued briefing. */
   publicLink?: true
-  /** Admins see every organisation here by design. */
+  /** The operator sees every organisation here by design. */
   global?: true
 }
 
 const pick = <T>(scope: Scope, own: T, other: T) => (scope === 'own' ? own : other)
-const anyone = (status: number): Record<Persona, Status> => ({ anonymous: status, reader: status, planner: status, analyst: status, admin: status })
+const anyone = (status: number): Record<Persona, Status> => ({ anonymous: status, reader: status, planner: status, analyst: status, admin: status, operator: status })
 /** Signed-in members of the organisation read it; other organisations' records look missing. */
-const members: Record<Persona, Status> = { anonymous: 401, reader: [200, 404], planner: [200, 404], analyst: [200, 404], admin: [200, 404] }
+const members: Record<Persona, Status> = { anonymous: 401, reader: [200, 404], planner: [200, 404], analyst: [200, 404], admin: [200, 404], operator: [200, 404] }
 /** Only `role` may; on another organisation's record it gets 404. */
 const only = (role: Persona, status: number): Record<Persona, Status> =>
   ({ ...anyone(403), anonymous: 401, [role]: [status, 404] }) as Record<Persona, Status>
-const adminOnly = (status: Status): Record<Persona, Status> => ({ ...anyone(403), anonymous: 401, admin: status })
+/** The organisation's admin (on their own organisation) and the operator (on every one). */
+const admins = (admin: Status, operator: Status = admin): Record<Persona, Status> => ({ ...anyone(403), anonymous: 401, admin, operator })
+const operatorOnly = (status: number): Record<Persona, Status> => ({ ...anyone(403), anonymous: 401, operator: status })
 /** Public science records: anyone sees published ones; drafts only inside their organisation. */
 const draftsInside: Record<Persona, Status> = { ...members, anonymous: 404 }
 const UNKNOWN_TOKEN = 'x'.repeat(32)
@@ -53,22 +56,23 @@ const ROUTES: Record<string, RouteCase> = {
   'account/password-reset/index.post.ts': { unscoped: true, url: () => '/api/account/password-reset', body: (_fx, scope, persona) => ({ email: emailOf(persona, scope, 'reset') }), expect: anyone(202) },
   'auth/sign-in.post.ts': { unscoped: true, url: () => '/api/auth/sign-in', body: (_fx, scope, persona) => ({ email: emailOf(persona, scope, 'nobody'), password: 'not-the-password' }), expect: anyone(401) },
 
-  'admin/audit.get.ts': { unscoped: true, global: true, url: () => '/api/admin/audit', expect: adminOnly(200) },
-  'admin/mailbox.get.ts': { unscoped: true, global: true, url: () => '/api/admin/mailbox', expect: adminOnly(200) },
-  'admin/outbox.get.ts': { unscoped: true, global: true, url: () => '/api/admin/outbox', expect: adminOnly(200) },
-  'admin/recomputations/index.get.ts': { unscoped: true, global: true, url: () => '/api/admin/recomputations', expect: adminOnly(200) },
-  'admin/recomputations/index.post.ts': { unscoped: true, global: true, url: () => '/api/admin/recomputations', body: () => ({ scenario: 'SSP1-2.6' }), expect: adminOnly(202) },
-  'admin/users/index.get.ts': { unscoped: true, global: true, url: () => '/api/admin/users', expect: adminOnly(200) },
+  'admin/audit.get.ts': { unscoped: true, global: true, url: () => '/api/admin/audit', expect: admins(200) },
+  'admin/mailbox.get.ts': { unscoped: true, global: true, url: () => '/api/admin/mailbox', expect: operatorOnly(200) },
+  'admin/outbox.get.ts': { unscoped: true, global: true, url: () => '/api/admin/outbox', expect: admins(200) },
+  'admin/recomputations/index.get.ts': { unscoped: true, global: true, url: () => '/api/admin/recomputations', expect: operatorOnly(200) },
+  'admin/recomputations/index.post.ts': { unscoped: true, global: true, url: () => '/api/admin/recomputations', body: () => ({ scenario: 'SSP1-2.6' }), expect: operatorOnly(202) },
+  'admin/users/index.get.ts': { unscoped: true, global: true, url: () => '/api/admin/users', expect: admins(200) },
+  // Another organisation is not the admin's to choose: it reads as one that does not exist (400).
   'admin/users/index.post.ts': {
-    global: true, url: () => '/api/admin/users', expect: adminOnly(201),
+    global: true, url: () => '/api/admin/users', expect: admins([201, 400], 201),
     body: (fx, scope, persona) => ({ email: emailOf(persona, scope, 'made'), name: 'Made by matrix', role: 'reader', organisationId: pick(scope, fx.home.organisationId, fx.foreign.portId), password: 'Matrix-harbour-gauge-42' }),
   },
-  'admin/users/[id].patch.ts': { global: true, url: (fx, scope) => `/api/admin/users/${pick(scope, fx.home.userId, fx.foreign.userId)}`, body: () => ({ name: 'Matrix reader' }), expect: adminOnly(200) },
+  'admin/users/[id].patch.ts': { global: true, url: (fx, scope) => `/api/admin/users/${pick(scope, fx.home.userId, fx.foreign.userId)}`, body: () => ({ name: 'Matrix reader' }), expect: admins([200, 404], 200) },
   'admin/invitations/index.post.ts': {
-    global: true, url: () => '/api/admin/invitations', expect: adminOnly(202),
+    global: true, url: () => '/api/admin/invitations', expect: admins([202, 400], 202),
     body: (fx, scope, persona) => ({ email: emailOf(persona, scope, 'invited'), name: 'Invited by matrix', role: 'reader', organisationId: pick(scope, fx.home.organisationId, fx.foreign.portId) }),
   },
-  'organisations/index.get.ts': { unscoped: true, global: true, url: () => '/api/organisations', expect: adminOnly(200) },
+  'organisations/index.get.ts': { unscoped: true, global: true, url: () => '/api/organisations', expect: admins(200) },
 
   'health.get.ts': { unscoped: true, url: () => '/api/health', expect: anyone(200) },
   'scenarios/index.get.ts': { unscoped: true, url: () => '/api/scenarios', expect: anyone(200) },
@@ -108,7 +112,7 @@ const ROUTES: Record<string, RouteCase> = {
   // Watches: anyone may ask through a shared briefing; members by a site of their organisation.
   'watches/index.get.ts': { unscoped: true, url: () => '/api/watches', expect: { ...anyone(200), anonymous: 401 } },
   'watches/index.post.ts': {
-    url: () => '/api/watches', expect: { anonymous: 202, reader: [202, 404], planner: [202, 404], analyst: [202, 404], admin: [202, 404] },
+    url: () => '/api/watches', expect: { anonymous: 202, reader: [202, 404], planner: [202, 404], analyst: [202, 404], admin: [202, 404], operator: [202, 404] },
     body: (fx, scope, persona) => persona === 'anonymous'
       ? { email: emailOf(persona, scope, 'watcher'), shareToken: pick(scope, fx.home.shareToken, fx.foreign.shareToken) }
       : { email: emailOf(persona, scope, 'watcher'), siteId: pick(scope, fx.home.siteId, fx.foreign.siteId) },
@@ -224,7 +228,7 @@ describe('authorisation matrix', () => {
     if (response.status === 403) expect(response.body.message).toMatch(/needs the \w+ role/)
 
     // Zero leaks: nothing of another organisation's private records comes back, whatever the status.
-    const exempt = route.publicLink || (route.global && persona === 'admin')
+    const exempt = route.publicLink || (route.global && persona === 'operator')
     if (!exempt) {
       const text = answerText(response.body)
       for (const secret of secrets) expect(text.includes(secret), `the answer carries ${secret} of another organisation`).toBe(false)

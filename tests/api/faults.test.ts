@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { ApiClient } from '../support/client'
-import { ADMIN, ANALYST, PLANNER, demoUser } from '../support/demo-users'
+import { ANALYST, OPERATOR, PLANNER, demoUser } from '../support/demo-users'
 import { startServer, type RunningServer } from '../support/server'
 
 // A server killed outright (SIGKILL, no shutdown) in the middle of a write restarts consistent:
@@ -70,7 +70,7 @@ describe('killed mid-write', () => {
     // Nothing of the cut-off transaction is left: the approval can be made again, and is audited once.
     expect((await after.post(`/api/releases/${next.body.id}/approve`)).body.state).toBe('published')
     expect((await after.get(`/api/releases/${glaciers.id}`)).body.state).toBe('superseded')
-    const admin = await ApiClient.signedIn(restarted.url, ADMIN.email, ADMIN.password)
+    const admin = await ApiClient.signedIn(restarted.url, OPERATOR.email, OPERATOR.password)
     const audit = (await admin.get('/api/admin/audit')).body as Array<{ action: string, targetId: string }>
     expect(audit.filter(entry => entry.action === 'release.published' && entry.targetId === next.body.id)).toHaveLength(1)
     await restarted.stop()

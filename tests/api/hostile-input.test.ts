@@ -6,7 +6,7 @@ import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { toCsv } from '../../shared/releases/csv'
 import { ApiClient } from '../support/client'
-import { ADMIN, ANALYST, PLANNER, READER } from '../support/demo-users'
+import { ANALYST, OPERATOR, PLANNER, READER } from '../support/demo-users'
 import { ANNUAL_MAXIMA_CSV, OUTLOOK_REQUEST, SITE_BODY } from '../support/matrix-fixtures'
 import { startServer, type RunningServer } from '../support/server'
 import { TestSmtp, isTo } from '../support/smtp'
@@ -169,7 +169,8 @@ beforeAll(async () => {
   clients.anonymous = new ApiClient(server.url)
   ;[clients.reader, clients.planner, clients.analyst, clients.admin] = await Promise.all([
     signedIn(READER.email, READER.password), signedIn(PLANNER.email, PLANNER.password),
-    signedIn(ANALYST.email, ANALYST.password), signedIn(ADMIN.email, ADMIN.password),
+    signedIn(ANALYST.email, ANALYST.password), // The operator, who sees every organisation's people, audit and outbox (this file writes to several).
+    signedIn(OPERATOR.email, OPERATOR.password),
   ])
   const { planner, analyst, admin } = clients
   ctx.targetSiteId = (await planner.post('/api/sites', SITE_BODY('Hostile target'))).body.id

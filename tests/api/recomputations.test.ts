@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { ApiClient } from '../support/client'
-import { ADMIN, ANALYST, PLANNER, demoUser } from '../support/demo-users'
+import { ANALYST, OPERATOR, PLANNER, demoUser } from '../support/demo-users'
 import { startServer, type RunningServer } from '../support/server'
 
 // New science queues a recomputation of every site with an outlook of its scenario: one durable
@@ -13,7 +13,7 @@ let planner: ApiClient
 
 interface Recomputation { id: string, scenario: string | null, siteCount: number, done: number, failed: number, pending: number, finishedAt: string | null, cause: Record<string, string> }
 
-/** Polls the admin list until the recomputation has finished. */
+/** Polls the operator's list until the recomputation has finished. */
 function finished(id: string) {
   return vi.waitFor(async () => {
     const row = ((await admin.get('/api/admin/recomputations')).body.recomputations as Recomputation[]).find(r => r.id === id)
@@ -24,7 +24,7 @@ function finished(id: string) {
 
 beforeAll(async () => {
   server = await startServer({ JOBS_POLL_MS: '100' })
-  admin = await ApiClient.signedIn(server.url, ADMIN.email, ADMIN.password)
+  admin = await ApiClient.signedIn(server.url, OPERATOR.email, OPERATOR.password)
   planner = await ApiClient.signedIn(server.url, PLANNER.email, PLANNER.password)
 })
 afterAll(async () => { await server?.stop() })
@@ -70,7 +70,7 @@ describe('recomputations', () => {
     }
   })
 
-  it('lets an admin recompute a scenario, leaving outlooks whose inputs have not changed alone', async () => {
+  it('lets the operator recompute a scenario, leaving outlooks whose inputs have not changed alone', async () => {
     const started = await admin.post('/api/admin/recomputations', { scenario: 'SSP2-4.5' })
     expect(started.status).toBe(202)
     const done = await finished(started.body.id)

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient } from '../support/client'
-import { ADMIN, ANALYST, PLANNER, READER, demoUser } from '../support/demo-users'
+import { ADMIN, ANALYST, OPERATOR, PLANNER, READER, demoUser } from '../support/demo-users'
 import { startServer, type RunningServer } from '../support/server'
 
 const REVIEWER = demoUser('reviewer@saltglass.example')
@@ -76,10 +76,27 @@ describe('publishing a release', () => {
     const listed = (await anonymous().get('/api/releases?component=glaciers&scenario=SSP2-4.5')).body.filter((r: { seriesId: string }) => r.seriesId === created.body.seriesId)
     expect(listed.map((r: { version: number }) => r.version)).toEqual([2])
 
-    const admin = await as(ADMIN.email, ADMIN.password)
-    const actions = (await admin.get('/api/admin/audit?limit=50')).body
+    const operator = await as(OPERATOR.email, OPERATOR.password)
+    const actions = (await operator.get('/api/admin/audit?limit=50')).body
       .filter((entry: { targetId: string }) => [v1, second.body.id].includes(entry.targetId)).map((entry: { action: string }) => entry.action)
     expect(actions).toEqual(expect.arrayContaining(['release.drafted', 'release.submitted', 'release.published', 'release.superseded']))
+  })
+
+  it('refuses approval by a colleague who edited the draft: they are one of its authors', async () => {
+    const draft = (await author.post('/api/releases', {
+      series: { component: 'greenland', scenario: 'SSP2-4.5', title: 'Greenland posterior (two people)' }, form: 'normal', unit: 'mm', baselineYear: 2020, anchorYears: [2100], mean: [40], sd: [10], ...provenance,
+    })).body
+    // The colleague rewrites the content and the method, then tries to publish it alone.
+    const edited = await reviewer.request('PATCH', `/api/releases/${draft.id}`, { form: 'normal', unit: 'mm', baselineYear: 2020, anchorYears: [2100], mean: [400], sd: [1], ...provenance, method: 'Changed by the reviewer.' })
+    expect(edited.status).toBe(200)
+    expect((await reviewer.post(`/api/releases/${draft.id}/submit`)).status).toBe(200)
+    expect((await reviewer.get(`/api/releases/${draft.id}`)).body.actions).toEqual(['return'])
+    const refused = await reviewer.post(`/api/releases/${draft.id}/approve`)
+    expect(refused.status).toBe(403)
+    expect(refused.body.message).toMatch(/You changed this version's content, so you are one of its authors/)
+    // The original author may not approve either; the release stays in review for a third analyst.
+    expect((await author.post(`/api/releases/${draft.id}/approve`)).status).toBe(403)
+    expect((await author.get(`/api/releases/${draft.id}`)).body.state).toBe('in-review')
   })
 
   it('keeps other organisations out of drafts: they cannot see, edit, submit or approve them', async () => {

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { ParsedMail } from 'mailparser'
 import { ApiClient } from '../support/client'
-import { ADMIN, ANALYST, PLANNER, demoUser } from '../support/demo-users'
+import { ANALYST, OPERATOR, PLANNER, demoUser } from '../support/demo-users'
 import { startServer, type RunningServer } from '../support/server'
 import { TestSmtp, isTo, linkIn, rawHeader } from '../support/smtp'
 import { formatChance } from '../../shared/wording/chance'
@@ -99,7 +99,7 @@ describe('watching a site by e-mail', () => {
     expect(english.text).toMatch(new RegExp(`Read the latest briefing: ${server.url}/shared/${shareToken}`))
     expect(spanish.text).toContain('La probabilidad para cada umbral')
 
-    await expect.poll(async () => (await (await as(ADMIN.email, ADMIN.password)).get('/api/admin/outbox')).body.messages.filter((m: { state: string }) => m.state === 'queued').length).toBe(0)
+    await expect.poll(async () => (await (await as(OPERATOR.email, OPERATOR.password)).get('/api/admin/outbox')).body.messages.filter((m: { state: string }) => m.state === 'queued').length).toBe(0)
     expect(smtp.to('councillor@example.org').filter(m => /has changed/.test(m.subject ?? ''))).toHaveLength(1)
     expect(smtp.to('vecina@example.org').filter(m => /Cambió/.test(m.subject ?? ''))).toHaveLength(1)
   })
@@ -117,7 +117,7 @@ describe('watching a site by e-mail', () => {
 
     await publishGlaciers(0.17)
     await smtp.next(m => isTo('vecina@example.org')(m) && /Cambió/.test(m.subject ?? '') && /0\.17/.test(m.text ?? ''))
-    await expect.poll(async () => (await (await as(ADMIN.email, ADMIN.password)).get('/api/admin/outbox')).body.messages.filter((m: { state: string }) => m.state === 'queued').length).toBe(0)
+    await expect.poll(async () => (await (await as(OPERATOR.email, OPERATOR.password)).get('/api/admin/outbox')).body.messages.filter((m: { state: string }) => m.state === 'queued').length).toBe(0)
     expect(smtp.to('councillor@example.org').filter(m => /has changed/.test(m.subject ?? ''))).toHaveLength(1)
   })
 
@@ -170,7 +170,7 @@ describe('a mail server that is down loses nothing', () => {
       expect((await api.post('/api/watches', { siteId: kelwick, email })).status).toBe(202)
     }
     const admin = new ApiClient(faulty.url)
-    await admin.signIn(ADMIN.email, ADMIN.password)
+    await admin.signIn(OPERATOR.email, OPERATOR.password)
     await expect.poll(async () => (await admin.get('/api/admin/outbox')).body.messages.every((m: { attempts: number, lastError: string | null, state: string }) => m.state === 'queued' && m.attempts >= 1 && m.lastError)).toBe(true)
 
     await outage.start(port)

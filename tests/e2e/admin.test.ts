@@ -1,6 +1,6 @@
 import { beforeEach, describe, expect, it } from 'vitest'
 import { ApiClient } from '../support/client'
-import { ADMIN, PLANNER } from '../support/demo-users'
+import { OPERATOR, PLANNER } from '../support/demo-users'
 import { open, screenshot, seriousAxeViolations, signIn, type Page } from '../support/browser'
 import { useBrowserSuite } from '../support/browser-suite'
 import type { RunningServer } from '../support/server'
@@ -11,7 +11,7 @@ let page: Page
 beforeEach(() => ({ server, page } = suite))
 
 describe('recomputations', () => {
-  it('an admin starts a recomputation of a scenario and follows it to the end', async () => {
+  it('the operator starts a recomputation of a scenario and follows it to the end', async () => {
     // Two sites with an SSP2-4.5 outlook, so the recomputation has something to look at.
     const planner = new ApiClient(server.url)
     await planner.signIn(PLANNER.email, PLANNER.password)
@@ -19,7 +19,7 @@ describe('recomputations', () => {
       expect((await planner.post(`/api/sites/${site.id}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 4 })).status).toBe(201)
     }
 
-    await signIn(page, ADMIN.email, ADMIN.password)
+    await signIn(page, OPERATOR.email, OPERATOR.password)
     await page.getByTestId('main-nav').getByRole('link', { name: 'Recomputations' }).click()
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Recomputations')
     await page.getByLabel('Scenario').selectOption('SSP2-4.5')

@@ -1,5 +1,5 @@
 import { beforeEach, describe, expect, it } from 'vitest'
-import { ADMIN, ANALYST, PLANNER, PORT_PLANNER, READER } from '../support/demo-users'
+import { ADMIN, ANALYST, OPERATOR, PLANNER, PORT_PLANNER, READER } from '../support/demo-users'
 import { open, seriousAxeViolations, signIn, type BrowserContext, type Page } from '../support/browser'
 import { useBrowserSuite } from '../support/browser-suite'
 import type { RunningServer } from '../support/server'
@@ -15,7 +15,8 @@ const nav = () => page.getByTestId('main-nav')
 describe('the shell for each role', () => {
   // Sites and briefings belong to organisations that plan: their planners and readers see them.
   it.each([
-    { demo: ADMIN, links: ['Overview', 'Library', 'Watches', 'Users', 'Invitations', 'Mailbox', 'Outbox', 'Recomputations', 'Audit log'] },
+    { demo: OPERATOR, links: ['Overview', 'Library', 'Watches', 'Users', 'Invitations', 'Mailbox', 'Outbox', 'Recomputations', 'Audit log'] },
+    { demo: ADMIN, links: ['Overview', 'Library', 'Watches', 'Users', 'Invitations', 'Outbox', 'Audit log'] },
     { demo: ANALYST, links: ['Overview', 'Library', 'Watches'] },
     { demo: PLANNER, links: ['Overview', 'Sites', 'Briefings', 'Library', 'Watches'] },
     { demo: READER, links: ['Overview', 'Sites', 'Briefings', 'Library', 'Watches'] },

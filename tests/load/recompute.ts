@@ -1,13 +1,13 @@
 // `npm run load:recompute`: a recomputation at scale. The built server on loopback (in-memory
 // database) gets RECOMPUTE_SITES sites (300) with an outlook of RECOMPUTE_SAMPLES samples (100,000)
 // each; then a new release is published and the recomputation it queues is followed through the
-// admin API until every site is done. Prints JSON: wall times, throughput, server peak RSS, and the
-// progress the admin page showed along the way. Build first (`npm run build`).
+// operator's API until every site is done. Prints JSON: wall times, throughput, server peak RSS, and the
+// progress the recomputations page showed along the way. Build first (`npm run build`).
 import { existsSync, readFileSync } from 'node:fs'
 import { cpus, loadavg } from 'node:os'
 import { setTimeout as delay } from 'node:timers/promises'
 import { ApiClient } from '../support/client'
-import { ADMIN, ANALYST, PLANNER, demoUser } from '../support/demo-users'
+import { ANALYST, OPERATOR, PLANNER, demoUser } from '../support/demo-users'
 import { SERVER_ENTRY, startServer } from '../support/server'
 
 const SITES = Number(process.env.RECOMPUTE_SITES ?? 300)
@@ -40,7 +40,7 @@ async function main() {
   try {
     const url = server.url
     const planner = await ApiClient.signedIn(url, PLANNER.email, PLANNER.password)
-    const admin = await ApiClient.signedIn(url, ADMIN.email, ADMIN.password)
+    const admin = await ApiClient.signedIn(url, OPERATOR.email, OPERATOR.password)
     const ids: string[] = []
     for (let i = 0; i < SITES; i++) {
       const created = await planner.post('/api/sites', site(i))

@@ -2,7 +2,7 @@ import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { ApiClient } from '../support/client'
 import { createTestDatabase, type TestDatabase } from '../support/database'
-import { ADMIN, ANALYST, PLANNER, READER, demoUser } from '../support/demo-users'
+import { ADMIN, ANALYST, OPERATOR, PLANNER, READER, demoUser } from '../support/demo-users'
 import { startServer, type RunningServer } from '../support/server'
 import { TestSmtp, addressesOf } from '../support/smtp'
 
@@ -67,7 +67,7 @@ describe('two instances on one database', () => {
     expect((await analyst.post(`/api/releases/${next.body.id}/submit`)).status).toBe(200)
     expect((await reviewer.post(`/api/releases/${next.body.id}/approve`)).status).toBe(200)
 
-    const admin = await ApiClient.signedIn(b.url, ADMIN.email, ADMIN.password)
+    const admin = await ApiClient.signedIn(b.url, OPERATOR.email, OPERATOR.password)
     const batch = await vi.waitFor(async () => {
       const row = (await admin.get('/api/admin/recomputations')).body.recomputations.find((r: { scenario: string }) => r.scenario === 'SSP5-8.5')
       if (!row?.finishedAt) throw new Error('recomputation not finished')

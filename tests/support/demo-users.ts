@@ -7,6 +7,7 @@ export function demoUser(email: string) {
   return user
 }
 
+export const OPERATOR = demoUser('operator@caldwyn.example')
 export const ADMIN = demoUser('admin@caldwyn.example')
 export const ANALYST = demoUser('analyst@saltglass.example')
 export const PLANNER = demoUser('planner@caldwyn.example')

@@ -5,7 +5,7 @@ export interface MailboxMessage { id: string, to: string[], subject: string, tex
 
 /**
  * Waits until the stand-in mailbox holds a message to `address` whose subject matches, reading it
- * through a signed-in admin's page (the outbox worker sends in the background, so it is polled).
+ * through the signed-in operator's page (the outbox worker sends in the background, so it is polled).
  */
 export async function awaitMail(admin: Page, address: string, subject: RegExp): Promise<MailboxMessage> {
   let found: MailboxMessage | undefined

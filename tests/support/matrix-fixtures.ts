@@ -1,19 +1,21 @@
 import { expect } from 'vitest'
 import { ApiClient } from './client'
-import { ADMIN, ANALYST, PLANNER, PORT_PLANNER, READER, demoUser } from './demo-users'
+import { ADMIN, ANALYST, OPERATOR, PLANNER, PORT_PLANNER, READER, demoUser } from './demo-users'
 
 // The people and records the authorisation matrix asks about. Everyone the matrix signs in as
 // belongs to one home organisation (the Caldwyn council); every "other organisation" record
 // belongs to the Skerrow harbour board (sites, outlooks, briefings, watches) or the Saltglass
 // science group (drafts of releases, correlation sets and grids).
 
-export const PERSONAS = ['anonymous', 'reader', 'planner', 'analyst', 'admin'] as const
+export const PERSONAS = ['anonymous', 'reader', 'planner', 'analyst', 'admin', 'operator'] as const
 export type Persona = typeof PERSONAS[number]
 
 /** A marker written into every private record of the other organisations: it must never come back. */
 export const FOREIGN_MARKER = 'FOREIGN-PRIVATE-7Q'
 
 const PASSWORD = 'Matrix-harbour-gauge-42'
+/** A person of another organisation: their admins see them, the home organisation's admin must not. */
+const FOREIGN_PERSON = 'matrix.person@skerrow.example'
 const PROVENANCE = { method: 'Matrix test method.', citation: 'Matrix (2026).', licence: 'CC BY 4.0' }
 export const SITE_BODY = (name: string) => ({
   name,
@@ -85,7 +87,8 @@ async function watchId(api: ApiClient, email: string, siteId: string) {
 
 export async function createMatrixFixtures(url: string): Promise<MatrixFixtures> {
   const admin = await signedIn(url, ADMIN.email, ADMIN.password)
-  const organisations = ok(await admin.get('/api/organisations'), 'organisations') as { id: string, kind: string }[]
+  const operator = await signedIn(url, OPERATOR.email, OPERATOR.password)
+  const organisations = ok(await operator.get('/api/organisations'), 'organisations') as { id: string, kind: string }[]
   const councilId = organisations.find(o => o.kind === 'council')!.id
   const portId = organisations.find(o => o.kind === 'port')!.id
 
@@ -94,14 +97,14 @@ export async function createMatrixFixtures(url: string): Promise<MatrixFixtures>
   ok(await admin.post('/api/admin/users', person('matrix.analyst@caldwyn.example', 'analyst', councilId)), 'analyst')
   ok(await admin.post('/api/admin/users', person('matrix.author@caldwyn.example', 'analyst', councilId)), 'author')
   const homeUser = ok(await admin.post('/api/admin/users', person('matrix.person@caldwyn.example', 'reader', councilId)), 'home user')
-  const foreignUser = ok(await admin.post('/api/admin/users', person('matrix.person@skerrow.example', 'reader', portId)), 'foreign user')
+  const foreignUser = ok(await operator.post('/api/admin/users', person(FOREIGN_PERSON, 'reader', portId)), 'foreign user')
 
   const [reader, planner, analyst, author, port, science] = await Promise.all([
     signedIn(url, READER.email, READER.password), signedIn(url, PLANNER.email, PLANNER.password),
     signedIn(url, 'matrix.analyst@caldwyn.example', PASSWORD), signedIn(url, 'matrix.author@caldwyn.example', PASSWORD),
     signedIn(url, PORT_PLANNER.email, PORT_PLANNER.password), signedIn(url, ANALYST.email, ANALYST.password),
   ])
-  const clients: Record<Persona, ApiClient> = { anonymous: new ApiClient(url), reader, planner, analyst, admin }
+  const clients: Record<Persona, ApiClient> = { anonymous: new ApiClient(url), reader, planner, analyst, admin, operator }
 
   // Home: the demo town Kelwick, a site to edit, an outlook and briefings in each state.
   const sites = ok(await planner.get('/api/sites'), 'sites') as { id: string, name: string }[]
@@ -124,6 +127,7 @@ export async function createMatrixFixtures(url: string): Promise<MatrixFixtures>
     planner: await watchId(planner, PLANNER.email, siteId),
     analyst: await watchId(analyst, 'matrix.analyst@caldwyn.example', siteId),
     admin: await watchId(admin, ADMIN.email, siteId),
+    operator: await watchId(operator, OPERATOR.email, siteId),
   }
 
   // Other organisations: a private site with an outlook and briefings, and science drafts.
@@ -156,7 +160,7 @@ export async function createMatrixFixtures(url: string): Promise<MatrixFixtures>
 
 /** Every id and marker of the other organisations' private records. */
 export function foreignSecrets(f: MatrixFixtures['foreign']): string[] {
-  return [FOREIGN_MARKER, f.siteId, f.outlookId, f.briefingIssued, f.briefingDraft, f.releaseDraft, f.releaseSeries, f.correlationDraft, f.gridDraft, f.watchId]
+  return [FOREIGN_MARKER, FOREIGN_PERSON, f.userId, f.siteId, f.outlookId, f.briefingIssued, f.briefingDraft, f.releaseDraft, f.releaseSeries, f.correlationDraft, f.gridDraft, f.watchId]
 }
 
 /** How the other organisations' owners see their private records (compared before and after the matrix). */

@@ -7,9 +7,12 @@ const SHOWN_HEADERS = ['date', 'message-id', 'list-unsubscribe', 'list-unsubscri
 const LIMIT = 'Use a whole number from 1 to 200.'
 const Query = z.object({ limit: z.coerce.number({ error: LIMIT }).int({ error: LIMIT }).min(1, { error: LIMIT }).max(200, { error: LIMIT }).default(50) })
 
-// What the local stand-in SMTP server received, newest first, parsed for reading.
+// What the local stand-in SMTP server received, newest first, parsed for reading. It holds every
+// reset and invitation link the instance sent, so only the operator reads it, and only on the demo:
+// with a real mail server (SMTP_URL) mail belongs in people's own inboxes.
 export default defineEventHandler(async (event) => {
-  await requireAdmin(event)
+  await requireOperator(event)
+  if (process.env.SMTP_URL) throw createError({ statusCode: 404, message: 'No such mailbox: mail goes to the mail server set in SMTP_URL.' })
   const { limit } = readValidQuery(event, Query)
   const db = await useDb()
   const rows = await db.select().from(mailbox).orderBy(desc(mailbox.receivedAt)).limit(limit)

@@ -34,10 +34,9 @@ export default defineEventHandler(async (event) => {
   }
   if (row.disabled) throw createError({ statusCode: 403, message: 'This account is disabled. Ask an administrator to enable it.' })
 
-  const user = await loadSessionUser(row.id)
-  if (!user) throw createError({ statusCode: 401, message: GENERIC_REFUSAL })
   await clearFailures(addressKey(email))
-  await setUserSession(event, { user, loggedInAt: new Date().toISOString() })
+  const user = await startSession(event, row.id)
+  if (!user) throw createError({ statusCode: 401, message: GENERIC_REFUSAL })
   await writeAudit(db, user, 'session.signed-in', { type: 'user', id: user.id })
   return { user }
 })

@@ -1,9 +1,10 @@
-import { asc } from 'drizzle-orm'
+import { asc, eq } from 'drizzle-orm'
 import { organisations } from '~~/server/db/schema'
 
-// Organisations are chosen when an admin creates a user.
+// Organisations are chosen when someone is created or invited: an admin can choose only their own.
 export default defineEventHandler(async (event) => {
-  await requireAdmin(event)
+  const admin = await requireAdmin(event)
+  const scope = administeredOrganisation(admin)
   const db = await useDb()
-  return db.select().from(organisations).orderBy(asc(organisations.name))
+  return db.select().from(organisations).where(scope ? eq(organisations.id, scope) : undefined).orderBy(asc(organisations.name))
 })

@@ -18,6 +18,9 @@ export const DEMO_ORGANISATIONS = [
 type DemoOrgKey = typeof DEMO_ORGANISATIONS[number]['key']
 
 export const DEMO_USERS: ReadonlyArray<{ email: string, name: string, role: Role, org: DemoOrgKey, password: string, locale?: 'en' | 'es' }> = [
+  // Runs the demo instance (every organisation's people, the demo mailbox); belongs to the council only
+  // because every account belongs to one.
+  { email: 'operator@caldwyn.example', name: 'Cadan Rowe', role: 'operator', org: 'council', password: 'demo-operator-tide' },
   { email: 'admin@caldwyn.example', name: 'Morwen Tallis', role: 'admin', org: 'council', password: 'demo-admin-tide' },
   { email: 'analyst@saltglass.example', name: 'Ivo Brannock', role: 'analyst', org: 'science', password: 'demo-analyst-tide' },
   { email: 'reviewer@saltglass.example', name: 'Petra Lusk', role: 'analyst', org: 'science', password: 'demo-reviewer-tide' },

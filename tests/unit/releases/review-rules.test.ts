@@ -21,6 +21,13 @@ describe('the review workflow', () => {
     expect(availableActions(at('in-review'), colleague)).toEqual(['approve', 'return'])
   })
 
+  it('never lets a colleague who changed the content approve it either', () => {
+    const edited = { ...at('in-review'), coauthorIds: ['colleague'] }
+    expect(judgeReviewAction('approve', edited, colleague)).toMatchObject({ ok: false, status: 403, message: expect.stringMatching(/one of its authors/) })
+    expect(availableActions(edited, colleague)).toEqual(['return'])
+    expect(judgeReviewAction('approve', edited, { id: 'third', role: 'analyst' })).toEqual({ ok: true, to: 'published' })
+  })
+
   it('answers a step from the wrong state with 409 saying what state it is in', () => {
     expect(judgeReviewAction('approve', at('draft'), colleague)).toEqual({ ok: false, status: 409, message: 'Version 2 is a draft; only a version that is in review can be approved.' })
     expect(judgeReviewAction('submit', at('withdrawn'), author)).toMatchObject({ ok: false, status: 409 })

@@ -6,8 +6,7 @@ export default defineEventHandler(async (event) => {
   await rateLimit(`invitation:${clientKey(event)}`, 20, 3_600_000, 'attempts from this connection', event)
   const { token, password } = await readValidBody(event, AcceptInvitationSchema)
   const id = await acceptInvitation(token, password)
-  const user = await loadSessionUser(id)
-  await setUserSession(event, { user, loggedInAt: new Date().toISOString() })
+  const user = await startSession(event, id)
   setResponseStatus(event, 201)
   return { user }
 })

@@ -5,7 +5,7 @@ import { scenarioCoverage } from '~~/server/services/site-list'
 // Recompute every site's latest outlooks for a scenario (or all scenarios): after an engine
 // upgrade, say. Outlooks whose inputs have not changed are found in the store and left alone.
 export default defineEventHandler(async (event) => {
-  const admin = await requireAdmin(event)
+  const admin = await requireOperator(event)
   const { scenario } = await readValidBody(event, RecomputationRequestSchema)
   if (scenario && !(await scenarioCoverage()).some(s => s.scenario === scenario)) {
     throw createError({ statusCode: 400, message: `scenario: There is no scenario called ${scenario}; choose one from the list.`, data: { issues: [{ field: 'scenario', message: 'Choose a scenario from the list.' }] } })

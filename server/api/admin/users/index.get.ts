@@ -1,19 +1,7 @@
-import { asc, eq } from 'drizzle-orm'
-import { organisations, users } from '~~/server/db/schema'
+import { listUsers } from '~~/server/services/users'
 
+// An admin sees their organisation's people; the operator sees everyone's.
 export default defineEventHandler(async (event) => {
-  await requireAdmin(event)
-  const db = await useDb()
-  return db.select({
-    id: users.id,
-    email: users.email,
-    name: users.name,
-    role: users.role,
-    disabled: users.disabled,
-    organisationId: users.organisationId,
-    organisationName: organisations.name,
-    createdAt: users.createdAt,
-  }).from(users)
-    .innerJoin(organisations, eq(organisations.id, users.organisationId))
-    .orderBy(asc(organisations.name), asc(users.name))
+  const admin = await requireAdmin(event)
+  return listUsers(admin)
 })
