@@ -72,7 +72,12 @@ describe('publishing a release through the library', () => {
     await queue.getByRole('link', { name: TITLE }).click()
     await page.waitForURL(`**${releasePath}`)
     await noAxeFaults('release, as reviewer')
+    // Publishing computes sites again and mails their watchers, so it is confirmed knowing how many.
     await page.getByRole('button', { name: 'Approve and publish' }).click()
+    await expect.poll(() => page.getByTestId('approve-reach').textContent()).toMatch(/^\s*Approving publishes it at once(; no site| and the outlooks of (one site|\d+ sites))/)
+    await noAxeFaults('approval confirmation')
+    await snap('approve-confirm')
+    await page.getByRole('button', { name: 'Publish now' }).click()
     await expect.poll(() => page.getByTestId('state-badge').first().textContent()).toBe('Published')
     await open(page, '/library')
     await expect.poll(() => page.getByTestId('review-queue-empty').count()).toBe(1)
