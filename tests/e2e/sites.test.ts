@@ -101,6 +101,13 @@ describe('a planner at work on the map and the outlook page', () => {
     await noAxeFaults('outlook page in Spanish')
     await snap('outlook-es-ft')
 
+    // The chart axes write numbers as the sentences beside them do: with a decimal comma in Spanish.
+    await page.getByText('metros', { exact: true }).click()
+    const axisLabels = () => page.getByTestId('fan-chart').locator('svg text').allTextContents()
+    await expect.poll(async () => (await axisLabels()).some(label => /^\d+,\d+$/.test(label))).toBe(true)
+    expect((await axisLabels()).filter(label => /^\d+\.\d+$/.test(label))).toEqual([])
+    await screenshot(page, 'sites-outlook-es-axes')
+
     // Back to English and metres, so the account is left as the demo has it.
     await Promise.all([
       page.waitForResponse(response => response.url().endsWith('/api/me') && response.request().method() === 'PATCH'),
