@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { chanceAsOdds, formatChance, headlineSentence, likelihoodPhrase, samplingNote } from '../../../shared/wording/chance'
+import { chanceAfterDe, chanceAsOdds, formatChance, headlineSentence, likelihoodPhrase, samplingNote } from '../../../shared/wording/chance'
 
 const nb = (text: string) => text.replace(/\u00A0/g, ' ')
 
@@ -47,5 +47,12 @@ describe('chances in words', () => {
     // [practice] 0.5 m is 1.64 ft (international foot, 0.3048 m).
     expect(nb(headlineSentence({ ...parts, unit: 'ft' }))).toContain('more than 1.6 ft above')
     expect(nb(headlineSentence({ ...parts, language: 'es' }))).toBe('Hay una probabilidad del 23 % (improbable) de que el nivel medio del mar aquí esté más de 0,50 m por encima de mean sea level 2020 en 2070.')
+  })
+
+  it('reads as Spanish at the edges: "de menos del 1 %", never "del menos del 1 %", and a decimal comma in the sampling note', () => {
+    const parts = { probability: 0.002, standardError: 0.004, height: 0.5, year: 2070, referenceLevel: 'NMM 2020', unit: 'm' as const, language: 'es' as const }
+    expect(nb(headlineSentence(parts))).toBe('Hay una probabilidad de menos del 1 % (excepcionalmente improbable; ± 0,8 % por el muestreo) de que el nivel medio del mar aquí esté más de 0,50 m por encima de NMM 2020 en 2070.')
+    expect(nb(headlineSentence({ ...parts, probability: 0.999 }))).toMatch(/^Hay una probabilidad de más del 99 % /)
+    expect(nb(chanceAfterDe(0.4))).toBe('del 40 %')
   })
 })
