@@ -1,4 +1,5 @@
 import type { BriefingDocument } from '#shared/briefing/document'
+import { dateLocale } from '#shared/wording/dates'
 
 /** A row of GET /api/briefings (dates arrive as strings). */
 export interface BriefingRow {
@@ -39,7 +40,7 @@ export function useBriefing(id: string) {
 /** The date of issue as the document writes it: in the briefing's language, as the PDF does. */
 export function briefingDate(iso: string | null, language: string) {
   // UTC on both sides, so the server-rendered page and the hydrated one agree.
-  return iso ? new Date(iso).toLocaleDateString(language, { dateStyle: 'long', timeZone: 'UTC' }) : null
+  return iso ? new Date(iso).toLocaleDateString(dateLocale(language), { dateStyle: 'long', timeZone: 'UTC' }) : null
 }
 
 /** What the issue form edits: the body of POST (with outlookId) and PATCH /api/briefings. */

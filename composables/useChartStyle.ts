@@ -25,13 +25,29 @@ export const CHART_COLOURS = {
 export const CHART_FONT = '"Atkinson Hyperlegible", system-ui, sans-serif'
 
 export function chartAxis(extra: Record<string, unknown> = {}) {
+  const { axisLabel, ...rest } = extra as { axisLabel?: Record<string, unknown> }
   return {
-    axisLabel: { color: CHART_COLOURS.text, fontSize: 12 },
+    axisLabel: { color: CHART_COLOURS.text, fontSize: 12, ...axisLabel },
     nameTextStyle: { color: CHART_COLOURS.text, fontSize: 12 },
     axisLine: { lineStyle: { color: CHART_COLOURS.axis } },
     splitLine: { lineStyle: { color: CHART_COLOURS.grid } },
-    ...extra,
+    ...rest,
   }
+}
+
+/**
+ * Axis numbers as the reader writes them ("0,5" beside Spanish text, "0.5" beside English), with the
+ * same grouping as the tables; ECharts would otherwise write every axis the English way.
+ */
+export function axisNumberFormat(locale: string) {
+  const format = new Intl.NumberFormat(locale, { maximumFractionDigits: 3 })
+  return (value: number) => format.format(value)
+}
+
+/** The axis formatter for the page's language; years are labelled with their own formatter. */
+export function useAxisNumber() {
+  const { locale } = useI18n()
+  return (value: number) => axisNumberFormat(locale.value)(value)
 }
 
 /** The frame every outlook chart shares: no animation, the app's font, the description for screen readers. */

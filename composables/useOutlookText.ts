@@ -1,4 +1,4 @@
-import { chanceAsOdds, formatChance, headlineSentence, likelihoodPhrase, type Language } from '#shared/wording/chance'
+import { chanceAfterDe, chanceAsOdds, formatChance, headlineSentence, likelihoodPhrase, type Language } from '#shared/wording/chance'
 import { fromMetres } from '#shared/units'
 import type { StoredOutlookNote } from '#shared/types/outlook-notes'
 
@@ -27,6 +27,8 @@ export function useOutlookText() {
     odds: (probability: number) => chanceAsOdds(probability, language.value),
     /** "23 % (unlikely)" */
     chanceWithWord: (probability: number) => `${chance(probability)} (${word(probability)})`,
+    /** The same after Spanish "de" ("es del 23 %", "es de menos del 1 %"); English needs no preposition. */
+    ofChanceWithWord: (probability: number) => `${language.value === 'es' ? chanceAfterDe(probability) : chance(probability)} (${word(probability)})`,
     sentence: (parts: { probability: number, standardError: number, extrapolated?: boolean, height: number, year: number, referenceLevel: string }) =>
       headlineSentence({ ...parts, unit: preferences.units, language: language.value }),
     number,

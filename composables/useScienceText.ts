@@ -32,7 +32,8 @@ export const SUMMARY_YEAR = 2100
  * arrive in metres; the preferences store turns them into what the reader asked for.
  */
 export function useScienceText() {
-  const { t, locale } = useI18n()
+  const { t } = useI18n()
+  const dateTime = useDateTime()
   const preferences = usePreferencesStore()
   const height = (metres: number) => preferences.height(metres)
   return {
@@ -48,7 +49,7 @@ export function useScienceText() {
       if (shown === height(0)) return shown
       return metres > 0 ? `+${shown}` : `−${shown}`
     },
-    date: (value: string | null | undefined) => value ? new Date(value).toLocaleDateString(locale.value, { dateStyle: 'medium' }) : '—',
+    date: (value: string | null | undefined) => dateTime(value, 'day') || '—',
     /** The bands at the summary year, or at the last anchor when 2100 is not one. */
     headline: (summary: BandsAtYear[]) => summary.find(b => b.year === SUMMARY_YEAR) ?? summary[summary.length - 1],
   }

@@ -29,7 +29,8 @@ export interface DraftModel {
   licence: string
 }
 
-export interface FieldIssue { field: string, message: string }
+/** An API issue; `label`, once the client has worded it, is the field's visible label ('' for none). */
+export interface FieldIssue { field: string, message: string, label?: string }
 
 const PER_ANCHOR = ['mean', 'sd', 'shift', 'mu', 'sigma'] as const
 const DEFAULT_LEVELS = ['0.05', '0.17', '0.5', '0.83', '0.95']
@@ -137,7 +138,7 @@ export function issuesOf(error: unknown): FieldIssue[] {
 /** Messages for a field: its own name, or anything below it ("mean.1", "values[0]", "csv row 3"). */
 export function messagesFor(issues: FieldIssue[], ...fields: string[]): string[] {
   return issues.filter(issue => fields.some(field => issue.field === field || new RegExp(`^${field}[.[ ]`).test(issue.field)))
-    .map(issue => `${issue.field}: ${issue.message}`)
+    .map(issue => (issue.label === undefined ? `${issue.field}: ${issue.message}` : [issue.label, issue.message].filter(Boolean).join(': ')))
 }
 
 /** Are cells still blank? The preview waits for them rather than listing every empty cell. */

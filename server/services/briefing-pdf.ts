@@ -1,5 +1,6 @@
 import type { Content, TDocumentDefinitions } from 'pdfmake/interfaces'
 import type { BriefingDocument } from '#shared/briefing/document'
+import { dateLocale } from '#shared/wording/dates'
 import { exceedanceChartOption, fanChartOption } from '#shared/briefing/charts'
 import { BRIEFING_TEXT } from '#shared/briefing/text'
 
@@ -30,7 +31,7 @@ export function briefingPdfDefinition(doc: BriefingDocument, absoluteLink: strin
   const text = BRIEFING_TEXT[doc.meta.language]
   const meta = doc.meta
   const chartWidth = paper === 'A4' ? 500 : 510
-  const issued = meta.issuedAt ? new Date(meta.issuedAt).toLocaleDateString(meta.language, { dateStyle: 'long' }) : text.draftMark
+  const issued = meta.issuedAt ? new Date(meta.issuedAt).toLocaleDateString(dateLocale(meta.language), { dateStyle: 'long' }) : text.draftMark
 
   const content: Content[] = [
     { text: text.documentKind.toUpperCase(), style: 'kicker' },

@@ -42,6 +42,12 @@ export function formatChance(probability: number, language: Language): string {
   return `${Math.round(probability * 100)}${nbsp}%`
 }
 
+/** A chance after Spanish "de": "del 23 %" (de + el), but "de menos del 1 %" where it has no article. */
+export function chanceAfterDe(probability: number): string {
+  const chance = formatChance(probability, 'es')
+  return probability < EDGE || probability > 1 - EDGE ? `de ${chance}` : `del ${chance}`
+}
+
 const SIMPLE_FRACTIONS: Array<[number, number]> = [[1, 2], [3, 5], [2, 3], [3, 4], [4, 5], [9, 10], [19, 20], [99, 100]]
 
 /** "about a 1-in-4 chance" / "about 3 in 4": odds a council can picture. */
@@ -64,7 +70,7 @@ export function likelihoodPhrase(probability: number, language: Language): strin
 /** Sampling error is worth a mention when it could move the rounded percentage. */
 export function samplingNote(standardError: number, language: Language): string | null {
   if (2 * standardError < 0.005) return null
-  const margin = `${(2 * standardError * 100).toFixed(1)}\u00A0%`
+  const margin = `${(2 * standardError * 100).toLocaleString(language, { minimumFractionDigits: 1, maximumFractionDigits: 1 })}\u00A0%`
   return language === 'es' ? `± ${margin} por el muestreo` : `± ${margin} from sampling`
 }
 
@@ -101,6 +107,6 @@ export function headlineSentence(parts: HeadlineParts): string {
   const note = samplingNote(parts.standardError, language)
   const qualifier = note ? `(${word}; ${note})` : `(${word})`
   return language === 'es'
-    ? `Hay una probabilidad del ${chance} ${qualifier} de que el nivel medio del mar aquí esté más de ${height} por encima de ${parts.referenceLevel} en ${parts.year}.`
+    ? `Hay una probabilidad ${chanceAfterDe(probability)} ${qualifier} de que el nivel medio del mar aquí esté más de ${height} por encima de ${parts.referenceLevel} en ${parts.year}.`
     : `There is a ${chance} chance ${qualifier} that the mean sea level here will be more than ${height} above ${parts.referenceLevel} by ${parts.year}.`
 }

@@ -1,5 +1,5 @@
 import { formatHeight, type HeightUnit } from '../units'
-import { formatChance, likelihoodPhrase, type Language } from './chance'
+import { chanceAfterDe, formatChance, likelihoodPhrase, type Language } from './chance'
 
 // Flood levels in plain words. A flood level is a height of the total water level (a crest, a floor,
 // a road), reached by the year's highest tides and surges on top of the mean sea level: its numbers
@@ -30,7 +30,7 @@ export function floodYearSentence(parts: { year: number, height: number, annualC
   const chance = formatChance(parts.annualChance, context.language)
   const level = height(parts.height, context)
   return context.language === 'es'
-    ? `En ${parts.year} se espera que el agua alcance ${level} sobre ${context.datum} ${often}: una probabilidad del ${chance} en un año cualquiera.`
+    ? `En ${parts.year} se espera que el agua alcance ${level} sobre ${context.datum} ${often}: una probabilidad ${chanceAfterDe(parts.annualChance)} en un año cualquiera.`
     : `In ${parts.year} the water is expected to reach ${level} above ${context.datum} ${often}: a ${chance} chance in any one year.`
 }
 
@@ -43,7 +43,7 @@ export function lifeSentence(parts: { buildYear: number, lifeYears: number, chan
   const chance = formatChance(parts.chance, language)
   const word = likelihoodPhrase(parts.chance, language)
   return language === 'es'
-    ? `Construida en ${parts.buildYear} para ${parts.lifeYears} años (${parts.buildYear}–${end}): una probabilidad del ${chance} (${word}) de que el agua alcance la cota al menos una vez en ese tiempo.`
+    ? `Construida en ${parts.buildYear} para ${parts.lifeYears} años (${parts.buildYear}–${end}): una probabilidad ${chanceAfterDe(parts.chance)} (${word}) de que el agua alcance la cota al menos una vez en ese tiempo.`
     : `Built in ${parts.buildYear} for ${parts.lifeYears} years (${parts.buildYear}–${end}): a ${chance} chance (${word}) that the water reaches the level at least once in that time.`
 }
 
@@ -52,6 +52,6 @@ export function designLifeLevelSentence(parts: { chance: number, level: number }
   const chance = formatChance(parts.chance, context.language)
   const level = height(parts.level, context)
   return context.language === 'es'
-    ? `Para que la probabilidad de al menos un rebase en esa vida útil sea del ${chance}, la cota tendría que estar a ${level} sobre ${context.datum}: es la cota de vida útil de diseño.`
+    ? `Para que la probabilidad de al menos un rebase en esa vida útil sea ${chanceAfterDe(parts.chance)}, la cota tendría que estar a ${level} sobre ${context.datum}: es la cota de vida útil de diseño.`
     : `For a ${chance} chance of at least one overtopping in that life, the level would have to be ${level} above ${context.datum}: its design-life level.`
 }

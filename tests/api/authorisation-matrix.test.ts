@@ -135,6 +135,8 @@ const ROUTES: Record<string, RouteCase> = {
   'releases/[id]/csv.get.ts': { url: (fx, scope) => `/api/releases/${pick(scope, fx.home.releases.read, fx.foreign.releaseDraft)}/csv`, expect: draftsInside },
   'releases/[id]/submit.post.ts': { url: (fx, scope) => `/api/releases/${pick(scope, fx.home.releases.submit, fx.foreign.releaseDraft)}/submit`, expect: only('analyst', 200) },
   'releases/[id]/approve.post.ts': { url: (fx, scope) => `/api/releases/${pick(scope, fx.home.releases.approve, fx.foreign.releaseDraft)}/approve`, expect: only('analyst', 200) },
+  // Read while the release waits for approval (the return route's fixture is returned only further down).
+  'releases/[id]/reach.get.ts': { url: (fx, scope) => `/api/releases/${pick(scope, fx.home.releases.return, fx.foreign.releaseDraft)}/reach`, expect: only('analyst', 200) },
   'releases/[id]/return.post.ts': { url: (fx, scope) => `/api/releases/${pick(scope, fx.home.releases.return, fx.foreign.releaseDraft)}/return`, body: () => ({ note: 'Check the method.' }), expect: only('analyst', 200) },
   'releases/[id]/withdraw.post.ts': { url: (fx, scope) => `/api/releases/${pick(scope, fx.home.releases.withdraw, fx.foreign.releaseDraft)}/withdraw`, body: () => ({ reason: 'Matrix test.' }), expect: only('analyst', 200) },
   'series/[id].get.ts': { url: (fx, scope) => `/api/series/${pick(scope, fx.home.releases.series, fx.foreign.releaseSeries)}`, expect: draftsInside },

@@ -22,6 +22,18 @@ function finished(id: string) {
   }, { timeout: 30_000, interval: 100 })
 }
 
+/** A watch confirmed through the link its e-mail carries, read from the stand-in mailbox. */
+async function watchConfirmed(email: string, siteId: string) {
+  expect((await planner.post('/api/watches', { email, siteId })).status).toBeLessThan(300)
+  const mail = await vi.waitFor(async () => {
+    const found = ((await admin.get('/api/admin/mailbox')).body as Array<{ to: string[], text: string }>).find(message => message.to.includes(email))
+    if (!found) throw new Error('not sent yet')
+    return found
+  }, { timeout: 20_000, interval: 100 })
+  const token = mail.text.match(/\/watches\/confirm\?token=([\w-]+)/)![1]
+  expect((await new ApiClient(server.url).post('/api/watches/confirm', { token })).status).toBe(200)
+}
+
 beforeAll(async () => {
   server = await startServer({ JOBS_POLL_MS: '100' })
   admin = await ApiClient.signedIn(server.url, OPERATOR.email, OPERATOR.password)
@@ -46,6 +58,13 @@ describe('recomputations', () => {
     const [glaciers] = (await analyst.get('/api/releases?component=glaciers&scenario=SSP2-4.5&state=published')).body
     const next = await analyst.post('/api/releases', { seriesId: glaciers.seriesId, form: 'normal', baselineYear: 2020, anchorYears: [2050, 2100, 2150], mean: [0.07, 0.13, 0.18], sd: [0.01, 0.03, 0.04], method: 'm', citation: 'c', licence: 'l' })
     await analyst.post(`/api/releases/${next.body.id}/submit`)
+    // Before approving, the reviewer is told how far it reaches: the sites the batch below computes
+    // again, and the confirmed watches on them (a watch still waiting for its confirmation is not mailed).
+    await watchConfirmed('reach@example.org', siteIds[0]!)
+    expect((await planner.post('/api/watches', { email: 'pending@example.org', siteId: siteIds[1] })).status).toBeLessThan(300)
+    expect((await reviewer.get(`/api/releases/${next.body.id}/reach`)).body).toEqual({ sites: siteIds.length, watchers: 1 })
+    // A published release is not waiting for approval: it has no reach to confirm.
+    expect((await reviewer.get(`/api/releases/${glaciers.id}/reach`)).status).toBe(409)
     expect((await reviewer.post(`/api/releases/${next.body.id}/approve`)).status).toBe(200)
 
     const batch = await vi.waitFor(async () => {

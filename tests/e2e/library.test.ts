@@ -72,7 +72,12 @@ describe('publishing a release through the library', () => {
     await queue.getByRole('link', { name: TITLE }).click()
     await page.waitForURL(`**${releasePath}`)
     await noAxeFaults('release, as reviewer')
+    // Publishing computes sites again and mails their watchers, so it is confirmed knowing how many.
     await page.getByRole('button', { name: 'Approve and publish' }).click()
+    await expect.poll(() => page.getByTestId('approve-reach').textContent()).toMatch(/^\s*Approving publishes it at once(; no site| and the outlooks of (one site|\d+ sites))/)
+    await noAxeFaults('approval confirmation')
+    await snap('approve-confirm')
+    await page.getByRole('button', { name: 'Publish now' }).click()
     await expect.poll(() => page.getByTestId('state-badge').first().textContent()).toBe('Published')
     await open(page, '/library')
     await expect.poll(() => page.getByTestId('review-queue-empty').count()).toBe(1)
@@ -103,10 +108,21 @@ describe('publishing a release through the library', () => {
     for (const [year, values] of Object.entries(columns)) {
       for (const [k, level] of ['0.05', '0.17', '0.5', '0.83', '0.95'].entries()) await grid.getByLabel(`Value at level ${level}, ${year}`).fill(values[k]!)
     }
-    await expect.poll(() => page.getByTestId('preview-problems').textContent()).toMatch(/values\[0\]/)
+    // The engine's own check keeps its words, under the column's name rather than its code.
+    await expect.poll(() => page.getByTestId('preview-problems').textContent()).toMatch(/Values for 2050: Must be non-decreasing across levels/)
     await editor.getByTestId('save-draft').click()
     await expect.poll(() => editor.getByTestId('editor-error').textContent()).toMatch(/Nothing was saved/)
     expect(new URL(page.url()).pathname).toBe('/library/new')
+    // Each refused field says so beside it, by its label, and the alert counts them.
+    const method = page.locator('#prov-method-msg')
+    await expect.poll(() => method.textContent()).toBe('Method: Fill this in.')
+    expect(await editor.getByTestId('editor-error').textContent()).toMatch(/6 fields need a change/)
+    // Mending a field clears its message at once, before saving again.
+    await editor.getByLabel('Method').fill('Typed for the browser test.')
+    await expect.poll(() => method.textContent()).toBe('')
+    expect(await editor.getByTestId('editor-error').textContent()).toMatch(/5 fields need a change/)
+    await grid.getByLabel('Value at level 0.5, 2050').fill('0.07')
+    await expect.poll(() => page.getByTestId('preview-problems').count()).toBe(0)
   })
 })
 

@@ -94,12 +94,19 @@ describe('a planner at work on the map and the outlook page', () => {
     await expect.poll(async () => (await sentences())[0]).toContain('more than 1.6 ft above')
 
     await page.getByTestId('language-switcher').selectOption('es')
-    await expect.poll(async () => (await sentences())[0]).toMatch(/^Hay una probabilidad del .* de que el nivel medio del mar aquí esté más de 1,6 ft por encima de .* en 2050\.$/)
+    await expect.poll(async () => (await sentences())[0]).toMatch(/^Hay una probabilidad (del|de menos del|de más del) .* de que el nivel medio del mar aquí esté más de 1,6 ft por encima de .* en 2050\.$/)
     expect(await page.getByRole('heading', { level: 1 }).textContent()).toBe('Perspectiva para Test Harbour')
     // The notes on how it was put together are stored as facts and worded in the reader's language.
     expect(await page.getByTestId('outlook-notes').textContent()).toContain('No hay ningún conjunto de correlaciones publicado para SSP2-4.5; los componentes se muestrearon como independientes.')
     await noAxeFaults('outlook page in Spanish')
     await snap('outlook-es-ft')
+
+    // The chart axes write numbers as the sentences beside them do: with a decimal comma in Spanish.
+    await page.getByText('metros', { exact: true }).click()
+    const axisLabels = () => page.getByTestId('fan-chart').locator('svg text').allTextContents()
+    await expect.poll(async () => (await axisLabels()).some(label => /^\d+,\d+$/.test(label))).toBe(true)
+    expect((await axisLabels()).filter(label => /^\d+\.\d+$/.test(label))).toEqual([])
+    await screenshot(page, 'sites-outlook-es-axes')
 
     // Back to English and metres, so the account is left as the demo has it.
     await Promise.all([

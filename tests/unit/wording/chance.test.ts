@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { chanceAsOdds, formatChance, headlineSentence, likelihoodPhrase, samplingNote } from '../../../shared/wording/chance'
+import { chanceAfterDe, chanceAsOdds, formatChance, headlineSentence, likelihoodPhrase, samplingNote } from '../../../shared/wording/chance'
 
 const nb = (text: string) => text.replace(/\u00A0/g, ' ')
 
@@ -55,5 +55,12 @@ describe('chances in words', () => {
     expect(sentence).toBe('There is a less than 1 % chance (beyond the range the releases describe) that the mean sea level here will be more than 1.20 m above chart datum by 2100.')
     expect(sentence).not.toMatch(/unlikely/)
     expect(nb(headlineSentence({ ...parts, language: 'es' }))).toMatch(/\(fuera del rango que describen las versiones publicadas\)/)
+  })
+
+  it('reads as Spanish at the edges: "de menos del 1 %", never "del menos del 1 %", and a decimal comma in the sampling note', () => {
+    const parts = { probability: 0.002, standardError: 0.004, height: 0.5, year: 2070, referenceLevel: 'NMM 2020', unit: 'm' as const, language: 'es' as const }
+    expect(nb(headlineSentence(parts))).toBe('Hay una probabilidad de menos del 1 % (excepcionalmente improbable; ± 0,8 % por el muestreo) de que el nivel medio del mar aquí esté más de 0,50 m por encima de NMM 2020 en 2070.')
+    expect(nb(headlineSentence({ ...parts, probability: 0.999 }))).toMatch(/^Hay una probabilidad de más del 99 % /)
+    expect(nb(chanceAfterDe(0.4))).toBe('del 40 %')
   })
 })
