@@ -78,6 +78,18 @@ describe('briefings', () => {
     expect(threshold.body.message).toMatch(/is not a threshold of this site/)
   })
 
+  it.each([
+    ['a year twice', { years: [2050, 2050] }, /^years: Choose each year once\./],
+    ['a threshold twice', () => ({ thresholdIds: [thresholdIds[0], thresholdIds[0]] }), /^thresholdIds: Choose each threshold once\./],
+    ['a compared outlook twice', () => ({ comparisonOutlookIds: [comparisonId, comparisonId] }), /^comparisonOutlookIds: Compare each outlook once\./],
+  ])('refuses %s, saying so, and drafts nothing', async (_name, overrides, message) => {
+    const before = (await planner.get('/api/briefings')).body.length
+    const response = await planner.post('/api/briefings', briefing(typeof overrides === 'function' ? overrides() : overrides))
+    expect(response.status).toBe(400)
+    expect(response.body.message).toMatch(message)
+    expect((await planner.get('/api/briefings')).body.length).toBe(before)
+  })
+
   it('issues once, then never changes: edits answer 409 and a new version links back', async () => {
     expect((await planner.patch(`/api/briefings/${draftId}`, briefing({ title: 'Kelwick to 2100 (v1)' }))).status).toBe(200)
     const issued = await planner.post(`/api/briefings/${draftId}/issue`)
