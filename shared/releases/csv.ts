@@ -15,7 +15,7 @@ export class CsvError extends Error {
 
 const MAX_ISSUES = 10
 
-function readGrid(text: string): string[][] {
+export function readGrid(text: string): string[][] {
   if (new TextEncoder().encode(text).length > CSV_MAX_BYTES) {
     throw new CsvError([{ field: 'csv', message: `The file is larger than ${CSV_MAX_BYTES / 1024 / 1024} MB. Split it or thin the draws.` }])
   }

@@ -1,4 +1,4 @@
-// jstat ships no type declarations; these cover the distributions the engine tests compare against.
+// jstat ships no type declarations; these cover the distributions and matrix operations the tests compare against.
 declare module 'jstat' {
   interface JStatNormal {
     cdf(x: number, mean: number, sd: number): number
@@ -7,6 +7,15 @@ declare module 'jstat' {
   interface JStatLognormal {
     cdf(x: number, mu: number, sigma: number): number
   }
-  const jStatPackage: { jStat: { normal: JStatNormal; lognormal: JStatLognormal } }
+  type Matrix = number[][]
+  const jStatPackage: {
+    jStat: {
+      normal: JStatNormal
+      lognormal: JStatLognormal
+      inv(matrix: Matrix): Matrix
+      multiply(a: Matrix, b: Matrix): Matrix
+      transpose(matrix: Matrix): Matrix
+    }
+  }
   export default jStatPackage
 }
