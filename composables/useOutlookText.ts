@@ -1,5 +1,5 @@
 import { chanceAfterDe, chanceAsOdds, formatChance, headlineSentence, likelihoodPhrase, type Language } from '#shared/wording/chance'
-import { fromMetres } from '#shared/units'
+import { formatHeight, fromMetres } from '#shared/units'
 import type { StoredOutlookNote } from '#shared/types/outlook-notes'
 
 /**
@@ -20,6 +20,8 @@ export function useOutlookText() {
   return {
     language,
     height: (metres: number) => preferences.height(metres),
+    /** A height a digit finer (millimetres), for gauge records and their fits. */
+    fineHeight: (metres: number) => formatHeight(metres, preferences.units, locale.value, true),
     /** A height in the chosen unit as a bare number, for chart axes and CSV cells. */
     heightValue: (metres: number) => Math.round(fromMetres(metres, preferences.units) * 1000) / 1000,
     chance,

@@ -13,8 +13,9 @@ export function toMetres(value: number, unit: HeightUnit): number {
 }
 
 /** "0.50 m" or "1.6 ft": centimetre precision in metres, tenth-of-a-foot precision in feet. */
-export function formatHeight(metres: number, unit: HeightUnit, locale = 'en'): string {
-  const digits = unit === 'ft' ? 1 : 2
+/** `fine`: a digit more (millimetres, hundredths of a foot) for gauge-sized changes. */
+export function formatHeight(metres: number, unit: HeightUnit, locale = 'en', fine = false): string {
+  const digits = (unit === 'ft' ? 1 : 2) + (fine ? 1 : 0)
   const value = fromMetres(metres, unit).toLocaleString(locale, { minimumFractionDigits: digits, maximumFractionDigits: digits })
   return `${value} ${unit}`
 }

@@ -3,6 +3,8 @@ import { boolean, customType, doublePrecision, index, integer, jsonb, pgEnum, pg
 import { ORGANISATION_KINDS, ROLES } from '../../shared/types/roles'
 import { AMOUNT_UNITS, DATUM_KINDS, LAND_MOTION_SOURCES, OUTLOOK_STATES, RELEASE_FORMS, REVIEW_STATES, THRESHOLD_KINDS } from '../../shared/types/science'
 import type { StoredOutlookNote } from '../../shared/types/outlook-notes'
+import type { GaugeRecord, GaugeValue } from '../../shared/observations/gauge-record'
+import type { GaugeResolution, GaugeTrendFit } from '../../shared/observations/gauge-trend'
 
 export const roleEnum = pgEnum('role', ROLES)
 export const organisationKindEnum = pgEnum('organisation_kind', ORGANISATION_KINDS)
@@ -209,6 +211,24 @@ export const annualMaxima = pgTable('annual_maxima', {
   year: integer('year').notNull(),
   value: doublePrecision('value').notNull(),
 }, table => [unique('annual_maxima_site_year').on(table.siteId, table.year)])
+
+/**
+ * A site's tide-gauge record of mean sea level, versioned: each upload is a new version and the latest is
+ * the one shown. Values are as uploaded (metres above the site's datum); the fit is stored with them so a
+ * page never refits, and `fitIssue` says why there is no fit (a record too short to fit is still kept).
+ */
+export const gaugeRecords = pgTable('gauge_records', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  siteId: uuid('site_id').notNull().references(() => sites.id, { onDelete: 'cascade' }),
+  version: integer('version').notNull(),
+  resolution: text('resolution').$type<GaugeResolution>().notNull(),
+  values: jsonb('values').$type<GaugeValue[]>().notNull(),
+  gaps: jsonb('gaps').$type<GaugeRecord['gaps']>().notNull(),
+  fit: jsonb('fit').$type<GaugeTrendFit>(),
+  fitIssue: text('fit_issue'),
+  uploadedBy: uuid('uploaded_by').references(() => users.id),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+}, table => [unique('gauge_records_site_version').on(table.siteId, table.version)])
 
 export interface OutlookReleaseRef { component: string, releaseId: string, seriesId: string, version: number, citation: string, title: string, scale: number, scaleSource: string | null }
 

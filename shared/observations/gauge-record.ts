@@ -33,6 +33,7 @@ function unitAdvice(heights: number[]): string {
   const sizes = heights.map(Math.abs).sort((a, b) => a - b)
   const typical = sizes[Math.floor(sizes.length / 2)] ?? 0
   if (typical > 2000) return 'these look like millimetres: divide by 1000.'
+  if (typical > 200) return 'these look like millimetres or centimetres: divide by 1000 if millimetres, by 100 if centimetres.'
   if (typical > 20) return 'these look like centimetres: divide by 100.'
   return 'enter the mean sea level in metres above the site\'s datum, and check this value for a typing error.'
 }

@@ -88,6 +88,10 @@ export const AnnualMaximaSchema = z.object({
 })
 
 
+export const GaugeRecordSchema = z.object({
+  csv: z.string({ error: 'Upload a CSV of mean sea level with the columns year,height (or year,month,height).' }).max(1_000_000, { error: 'The file is larger than 1 MB.' }),
+})
+
 export const OutlookRequestSchema = z.object({
   scenario: scenarioField,
   samples: z.number({ error: 'Enter the number of samples.' }).int({ error: 'Enter a whole number of samples.' })

@@ -2,7 +2,7 @@ import { readdirSync } from 'node:fs'
 import { join, relative } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import {
-  ANNUAL_MAXIMA_CSV, OUTLOOK_REQUEST, PERSONAS, RELEASE_CONTENT, SITE_BODY, createMatrixFixtures, foreignSecrets, foreignSnapshot,
+  ANNUAL_MAXIMA_CSV, GAUGE_RECORD_CSV, OUTLOOK_REQUEST, PERSONAS, RELEASE_CONTENT, SITE_BODY, createMatrixFixtures, foreignSecrets, foreignSnapshot,
   newCorrelationSet, newGrid, newRelease, type MatrixFixtures, type Persona,
 } from '../support/matrix-fixtures'
 import { ROOT, startServer, type RunningServer } from '../support/server'
@@ -85,6 +85,8 @@ const ROUTES: Record<string, RouteCase> = {
   'sites/[id].get.ts': { url: (fx, scope) => `/api/sites/${pick(scope, fx.home.siteId, fx.foreign.siteId)}`, expect: members },
   'sites/[id].patch.ts': { url: (fx, scope) => `/api/sites/${pick(scope, fx.home.editSiteId, fx.foreign.siteId)}`, body: () => SITE_BODY('Matrix Point'), expect: only('planner', 200) },
   'sites/[id]/annual-maxima.post.ts': { url: (fx, scope) => `/api/sites/${pick(scope, fx.home.editSiteId, fx.foreign.siteId)}/annual-maxima`, body: () => ({ csv: ANNUAL_MAXIMA_CSV }), expect: only('planner', 200) },
+  'sites/[id]/gauge-record.get.ts': { url: (fx, scope) => `/api/sites/${pick(scope, fx.home.siteId, fx.foreign.siteId)}/gauge-record`, expect: members },
+  'sites/[id]/gauge-record.post.ts': { url: (fx, scope) => `/api/sites/${pick(scope, fx.home.editSiteId, fx.foreign.siteId)}/gauge-record`, body: () => ({ csv: GAUGE_RECORD_CSV }), expect: only('planner', 201) },
   'sites/[id]/outlooks.get.ts': { url: (fx, scope) => `/api/sites/${pick(scope, fx.home.siteId, fx.foreign.siteId)}/outlooks`, expect: members },
   // The same request as the stored outlook: served from the store (200), nothing recomputed.
   'sites/[id]/outlooks.post.ts': { url: (fx, scope) => `/api/sites/${pick(scope, fx.home.siteId, fx.foreign.siteId)}/outlooks`, body: () => OUTLOOK_REQUEST, expect: only('planner', 200) },

@@ -33,6 +33,7 @@ export const newCorrelationSet = (scenario: string, title: string) => ({ scenari
 // Far from the demo coast, so publishing one never changes a demo outlook.
 export const newGrid = (component: string, title: string) => ({ component, title, latitudes: [-60, -50], longitudes: [100, 110], factors: [[1, 1], [1, 1]], ...PROVENANCE })
 export const OUTLOOK_REQUEST = { scenario: 'SSP2-4.5', samples: 2000, seed: 5 }
+export const GAUGE_RECORD_CSV = `year,height\n${Array.from({ length: 25 }, (_, i) => `${2000 + i},${(1.2 + i * 0.004).toFixed(3)}`).join('\n')}\n`
 export const ANNUAL_MAXIMA_CSV = `year,value\n${Array.from({ length: 24 }, (_, i) => `${2000 + i},${(1.4 + (i % 5) * 0.05).toFixed(2)}`).join('\n')}\n`
 
 type Kind = 'releases' | 'correlation-sets' | 'scale-factor-grids'

@@ -3,6 +3,7 @@ import { fitGumbelWithTrend } from '../../../shared/engine/gumbel-trend'
 import type { DatumKind, LandMotionSource, ThresholdKind } from '../../../shared/types/science'
 import type { Database } from '../client'
 import { annualMaxima, sites, thresholds } from '../schema'
+import { seedGaugeRecord, type DemoGauge } from './gauge'
 
 // Invented towns on the invented island of Caldwyn (drawn on the map from public/map/caldwyn.geojson,
 // in open ocean). Land motion, thresholds and water levels are illustrative only.
@@ -18,6 +19,8 @@ interface DemoSite {
   thresholds: { label: string, height: number, kind?: ThresholdKind, buildYear?: number, designLifeYears?: number }[]
   /** Annual maxima are generated from this Gumbel (location at 2020, rising with the sea) for the demo, then fitted like an upload. */
   extremes?: { location: number, scale: number, years: number }
+  /** An invented record of annual mean sea level at the town's gauge. */
+  gauge?: DemoGauge
 }
 
 /** Every demo site counts rise from 2020, the baseline of the demo science. */
@@ -28,7 +31,7 @@ const DEMO_MAXIMA_TREND = 0.004
 
 export const DEMO_SITES: DemoSite[] = [
   { org: 'council', name: 'Kelwick', latitude: 47.62, longitude: -34.93, land: { rate: -4.8, sigma: 0.9, source: 'insar', reference: 'Caldwyn delta InSAR survey 2016–2024 (illustrative)' },
-    thresholds: [{ label: 'High-tide flooding of Quay Street', height: 0.5 }, { label: 'Sea wall crest', height: 2.3, kind: 'flood-level', buildYear: 2031, designLifeYears: 50 }], extremes: { location: 1.55, scale: 0.14, years: 32 } },
+    thresholds: [{ label: 'High-tide flooding of Quay Street', height: 0.5 }, { label: 'Sea wall crest', height: 2.3, kind: 'flood-level', buildYear: 2031, designLifeYears: 50 }], extremes: { location: 1.55, scale: 0.14, years: 32 }, gauge: { firstYear: 1979, lastYear: 2025, rateMmPerYear: 8, accelerationMmPerYear2: 0.15 } },
   { org: 'council', name: 'Drumhaven', latitude: 48.93, longitude: -33.42, land: { rate: 2.1, sigma: 0.4, source: 'gps', reference: 'GNSS station DRMH, 14-year series (illustrative)' },
     thresholds: [{ label: 'Promenade', height: 0.9 }] },
   { org: 'council', name: 'Fennmouth', latitude: 47.21, longitude: -33.05, land: { rate: -1.2, sigma: 0.5, source: 'gps', reference: 'GNSS station FNMT, 11-year series (illustrative)' },
@@ -78,5 +81,6 @@ export async function seedSites(tx: Pick<Database, 'insert'>, owners: { council:
       buildYear: t.buildYear ?? null, designLifeYears: t.designLifeYears ?? null, position,
     })))
     if (maxima) await tx.insert(annualMaxima).values(maxima.map(m => ({ siteId: site!.id, ...m })))
+    if (demo.gauge) await seedGaugeRecord(tx, site!.id, demo.gauge, datum.offset)
   }
 }

@@ -1,0 +1,91 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { ApiClient } from '../support/client'
+import { PLANNER, PORT_PLANNER, READER } from '../support/demo-users'
+import { startServer, type RunningServer } from '../support/server'
+
+let server: RunningServer
+let planner: ApiClient
+let reader: ApiClient
+let portPlanner: ApiClient
+let siteId: string
+
+/** Annual means 1981–2025 rising 6 mm/yr from 1.20 m in 2020 above the datum, with a small alternating wobble. */
+function rising(years = 45, from = 1981, skip: number[] = []) {
+  const rows = Array.from({ length: years }, (_, i) => from + i)
+    .filter(year => !skip.includes(year))
+    .map(year => `${year},${(1.2 + 0.006 * (year + 0.5 - 2020) + (year % 2 ? 0.004 : -0.004)).toFixed(4)}`)
+  return `year,height\n${rows.join('\n')}\n`
+}
+
+beforeAll(async () => {
+  server = await startServer()
+  const as = (user: { email: string, password: string }) => ApiClient.signedIn(server.url, user.email, user.password)
+  ;[planner, reader, portPlanner] = await Promise.all([as(PLANNER), as(READER), as(PORT_PLANNER)])
+  siteId = (await planner.get('/api/sites')).body.find((s: { name: string }) => s.name === 'Lowmere').id
+})
+
+afterAll(async () => {
+  await server?.stop()
+})
+
+describe('tide-gauge records', () => {
+  it('fits an uploaded record, keeps each upload as a version and lists the gaps', async () => {
+    const first = await planner.post(`/api/sites/${siteId}/gauge-record`, { csv: rising(45, 1981, [1990, 1991]) })
+    expect(first.status).toBe(201)
+    expect(first.body.version).toBe(1)
+    const second = await planner.post(`/api/sites/${siteId}/gauge-record`, { csv: rising() })
+    expect(second.body.version).toBe(2)
+
+    const read = (await reader.get(`/api/sites/${siteId}/gauge-record`)).body
+    expect(read.versions.map((v: { version: number, values: number }) => [v.version, v.values])).toEqual([[2, 45], [1, 43]])
+    expect(read.record.gaps).toEqual([])
+    // The generating line rises 6 mm/yr with no curve [practice: the test's own model]; the fit recovers it
+    // within two of its standard errors.
+    const fit = read.record.fit
+    expect(Math.abs(fit.rate - 0.006)).toBeLessThan(2 * fit.rateSe + 1e-9)
+    expect(Math.abs(fit.acceleration)).toBeLessThan(2 * fit.accelerationSe + 1e-9)
+    expect(read.record.fitIssue).toBeNull()
+  })
+
+  it('keeps a record too short to fit, saying why there is no fit', async () => {
+    const response = await planner.post(`/api/sites/${siteId}/gauge-record`, { csv: rising(12, 2010) })
+    expect(response.status).toBe(201)
+    const read = (await planner.get(`/api/sites/${siteId}/gauge-record`)).body
+    expect(read.record.fit).toBeNull()
+    expect(read.record.fitIssue).toMatch(/at least 19 .*nodal cycle/)
+    expect(read.tracking).toEqual([])
+  })
+
+  it('tracks the fitted rise since the epoch against each scenario\'s latest outlook', async () => {
+    const outlook = await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000 })
+    expect(outlook.status).toBe(201)
+    await planner.post(`/api/sites/${siteId}/gauge-record`, { csv: rising() })
+    const read = (await planner.get(`/api/sites/${siteId}/gauge-record`)).body
+    expect(read.tracking.map((entry: { scenario: string }) => entry.scenario)).toEqual(['SSP2-4.5'])
+    for (const entry of read.tracking) {
+      expect(entry.outlookId).toBe(outlook.body.id)
+      // 6 mm/yr from 2020 to the middle of 2025 is 33 mm [practice: arithmetic].
+      expect(entry.tracking.observed).toBeCloseTo(0.033, 2)
+      expect(entry.tracking.epochFrom).toBe('record')
+      expect(['below', 'within', 'above', 'unclear']).toContain(entry.tracking.status)
+    }
+  })
+
+  it.each([
+    ['a year given twice', 'year,height\n2000,1.1\n2000,1.2\n', /^csv row 3, column year: 2000 is also on row 2/],
+    ['millimetres', 'year,height\n2000,1201\n2001,1205\n', /divide by 1000 if millimetres/],
+    ['a wrong header', 'date,level\n2000,1.1\n', /^csv header: The header must be "year,height"/],
+  ])('refuses a record with %s, saying what to fix, and keeps the stored version', async (_name, csv, message) => {
+    const before = (await planner.get(`/api/sites/${siteId}/gauge-record`)).body
+    const response = await planner.post(`/api/sites/${siteId}/gauge-record`, { csv })
+    expect(response.status).toBe(400)
+    expect(response.body.message).toMatch(message)
+    expect((await planner.get(`/api/sites/${siteId}/gauge-record`)).body).toEqual(before)
+  })
+
+  it('answers another organisation as if the site did not exist, and a reader may not upload', async () => {
+    expect((await portPlanner.get(`/api/sites/${siteId}/gauge-record`)).status).toBe(404)
+    expect((await portPlanner.post(`/api/sites/${siteId}/gauge-record`, { csv: rising() })).status).toBe(404)
+    expect((await reader.post(`/api/sites/${siteId}/gauge-record`, { csv: rising() })).status).toBe(403)
+  })
+})
