@@ -8,6 +8,7 @@ import { z } from 'zod'
 // name read backwards in a briefing. Right-to-left text needs none of them; the left-to-right and
 // right-to-left marks (U+200E, U+200F) and the zero-width (non-)joiners (U+200C, U+200D) are kept.
 // NUL is refused before any schema runs (readValidBody), since it cannot be stored at all.
+// eslint-disable-next-line no-control-regex -- finding control characters is the point
 export const CONTROL_CHARACTERS = /[\u0001-\u0008\u000B\u000C\u000E-\u001F\u007F-\u009F\u202A-\u202E\u2066-\u2069]/g
 
 export const withoutControls = (text: string) => text.replace(CONTROL_CHARACTERS, '')

@@ -247,6 +247,7 @@ describe('hostile text a person may fairly type is kept as typed and shown escap
     // The confirmation e-mail names the site without them.
     expect((await planner.post('/api/watches', { email: PLANNER.email, siteId: created.body.id })).status).toBe(202)
     const mail = await smtp.next(m => isTo(PLANNER.email)(m) && (m.text ?? '').includes(kept))
+    // eslint-disable-next-line no-control-regex -- looking for control characters is the point
     expect(`${mail.subject}${mail.text}${mail.html}`).not.toMatch(/[\u0007\u001B\u0085\u202A-\u202E\u2066-\u2069]/)
   })
 
