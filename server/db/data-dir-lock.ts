@@ -1,5 +1,6 @@
+import { accessSync, constants, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
 import { mkdir, readFile, rm, writeFile } from 'node:fs/promises'
-import { dirname, resolve } from 'node:path'
+import { dirname, join, resolve } from 'node:path'
 
 // PGlite is an embedded database: two processes opening one data folder corrupt it. PGlite's own
 // postmaster.pid cannot tell (it names no real process, and a killed server leaves it behind), so
@@ -42,4 +43,36 @@ export async function claimDataDir(dataDir: string): Promise<() => Promise<void>
     const text = await readFile(lockFile, 'utf8').catch(() => '')
     if (Number.parseInt(text, 10) === process.pid) await rm(lockFile, { force: true })
   }
+}
+
+/**
+ * Why this process cannot use the PGlite folder at all (another live process holds it, or it cannot
+ * be created or written), checked synchronously at start so the server exits with the reason
+ * instead of listening and answering 500. Undefined when it can.
+ */
+export function dataDirProblemSync(dataDir: string): string | undefined {
+  const text = (() => {
+    try {
+      return readFileSync(lockFileOf(dataDir), 'utf8')
+    }
+    catch {
+      return ''
+    }
+  })()
+  const pid = Number.parseInt(text, 10)
+  if (Number.isInteger(pid) && pid > 0 && pid !== process.pid && isAlive(pid)) {
+    return `The PGlite data folder ${dataDir} is in use by process ${pid}. Stop that process first (only one process may open an embedded database), or set PGLITE_DATA_DIR to another folder.`
+  }
+  try {
+    mkdirSync(dataDir, { recursive: true })
+    accessSync(dataDir, constants.W_OK)
+    const probe = join(dataDir, `.write-probe-${process.pid}`)
+    writeFileSync(probe, '')
+    rmSync(probe, { force: true })
+    accessSync(dirname(lockFileOf(dataDir)), constants.W_OK)
+  }
+  catch (error) {
+    return `The PGlite data folder ${dataDir} cannot be created or written (${(error as NodeJS.ErrnoException).code ?? String(error)}). Make it writable by this user, or set PGLITE_DATA_DIR to a folder that is.`
+  }
+  return undefined
 }

@@ -260,6 +260,8 @@ export const outlooks = pgTable('outlooks', {
   // with SKIP LOCKED), renews the lease while it computes, and writes the result only while it
   // still holds it. A lease that runs out (the instance died) lets another instance take over.
   claimedBy: text('claimed_by'),
+  /** When an instance last took it: the queue serves the organisation served longest ago first. */
+  claimedAt: timestamp('claimed_at', { withTimezone: true }),
   leaseUntil: timestamp('lease_until', { withTimezone: true }),
   attempts: integer('attempts').notNull().default(0),
   /** Share of the samples drawn so far (0–1), while running. */
@@ -352,6 +354,15 @@ export const watches = pgTable('watches', {
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   confirmedAt: timestamp('confirmed_at', { withTimezone: true }),
   unsubscribedAt: timestamp('unsubscribed_at', { withTimezone: true }),
+  /**
+   * Set when the watch was started from a shared briefing's link: it then sees only what that
+   * briefing showed (its thresholds, scenarios and years) and ends when the link is revoked.
+   */
+  briefingId: uuid('briefing_id').references(() => briefings.id, { onDelete: 'cascade' }),
+  /** Why a watch stopped other than by its owner: `share-revoked`. */
+  endedReason: text('ended_reason'),
+  /** When the mail server refused the address permanently (5xx); nothing more is sent to it. */
+  undeliverableAt: timestamp('undeliverable_at', { withTimezone: true }),
 }, table => [unique('watches_site_email').on(table.siteId, table.email)])
 
 /** A single-use, expiring token sent by e-mail: invitations and password resets. */

@@ -83,6 +83,13 @@ export function briefingIssuedMail(language: Language, site: string, title: stri
   }], unsubscribeUrl)
 }
 
+/** The one e-mail a watch started from a shared briefing's link gets when that link is withdrawn. */
+export function shareWatchEndedMail(language: Language, site: string, title: string): MailBody {
+  return language === 'es'
+    ? compose('es', `Ya no recibirá novedades de ${site}`, [{ paragraphs: [`Siguió ${site} con el enlace del informe «${title}». Sus autores han retirado ese enlace, así que el seguimiento ha terminado y no recibirá más correos sobre él.`, 'Si aún necesita estas cifras, pida un enlace nuevo a la organización que publicó el informe.'] }])
+    : compose('en', `You will no longer hear about ${site}`, [{ paragraphs: [`You watched ${site} through the link of the briefing "${title}". Its authors have withdrawn that link, so the watch has ended and no more e-mails will come about it.`, 'If you still need these numbers, ask the organisation that published the briefing for a new link.'] }])
+}
+
 const ROLE_NAMES: Record<Language, Record<string, string>> = {
   en: { admin: 'an administrator', analyst: 'an analyst', planner: 'a planner', reader: 'a reader' },
   es: { admin: 'administrador/a', analyst: 'analista', planner: 'planificador/a', reader: 'lector/a' },

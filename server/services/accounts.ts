@@ -75,8 +75,18 @@ export async function acceptInvitation(token: string, password: string) {
   })
 }
 
-/** Always the same answer, whether or not the address has an account. */
+/**
+ * Always the same answer, after the same work, whether or not the address has an account: the
+ * request only queues a job (one insert either way), and the job looks the address up and mails.
+ */
 export async function requestPasswordReset(email: string, language: 'en' | 'es') {
+  const db = await useDb()
+  await enqueueJob(db, 'password-reset', { email, language })
+  kickJobs()
+}
+
+/** The job behind a reset request: a link for an enabled account, nothing for any other address. */
+export async function sendPasswordReset(email: string, language: 'en' | 'es') {
   const db = await useDb()
   const [user] = await db.select({ id: users.id, disabled: users.disabled }).from(users).where(eq(users.email, email))
   if (!user || user.disabled) return

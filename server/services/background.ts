@@ -1,5 +1,6 @@
 import { and, asc, eq, isNull, lt, lte, or } from 'drizzle-orm'
 import { jobs } from '~~/server/db/schema'
+import { sendPasswordReset } from './accounts'
 import { mailBriefingIssued, type Cause } from './notify'
 import { kickOutlooks } from './outlook-jobs'
 import { recomputeSite, startRecomputation, type JobOutcome, type RecomputeSitePayload } from './recompute'
@@ -18,6 +19,10 @@ const HANDLERS: Record<JobKind, (payload: Record<string, unknown>) => Promise<Jo
     return { state: 'done' }
   },
   'recompute-site': payload => recomputeSite(payload as unknown as RecomputeSitePayload),
+  'password-reset': async (payload) => {
+    await sendPasswordReset(payload.email as string, payload.language === 'es' ? 'es' : 'en')
+    return { state: 'done' }
+  },
   'briefing-issued': async (payload) => {
     await mailBriefingIssued(payload.briefingId as string)
     return { state: 'done' }

@@ -6,6 +6,7 @@ import { buildBriefingDocument, type BriefingDocument, type BriefingOutlook } fr
 import type { OutlookResult } from '#shared/engine'
 import type { CreateBriefingInput, UpdateBriefingInput } from '#shared/schemas/briefings'
 import type { CurrentUser } from '../utils/auth'
+import { endShareWatches } from './watches'
 
 type Briefing = typeof briefings.$inferSelect
 
@@ -143,10 +144,14 @@ export async function setSharing(planner: CurrentUser, id: string, shared: boole
   if (shared && row.state !== 'issued') throw createError({ statusCode: 409, message: 'Issue the briefing before sharing it: drafts stay inside the organisation.' })
   const token = shared ? (row.shareToken ?? randomBytes(24).toString('base64url')) : null
   const db = await useDb()
-  await db.update(briefings).set({ shareToken: token, updatedAt: new Date() }).where(eq(briefings.id, id))
+  await db.transaction(async (tx) => {
+    await tx.update(briefings).set({ shareToken: token, updatedAt: new Date() }).where(eq(briefings.id, id))
+    // Watches started from the link end with it, each told so once.
+    if (!shared) await endShareWatches(tx, row)
+    await writeAudit(tx, planner, shared ? 'briefing.shared' : 'briefing.unshared', { type: 'briefing', id })
+  })
   // The page cache drops the revoked link's pages now, rather than at its next check.
   if (!shared && row.shareToken) forgetSharedPages(row.shareToken)
-  await writeAudit(db, planner, shared ? 'briefing.shared' : 'briefing.unshared', { type: 'briefing', id })
   return { shareToken: token }
 }
 

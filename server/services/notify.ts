@@ -1,4 +1,4 @@
-import { and, desc, eq } from 'drizzle-orm'
+import { and, desc, eq, inArray, isNull } from 'drizzle-orm'
 import { briefings, outlooks, sites, thresholds, watches, type OutlookReleaseRef } from '~~/server/db/schema'
 import type { OutlookResult } from '#shared/engine'
 import { formatHeight } from '#shared/units'
@@ -20,7 +20,7 @@ export type Cause = Record<Language, string>
 
 async function activeWatches(siteId: string) {
   const db = await useDb()
-  return db.select().from(watches).where(and(eq(watches.siteId, siteId), eq(watches.state, 'active')))
+  return db.select().from(watches).where(and(eq(watches.siteId, siteId), eq(watches.state, 'active'), isNull(watches.undeliverableAt)))
 }
 
 /** The latest finished outlook of each scenario computed for a site. */
@@ -38,7 +38,28 @@ function median(result: OutlookResult, t: number, level: number) {
   return result.byYear[t]!.percentiles.find(p => Math.abs(p.level - level) < 1e-9)!.value
 }
 
-function describe(comparisons: Comparison[], labels: Map<string, string>, language: Language) {
+/**
+ * What a watch may be told. One started from a shared briefing's link sees that briefing's
+ * thresholds, scenarios and years, and links to it; null when that link no longer works.
+ */
+interface WatchScope { thresholdIds: Set<string>, scenarios: Set<string>, years: number[], url: string }
+
+async function scopeOf(watch: typeof watches.$inferSelect): Promise<WatchScope | 'everything' | null> {
+  if (!watch.briefingId) return 'everything'
+  const db = await useDb()
+  const [briefing] = await db.select().from(briefings).where(eq(briefings.id, watch.briefingId))
+  if (!briefing?.shareToken || briefing.state !== 'issued') return null
+  const shown = await db.select({ scenario: outlooks.scenario }).from(outlooks).where(inArray(outlooks.id, briefing.outlookIds))
+  return {
+    thresholdIds: new Set(briefing.thresholdIds), scenarios: new Set(shown.map(row => row.scenario)),
+    years: [...briefing.years].sort((a, b) => a - b), url: `${appUrl()}/shared/${briefing.shareToken}`,
+  }
+}
+
+function describe(allComparisons: Comparison[], labels: Map<string, string>, language: Language, scope: WatchScope | 'everything') {
+  const scoped = scope === 'everything' ? null : scope
+  const comparisons = scoped ? allComparisons.filter(c => scoped.scenarios.has(c.scenario)) : allComparisons
+  const keyYears = scoped?.years ?? KEY_YEARS
   const height = (m: number) => formatHeight(m, 'm', language)
   const chances: ChangeRow[] = []
   const ranges: RangeRow[] = []
@@ -48,6 +69,7 @@ function describe(comparisons: Comparison[], labels: Map<string, string>, langua
     const a = after.result as unknown as OutlookResult
     const offset = (outlook: typeof before) => (outlook.input as { datum?: { offset: number } }).datum?.offset ?? 0
     for (const threshold of a.thresholds) {
+      if (scoped && !scoped.thresholdIds.has(threshold.key)) continue
       const old = b.thresholds.find(t => t.key === threshold.key)
       // A flood level's number is the chance that the water reaches it in that year; a mean-sea-level
       // threshold's is the chance the mean sea is above it. The row says which.
@@ -57,7 +79,7 @@ function describe(comparisons: Comparison[], labels: Map<string, string>, langua
         return t.byYear[index]?.value ?? null
       }
       const what = threshold.kind === 'flood-level' ? MEASURE[language].flood : MEASURE[language].meanSeaLevel
-      for (const year of KEY_YEARS) {
+      for (const year of keyYears) {
         const ta = a.years.indexOf(year)
         const tb = b.years.indexOf(year)
         const now = chanceIn(threshold, ta)
@@ -70,7 +92,8 @@ function describe(comparisons: Comparison[], labels: Map<string, string>, langua
         })
       }
     }
-    const year = a.years.includes(2100) ? 2100 : a.years.at(-1)!
+    const year = scoped ? scoped.years.findLast(y => a.years.includes(y)) : a.years.includes(2100) ? 2100 : a.years.at(-1)!
+    if (year === undefined) continue
     const range = (r: OutlookResult) => {
       const t = r.years.indexOf(year)
       return t < 0 ? '—' : `${height(median(r, t, 0.5))} (${height(median(r, t, 0.17))}–${height(median(r, t, 0.83))})`
@@ -82,7 +105,7 @@ function describe(comparisons: Comparison[], labels: Map<string, string>, langua
       if (was?.releaseId !== ref.releaseId) releases.push({ component: `${names[ref.component] ?? ref.component} (${scenario})`, from: was ? `v${was.version}` : '—', to: `v${ref.version}`, citation: ref.citation })
     }
   }
-  return { chances, ranges, releases }
+  return { chances, ranges, releases, shown: comparisons.length }
 }
 
 async function latestBriefingUrl(siteId: string) {
@@ -103,10 +126,16 @@ export async function mailWhatChanged(siteId: string, cause: Cause, comparisons:
   const briefingUrl = await latestBriefingUrl(siteId)
   // The same recomputation mails each watcher once, even when its job runs again after a crash.
   const event = comparisons.map(c => c.after.id).sort().join(',')
+  const scopes = new Map(await Promise.all(watchers.map(async watch => [watch.id, await scopeOf(watch)] as const)))
   await db.transaction(async (tx) => {
     for (const watch of watchers) {
+      const scope = scopes.get(watch.id)
+      if (!scope) continue
       const language: Language = watch.language === 'es' ? 'es' : 'en'
-      const mail = whatChangedMail({ language, site: site.name, cause: cause[language], ...describe(comparisons, labels, language), briefingUrl, unsubscribeUrl: unsubscribeUrl(watch.unsubscribeToken) })
+      const { shown, ...numbers } = describe(comparisons, labels, language, scope)
+      // Nothing the watcher's briefing showed has changed: nothing to tell them.
+      if (!shown) continue
+      const mail = whatChangedMail({ language, site: site.name, cause: cause[language], ...numbers, briefingUrl: scope === 'everything' ? briefingUrl : scope.url, unsubscribeUrl: unsubscribeUrl(watch.unsubscribeToken) })
       await queueMail(tx, { to: watch.email, ...mail, headers: unsubscribeHeaders(watch.unsubscribeToken), dedupeKey: `change:${event}:${watch.id}` })
     }
   })
@@ -126,7 +155,8 @@ export async function mailBriefingIssued(briefingId: string) {
   const watchers = await activeWatches(row.siteId)
   const url = row.token ? `${appUrl()}/shared/${row.token}` : await latestBriefingUrl(row.siteId)
   await db.transaction(async (tx) => {
-    for (const watch of watchers) {
+    // A watch from a shared link sees that briefing only, not what else the organisation issues.
+    for (const watch of watchers.filter(w => !w.briefingId)) {
       const language: Language = watch.language === 'es' ? 'es' : 'en'
       const mail = briefingIssuedMail(language, row.site, row.title, url, unsubscribeUrl(watch.unsubscribeToken))
       await queueMail(tx, { to: watch.email, ...mail, headers: unsubscribeHeaders(watch.unsubscribeToken), dedupeKey: `briefing:${briefingId}:${watch.id}` })

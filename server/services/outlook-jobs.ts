@@ -1,6 +1,6 @@
 import { EventEmitter } from 'node:events'
-import { and, asc, eq, isNull, lt, or, sql } from 'drizzle-orm'
-import { outlooks, thresholds } from '~~/server/db/schema'
+import { and, asc, eq, inArray, isNull, lt, or, sql } from 'drizzle-orm'
+import { outlooks, sites, thresholds } from '~~/server/db/schema'
 import { EngineInputError, type OutlookResult } from '#shared/engine'
 import { headlineOf } from './site-list'
 
@@ -17,18 +17,49 @@ const POLL_FINISHED_MS = 250
 const finished = new EventEmitter()
 finished.setMaxListeners(0)
 
+/**
+ * Fair share between organisations: of those with outlooks waiting, the one served longest ago (or
+ * never) goes first, and within it the oldest request. One planner's backlog therefore delays
+ * another organisation's outlook by at most the one being computed now, whatever its length.
+ */
+async function organisationsInTurn(tx: Tx): Promise<string[]> {
+  const result = await tx.execute(sql`
+    select waiting.organisation_id as organisation
+    from (
+      select s.organisation_id, min(o.created_at) as oldest
+      from outlooks o join sites s on s.id = o.site_id
+      where o.state = 'running' and (o.lease_until is null or o.lease_until < now())
+      group by s.organisation_id
+    ) waiting
+    left join lateral (
+      select max(o.claimed_at) as served
+      from outlooks o join sites s on s.id = o.site_id
+      where s.organisation_id = waiting.organisation_id
+    ) last on true
+    order by last.served asc nulls first, waiting.oldest asc`)
+  return (result as unknown as { rows: { organisation: string }[] }).rows.map(row => row.organisation)
+}
+
+type Tx = Parameters<Parameters<Awaited<ReturnType<typeof useDb>>['transaction']>[0]>[0]
+
 async function claimOutlook() {
   const db = await useDb()
-  const now = new Date()
   return db.transaction(async (tx) => {
-    const [due] = await tx.select({ id: outlooks.id }).from(outlooks)
-      .where(and(eq(outlooks.state, 'running'), or(isNull(outlooks.leaseUntil), lt(outlooks.leaseUntil, now))))
-      .orderBy(asc(outlooks.createdAt)).limit(1).for('update', { skipLocked: true })
-    if (!due) return null
-    const [claimed] = await tx.update(outlooks)
-      .set({ claimedBy: INSTANCE_ID, leaseUntil: new Date(now.getTime() + jobLeaseMs()), attempts: sql`${outlooks.attempts} + 1`, progress: 0 })
-      .where(eq(outlooks.id, due.id)).returning()
-    return claimed ?? null
+    for (const organisation of await organisationsInTurn(tx)) {
+      const now = new Date()
+      const [due] = await tx.select({ id: outlooks.id }).from(outlooks)
+        .where(and(
+          eq(outlooks.state, 'running'), or(isNull(outlooks.leaseUntil), lt(outlooks.leaseUntil, now)),
+          inArray(outlooks.siteId, tx.select({ id: sites.id }).from(sites).where(eq(sites.organisationId, organisation))),
+        ))
+        .orderBy(asc(outlooks.createdAt)).limit(1).for('update', { skipLocked: true })
+      if (!due) continue
+      const [claimed] = await tx.update(outlooks)
+        .set({ claimedBy: INSTANCE_ID, claimedAt: now, leaseUntil: new Date(now.getTime() + jobLeaseMs()), attempts: sql`${outlooks.attempts} + 1`, progress: 0 })
+        .where(eq(outlooks.id, due.id)).returning()
+      return claimed ?? null
+    }
+    return null
   })
 }
 

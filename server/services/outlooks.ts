@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto'
-import { and, desc, eq } from 'drizzle-orm'
-import { outlooks, type OutlookReleaseRef } from '~~/server/db/schema'
+import { and, count, desc, eq, isNotNull } from 'drizzle-orm'
+import { organisations, outlooks, sites, type OutlookReleaseRef } from '~~/server/db/schema'
 import { validateOutlookInput } from '#shared/engine'
 import { minOf } from '#shared/engine/arrays'
 import { ENGINE_VERSION } from '#shared/engine/version'
@@ -119,11 +119,16 @@ export async function queueOutlook(site: Site, request: Pick<OutlookRequest, 'sc
     .where(and(eq(outlooks.siteId, site.id), eq(outlooks.inputHash, assembled.inputHash)))
   if (stored && stored.state !== 'failed') return { id: stored.id, cached: true }
   if (stored) await db.delete(outlooks).where(and(eq(outlooks.id, stored.id), eq(outlooks.state, 'failed')))
-  const [row] = await db.insert(outlooks).values({
-    siteId: site.id, scenario: request.scenario, samples: request.samples, seed: request.seed, inputHash: assembled.inputHash,
-    engineVersion: ENGINE_VERSION, input: assembled.input, releaseRefs: assembled.releaseRefs, notes: assembled.notes,
-    correlationSetId: assembled.correlationSetId, requestedBy,
-  }).onConflictDoNothing().returning({ id: outlooks.id })
+  const [row] = await db.transaction(async (tx) => {
+    // A person's request waits its turn within their organisation's quota; the organisation's row
+    // lock makes the count and the insert one step, so a burst of requests cannot all pass.
+    if (requestedBy) await assertOutlookQuota(tx, site.organisationId)
+    return tx.insert(outlooks).values({
+      siteId: site.id, scenario: request.scenario, samples: request.samples, seed: request.seed, inputHash: assembled.inputHash,
+      engineVersion: ENGINE_VERSION, input: assembled.input, releaseRefs: assembled.releaseRefs, notes: assembled.notes,
+      correlationSetId: assembled.correlationSetId, requestedBy,
+    }).onConflictDoNothing().returning({ id: outlooks.id })
+  })
   if (!row) {
     // Someone (here or on another instance) asked for the same outlook a moment ago: follow that run.
     const [twin] = await db.select({ id: outlooks.id }).from(outlooks).where(and(eq(outlooks.siteId, site.id), eq(outlooks.inputHash, assembled.inputHash)))
@@ -151,4 +156,24 @@ export async function listSiteOutlooks(siteId: string) {
     id: outlooks.id, scenario: outlooks.scenario, samples: outlooks.samples, seed: outlooks.seed, state: outlooks.state,
     createdAt: outlooks.createdAt, finishedAt: outlooks.finishedAt, inputHash: outlooks.inputHash,
   }).from(outlooks).where(eq(outlooks.siteId, siteId)).orderBy(desc(outlooks.createdAt))
+}
+
+/** How many outlooks people of one organisation may have waiting or computing at once (OUTLOOK_QUEUE_PER_ORGANISATION). */
+export const outlookQueueQuota = () => Number(process.env.OUTLOOK_QUEUE_PER_ORGANISATION) || 6
+
+type Tx = Parameters<Parameters<Awaited<ReturnType<typeof useDb>>['transaction']>[0]>[0]
+
+/** 429 when the organisation already has its quota of requested outlooks waiting or computing. */
+async function assertOutlookQuota(tx: Tx, organisationId: string) {
+  await tx.select({ id: organisations.id }).from(organisations).where(eq(organisations.id, organisationId)).for('update')
+  const [{ waiting } = { waiting: 0 }] = await tx.select({ waiting: count() }).from(outlooks).innerJoin(sites, eq(sites.id, outlooks.siteId))
+    .where(and(eq(sites.organisationId, organisationId), eq(outlooks.state, 'running'), isNotNull(outlooks.requestedBy)))
+  const quota = outlookQueueQuota()
+  if (waiting >= quota) {
+    throw createError({
+      statusCode: 429,
+      message: `Your organisation already has ${waiting} outlooks waiting or computing, the most it may queue at once (${quota}). Wait for one of them to finish, then ask again; stored outlooks open at once.`,
+      data: { waiting, quota },
+    })
+  }
 }

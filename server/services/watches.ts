@@ -4,7 +4,8 @@ import { briefings, sites, watches } from '~~/server/db/schema'
 import type { z } from 'zod'
 import type { WatchRequestSchema } from '#shared/schemas/watches'
 import type { CurrentUser } from '../utils/auth'
-import { watchConfirmMail } from '../mail/templates'
+import { shareWatchEndedMail, watchConfirmMail } from '../mail/templates'
+import type { Database } from '../db/client'
 
 /** How long a confirmation link works (WATCH_CONFIRM_HOURS overrides, e.g. 0 in tests of expiry). */
 const confirmHours = () => process.env.WATCH_CONFIRM_HOURS !== undefined ? Number(process.env.WATCH_CONFIRM_HOURS) : 48
@@ -17,10 +18,11 @@ export const unsubscribeHeaders = (token: string) => ({
   'List-Unsubscribe-Post': 'List-Unsubscribe=One-Click',
 })
 
-async function siteFor(request: z.infer<typeof WatchRequestSchema>, user: CurrentUser | null) {
+/** The site to watch, and the briefing whose link it came through (the watch sees only what it showed). */
+async function siteFor(request: z.infer<typeof WatchRequestSchema>, user: CurrentUser | null): Promise<{ id: string, name: string, briefingId: string | null }> {
   const db = await useDb()
   if (request.shareToken) {
-    const [row] = await db.select({ id: sites.id, name: sites.name }).from(briefings).innerJoin(sites, eq(sites.id, briefings.siteId))
+    const [row] = await db.select({ id: sites.id, name: sites.name, briefingId: briefings.id }).from(briefings).innerJoin(sites, eq(sites.id, briefings.siteId))
       .where(and(eq(briefings.shareToken, request.shareToken), eq(briefings.state, 'issued')))
     if (!row) throw createError({ statusCode: 404, message: 'This briefing link does not open a briefing any more.' })
     return row
@@ -28,7 +30,7 @@ async function siteFor(request: z.infer<typeof WatchRequestSchema>, user: Curren
   if (!user) throw createError({ statusCode: 401, message: 'Sign in to watch a site by its id, or use the link of a shared briefing.' })
   const [row] = await db.select({ id: sites.id, name: sites.name }).from(sites).where(and(eq(sites.id, request.siteId!), eq(sites.organisationId, user.organisationId)))
   if (!row) throw createError({ statusCode: 404, message: 'No such site.' })
-  return row
+  return { ...row, briefingId: null }
 }
 
 /**
@@ -42,7 +44,7 @@ export async function requestWatch(request: z.infer<typeof WatchRequestSchema>, 
   await db.transaction(async (tx) => {
     const [existing] = await tx.select().from(watches).where(and(eq(watches.siteId, site.id), eq(watches.email, request.email)))
     if (existing?.state === 'active') return
-    const values = { confirmTokenHash: hashToken(token), confirmExpiresAt: new Date(Date.now() + confirmHours() * 3_600_000), language: request.language, state: 'pending' as const, userId: user?.email === request.email ? user.id : existing?.userId ?? null }
+    const values = { confirmTokenHash: hashToken(token), confirmExpiresAt: new Date(Date.now() + confirmHours() * 3_600_000), language: request.language, state: 'pending' as const, briefingId: site.briefingId, endedReason: null, undeliverableAt: null, userId: user?.email === request.email ? user.id : existing?.userId ?? null }
     const [watch] = existing
       ? await tx.update(watches).set(values).where(eq(watches.id, existing.id)).returning()
       : await tx.insert(watches).values({ ...values, siteId: site.id, email: request.email, unsubscribeToken: newToken() }).returning()
@@ -95,4 +97,25 @@ export async function unsubscribe(token: string) {
     .where(eq(watches.unsubscribeToken, token)).returning()
   if (!watch) throw createError({ statusCode: 404, message: 'This unsubscribe link is not valid; copy the whole link from the e-mail.' })
   return { site: await siteName(watch.siteId), email: watch.email }
+}
+
+type Tx = Parameters<Parameters<Database['transaction']>[0]>[0]
+
+/**
+ * Ends the watches started from a briefing's link when the link is withdrawn, in the transaction
+ * that withdraws it; each active one is told once. Pending ones just stop: their confirmation link
+ * no longer works.
+ */
+export async function endShareWatches(tx: Tx, briefing: { id: string, siteId: string, title: string }) {
+  const end = (state: 'pending' | 'active') => tx.update(watches)
+    .set({ state: 'unsubscribed', endedReason: 'share-revoked', unsubscribedAt: new Date(), confirmTokenHash: null, confirmExpiresAt: null })
+    .where(and(eq(watches.briefingId, briefing.id), eq(watches.state, state))).returning()
+  await end('pending')
+  const active = await end('active')
+  if (!active.length) return
+  const [site] = await tx.select({ name: sites.name }).from(sites).where(eq(sites.id, briefing.siteId))
+  for (const watch of active) {
+    const language = watch.language === 'es' ? 'es' : 'en'
+    await queueMail(tx, { to: watch.email, ...shareWatchEndedMail(language, site!.name, briefing.title), dedupeKey: `watch-ended:${watch.id}:${briefing.id}` })
+  }
 }

@@ -9,7 +9,7 @@ export const INSTANCE_ID = `${hostname()}:${process.pid}:${randomUUID().slice(0,
 /** How long a claimed job or outlook stays claimed without a heartbeat (JOB_LEASE_MS). */
 export const jobLeaseMs = () => Number(process.env.JOB_LEASE_MS) || 60_000
 
-export type JobKind = 'science-change' | 'recompute-site' | 'briefing-issued'
+export type JobKind = 'science-change' | 'recompute-site' | 'briefing-issued' | 'password-reset'
 
 /**
  * Queues background work in the caller's transaction, so the work exists if and only if the

@@ -1,6 +1,6 @@
 import { and, eq, inArray, isNull, lt, lte, or, sql } from 'drizzle-orm'
 import nodemailer, { type Transporter } from 'nodemailer'
-import { mailOutbox } from '~~/server/db/schema'
+import { mailOutbox, watches } from '~~/server/db/schema'
 import type { Database } from '~~/server/db/client'
 import { startStandInSmtp } from '../mail/standin'
 
@@ -78,6 +78,10 @@ export async function deliverDueMail() {
         await db.update(mailOutbox).set({ state: 'sent', sentAt: new Date(), messageId: info.messageId, lockedUntil: null, attempts: sql`${mailOutbox.attempts} + 1` }).where(eq(mailOutbox.id, message.id))
       }
       catch (error) {
+        if (isPermanentRefusal(error)) {
+          await refusedForGood(db, message, error)
+          continue
+        }
         const attempts = message.attempts + 1
         const delay = Math.min(retryBaseMs() * 2 ** (attempts - 1), 60 * 60_000)
         await db.update(mailOutbox).set({
@@ -87,4 +91,25 @@ export async function deliverDueMail() {
       }
     }
   }
+}
+
+/**
+ * A 5xx answer (a mailbox that does not exist, an address the server will not take) will not change
+ * by trying again: the message fails at once instead of being retried for hours, and keeping
+ * health "degraded" all that while.
+ */
+function isPermanentRefusal(error: unknown) {
+  const code = (error as { responseCode?: unknown } | null)?.responseCode
+  return typeof code === 'number' && code >= 500 && code < 600
+}
+
+async function refusedForGood(db: Database, message: typeof mailOutbox.$inferSelect, error: unknown) {
+  await db.transaction(async (tx) => {
+    await tx.update(mailOutbox).set({
+      state: 'failed', attempts: message.attempts + 1, lockedUntil: null,
+      lastError: `The mail server refused this address for good: ${error instanceof Error ? error.message : String(error)}`,
+    }).where(eq(mailOutbox.id, message.id))
+    // Watches of that address send nothing more until it asks again (server/services/notify.ts).
+    await tx.update(watches).set({ undeliverableAt: new Date() }).where(and(eq(watches.email, message.to), isNull(watches.undeliverableAt)))
+  })
 }

@@ -48,13 +48,19 @@ async function peek(key: string): Promise<Window | undefined> {
   return toWindow(rows(result)[0])
 }
 
+/** "in 15 minutes", or "in 4 seconds" when less than a minute is left. */
+function waitWords(seconds: number) {
+  if (seconds < 60) return `${seconds} second${seconds === 1 ? '' : 's'}`
+  const minutes = Math.ceil(seconds / 60)
+  return `${minutes} minute${minutes === 1 ? '' : 's'}`
+}
+
 function tooMany(event: H3Event | undefined, window: Window, message: string): never {
   const seconds = window.secondsLeft
-  const minutes = Math.ceil(seconds / 60)
   if (event) setResponseHeader(event, 'retry-after', seconds)
   throw createError({
     statusCode: 429,
-    message: `${message} Try again in ${minutes} minute${minutes === 1 ? '' : 's'}.`,
+    message: `${message} Try again in ${waitWords(seconds)}.`,
     data: { retryAfterSeconds: seconds },
   })
 }
@@ -65,15 +71,35 @@ export async function rateLimit(key: string, limit: number, windowMs: number, wh
   if (window.count > limit) tooMany(event, window, `Too many ${what}.`)
 }
 
-/** 429 with Retry-After once `limit` failures were counted for this key in its window. */
-export async function refuseIfLocked(event: H3Event, key: string, limit: number, message: string) {
-  const window = await peek(key)
-  if (window && window.count >= limit) tooMany(event, window, message)
+/**
+ * Takes one of `limit` attempts in `key`'s window, or refuses with 429 when all are taken. The check
+ * and the count are one conditional upsert, so concurrent requests cannot all pass a check made
+ * before any of them counted (the row is locked by the upsert; PostgreSQL re-checks the condition
+ * on the latest row). Give the attempt back with `returnAttempt` when it turns out not to count.
+ */
+export async function takeAttempt(event: H3Event, key: string, limit: number, windowMs: number, message: string) {
+  const taken = await tryTakeAttempt(key, limit, windowMs)
+  if (taken !== null) return taken
+  tooMany(event, (await peek(key)) ?? { count: limit, secondsLeft: 1 }, message)
 }
 
-/** Counts one failure; returns the count so far in this window. */
-export async function countFailure(key: string, windowMs: number): Promise<number> {
-  return (await count(key, windowMs)).count
+/** `takeAttempt` without the refusal: the count with this attempt, or null when all are taken. */
+export async function tryTakeAttempt(key: string, limit: number, windowMs: number): Promise<number | null> {
+  const db = await useDb()
+  const result = await db.execute(sql`
+    insert into rate_windows (key, count, reset_at) values (${key}, 1, now() + ${windowMs / 1000}::float8 * interval '1 second')
+    on conflict (key) do update set
+      count = case when rate_windows.reset_at <= now() then 1 else rate_windows.count + 1 end,
+      reset_at = case when rate_windows.reset_at <= now() then excluded.reset_at else rate_windows.reset_at end
+    where rate_windows.reset_at <= now() or rate_windows.count < ${limit}
+    returning count, ${SECONDS_LEFT}`)
+  return toWindow(rows(result)[0])?.count ?? null
+}
+
+/** Gives back an attempt taken with `takeAttempt` (a success does not count against the limit). */
+export async function returnAttempt(key: string) {
+  const db = await useDb()
+  await db.execute(sql`update rate_windows set count = greatest(0, count - 1) where key = ${key} and reset_at > now()`)
 }
 
 export async function clearFailures(key: string) {

@@ -32,7 +32,7 @@ function giveSlot() {
   else running--
 }
 
-interface Reply { release?: ParsedRelease, bands?: BandsAtYear[], issues?: { field: string, message: string }[], error?: string }
+interface Reply { release?: ParsedRelease, anchorYears?: number[], bands?: BandsAtYear[], issues?: { field: string, message: string }[], error?: string }
 
 function workerScript() {
   const configured = useRuntimeConfig().releaseWorkerPath as string | undefined
@@ -41,7 +41,23 @@ function workerScript() {
 }
 
 /** Builds and checks a release as entered and gives its bands; 400 naming the field, or 503. */
-export async function releaseWork(work: ReleaseWork): Promise<{ release: ParsedRelease, bands: BandsAtYear[] }> {
+export async function releaseWork(work: Extract<ReleaseWork, { input: unknown }>): Promise<{ release: ParsedRelease, bands: BandsAtYear[] }> {
+  const reply = await runReleaseWorker(work)
+  if (!reply.release || !reply.bands) throw new Error(reply.error ?? 'The release worker gave no answer.')
+  return { release: reply.release, bands: reply.bands }
+}
+
+/**
+ * The editor's preview of a body exactly as sent: parsed, checked against the shared schema and
+ * turned into bands on the worker, so even the largest release leaves this thread free.
+ */
+export async function previewReleaseBody(raw: string | undefined): Promise<{ anchorYears: number[], bands: BandsAtYear[] }> {
+  const reply = await runReleaseWorker({ raw, years: 'preview' })
+  if (!reply.anchorYears || !reply.bands) throw new Error(reply.error ?? 'The release worker gave no answer.')
+  return { anchorYears: reply.anchorYears, bands: reply.bands }
+}
+
+async function runReleaseWorker(work: ReleaseWork): Promise<Reply> {
   await takeSlot()
   const worker = new Worker(workerScript(), { workerData: work })
   try {
@@ -51,8 +67,7 @@ export async function releaseWork(work: ReleaseWork): Promise<{ release: ParsedR
       worker.once('error', (error) => { clearTimeout(timer); reject(error) })
     })
     if (reply.issues) throw createError({ statusCode: 400, message: reply.issues.map(issue => `${issue.field}: ${issue.message}`).join(' '), data: { issues: reply.issues } })
-    if (!reply.release || !reply.bands) throw new Error(reply.error ?? 'The release worker gave no answer.')
-    return { release: reply.release, bands: reply.bands }
+    return reply
   }
   finally {
     giveSlot()

@@ -1,9 +1,10 @@
 import { z } from 'zod'
 import { HEIGHT_UNITS } from '../units'
+import { textField } from './text'
 
 // Issuing a briefing. Free text is stored as typed and always shown escaped.
 
-const plain = (what: string, max: number) => z.string({ error: `Enter the ${what}.` }).max(max, { error: `Use at most ${max} characters.` })
+const plain = (what: string, max: number) => textField({ error: `Enter the ${what}.` }).max(max, { error: `Use at most ${max} characters.` })
 
 /** A briefing that lists a year or a threshold twice repeats its numbers: each is chosen once. */
 const unique = (list: unknown[]) => new Set(list).size === list.length

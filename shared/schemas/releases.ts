@@ -1,11 +1,12 @@
 import { z } from 'zod'
+import { textField } from './text'
 import { MAX_ANCHOR_YEARS, MAX_DRAW_VALUES, MAX_QUANTILE_LEVELS, MAX_TEXT, MAX_UPLOADED_DRAWS } from '../releases/limits'
 import { AMOUNT_UNITS, COMPONENTS, RELEASE_FORMS, REVIEW_STATES, SCENARIO_PATTERN } from '../types/science'
 
 // Requests about published science. Per-form numbers are checked by the engine's release rules
 // (shared/engine/release-validation.ts) after unit conversion, so both paths say the same thing.
 
-const text = (what: string, max: number) => z.string({ error: `Enter the ${what}.` }).trim()
+const text = (what: string, max: number) => textField({ error: `Enter the ${what}.` }).trim()
   .min(1, { error: `Enter the ${what}.` }).max(max, { error: `Use at most ${max} characters.` })
 
 export const componentField = z.enum(COMPONENTS, { error: `Choose one of: ${COMPONENTS.join(', ')}.` })

@@ -2,6 +2,7 @@ import { z } from 'zod'
 import { MAX_SAMPLES } from '../engine'
 import { DATUM_KINDS, LAND_MOTION_SOURCES, THRESHOLD_KINDS } from '../types/science'
 import { scenarioField } from './releases'
+import { textField } from './text'
 
 // Coastal sites as a planner enters them. Heights are metres above the site's datum; rise is counted
 // from the site's reference epoch; land motion is mm/yr with negative meaning the land sinks (which
@@ -16,7 +17,7 @@ const year = (what: string) => z.number({ error: `Enter the ${what} as a year.` 
   .min(1900, { error: `The ${what} must be 1900 or later.` }).max(2100, { error: `The ${what} must be 2100 or earlier.` })
 
 export const ThresholdSchema = z.object({
-  label: z.string({ error: 'Name the threshold, like "Harbour wall crest".' }).trim()
+  label: textField({ error: 'Name the threshold, like "Harbour wall crest".' }).trim()
     .min(1, { error: 'Name the threshold, like "Harbour wall crest".' }).max(120, { error: 'Use at most 120 characters.' }),
   height: number('height', -5, 20, 'm'),
   kind: z.enum(THRESHOLD_KINDS, { error: 'Say whether the height is for the mean sea level or a flood level (the total water level).' }).default('mean-sea-level'),
@@ -31,10 +32,10 @@ export const MAX_THRESHOLDS = 12
 export const GUMBEL_BOUNDS = { location: { min: -10, max: 20 }, scale: { max: 5 } } as const
 
 const SiteFields = z.object({
-  name: z.string({ error: 'Enter the site name.' }).trim().min(1, { error: 'Enter the site name.' }).max(120, { error: 'Use at most 120 characters.' }),
+  name: textField({ error: 'Enter the site name.' }).trim().min(1, { error: 'Enter the site name.' }).max(120, { error: 'Use at most 120 characters.' }),
   latitude: number('latitude', -90, 90, 'degrees'),
   longitude: number('longitude', -180, 180, 'degrees'),
-  referenceLevel: z.string({ error: 'Say which level heights here are measured from.' }).trim()
+  referenceLevel: textField({ error: 'Say which level heights here are measured from.' }).trim()
     .min(1, { error: 'Name the datum heights here are measured above, like "Harbour chart datum" or "mean sea level 1995–2014".' })
     .max(300, { error: 'Use at most 300 characters.' }),
   datum: z.object({
@@ -47,7 +48,7 @@ const SiteFields = z.object({
     rateMmPerYear: number('land-motion rate', -100, 100, 'mm/yr'),
     sigmaMmPerYear: number('land-motion uncertainty', 0, 50, 'mm/yr'),
     source: z.enum(LAND_MOTION_SOURCES, { error: `Choose one of: ${LAND_MOTION_SOURCES.join(', ')}.` }),
-    reference: z.string({ error: 'Enter the source of the estimate as text, or leave it empty.' }).trim().max(500, { error: 'Use at most 500 characters.' }).default(''),
+    reference: textField({ error: 'Enter the source of the estimate as text, or leave it empty.' }).trim().max(500, { error: 'Use at most 500 characters.' }).default(''),
     epoch: z.number({ error: 'Enter the reference year of the estimate.' }).int({ error: 'Enter a whole year.' })
       .min(1900, { error: 'The epoch must be 1900 or later.' }).max(2100, { error: 'The epoch must be 2100 or earlier.' }),
   }, { error: 'Enter the land motion.' }),

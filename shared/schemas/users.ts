@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { LOCALES, ROLES } from '../types/roles'
+import { textField } from './text'
 
 // Shared by the forms and the routes, so the browser and the server say the same thing.
 export const PASSWORD_MIN_LENGTH = 12
@@ -35,7 +36,7 @@ export const passwordField = z.string({ error: 'Enter a password.' })
   .max(PASSWORD_MAX_LENGTH, { error: `Use at most ${PASSWORD_MAX_LENGTH} characters.` })
   .refine(password => !COMMON_PASSWORDS.has(password.toLowerCase()), { error: COMMON_PASSWORD })
 
-export const nameField = z.string({ error: 'Enter a name.' }).trim()
+export const nameField = textField({ error: 'Enter a name.' }).trim()
   .min(1, { error: 'Enter a name.' }).max(120, { error: 'Use at most 120 characters.' })
 
 export const roleField = z.enum(ROLES, { error: `Choose one of: ${ROLES.join(', ')}.` })

@@ -214,7 +214,7 @@ describe('hostile text a person may fairly type is kept as typed and shown escap
     ['a script element', SCRIPT],
     ['an SQL injection', "Robert'); DROP TABLE sites;--"],
     ['an always-true SQL clause', "x' OR '1'='1"],
-    ['a right-to-left override', 'Quay \u202Egnp.exe'],
+    ['right-to-left letters and marks', 'رصيف الميناء \u200FQuay נמל'],
     ['zero-width characters', 'Kel\u200Bwick\u200D\uFEFFquay'],
     ['emoji with joiners', 'Harbour 🌊🏝️ 👩‍👩‍👧 wall'],
     ['combining accents', 'Cafe\u0301 quay'],
@@ -230,6 +230,25 @@ describe('hostile text a person may fairly type is kept as typed and shown escap
     expect(read.name).toBe(text)
     expect(read.thresholds[0].label).toBe(text)
     expect((await planner.get('/api/sites')).status).toBe(200)
+  })
+
+  it('control characters and bidirectional overrides are removed from text fields, so no page, PDF or e-mail carries them', async () => {
+    const { planner, analyst } = clients
+    const typed = 'Bell\u0007 Quay \u001B[31m\u202Egnp.exe\u202C \u2066wall\u2069\u0085 end'
+    const kept = 'Bell Quay [31mgnp.exe wall end'
+    const created = await planner.post('/api/sites', site({ name: typed, referenceLevel: `Chart datum${typed}`, thresholds: [{ label: typed, height: 1 }] }))
+    expect(created.status).toBe(201)
+    const read = (await planner.get(`/api/sites/${created.body.id}`)).body
+    expect([read.name, read.thresholds[0].label, read.referenceLevel]).toEqual([kept, kept, `Chart datum${kept}`])
+    // A release's free text passes the same rule.
+    const release = await analyst.post('/api/releases', { ...quantiles(withCell('0.2')), series: { component: 'glaciers', scenario: 'SSP2-4.5', title: typed }, method: `Method${typed}`, citation: 'Cited (2026).' })
+    expect(release.status).toBe(201)
+    expect((await analyst.get(`/api/releases/${release.body.id}`)).body).toMatchObject({ method: `Method${kept}` })
+    // The confirmation e-mail names the site without them.
+    expect((await planner.post('/api/watches', { email: PLANNER.email, siteId: created.body.id })).status).toBe(202)
+    const mail = await smtp.next(m => isTo(PLANNER.email)(m) && (m.text ?? '').includes(kept))
+    // eslint-disable-next-line no-control-regex -- looking for control characters is the point
+    expect(`${mail.subject}${mail.text}${mail.html}`).not.toMatch(/[\u0007\u001B\u0085\u202A-\u202E\u2066-\u2069]/)
   })
 
   it('ignores fields a form does not have: a site cannot be placed in another organisation, a role cannot be self-granted', async () => {

@@ -1,4 +1,4 @@
-import { existsSync } from 'node:fs'
+import { existsSync, writeFileSync } from 'node:fs'
 import { mkdtemp, rm } from 'node:fs/promises'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
@@ -49,24 +49,25 @@ describe('data survives a restart', () => {
     expect(existsSync(`${dataDir}.pid`)).toBe(false)
   }, RESTART_TIMEOUT)
 
-  it('a second server on a PGlite folder in use is refused, and the first keeps working', async () => {
+  it('a second server on a PGlite folder in use exits non-zero saying why, and the first keeps working', async () => {
     const dataDir = join(folder, 'shared')
     const first = await startServer({ PGLITE_DATA_DIR: dataDir })
     try {
-      const second = await startServer({ PGLITE_DATA_DIR: dataDir }, { requireHealthy: false })
-      try {
-        const health = await fetch(`${second.url}/api/health`)
-        expect(health.status).toBe(503)
-        expect(second.output()).toContain('is in use by process')
-      }
-      finally {
-        await second.stop()
-      }
+      const second = startServer({ PGLITE_DATA_DIR: dataDir }, { requireHealthy: false })
+      await expect(second).rejects.toThrow(/exited with code 1 before listening[\s\S]*is in use by process \d+/)
       expect((await (await plannerOn(first)).get('/api/sites')).status).toBe(200)
     }
     finally {
       await first.stop()
     }
+  }, RESTART_TIMEOUT)
+
+  it('a PGlite folder that cannot be written stops the server with the reason', async () => {
+    // A path under a plain file can never be created, for root too (a chmod would not stop root).
+    const file = join(folder, 'not-a-folder')
+    writeFileSync(file, '')
+    await expect(startServer({ PGLITE_DATA_DIR: join(file, 'pglite') }, { requireHealthy: false }))
+      .rejects.toThrow(/exited with code 1 before listening[\s\S]*cannot be created or written \(ENOTDIR\)/)
   }, RESTART_TIMEOUT)
 })
 

@@ -104,6 +104,27 @@ describe('security headers on plain http', () => {
 })
 
 describe('the shared briefing page cache', () => {
+  it('asks browsers and proxies to keep no copy of pages, JSON, shared pages and redirects, and no redirect carries a nonce placeholder', async () => {
+    const { token } = await sharedBriefing()
+    const answers = [
+      await planner.fetchRaw('/sites'),
+      await planner.fetchRaw('/api/me'),
+      await planner.fetchRaw('/api/sites'),
+      (await page(`/shared/${token}`)).response,
+      (await page(`/shared/${token}`)).response, // from the page cache
+      (await page('/sites')).response, // signed out: a redirect to the sign-in page
+    ]
+    for (const answer of answers) expect(answer.headers.get('cache-control'), answer.url).toBe('private, no-store')
+    const redirect = answers.at(-1)!
+    expect(redirect.status).toBe(302)
+    expect(redirect.headers.get('content-security-policy')).not.toContain('{{nonce}}')
+    expect(redirect.headers.get('content-security-policy')).toContain("script-src 'self'")
+    // Built files keep their long cache life.
+    const html = await (await planner.fetchRaw('/sites')).text()
+    const asset = /\/_nuxt\/[\w.-]+\.js/.exec(html)![0]
+    expect((await fetch(server.url + asset)).headers.get('cache-control')).toMatch(/max-age=\d{5,}/)
+  })
+
   it('serves a shared page from the cache with a fresh nonce each time, and the PDF still downloads', async () => {
     const { token } = await sharedBriefing()
     const first = await page(`/shared/${token}`)

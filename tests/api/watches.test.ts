@@ -146,6 +146,76 @@ describe('watching a site by e-mail', () => {
   })
 })
 
+describe('a watch made from a shared briefing\'s link', () => {
+  async function shareBriefing(body: Record<string, unknown>) {
+    const briefing = (await planner.post('/api/briefings', body)).body
+    expect((await planner.post(`/api/briefings/${briefing.id}/issue`)).status).toBe(200)
+    return { id: briefing.id as string, token: (await planner.post(`/api/briefings/${briefing.id}/share`)).body.shareToken as string }
+  }
+  async function watchThrough(token: string, email: string) {
+    expect((await new ApiClient(server.url).post('/api/watches', { shareToken: token, email })).status).toBe(202)
+    const mail = await smtp.next(m => isTo(email)(m) && /Confirm/.test(m.subject ?? ''))
+    expect((await confirm(mail)).status).toBe(200)
+  }
+  const queuedMail = async () => (await (await as(OPERATOR.email, OPERATOR.password)).get('/api/admin/outbox')).body.messages.filter((m: { state: string }) => m.state === 'queued').length
+
+  it('is told only what that briefing showed, and stops with one e-mail when the link is revoked', async () => {
+    const [gateSill] = (await planner.get(`/api/sites/${siteId}`)).body.thresholds as { id: string, label: string }[]
+    expect(gateSill!.label).toBe('Flood gate sill')
+    // One briefing shows SSP2-4.5, the flood gate sill only, in 2050 only; another shows SSP5-8.5 only.
+    const narrow = await shareBriefing({ outlookId, title: 'Fennmouth gate sill by 2050', thresholdIds: [gateSill!.id], years: [2050] })
+    const highOutlook = (await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP5-8.5', samples: 20_000, seed: 4 })).body.id
+    const high = await shareBriefing({ outlookId: highOutlook, title: 'Fennmouth under SSP5-8.5', thresholdIds: [gateSill!.id], years: [2100] })
+    await watchThrough(narrow.token, 'narrow@example.org')
+    await watchThrough(high.token, 'other-scenario@example.org')
+
+    await publishGlaciers(0.18)
+    // The site's own watcher hears of everything; the link's watcher of what its briefing showed.
+    await smtp.next(m => isTo('vecina@example.org')(m) && /0\.18/.test(m.text ?? ''))
+    const narrowMail = await smtp.next(m => isTo('narrow@example.org')(m) && /has changed/.test(m.subject ?? ''))
+    expect(narrowMail.text).toContain('Flood gate sill (')
+    expect(narrowMail.text).not.toContain('Railway embankment')
+    expect(narrowMail.text).toMatch(/ {2}\| {2}2050 {2}\| {2}/)
+    expect(narrowMail.text).not.toMatch(/ {2}\| {2}2100 {2}\| {2}/)
+    expect(narrowMail.text).not.toContain('SSP5-8.5')
+    expect(narrowMail.text).toContain(`Read the latest briefing: ${server.url}/shared/${narrow.token}`)
+    await expect.poll(queuedMail).toBe(0)
+    // Nothing its briefing showed changed (another scenario), so nothing was sent.
+    expect(smtp.to('other-scenario@example.org').filter(m => /has changed/.test(m.subject ?? ''))).toHaveLength(0)
+
+    // Revoking the link ends the watch, with one e-mail saying so.
+    expect((await planner.request('DELETE', `/api/briefings/${narrow.id}/share`)).status).toBe(200)
+    const ended = await smtp.next(m => isTo('narrow@example.org')(m) && /no longer hear/.test(m.subject ?? ''))
+    expect(ended.subject).toBe('You will no longer hear about Fennmouth')
+    expect(ended.text).toContain('Its authors have withdrawn that link, so the watch has ended')
+    await publishGlaciers(0.19)
+    await smtp.next(m => isTo('vecina@example.org')(m) && /0\.19/.test(m.text ?? ''))
+    await expect.poll(queuedMail).toBe(0)
+    expect(smtp.to('narrow@example.org').filter(m => /has changed/.test(m.subject ?? ''))).toHaveLength(1)
+    expect(smtp.to('narrow@example.org').filter(m => /no longer hear/.test(m.subject ?? ''))).toHaveLength(1)
+    // Revoking again, or sharing anew, does not mail it again or bring it back.
+    await planner.post(`/api/briefings/${narrow.id}/share`)
+    await planner.request('DELETE', `/api/briefings/${narrow.id}/share`)
+    await expect.poll(queuedMail).toBe(0)
+    expect(smtp.to('narrow@example.org').filter(m => /no longer hear/.test(m.subject ?? ''))).toHaveLength(1)
+  })
+})
+
+describe('an address the mail server refuses for good', () => {
+  it('fails at once (no retries for hours), leaves health ok, and its watch sends nothing more', async () => {
+    smtp.refuse('nobody-here@example.org')
+    expect((await new ApiClient(server.url).post('/api/watches', { shareToken, email: 'nobody-here@example.org' })).status).toBe(202)
+    const operator = await as(OPERATOR.email, OPERATOR.password)
+    const message = async () => (await operator.get('/api/admin/outbox')).body.messages.find((m: { to: string }) => m.to === 'nobody-here@example.org')
+    await expect.poll(async () => (await message())?.state, { timeout: 20_000 }).toBe('failed')
+    expect(await message()).toMatchObject({ attempts: 1, lastError: expect.stringMatching(/^The mail server refused this address for good: .*550/) })
+    expect(smtp.triesOf('nobody-here@example.org')).toBe(1)
+    const health = (await new ApiClient(server.url).get('/api/health')).body
+    expect(health.status).toBe('ok')
+    expect(health.mail.failing).toBe(0)
+  })
+})
+
 describe('a mail server that is down loses nothing', () => {
   let faulty: RunningServer
   let outage: TestSmtp

@@ -36,7 +36,8 @@ function site(i: number) {
 
 async function main() {
   if (!existsSync(SERVER_ENTRY)) throw new Error('No built server: run `npm run build` first.')
-  const server = await startServer({ JOBS_POLL_MS: '200' })
+  // The first run queues every site's outlook at once, so the organisation's quota is lifted to match.
+  const server = await startServer({ JOBS_POLL_MS: '200', OUTLOOK_QUEUE_PER_ORGANISATION: String(SITES) })
   try {
     const url = server.url
     const planner = await ApiClient.signedIn(url, PLANNER.email, PLANNER.password)

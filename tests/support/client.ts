@@ -12,7 +12,7 @@ export class ApiClient {
 
   constructor(readonly baseUrl: string) {}
 
-  async request<T = any>(method: string, path: string, body?: unknown, init: { rawBody?: string, headers?: Record<string, string> } = {}): Promise<ApiResponse<T>> {
+  async request<T = any>(method: string, path: string, body?: unknown, init: { rawBody?: string, headers?: Record<string, string>, signal?: AbortSignal } = {}): Promise<ApiResponse<T>> {
     const headers: Record<string, string> = { accept: 'application/json', ...init.headers }
     if (this.cookies.size) headers.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ')
     let payload: string | undefined = init.rawBody
@@ -20,7 +20,7 @@ export class ApiClient {
       payload = JSON.stringify(body)
     }
     if (payload !== undefined) headers['content-type'] ??= 'application/json'
-    const response = await fetch(this.baseUrl + path, { method, headers, body: payload, redirect: 'manual' })
+    const response = await fetch(this.baseUrl + path, { method, headers, body: payload, redirect: 'manual', signal: init.signal })
     for (const line of response.headers.getSetCookie()) {
       const [pair] = line.split(';')
       const [name, ...value] = pair!.split('=')

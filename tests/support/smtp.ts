@@ -10,13 +10,32 @@ export class TestSmtp {
   readonly messages: ParsedMail[] = []
   private server: SMTPServer | null = null
   private waiters: { match: (m: ParsedMail) => boolean, resolve: (m: ParsedMail) => void }[] = []
+  /** Addresses answered with a permanent 550 at RCPT TO, and how often each was tried. */
+  private refused = new Map<string, number>()
   port = 0
+
+  /** From now on, answer RCPT TO for this address with "550 no such mailbox" (a permanent refusal). */
+  refuse(address: string) {
+    this.refused.set(address, 0)
+    return this
+  }
+
+  /** How many times the app tried a refused address. */
+  triesOf(address: string) {
+    return this.refused.get(address) ?? 0
+  }
 
   async start(port = 0) {
     this.server = new SMTPServer({
       authOptional: true,
       disabledCommands: ['STARTTLS', 'AUTH'],
       logger: false,
+      onRcptTo: (address, _session, callback) => {
+        const tries = this.refused.get(address.address)
+        if (tries === undefined) return callback()
+        this.refused.set(address.address, tries + 1)
+        callback(Object.assign(new Error('5.1.1 No such mailbox here'), { responseCode: 550 }))
+      },
       onData: (stream, _session, callback) => {
         simpleParser(stream).then((mail) => {
           this.messages.push(mail)

@@ -5,21 +5,37 @@ import { SignInSchema } from '#shared/schemas/users'
 // One answer for an unknown address and a wrong password, so neither can be told apart.
 const GENERIC_REFUSAL = 'That e-mail address and password do not match an account.'
 
-// Password guessing is limited twice: per address (someone trying many passwords on one account)
-// and per client (someone trying one password on many accounts). Only failures count, so people
-// signing in correctly from one office never lock each other out, and a lock on one address does
-// not touch any other address.
+// Password guessing is limited twice. The guessed account: ten attempts in 15 minutes, taken before
+// the password is checked in one atomic statement, so concurrent guesses cannot slip past; a success
+// gives its attempt back and clears the rest. The client: after fifty failures it is slowed to one
+// attempt every few seconds instead of locked out, so a correct password from a shared office
+// address still gets in within seconds while a guesser gains next to nothing.
 const WINDOW_MS = 15 * 60_000
 const ADDRESS_FAILURES = 10
 const CLIENT_FAILURES = 50
+/** Seconds between attempts from a slowed client (SIGN_IN_SLOW_SECONDS overrides). */
+const slowSeconds = () => Number(process.env.SIGN_IN_SLOW_SECONDS ?? 5)
 const addressKey = (email: string) => `sign-in:address:${email}`
 const clientFailureKey = (client: string) => `sign-in:client:${client}`
+const clientSlowKey = (client: string) => `sign-in:slow:${client}`
 
 export default defineEventHandler(async (event) => {
   const client = clientKey(event)
-  await refuseIfLocked(event, clientFailureKey(client), CLIENT_FAILURES, 'Too many failed sign-ins from this connection.')
   const { email, password } = await readValidBody(event, SignInSchema)
-  await refuseIfLocked(event, addressKey(email), ADDRESS_FAILURES, 'Too many failed sign-ins for this address, so it is locked for now.')
+
+  const forClient = await tryTakeAttempt(clientFailureKey(client), CLIENT_FAILURES, WINDOW_MS)
+  if (forClient === null) {
+    const seconds = slowSeconds()
+    await rateLimit(clientSlowKey(client), 1, seconds * 1000, `failed sign-ins from this connection, so it may try once every ${seconds} seconds for now`, event)
+  }
+  let forAddress: number
+  try {
+    forAddress = await takeAttempt(event, addressKey(email), ADDRESS_FAILURES, WINDOW_MS, 'Too many failed sign-ins for this address, so it is locked for now.')
+  }
+  catch (error) {
+    if (forClient !== null) await returnAttempt(clientFailureKey(client))
+    throw error
+  }
 
   const db = await useDb()
   const [row] = await db.select({ id: users.id, hash: users.passwordHash, disabled: users.disabled, organisationId: users.organisationId })
@@ -27,12 +43,15 @@ export default defineEventHandler(async (event) => {
   // Verify against a stand-in hash when the address is unknown, so timing does not tell either.
   const valid = await verifyPassword(row?.hash ?? await standInHash(), password)
   if (!row || !valid) {
-    const forAddress = await countFailure(addressKey(email), WINDOW_MS)
-    const forClient = await countFailure(clientFailureKey(client), WINDOW_MS)
     await recordFailure(db, { email, userId: row?.id ?? null, organisationId: row?.organisationId ?? null, client, forAddress, forClient })
     throw createError({ statusCode: 401, message: GENERIC_REFUSAL })
   }
-  if (row.disabled) throw createError({ statusCode: 403, message: 'This account is disabled. Ask an administrator to enable it.' })
+  // The right password is not a guess: neither limit keeps it.
+  if (forClient !== null) await returnAttempt(clientFailureKey(client))
+  if (row.disabled) {
+    await returnAttempt(addressKey(email))
+    throw createError({ statusCode: 403, message: 'This account is disabled. Ask an administrator to enable it.' })
+  }
 
   await clearFailures(addressKey(email))
   const user = await startSession(event, row.id)
@@ -41,15 +60,15 @@ export default defineEventHandler(async (event) => {
   return { user }
 })
 
-interface Failure { email: string, userId: string | null, organisationId: string | null, client: string, forAddress: number, forClient: number }
+interface Failure { email: string, userId: string | null, organisationId: string | null, client: string, forAddress: number, forClient: number | null }
 
-/** A failed sign-in leaves an audit line; the failure that locks an address or client says so. */
+/** A failed sign-in leaves an audit line; the failure that locks an address or slows a client says so. */
 async function recordFailure(db: Awaited<ReturnType<typeof useDb>>, failure: Failure) {
   const { email, userId, organisationId, client, forAddress, forClient } = failure
   const target = { type: 'user', id: userId }
   await writeAudit(db, null, 'session.sign-in-failed', target, { email, client, failuresForAddress: forAddress }, organisationId)
   if (forAddress === ADDRESS_FAILURES) await writeAudit(db, null, 'session.locked-out', target, { email, client, scope: 'address', minutes: WINDOW_MS / 60_000 }, organisationId)
-  if (forClient === CLIENT_FAILURES) await writeAudit(db, null, 'session.locked-out', { type: 'client' }, { email, client, scope: 'client', minutes: WINDOW_MS / 60_000 }, organisationId)
+  if (forClient === CLIENT_FAILURES) await writeAudit(db, null, 'session.locked-out', { type: 'client' }, { email, client, scope: 'client', slowedToSeconds: slowSeconds() }, organisationId)
 }
 
 let standIn: Promise<string> | undefined
