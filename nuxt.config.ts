@@ -24,8 +24,8 @@ export default defineNuxtConfig({
     strategy: 'no_prefix',
     locales: [
       // One file per domain, merged per language, so areas of the app keep their strings apart.
-      { code: 'en', language: 'en-GB', name: 'English', files: ['en.json', 'en-sites.json', 'en-briefings.json', 'en-mail.json'] },
-      { code: 'es', language: 'es-ES', name: 'Español', files: ['es.json', 'es-sites.json', 'es-briefings.json', 'es-mail.json'] },
+      { code: 'en', language: 'en-GB', name: 'English', files: ['en.json', 'en-sites.json', 'en-briefings.json', 'en-mail.json', 'en-pathways.json'] },
+      { code: 'es', language: 'es-ES', name: 'Español', files: ['es.json', 'es-sites.json', 'es-briefings.json', 'es-mail.json', 'es-pathways.json'] },
     ],
     detectBrowserLanguage: { useCookie: true, cookieKey: 'brinkwater_locale', redirectOn: 'root' },
   },
