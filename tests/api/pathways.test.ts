@@ -57,7 +57,7 @@ beforeAll(async () => {
   planner = await ApiClient.signedIn(server.url, PLANNER.email, PLANNER.password)
   operator = await ApiClient.signedIn(server.url, OPERATOR.email, OPERATOR.password)
   const admin = await ApiClient.signedIn(server.url, ADMIN.email, ADMIN.password)
-  const council = (await admin.get('/api/me')).body.organisationId
+  const council = ((await operator.get('/api/organisations')).body as Array<{ id: string, kind: string }>).find(o => o.kind === 'council')!.id
   expect((await admin.post('/api/admin/users', { email: SECOND_PLANNER.email, name: 'Second Planner', role: 'planner', organisationId: council, password: SECOND_PLANNER.password })).status).toBe(201)
   siteId = (await planner.get('/api/sites')).body.find((s: { name: string }) => s.name === 'Kelwick').id
   outlookId = (await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: SEED })).body.id
@@ -156,16 +156,16 @@ describe('decision alerts', () => {
   let recordId: string
 
   it('sends none when new science leaves a recorded decision outside its lead time', async () => {
-    // A pathway whose next measure's lead time leaves three years before its decision year.
+    // A pathway whose next measure's lead time leaves six years before its decision year.
     const v = await view()
     const edge = v.measures.find(m => m.name === 'Quay Street edge')!
     const tipping = tippingOf(v, edge.id, 0.5).year!
-    const lead = tipping - v.currentYear - 3
+    const lead = tipping - v.currentYear - 6
     expect(lead).toBeGreaterThan(0)
     const barrier = (await planner.post(`/api/sites/${siteId}/measures`, { name: 'Quay Street barrier', height: 1.5, leadTimeYears: lead })).body
     const pathway = (await planner.post(`/api/sites/${siteId}/pathways`, { name: 'Quay Street', measureIds: [edge.id, barrier.id], tolerances: [0.5] })).body
     const record = (await planner.post(`/api/sites/${siteId}/decisions`, { pathwayId: pathway.id, measureId: barrier.id, scenario: 'SSP2-4.5', tolerance: 0.5, rationale: 'Build the barrier.', reviewDate: '2030-01-01', marginYears: 50 })).body
-    expect(record.decisionYear).toBe(v.currentYear + 3) // [practice] tipping − (tipping − now − 3)
+    expect(record.decisionYear).toBe(v.currentYear + 6) // [practice] tipping − (tipping − now − 6)
     recordId = record.id
 
     const count = await recomputationCount()
