@@ -49,5 +49,15 @@ export function evaluateOutlook(outlook: Outlook, measures: Measure[], tolerance
 /** Every scenario with a finished outlook for the site, in name order. */
 export async function evaluateSite(siteId: string, measures: Measure[], tolerances: number[]) {
   const latest = (await latestOutlooks(siteId)).sort((a, b) => a.scenario.localeCompare(b.scenario))
-  return latest.map(outlook => evaluateOutlook(outlook, measures, tolerances))
+  return latest.flatMap((outlook) => {
+    try {
+      return [evaluateOutlook(outlook, measures, tolerances)]
+    }
+    catch (error) {
+      // An outlook stored under rules the engine no longer accepts is left out, not turned into a 500;
+      // the next recomputation replaces it.
+      console.error(`[brinkwater] pathways: outlook ${outlook.id} could not be evaluated:`, error instanceof Error ? error.message : error)
+      return []
+    }
+  })
 }
