@@ -23,7 +23,9 @@ export const LANE_FILLS = ['#1b4a5a', '#7b7b7b', '#ffffff', '#c8c8c8', '#3f3726'
 export const LANE_HEIGHT = 14
 const LANE_GAP = 4
 const ROW_GAP = 18
-const LEFT = 190
+const LEFT = 78
+/** Each row's measure name sits on a line of its own above its lanes. */
+const NAME_LINE = 16
 const RIGHT = 24
 const TOP = 28
 const AXIS = 46
@@ -48,7 +50,7 @@ export function pathwayChartLayout(input: PathwayChartInput, width = 760): Pathw
   const plotRight = width - RIGHT
   const span = Math.max(1, input.endYear - input.startYear)
   const x = (year: number) => LEFT + ((Math.min(Math.max(year, input.startYear), input.endYear) - input.startYear) / span) * (plotRight - LEFT)
-  const rowHeight = input.scenarios.length * (LANE_HEIGHT + LANE_GAP) - LANE_GAP
+  const rowHeight = NAME_LINE + input.scenarios.length * (LANE_HEIGHT + LANE_GAP) - LANE_GAP
   const tipping = (measureId: string, scenario: string) => input.decisions.find(d => d.fromMeasureId === measureId && d.scenario === scenario)
   const rows: ChartRow[] = []
   const markers: ChartMarker[] = []
@@ -56,7 +58,7 @@ export function pathwayChartLayout(input: PathwayChartInput, width = 760): Pathw
     const y = TOP + i * (rowHeight + ROW_GAP)
     const lanes: ChartLane[] = []
     input.scenarios.forEach((scenario, s) => {
-      const laneY = y + s * (LANE_HEIGHT + LANE_GAP)
+      const laneY = y + NAME_LINE + s * (LANE_HEIGHT + LANE_GAP)
       const before = i === 0 ? null : tipping(input.measures[i - 1]!.id, scenario)
       // A measure after one that does not tip by the horizon is never needed within it: no lane.
       if (i > 0 && (!before || before.tippingYear === null)) return
@@ -104,7 +106,7 @@ export function pathwayChartSvg(layout: PathwayChartLayout, words: PathwayChartW
   }
   parts.push(`<line x1="${layout.left}" y1="${layout.axisY}" x2="${layout.plotRight}" y2="${layout.axisY}" stroke="#222222" stroke-width="1"/>`)
   for (const row of layout.rows) {
-    parts.push(`<text x="8" y="${row.y + 11}" font-size="12" font-weight="bold" fill="#111111" ${font}>${escape(truncate(row.name, 28))}</text>`)
+    parts.push(`<text x="8" y="${row.y + 11}" font-size="12" font-weight="bold" fill="#111111" ${font}>${escape(truncate(row.name, 90))}</text>`)
     for (const lane of row.lanes) {
       const fill = LANE_FILLS[lane.index % LANE_FILLS.length]!
       parts.push(`<text x="${layout.left - 6}" y="${lane.y + LANE_HEIGHT - 3}" font-size="10" text-anchor="end" fill="#333333" ${font}>${escape(lane.scenario)}</text>`)
