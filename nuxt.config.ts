@@ -1,6 +1,9 @@
 import { fileURLToPath } from 'node:url'
 
 // Brinkwater keeps the classic top-level layout (no app/ folder): srcDir is the repository root.
+/** Each language's strings, one file per area of the app: locales/<lang><domain>.json. */
+const LOCALE_DOMAINS = ['', '-sites', '-gauge', '-briefings', '-mail', '-pathways']
+
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   srcDir: '.',
@@ -24,8 +27,8 @@ export default defineNuxtConfig({
     strategy: 'no_prefix',
     locales: [
       // One file per domain, merged per language, so areas of the app keep their strings apart.
-      { code: 'en', language: 'en-GB', name: 'English', files: ['en.json', 'en-sites.json', 'en-gauge.json', 'en-briefings.json', 'en-mail.json'] },
-      { code: 'es', language: 'es-ES', name: 'Español', files: ['es.json', 'es-sites.json', 'es-gauge.json', 'es-briefings.json', 'es-mail.json'] },
+      { code: 'en', language: 'en-GB', name: 'English', files: LOCALE_DOMAINS.map(domain => `en${domain}.json`) },
+      { code: 'es', language: 'es-ES', name: 'Español', files: LOCALE_DOMAINS.map(domain => `es${domain}.json`) },
     ],
     detectBrowserLanguage: { useCookie: true, cookieKey: 'brinkwater_locale', redirectOn: 'root' },
   },

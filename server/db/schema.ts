@@ -431,3 +431,6 @@ export const rateWindows = pgTable('rate_windows', {
 }, table => [
   index('rate_windows_reset_idx').on(table.resetAt),
 ])
+
+// Adaptation pathways, measures, decision records and alerts.
+export * from './schema-pathways'

@@ -9,7 +9,7 @@ export function escapeHtml(value: string) {
   return value.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#39;')
 }
 
-interface Block { heading?: string, paragraphs?: string[], rows?: string[][], link?: { label: string, url: string } }
+export interface Block { heading?: string, paragraphs?: string[], rows?: string[][], link?: { label: string, url: string } }
 
 const FOOTER: Record<Language, (unsubscribe?: string) => string> = {
   en: unsubscribe => `Brinkwater sends sea-level outlooks for coastal planning. Projections are not predictions and are not engineering or legal advice.${unsubscribe ? ` Stop these e-mails: ${unsubscribe}` : ''}`,
@@ -17,7 +17,7 @@ const FOOTER: Record<Language, (unsubscribe?: string) => string> = {
 }
 
 /** Lays blocks out twice: as plain text and as simple, image-free HTML. */
-function compose(language: Language, subject: string, blocks: Block[], unsubscribe?: string): MailBody {
+export function compose(language: Language, subject: string, blocks: Block[], unsubscribe?: string): MailBody {
   const text = [
     ...blocks.flatMap(block => [
       ...(block.heading ? [block.heading, '-'.repeat(block.heading.length)] : []),

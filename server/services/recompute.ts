@@ -3,6 +3,7 @@ import { jobs, outlooks, recomputations } from '~~/server/db/schema'
 import type { Database } from '~~/server/db/client'
 import { latestOutlooks, mailWhatChanged, type Cause, type Comparison } from './notify'
 import { queueOutlook } from './outlooks'
+import { checkDecisionAlerts } from './pathways/alerts'
 import { siteWithThresholds } from './sites'
 
 // When the science or a site changes, every site with an outlook it affects gets that outlook
@@ -79,5 +80,6 @@ export async function recomputeSite(payload: RecomputeSitePayload): Promise<JobO
     return old && now?.state === 'done' ? [{ scenario: now.scenario, before: old, after: now }] : []
   })
   await mailWhatChanged(payload.siteId, payload.cause, comparisons)
+  await checkDecisionAlerts(payload.siteId, comparisons)
   return { state: 'done' }
 }

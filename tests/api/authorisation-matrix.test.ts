@@ -90,6 +90,21 @@ const ROUTES: Record<string, RouteCase> = {
   'sites/[id]/outlooks.get.ts': { url: (fx, scope) => `/api/sites/${pick(scope, fx.home.siteId, fx.foreign.siteId)}/outlooks`, expect: members },
   // The same request as the stored outlook: served from the store (200), nothing recomputed.
   'sites/[id]/outlooks.post.ts': { url: (fx, scope) => `/api/sites/${pick(scope, fx.home.siteId, fx.foreign.siteId)}/outlooks`, body: () => OUTLOOK_REQUEST, expect: only('planner', 200) },
+  // Adaptation pathways: members read them; planners add measures and pathways and record decisions.
+  'sites/[id]/pathways.get.ts': { url: (fx, scope) => `/api/sites/${pick(scope, fx.home.siteId, fx.foreign.siteId)}/pathways`, expect: members },
+  'sites/[id]/pathways.pdf.get.ts': { url: (fx, scope) => `/api/sites/${pick(scope, fx.home.siteId, fx.foreign.siteId)}/pathways.pdf`, expect: members },
+  'sites/[id]/measures.post.ts': {
+    url: (fx, scope) => `/api/sites/${pick(scope, fx.home.siteId, fx.foreign.siteId)}/measures`, expect: only('planner', 201),
+    body: () => ({ name: 'Matrix measure', height: 2, kind: 'mean-sea-level', leadTimeYears: 5 }),
+  },
+  'sites/[id]/pathways.post.ts': {
+    url: (fx, scope) => `/api/sites/${pick(scope, fx.home.siteId, fx.foreign.siteId)}/pathways`, expect: only('planner', 201),
+    body: fx => ({ name: 'Matrix pathway', measureIds: fx.home.measureIds.slice(0, 2) }),
+  },
+  'sites/[id]/decisions.post.ts': {
+    url: (fx, scope) => `/api/sites/${pick(scope, fx.home.siteId, fx.foreign.siteId)}/decisions`, expect: only('planner', 201),
+    body: fx => ({ pathwayId: fx.home.pathwayId, measureId: fx.home.measureIds[1], scenario: OUTLOOK_REQUEST.scenario, tolerance: 0.5, rationale: 'Matrix decision', reviewDate: '2099-01-01' }),
+  },
   'outlooks/[id].get.ts': { url: (fx, scope) => `/api/outlooks/${pick(scope, fx.home.outlookId, fx.foreign.outlookId)}`, expect: members },
 
   'briefings/index.get.ts': { unscoped: true, url: () => '/api/briefings', expect: { ...anyone(200), anonymous: 401 } },
@@ -245,6 +260,7 @@ describe('authorisation matrix', () => {
   it.each<ForeignPage>([
     ['site', 'planner', f => `/sites/${f.siteId}`],
     ['outlook', 'planner', f => `/sites/${f.siteId}/outlooks/${f.outlookId}`],
+    ['adaptation pathways', 'planner', f => `/sites/${f.siteId}/pathways`],
     ['briefing', 'planner', f => `/briefings/${f.briefingIssued}`],
     ['draft briefing editor', 'planner', f => `/briefings/${f.briefingDraft}/edit`],
     ['release draft', 'analyst', f => `/library/releases/${f.releaseDraft}`],

@@ -16,6 +16,8 @@ import { TestSmtp, isTo } from '../support/smtp'
 // thing to type (markup, SQL, unusual Unicode) is stored as typed and always shown escaped.
 
 type As = 'anonymous' | 'reader' | 'planner' | 'analyst' | 'admin'
+const UUID_A = '00000000-0000-4000-8000-00000000000a'
+const UUID_B = '00000000-0000-4000-8000-00000000000b'
 interface Ctx { briefingId: string, targetSiteId: string, draftReleaseId: string, outlookId: string, thresholdIds: string[], portId: string }
 type Value<T> = T | ((c: Ctx) => T)
 interface Hostile {
@@ -101,6 +103,19 @@ const REFUSALS: Array<[string, Hostile]> = [
   ['land motion as an array', { as: 'planner', method: 'POST', path: '/api/sites', body: site({ landMotion: [-2, 0.5] }), status: 400, message: /^landMotion: Enter the land motion/ }],
   ['13 thresholds', { as: 'planner', method: 'POST', path: '/api/sites', body: site({ thresholds: Array.from({ length: 13 }, (_, i) => ({ label: `T${i}`, height: 1 })) }), status: 400, message: /^thresholds: At most 12 thresholds per site/ }],
   ['a threshold that is null', { as: 'planner', method: 'POST', path: '/api/sites', body: site({ thresholds: [null] }), status: 400, message: /^thresholds\.0: Enter each threshold as \{ label, height \}/ }],
+  // Adaptation measures, pathways and decision records.
+  ['a negative lead time', { as: 'planner', method: 'POST', path: c => `/api/sites/${c.targetSiteId}/measures`, body: { name: 'Gate', height: 2, leadTimeYears: -3 }, status: 400, message: /^leadTimeYears: A lead time cannot be negative: enter the years needed/ }],
+  ['a lead time sent as a string', { as: 'planner', method: 'POST', path: c => `/api/sites/${c.targetSiteId}/measures`, body: { name: 'Gate', height: 2, leadTimeYears: '10' }, status: 400, message: /^leadTimeYears: Enter the lead time in whole years/ }],
+  ['a measure below today\'s mean sea level', { as: 'planner', method: 'POST', path: c => `/api/sites/${c.targetSiteId}/measures`, body: { name: 'Sunken wall', height: -0.2, leadTimeYears: 5 }, status: 400, message: /^height: -0\.20 m is at or below mean sea level at the reference epoch 2020/ }],
+  ['a measure height of 1e309', { as: 'planner', method: 'POST', path: c => `/api/sites/${c.targetSiteId}/measures`, raw: '{"name":"Wall","height":1e309,"leadTimeYears":5}', status: 400, message: /^height: Enter the height the measure protects to/ }],
+  ['a NUL byte in a measure name', { as: 'planner', method: 'POST', path: c => `/api/sites/${c.targetSiteId}/measures`, body: { name: 'Wall\u0000', height: 2, leadTimeYears: 5 }, status: 400, message: /^name: Remove the NUL character/ }],
+  ['a cost band that does not exist', { as: 'planner', method: 'POST', path: c => `/api/sites/${c.targetSiteId}/measures`, body: { name: 'Wall', height: 2, leadTimeYears: 5, costBand: 'free' }, status: 400, message: /^costBand: Choose a cost band/ }],
+  ['a cyclic pathway', { as: 'planner', method: 'POST', path: c => `/api/sites/${c.targetSiteId}/pathways`, body: { name: 'Loop', measureIds: [UUID_A, UUID_B, UUID_A] }, status: 400, message: /^measureIds\.2: This measure is already step 1; a pathway cannot return to an earlier measure/ }],
+  ['a pathway of another site\'s measures', { as: 'planner', method: 'POST', path: c => `/api/sites/${c.targetSiteId}/pathways`, body: { name: 'Elsewhere', measureIds: [UUID_A, UUID_B] }, status: 400, message: /^measureIds\.0: This is not a measure of this site/ }],
+  ['pathway measures as one string', { as: 'planner', method: 'POST', path: c => `/api/sites/${c.targetSiteId}/pathways`, body: { name: 'Str', measureIds: `${UUID_A},${UUID_B}` }, status: 400, message: /^measureIds: List the measures in the order/ }],
+  ['a decision rationale of 10,000 characters', { as: 'planner', method: 'POST', path: c => `/api/sites/${c.targetSiteId}/decisions`, body: { pathwayId: UUID_A, measureId: UUID_B, scenario: 'SSP2-4.5', tolerance: 0.1, rationale: 'R'.repeat(10_000), reviewDate: '2099-01-01' }, status: 400, message: /^rationale: Use at most 4000 characters/ }],
+  ['a review date of 30 February', { as: 'planner', method: 'POST', path: c => `/api/sites/${c.targetSiteId}/decisions`, body: { pathwayId: UUID_A, measureId: UUID_B, scenario: 'SSP2-4.5', tolerance: 0.1, rationale: 'Why', reviewDate: '2027-02-30' }, status: 400, message: /^reviewDate: Enter a real calendar date/ }],
+  ['a decision on a pathway that does not exist', { as: 'planner', method: 'POST', path: c => `/api/sites/${c.targetSiteId}/decisions`, body: { pathwayId: UUID_A, measureId: UUID_B, scenario: 'SSP2-4.5', tolerance: 0.1, rationale: 'Why', reviewDate: '2099-01-01' }, status: 400, message: /^pathwayId: Choose a pathway of this site/ }],
   ['a new series given as a string', { as: 'analyst', method: 'POST', path: '/api/releases', body: { ...quantiles(withCell('0.2')), series: 'glaciers' }, status: 400, message: /^series: Describe the new series as \{ component, scenario, title \}/ }],
   ['a DOI given as a number', { as: 'analyst', method: 'POST', path: '/api/releases', body: { ...quantiles(withCell('0.2')), doi: 10.1234 }, status: 400, message: /^doi: Enter a DOI like 10\.1234\/abcd/ }],
   ['comparison outlooks given as one string', { as: 'planner', method: 'POST', path: '/api/briefings', body: (c: Ctx) => ({ outlookId: c.outlookId, title: 'Compare', thresholdIds: c.thresholdIds, years: [2050], comparisonOutlookIds: c.outlookId }), status: 400, message: /^comparisonOutlookIds: Send the outlooks to compare as a list of ids/ }],
@@ -156,6 +171,7 @@ async function world() {
   const { planner, analyst, admin, reader } = clients
   const reads = await Promise.all([
     planner.get('/api/sites'), planner.get(`/api/sites/${ctx.targetSiteId}`), planner.get(`/api/sites/${ctx.targetSiteId}/outlooks`),
+    planner.get(`/api/sites/${ctx.targetSiteId}/pathways`),
     planner.get('/api/briefings'), planner.get('/api/watches'), analyst.get('/api/releases'), analyst.get('/api/correlation-sets'),
     analyst.get('/api/scale-factor-grids'), admin.get('/api/admin/users'), admin.get('/api/admin/audit?limit=1'), reader.get('/api/me'),
   ])

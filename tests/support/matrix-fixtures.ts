@@ -43,6 +43,8 @@ export interface MatrixFixtures {
   clients: Record<Persona, ApiClient>
   home: {
     organisationId: string, siteId: string, editSiteId: string, thresholdIds: string[], outlookId: string
+    /** Kelwick's demo pathway and its measures in order. */
+    pathwayId: string, measureIds: string[]
     briefingIssued: string, briefingDraft: string, briefingToIssue: string, shareToken: string
     releases: Reviewed & { series: string }, correlationSets: Reviewed, grids: Reviewed
     userId: string, watchOf: Record<Exclude<Persona, 'anonymous'>, string>
@@ -117,6 +119,7 @@ export async function createMatrixFixtures(url: string): Promise<MatrixFixtures>
   const shared = await briefingFrom(planner, outlookId, thresholdIds, 'Kelwick (matrix, shared)', true, true)
   const draft = await briefingFrom(planner, outlookId, thresholdIds, 'Kelwick (matrix, draft)', false)
   const toIssue = await briefingFrom(planner, outlookId, thresholdIds, 'Kelwick (matrix, to issue)', false)
+  const [demoPathway] = ok(await planner.get(`/api/sites/${siteId}/pathways`), 'Kelwick pathways').pathways as { id: string, measureIds: string[] }[]
 
   const releases = await reviewedSet('releases', author, analyst, key => newRelease('matrix-scenario', `Matrix ${key}`))
   const correlationSets = await reviewedSet('correlation-sets', author, analyst, key => newCorrelationSet(`matrix-${key}`, `Matrix ${key}`))
@@ -142,11 +145,12 @@ export async function createMatrixFixtures(url: string): Promise<MatrixFixtures>
   const correlationDraft = ok(await science.post('/api/correlation-sets', newCorrelationSet('matrix-foreign', `Set ${FOREIGN_MARKER}`)), 'foreign set')
   const gridDraft = ok(await science.post('/api/scale-factor-grids', newGrid('greenland', `Grid ${FOREIGN_MARKER}`)), 'foreign grid')
   const foreignWatch = await watchId(port, PORT_PLANNER.email, foreignSite.id)
+  ok(await port.post(`/api/sites/${foreignSite.id}/measures`, { name: `Measure ${FOREIGN_MARKER}`, height: 2, leadTimeYears: 5 }), 'foreign measure')
 
   return {
     clients,
     home: {
-      organisationId: councilId, siteId, editSiteId, thresholdIds, outlookId,
+      organisationId: councilId, siteId, editSiteId, thresholdIds, outlookId, pathwayId: demoPathway!.id, measureIds: demoPathway!.measureIds,
       briefingIssued: issued.id, briefingDraft: draft.id, briefingToIssue: toIssue.id, shareToken: shared.token,
       releases: { ...releases, series: releases.series! }, correlationSets, grids, userId: homeUser.id, watchOf,
     },

@@ -4,6 +4,7 @@ import type { Database } from '../client'
 import { auditLog, organisations, users } from '../schema'
 import { seedScience } from './science'
 import { seedSites } from './sites'
+import { seedPathways } from './pathways'
 
 // An invented stretch of coast. Every name, organisation and person here is fictional and
 // illustrative; the README lists the demo passwords, which are for the demo only.
@@ -63,6 +64,7 @@ export async function seedDemo(db: Database, hash: (password: string) => Promise
       council: { org: orgIds.get('council')!, planner: idOf('planner@caldwyn.example') },
       port: { org: orgIds.get('port')!, planner: idOf('planner@skerrow.example') },
     })
+    await seedPathways(tx, idOf('planner@caldwyn.example'))
     await tx.insert(auditLog).values({ action: 'demo.seeded', targetType: 'database', detail: { coast: DEMO_COAST } })
   })
 }

@@ -1,0 +1,45 @@
+import { adaptationMeasures } from '~~/server/db/schema'
+import type { MeasureInput } from '#shared/pathways/schemas'
+import { MAX_MEASURES } from '#shared/pathways/schemas'
+import type { CurrentUser } from '../../utils/auth'
+import { loadSite } from '../sites'
+import { refuse } from './refuse'
+import { siteMeasures } from './store'
+
+type Site = Awaited<ReturnType<typeof loadSite>>
+
+/**
+ * A measure must protect to a height above today's level: for a mean-sea-level height the mean sea
+ * level at the reference epoch (the datum offset); for a flood level the usual yearly highest water
+ * (the Gumbel location), which it would meet most years already.
+ */
+function checkAboveTodaysLevel(site: Site, input: MeasureInput) {
+  if (input.height === null) return
+  const m = (value: number) => `${value.toFixed(2)} m`
+  if (input.kind === 'mean-sea-level' && input.height <= site.datumOffset) {
+    refuse('height', `${m(input.height)} is at or below mean sea level at the reference epoch ${site.referenceEpoch} (${m(site.datumOffset)} above ${site.referenceLevel}); enter the height the measure protects to, above that level.`)
+  }
+  if (input.kind === 'flood-level') {
+    if (site.gumbelLocation === null || site.gumbelScale === null) {
+      refuse('kind', 'A flood level is compared with the total water level and needs the site\'s extreme-water statistics; enter them on the site or make this a mean-sea-level height.')
+    }
+    if (input.height <= site.gumbelLocation) {
+      refuse('height', `${m(input.height)} is at or below the usual yearly highest water here (${m(site.gumbelLocation)} above ${site.referenceLevel}), which reaches it most years already; enter the crest or floor height the measure protects to.`)
+    }
+  }
+}
+
+export async function createMeasure(planner: CurrentUser, siteId: string, input: MeasureInput) {
+  const site = await loadSite(planner, siteId)
+  checkAboveTodaysLevel(site, input)
+  if ((await siteMeasures(siteId)).length >= MAX_MEASURES) refuse('name', `A site has at most ${MAX_MEASURES} measures.`)
+  const db = await useDb()
+  return db.transaction(async (tx) => {
+    const [row] = await tx.insert(adaptationMeasures).values({
+      siteId, name: input.name, height: input.height, kind: input.kind, leadTimeYears: input.leadTimeYears,
+      designLifeYears: input.designLifeYears, costBand: input.costBand, createdBy: planner.id,
+    }).returning()
+    await writeAudit(tx, planner, 'measure.created', { type: 'site', id: siteId }, { measure: row!.id, name: input.name, height: input.height, leadTimeYears: input.leadTimeYears })
+    return row!
+  })
+}
