@@ -22,11 +22,13 @@ export function exceedanceChartOption(doc: BriefingDocument, fontFamily = 'Atkin
     animation: false,
     textStyle: { fontFamily },
     color: YEAR_COLOURS,
-    grid: { left: 56, right: 24, top: 36, bottom: 48 },
+    // Room under the legend for the axis name, so they never meet on a phone.
+    grid: { left: 56, right: 24, top: 60, bottom: 48 },
     legend: { top: 0, textStyle: axisText },
     xAxis: {
-      type: 'value', name: text.chartExceedanceAxis.x, nameLocation: 'middle', nameGap: 30, nameTextStyle: axisText,
-      axisLabel: { ...axisLabel, formatter: (v: number) => `${v.toLocaleString(doc.meta.language)}\u00A0${unit}` },
+      // The unit goes in the axis name, so the numbers stay short enough not to collide on a phone.
+      type: 'value', name: `${text.chartExceedanceAxis.x} (${unit})`, nameLocation: 'middle', nameGap: 30, nameTextStyle: axisText,
+      axisLabel: { ...axisLabel, formatter: (v: number) => v.toLocaleString(doc.meta.language) },
       // Round ends and a round step, so the axis reads 0.2 … 1.4 rather than 0.1 … 1.3.
       ...niceAxis(fromMetres(doc.charts.heights[0]!, unit), fromMetres(doc.charts.heights.at(-1)!, unit)), splitLine: { lineStyle: { color: GRID } },
     },
@@ -53,7 +55,7 @@ export function fanChartOption(doc: BriefingDocument, fontFamily = 'Atkinson Hyp
     textStyle: { fontFamily },
     grid: { left: 56, right: 24, top: 56, bottom: 32 },
     legend: { top: 0, textStyle: axisText, icon: 'rect', data: [text.chartFanLegend.median, text.chartFanLegend.likely, text.chartFanLegend.veryLikely, text.chartFanLegend.extreme] },
-    xAxis: { type: 'value', ...niceYearAxis(fan.years[0]!, fan.years.at(-1)!), axisLabel: { ...axisLabel, formatter: (year: number) => String(year) }, splitLine: { show: false } },
+    xAxis: { type: 'value', ...niceYearAxis(fan.years[0]!, fan.years.at(-1)!), axisLabel: { ...axisLabel, formatter: (year: number) => String(year), alignMinLabel: 'left', alignMaxLabel: 'right' }, splitLine: { show: false } },
     yAxis: { type: 'value', axisLabel: { ...axisLabel, formatter: (v: number) => `${v.toLocaleString(doc.meta.language)} ${unit}` }, splitLine: { lineStyle: { color: GRID } } },
     series: [
       { type: 'line', name: 'base', stack: 'fan', data: at(u(fan.p1)), symbol: 'none', lineStyle: { width: 0 }, silent: true },
