@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest'
+import type { z } from 'zod'
 import { SiteSchema } from '../../../shared/schemas/sites'
 import { CreateCorrelationSetSchema, CreateReleaseSchema, CreateScaleFactorGridSchema } from '../../../shared/schemas/releases'
 import { UpdateBriefingSchema } from '../../../shared/schemas/briefings'
@@ -12,7 +13,7 @@ const site = {
 }
 
 /** The rule the client recognises in each issue the shared schema gives for this body, by field. */
-function rulesFor(schema: { safeParse: typeof SiteSchema.safeParse }, body: unknown) {
+function rulesFor(schema: z.ZodType, body: unknown) {
   const parsed = schema.safeParse(body)
   if (parsed.success) throw new Error('expected issues')
   return Object.fromEntries(parsed.error.issues.map((issue) => {
