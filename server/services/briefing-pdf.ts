@@ -26,12 +26,13 @@ type Cell = string | Content
  * and a row never stands alone on one. `lead` (a heading, a caption) keeps to the first piece.
  */
 function table(head: string[] | null, rows: Cell[][], options: { widths?: (string | number)[], lead?: Content[] } = {}): Content {
-  const header = head ? [head.map(text => ({ text, bold: true, fillColor: '#f2eee3' }))] : []
+  // pdfmake writes its layout into the nodes it lays out: each piece gets a header of its own.
+  const header = () => head ? [head.map(text => ({ text, bold: true, fillColor: '#f2eee3' }))] : []
   let start = 0
   const pieces = pieceSizes(rows.length).map((size, i) => {
     const body = rows.slice(start, start += size)
     const piece: Content = {
-      table: { headerRows: header.length, keepWithHeaderRows: Math.min(1, body.length), dontBreakRows: true, widths: options.widths ?? rows[0]!.map(() => '*'), body: [...header, ...body] },
+      table: { headerRows: head ? 1 : 0, keepWithHeaderRows: head ? 1 : 0, dontBreakRows: true, widths: options.widths ?? rows[0]!.map(() => '*'), body: [...header(), ...body] },
       layout: { hLineColor: () => '#e4dcc7', vLineColor: () => '#e4dcc7', paddingTop: () => 3, paddingBottom: () => 3 },
       fontSize: 9,
       margin: [0, i ? 6 : 0, 0, 0],

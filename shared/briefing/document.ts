@@ -185,7 +185,10 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
       }, floodContext)))
     }
     else {
-      findings.push(text.keyThreshold(primary.scenario, site.name, key.label, heightOf(key, found), lastYear, sayChance(found.byYear[last]!, language)))
+      // From the first chosen year to the last: how the chance grows, in one sentence.
+      const first = yearIndexes.reduce((a, b) => (result.years[b]! < result.years[a]! ? b : a))
+      const ends = (first === last ? [last] : [first, last]).map(t => ({ chance: sayChance(found.byYear[t]!, language), year: result.years[t]! }))
+      findings.push(text.keyThreshold(primary.scenario, site.name, key.label, heightOf(key, found), ends))
       const tolerance = source.tolerance ?? DEFAULT_TOLERANCE
       const trigger = found.triggerYears.find(tr => Math.abs(tr.tolerance - tolerance) < 1e-9)
       if (trigger) {

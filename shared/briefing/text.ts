@@ -13,7 +13,7 @@ export interface BriefingText {
   summaryIntro: (site: string, scenario: string) => string
   rangeSentence: (year: number, median: string, low: string, high: string, epoch: number) => string
   /** The summary's findings, one sentence each: the key threshold, its trigger year, the spread over scenarios. */
-  keyThreshold: (scenario: string, site: string, threshold: string, height: string, year: number, chance: ChanceSaid) => string
+  keyThreshold: (scenario: string, site: string, threshold: string, height: string, chances: { chance: ChanceSaid, year: number }[]) => string
   keyFlood: (scenario: string, threshold: string, sentence: string) => string
   trigger: (threshold: string, tolerance: string, year: number) => string
   noTrigger: (threshold: string, tolerance: string, lastYear: number) => string
@@ -63,7 +63,7 @@ const en: BriefingText = {
   sections: { summary: 'Summary', charts: 'Charts', table: 'Chances by year', basis: 'What this rests on', cautions: 'What this is not', provenance: 'About this document', context: 'Local context' },
   summaryIntro: (site, scenario) => `How high the sea may rise at ${site} under the ${scenario} scenario, counting the land's own sinking or uplift.`,
   rangeSentence: (year, median, low, high, epoch) => `Between ${epoch} and ${year} the middle estimate of the rise is ${median}; it is likely (two chances in three) to lie between ${low} and ${high}.`,
-  keyThreshold: (scenario, site, threshold, height, year, chance) => `Under ${scenario}, the chance that the mean sea level at ${site} rises above “${threshold}” (${height}) by ${year} is ${chance.plain}.`,
+  keyThreshold: (scenario, site, threshold, height, chances) => `Under ${scenario}, the chance that the mean sea level at ${site} rises above “${threshold}” (${height}) is ${new Intl.ListFormat('en-GB').format(chances.map(c => `${c.chance.plain} by ${c.year}`))}.`,
   keyFlood: (scenario, threshold, sentence) => `Under ${scenario}, at the flood level “${threshold}”: ${sentence}`,
   trigger: (threshold, tolerance, year) => `The chance of passing “${threshold}” reaches ${tolerance}, the chance this briefing plans to, in ${year}: its trigger year.`,
   noTrigger: (threshold, tolerance, lastYear) => `The chance of passing “${threshold}” stays below ${tolerance}, the chance this briefing plans to, up to ${lastYear}, the last year computed.`,
@@ -122,7 +122,7 @@ const es: BriefingText = {
   sections: { summary: 'Resumen', charts: 'Gráficos', table: 'Probabilidades por año', basis: 'En qué se basa', cautions: 'Lo que este informe no es', provenance: 'Sobre este documento', context: 'Contexto local' },
   summaryIntro: (site, scenario) => `Cuánto puede subir el mar en ${site} en el escenario ${scenario}, contando el hundimiento o levantamiento del propio terreno.`,
   rangeSentence: (year, median, low, high, epoch) => `Entre ${epoch} y ${year} la estimación central de la subida es ${median}; es probable (dos de cada tres posibilidades) que esté entre ${low} y ${high}.`,
-  keyThreshold: (scenario, site, threshold, height, year, chance) => `En el escenario ${scenario}, la probabilidad de que el nivel medio del mar en ${site} supere «${threshold}» (${height}) para ${year} es ${chance.afterDe}.`,
+  keyThreshold: (scenario, site, threshold, height, chances) => `En el escenario ${scenario}, la probabilidad de que el nivel medio del mar en ${site} supere «${threshold}» (${height}) es ${new Intl.ListFormat('es').format(chances.map(c => `${c.chance.afterDe} para ${c.year}`))}.`,
   keyFlood: (scenario, threshold, sentence) => `En el escenario ${scenario}, para la cota de inundación «${threshold}»: ${sentence}`,
   trigger: (threshold, tolerance, year) => `La probabilidad de superar «${threshold}» alcanza el ${tolerance}, la probabilidad con la que planifica este informe, en ${year}: es su año de activación.`,
   noTrigger: (threshold, tolerance, lastYear) => `La probabilidad de superar «${threshold}» se mantiene por debajo del ${tolerance}, la probabilidad con la que planifica este informe, hasta ${lastYear}, el último año calculado.`,

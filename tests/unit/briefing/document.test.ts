@@ -75,7 +75,10 @@ describe('the findings a councillor reads first', () => {
     const doc = compared(0.23, 0.64)
     const [key, trigger, spread] = findings(doc)
     expect(findings(doc)).toHaveLength(3)
-    expect(key).toBe('Under SSP2-4.5, the chance that the mean sea level at Testport rises above “Quay” (0.50 m) by 2100 is 23 % (unlikely).')
+    expect(key).toBe('Under SSP2-4.5, the chance that the mean sea level at Testport rises above “Quay” (0.50 m) is 23 % (unlikely) by 2100.')
+    // With several years, the first and the last chosen: how the chance grows.
+    const two = findings(compared(0.23, 0.64, { years: [2050, 2100] }))[0]!
+    expect(two).toMatch(/^Under SSP2-4\.5, .+ \(0\.50 m\) is (\d+|less than 1) % \([a-z ]+\) by 2050 and 23 % \(unlikely\) by 2100\.$/)
     // The engine's own 10 % trigger year of this outlook (the rise passes 0.5 m with 10 % chance before 2100).
     const year = result.thresholds[0]!.triggerYears.find(t => t.tolerance === 0.1)!.year
     expect(trigger).toBe(year === null
