@@ -29,6 +29,8 @@ export interface BriefingView extends Omit<BriefingRow, 'siteName'> {
   shareToken: string | null
   /** The configured public address (APP_URL) that links are built on. */
   appUrl: string
+  /** The live page the document points to: the share link (planners, once shared), else the page inside, which needs a sign-in. */
+  live: { url: string, signIn: boolean }
   document: BriefingDocument
 }
 

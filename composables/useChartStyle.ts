@@ -1,3 +1,6 @@
+import { maxOf, minOf } from '../shared/engine/arrays'
+import { niceAxis, niceYearAxis } from '../shared/charts/nice-axis'
+
 // Shared look of the outlook charts, in the app's palette (tailwind.config.ts). Text colours are the
 // dark dune and abyss shades, which keep AA contrast on the white cards.
 
@@ -27,7 +30,8 @@ export const CHART_FONT = '"Atkinson Hyperlegible", system-ui, sans-serif'
 export function chartAxis(extra: Record<string, unknown> = {}) {
   const { axisLabel, ...rest } = extra as { axisLabel?: Record<string, unknown> }
   return {
-    axisLabel: { color: CHART_COLOURS.text, fontSize: 12, ...axisLabel },
+    // Labels that would touch on a narrow screen are dropped rather than drawn over each other.
+    axisLabel: { color: CHART_COLOURS.text, fontSize: 12, hideOverlap: true, ...axisLabel },
     nameTextStyle: { color: CHART_COLOURS.text, fontSize: 12 },
     axisLine: { lineStyle: { color: CHART_COLOURS.axis } },
     splitLine: { lineStyle: { color: CHART_COLOURS.grid } },
@@ -61,10 +65,18 @@ export function chartFrame(description: string, extra: Record<string, unknown>) 
   }
 }
 
-/** Axis ends rounded outwards to a tenth, so the first and last labels are round numbers. */
-export const roundedEnds = {
-  min: (range: { min: number }) => Math.floor(range.min * 10) / 10,
-  max: (range: { max: number }) => Math.ceil(range.max * 10) / 10,
+/**
+ * A time axis from the first to the last year on round decades (2000 … 2150 by 50, never 2005 … 2150),
+ * with few enough labels that four digits never touch on a phone.
+ */
+export function yearAxis(years: number[]) {
+  // The first year starts at the corner rather than centred on it, clear of the value axis's 0.
+  return chartAxis({ type: 'value', ...niceYearAxis(minOf(years), maxOf(years)), axisLabel: { color: CHART_COLOURS.text, formatter: (year: number) => String(year), alignMinLabel: 'left', alignMaxLabel: 'right' } })
+}
+
+/** A value axis whose ends and step are round numbers covering `values` (heights, in the page's unit). */
+export function roundAxis(values: number[], extra: Record<string, unknown> = {}) {
+  return chartAxis({ type: 'value', ...niceAxis(minOf(values), maxOf(values)), ...extra })
 }
 
 export function chartLegend(names: string[]) {

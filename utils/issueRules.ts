@@ -8,6 +8,7 @@ export type IssueRule =
   | { rule: 'wholeYear' }
   | { rule: 'wholeNumber' }
   | { rule: 'choose' }
+  | { rule: 'chooseSome' }
   | { rule: 'atLeast' | 'above' | 'atMost', limit: number, unit: string }
   | { rule: 'tooLong', limit: number }
 
@@ -28,6 +29,8 @@ export function issueRule(message: string, value: unknown): IssueRule | null {
   if (isBlank(value) && /^(Enter|Name|Choose|Say) /.test(message) && !/:|leave/.test(message)) return { rule: 'required' }
   let match: RegExpMatchArray | null
   if (/^Choose (one of|the kind)/.test(message)) return { rule: 'choose' }
+  // A list of boxes left with none ticked (the briefing's thresholds and years).
+  if (/^Choose at least one \w+\.$/.test(message)) return { rule: 'chooseSome' }
   if (/ as a number\.$|^Enter a number\b/.test(message)) return { rule: 'number' }
   if (/ as a year\.$|^Enter a whole year\.$|^Enter whole years\.$/.test(message)) return { rule: 'wholeYear' }
   if (/^Enter (whole|a whole-number|the design life in whole)/.test(message)) return { rule: 'wholeNumber' }

@@ -3,6 +3,7 @@ import type { BriefingDocument } from '#shared/briefing/document'
 import { dateLocale } from '#shared/wording/dates'
 import { exceedanceChartOption, fanChartOption } from '#shared/briefing/charts'
 import { BRIEFING_TEXT } from '#shared/briefing/text'
+import { pieceSizes } from '#shared/briefing/table-pieces'
 
 // Lays a briefing document out as a PDF: the same sections, in the same order, as the page.
 
@@ -18,16 +19,53 @@ function heading(number: number, title: string): Content {
   return { text: `${number}. ${title}`, style: 'h2', margin: [0, 14, 0, 6], headlineLevel: 1 }
 }
 
-function table(head: string[] | null, rows: string[][], widths?: (string | number)[]): Content {
-  const header = head ? [head.map(text => ({ text, bold: true, fillColor: '#f2eee3' }))] : []
-  return {
-    table: { headerRows: head ? 1 : 0, widths: widths ?? rows[0]!.map(() => '*'), body: [...header, ...rows] },
-    layout: { hLineColor: () => '#e4dcc7', vLineColor: () => '#e4dcc7', paddingTop: () => 3, paddingBottom: () => 3 },
-    fontSize: 9,
-  }
+type Cell = string | Content
+
+/**
+ * A table as unbreakable pieces, each with its header: a header is never left at the foot of a page
+ * and a row never stands alone on one. `lead` (a heading, a caption) keeps to the first piece.
+ */
+function table(head: string[] | null, rows: Cell[][], options: { widths?: (string | number)[], lead?: Content[] } = {}): Content {
+  // pdfmake writes its layout into the nodes it lays out: each piece gets a header of its own.
+  const header = () => head ? [head.map(text => ({ text, bold: true, fillColor: '#f2eee3' }))] : []
+  let start = 0
+  const pieces = pieceSizes(rows.length).map((size, i) => {
+    const body = rows.slice(start, start += size)
+    const piece: Content = {
+      table: { headerRows: head ? 1 : 0, keepWithHeaderRows: head ? 1 : 0, dontBreakRows: true, widths: options.widths ?? rows[0]!.map(() => '*'), body: [...header(), ...body] },
+      layout: { hLineColor: () => '#e4dcc7', vLineColor: () => '#e4dcc7', paddingTop: () => 3, paddingBottom: () => 3 },
+      fontSize: 9,
+      margin: [0, i ? 6 : 0, 0, 0],
+    } as Content
+    return { stack: [...(i === 0 ? options.lead ?? [] : []), piece], unbreakable: true } as Content
+  })
+  return { stack: pieces }
 }
 
-export function briefingPdfDefinition(doc: BriefingDocument, absoluteLink: string, paper: Paper): TDocumentDefinitions {
+/** Section 1: the findings, one sentence each, then thresholds × years; earlier briefings had their lines. */
+function summary(doc: BriefingDocument): Content[] {
+  const text = BRIEFING_TEXT[doc.meta.language]
+  const grid = doc.summary.grid
+  return [
+    ...(doc.summary.findings ? [{ ul: doc.summary.findings, margin: [0, 0, 0, 8] } as Content] : []),
+    ...(doc.summary.lines ? [{ ul: doc.summary.lines, margin: [0, 0, 0, 6] } as Content] : []),
+    ...(doc.summary.ranges ? [{ ul: doc.summary.ranges } as Content] : []),
+    ...(grid
+      ? [table([text.gridThreshold, ...grid.years.map(String)], grid.rows.map(row => [`${row.threshold} (${row.height})`, ...row.chances.map(c => ({ text: c.text, alignment: 'right' }) as Content)]),
+          { widths: ['*', ...grid.years.map(() => 'auto')], lead: [{ text: grid.caption, fontSize: 9, color: MUTED, margin: [0, 0, 0, 3] }] })]
+      : []),
+  ]
+}
+
+/** For the engineer, after the table of chances: each threshold in one sentence, and the ranges. */
+function detail(doc: BriefingDocument): Content[] {
+  if (!doc.detail) return []
+  const text = BRIEFING_TEXT[doc.meta.language]
+  // headlineLevel keeps the title off the foot of a page, as for section headings.
+  return [{ text: text.detailTitle, bold: true, margin: [0, 10, 0, 4], headlineLevel: 1 }, { ul: [...doc.detail.lines, ...doc.detail.ranges] }]
+}
+
+export function briefingPdfDefinition(doc: BriefingDocument, live: { url: string, signIn: boolean }, paper: Paper): TDocumentDefinitions {
   const text = BRIEFING_TEXT[doc.meta.language]
   const meta = doc.meta
   const chartWidth = paper === 'A4' ? 500 : 510
@@ -36,24 +74,24 @@ export function briefingPdfDefinition(doc: BriefingDocument, absoluteLink: strin
   const content: Content[] = [
     { text: text.documentKind.toUpperCase(), style: 'kicker' },
     { text: meta.title, style: 'h1' },
-    { text: `${meta.siteName} · ${meta.scenario} · ${issued} · ${text.provenance.version} ${meta.version}`, color: MUTED, margin: [0, 2, 0, 4] },
-    ...(meta.audience ? [{ text: `${text.provenance.audience}: ${meta.audience}`, color: MUTED } as Content] : []),
+    { text: `${meta.siteName} · ${meta.scenario} · ${issued} · ${text.provenance.version} ${meta.version}`, color: MUTED, margin: [0, 2, 0, 0] },
+    ...(meta.organisation ? [{ text: text.issuedBy(meta.organisation, meta.author ?? null), color: MUTED } as Content] : []),
+    ...(meta.heights ? [{ text: meta.heights, color: MUTED } as Content] : []),
+    ...(meta.audience ? [{ text: `${text.provenance.audience}: ${meta.audience}`, color: MUTED, margin: [0, 4, 0, 0] } as Content] : []),
     ...(meta.illustrative ? [{ text: text.illustrative, bold: true, color: CAUTION, margin: [0, 6, 0, 0] } as Content] : []),
 
     heading(1, text.sections.summary),
     { text: doc.summary.intro, margin: [0, 0, 0, 6] },
-    { ul: doc.summary.lines, margin: [0, 0, 0, 6] },
-    { ul: doc.summary.ranges },
+    ...summary(doc),
     ...(meta.localContext ? [{ text: text.sections.context, bold: true, margin: [0, 8, 0, 2] } as Content, { text: meta.localContext }] : []),
 
     // A chart's title and its drawing stay on one page, and the section heading with the first.
     { stack: [heading(2, text.sections.charts), { text: text.chartExceedance, bold: true }, { svg: chartSvg(exceedanceChartOption(doc, PDF_FONT), chartWidth, 250), width: chartWidth }], unbreakable: true },
     { stack: [{ text: text.chartFan, bold: true, margin: [0, 8, 0, 0] }, { svg: chartSvg(fanChartOption(doc, PDF_FONT), chartWidth, 250), width: chartWidth }], unbreakable: true },
 
-    heading(3, text.sections.table),
     table([text.tableHead.scenario, text.tableHead.threshold, text.tableHead.measure, ...doc.table.years.map(String)],
-      doc.table.rows.map(row => [row.scenario, `${row.threshold} (${row.height})`, row.measure ?? '', ...row.chances.map(c => c.text)]),
-      ['auto', '*', '*', ...doc.table.years.map(() => 'auto')]),
+      doc.table.rows.map(row => [row.scenario, `${row.threshold} (${row.height})`, row.measure ?? '', ...row.chances.map(c => ({ text: c.text, alignment: 'right' }) as Content)]),
+      { widths: ['auto', '*', '*', ...doc.table.years.map(() => 'auto')], lead: [heading(3, text.sections.table)] }),
     ...(doc.extremes
       ? [{
           stack: [
@@ -64,11 +102,11 @@ export function briefingPdfDefinition(doc: BriefingDocument, absoluteLink: strin
           unbreakable: true,
         } as Content]
       : []),
+    ...detail(doc),
 
-    heading(4, text.sections.basis),
     table([text.basisHead.component, text.basisHead.scenario, text.basisHead.version, text.basisHead.state, text.basisHead.scale, text.basisHead.citation],
       doc.basis.releases.map(r => [r.component, r.scenario, String(r.version), r.state, r.scale, r.citation]),
-      ['auto', 'auto', 'auto', 'auto', 'auto', '*']),
+      { widths: ['auto', 'auto', 'auto', 'auto', 'auto', '*'], lead: [heading(4, text.sections.basis)] }),
     ...(doc.basis.datum ? [{ text: doc.basis.datum, margin: [0, 6, 0, 2] } as Content] : []),
     { text: doc.basis.landMotion, margin: [0, 6, 0, 2] },
     { text: doc.basis.sampling, margin: [0, 0, 0, 2] },
@@ -78,13 +116,15 @@ export function briefingPdfDefinition(doc: BriefingDocument, absoluteLink: strin
     // The cautions are read together or not at all.
     { stack: [heading(5, text.sections.cautions), { ul: doc.cautions, color: CAUTION }], unbreakable: true },
 
-    heading(6, text.sections.provenance),
     table(null, [
       [text.provenance.issued, issued],
+      ...(meta.organisation ? [[text.provenance.organisation, meta.organisation]] : []),
+      ...(meta.author ? [[text.provenance.author, meta.author]] : []),
       [text.provenance.version, String(meta.version) + (meta.previousVersion ? ` (${text.provenance.previous} ${meta.previousVersion})` : '')],
       [text.provenance.inputHash, meta.inputs.map(input => `${input.scenario}: ${input.inputHash}`).join('\n')],
-      [text.provenance.link, absoluteLink],
-    ], ['auto', '*']),
+      // A reader of a shared briefing opens its share link; the page inside needs an account, and says so.
+      [text.provenance.link, { stack: [{ text: live.url, link: live.url, color: ACCENT, decoration: 'underline' }, ...(live.signIn ? [{ text: text.provenance.signIn(meta.organisation ?? ''), color: MUTED }] : [])] }],
+    ], { widths: ['auto', '*'], lead: [heading(6, text.sections.provenance)] }),
   ]
 
   return {
@@ -103,7 +143,7 @@ export function briefingPdfDefinition(doc: BriefingDocument, absoluteLink: strin
     header: (page: number) => page > 1 ? { text: `${meta.title} · ${meta.siteName}`, fontSize: 8, color: MUTED, margin: [48, 24, 48, 0] } : null,
     footer: (page: number, pages: number) => ({
       columns: [
-        { text: meta.issuedAt ? `Brinkwater · ${issued}` : text.draftMark, fontSize: 8, color: meta.issuedAt ? MUTED : CAUTION },
+        { text: meta.issuedAt ? `${meta.organisation ?? 'Brinkwater'} · ${issued}` : text.draftMark, fontSize: 8, color: meta.issuedAt ? MUTED : CAUTION },
         { text: text.page(page, pages), alignment: 'right', fontSize: 8, color: MUTED },
       ],
       margin: [48, 16, 48, 0],

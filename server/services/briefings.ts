@@ -1,7 +1,7 @@
 import { randomBytes } from 'node:crypto'
 import { and, desc, eq, inArray } from 'drizzle-orm'
 import type { DatumKind } from '#shared/types/science'
-import { briefings, organisations, outlooks, releases, sites, thresholds } from '~~/server/db/schema'
+import { briefings, organisations, outlooks, releases, sites, thresholds, users } from '~~/server/db/schema'
 import { buildBriefingDocument, type BriefingDocument, type BriefingOutlook } from '#shared/briefing/document'
 import type { OutlookResult } from '#shared/engine'
 import type { CreateBriefingInput, UpdateBriefingInput } from '#shared/schemas/briefings'
@@ -10,7 +10,8 @@ import { endShareWatches } from './watches'
 
 type Briefing = typeof briefings.$inferSelect
 
-const bad = (message: string) => createError({ statusCode: 400, message })
+/** A 400 naming its field, with the issue for the form to place beside that field. */
+const bad = (field: string, message: string) => createError({ statusCode: 400, message: `${field}: ${message}`, data: { issues: [{ field, message }] } })
 
 /** The outlooks a briefing uses, checked to belong to one site of the caller's organisation. */
 async function loadOutlooks(user: CurrentUser, ids: string[]) {
@@ -20,7 +21,7 @@ async function loadOutlooks(user: CurrentUser, ids: string[]) {
   const found = ids.map(id => rows.find(row => row.outlook.id === id && row.organisationId === user.organisationId)?.outlook)
   if (found.some(row => !row)) throw createError({ statusCode: 404, message: 'No such outlook.' })
   const list = found as (typeof outlooks.$inferSelect)[]
-  if (list.some(o => o.siteId !== list[0]!.siteId)) throw bad('comparisonOutlookIds: Compare outlooks of the same site only.')
+  if (list.some(o => o.siteId !== list[0]!.siteId)) throw bad('comparisonOutlookIds', 'Compare outlooks of the same site only.')
   if (list.some(o => o.state !== 'done')) throw createError({ statusCode: 409, message: 'An outlook is still running or failed; issue the briefing once it is done.' })
   return list
 }
@@ -31,10 +32,10 @@ async function checkSelection(user: CurrentUser, input: UpdateBriefingInput & { 
   const db = await useDb()
   const own = await db.select({ id: thresholds.id }).from(thresholds).where(eq(thresholds.siteId, siteId))
   const stray = input.thresholdIds.find(id => !own.some(t => t.id === id))
-  if (stray) throw bad(`thresholdIds: ${stray} is not a threshold of this site.`)
+  if (stray) throw bad('thresholdIds', `${stray} is not a threshold of this site.`)
   const years = (list[0]!.result as unknown as OutlookResult).years
   const missing = input.years.find(year => !years.includes(year))
-  if (missing !== undefined) throw bad(`years: ${missing} is not a year of the outlook; choose from ${years.join(', ')}.`)
+  if (missing !== undefined) throw bad('years', `${missing} is not a year of the outlook; choose from ${years.join(', ')}.`)
   return { siteId, outlookIds: list.map(o => o.id) }
 }
 
@@ -77,11 +78,14 @@ function datumOf(outlook: { input: unknown } | undefined) {
 }
 
 /** The document as it reads now (drafts) or as it was frozen (issued). */
-export async function briefingDocument(row: Briefing, issuedAt: Date | null = row.issuedAt): Promise<BriefingDocument> {
+export async function briefingDocument(row: Briefing, issuedAt: Date | null = row.issuedAt, issuedBy: string | null = row.issuedBy): Promise<BriefingDocument> {
   if (row.document) return row.document as unknown as BriefingDocument
   const db = await useDb()
-  const [site] = await db.select({ site: sites, illustrative: organisations.illustrative }).from(sites)
+  const [site] = await db.select({ site: sites, illustrative: organisations.illustrative, organisation: organisations.name }).from(sites)
     .innerJoin(organisations, eq(organisations.id, sites.organisationId)).where(eq(sites.id, row.siteId))
+  // The author is whoever issues it; until then, whoever drafted it.
+  const authorId = issuedBy ?? row.createdBy
+  const [author] = authorId ? await db.select({ name: users.name }).from(users).where(eq(users.id, authorId)) : []
   const chosen = await db.select().from(thresholds).where(inArray(thresholds.id, row.thresholdIds))
   const stored = await db.select().from(outlooks).where(inArray(outlooks.id, row.outlookIds))
   const refs = stored.flatMap(o => o.releaseRefs.map(r => r.releaseId))
@@ -99,7 +103,7 @@ export async function briefingDocument(row: Briefing, issuedAt: Date | null = ro
     language: row.language === 'es' ? 'es' : 'en', units: row.units === 'ft' ? 'ft' : 'm',
     title: row.title, audience: row.audience, localContext: row.localContext, version: row.version,
     previousVersion: previous?.version ?? null, issuedAt: issuedAt?.toISOString() ?? null, livePath: `/briefings/${row.id}`,
-    illustrative: site!.illustrative, site: { ...site!.site, ...datumOf(stored.find(o => o.id === row.outlookIds[0])) },
+    illustrative: site!.illustrative, organisation: site!.organisation, author: author?.name ?? null, site: { ...site!.site, ...datumOf(stored.find(o => o.id === row.outlookIds[0])) },
     thresholds: row.thresholdIds.map(id => chosen.find(t => t.id === id)!).filter(Boolean),
     years: row.years, outlooks: ordered,
   })
@@ -109,7 +113,7 @@ export async function issueBriefing(planner: CurrentUser, id: string) {
   const row = await loadBriefing(planner, id)
   if (row.state !== 'draft') throw createError({ statusCode: 409, message: `Version ${row.version} is already issued.` })
   const issuedAt = new Date()
-  const document = await briefingDocument(row, issuedAt)
+  const document = await briefingDocument(row, issuedAt, planner.id)
   const db = await useDb()
   return db.transaction(async (tx) => {
     const [issued] = await tx.update(briefings).set({ state: 'issued', document: document as unknown as Record<string, unknown>, issuedAt, issuedBy: planner.id, updatedAt: issuedAt })
@@ -173,4 +177,14 @@ export async function listBriefings(user: CurrentUser, siteId?: string) {
   }).from(briefings).innerJoin(sites, eq(sites.id, briefings.siteId)).where(and(...conditions)).orderBy(desc(briefings.updatedAt))
   // Lists say whether a briefing is shared; only its page shows the link itself, to planners.
   return rows.map(({ shareToken, ...row }) => ({ ...row, shared: shareToken !== null }))
+}
+
+/**
+ * The "live page" a briefing points its reader to: the share link once it is shared (planners, who
+ * hand it on), else the page inside the organisation, which needs a sign-in and says so. Readers
+ * never get the share link: only planners decide who holds it.
+ */
+export function liveLink(row: Pick<Briefing, 'id' | 'shareToken'>, user: CurrentUser | null): { path: string, signIn: boolean } {
+  if (row.shareToken && (user === null || user.role === 'planner')) return { path: `/shared/${row.shareToken}`, signIn: false }
+  return { path: `/briefings/${row.id}`, signIn: true }
 }

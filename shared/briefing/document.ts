@@ -1,9 +1,10 @@
-import type { OutlookResult } from '../engine'
+import type { OutlookResult, ThresholdOutlook } from '../engine'
 import { formatHeight, type HeightUnit } from '../units'
-import { BEYOND_RANGE, chanceAsOdds, formatChance, likelihoodPhrase, type Language } from '../wording/chance'
+import { formatChance, type Language } from '../wording/chance'
 import { designLifeLevelSentence, floodYearSentence, lifeSentence } from '../wording/flood'
 import type { DatumKind, ThresholdKind } from '../types/science'
 import { BRIEFING_TEXT, type BriefingText } from './text'
+import { headlineEstimate, keyThreshold, sayChance, spreadSentence } from './findings'
 
 // A briefing as a document: every sentence and number, in one language and one unit, built from
 // stored outlooks. Issuing freezes this object; the page and the PDF only lay it out.
@@ -31,6 +32,11 @@ export interface BriefingSource {
   issuedAt: string | null
   livePath: string
   illustrative: boolean
+  /** The organisation that issues the briefing, and the person who issued (or, for a draft, drafted) it. */
+  organisation: string
+  author: string | null
+  /** The chance a planner plans to, for the trigger year; the outlook page's 10 % when none is chosen. */
+  tolerance?: number
   site: {
     name: string
     referenceLevel: string
@@ -53,9 +59,22 @@ export interface BriefingSource {
 
 export interface ChanceCell { probability: number, text: string }
 
+/** Thresholds × years under the briefing's own scenario: the summary's compact table. */
+export interface SummaryGrid { scenario: string, caption: string, years: number[], rows: { threshold: string, height: string, flood: boolean, chances: ChanceCell[] }[] }
+
 export interface BriefingDocument {
-  meta: Omit<BriefingSource, 'outlooks' | 'thresholds' | 'years' | 'site'> & { siteName: string, referenceLevel: string, scenario: string, inputs: { scenario: string, inputHash: string }[] }
-  summary: { intro: string, lines: string[], ranges: string[] }
+  /** organisation, author and heights are absent from briefings issued before they were stated. */
+  meta: Omit<BriefingSource, 'outlooks' | 'thresholds' | 'years' | 'site' | 'organisation' | 'author' | 'tolerance'> & {
+    siteName: string, referenceLevel: string, scenario: string, inputs: { scenario: string, inputHash: string }[]
+    organisation?: string, author?: string | null, heights?: string
+  }
+  /**
+   * What a councillor reads first: two or three findings, one sentence each, and the compact table.
+   * Briefings issued before had one line per threshold and year (`lines`) and `ranges` here instead.
+   */
+  summary: { intro: string, findings?: string[], grid?: SummaryGrid, lines?: string[], ranges?: string[] }
+  /** For the engineer, after the table of chances: each threshold in one sentence, then the ranges. */
+  detail?: { lines: string[], ranges: string[] }
   charts: {
     years: number[]
     heights: number[]
@@ -68,12 +87,15 @@ export interface BriefingDocument {
   cautions: string[]
 }
 
+/** The outlook page's tolerance for a trigger year, used when the briefing's source names none. */
+export const DEFAULT_TOLERANCE = 0.1
+
 /** What a reader should know about how an outlook was put together, in the briefing's language. */
 function outlookNotes(outlook: BriefingOutlook, text: BriefingText): string[] {
   const unscaled = outlook.releaseRefs.filter(ref => ref.scaleSource === null).map(ref => text.components[ref.component] ?? ref.component)
   return [
     ...(unscaled.length ? [text.notes.unscaled(outlook.scenario, unscaled.join(', '))] : []),
-    ...(outlook.correlated ? [] : [text.notes.uncorrelated(outlook.scenario)]),
+    outlook.correlated ? text.notes.correlated(outlook.scenario) : text.notes.uncorrelated(outlook.scenario),
   ]
 }
 
@@ -97,6 +119,16 @@ function chartHeights(result: OutlookResult, yearIndexes: number[]) {
   return { from: Math.max(0, first - 3), to: Math.min(result.heights.length - 1, last + 3) }
 }
 
+function summaryGrid(rows: BriefingDocument['table']['rows'], source: BriefingSource, text: BriefingText): SummaryGrid {
+  const flood = (row: { measure: string }) => row.measure === text.measures.flood
+  return {
+    scenario: source.outlooks[0]!.scenario,
+    caption: text.gridCaption(source.outlooks[0]!.scenario, rows.some(flood)),
+    years: source.years,
+    rows: rows.map(row => ({ threshold: row.threshold, height: row.height, flood: flood(row), chances: row.chances })),
+  }
+}
+
 export function buildBriefingDocument(source: BriefingSource): BriefingDocument {
   const text = BRIEFING_TEXT[source.language]
   const height = (metres: number) => formatHeight(metres, source.units, source.language)
@@ -118,30 +150,61 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
   // The height the outlook was computed with, which the site's current one may have moved from since.
   const heightOf = (threshold: BriefingSource['thresholds'][number], found: ReturnType<typeof thresholdOf>) => height(found ? aboveDatum(found.height) : threshold.height)
 
-  const lines = source.thresholds.flatMap((threshold) => {
+  const language = source.language
+  const floodLines = (threshold: BriefingSource['thresholds'][number], found: ThresholdOutlook) => {
+    const flood = found.flood!
+    // Every line names its level: a briefing may list several.
+    const named = (sentence: string) => text.floodLine(threshold.label, heightOf(threshold, found), sentence)
+    const years = yearIndexes.map(t => named(floodYearSentence({
+      year: result.years[t]!, height: aboveDatum(found.height), annualChance: flood.annualChance[t]!.value, expectedPerYear: flood.expectedPerYear[t]!,
+    }, floodContext)))
+    const life = found.lifeExceedance && found.designLifeYears && found.lifeStartYear
+      ? [named(lifeSentence({ buildYear: found.lifeStartYear, lifeYears: found.designLifeYears, chance: found.lifeExceedance.value }, language))]
+      : []
+    const level = found.designLifeLevel ? [named(designLifeLevelSentence({ chance: found.designLifeLevel.chance, level: aboveDatum(found.designLifeLevel.level) }, floodContext))] : []
+    return [...years, ...life, ...level]
+  }
+  const detailLines = source.thresholds.flatMap((threshold) => {
     const found = thresholdOf(primary, threshold.id)
-    if (isFlood(threshold)) {
-      if (!found?.flood) return []
-      const flood = found.flood
-      const years = yearIndexes.map(t => text.floodLine(threshold.label, heightOf(threshold, found), floodYearSentence({
-        year: result.years[t]!, height: aboveDatum(found.height), annualChance: flood.annualChance[t]!.value, expectedPerYear: flood.expectedPerYear[t]!,
-      }, floodContext)))
-      // Every line names its level: a briefing may list several.
-      const named = (sentence: string) => text.floodLine(threshold.label, heightOf(threshold, found), sentence)
-      const life = found.lifeExceedance && found.designLifeYears && found.lifeStartYear
-        ? [named(lifeSentence({ buildYear: found.lifeStartYear, lifeYears: found.designLifeYears, chance: found.lifeExceedance.value }, source.language))]
-        : []
-      const level = found.designLifeLevel ? [named(designLifeLevelSentence({ chance: found.designLifeLevel.chance, level: aboveDatum(found.designLifeLevel.level) }, floodContext))] : []
-      return [...years, ...life, ...level]
-    }
-    return yearIndexes.map((t) => {
-      const estimate = found?.byYear[t]
-      const p = estimate?.value ?? 0
-      const word = estimate?.extrapolated ? BEYOND_RANGE[source.language] : likelihoodPhrase(p, source.language)
-      return text.chanceLine(chanceAsOdds(p, source.language), formatChance(p, source.language), word, heightOf(threshold, found), threshold.label, result.years[t]!)
-    })
+    if (isFlood(threshold)) return found?.flood ? floodLines(threshold, found) : []
+    const chances = yearIndexes.map(t => ({ chance: sayChance(found?.byYear[t] ?? { value: 0 }, language), year: result.years[t]! }))
+    return [text.detailLine(threshold.label, heightOf(threshold, found), chances)]
   })
   const ranges = yearIndexes.map(t => text.rangeSentence(result.years[t]!, height(percentile(result, t, 0.5)), height(percentile(result, t, 0.17)), height(percentile(result, t, 0.83)), site.referenceEpoch))
+
+  // The findings: the key threshold by the last chosen year, its trigger year, the spread over scenarios.
+  const last = yearIndexes.reduce((a, b) => (result.years[b]! > result.years[a]! ? b : a))
+  const lastYear = result.years[last]!
+  const key = keyThreshold(source.thresholds, id => thresholdOf(primary, id))
+  const findings: string[] = []
+  if (key) {
+    const found = thresholdOf(primary, key.id)!
+    if (isFlood(key)) {
+      findings.push(text.keyFlood(primary.scenario, key.label, floodYearSentence({
+        year: lastYear, height: aboveDatum(found.height), annualChance: found.flood!.annualChance[last]!.value, expectedPerYear: found.flood!.expectedPerYear[last]!,
+      }, floodContext)))
+    }
+    else {
+      // From the first chosen year to the last: how the chance grows, in one sentence.
+      const first = yearIndexes.reduce((a, b) => (result.years[b]! < result.years[a]! ? b : a))
+      const ends = (first === last ? [last] : [first, last]).map(t => ({ chance: sayChance(found.byYear[t]!, language), year: result.years[t]! }))
+      findings.push(text.keyThreshold(primary.scenario, site.name, key.label, heightOf(key, found), ends))
+      const tolerance = source.tolerance ?? DEFAULT_TOLERANCE
+      const trigger = found.triggerYears.find(tr => Math.abs(tr.tolerance - tolerance) < 1e-9)
+      if (trigger) {
+        const said = formatChance(tolerance, language)
+        findings.push(trigger.year === null ? text.noTrigger(key.label, said, result.years.at(-1)!) : text.trigger(key.label, said, trigger.year))
+      }
+    }
+    const chances = source.outlooks.flatMap((outlook) => {
+      const estimate = headlineEstimate(thresholdOf(outlook, key.id), outlook.result.years.indexOf(lastYear))
+      return estimate ? [{ scenario: outlook.scenario, estimate }] : []
+    })
+    const spread = spreadSentence(chances, lastYear, text, language)
+    if (spread) findings.push(spread)
+  }
+  // With one scenario (or nothing to compare), the likely range by the last year stands in for the spread.
+  if (findings.length < 3) findings.push(ranges[yearIndexes.indexOf(last)]!)
 
   const { from, to } = chartHeights(result, yearIndexes)
   const series = (level: number) => result.byYear.map((_, t) => percentile(result, t, level))
@@ -179,8 +242,10 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
       language: source.language, units: source.units, title: source.title, audience: source.audience, localContext: source.localContext,
       version: source.version, previousVersion: source.previousVersion, issuedAt: source.issuedAt, livePath: source.livePath, illustrative: source.illustrative,
       siteName: site.name, referenceLevel: site.referenceLevel, scenario: primary.scenario, inputs: source.outlooks.map(o => ({ scenario: o.scenario, inputHash: o.inputHash })),
+      organisation: source.organisation, author: source.author, heights: text.heights(text.unitNames[source.units] ?? source.units, site.referenceLevel),
     },
-    summary: { intro: text.summaryIntro(site.name, primary.scenario), lines, ranges },
+    summary: { intro: text.summaryIntro(site.name, primary.scenario), findings, grid: summaryGrid(rows.filter(row => row.scenario === primary.scenario), source, text) },
+    detail: { lines: detailLines, ranges },
     charts: {
       years: result.years,
       heights: result.heights.slice(from, to + 1),

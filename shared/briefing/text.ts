@@ -3,12 +3,30 @@ import type { Language } from '../wording/chance'
 // The fixed words of a briefing document, in each language a briefing can be issued in. The page
 // and the PDF both read them from here, so the two always say the same thing.
 
+/** One chance, said as the number and the calibrated word; in Spanish also after "de" and "a". */
+export interface ChanceSaid { plain: string, afterDe: string, afterA: string }
+export interface ScenarioChance { scenario: string, chance: ChanceSaid }
+
 export interface BriefingText {
   documentKind: string
   sections: { summary: string, charts: string, table: string, basis: string, cautions: string, provenance: string, context: string }
   summaryIntro: (site: string, scenario: string) => string
   rangeSentence: (year: number, median: string, low: string, high: string, epoch: number) => string
-  chanceLine: (odds: string, chance: string, word: string, height: string, threshold: string, year: number) => string
+  /** The summary's findings, one sentence each: the key threshold, its trigger year, the spread over scenarios. */
+  keyThreshold: (scenario: string, site: string, threshold: string, height: string, chances: { chance: ChanceSaid, year: number }[]) => string
+  keyFlood: (scenario: string, threshold: string, sentence: string) => string
+  trigger: (threshold: string, tolerance: string, year: number) => string
+  noTrigger: (threshold: string, tolerance: string, lastYear: number) => string
+  spread: (count: number, year: number, low: ScenarioChance, high: ScenarioChance) => string
+  spreadSame: (count: number, year: number, chance: ChanceSaid) => string
+  gridCaption: (scenario: string, withFlood: boolean) => string
+  gridThreshold: string
+  /** For the engineer: one sentence per mean-sea-level threshold, every chosen year in it. */
+  detailTitle: string
+  detailLine: (threshold: string, height: string, chances: { chance: ChanceSaid, year: number }[]) => string
+  heights: (unit: string, datum: string) => string
+  unitNames: Record<string, string>
+  issuedBy: (organisation: string, author: string | null) => string
   /** A flood level's line starts with its name and height; the sentence comes from wording/flood. */
   floodLine: (threshold: string, height: string, sentence: string) => string
   datum: (name: string, kind: string, offset: string, epoch: number) => string
@@ -30,11 +48,11 @@ export interface BriefingText {
   method: string[]
   cautions: string[]
   highEnd: string
-  provenance: { issued: string, version: string, inputHash: string, link: string, audience: string, previous: string }
+  provenance: { issued: string, version: string, inputHash: string, link: string, audience: string, previous: string, organisation: string, author: string, signIn: (organisation: string) => string }
   draftMark: string
   illustrative: string
   page: (current: number, total: number) => string
-  notes: { unscaled: (scenario: string, components: string) => string, uncorrelated: (scenario: string) => string }
+  notes: { unscaled: (scenario: string, components: string) => string, correlated: (scenario: string) => string, uncorrelated: (scenario: string) => string }
   components: Record<string, string>
   states: Record<string, string>
   sources: Record<string, string>
@@ -45,7 +63,19 @@ const en: BriefingText = {
   sections: { summary: 'Summary', charts: 'Charts', table: 'Chances by year', basis: 'What this rests on', cautions: 'What this is not', provenance: 'About this document', context: 'Local context' },
   summaryIntro: (site, scenario) => `How high the sea may rise at ${site} under the ${scenario} scenario, counting the land's own sinking or uplift.`,
   rangeSentence: (year, median, low, high, epoch) => `Between ${epoch} and ${year} the middle estimate of the rise is ${median}; it is likely (two chances in three) to lie between ${low} and ${high}.`,
-  chanceLine: (odds, chance, word, height, threshold, year) => `${threshold} (${height}): ${odds} — ${chance}, ${word} — that the mean sea level here is higher than this by ${year}.`,
+  keyThreshold: (scenario, site, threshold, height, chances) => `Under ${scenario}, the chance that the mean sea level at ${site} rises above “${threshold}” (${height}) is ${new Intl.ListFormat('en-GB').format(chances.map(c => `${c.chance.plain} by ${c.year}`))}.`,
+  keyFlood: (scenario, threshold, sentence) => `Under ${scenario}, at the flood level “${threshold}”: ${sentence}`,
+  trigger: (threshold, tolerance, year) => `The chance of passing “${threshold}” reaches ${tolerance}, the chance this briefing plans to, in ${year}: its trigger year.`,
+  noTrigger: (threshold, tolerance, lastYear) => `The chance of passing “${threshold}” stays below ${tolerance}, the chance this briefing plans to, up to ${lastYear}, the last year computed.`,
+  spread: (count, year, low, high) => `Across the ${count} scenarios compared, that chance by ${year} runs from ${low.chance.plain} under ${low.scenario} to ${high.chance.plain} under ${high.scenario}.`,
+  spreadSame: (count, year, chance) => `Across the ${count} scenarios compared, that chance by ${year} is ${chance.plain} under each.`,
+  gridCaption: (scenario, withFlood) => `Chance under ${scenario} that the mean sea level is above each threshold by each year${withFlood ? '; for a flood level, the chance that the water reaches it in that year' : ''}.`,
+  gridThreshold: 'Threshold',
+  detailTitle: 'Each threshold in detail',
+  detailLine: (threshold, height, chances) => `“${threshold}” (${height}): the chance that the mean sea level here is above it is ${new Intl.ListFormat('en-GB').format(chances.map(c => `${c.chance.plain} by ${c.year}`))}.`,
+  heights: (unit, datum) => `Heights in ${unit} above ${datum}.`,
+  unitNames: { m: 'metres', ft: 'feet' },
+  issuedBy: (organisation, author) => author ? `Issued by ${organisation} · ${author}` : `Issued by ${organisation}`,
   floodLine: (threshold, height, sentence) => `${threshold} (flood level, ${height}): ${sentence}`,
   datum: (name, kind, offset, epoch) => `Heights are above ${name} (${kind}); mean sea level stood ${offset} above it in ${epoch}, the year every rise here is counted from. The rise already expected between ${epoch} and today is part of every chance.`,
   datumKinds: { 'mean-sea-level': 'mean sea level at an epoch', 'land-survey': 'a land survey datum', 'chart': 'a chart datum' },
@@ -63,7 +93,7 @@ const en: BriefingText = {
   landMotion: (rate, sigma, source, epoch, reference) => `Land motion: ${rate} ± ${sigma} per year (negative means the land sinks, which adds to the rise), from ${source}, reference year ${epoch}. ${reference}`,
   sampling: (samples, seed) => `Computed from ${samples} Monte Carlo samples with seed ${seed}; the same inputs and seed give the same numbers.`,
   method: [
-    'Each source of rise is taken from its latest published, reviewed release and sampled together with the others (keeping their published correlations) and with the land motion, many thousands of times.',
+    'Each source of rise is taken from its latest published, reviewed release and sampled together with the others and with the land motion, many thousands of times; how the sources were tied to one another is stated above, scenario by scenario.',
     'For a mean-sea-level threshold, the chance is the share of those samples in which the local rise of the mean sea exceeds it; the ranges are their percentiles.',
     'For a flood level, each sample\'s rise is added to the site\'s annual maximum water levels (a Gumbel distribution fitted to the local record): the chance in a year is the average over the samples of the chance that the year\'s highest water reaches the level, and the chance over an asset\'s life counts every year of that life.',
   ],
@@ -73,12 +103,13 @@ const en: BriefingText = {
     'This briefing is not engineering or legal advice. Design and permits follow local codes and standards and the judgement of licensed coastal engineers.',
   ],
   highEnd: 'Low-likelihood, high-impact outcomes from ice-sheet instability — a rise approaching 2 m by 2100 — cannot be ruled out and are worth a separate storyline for long-lived assets.',
-  provenance: { issued: 'Issued', version: 'Version', inputHash: 'Input hash', link: 'Live page', audience: 'Prepared for', previous: 'Replaces version' },
+  provenance: { issued: 'Issued', version: 'Version', inputHash: 'Input hash', link: 'Live page', audience: 'Prepared for', previous: 'Replaces version', organisation: 'Issued by', author: 'Author', signIn: organisation => `Opens only after signing in${organisation ? ` with an account of ${organisation}` : ''}.` },
   draftMark: 'DRAFT — not issued',
   illustrative: 'Illustrative demo data: the places, organisations and numbers are invented.',
   page: (current, total) => `Page ${current} of ${total}`,
   notes: {
     unscaled: (scenario, components) => `${scenario}: no published scale factors cover this site for ${components}; their global-mean rise was used as it is (factor 1.0).`,
+    correlated: scenario => `${scenario}: the sources were sampled with the correlations published for this scenario.`,
     uncorrelated: scenario => `${scenario}: no correlation between the sources has been published, so they were sampled as independent.`,
   },
   components: { 'ocean-expansion': 'Ocean warming', 'glaciers': 'Glaciers', 'greenland': 'Greenland ice sheet', 'antarctica': 'Antarctic ice sheet', 'land-water': 'Land water', 'regional-ocean': 'Regional ocean', 'other': 'Other', 'land-motion': 'Land motion' },
@@ -91,7 +122,19 @@ const es: BriefingText = {
   sections: { summary: 'Resumen', charts: 'Gráficos', table: 'Probabilidades por año', basis: 'En qué se basa', cautions: 'Lo que este informe no es', provenance: 'Sobre este documento', context: 'Contexto local' },
   summaryIntro: (site, scenario) => `Cuánto puede subir el mar en ${site} en el escenario ${scenario}, contando el hundimiento o levantamiento del propio terreno.`,
   rangeSentence: (year, median, low, high, epoch) => `Entre ${epoch} y ${year} la estimación central de la subida es ${median}; es probable (dos de cada tres posibilidades) que esté entre ${low} y ${high}.`,
-  chanceLine: (odds, chance, word, height, threshold, year) => `${threshold} (${height}): ${odds} — ${chance}, ${word} — de que el nivel medio del mar aquí esté por encima en ${year}.`,
+  keyThreshold: (scenario, site, threshold, height, chances) => `En el escenario ${scenario}, la probabilidad de que el nivel medio del mar en ${site} supere «${threshold}» (${height}) es ${new Intl.ListFormat('es').format(chances.map(c => `${c.chance.afterDe} para ${c.year}`))}.`,
+  keyFlood: (scenario, threshold, sentence) => `En el escenario ${scenario}, para la cota de inundación «${threshold}»: ${sentence}`,
+  trigger: (threshold, tolerance, year) => `La probabilidad de superar «${threshold}» alcanza el ${tolerance}, la probabilidad con la que planifica este informe, en ${year}: es su año de activación.`,
+  noTrigger: (threshold, tolerance, lastYear) => `La probabilidad de superar «${threshold}» se mantiene por debajo del ${tolerance}, la probabilidad con la que planifica este informe, hasta ${lastYear}, el último año calculado.`,
+  spread: (count, year, low, high) => `En los ${count} escenarios comparados, esa probabilidad para ${year} va ${low.chance.afterDe} con ${low.scenario} ${high.chance.afterA} con ${high.scenario}.`,
+  spreadSame: (count, year, chance) => `En los ${count} escenarios comparados, esa probabilidad para ${year} es ${chance.afterDe} en todos.`,
+  gridCaption: (scenario, withFlood) => `Probabilidad, en el escenario ${scenario}, de que el nivel medio del mar supere cada umbral en cada año${withFlood ? '; para una cota de inundación, la probabilidad de que el agua la alcance en ese año' : ''}.`,
+  gridThreshold: 'Umbral',
+  detailTitle: 'Cada umbral en detalle',
+  detailLine: (threshold, height, chances) => `«${threshold}» (${height}): la probabilidad de que el nivel medio del mar aquí lo supere es ${new Intl.ListFormat('es').format(chances.map(c => `${c.chance.afterDe} para ${c.year}`))}.`,
+  heights: (unit, datum) => `Alturas en ${unit} sobre ${datum}.`,
+  unitNames: { m: 'metros', ft: 'pies' },
+  issuedBy: (organisation, author) => author ? `Emitido por ${organisation} · ${author}` : `Emitido por ${organisation}`,
   floodLine: (threshold, height, sentence) => `${threshold} (cota de inundación, ${height}): ${sentence}`,
   datum: (name, kind, offset, epoch) => `Las alturas se miden sobre ${name} (${kind}); el nivel medio del mar estaba ${offset} por encima en ${epoch}, el año desde el que se cuenta toda subida aquí. La subida ya esperada entre ${epoch} y hoy forma parte de cada probabilidad.`,
   datumKinds: { 'mean-sea-level': 'nivel medio del mar en una época', 'land-survey': 'un datum de nivelación terrestre', 'chart': 'un cero hidrográfico' },
@@ -109,7 +152,7 @@ const es: BriefingText = {
   landMotion: (rate, sigma, source, epoch, reference) => `Movimiento del terreno: ${rate} ± ${sigma} al año (negativo significa que el terreno se hunde, lo que suma a la subida), según ${source}, año de referencia ${epoch}. ${reference}`,
   sampling: (samples, seed) => `Calculado con ${samples} muestras de Monte Carlo y semilla ${seed}; los mismos datos y semilla dan las mismas cifras.`,
   method: [
-    'Cada fuente de subida se toma de su última versión publicada y revisada y se muestrea junto con las demás (respetando sus correlaciones publicadas) y con el movimiento del terreno, muchos miles de veces.',
+    'Cada fuente de subida se toma de su última versión publicada y revisada y se muestrea junto con las demás y con el movimiento del terreno, muchos miles de veces; cómo se relacionan las fuentes entre sí se indica más arriba, escenario por escenario.',
     'Para un umbral del nivel medio, la probabilidad es la proporción de esas muestras en las que la subida local del nivel medio lo supera; los rangos son sus percentiles.',
     'Para una cota de inundación, la subida de cada muestra se suma a los niveles máximos anuales del sitio (una distribución de Gumbel ajustada al registro local): la probabilidad en un año es la media, sobre las muestras, de la probabilidad de que el agua más alta del año alcance la cota, y la probabilidad durante la vida útil cuenta cada año de esa vida.',
   ],
@@ -119,12 +162,13 @@ const es: BriefingText = {
     'Este informe no es asesoramiento de ingeniería ni jurídico. El diseño y los permisos siguen las normas y códigos locales y el criterio de ingenieros costeros colegiados.',
   ],
   highEnd: 'No pueden descartarse resultados poco probables y de gran impacto por inestabilidad de los mantos de hielo — una subida cercana a 2 m en 2100 —, que merecen un escenario aparte para infraestructuras de larga vida.',
-  provenance: { issued: 'Emitido', version: 'Versión', inputHash: 'Huella de los datos', link: 'Página en línea', audience: 'Preparado para', previous: 'Sustituye a la versión' },
+  provenance: { issued: 'Emitido', version: 'Versión', inputHash: 'Huella de los datos', link: 'Página en línea', audience: 'Preparado para', previous: 'Sustituye a la versión', organisation: 'Emitido por', author: 'Autoría', signIn: organisation => `Solo se abre tras iniciar sesión${organisation ? ` con una cuenta de ${organisation}` : ''}.` },
   draftMark: 'BORRADOR — no emitido',
   illustrative: 'Datos ilustrativos de demostración: los lugares, organizaciones y cifras son inventados.',
   page: (current, total) => `Página ${current} de ${total}`,
   notes: {
     unscaled: (scenario, components) => `${scenario}: ningún factor de escala publicado cubre este sitio para ${components}; se usó su subida media global tal cual (factor 1,0).`,
+    correlated: scenario => `${scenario}: las fuentes se muestrearon con las correlaciones publicadas para este escenario.`,
     uncorrelated: scenario => `${scenario}: no se ha publicado ninguna correlación entre las fuentes, así que se muestrearon como independientes.`,
   },
   components: { 'ocean-expansion': 'Calentamiento del océano', 'glaciers': 'Glaciares', 'greenland': 'Manto de hielo de Groenlandia', 'antarctica': 'Manto de hielo antártico', 'land-water': 'Agua terrestre', 'regional-ocean': 'Océano regional', 'other': 'Otras', 'land-motion': 'Movimiento del terreno' },

@@ -10,7 +10,9 @@ const text = (what: string, max: number) => textField({ error: `Enter the ${what
   .min(1, { error: `Enter the ${what}.` }).max(max, { error: `Use at most ${max} characters.` })
 
 export const componentField = z.enum(COMPONENTS, { error: `Choose one of: ${COMPONENTS.join(', ')}.` })
+// A blank scenario is asked for, not explained: the pattern's rule is for one that was typed.
 export const scenarioField = z.string({ error: 'Enter a scenario, like SSP2-4.5.' }).trim()
+  .min(1, { error: 'Enter a scenario, like SSP2-4.5.', abort: true })
   .regex(SCENARIO_PATTERN, { error: 'Use 2–40 letters, digits, spaces or . + - _ (for example SSP2-4.5 or high-end-ice).' })
 
 const numberList = z.array(z.number({ error: 'Enter a number (not blank, NaN or infinity).' }), { error: 'Enter a list of numbers.' })

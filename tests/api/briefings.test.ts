@@ -42,10 +42,17 @@ describe('briefings', () => {
     expect(body).toMatchObject({ state: 'draft', version: 1, canEdit: true, shared: false })
     const doc = body.document
     expect(doc.meta).toMatchObject({ siteName: 'Kelwick', scenario: 'SSP2-4.5', illustrative: true, issuedAt: null })
-    // Two years of the mean-sea-level threshold; two years, the life and the design-life level of the flood level.
-    expect(doc.summary.lines).toHaveLength(6)
-    expect(doc.summary.lines[0]).toMatch(/^High-tide flooding of Quay Street \(0\.50 m\): .+ — (\d+|less than 1|more than 99)\u00A0%, [a-z ]+ — that the mean sea level here is higher than this by 2050\.$/)
-    const wall = doc.summary.lines.filter((line: string) => /^Sea wall crest \(flood level/.test(line))
+    expect(doc.meta).toMatchObject({ organisation: 'Caldwyn Coast Regional Council', author: 'Noor Halloran' })
+    expect(doc.meta.heights).toMatch(/^Heights in metres above .+\.$/)
+    // The findings: the key (mean-sea-level) threshold by 2100, its trigger year, the spread over the two scenarios.
+    expect(doc.summary.findings).toHaveLength(3)
+    expect(doc.summary.findings[0]).toMatch(/^Under SSP2-4\.5, the chance that the mean sea level at Kelwick rises above “High-tide flooding of Quay Street” \(0\.50 m\) is .+ \(.+\) by 2050 and .+ \(.+\) by 2100\.$/)
+    expect(doc.summary.findings[2]).toMatch(/^Across the 2 scenarios compared, that chance by 2100 /)
+    expect(doc.summary.grid.rows.map((r: { threshold: string }) => r.threshold)).toEqual(['High-tide flooding of Quay Street', 'Sea wall crest'])
+    // For the engineer: one line for the mean-sea-level threshold; two years, the life and the design-life level of the flood level.
+    expect(doc.detail.lines).toHaveLength(5)
+    expect(doc.detail.lines[0]).toMatch(/^“High-tide flooding of Quay Street” \(0\.50 m\): the chance that the mean sea level here is above it is (\d+|less than 1|more than 99)\u00A0% \([a-z ]+\) by 2050 and .+ by 2100\.$/)
+    const wall = doc.detail.lines.filter((line: string) => /^Sea wall crest \(flood level/.test(line))
     expect(wall).toHaveLength(4)
     expect(wall[0]).toMatch(/^Sea wall crest \(flood level, 2\.30 m\): In 2050 the water is expected to reach 2\.30 m above .+: a .+ chance in any one year\.$/)
     expect(wall[2]).toMatch(/^Sea wall crest \(flood level, 2\.30 m\): Built in 2031 for 50 years \(2031–2080\): a .+ chance \(.+\) that the water reaches the level at least once in that time\.$/)

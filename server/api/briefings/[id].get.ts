@@ -1,5 +1,5 @@
 import { IdParams } from '#shared/schemas/users'
-import { briefingDocument, loadBriefing } from '~~/server/services/briefings'
+import { briefingDocument, liveLink, loadBriefing } from '~~/server/services/briefings'
 
 // A briefing and its document (live for drafts, frozen once issued). Only planners see the link.
 export default defineEventHandler(async (event) => {
@@ -10,5 +10,6 @@ export default defineEventHandler(async (event) => {
   const { document: _frozen, shareToken, ...briefing } = row
   const canEdit = user.role === 'planner'
   // Links are built on the configured address (APP_URL), never on the request's Host header.
-  return { ...briefing, shareToken: canEdit ? shareToken : null, shared: shareToken !== null, canEdit, document, appUrl: appUrl() }
+  const live = liveLink(row, user)
+  return { ...briefing, shareToken: canEdit ? shareToken : null, shared: shareToken !== null, canEdit, document, appUrl: appUrl(), live: { url: `${appUrl()}${live.path}`, signIn: live.signIn } }
 })

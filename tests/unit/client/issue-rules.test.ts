@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest'
+import type { z } from 'zod'
 import { SiteSchema } from '../../../shared/schemas/sites'
-import { CreateReleaseSchema } from '../../../shared/schemas/releases'
+import { CreateCorrelationSetSchema, CreateReleaseSchema, CreateScaleFactorGridSchema } from '../../../shared/schemas/releases'
+import { UpdateBriefingSchema } from '../../../shared/schemas/briefings'
 import { MAX_TEXT } from '../../../shared/releases/limits'
 import { issuePath, issueRule, valueAt } from '../../../utils/issueRules'
 
@@ -11,7 +13,7 @@ const site = {
 }
 
 /** The rule the client recognises in each issue the shared schema gives for this body, by field. */
-function rulesFor(schema: typeof SiteSchema | typeof CreateReleaseSchema, body: unknown) {
+function rulesFor(schema: z.ZodType, body: unknown) {
   const parsed = schema.safeParse(body)
   if (parsed.success) throw new Error('expected issues')
   return Object.fromEntries(parsed.error.issues.map((issue) => {
@@ -48,6 +50,18 @@ describe('the schemas\' rules, recognised from their messages', () => {
       'method': { rule: 'required' },
     })
     expect(issueRule('must be non-decreasing across levels: 0.2 (level 0.5) follows 0.3 (level 0.17)', [0.3, 0.2])).toBeNull()
+  })
+
+  it('recognises the correlation-set, scale-factor-grid and briefing forms\' blanks and empty choices', () => {
+    const provenance = { method: '', citation: 'c', licence: 'CC BY 4.0' }
+    expect(rulesFor(CreateCorrelationSetSchema, { scenario: '', title: '', components: ['glaciers', 'greenland'], matrix: [[1, 0], [0, 1]], ...provenance })).toEqual({
+      scenario: { rule: 'required' }, title: { rule: 'required' }, method: { rule: 'required' },
+    })
+    expect(rulesFor(CreateScaleFactorGridSchema, { component: '', title: 'Grid', csv: 'latitude,0\n0,1', ...provenance })).toEqual({
+      component: { rule: 'choose' }, method: { rule: 'required' },
+    })
+    const briefing = { title: 'Quay', audience: '', localContext: '', language: 'en', units: 'm', thresholdIds: [], years: [], comparisonOutlookIds: [] }
+    expect(rulesFor(UpdateBriefingSchema, briefing)).toEqual({ thresholdIds: { rule: 'chooseSome' }, years: { rule: 'chooseSome' } })
   })
 
   it('finds the value an issue names, whatever way the field is written', () => {

@@ -1,10 +1,10 @@
 import { z } from 'zod'
-import { briefingDocument, sharedBriefing } from '~~/server/services/briefings'
+import { briefingDocument, liveLink, sharedBriefing } from '~~/server/services/briefings'
 
 const Params = z.object({ token: z.string().regex(/^[\w-]{20,64}$/) })
 
 export default defineEventHandler(async (event) => {
   const { token } = readValidParams(event, Params)
   const briefing = await sharedBriefing(token)
-  return sendBriefingPdf(event, await briefingDocument(briefing), `/shared/${token}`)
+  return sendBriefingPdf(event, await briefingDocument(briefing), liveLink(briefing, null))
 })
