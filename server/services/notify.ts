@@ -4,7 +4,7 @@ import type { OutlookResult } from '#shared/engine'
 import { formatHeight } from '#shared/units'
 import { formatChance, type Language } from '#shared/wording/chance'
 import { BRIEFING_TEXT } from '#shared/briefing/text'
-import { briefingIssuedMail, whatChangedMail, type ChangeRow, type RangeRow, type ReleaseChange } from '../mail/templates'
+import { briefingIssuedMail, whatChangedMail, type ChangeRow, type HorizonChange, type RangeRow, type ReleaseChange } from '../mail/templates'
 import { unsubscribeHeaders, unsubscribeUrl } from './watches'
 
 // The e-mails watchers get: what changed at a site after a recomputation (see recompute.ts), with
@@ -43,6 +43,7 @@ function describe(comparisons: Comparison[], labels: Map<string, string>, langua
   const chances: ChangeRow[] = []
   const ranges: RangeRow[] = []
   const releases: ReleaseChange[] = []
+  const horizons: HorizonChange[] = []
   for (const { scenario, before, after } of comparisons) {
     const b = before.result as unknown as OutlookResult
     const a = after.result as unknown as OutlookResult
@@ -70,6 +71,7 @@ function describe(comparisons: Comparison[], labels: Map<string, string>, langua
         })
       }
     }
+    if (a.years.at(-1) !== b.years.at(-1)) horizons.push({ scenario, before: b.years.at(-1)!, after: a.years.at(-1)! })
     const year = a.years.includes(2100) ? 2100 : a.years.at(-1)!
     const range = (r: OutlookResult) => {
       const t = r.years.indexOf(year)
@@ -82,7 +84,7 @@ function describe(comparisons: Comparison[], labels: Map<string, string>, langua
       if (was?.releaseId !== ref.releaseId) releases.push({ component: `${names[ref.component] ?? ref.component} (${scenario})`, from: was ? `v${was.version}` : '—', to: `v${ref.version}`, citation: ref.citation })
     }
   }
-  return { chances, ranges, releases }
+  return { chances, ranges, releases, horizons }
 }
 
 async function latestBriefingUrl(siteId: string) {
