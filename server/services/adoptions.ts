@@ -23,7 +23,7 @@ export async function publishedSeries(scenario: string) {
     releaseId: releases.id, version: releases.version, anchorYears: releases.anchorYears,
   }).from(releases).innerJoin(series, eq(series.id, releases.seriesId)).innerJoin(organisations, eq(organisations.id, series.organisationId))
     .where(and(eq(series.scenario, scenario), eq(releases.state, 'published')))
-    .orderBy(sql`(select min(first.published_at) from releases first where first.series_id = ${series.id})`, asc(series.createdAt), asc(series.id))
+    .orderBy(sql`(select min(earliest.published_at) from releases earliest where earliest.series_id = ${series.id})`, asc(series.createdAt), asc(series.id))
 }
 export type PublishedSeries = Awaited<ReturnType<typeof publishedSeries>>[number]
 
@@ -35,7 +35,7 @@ export async function publishedCorrelationSets(scenario: string) {
     version: correlationSets.version, components: correlationSets.components, madeForSeries: correlationSets.madeForSeries,
   }).from(correlationSets).innerJoin(organisations, eq(organisations.id, correlationSets.organisationId))
     .where(and(eq(correlationSets.scenario, scenario), eq(correlationSets.state, 'published')))
-    .orderBy(sql`(select min(first.published_at) from correlation_sets first where first.organisation_id = ${correlationSets.organisationId} and first.scenario = ${correlationSets.scenario})`, asc(correlationSets.organisationId))
+    .orderBy(sql`(select min(earliest.published_at) from correlation_sets earliest where earliest.organisation_id = ${correlationSets.organisationId} and earliest.scenario = ${correlationSets.scenario})`, asc(correlationSets.organisationId))
 }
 
 /** What an organisation adopted for a scenario: component → series id, and the correlation choice (undefined: none made). */

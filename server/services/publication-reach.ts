@@ -1,5 +1,5 @@
 import { and, desc, eq, inArray, isNotNull, ne, sql } from 'drizzle-orm'
-import { outlooks, releases, series, watches } from '~~/server/db/schema'
+import { outlooks, releases, series, seriesAdoptions, sites, watches } from '~~/server/db/schema'
 import { minOf } from '#shared/engine/arrays'
 import type { CurrentUser } from '../utils/auth'
 import { reachedSites } from './recompute'
@@ -31,10 +31,10 @@ export async function releaseReach(viewer: CurrentUser, id: string): Promise<Pub
     throw createError({ statusCode: 409, message: 'Only a draft or a release in review is still to be published; this one is not.' })
   }
   const affected = reachedSites(db, { scenario: release!.scenario, seriesId: release!.seriesId })
-  const [sites] = await db.select({ n: sql<number>`count(*)::int` }).from(affected.as('affected'))
+  const [siteCount] = await db.select({ n: sql<number>`count(*)::int` }).from(affected.as('affected'))
   const [watchers] = await db.select({ n: sql<number>`count(*)::int` }).from(watches)
     .where(and(eq(watches.state, 'active'), inArray(watches.siteId, affected)))
-  return { sites: sites?.n ?? 0, watchers: watchers?.n ?? 0, anchorYears: await anchorYearChange(id, release!.seriesId, release!.anchorYears) }
+  return { sites: siteCount?.n ?? 0, watchers: watchers?.n ?? 0, anchorYears: await anchorYearChange(id, release!.seriesId, release!.anchorYears) }
 }
 
 /** Compares a version's anchor years with the version published before it in the same series. */
@@ -49,10 +49,12 @@ async function anchorYearChange(id: string, seriesId: string, anchorYears: numbe
   const after = anchorYears.at(-1)!
   const horizon = before === after ? null : { before, after }
   if (!dropped.length) return { dropped, horizon, sitesRelying: 0 }
-  // The latest finished outlook of each site that used this series; it relies on a dropped year when
-  // its output years reach it.
+  // The latest finished outlook of each site (of an organisation that adopted the series) that used
+  // this series; it relies on a dropped year when its output years reach it.
+  const adopters = db.select({ id: seriesAdoptions.organisationId }).from(seriesAdoptions).where(eq(seriesAdoptions.seriesId, seriesId))
   const used = await db.select({ siteId: outlooks.siteId, lastYear: sql<number>`(${outlooks.input}->'years'->>-1)::int` }).from(outlooks)
-    .where(and(eq(outlooks.state, 'done'), sql`${outlooks.releaseRefs} @> ${JSON.stringify([{ seriesId }])}::jsonb`))
+    .innerJoin(sites, eq(sites.id, outlooks.siteId))
+    .where(and(eq(outlooks.state, 'done'), inArray(sites.organisationId, adopters), sql`${outlooks.releaseRefs} @> ${JSON.stringify([{ seriesId }])}::jsonb`))
     .orderBy(desc(outlooks.finishedAt))
   const latest = new Map<string, number>()
   for (const row of used) if (!latest.has(row.siteId)) latest.set(row.siteId, Number(row.lastYear))
