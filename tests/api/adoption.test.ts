@@ -126,8 +126,9 @@ describe('adopted science per organisation', () => {
     const read = (await planner.get(`/api/outlooks/${before.id}`)).body
     expect(read.inputHash).toBe(before.inputHash)
     expect(read.result).toEqual(before.result)
-    const audit = (await operator.get('/api/admin/audit?limit=50')).body as Array<{ action: string, organisationId: string, detail: { series?: Record<string, { to: string }> } }>
-    expect(audit.find(line => line.action === 'science.adopted' && line.organisationId === portId && line.detail.series?.glaciers)?.detail.series?.glaciers.to).toBe(storylineGlaciers)
+    const audit = (await operator.get('/api/admin/audit?limit=50')).body as Array<{ action: string, targetId: string, actorName: string | null, detail: { series?: Record<string, { from: string, to: string }> } }>
+    expect(audit.find(line => line.action === 'science.adopted' && line.targetId === portId && line.detail.series?.glaciers))
+      .toMatchObject({ actorName: 'Tomas Greer', detail: { scenario: SCENARIO, series: { glaciers: { from: originalGlaciers, to: storylineGlaciers } } } })
   })
 
   it('warns before a version drops an anchor year, recomputes only the adopting organisation, and mails the shortened horizon', async () => {
