@@ -47,7 +47,7 @@ async function publish(body: Record<string, unknown>) {
 /** Waits for the recomputation queued by a publication whose cause names `version`, and for it to finish. */
 function recomputationFor(match: RegExp) {
   return vi.waitFor(async () => {
-    const row = ((await operator.get('/api/admin/recomputations')).body.recomputations as Recomputation[]).find(r => match.test(r.cause.en))
+    const row = ((await operator.get('/api/admin/recomputations')).body.recomputations as Recomputation[]).find(r => match.test(r.cause.en ?? ''))
     if (!row?.finishedAt) throw new Error('not finished yet')
     return row
   }, { timeout: 30_000, interval: 100 })
