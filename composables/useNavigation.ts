@@ -11,6 +11,8 @@ const ITEMS: NavItem[] = [
   // Readers see the issued briefings of their organisation; planners also draft them.
   { to: '/briefings', labelKey: 'briefings.nav', roles: ['planner', 'reader'] },
   { to: '/library', labelKey: 'nav.library' },
+  // Which published science the organisation's outlooks use; planners and admins change it.
+  { to: '/adoption', labelKey: 'adoption.nav', roles: ['planner', 'reader', 'admin', 'operator'] },
   // Anyone signed in may watch sites (their own address); the list lives on this page.
   { to: '/watches', labelKey: 'watches.nav', signedIn: true },
   // An organisation's admins keep its people, outbox and audit; the operator keeps every organisation's.

@@ -25,7 +25,9 @@ export interface OutlookView {
     /** How the engine's heights (above mean sea level at the epoch) read above the datum; absent on outlooks stored before datums. */
     datum?: { name: string, kind: 'mean-sea-level' | 'land-survey' | 'chart', offset: number, referenceEpoch: number }
   }
-  newerScience: { component: string, usedVersion: number, latestVersion: number | null, latestReleaseId: string | null }[]
+  newerScience: { kind: 'new-version' | 'withdrawn' | 'adopted-other', component: string, usedVersion: number, latestVersion: number | null, latestReleaseId: string | null, seriesTitle: string | null }[]
+  /** Published series of this scenario the organisation has not adopted: offered, not used. */
+  offeredScience: { component: string, seriesId: string, title: string, organisationName: string, version: number }[]
   durationMs: number | null
   createdAt: string
   finishedAt: string | null

@@ -45,6 +45,7 @@ export function useOutlookText() {
       if (typeof note === 'string') return note
       if (note.kind === 'unscaled') return t('outlook.notes.unscaled', { components: note.components.map(component).join(', ') })
       if (note.kind === 'uncorrelated') return t('outlook.notes.uncorrelated', { scenario: note.scenario })
+      if (note.kind === 'correlation-other-series') return t('outlook.notes.correlationOtherSeries', { components: note.components.map(component).join(', ') })
       return t('outlook.notes.lifeBeyondReleases', { threshold: note.threshold, year: note.lastYear })
     },
     date: (value: string | Date | null | undefined) => dateTime(value) || '—',

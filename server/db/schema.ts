@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm'
-import { boolean, customType, doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, unique, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { boolean, customType, doublePrecision, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, unique, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { ORGANISATION_KINDS, ROLES } from '../../shared/types/roles'
 import { AMOUNT_UNITS, DATUM_KINDS, LAND_MOTION_SOURCES, OUTLOOK_STATES, RELEASE_FORMS, REVIEW_STATES, THRESHOLD_KINDS } from '../../shared/types/science'
 import type { StoredOutlookNote } from '../../shared/types/outlook-notes'
@@ -132,6 +132,12 @@ export const correlationSets = pgTable('correlation_sets', {
   title: text('title').notNull(),
   components: jsonb('components').$type<string[]>().notNull(),
   matrix: jsonb('matrix').$type<number[][]>().notNull(),
+  /**
+   * The series (of releases) each component's correlations were estimated for: component → series id.
+   * An outlook whose adopted series differ is warned (a note), not refused. A component absent here
+   * had no published series when the set was drafted and is tied to none.
+   */
+  madeForSeries: jsonb('made_for_series').$type<Record<string, string>>().notNull().default({}),
   ...reviewed(),
 }, table => [
   unique('correlation_sets_version').on(table.organisationId, table.scenario, table.version),
@@ -151,6 +157,39 @@ export const scaleFactorGrids = pgTable('scale_factor_grids', {
   unique('scale_factor_grids_version').on(table.organisationId, table.component, table.version),
   uniqueIndex('scale_factor_grids_one_unpublished').on(table.organisationId, table.component).where(UNPUBLISHED),
 ])
+
+// ---- The science an organisation adopted for its outlooks ----
+
+/**
+ * Which series of each component an organisation's outlooks use, per scenario. New versions in an
+ * adopted series flow in; another series is offered, never applied, until someone adopts it.
+ * `adoptedBy` is null when the system adopted it (first outlook of the scenario, or the backfill).
+ */
+export const seriesAdoptions = pgTable('series_adoptions', {
+  organisationId: uuid('organisation_id').notNull().references(() => organisations.id),
+  scenario: text('scenario').notNull(),
+  component: text('component').notNull(),
+  seriesId: uuid('series_id').notNull().references(() => series.id),
+  adoptedBy: uuid('adopted_by').references(() => users.id),
+  adoptedAt: timestamp('adopted_at', { withTimezone: true }).notNull().defaultNow(),
+}, table => [
+  primaryKey({ name: 'series_adoptions_pk', columns: [table.organisationId, table.scenario, table.component] }),
+  // A new version or a withdrawal in a series reaches the organisations that adopted it.
+  index('series_adoptions_series_idx').on(table.seriesId),
+])
+
+/**
+ * Whose correlation sets an organisation's outlooks use for a scenario: the latest published version
+ * from `sourceOrganisationId` (a correlation set's series is its organisation and scenario), or none
+ * (null: the components are treated as independent, and the outlook says so).
+ */
+export const correlationAdoptions = pgTable('correlation_adoptions', {
+  organisationId: uuid('organisation_id').notNull().references(() => organisations.id),
+  scenario: text('scenario').notNull(),
+  sourceOrganisationId: uuid('source_organisation_id').references(() => organisations.id),
+  adoptedBy: uuid('adopted_by').references(() => users.id),
+  adoptedAt: timestamp('adopted_at', { withTimezone: true }).notNull().defaultNow(),
+}, table => [primaryKey({ name: 'correlation_adoptions_pk', columns: [table.organisationId, table.scenario] })])
 
 // ---- Coastal sites and their outlooks ----
 

@@ -48,6 +48,8 @@ export function watchConfirmMail(language: Language, site: string, confirmUrl: s
 export interface ChangeRow { threshold: string, year: number, before: string, after: string }
 export interface RangeRow { scenario: string, year: number, before: string, after: string }
 export interface ReleaseChange { component: string, from: string, to: string, citation: string }
+/** An outlook's last output year before and after: a release's last anchor year bounds it. */
+export interface HorizonChange { scenario: string, before: number, after: number }
 
 export interface WhatChanged {
   language: Language
@@ -56,14 +58,22 @@ export interface WhatChanged {
   chances: ChangeRow[]
   ranges: RangeRow[]
   releases: ReleaseChange[]
+  horizons?: HorizonChange[]
   briefingUrl: string | null
   unsubscribeUrl: string
 }
 
 export function whatChangedMail(m: WhatChanged): MailBody {
   const es = m.language === 'es'
+  const horizons = (m.horizons ?? []).map(h => h.after < h.before
+    ? (es
+        ? `El horizonte se acortó (${h.scenario}): la perspectiva llegaba hasta ${h.before} y ahora solo llega hasta ${h.after}, porque la nueva versión ya no da años posteriores. No hay cifras para los años después de ${h.after}.`
+        : `The horizon was shortened (${h.scenario}): the outlook reached ${h.before} and now reaches only ${h.after}, because the new release no longer gives later years. There are no numbers for years after ${h.after}.`)
+    : (es
+        ? `El horizonte se amplió (${h.scenario}): la perspectiva llegaba hasta ${h.before} y ahora llega hasta ${h.after}.`
+        : `The horizon was extended (${h.scenario}): the outlook reached ${h.before} and now reaches ${h.after}.`))
   const blocks: Block[] = [
-    { paragraphs: [m.cause, es ? 'Estas son las cifras antes y después del cambio.' : 'Here are the numbers before and after the change.'] },
+    { paragraphs: [m.cause, ...horizons, es ? 'Estas son las cifras antes y después del cambio.' : 'Here are the numbers before and after the change.'] },
     { heading: es ? 'La probabilidad para cada umbral' : 'The chance for each threshold', rows: [[es ? 'Umbral' : 'Threshold', es ? 'Año' : 'Year', es ? 'Antes' : 'Before', es ? 'Después' : 'After'], ...m.chances.map(r => [r.threshold, String(r.year), r.before, r.after])] },
     { heading: es ? 'Subida: estimación central (rango probable)' : 'Rise: middle estimate (likely range)', rows: [[es ? 'Escenario' : 'Scenario', es ? 'Año' : 'Year', es ? 'Antes' : 'Before', es ? 'Después' : 'After'], ...m.ranges.map(r => [r.scenario, String(r.year), r.before, r.after])] },
   ]

@@ -14,8 +14,8 @@ export const MAX_JOB_ATTEMPTS = 5
 const HANDLERS: Record<JobKind, (payload: Record<string, unknown>) => Promise<JobOutcome>> = {
   'science-change': async (payload) => {
     const db = await useDb()
-    const { scenario, cause, requestedBy } = payload as { scenario: string | null, cause: Cause, requestedBy?: string }
-    await db.transaction(tx => startRecomputation(tx, { scenario, cause, requestedBy: requestedBy ?? null }))
+    const { scenario, cause, requestedBy, seriesId, correlationSource } = payload as { scenario: string | null, cause: Cause, requestedBy?: string, seriesId?: string, correlationSource?: string }
+    await db.transaction(tx => startRecomputation(tx, { scenario, cause, requestedBy: requestedBy ?? null, seriesId, correlationSource }))
     return { state: 'done' }
   },
   'recompute-site': payload => recomputeSite(payload as unknown as RecomputeSitePayload),

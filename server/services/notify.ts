@@ -4,7 +4,7 @@ import type { OutlookResult } from '#shared/engine'
 import { formatHeight } from '#shared/units'
 import { formatChance, type Language } from '#shared/wording/chance'
 import { BRIEFING_TEXT } from '#shared/briefing/text'
-import { briefingIssuedMail, whatChangedMail, type ChangeRow, type RangeRow, type ReleaseChange } from '../mail/templates'
+import { briefingIssuedMail, whatChangedMail, type ChangeRow, type HorizonChange, type RangeRow, type ReleaseChange } from '../mail/templates'
 import { unsubscribeHeaders, unsubscribeUrl } from './watches'
 
 // The e-mails watchers get: what changed at a site after a recomputation (see recompute.ts), with
@@ -64,6 +64,7 @@ function describe(allComparisons: Comparison[], labels: Map<string, string>, lan
   const chances: ChangeRow[] = []
   const ranges: RangeRow[] = []
   const releases: ReleaseChange[] = []
+  const horizons: HorizonChange[] = []
   for (const { scenario, before, after } of comparisons) {
     const b = before.result as unknown as OutlookResult
     const a = after.result as unknown as OutlookResult
@@ -92,6 +93,7 @@ function describe(allComparisons: Comparison[], labels: Map<string, string>, lan
         })
       }
     }
+    if (a.years.at(-1) !== b.years.at(-1)) horizons.push({ scenario, before: b.years.at(-1)!, after: a.years.at(-1)! })
     const year = scoped ? scoped.years.findLast(y => a.years.includes(y)) : a.years.includes(2100) ? 2100 : a.years.at(-1)!
     if (year === undefined) continue
     const range = (r: OutlookResult) => {
@@ -105,7 +107,7 @@ function describe(allComparisons: Comparison[], labels: Map<string, string>, lan
       if (was?.releaseId !== ref.releaseId) releases.push({ component: `${names[ref.component] ?? ref.component} (${scenario})`, from: was ? `v${was.version}` : '—', to: `v${ref.version}`, citation: ref.citation })
     }
   }
-  return { chances, ranges, releases, shown: comparisons.length }
+  return { chances, ranges, releases, horizons, shown: comparisons.length }
 }
 
 async function latestBriefingUrl(siteId: string) {

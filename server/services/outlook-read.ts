@@ -71,11 +71,13 @@ export async function getOutlookBody(user: CurrentUser, id: string): Promise<[Bu
   const outlook = await loadOutlook(id)
   const site = outlook && await siteOfOutlook(outlook.siteId)
   if (!outlook || !site || site.organisationId !== user.organisationId) throw createError({ statusCode: 404, message: 'No such outlook.' })
+  const science = await newerScience(site.organisationId, outlook.scenario, outlook.releaseRefs)
   const live = JSON.stringify({
     siteName: site.name,
     referenceLevel: site.referenceLevel,
     progress: outlook.progress,
-    newerScience: await newerScience(outlook.scenario, outlook.releaseRefs),
+    newerScience: science.newer,
+    offeredScience: science.offered,
   })
   // The stored object's closing brace was left off, so the live fields continue it (no key is in both).
   return [outlook.head, Buffer.from(`,${live.slice(1)}`)]

@@ -8,7 +8,8 @@ import type { OutlookRequest } from '#shared/schemas/sites'
 import type { OutlookNote } from '#shared/types/outlook-notes'
 import type { DatumKind } from '#shared/types/science'
 import type { CurrentUser } from '../utils/auth'
-import { correlationFor, latestReleaseVersions, scaleFactorsAt, scienceFor } from './science-inputs'
+import { correlationFor, scaleFactorsAt, scienceFor } from './science-inputs'
+import { adoptedForReading } from './adoptions'
 import { awaitOutlook, kickOutlooks } from './outlook-jobs'
 import { loadSite } from './sites'
 
@@ -46,9 +47,12 @@ function fitUncertainty(site: Site) {
 
 /** Everything that goes into one run, with the provenance stored beside it. */
 export async function assembleOutlook(site: Site, request: OutlookRequest) {
-  const science = await scienceFor(request.scenario)
+  const science = await scienceFor(site.organisationId, request.scenario)
   const components = science.map(s => s.component)
-  const [{ set, matrix }, scales] = await Promise.all([correlationFor(request.scenario, components), scaleFactorsAt(site.latitude, site.longitude)])
+  const adoptedSeries = Object.fromEntries(science.map(s => [s.component, s.seriesId]))
+  const [{ set, matrix, otherSeries }, scales] = await Promise.all([
+    correlationFor(site.organisationId, request.scenario, components, adoptedSeries), scaleFactorsAt(site.latitude, site.longitude),
+  ])
   const horizon = minOf(science.map(s => (s.release.anchorYears as number[]).at(-1)!))
   const baselineYear = site.referenceEpoch
   const years = outlookYears(baselineYear, horizon)
@@ -56,6 +60,7 @@ export async function assembleOutlook(site: Site, request: OutlookRequest) {
   const unscaled = components.filter(c => !scales.get(c)!.gridId)
   if (unscaled.length) notes.push({ kind: 'unscaled', components: unscaled })
   if (!set) notes.push({ kind: 'uncorrelated', scenario: request.scenario })
+  if (otherSeries.length) notes.push({ kind: 'correlation-other-series', components: otherSeries })
   // Heights above the datum → metres above mean sea level at the epoch, where rise is counted from.
   const aboveEpochMean = (height: number) => height - site.datumOffset
   const hasStatistics = site.gumbelLocation !== null && site.gumbelScale !== null
@@ -138,16 +143,37 @@ export async function queueOutlook(site: Site, request: Pick<OutlookRequest, 'sc
   return { id: row.id, cached: false }
 }
 
-export interface NewerScience { component: string, usedVersion: number, latestVersion: number | null, latestReleaseId: string | null }
+/**
+ * Since an outlook was computed: `new-version` a newer version in the series it used (still adopted),
+ * `withdrawn` that series has no published version now, `adopted-other` the organisation has since
+ * adopted another series for the component.
+ */
+export interface NewerScience {
+  kind: 'new-version' | 'withdrawn' | 'adopted-other'
+  component: string
+  usedVersion: number
+  latestVersion: number | null
+  latestReleaseId: string | null
+  seriesTitle: string | null
+}
 
-/** Which releases an outlook used have since been superseded or withdrawn, and by what. */
-export async function newerScience(scenario: string, refs: OutlookReleaseRef[]): Promise<NewerScience[]> {
-  const latest = await latestReleaseVersions(scenario)
-  return refs.flatMap((ref): NewerScience[] => {
-    const now = latest.get(ref.component)
-    if (!now) return [{ component: ref.component, usedVersion: ref.version, latestVersion: null, latestReleaseId: null }]
-    return now.id === ref.releaseId ? [] : [{ component: ref.component, usedVersion: ref.version, latestVersion: now.version, latestReleaseId: now.id }]
+/** A published series the organisation has not adopted: offered, never applied by itself. */
+export interface OfferedScience { component: string, seriesId: string, title: string, organisationName: string, version: number }
+
+/** What changed in the science an outlook used, and which other published series are on offer. */
+export async function newerScience(organisationId: string, scenario: string, refs: OutlookReleaseRef[]): Promise<{ newer: NewerScience[], offered: OfferedScience[] }> {
+  const { adopted, published } = await adoptedForReading(`${organisationId}\n${scenario}`)
+  const newer = refs.flatMap((ref): NewerScience[] => {
+    const seriesId = adopted[ref.component] ?? ref.seriesId
+    const now = published.find(row => row.seriesId === seriesId)
+    const base = { component: ref.component, usedVersion: ref.version, latestVersion: now?.version ?? null, latestReleaseId: now?.releaseId ?? null, seriesTitle: now?.title ?? null }
+    if (seriesId !== ref.seriesId) return [{ kind: 'adopted-other', ...base }]
+    if (!now) return [{ kind: 'withdrawn', ...base }]
+    return now.releaseId === ref.releaseId ? [] : [{ kind: 'new-version', ...base }]
   })
+  const offered = published.filter(row => refs.some(ref => ref.component === row.component) && row.seriesId !== (adopted[row.component] ?? refs.find(ref => ref.component === row.component)!.seriesId))
+    .map(row => ({ component: row.component, seriesId: row.seriesId, title: row.title, organisationName: row.organisationName, version: row.version }))
+  return { newer, offered }
 }
 
 export async function listSiteOutlooks(siteId: string) {

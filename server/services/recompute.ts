@@ -1,5 +1,5 @@
 import { and, eq, inArray } from 'drizzle-orm'
-import { jobs, outlooks, recomputations } from '~~/server/db/schema'
+import { correlationAdoptions, jobs, outlooks, recomputations, seriesAdoptions, sites } from '~~/server/db/schema'
 import type { Database } from '~~/server/db/client'
 import { latestOutlooks, mailWhatChanged, type Cause, type Comparison } from './notify'
 import { queueOutlook } from './outlooks'
@@ -27,11 +27,31 @@ export interface RecomputeSitePayload {
 const FIRST_WAIT_MS = 500
 const MAX_WAIT_MS = 5000
 
-/** Queues one recompute-site job per site that has a finished outlook of the scenario (null: any). */
-export async function startRecomputation(tx: Tx, options: { scenario: string | null, cause: Cause, requestedBy: string | null }) {
-  const siteIds = (await tx.selectDistinct({ siteId: outlooks.siteId }).from(outlooks)
-    .where(options.scenario ? and(eq(outlooks.state, 'done'), eq(outlooks.scenario, options.scenario)) : eq(outlooks.state, 'done')))
-    .map(row => row.siteId)
+export interface RecomputationScope {
+  scenario: string | null
+  /** Only sites of organisations that adopted this series of releases (a new version or withdrawal there). */
+  seriesId?: string
+  /** Only sites of organisations that adopted this organisation's correlation sets for the scenario. */
+  correlationSource?: string
+}
+
+/** The sites with a finished outlook of the scenario (null: any) that a change in the science reaches. */
+export function reachedSites(db: Pick<Tx, 'select' | 'selectDistinct'>, scope: RecomputationScope) {
+  const conditions = [eq(outlooks.state, 'done')]
+  if (scope.scenario) conditions.push(eq(outlooks.scenario, scope.scenario))
+  if (scope.seriesId) {
+    conditions.push(inArray(sites.organisationId, db.select({ id: seriesAdoptions.organisationId }).from(seriesAdoptions).where(eq(seriesAdoptions.seriesId, scope.seriesId))))
+  }
+  if (scope.correlationSource && scope.scenario) {
+    conditions.push(inArray(sites.organisationId, db.select({ id: correlationAdoptions.organisationId }).from(correlationAdoptions)
+      .where(and(eq(correlationAdoptions.sourceOrganisationId, scope.correlationSource), eq(correlationAdoptions.scenario, scope.scenario)))))
+  }
+  return db.selectDistinct({ siteId: outlooks.siteId }).from(outlooks).innerJoin(sites, eq(sites.id, outlooks.siteId)).where(and(...conditions))
+}
+
+/** Queues one recompute-site job per site the change reaches (see reachedSites). */
+export async function startRecomputation(tx: Tx, options: RecomputationScope & { cause: Cause, requestedBy: string | null }) {
+  const siteIds = (await reachedSites(tx, options)).map(row => row.siteId)
   const [batch] = await tx.insert(recomputations).values({ scenario: options.scenario, cause: options.cause, requestedBy: options.requestedBy, siteCount: siteIds.length })
     .returning({ id: recomputations.id })
   if (siteIds.length) {

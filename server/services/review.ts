@@ -87,15 +87,16 @@ export async function applyReviewAction(kind: ReviewedKind, id: string, action: 
  */
 async function scienceChange(tx: Tx, kind: ReviewedKind, id: string, action: 'approve' | 'withdraw') {
   if (kind === 'release') {
-    const [row] = await tx.select({ scenario: series.scenario, component: series.component, version: releases.version })
+    const [row] = await tx.select({ scenario: series.scenario, component: series.component, version: releases.version, seriesId: series.id })
       .from(releases).innerJoin(series, eq(series.id, releases.seriesId)).where(eq(releases.id, id))
     const name = (language: 'en' | 'es') => BRIEFING_TEXT[language].components[row!.component] ?? row!.component
     const what = { en: `${action === 'approve' ? 'A new' : 'A withdrawn'} release for ${name('en')} (version ${row!.version}, ${row!.scenario})`, es: `Una versión ${action === 'approve' ? 'nueva' : 'retirada'} de ${name('es')} (versión ${row!.version}, ${row!.scenario})` }
-    return { scenario: row!.scenario, cause: { en: `${what.en} changes the outlook for this site.`, es: `${what.es} cambia la perspectiva de este sitio.` } }
+    // Only organisations that adopted this series are reached: another series is offered, not applied.
+    return { scenario: row!.scenario, seriesId: row!.seriesId, cause: { en: `${what.en} changes the outlook for this site.`, es: `${what.es} cambia la perspectiva de este sitio.` } }
   }
   if (kind === 'correlation-set') {
-    const [row] = await tx.select({ scenario: correlationSets.scenario }).from(correlationSets).where(eq(correlationSets.id, id))
-    return { scenario: row!.scenario, cause: { en: `The correlation between sources of rise for ${row!.scenario} was ${action === 'approve' ? 'updated' : 'withdrawn'}.`, es: `La correlación entre fuentes de subida para ${row!.scenario} fue ${action === 'approve' ? 'actualizada' : 'retirada'}.` } }
+    const [row] = await tx.select({ scenario: correlationSets.scenario, organisationId: correlationSets.organisationId }).from(correlationSets).where(eq(correlationSets.id, id))
+    return { scenario: row!.scenario, correlationSource: row!.organisationId, cause: { en: `The correlation between sources of rise for ${row!.scenario} was ${action === 'approve' ? 'updated' : 'withdrawn'}.`, es: `La correlación entre fuentes de subida para ${row!.scenario} fue ${action === 'approve' ? 'actualizada' : 'retirada'}.` } }
   }
   const [row] = await tx.select({ component: scaleFactorGrids.component, version: scaleFactorGrids.version }).from(scaleFactorGrids).where(eq(scaleFactorGrids.id, id))
   const name = (language: 'en' | 'es') => BRIEFING_TEXT[language].components[row!.component] ?? row!.component

@@ -6,6 +6,7 @@ import { gridErrors, gridWarnings, parseGridCsv, type ScaleFactorGrid } from '#s
 import type { CreateCorrelationSetInput, CreateScaleFactorGridInput } from '#shared/schemas/releases'
 import type { CurrentUser } from '../utils/auth'
 import { KIND_LABEL, type ReviewedKind } from './review'
+import { publishedSeries } from './adoptions'
 
 // Correlation sets and scale-factor grids: versioned and reviewed like releases, one series per
 // scenario (correlation) or per component (grids) within an organisation.
@@ -33,14 +34,44 @@ function sameMoment(error: unknown, version: number, kind: ReviewedKind): never 
 const provenance = (input: { method: string, citation: string, doi?: string, licence: string }) =>
   ({ method: input.method, citation: input.citation, doi: input.doi ?? null, licence: input.licence })
 
+/**
+ * The series each component of a correlation set was made for: as named, or the one published series
+ * of the component under the scenario (the analyst's organisation's first). A component with none
+ * published is tied to no series; one with several must be named.
+ */
+async function madeForSeries(actor: CurrentUser, input: CreateCorrelationSetInput) {
+  const published = await publishedSeries(input.scenario)
+  const named: Record<string, string> = {}
+  const issues: Array<{ field: string, message: string }> = []
+  for (const component of Object.keys(input.series ?? {})) {
+    if (!input.components.includes(component as never)) issues.push({ field: `series.${component}`, message: `${component} is not among the set's components; remove it or add the component.` })
+  }
+  for (const component of input.components) {
+    const offers = published.filter(row => row.component === component)
+    const id = input.series?.[component]
+    if (id) {
+      if (offers.some(row => row.seriesId === id)) named[component] = id
+      else issues.push({ field: `series.${component}`, message: `No published series of ${component} under ${input.scenario} has this id; choose one from the list.` })
+      continue
+    }
+    const own = offers.filter(row => row.organisationId === actor.organisationId)
+    const pick = own.length === 1 ? own[0] : own.length === 0 && offers.length === 1 ? offers[0] : undefined
+    if (pick) named[component] = pick.seriesId
+    else if (offers.length) issues.push({ field: `series.${component}`, message: `Several series of ${component} are published under ${input.scenario}; name the one this set was made for.` })
+  }
+  if (issues.length) throw createError({ statusCode: 400, message: issues.map(i => `${i.field}: ${i.message}`).join(' '), data: { issues } })
+  return named
+}
+
 export async function createCorrelationSet(actor: CurrentUser, input: CreateCorrelationSetInput) {
   asBadRequest(() => validateCorrelationMatrix(input.matrix, input.components, 'matrix'))
+  const madeFor = await madeForSeries(actor, input)
   const version = await nextVersion(correlationSets,
     and(eq(correlationSets.organisationId, actor.organisationId), eq(correlationSets.scenario, input.scenario))!, input.version, 'correlation-set')
   const db = await useDb()
   return db.transaction(async (tx) => {
     const [created] = await tx.insert(correlationSets).values({
-      scenario: input.scenario, title: input.title, components: input.components, matrix: input.matrix,
+      scenario: input.scenario, title: input.title, components: input.components, matrix: input.matrix, madeForSeries: madeFor,
       ...provenance(input), organisationId: actor.organisationId, version, authorId: actor.id,
     }).returning({ id: correlationSets.id, version: correlationSets.version, state: correlationSets.state })
     await writeAudit(tx, actor, 'correlation-set.drafted', { type: 'correlation-set', id: created!.id }, { version })

@@ -109,6 +109,12 @@ export const CreateCorrelationSetSchema = z.object({
   matrix: z.array(numberList.max(COMPONENTS.length, atMost(COMPONENTS.length, 'columns')), { error: 'Enter a table of numbers.' })
     .max(COMPONENTS.length, atMost(COMPONENTS.length, 'rows')),
   version: z.number({ error: VERSION_HINT }).int({ error: VERSION_HINT }).positive({ error: VERSION_HINT }).optional(),
+  /**
+   * The series of releases each component's correlations were estimated for (component → series id).
+   * A component left out takes the one published series of it under the scenario, preferring the
+   * analyst's organisation's; when several are published the analyst must name one.
+   */
+  series: z.partialRecord(componentField, z.uuid({ error: 'Choose a published series from the list.' }), { error: 'Give the series per component.' }).optional(),
   ...provenanceFields,
 })
 

@@ -7,5 +7,7 @@ export type OutlookNote =
   | { kind: 'unscaled', components: string[] }
   | { kind: 'uncorrelated', scenario: string }
   | { kind: 'life-beyond-releases', threshold: string, lastYear: number }
+  /** The adopted correlation set was made for other series of these components; it is applied all the same. */
+  | { kind: 'correlation-other-series', components: string[] }
 
 export type StoredOutlookNote = OutlookNote | string

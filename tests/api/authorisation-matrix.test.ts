@@ -73,6 +73,13 @@ const ROUTES: Record<string, RouteCase> = {
     body: (fx, scope, persona) => ({ email: emailOf(persona, scope, 'invited'), name: 'Invited by matrix', role: 'reader', organisationId: pick(scope, fx.home.organisationId, fx.foreign.portId) }),
   },
   'organisations/index.get.ts': { unscoped: true, global: true, url: () => '/api/organisations', expect: admins(200) },
+  // The science an organisation adopted: its members read it, its planners and administrators change it;
+  // another organisation's answers 404 to everyone, the operator included (it is not theirs to choose).
+  'organisations/[id]/adoption.get.ts': { url: (fx, scope) => `/api/organisations/${pick(scope, fx.home.organisationId, fx.foreign.portId)}/adoption`, expect: members },
+  'organisations/[id]/adoption.put.ts': {
+    url: (fx, scope) => `/api/organisations/${pick(scope, fx.home.organisationId, fx.foreign.portId)}/adoption`, body: () => ({ scenario: 'SSP2-4.5', series: {} }),
+    expect: { ...anyone(403), anonymous: 401, planner: [200, 404], admin: [200, 404], operator: [200, 404] },
+  },
 
   'health.get.ts': { unscoped: true, url: () => '/api/health', expect: anyone(200) },
   'scenarios/index.get.ts': { unscoped: true, url: () => '/api/scenarios', expect: anyone(200) },

@@ -18,7 +18,7 @@ import { TestSmtp, isTo } from '../support/smtp'
 type As = 'anonymous' | 'reader' | 'planner' | 'analyst' | 'admin'
 const UUID_A = '00000000-0000-4000-8000-00000000000a'
 const UUID_B = '00000000-0000-4000-8000-00000000000b'
-interface Ctx { briefingId: string, targetSiteId: string, draftReleaseId: string, outlookId: string, thresholdIds: string[], portId: string }
+interface Ctx { briefingId: string, targetSiteId: string, draftReleaseId: string, outlookId: string, thresholdIds: string[], portId: string, councilId: string, glaciersSeries: string }
 type Value<T> = T | ((c: Ctx) => T)
 interface Hostile {
   as: As
@@ -145,6 +145,16 @@ const REFUSALS: Array<[string, Hostile]> = [
   ['an unsubscribe token given twice', { as: 'anonymous', method: 'POST', path: `/api/watches/unsubscribe?token=${'a'.repeat(32)}&token=${'b'.repeat(32)}`, status: 400, message: /^token: / }],
   ['an invitation token with a NUL', { as: 'anonymous', method: 'GET', path: `/api/account/invitation?token=${'a'.repeat(30)}%00`, status: 400, message: /^token: This link is not valid/ }],
 
+  // What an organisation adopts: only published series of the right component, from its own page.
+  ['an adopted series id of SQL', { as: 'planner', method: 'PUT', path: c => `/api/organisations/${c.councilId}/adoption`, body: { scenario: 'SSP2-4.5', series: { glaciers: "x' OR 1=1 --" } }, status: 400, message: /^series\.glaciers: Choose a published series from the list/ }],
+  ['an adopted component with markup', { as: 'planner', method: 'PUT', path: c => `/api/organisations/${c.councilId}/adoption`, body: (c: Ctx) => ({ scenario: 'SSP2-4.5', series: { [SCRIPT]: c.glaciersSeries } }), status: 400, message: /^series: Choose components from: / }],
+  ['a glaciers series adopted for Greenland', { as: 'planner', method: 'PUT', path: c => `/api/organisations/${c.councilId}/adoption`, body: (c: Ctx) => ({ scenario: 'SSP2-4.5', series: { greenland: c.glaciersSeries } }), status: 400, message: /^series\.greenland: This series is of glaciers, not greenland/ }],
+  ['adopted series sent as a list', { as: 'planner', method: 'PUT', path: c => `/api/organisations/${c.councilId}/adoption`, body: (c: Ctx) => ({ scenario: 'SSP2-4.5', series: [c.glaciersSeries] }), status: 400, message: /^series: Give the series to adopt per component, as/ }],
+  ['correlation sets of an organisation that publishes none', { as: 'planner', method: 'PUT', path: c => `/api/organisations/${c.councilId}/adoption`, body: (c: Ctx) => ({ scenario: 'SSP2-4.5', correlation: c.portId }), status: 400, message: /^correlation: That organisation has no published correlation set/ }],
+  ['an adoption with a field no form sends', { as: 'planner', method: 'PUT', path: c => `/api/organisations/${c.councilId}/adoption`, body: { scenario: 'SSP2-4.5', organisationId: '00000000-0000-4000-8000-000000000000' }, status: 400, message: /^body: Send only scenario, series and correlation \(not organisationId\)/ }],
+  ['an adoption for another organisation', { as: 'planner', method: 'PUT', path: c => `/api/organisations/${c.portId}/adoption`, body: { scenario: 'SSP2-4.5' }, status: 404, message: /^No such organisation\.$/ }],
+  ['an adoption scenario of markup', { as: 'planner', method: 'PUT', path: c => `/api/organisations/${c.councilId}/adoption`, body: { scenario: SCRIPT }, status: 400, message: /^scenario: Use 2–40 letters/ }],
+
   // Uploads: formula cells, oversized files.
   ['a quantile cell =cmd|…', { as: 'analyst', method: 'POST', path: '/api/releases', body: quantiles(withCell("=cmd|' /C calc'!A0")), status: 400, message: /^csv row 3, column 2100: "=cmd\|' \/C calc'!A0" is not a finite number/ }],
   ['a quantile cell +2+3+cmd', { as: 'analyst', method: 'POST', path: '/api/releases', body: quantiles(withCell('+2+3+cmd|x')), status: 400, message: /^csv row 3, column 2100: "\+2\+3\+cmd\|x" is not a finite number/ }],
@@ -174,6 +184,7 @@ async function world() {
     planner.get(`/api/sites/${ctx.targetSiteId}/pathways`),
     planner.get('/api/briefings'), planner.get('/api/watches'), analyst.get('/api/releases'), analyst.get('/api/correlation-sets'),
     analyst.get('/api/scale-factor-grids'), admin.get('/api/admin/users'), admin.get('/api/admin/audit?limit=1'), reader.get('/api/me'),
+    planner.get(`/api/organisations/${ctx.councilId}/adoption`),
   ])
   const outbox = await admin.get('/api/admin/outbox?limit=500')
   return JSON.stringify([...reads.map(r => r.body), outbox.body.messages.length])
@@ -195,6 +206,8 @@ beforeAll(async () => {
   ctx.briefingId = (await planner.post('/api/briefings', { outlookId: ctx.outlookId, title: 'Hostile target', thresholdIds: ctx.thresholdIds, years: [2050] })).body.id
   ctx.draftReleaseId = (await analyst.post('/api/releases', { ...quantiles(withCell('0.2')), series: { component: 'other', scenario: 'SSP2-4.5', title: 'Hostile draft' } })).body.id
   ctx.portId = (await admin.get('/api/organisations')).body.find((o: { kind: string }) => o.kind === 'port').id
+  ctx.councilId = (await planner.get('/api/me')).body.user.organisationId
+  ctx.glaciersSeries = (await analyst.get('/api/releases?component=glaciers&scenario=SSP2-4.5&state=published')).body[0].seriesId
 })
 afterAll(async () => {
   await server?.stop()

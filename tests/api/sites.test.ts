@@ -314,7 +314,8 @@ describe('outlooks', () => {
     await reviewer.post(`/api/releases/${next.body.id}/approve`)
 
     const stale = (await planner.get(`/api/outlooks/${outlookId}`)).body
-    expect(stale.newerScience).toEqual([{ component: 'glaciers', usedVersion: 1, latestVersion: 2, latestReleaseId: next.body.id }])
+    expect(stale.newerScience).toEqual([{ kind: 'new-version', component: 'glaciers', usedVersion: 1, latestVersion: 2, latestReleaseId: next.body.id, seriesTitle: 'Mountain glaciers (illustrative)' }])
+    expect(stale.offeredScience).toEqual([])
     // The publication queued a recomputation of every site with an SSP2-4.5 outlook, same samples and seed.
     const recomputed = await vi.waitFor(async () => {
       const list = (await planner.get(`/api/sites/${siteId}/outlooks`)).body as Array<{ id: string, scenario: string, samples: number, seed: number, state: string }>

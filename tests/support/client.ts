@@ -68,6 +68,7 @@ export class ApiClient {
   get<T = any>(path: string) { return this.request<T>('GET', path) }
   post<T = any>(path: string, body?: unknown) { return this.request<T>('POST', path, body) }
   patch<T = any>(path: string, body?: unknown) { return this.request<T>('PATCH', path, body) }
+  put<T = any>(path: string, body?: unknown) { return this.request<T>('PUT', path, body) }
 
   /** A client for `baseUrl` already signed in as this person. */
   static async signedIn(baseUrl: string, email: string, password: string) {

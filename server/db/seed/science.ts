@@ -64,9 +64,11 @@ function prepare(form: ParsedRelease['form'], fields: Record<string, unknown>) {
 export async function seedScience(tx: Pick<Database, 'insert'>, people: SeedPeople) {
   const published = new Date('2026-10-01T09:00:00Z')
   const common = { ...PROVENANCE, organisationId: people.organisationId, authorId: people.authorId, reviewerId: people.reviewerId, submittedAt: published }
+  const seriesOf = new Map<string, string>()
   for (const scenario of DEMO_SCENARIOS) {
     for (const component of Object.keys(RECIPES) as ComponentKey[]) {
       const [row] = await tx.insert(series).values({ component, scenario, organisationId: people.organisationId, title: `${TITLES[component]} (illustrative)` }).returning({ id: series.id })
+      seriesOf.set(`${scenario}/${component}`, row!.id)
       const { form, fields } = RECIPES[component](scenario)
       const twoVersions = component === 'greenland' && scenario === 'SSP2-4.5'
       if (twoVersions) {
@@ -78,10 +80,12 @@ export async function seedScience(tx: Pick<Database, 'insert'>, people: SeedPeop
     }
   }
 
+  const correlated = ['ocean-expansion', 'glaciers', 'greenland', 'antarctica']
   await tx.insert(correlationSets).values({
     scenario: 'SSP5-8.5',
     title: 'Shared warming between ocean, glaciers and ice sheets (illustrative)',
-    components: ['ocean-expansion', 'glaciers', 'greenland', 'antarctica'],
+    components: correlated,
+    madeForSeries: Object.fromEntries(correlated.map(component => [component, seriesOf.get(`SSP5-8.5/${component}`)!])),
     matrix: [[1, 0.4, 0.25, 0.05], [0.4, 1, 0.35, 0.05], [0.25, 0.35, 1, 0.15], [0.05, 0.05, 0.15, 1]],
     version: 1, state: 'published', publishedAt: published, ...common,
   })
