@@ -1,5 +1,5 @@
 import type { Content, TDocumentDefinitions } from 'pdfmake/interfaces'
-import type { BriefingDocument } from '#shared/briefing/document'
+import { extremesTable, type BriefingDocument } from '#shared/briefing/document'
 import { dateLocale } from '#shared/wording/dates'
 import { exceedanceChartOption, fanChartOption } from '#shared/briefing/charts'
 import { BRIEFING_TEXT } from '#shared/briefing/text'
@@ -29,6 +29,7 @@ function table(head: string[] | null, rows: string[][], widths?: (string | numbe
 
 export function briefingPdfDefinition(doc: BriefingDocument, absoluteLink: string, paper: Paper): TDocumentDefinitions {
   const text = BRIEFING_TEXT[doc.meta.language]
+  const extremes = extremesTable(doc)
   const meta = doc.meta
   const chartWidth = paper === 'A4' ? 500 : 510
   const issued = meta.issuedAt ? new Date(meta.issuedAt).toLocaleDateString(dateLocale(meta.language), { dateStyle: 'long' }) : text.draftMark
@@ -54,11 +55,11 @@ export function briefingPdfDefinition(doc: BriefingDocument, absoluteLink: strin
     table([text.tableHead.scenario, text.tableHead.threshold, text.tableHead.measure, ...doc.table.years.map(String)],
       doc.table.rows.map(row => [row.scenario, `${row.threshold} (${row.height})`, row.measure ?? '', ...row.chances.map(c => c.text)]),
       ['auto', '*', '*', ...doc.table.years.map(() => 'auto')]),
-    ...(doc.extremes
+    ...(extremes
       ? [{
           stack: [
             { text: text.extremesTitle, bold: true, margin: [0, 10, 0, 4] },
-            table([text.extremesHead.year, text.extremesHead.allowance, text.extremesHead.amplification], doc.extremes.map(row => [String(row.year), row.allowance, row.amplification])),
+            table(extremes.head, extremes.rows, extremes.head.map((_, index) => (index === 2 ? '*' : 'auto'))),
             { text: text.extremesNote, fontSize: 9, color: MUTED, margin: [0, 4, 0, 0] },
           ],
           unbreakable: true,

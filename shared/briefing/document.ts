@@ -1,7 +1,7 @@
 import type { OutlookResult } from '../engine'
 import { formatHeight, type HeightUnit } from '../units'
 import { BEYOND_RANGE, chanceAsOdds, formatChance, likelihoodPhrase, type Language } from '../wording/chance'
-import { designLifeLevelSentence, floodYearSentence, lifeSentence } from '../wording/flood'
+import { amplificationReturnPeriod, designLifeLevelSentence, floodYearSentence, lifeSentence, todaysLevelExpected } from '../wording/flood'
 import type { DatumKind, ThresholdKind } from '../types/science'
 import { BRIEFING_TEXT, type BriefingText } from './text'
 
@@ -63,7 +63,8 @@ export interface BriefingDocument {
     fan: { years: number[], p1: number[], p5: number[], p17: number[], p50: number[], p83: number[], p95: number[], p99: number[] }
   }
   table: { years: number[], rows: { scenario: string, threshold: string, height: string, measure: string, chances: ChanceCell[] }[] }
-  extremes: { year: number, allowance: string, amplification: string }[] | null
+  /** Allowance and amplification by year; amplification worded as expected floods of today's `today`-year level, with its annual chance. */
+  extremes: { today: number, rows: { year: number, allowance: string, expected: string, chance: string }[] } | null
   basis: { releases: { component: string, scenario: string, version: number, citation: string, state: string, scale: string }[], datum: string, landMotion: string, sampling: string, notes: string[], method: string[] }
   cautions: string[]
 }
@@ -95,6 +96,24 @@ function chartHeights(result: OutlookResult, yearIndexes: number[]) {
   }
   if (first > last) return { from: 0, to: result.heights.length - 1 }
   return { from: Math.max(0, first - 3), to: Math.min(result.heights.length - 1, last + 3) }
+}
+
+/** Briefings issued before amplification was worded as expected floods froze this shape. */
+interface FrozenMultipleRow { year: number, allowance: string, amplification: string }
+const FROZEN_MULTIPLE_HEAD: Record<Language, string> = { en: 'Floods more often (×)', es: 'Inundaciones más frecuentes (×)' }
+
+/** The allowance table as laid out on the page and in the PDF, for a new or an already issued document. */
+export function extremesTable(doc: Pick<BriefingDocument, 'extremes' | 'meta'>): { head: string[], rows: string[][] } | null {
+  const extremes = doc.extremes as BriefingDocument['extremes'] | FrozenMultipleRow[]
+  if (!extremes) return null
+  const text = BRIEFING_TEXT[doc.meta.language]
+  if (Array.isArray(extremes)) {
+    return { head: [text.extremesHead.year, text.extremesHead.allowance, FROZEN_MULTIPLE_HEAD[doc.meta.language]], rows: extremes.map(row => [String(row.year), row.allowance, row.amplification]) }
+  }
+  return {
+    head: [text.extremesHead.year, text.extremesHead.allowance, text.extremesHead.expected(extremes.today), text.extremesHead.chance],
+    rows: extremes.rows.map(row => [String(row.year), row.allowance, row.expected, row.chance]),
+  }
 }
 
 export function buildBriefingDocument(source: BriefingSource): BriefingDocument {
@@ -165,13 +184,23 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
     }
   }))
 
-  const extremes = result.gumbel
-    ? yearIndexes.map((t) => {
-        const g = result.byYear[t]!.gumbel!
-        // A heavy-tailed release makes both unbounded: the figures are for its tail capped, and say so.
-        const capped = g.settled === false ? ` (${text.unsettled})` : ''
-        return { year: result.years[t]!, allowance: `${height(g.allowance)}${capped}`, amplification: `${g.amplification.toLocaleString(source.language, { maximumSignificantDigits: 3 })}${capped}` }
-      })
+  const wordedPeriod = result.gumbel ? amplificationReturnPeriod(result.byYear[yearIndexes[0] ?? 0]!.gumbel!.returnPeriods) : undefined
+  const extremes = wordedPeriod
+    ? {
+        today: wordedPeriod.today,
+        rows: yearIndexes.map((t) => {
+          const g = result.byYear[t]!.gumbel!
+          const period = g.returnPeriods.find(r => r.today === wordedPeriod.today)!
+          // A heavy-tailed release makes both unbounded: the figures are for its tail capped, and say so.
+          const capped = g.settled === false ? ` (${text.unsettled})` : ''
+          return {
+            year: result.years[t]!,
+            allowance: `${height(g.allowance)}${capped}`,
+            expected: `${todaysLevelExpected({ today: period.today, amplification: g.amplification }, source.language)}${capped}`,
+            chance: formatChance(period.annualChance.value, source.language),
+          }
+        }),
+      }
     : null
 
   return {

@@ -20,7 +20,7 @@ export interface BriefingText {
   chartFanLegend: { median: string, likely: string, veryLikely: string, extreme: string }
   tableHead: { scenario: string, threshold: string, measure: string }
   extremesTitle: string
-  extremesHead: { year: string, allowance: string, amplification: string }
+  extremesHead: { year: string, allowance: string, expected: (today: number) => string, chance: string }
   extremesNote: string
   /** Beside an allowance that a heavy-tailed release leaves unbounded. */
   unsettled: string
@@ -56,8 +56,8 @@ const en: BriefingText = {
   chartFanLegend: { median: 'Middle estimate', likely: 'Likely range (17–83 %)', veryLikely: 'Very likely range (5–95 %)', extreme: '1–99 %' },
   tableHead: { scenario: 'Scenario', threshold: 'Threshold', measure: 'Chance of' },
   extremesTitle: 'Flood allowance and frequency',
-  extremesHead: { year: 'Year', allowance: 'Allowance', amplification: 'Floods more often (×)' },
-  extremesNote: 'The allowance is how much to raise an asset so that the expected number of floods stays as it is today; the second column is how many times more often today\'s floods would be expected.',
+  extremesHead: { year: 'Year', allowance: 'Allowance', expected: today => `Today's ${today}-year level is expected`, chance: 'Chance in any one year' },
+  extremesNote: 'The allowance is how much to raise an asset so that the expected number of floods stays as it is today. Without it, floods become more frequent: the multiple counts expected floods, while the chance of at least one flood in a year grows less and is shown beside it.',
   unsettled: 'not a settled value: a release\'s heavy tail is capped at its 99.9th percentile',
   basisHead: { component: 'Source of rise', scenario: 'Scenario', version: 'Version', citation: 'Citation', state: 'State', scale: 'Scale factor' },
   landMotion: (rate, sigma, source, epoch, reference) => `Land motion: ${rate} ± ${sigma} per year (negative means the land sinks, which adds to the rise), from ${source}, reference year ${epoch}. ${reference}`,
@@ -102,8 +102,8 @@ const es: BriefingText = {
   chartFanLegend: { median: 'Estimación central', likely: 'Rango probable (17–83 %)', veryLikely: 'Rango muy probable (5–95 %)', extreme: '1–99 %' },
   tableHead: { scenario: 'Escenario', threshold: 'Umbral', measure: 'Probabilidad de' },
   extremesTitle: 'Margen de inundación y frecuencia',
-  extremesHead: { year: 'Año', allowance: 'Margen', amplification: 'Inundaciones más frecuentes (×)' },
-  extremesNote: 'El margen es cuánto elevar una infraestructura para que el número esperado de inundaciones siga como hoy; la segunda columna indica cuántas veces más a menudo se esperarían las inundaciones de hoy.',
+  extremesHead: { year: 'Año', allowance: 'Margen', expected: today => `El nivel de ${today} años de hoy se espera`, chance: 'Probabilidad en un año cualquiera' },
+  extremesNote: 'El margen es cuánto elevar una infraestructura para que el número esperado de inundaciones siga como hoy. Sin él, las inundaciones se vuelven más frecuentes: el múltiplo cuenta inundaciones esperadas, mientras que la probabilidad de al menos una inundación en un año crece menos y se muestra al lado.',
   unsettled: 'no es un valor estable: la cola larga de una versión se limita a su percentil 99,9',
   basisHead: { component: 'Fuente de subida', scenario: 'Escenario', version: 'Versión', citation: 'Cita', state: 'Estado', scale: 'Factor de escala' },
   landMotion: (rate, sigma, source, epoch, reference) => `Movimiento del terreno: ${rate} ± ${sigma} al año (negativo significa que el terreno se hunde, lo que suma a la subida), según ${source}, año de referencia ${epoch}. ${reference}`,

@@ -53,7 +53,10 @@ describe('briefings', () => {
     expect(wall.join(' ')).not.toMatch(/exceptionally unlikely/)
     expect(doc.table.rows.map((r: { measure: string }) => r.measure)).toContain('Flood level: the water reaches it in that year')
     expect(doc.table.rows.map((r: { scenario: string }) => r.scenario)).toEqual(['SSP2-4.5', 'SSP2-4.5', 'SSP5-8.5', 'SSP5-8.5'])
-    expect(doc.extremes).toHaveLength(2)
+    expect(doc.extremes.rows).toHaveLength(2)
+    // Amplification is worded as expected floods of today's 100-year level, with the chance beside it, never a bare multiple.
+    expect(doc.extremes.rows[0].expected).toMatch(/^(about once every [\d.,]+ years \([\d.,]+ times as many expected floods as today\)|every year or more often)/)
+    expect(doc.extremes.rows[0].chance).toMatch(/%$/)
     expect(doc.basis.releases.length).toBe(14)
     expect(doc.cautions.join(' ')).toMatch(/Projections are not predictions.*ice sheets.*not engineering or legal advice/)
     expect(doc.meta.localContext).toBe('<script>alert("x")</script> Quay Street floods at spring tides.')

@@ -33,6 +33,15 @@ describe('extrapolated percentiles and chances', () => {
     expect(result.byYear[0]!.percentiles.every((p) => p.extrapolated === false)).toBe(true)
   })
 
+  it('marks trigger years that rest on a level beyond the releases', () => {
+    // [practice] rise ~ N(0.5·(t − 2000)/100, (0.1·(t − 2000)/100)²); the 1 % trigger rests on level 0.99,
+    // beyond 0.95; the 50 % trigger on level 0.5, inside.
+    const result = runOutlook(baseInput({ years: [2000, 2050, 2100], components: [quantileComponent('antarctica', levels, 0.5, 0.1)], thresholds: [{ height: 0.3 }] }))
+    const triggers = result.thresholds[0]!.triggerYears
+    expect(triggers.find((entry) => entry.tolerance === 0.01)!.extrapolated).toBe(true)
+    expect(triggers.find((entry) => entry.tolerance === 0.5)!.extrapolated).toBe(false)
+  })
+
   it('folds one-sided tables so that both tails count, and ignores a release with a negligible share', () => {
     // [practice] levels 17–95 %: with a negative scale its 95 % is the rise's 5 %, so only 17–83 % is covered both ways.
     const oneSided = runOutlook(baseInput({ years: [2100], components: [quantileComponent('glaciers', [0.17, 0.5, 0.95], 0.5, 0.1)] }))
