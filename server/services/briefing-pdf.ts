@@ -49,12 +49,14 @@ export function briefingPdfDefinition(doc: BriefingDocument, absoluteLink: strin
 
     // A chart's title and its drawing stay on one page, and the section heading with the first.
     { stack: [heading(2, text.sections.charts), { text: text.chartExceedance, bold: true }, { svg: chartSvg(exceedanceChartOption(doc, PDF_FONT), chartWidth, 250), width: chartWidth }], unbreakable: true },
-    { stack: [{ text: text.chartFan, bold: true, margin: [0, 8, 0, 0] }, { svg: chartSvg(fanChartOption(doc, PDF_FONT), chartWidth, 250), width: chartWidth }], unbreakable: true },
+    { stack: [{ text: text.chartFan, bold: true, margin: [0, 8, 0, 0] }, { svg: chartSvg(fanChartOption(doc, PDF_FONT), chartWidth, 250), width: chartWidth },
+      ...(doc.extrapolation && doc.charts.fan.outerExtrapolated?.some(Boolean) ? [{ text: doc.extrapolation, fontSize: 9, color: MUTED }] : [])], unbreakable: true },
 
     heading(3, text.sections.table),
     table([text.tableHead.scenario, text.tableHead.threshold, text.tableHead.measure, ...doc.table.years.map(String)],
       doc.table.rows.map(row => [row.scenario, `${row.threshold} (${row.height})`, row.measure ?? '', ...row.chances.map(c => c.text)]),
       ['auto', '*', '*', ...doc.table.years.map(() => 'auto')]),
+    ...(doc.extrapolation ? [{ text: doc.extrapolation, fontSize: 9, color: MUTED, margin: [0, 4, 0, 0] } as Content] : []),
     ...(extremes
       ? [{
           stack: [

@@ -1,6 +1,6 @@
 import type { OutlookResult } from '../engine'
 import { formatHeight, type HeightUnit } from '../units'
-import { BEYOND_RANGE, chanceAsOdds, formatChance, likelihoodPhrase, type Language } from '../wording/chance'
+import { BEYOND_RANGE, chanceAsOdds, EXTRAPOLATED_MARK, EXTRAPOLATED_NOTE, formatChance, likelihoodPhrase, type Language } from '../wording/chance'
 import { amplificationReturnPeriod, designLifeLevelSentence, floodYearSentence, lifeSentence, todaysLevelExpected } from '../wording/flood'
 import type { DatumKind, ThresholdKind } from '../types/science'
 import { BRIEFING_TEXT, type BriefingText } from './text'
@@ -51,7 +51,8 @@ export interface BriefingSource {
   outlooks: BriefingOutlook[]
 }
 
-export interface ChanceCell { probability: number, text: string }
+/** A chance in the table; `extrapolated` (and † in `text`) where it rests on a release beyond its outermost level. */
+export interface ChanceCell { probability: number, text: string, extrapolated?: boolean }
 
 export interface BriefingDocument {
   meta: Omit<BriefingSource, 'outlooks' | 'thresholds' | 'years' | 'site'> & { siteName: string, referenceLevel: string, scenario: string, inputs: { scenario: string, inputHash: string }[] }
@@ -60,8 +61,10 @@ export interface BriefingDocument {
     years: number[]
     heights: number[]
     exceedance: { year: number, values: number[] }[]
-    fan: { years: number[], p1: number[], p5: number[], p17: number[], p50: number[], p83: number[], p95: number[], p99: number[] }
+    fan: { years: number[], p1: number[], p5: number[], p17: number[], p50: number[], p83: number[], p95: number[], p99: number[], /** Per year: the 1 % or 99 % level is extrapolated. */ outerExtrapolated?: boolean[] }
   }
+  /** What † means, where any number of the document is extrapolated (absent in documents issued before). */
+  extrapolation?: string | null
   table: { years: number[], rows: { scenario: string, threshold: string, height: string, measure: string, chances: ChanceCell[] }[] }
   /** Allowance and amplification by year; amplification worded as expected floods of today's `today`-year level, with its annual chance. */
   extremes: { today: number, rows: { year: number, allowance: string, expected: string, chance: string }[] } | null
@@ -172,18 +175,26 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
       if (isFlood(threshold)) return found.flood?.annualChance[index]?.value ?? Number.NaN
       return found.byYear[index]?.value ?? Number.NaN
     }
+    const extrapolatedAt = (index: number) => !isFlood(threshold) && found?.byYear[index]?.extrapolated === true
     return {
       scenario: outlook.scenario,
       threshold: threshold.label,
       height: heightOf(threshold, found),
       measure: isFlood(threshold) ? text.measures.flood : text.measures.meanSeaLevel,
-      chances: source.years.map((year) => {
-        const p = chanceAt(outlook.result.years.indexOf(year))
-        return { probability: p, text: Number.isNaN(p) ? '—' : formatChance(p, source.language) }
+      chances: source.years.map((year): ChanceCell => {
+        const index = outlook.result.years.indexOf(year)
+        const p = chanceAt(index)
+        if (Number.isNaN(p)) return { probability: p, text: '—' }
+        return extrapolatedAt(index)
+          ? { probability: p, text: `${formatChance(p, source.language)} ${EXTRAPOLATED_MARK}`, extrapolated: true }
+          : { probability: p, text: formatChance(p, source.language) }
       }),
     }
   }))
 
+  const outerExtrapolated = result.byYear.map(y => y.percentiles.some(p => p.extrapolated === true && (Math.abs(p.level - 0.01) < 1e-9 || Math.abs(p.level - 0.99) < 1e-9)))
+  const anyExtrapolated = outerExtrapolated.some(Boolean) || rows.some(row => row.chances.some(cell => cell.extrapolated))
+    || source.thresholds.some(threshold => !isFlood(threshold) && yearIndexes.some(t => thresholdOf(primary, threshold.id)?.byYear[t]?.extrapolated === true))
   const wordedPeriod = result.gumbel ? amplificationReturnPeriod(result.byYear[yearIndexes[0] ?? 0]!.gumbel!.returnPeriods) : undefined
   const extremes = wordedPeriod
     ? {
@@ -214,8 +225,9 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
       years: result.years,
       heights: result.heights.slice(from, to + 1),
       exceedance: yearIndexes.map(t => ({ year: result.years[t]!, values: result.byYear[t]!.exceedance.slice(from, to + 1).map(e => e.value) })),
-      fan: { years: result.years, p1: series(0.01), p5: series(0.05), p17: series(0.17), p50: series(0.5), p83: series(0.83), p95: series(0.95), p99: series(0.99) },
+      fan: { years: result.years, p1: series(0.01), p5: series(0.05), p17: series(0.17), p50: series(0.5), p83: series(0.83), p95: series(0.95), p99: series(0.99), outerExtrapolated },
     },
+    extrapolation: anyExtrapolated ? EXTRAPOLATED_NOTE[source.language] : null,
     table: { years: source.years, rows },
     extremes,
     basis: {

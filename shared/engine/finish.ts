@@ -163,7 +163,12 @@ export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): Outloo
         extrapolated: extrapolated(plan, varianceShare, level),
       })),
       exceedance: plan.heightCutIndex.length
-        ? Array.from(plan.heightCutIndex, (cut) => proportion(exceedanceCounts[t]![cut]!, n))
+        ? Array.from(plan.heightCutIndex, (cut) => {
+            const estimate = proportion(exceedanceCounts[t]![cut]!, n)
+            // Only where true: the grid has hundreds of heights a year, and most chances rest on no tail.
+            if (extrapolated(plan, varianceShare, 1 - estimate.value)) estimate.extrapolated = true
+            return estimate
+          })
         : [],
       varianceShare,
       gumbel: yearGumbel(plan, sums, t, n),

@@ -282,7 +282,7 @@ export interface Estimate {
   /**
    * On every percentile and every mean-sea-level `byYear` chance: true when it rests on a quantile-form
    * release beyond its outermost published levels (rule in the engine README, "Extrapolated"); such a
-   * value gets no likelihood word.
+   * value gets no likelihood word. On the height grid's `exceedance`, present only where true.
    */
   extrapolated?: boolean
 }

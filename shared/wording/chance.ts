@@ -79,8 +79,15 @@ export function samplingNote(standardError: number, language: Language): string 
  * level: the release does not describe that tail, so no likelihood word is earned.
  */
 export const BEYOND_RANGE: Record<Language, string> = {
-  en: 'beyond the range the releases describe',
-  es: 'fuera del rango que describen las versiones publicadas',
+  en: 'extrapolated: the releases do not describe this tail',
+  es: 'extrapolada: las versiones publicadas no describen esta cola',
+}
+
+/** The mark beside an extrapolated number in a table, and the note that explains it. */
+export const EXTRAPOLATED_MARK = '†'
+export const EXTRAPOLATED_NOTE: Record<Language, string> = {
+  en: '† Extrapolated: beyond the outermost level a release publishes. The release does not describe that tail; the value extends its outermost slope and carries no likelihood word.',
+  es: '† Extrapolado: más allá del nivel extremo que publica una versión. La versión no describe esa cola; el valor prolonga su pendiente exterior y no lleva término de probabilidad calibrado.',
 }
 
 export interface HeadlineParts {

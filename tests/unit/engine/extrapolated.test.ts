@@ -29,6 +29,10 @@ describe('extrapolated percentiles and chances', () => {
     expect(year.percentiles.map((p) => p.extrapolated)).toEqual([true, false, false, false, false, false, true])
     expect(result.thresholds[0]!.byYear[1]!.extrapolated).toBe(true)
     expect(result.thresholds[1]!.byYear[1]!.extrapolated).toBe(false)
+    // The height grid (0, 0.1, … 1 m) carries the same mark where it is true: 0.7 m (level 0.977) yes, 0.5 m (level 0.5) no.
+    const at = (h: number) => year.exceedance[result.heights.findIndex((x) => Math.abs(x - h) < 1e-9)]!
+    expect(at(0.7).extrapolated).toBe(true)
+    expect(at(0.5).extrapolated).toBeUndefined()
     // The baseline year has no spread, so nothing rests on any release there.
     expect(result.byYear[0]!.percentiles.every((p) => p.extrapolated === false)).toBe(true)
   })

@@ -52,9 +52,9 @@ describe('chances in words', () => {
   it('gives no calibrated word to a chance that lies beyond what the releases publish', () => {
     const parts = { probability: 0.004, standardError: 0.0002, extrapolated: true, height: 1.2, year: 2100, referenceLevel: 'chart datum', unit: 'm' as const, language: 'en' as const }
     const sentence = nb(headlineSentence(parts))
-    expect(sentence).toBe('There is a less than 1 % chance (beyond the range the releases describe) that the mean sea level here will be more than 1.20 m above chart datum by 2100.')
+    expect(sentence).toBe('There is a less than 1 % chance (extrapolated: the releases do not describe this tail) that the mean sea level here will be more than 1.20 m above chart datum by 2100.')
     expect(sentence).not.toMatch(/unlikely/)
-    expect(nb(headlineSentence({ ...parts, language: 'es' }))).toMatch(/\(fuera del rango que describen las versiones publicadas\)/)
+    expect(nb(headlineSentence({ ...parts, language: 'es' }))).toMatch(/\(extrapolada: las versiones publicadas no describen esta cola\)/)
   })
 
   it('reads as Spanish at the edges: "de menos del 1 %", never "del menos del 1 %", and a decimal comma in the sampling note', () => {
