@@ -26,6 +26,8 @@ export interface OutlookView {
     datum?: { name: string, kind: 'mean-sea-level' | 'land-survey' | 'chart', offset: number, referenceEpoch: number }
   }
   newerScience: { component: string, usedVersion: number, latestVersion: number | null, latestReleaseId: string | null }[]
+  /** Published high-end storylines of the scenario at this site: beside the chances, never part of them (absent while running). */
+  storylines?: { id: string, name: string, description: string, version: number, citation: string, organisationName: string, illustrative: boolean, rises: { year: number, rise: number }[] }[]
   durationMs: number | null
   createdAt: string
   finishedAt: string | null

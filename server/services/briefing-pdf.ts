@@ -45,6 +45,18 @@ export function briefingPdfDefinition(doc: BriefingDocument, absoluteLink: strin
     { text: doc.summary.intro, margin: [0, 0, 0, 6] },
     { ul: doc.summary.lines, margin: [0, 0, 0, 6] },
     { ul: doc.summary.ranges },
+    ...(doc.storylines?.length
+      ? [
+          { text: text.storylines.title, bold: true, margin: [0, 8, 0, 2] } as Content,
+          { text: text.storylines.intro, margin: [0, 0, 0, 4] } as Content,
+          ...doc.storylines.flatMap(storyline => [
+            { text: storyline.name, bold: true, margin: [0, 2, 0, 0] } as Content,
+            { text: storyline.description, fontSize: 9, color: MUTED } as Content,
+            { ul: storyline.lines, margin: [0, 2, 0, 2] } as Content,
+            { text: storyline.source, fontSize: 9, color: MUTED } as Content,
+          ]),
+        ]
+      : []),
     ...(meta.localContext ? [{ text: text.sections.context, bold: true, margin: [0, 8, 0, 2] } as Content, { text: meta.localContext }] : []),
 
     // A chart's title and its drawing stay on one page, and the section heading with the first.

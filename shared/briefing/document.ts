@@ -20,6 +20,18 @@ export interface BriefingOutlook {
   result: OutlookResult
 }
 
+/** A published high-end storyline placed at the site (see shared/storylines/rise.ts): beside the chances, never in them. */
+export interface BriefingStoryline {
+  name: string
+  description: string
+  version: number
+  citation: string
+  organisationName: string
+  illustrative: boolean
+  /** Metres above mean sea level at the reference epoch. */
+  rises: { year: number, rise: number }[]
+}
+
 export interface BriefingSource {
   language: Language
   units: HeightUnit
@@ -49,6 +61,8 @@ export interface BriefingSource {
   years: number[]
   /** The first is the outlook the briefing is issued from; the others are compared with it. */
   outlooks: BriefingOutlook[]
+  /** The primary outlook's scenario's published storylines, if any. */
+  storylines?: BriefingStoryline[]
 }
 
 /** A chance in the table; `extrapolated` (and † in `text`) where it rests on a release beyond its outermost level. */
@@ -57,6 +71,8 @@ export interface ChanceCell { probability: number, text: string, extrapolated?: 
 export interface BriefingDocument {
   meta: Omit<BriefingSource, 'outlooks' | 'thresholds' | 'years' | 'site'> & { siteName: string, referenceLevel: string, scenario: string, inputs: { scenario: string, inputHash: string }[] }
   summary: { intro: string, lines: string[], ranges: string[] }
+  /** High-end storylines, each with a line per chosen year it reaches (absent in documents issued before). */
+  storylines?: { name: string, description: string, lines: string[], source: string }[]
   charts: {
     years: number[]
     heights: number[]
@@ -195,6 +211,16 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
   const outerExtrapolated = result.byYear.map(y => y.percentiles.some(p => p.extrapolated === true && (Math.abs(p.level - 0.01) < 1e-9 || Math.abs(p.level - 0.99) < 1e-9)))
   const anyExtrapolated = outerExtrapolated.some(Boolean) || rows.some(row => row.chances.some(cell => cell.extrapolated))
     || source.thresholds.some(threshold => !isFlood(threshold) && yearIndexes.some(t => thresholdOf(primary, threshold.id)?.byYear[t]?.extrapolated === true))
+  const storylines = (source.storylines ?? []).map(storyline => ({
+    name: storyline.illustrative ? `${storyline.name} (${text.storylines.illustrative})` : storyline.name,
+    description: storyline.description,
+    lines: yearIndexes.flatMap((t) => {
+      const year = result.years[t]!
+      const at = storyline.rises.find(r => r.year === year)
+      return at ? [text.storylines.line(height(aboveDatum(at.rise)), site.referenceLevel, year, height(at.rise), site.referenceEpoch, height(percentile(result, t, 0.99)))] : []
+    }),
+    source: text.storylines.source(storyline.organisationName, storyline.version, storyline.citation),
+  }))
   const wordedPeriod = result.gumbel ? amplificationReturnPeriod(result.byYear[yearIndexes[0] ?? 0]!.gumbel!.returnPeriods) : undefined
   const extremes = wordedPeriod
     ? {
@@ -221,6 +247,7 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
       siteName: site.name, referenceLevel: site.referenceLevel, scenario: primary.scenario, inputs: source.outlooks.map(o => ({ scenario: o.scenario, inputHash: o.inputHash })),
     },
     summary: { intro: text.summaryIntro(site.name, primary.scenario), lines, ranges },
+    storylines,
     charts: {
       years: result.years,
       heights: result.heights.slice(from, to + 1),

@@ -22,6 +22,7 @@ export interface BriefingText {
   extremesTitle: string
   extremesHead: { year: string, allowance: string, expected: (today: number) => string, chance: string }
   extremesNote: string
+  storylines: { title: string, intro: string, line: (level: string, reference: string, year: number, rise: string, epoch: number, p99: string) => string, source: (organisation: string, version: number, citation: string) => string, illustrative: string }
   /** Beside an allowance that a heavy-tailed release leaves unbounded. */
   unsettled: string
   basisHead: { component: string, scenario: string, version: string, citation: string, state: string, scale: string }
@@ -56,6 +57,13 @@ const en: BriefingText = {
   chartFanLegend: { median: 'Middle estimate', likely: 'Likely range (17–83 %)', veryLikely: 'Very likely range (5–95 %)', extreme: '1–99 %' },
   tableHead: { scenario: 'Scenario', threshold: 'Threshold', measure: 'Chance of' },
   extremesTitle: 'Flood allowance and frequency',
+  storylines: {
+    title: 'High-end storylines',
+    intro: 'A storyline is a named case a science group considers plausible, such as an early collapse of part of an ice sheet. It has no probability and is not part of the chances above, which come from the releases alone: read it as "if this happened".',
+    line: (level, reference, year, rise, epoch, p99) => `If this storyline happened, the mean sea level here would be ${level} above ${reference} by ${year} (a rise of ${rise} since ${epoch}); the outlook's 99th percentile for ${year} is ${p99}.`,
+    source: (organisation, version, citation) => `Published by ${organisation}, version ${version}: ${citation}`,
+    illustrative: 'illustrative',
+  },
   extremesHead: { year: 'Year', allowance: 'Allowance', expected: today => `Today's ${today}-year level is expected`, chance: 'Chance in any one year' },
   extremesNote: 'The allowance is how much to raise an asset so that the expected number of floods stays as it is today. Without it, floods become more frequent: the multiple counts expected floods, while the chance of at least one flood in a year grows less and is shown beside it.',
   unsettled: 'not a settled value: a release\'s heavy tail is capped at its 99.9th percentile',
@@ -102,6 +110,13 @@ const es: BriefingText = {
   chartFanLegend: { median: 'Estimación central', likely: 'Rango probable (17–83 %)', veryLikely: 'Rango muy probable (5–95 %)', extreme: '1–99 %' },
   tableHead: { scenario: 'Escenario', threshold: 'Umbral', measure: 'Probabilidad de' },
   extremesTitle: 'Margen de inundación y frecuencia',
+  storylines: {
+    title: 'Escenarios extremos',
+    intro: 'Un escenario extremo es un caso concreto que un grupo científico considera plausible, como el colapso temprano de parte de un manto de hielo. No tiene probabilidad y no forma parte de las probabilidades anteriores, que salen solo de las versiones publicadas: léalo como «si esto ocurriera».',
+    line: (level, reference, year, rise, epoch, p99) => `Si este escenario ocurriera, el nivel medio del mar aquí estaría ${level} por encima de ${reference} en ${year} (una subida de ${rise} desde ${epoch}); el percentil 99 de la perspectiva para ${year} es ${p99}.`,
+    source: (organisation, version, citation) => `Publicado por ${organisation}, versión ${version}: ${citation}`,
+    illustrative: 'ilustrativo',
+  },
   extremesHead: { year: 'Año', allowance: 'Margen', expected: today => `El nivel de ${today} años de hoy se espera`, chance: 'Probabilidad en un año cualquiera' },
   extremesNote: 'El margen es cuánto elevar una infraestructura para que el número esperado de inundaciones siga como hoy. Sin él, las inundaciones se vuelven más frecuentes: el múltiplo cuenta inundaciones esperadas, mientras que la probabilidad de al menos una inundación en un año crece menos y se muestra al lado.',
   unsettled: 'no es un valor estable: la cola larga de una versión se limita a su percentil 99,9',
