@@ -27,7 +27,6 @@ export function howOften(expectedPerYear: number, language: Language): string {
  */
 export function floodYearSentence(parts: { year: number, height: number, annualChance: number, expectedPerYear: number }, context: FloodWordingContext): string {
   const often = howOften(parts.expectedPerYear, context.language)
-  const chance = formatChance(parts.annualChance, context.language)
   const level = height(parts.height, context)
   return context.language === 'es'
     ? `En ${parts.year} se espera que el agua alcance ${level} sobre ${context.datum} ${often}: una probabilidad ${chanceAfterDe(parts.annualChance)} en un año cualquiera.`
