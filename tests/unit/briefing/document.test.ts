@@ -74,3 +74,39 @@ describe('briefing summary sentences', () => {
     expect(fan.series.at(-1)!.data[0]).toBe(0)
   })
 })
+
+describe('briefing tails and storylines', () => {
+  it('marks an extrapolated chance with †, gives it no calibrated word, and says what † means', () => {
+    const patched = source(0.01)
+    patched.outlooks[0]!.result.thresholds[0]!.byYear[2] = { value: 0.01, se: 0.001, extrapolated: true }
+    const doc = buildBriefingDocument(patched)
+    const summary = doc.summary.lines[0]!.replace(/\u00A0/g, ' ')
+    expect(summary).toBe('Quay (0.50 m): about a 1-in-100 chance — 1 %, extrapolated: the releases do not describe this tail — that the mean sea level here is higher than this by 2100.')
+    expect(doc.table.rows[0]!.chances[0]).toMatchObject({ text: '1\u00A0% †', extrapolated: true })
+    expect(doc.extrapolation).toMatch(/^† Extrapolated: beyond the outermost level a release publishes\. The release does not describe that tail/)
+    // A normal release is never extrapolated, so the unpatched document has no note.
+    expect(buildBriefingDocument(source(0.3)).extrapolation).toBeNull()
+  })
+
+  it('words amplification as expected floods of today’s 100-year level, with its chance in a year', () => {
+    const doc = buildBriefingDocument(source(0.5))
+    const g = result.byYear[2]!.gumbel!
+    const chance = g.returnPeriods.find(r => r.today === 100)!.annualChance.value
+    // [practice] λ = 0.1 m and a rise of 0.5 ± 0.1 m: amplification e^{A/λ} ≈ e^{5.5} ≈ 245, so today's
+    // 100-year level is expected more than once a year.
+    expect(g.amplification * 0.01005).toBeGreaterThan(1)
+    expect(doc.extremes).toEqual({ today: 100, rows: [{ year: 2100, allowance: expect.stringMatching(/^0\.5\d m$/), expected: 'every year or more often', chance: expect.stringMatching(/%$/) }] })
+    expect(chance).toBeLessThan(1)
+  })
+
+  it('places a storyline beside the chances, one line per chosen year it reaches', () => {
+    const doc = buildBriefingDocument(source(0.5, {
+      storylines: [{ name: 'Early collapse', description: 'Ice retreats.', version: 2, citation: 'Group (2026)', organisationName: 'Saltglass', illustrative: true, rises: [{ year: 2050, rise: 0.3 }, { year: 2100, rise: 1.4 }] }],
+    }))
+    expect(doc.storylines).toEqual([{
+      name: 'Early collapse (illustrative)', description: 'Ice retreats.',
+      lines: [expect.stringMatching(/^If this storyline happened, the mean sea level here would be 1\.40 m above MSL 2020 by 2100 \(a rise of 1\.40 m since 2020\); the outlook's 99th percentile for 2100 is 0\.7\d m\.$/)],
+      source: 'Published by Saltglass, version 2: Group (2026)',
+    }])
+  })
+})

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { chanceAfterDe, chanceAsOdds, formatChance, headlineSentence, likelihoodPhrase, samplingNote } from '../../../shared/wording/chance'
+import { aChance, chanceAfterDe, chanceAsOdds, formatChance, headlineSentence, likelihoodPhrase, samplingNote } from '../../../shared/wording/chance'
 
 const nb = (text: string) => text.replace(/\u00A0/g, ' ')
 
@@ -62,5 +62,14 @@ describe('chances in words', () => {
     expect(nb(headlineSentence(parts))).toBe('Hay una probabilidad de menos del 1 % (excepcionalmente improbable; ± 0,8 % por el muestreo) de que el nivel medio del mar aquí esté más de 0,50 m por encima de NMM 2020 en 2070.')
     expect(nb(headlineSentence({ ...parts, probability: 0.999 }))).toMatch(/^Hay una probabilidad de más del 99 % /)
     expect(nb(chanceAfterDe(0.4))).toBe('del 40 %')
+  })
+
+  it('reads "an" before 8, 11, 18 and the eighties', () => {
+    // [practice] English article by sound: "an eighteen", "a twenty-three".
+    expect(aChance(0.18).replace(/\u00A0/g, ' ')).toBe('an 18 %')
+    expect(aChance(0.08).replace(/\u00A0/g, ' ')).toBe('an 8 %')
+    expect(aChance(0.85).replace(/\u00A0/g, ' ')).toBe('an 85 %')
+    expect(aChance(0.23).replace(/\u00A0/g, ' ')).toBe('a 23 %')
+    expect(aChance(0.001).replace(/\u00A0/g, ' ')).toBe('a less than 1 %')
   })
 })
