@@ -69,6 +69,9 @@ const siteOfOutlook = sharedReads(async (siteId: string) => {
   return site
 })
 
+/** A crowd reading outlooks of one scenario shares one query for its storylines. */
+const storylinesOfScenario = sharedReads(publishedStorylines)
+
 export interface OutlookStoryline {
   id: string
   name: string
@@ -87,7 +90,7 @@ export interface OutlookStoryline {
  */
 export async function storylinesAt(outlook: { scenario: string, storylineBasis: StorylineBasis | null }): Promise<OutlookStoryline[]> {
   if (!outlook.storylineBasis) return []
-  const published = await publishedStorylines(outlook.scenario)
+  const published = await storylinesOfScenario(outlook.scenario)
   return published.map(({ baselineYear, anchorYears, values, ...about }) => ({
     ...about,
     rises: storylineRise({ name: about.name, baselineYear, anchorYears, values }, outlook.storylineBasis!),
