@@ -212,12 +212,13 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
   const anyExtrapolated = outerExtrapolated.some(Boolean) || rows.some(row => row.chances.some(cell => cell.extrapolated))
     || source.thresholds.some(threshold => !isFlood(threshold) && yearIndexes.some(t => thresholdOf(primary, threshold.id)?.byYear[t]?.extrapolated === true))
   const storylines = (source.storylines ?? []).map(storyline => ({
-    name: storyline.illustrative ? `${storyline.name} (${text.storylines.illustrative})` : storyline.name,
+    // Demo storylines are labelled illustrative, once.
+    name: storyline.illustrative && !/illustrative|ilustrativ/i.test(storyline.name) ? `${storyline.name} (${text.storylines.illustrative})` : storyline.name,
     description: storyline.description,
     lines: yearIndexes.flatMap((t) => {
       const year = result.years[t]!
       const at = storyline.rises.find(r => r.year === year)
-      return at ? [text.storylines.line(height(aboveDatum(at.rise)), site.referenceLevel, year, height(at.rise), site.referenceEpoch, height(percentile(result, t, 0.99)))] : []
+      return at ? [text.storylines.line(height(aboveDatum(at.rise)), site.referenceLevel, year, height(at.rise), site.referenceEpoch, height(percentile(result, t, 0.95)))] : []
     }),
     source: text.storylines.source(storyline.organisationName, storyline.version, storyline.citation),
   }))

@@ -22,7 +22,7 @@ export interface BriefingText {
   extremesTitle: string
   extremesHead: { year: string, allowance: string, expected: (today: number) => string, chance: string }
   extremesNote: string
-  storylines: { title: string, intro: string, line: (level: string, reference: string, year: number, rise: string, epoch: number, p99: string) => string, source: (organisation: string, version: number, citation: string) => string, illustrative: string }
+  storylines: { title: string, intro: string, line: (level: string, reference: string, year: number, rise: string, epoch: number, p95: string) => string, source: (organisation: string, version: number, citation: string) => string, illustrative: string }
   /** Beside an allowance that a heavy-tailed release leaves unbounded. */
   unsettled: string
   basisHead: { component: string, scenario: string, version: string, citation: string, state: string, scale: string }
@@ -60,7 +60,7 @@ const en: BriefingText = {
   storylines: {
     title: 'High-end storylines',
     intro: 'A storyline is a named case a science group considers plausible, such as an early collapse of part of an ice sheet. It has no probability and is not part of the chances above, which come from the releases alone: read it as "if this happened".',
-    line: (level, reference, year, rise, epoch, p99) => `If this storyline happened, the mean sea level here would be ${level} above ${reference} by ${year} (a rise of ${rise} since ${epoch}); the outlook's 99th percentile for ${year} is ${p99}.`,
+    line: (level, reference, year, rise, epoch, p95) => `If this storyline happened, the mean sea level here would be ${level} above ${reference} by ${year} (a rise of ${rise} since ${epoch}); the outlook puts a 5 % chance on a rise above ${p95} by then.`,
     source: (organisation, version, citation) => `Published by ${organisation}, version ${version}: ${citation}`,
     illustrative: 'illustrative',
   },
@@ -113,7 +113,7 @@ const es: BriefingText = {
   storylines: {
     title: 'Escenarios extremos',
     intro: 'Un escenario extremo es un caso concreto que un grupo científico considera plausible, como el colapso temprano de parte de un manto de hielo. No tiene probabilidad y no forma parte de las probabilidades anteriores, que salen solo de las versiones publicadas: léalo como «si esto ocurriera».',
-    line: (level, reference, year, rise, epoch, p99) => `Si este escenario ocurriera, el nivel medio del mar aquí estaría ${level} por encima de ${reference} en ${year} (una subida de ${rise} desde ${epoch}); el percentil 99 de la perspectiva para ${year} es ${p99}.`,
+    line: (level, reference, year, rise, epoch, p95) => `Si este escenario ocurriera, el nivel medio del mar aquí estaría ${level} por encima de ${reference} en ${year} (una subida de ${rise} desde ${epoch}); la perspectiva da una probabilidad del 5 % a una subida de más de ${p95} para entonces.`,
     source: (organisation, version, citation) => `Publicado por ${organisation}, versión ${version}: ${citation}`,
     illustrative: 'ilustrativo',
   },
