@@ -31,9 +31,9 @@ export function useOutlookText() {
     chanceWithWord: (probability: number, extrapolated?: boolean) => `${chance(probability)} (${wordFor(probability, extrapolated)})`,
     /** The same after Spanish "de" ("es del 23 %", "es de menos del 1 %"); English needs no preposition. */
     ofChanceWithWord: (probability: number, extrapolated?: boolean) => `${language.value === 'es' ? chanceAfterDe(probability) : chance(probability)} (${wordFor(probability, extrapolated)})`,
-    /** A table cell: the value, with † when it rests on a release beyond its outermost level. */
+    /** A table cell: the value, with * when it rests on a release beyond its outermost level. */
     marked: (cell: string, extrapolated?: boolean) => (extrapolated ? `${cell} ${EXTRAPOLATED_MARK}` : cell),
-    /** What † means, in the reader's language. */
+    /** What * means, in the reader's language. */
     extrapolatedNote: computed(() => EXTRAPOLATED_NOTE[language.value]),
     beyondRange: computed(() => BEYOND_RANGE[language.value]),
     sentence: (parts: { probability: number, standardError: number, extrapolated?: boolean, height: number, year: number, referenceLevel: string }) =>

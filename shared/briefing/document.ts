@@ -65,7 +65,7 @@ export interface BriefingSource {
   storylines?: BriefingStoryline[]
 }
 
-/** A chance in the table; `extrapolated` (and † in `text`) where it rests on a release beyond its outermost level. */
+/** A chance in the table; `extrapolated` (and * in `text`) where it rests on a release beyond its outermost level. */
 export interface ChanceCell { probability: number, text: string, extrapolated?: boolean }
 
 export interface BriefingDocument {
@@ -79,7 +79,7 @@ export interface BriefingDocument {
     exceedance: { year: number, values: number[] }[]
     fan: { years: number[], p1: number[], p5: number[], p17: number[], p50: number[], p83: number[], p95: number[], p99: number[], /** Per year: the 1 % or 99 % level is extrapolated. */ outerExtrapolated?: boolean[] }
   }
-  /** What † means, where any number of the document is extrapolated (absent in documents issued before). */
+  /** What * means, where any number of the document is extrapolated (absent in documents issued before). */
   extrapolation?: string | null
   table: { years: number[], rows: { scenario: string, threshold: string, height: string, measure: string, chances: ChanceCell[] }[] }
   /** Allowance and amplification by year; amplification worded as expected floods of today's `today`-year level, with its annual chance. */

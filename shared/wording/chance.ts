@@ -84,10 +84,11 @@ export const BEYOND_RANGE: Record<Language, string> = {
 }
 
 /** The mark beside an extrapolated number in a table, and the note that explains it. */
-export const EXTRAPOLATED_MARK = '†'
+// An asterisk: the briefing PDF's font has no dagger, and the mark must read the same on paper.
+export const EXTRAPOLATED_MARK = '*'
 export const EXTRAPOLATED_NOTE: Record<Language, string> = {
-  en: '† Extrapolated: beyond the outermost level a release publishes. The release does not describe that tail; the value extends its outermost slope and carries no likelihood word.',
-  es: '† Extrapolado: más allá del nivel extremo que publica una versión. La versión no describe esa cola; el valor prolonga su pendiente exterior y no lleva término de probabilidad calibrado.',
+  en: '* Extrapolated: beyond the outermost level a release publishes. The release does not describe that tail; the value extends its outermost slope and carries no likelihood word.',
+  es: '* Extrapolado: más allá del nivel extremo que publica una versión. La versión no describe esa cola; el valor prolonga su pendiente exterior y no lleva término de probabilidad calibrado.',
 }
 
 export interface HeadlineParts {

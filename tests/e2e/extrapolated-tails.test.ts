@@ -64,8 +64,8 @@ describe('a 1 % exceedance outside every release\'s outermost level', () => {
     expect(by2100).toMatch(MARK)
     expect(by2100).not.toMatch(IPCC_WORD)
     expect(await page.locator('[data-testid="headline-sentence"][data-extrapolated="true"]').count()).toBeGreaterThan(0)
-    // The tables of the charts mark their extrapolated numbers with † and say what it means.
-    expect(plain(await page.getByTestId('extrapolated-note').first().textContent() ?? '')).toMatch(/^† Extrapolated: beyond the outermost level a release publishes\. The release does not describe that tail/)
+    // The tables of the charts mark their extrapolated numbers with * and say what it means.
+    expect(plain(await page.getByTestId('extrapolated-note').first().textContent() ?? '')).toMatch(/^\* Extrapolated: beyond the outermost level a release publishes\. The release does not describe that tail/)
     expect(await seriousAxeViolations(page), 'outlook page').toEqual([])
 
     const thresholdIds = (await (await page.request.get(`/api/sites/${siteId}`)).json() as { thresholds: { id: string }[] }).thresholds.map(th => th.id)
@@ -81,7 +81,7 @@ describe('a 1 % exceedance outside every release\'s outermost level', () => {
     expect(line2100, 'the summary line for 2100').toBeDefined()
     expect(line2100).toMatch(MARK)
     expect(line2100).not.toMatch(IPCC_WORD)
-    expect(text).toMatch(/† Extrapolated: beyond the outermost level a release publishes\. The release does not describe that tail/)
-    expect(text).toMatch(/%\s?†/)
+    expect(text).toMatch(/\* Extrapolated: beyond the outermost level a release publishes\. The release does not describe that tail/)
+    expect(text).toMatch(/%\s?\*/)
   })
 })

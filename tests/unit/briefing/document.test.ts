@@ -76,14 +76,14 @@ describe('briefing summary sentences', () => {
 })
 
 describe('briefing tails and storylines', () => {
-  it('marks an extrapolated chance with †, gives it no calibrated word, and says what † means', () => {
+  it('marks an extrapolated chance with *, gives it no calibrated word, and says what * means', () => {
     const patched = source(0.01)
     patched.outlooks[0]!.result.thresholds[0]!.byYear[2] = { value: 0.01, se: 0.001, extrapolated: true }
     const doc = buildBriefingDocument(patched)
     const summary = doc.summary.lines[0]!.replace(/\u00A0/g, ' ')
     expect(summary).toBe('Quay (0.50 m): about a 1-in-100 chance — 1 %, extrapolated: the releases do not describe this tail — that the mean sea level here is higher than this by 2100.')
-    expect(doc.table.rows[0]!.chances[0]).toMatchObject({ text: '1\u00A0% †', extrapolated: true })
-    expect(doc.extrapolation).toMatch(/^† Extrapolated: beyond the outermost level a release publishes\. The release does not describe that tail/)
+    expect(doc.table.rows[0]!.chances[0]).toMatchObject({ text: '1\u00A0% *', extrapolated: true })
+    expect(doc.extrapolation).toMatch(/^\* Extrapolated: beyond the outermost level a release publishes\. The release does not describe that tail/)
     // A normal release is never extrapolated, so the unpatched document has no note.
     expect(buildBriefingDocument(source(0.3)).extrapolation).toBeNull()
   })
