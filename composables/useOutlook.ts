@@ -28,6 +28,8 @@ export interface OutlookView {
   newerScience: { kind: 'new-version' | 'withdrawn' | 'adopted-other', component: string, usedVersion: number, latestVersion: number | null, latestReleaseId: string | null, seriesTitle: string | null }[]
   /** Published series of this scenario the organisation has not adopted: offered, not used. */
   offeredScience: { component: string, seriesId: string, title: string, organisationName: string, version: number }[]
+  /** Published high-end storylines of the scenario at this site: beside the chances, never part of them (absent while running). */
+  storylines?: { id: string, name: string, description: string, version: number, citation: string, organisationName: string, illustrative: boolean, rises: { year: number, rise: number }[] }[]
   durationMs: number | null
   createdAt: string
   finishedAt: string | null

@@ -1,4 +1,4 @@
-import { chanceAfterDe, chanceAsOdds, formatChance, headlineSentence, likelihoodPhrase, type Language } from '#shared/wording/chance'
+import { BEYOND_RANGE, chanceAfterDe, chanceAsOdds, EXTRAPOLATED_MARK, EXTRAPOLATED_NOTE, formatChance, headlineSentence, likelihoodPhrase, type Language } from '#shared/wording/chance'
 import { formatHeight, fromMetres } from '#shared/units'
 import type { StoredOutlookNote } from '#shared/types/outlook-notes'
 
@@ -13,6 +13,8 @@ export function useOutlookText() {
 
   const chance = (probability: number) => formatChance(probability, language.value)
   const word = (probability: number) => likelihoodPhrase(probability, language.value)
+  /** The calibrated word, or none for a chance beyond the releases' outermost levels (they do not describe that tail). */
+  const wordFor = (probability: number, extrapolated?: boolean) => (extrapolated ? BEYOND_RANGE[language.value] : word(probability))
   const number = (value: number, digits = 1) => value.toLocaleString(locale.value, { minimumFractionDigits: digits, maximumFractionDigits: digits })
   const dateTime = useDateTime()
   const component = (key: string) => (key === 'land-motion' ? t('outlook.landMotion') : t(`components.${key}`))
@@ -27,10 +29,15 @@ export function useOutlookText() {
     chance,
     word,
     odds: (probability: number) => chanceAsOdds(probability, language.value),
-    /** "23 % (unlikely)" */
-    chanceWithWord: (probability: number) => `${chance(probability)} (${word(probability)})`,
+    /** "23 % (unlikely)"; an extrapolated chance gets the extrapolated mark instead of a word. */
+    chanceWithWord: (probability: number, extrapolated?: boolean) => `${chance(probability)} (${wordFor(probability, extrapolated)})`,
     /** The same after Spanish "de" ("es del 23 %", "es de menos del 1 %"); English needs no preposition. */
-    ofChanceWithWord: (probability: number) => `${language.value === 'es' ? chanceAfterDe(probability) : chance(probability)} (${word(probability)})`,
+    ofChanceWithWord: (probability: number, extrapolated?: boolean) => `${language.value === 'es' ? chanceAfterDe(probability) : chance(probability)} (${wordFor(probability, extrapolated)})`,
+    /** A table cell: the value, with * when it rests on a release beyond its outermost level. */
+    marked: (cell: string, extrapolated?: boolean) => (extrapolated ? `${cell} ${EXTRAPOLATED_MARK}` : cell),
+    /** What * means, in the reader's language. */
+    extrapolatedNote: computed(() => EXTRAPOLATED_NOTE[language.value]),
+    beyondRange: computed(() => BEYOND_RANGE[language.value]),
     sentence: (parts: { probability: number, standardError: number, extrapolated?: boolean, height: number, year: number, referenceLevel: string }) =>
       headlineSentence({ ...parts, unit: preferences.units, language: language.value }),
     number,

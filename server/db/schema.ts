@@ -144,6 +144,27 @@ export const correlationSets = pgTable('correlation_sets', {
   uniqueIndex('correlation_sets_one_unpublished').on(table.organisationId, table.scenario).where(UNPUBLISHED),
 ])
 
+/**
+ * A high-end storyline: a named set of component values (metres of global-mean rise from its baseline
+ * year, per anchor year), e.g. a plausible ice-sheet instability case. Reviewed and versioned like a
+ * release, one series per (organisation, scenario, name); shown beside an outlook's chances and never
+ * sampled, so publishing one changes no outlook.
+ */
+export const storylines = pgTable('storylines', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  scenario: text('scenario').notNull(),
+  name: text('name').notNull(),
+  description: text('description').notNull(),
+  baselineYear: integer('baseline_year').notNull(),
+  anchorYears: jsonb('anchor_years').$type<number[]>().notNull(),
+  /** Per component it names: metres at each anchor year. Components it does not name stay at their middle estimate. */
+  values: jsonb('values').$type<Record<string, number[]>>().notNull(),
+  ...reviewed(),
+}, table => [
+  unique('storylines_version').on(table.organisationId, table.scenario, table.name, table.version),
+  uniqueIndex('storylines_one_unpublished').on(table.organisationId, table.scenario, table.name).where(UNPUBLISHED),
+])
+
 export const scaleFactorGrids = pgTable('scale_factor_grids', {
   id: uuid('id').primaryKey().defaultRandom(),
   component: text('component').notNull(),

@@ -1,5 +1,5 @@
 import type { Content, TDocumentDefinitions } from 'pdfmake/interfaces'
-import type { BriefingDocument } from '#shared/briefing/document'
+import { extremesTable, type BriefingDocument } from '#shared/briefing/document'
 import { dateLocale } from '#shared/wording/dates'
 import { exceedanceChartOption, fanChartOption } from '#shared/briefing/charts'
 import { BRIEFING_TEXT } from '#shared/briefing/text'
@@ -67,6 +67,7 @@ function detail(doc: BriefingDocument): Content[] {
 
 export function briefingPdfDefinition(doc: BriefingDocument, live: { url: string, signIn: boolean }, paper: Paper): TDocumentDefinitions {
   const text = BRIEFING_TEXT[doc.meta.language]
+  const extremes = extremesTable(doc)
   const meta = doc.meta
   const chartWidth = paper === 'A4' ? 500 : 510
   const issued = meta.issuedAt ? new Date(meta.issuedAt).toLocaleDateString(dateLocale(meta.language), { dateStyle: 'long' }) : text.draftMark
@@ -83,20 +84,34 @@ export function briefingPdfDefinition(doc: BriefingDocument, live: { url: string
     heading(1, text.sections.summary),
     { text: doc.summary.intro, margin: [0, 0, 0, 6] },
     ...summary(doc),
+    ...(doc.storylines?.length
+      ? [
+          { text: text.storylines.title, bold: true, margin: [0, 8, 0, 2] } as Content,
+          { text: text.storylines.intro, margin: [0, 0, 0, 4] } as Content,
+          ...doc.storylines.flatMap(storyline => [
+            { text: storyline.name, bold: true, margin: [0, 2, 0, 0] } as Content,
+            { text: storyline.description, fontSize: 9, color: MUTED } as Content,
+            { ul: storyline.lines, margin: [0, 2, 0, 2] } as Content,
+            { text: storyline.source, fontSize: 9, color: MUTED } as Content,
+          ]),
+        ]
+      : []),
     ...(meta.localContext ? [{ text: text.sections.context, bold: true, margin: [0, 8, 0, 2] } as Content, { text: meta.localContext }] : []),
 
     // A chart's title and its drawing stay on one page, and the section heading with the first.
     { stack: [heading(2, text.sections.charts), { text: text.chartExceedance, bold: true }, { svg: chartSvg(exceedanceChartOption(doc, PDF_FONT), chartWidth, 250), width: chartWidth }], unbreakable: true },
-    { stack: [{ text: text.chartFan, bold: true, margin: [0, 8, 0, 0] }, { svg: chartSvg(fanChartOption(doc, PDF_FONT), chartWidth, 250), width: chartWidth }], unbreakable: true },
+    { stack: [{ text: text.chartFan, bold: true, margin: [0, 8, 0, 0] }, { svg: chartSvg(fanChartOption(doc, PDF_FONT), chartWidth, 250), width: chartWidth },
+      ...(doc.extrapolation && doc.charts.fan.outerExtrapolated?.some(Boolean) ? [{ text: doc.extrapolation, fontSize: 9, color: MUTED }] : [])], unbreakable: true },
 
     table([text.tableHead.scenario, text.tableHead.threshold, text.tableHead.measure, ...doc.table.years.map(String)],
       doc.table.rows.map(row => [row.scenario, `${row.threshold} (${row.height})`, row.measure ?? '', ...row.chances.map(c => ({ text: c.text, alignment: 'right' }) as Content)]),
       { widths: ['auto', '*', '*', ...doc.table.years.map(() => 'auto')], lead: [heading(3, text.sections.table)] }),
-    ...(doc.extremes
+    ...(doc.extrapolation ? [{ text: doc.extrapolation, fontSize: 9, color: MUTED, margin: [0, 4, 0, 0] } as Content] : []),
+    ...(extremes
       ? [{
           stack: [
             { text: text.extremesTitle, bold: true, margin: [0, 10, 0, 4] },
-            table([text.extremesHead.year, text.extremesHead.allowance, text.extremesHead.amplification], doc.extremes.map(row => [String(row.year), row.allowance, row.amplification])),
+            table(extremes.head, extremes.rows, { widths: extremes.head.map((_, index) => (index === 2 ? '*' : 'auto')) }),
             { text: text.extremesNote, fontSize: 9, color: MUTED, margin: [0, 4, 0, 0] },
           ],
           unbreakable: true,

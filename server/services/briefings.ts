@@ -3,7 +3,9 @@ import { and, desc, eq, inArray } from 'drizzle-orm'
 import type { DatumKind } from '#shared/types/science'
 import { briefings, organisations, outlooks, releases, sites, thresholds, users } from '~~/server/db/schema'
 import { buildBriefingDocument, type BriefingDocument, type BriefingOutlook } from '#shared/briefing/document'
-import type { OutlookResult } from '#shared/engine'
+import type { OutlookInput, OutlookResult } from '#shared/engine'
+import { storylineBasis } from '#shared/storylines/rise'
+import { storylinesAt } from './outlook-read'
 import type { CreateBriefingInput, UpdateBriefingInput } from '#shared/schemas/briefings'
 import type { CurrentUser } from '../utils/auth'
 import { endShareWatches } from './watches'
@@ -77,6 +79,12 @@ function datumOf(outlook: { input: unknown } | undefined) {
   return datum ? { referenceLevel: datum.name, datumKind: datum.kind, datumOffset: datum.offset, referenceEpoch: datum.referenceEpoch } : {}
 }
 
+/** The published storylines of the primary outlook's scenario, placed at its site. */
+async function storylinesOfOutlook(outlook: { scenario: string, state: string, input: unknown } | undefined) {
+  if (!outlook || outlook.state !== 'done') return []
+  return storylinesAt({ scenario: outlook.scenario, storylineBasis: storylineBasis(outlook.input as OutlookInput) })
+}
+
 /** The document as it reads now (drafts) or as it was frozen (issued). */
 export async function briefingDocument(row: Briefing, issuedAt: Date | null = row.issuedAt, issuedBy: string | null = row.issuedBy): Promise<BriefingDocument> {
   if (row.document) return row.document as unknown as BriefingDocument
@@ -106,6 +114,7 @@ export async function briefingDocument(row: Briefing, issuedAt: Date | null = ro
     illustrative: site!.illustrative, organisation: site!.organisation, author: author?.name ?? null, site: { ...site!.site, ...datumOf(stored.find(o => o.id === row.outlookIds[0])) },
     thresholds: row.thresholdIds.map(id => chosen.find(t => t.id === id)!).filter(Boolean),
     years: row.years, outlooks: ordered,
+    storylines: await storylinesOfOutlook(stored.find(o => o.id === row.outlookIds[0])),
   })
 }
 

@@ -4,6 +4,9 @@ import type { CurrentUser } from '../utils/auth'
 import { preparedQuery } from '../utils/prepared-query'
 import { sharedReads } from '../utils/shared-reads'
 import { newerScience } from './outlooks'
+import { publishedStorylines } from './science-records'
+import { storylineBasis, storylineRise, type StorylineBasis } from '#shared/storylines/rise'
+import type { OutlookInput } from '#shared/engine'
 
 type OutlookRow = typeof outlooks.$inferSelect
 
@@ -18,6 +21,8 @@ interface Loaded {
   scenario: string
   releaseRefs: OutlookRow['releaseRefs']
   progress: number | null
+  /** What the published storylines need to be placed at this site (finished outlooks only). */
+  storylineBasis: StorylineBasis | null
   /** The stored fields as JSON without the closing brace, ready for the live fields to follow. */
   head: Buffer
 }
@@ -37,6 +42,7 @@ function loaded(row: OutlookRow): Loaded {
     scenario: row.scenario,
     releaseRefs: row.releaseRefs,
     progress: row.state === 'running' ? row.progress : null,
+    storylineBasis: row.state === 'done' ? storylineBasis(row.input as unknown as OutlookInput) : null,
     head: Buffer.from(json.slice(0, -1)),
   }
 }
@@ -63,6 +69,34 @@ const siteOfOutlook = sharedReads(async (siteId: string) => {
   return site
 })
 
+/** A crowd reading outlooks of one scenario shares one query for its storylines. */
+const storylinesOfScenario = sharedReads(publishedStorylines)
+
+export interface OutlookStoryline {
+  id: string
+  name: string
+  description: string
+  version: number
+  citation: string
+  organisationName: string
+  illustrative: boolean
+  /** Metres above mean sea level at the reference epoch, per output year the storyline reaches. */
+  rises: { year: number, rise: number }[]
+}
+
+/**
+ * The scenario's published storylines placed at the outlook's site: read fresh on every request (a
+ * storyline published later appears beside an outlook computed earlier), never part of the outlook.
+ */
+export async function storylinesAt(outlook: { scenario: string, storylineBasis: StorylineBasis | null }): Promise<OutlookStoryline[]> {
+  if (!outlook.storylineBasis) return []
+  const published = await storylinesOfScenario(outlook.scenario)
+  return published.map(({ baselineYear, anchorYears, values, ...about }) => ({
+    ...about,
+    rises: storylineRise({ name: about.name, baselineYear, anchorYears, values }, outlook.storylineBasis!),
+  }))
+}
+
 /**
  * The outlook as one JSON object in two pieces of UTF-8: its stored fields (shared by every reader of
  * a finished outlook), then its site's name, progress and whether newer science exists.
@@ -78,6 +112,7 @@ export async function getOutlookBody(user: CurrentUser, id: string): Promise<[Bu
     progress: outlook.progress,
     newerScience: science.newer,
     offeredScience: science.offered,
+    storylines: await storylinesAt(outlook),
   })
   // The stored object's closing brace was left off, so the live fields continue it (no key is in both).
   return [outlook.head, Buffer.from(`,${live.slice(1)}`)]

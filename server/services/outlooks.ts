@@ -45,6 +45,19 @@ function fitUncertainty(site: Site) {
   return site.gumbelLocationSe !== null && site.gumbelScaleSe !== null ? { locationSe: site.gumbelLocationSe, scaleSe: site.gumbelScaleSe } : {}
 }
 
+/**
+ * A flood level is compared with the total water level, which needs the site's extreme-water
+ * statistics. Leaving it out of the run would give an outlook that silently lacks a threshold the
+ * planner asked for, so the run is refused and says what to fix.
+ */
+function refuseFloodLevelsWithoutStatistics(site: Site, hasStatistics: boolean) {
+  if (hasStatistics) return
+  const issues = site.thresholds.flatMap((t, index) => t.kind === 'flood-level'
+    ? [{ field: `thresholds.${index}.kind`, message: `The flood level "${t.label}" is compared with the total water level and needs the site's extreme-water statistics (Gumbel location and scale); enter them on the site, or make it a mean-sea-level threshold.` }]
+    : [])
+  if (issues.length) throw createError({ statusCode: 400, message: issues.map(issue => `${issue.field}: ${issue.message}`).join(' '), data: { issues } })
+}
+
 /** Everything that goes into one run, with the provenance stored beside it. */
 export async function assembleOutlook(site: Site, request: OutlookRequest) {
   const science = await scienceFor(site.organisationId, request.scenario)
@@ -64,6 +77,7 @@ export async function assembleOutlook(site: Site, request: OutlookRequest) {
   // Heights above the datum → metres above mean sea level at the epoch, where rise is counted from.
   const aboveEpochMean = (height: number) => height - site.datumOffset
   const hasStatistics = site.gumbelLocation !== null && site.gumbelScale !== null
+  refuseFloodLevelsWithoutStatistics(site, hasStatistics)
 
   const input = {
     baselineYear,
@@ -75,7 +89,6 @@ export async function assembleOutlook(site: Site, request: OutlookRequest) {
     landMotion: { rateMmPerYear: site.landMotionRate, sigmaMmPerYear: site.landMotionSigma, epoch: site.landMotionEpoch },
     heights: HEIGHT_GRID,
     thresholds: site.thresholds.flatMap((t) => {
-      if (t.kind === 'flood-level' && !hasStatistics) return []
       const base = { key: t.id, height: aboveEpochMean(t.height), kind: t.kind }
       if (t.kind !== 'flood-level' || t.designLifeYears === null || t.buildYear === null) return [base]
       const lastYearOfLife = t.buildYear + t.designLifeYears - 1

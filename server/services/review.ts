@@ -1,23 +1,24 @@
 import { and, eq, type SQL } from 'drizzle-orm'
-import { correlationSets, releases, scaleFactorGrids, series } from '~~/server/db/schema'
+import { correlationSets, releases, scaleFactorGrids, series, storylines } from '~~/server/db/schema'
 import type { Database } from '~~/server/db/client'
 import { BRIEFING_TEXT } from '#shared/briefing/text'
 import { judgeReviewAction, type ReviewAction } from '#shared/review/rules'
 import type { CurrentUser } from '../utils/auth'
 
-// One review workflow for the three kinds of reviewed records. Publishing a version supersedes
+// One review workflow for the four kinds of reviewed records. Publishing a version supersedes
 // the previously published version of the same series in the same transaction.
 
 type Tx = Parameters<Parameters<Database['transaction']>[0]>[0]
-export type ReviewedKind = 'release' | 'correlation-set' | 'scale-factor-grid'
+export type ReviewedKind = 'release' | 'correlation-set' | 'scale-factor-grid' | 'storyline'
 
-const TABLES = { 'release': releases, 'correlation-set': correlationSets, 'scale-factor-grid': scaleFactorGrids } as const
+const TABLES = { 'release': releases, 'correlation-set': correlationSets, 'scale-factor-grid': scaleFactorGrids, 'storyline': storylines } as const
 type ReviewedTable = typeof TABLES[ReviewedKind]
 
 export const KIND_LABEL: Record<ReviewedKind, string> = {
   'release': 'release',
   'correlation-set': 'correlation set',
   'scale-factor-grid': 'scale-factor grid',
+  'storyline': 'storyline',
 }
 
 /** Rows that belong to the same series as `row`: the versions one publication supersedes. */
@@ -25,6 +26,10 @@ async function sameSeries(tx: Tx, kind: ReviewedKind, id: string): Promise<SQL> 
   if (kind === 'release') {
     const [row] = await tx.select({ seriesId: releases.seriesId }).from(releases).where(eq(releases.id, id))
     return eq(releases.seriesId, row!.seriesId)
+  }
+  if (kind === 'storyline') {
+    const [row] = await tx.select({ org: storylines.organisationId, scenario: storylines.scenario, name: storylines.name }).from(storylines).where(eq(storylines.id, id))
+    return and(eq(storylines.organisationId, row!.org), eq(storylines.scenario, row!.scenario), eq(storylines.name, row!.name))!
   }
   if (kind === 'correlation-set') {
     const [row] = await tx.select({ org: correlationSets.organisationId, scenario: correlationSets.scenario }).from(correlationSets).where(eq(correlationSets.id, id))
@@ -70,14 +75,15 @@ export async function applyReviewAction(kind: ReviewedKind, id: string, action: 
     const [updated] = await tx.update(table).set({ ...changes[action], updatedAt: now }).where(eq(table.id, id))
       .returning({ id: table.id, state: table.state, version: table.version })
     await writeAudit(tx, actor, `${kind}.${AUDIT_VERB[action]}`, { type: kind, id }, { version: row.version, from: row.state, to: verdict.to, ...payload })
-    if (action === 'approve' || action === 'withdraw') {
+    // A storyline is never sampled: publishing one changes no outlook, so nothing is recomputed or mailed.
+    if ((action === 'approve' || action === 'withdraw') && kind !== 'storyline') {
       // The recomputation is queued in this transaction: it happens if and only if the change lands.
       await enqueueJob(tx, 'science-change', { ...await scienceChange(tx, kind, id, action), requestedBy: actor.id })
       faultPoint('release-publish')
     }
     return updated!
   })
-  if (action === 'approve' || action === 'withdraw') kickJobs()
+  if ((action === 'approve' || action === 'withdraw') && kind !== 'storyline') kickJobs()
   return updated
 }
 
@@ -85,7 +91,7 @@ export async function applyReviewAction(kind: ReviewedKind, id: string, action: 
  * Published or withdrawn science changes outlooks: which scenario (null: every scenario, for a
  * scale-factor grid) and why, in each language, for the "what changed" e-mails.
  */
-async function scienceChange(tx: Tx, kind: ReviewedKind, id: string, action: 'approve' | 'withdraw') {
+async function scienceChange(tx: Tx, kind: Exclude<ReviewedKind, 'storyline'>, id: string, action: 'approve' | 'withdraw') {
   if (kind === 'release') {
     const [row] = await tx.select({ scenario: series.scenario, component: series.component, version: releases.version, seriesId: series.id })
       .from(releases).innerJoin(series, eq(series.id, releases.seriesId)).where(eq(releases.id, id))

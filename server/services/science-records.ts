@@ -1,17 +1,18 @@
 import { and, desc, eq, inArray, max, type SQL } from 'drizzle-orm'
 import { visibleTo } from './releases'
-import { correlationSets, organisations, scaleFactorGrids } from '~~/server/db/schema'
+import { correlationSets, organisations, scaleFactorGrids, storylines } from '~~/server/db/schema'
 import { validateCorrelationMatrix } from '#shared/engine'
 import { gridErrors, gridWarnings, parseGridCsv, type ScaleFactorGrid } from '#shared/releases/grid'
-import type { CreateCorrelationSetInput, CreateScaleFactorGridInput } from '#shared/schemas/releases'
+import type { CreateCorrelationSetInput, CreateScaleFactorGridInput, CreateStorylineInput } from '#shared/schemas/releases'
 import type { CurrentUser } from '../utils/auth'
 import { KIND_LABEL, type ReviewedKind } from './review'
 import { publishedSeries } from './adoptions'
 
-// Correlation sets and scale-factor grids: versioned and reviewed like releases, one series per
-// scenario (correlation) or per component (grids) within an organisation.
+// Correlation sets, scale-factor grids and storylines: versioned and reviewed like releases, one series
+// per scenario (correlation), per component (grids) or per scenario and name (storylines) within an
+// organisation.
 
-type Table = typeof correlationSets | typeof scaleFactorGrids
+type Table = typeof correlationSets | typeof scaleFactorGrids | typeof storylines
 
 async function nextVersion(table: Table, sameSeries: SQL, requested: number | undefined, kind: ReviewedKind) {
   const db = await useDb()
@@ -142,4 +143,49 @@ export async function getScaleFactorGrid(viewer: CurrentUser | null, id: string)
   const [row] = await db.select().from(scaleFactorGrids).where(and(eq(scaleFactorGrids.id, id), visible(scaleFactorGrids, viewer)))
   if (!row) throw createError({ statusCode: 404, message: 'No such scale-factor grid.' })
   return { ...row, warnings: gridWarnings(row) }
+}
+
+export async function createStoryline(actor: CurrentUser, input: CreateStorylineInput) {
+  const version = await nextVersion(storylines,
+    and(eq(storylines.organisationId, actor.organisationId), eq(storylines.scenario, input.scenario), eq(storylines.name, input.name))!, input.version, 'storyline')
+  const db = await useDb()
+  return db.transaction(async (tx) => {
+    const [created] = await tx.insert(storylines).values({
+      scenario: input.scenario, name: input.name, description: input.description, baselineYear: input.baselineYear,
+      anchorYears: input.anchorYears, values: input.values as Record<string, number[]>,
+      ...provenance(input), organisationId: actor.organisationId, version, authorId: actor.id,
+    }).returning({ id: storylines.id, version: storylines.version, state: storylines.state })
+    await writeAudit(tx, actor, 'storyline.drafted', { type: 'storyline', id: created!.id }, { version })
+    return created!
+  }).catch(error => sameMoment(error, version, 'storyline'))
+}
+
+export async function listStorylines(viewer: CurrentUser | null) {
+  const db = await useDb()
+  return db.select({
+    id: storylines.id, scenario: storylines.scenario, name: storylines.name, version: storylines.version, state: storylines.state,
+    authorId: storylines.authorId, organisationId: storylines.organisationId, organisationName: organisations.name,
+    withdrawalReason: storylines.withdrawalReason,
+  }).from(storylines).innerJoin(organisations, eq(organisations.id, storylines.organisationId))
+    .where(visible(storylines, viewer))
+    .orderBy(storylines.scenario, storylines.name, desc(storylines.version))
+}
+
+export async function getStoryline(viewer: CurrentUser | null, id: string) {
+  const db = await useDb()
+  const [row] = await db.select().from(storylines).where(and(eq(storylines.id, id), visible(storylines, viewer)))
+  if (!row) throw createError({ statusCode: 404, message: 'No such storyline.' })
+  return row
+}
+
+/** The published storylines of a scenario, from every organisation: shown beside its outlooks. */
+export async function publishedStorylines(scenario: string) {
+  const db = await useDb()
+  return db.select({
+    id: storylines.id, name: storylines.name, description: storylines.description, version: storylines.version,
+    citation: storylines.citation, baselineYear: storylines.baselineYear, anchorYears: storylines.anchorYears, values: storylines.values,
+    organisationName: organisations.name, illustrative: organisations.illustrative,
+  }).from(storylines).innerJoin(organisations, eq(organisations.id, storylines.organisationId))
+    .where(and(eq(storylines.scenario, scenario), eq(storylines.state, 'published')))
+    .orderBy(storylines.name)
 }

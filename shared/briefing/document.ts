@@ -1,7 +1,7 @@
 import type { OutlookResult, ThresholdOutlook } from '../engine'
 import { formatHeight, type HeightUnit } from '../units'
-import { formatChance, type Language } from '../wording/chance'
-import { designLifeLevelSentence, floodYearSentence, lifeSentence } from '../wording/flood'
+import { EXTRAPOLATED_MARK, EXTRAPOLATED_NOTE, formatChance, type Language } from '../wording/chance'
+import { amplificationReturnPeriod, designLifeLevelSentence, floodYearSentence, lifeSentence, todaysLevelExpected } from '../wording/flood'
 import type { DatumKind, ThresholdKind } from '../types/science'
 import { BRIEFING_TEXT, type BriefingText } from './text'
 import { headlineEstimate, keyThreshold, sayChance, spreadSentence } from './findings'
@@ -19,6 +19,18 @@ export interface BriefingOutlook {
   correlated: boolean
   releaseRefs: BriefingReleaseRef[]
   result: OutlookResult
+}
+
+/** A published high-end storyline placed at the site (see shared/storylines/rise.ts): beside the chances, never in them. */
+export interface BriefingStoryline {
+  name: string
+  description: string
+  version: number
+  citation: string
+  organisationName: string
+  illustrative: boolean
+  /** Metres above mean sea level at the reference epoch. */
+  rises: { year: number, rise: number }[]
 }
 
 export interface BriefingSource {
@@ -55,9 +67,12 @@ export interface BriefingSource {
   years: number[]
   /** The first is the outlook the briefing is issued from; the others are compared with it. */
   outlooks: BriefingOutlook[]
+  /** The primary outlook's scenario's published storylines, if any. */
+  storylines?: BriefingStoryline[]
 }
 
-export interface ChanceCell { probability: number, text: string }
+/** A chance in the table; `extrapolated` (and * in `text`) where it rests on a release beyond its outermost level. */
+export interface ChanceCell { probability: number, text: string, extrapolated?: boolean }
 
 /** Thresholds × years under the briefing's own scenario: the summary's compact table. */
 export interface SummaryGrid { scenario: string, caption: string, years: number[], rows: { threshold: string, height: string, flood: boolean, chances: ChanceCell[] }[] }
@@ -75,14 +90,19 @@ export interface BriefingDocument {
   summary: { intro: string, findings?: string[], grid?: SummaryGrid, lines?: string[], ranges?: string[] }
   /** For the engineer, after the table of chances: each threshold in one sentence, then the ranges. */
   detail?: { lines: string[], ranges: string[] }
+  /** High-end storylines, each with a line per chosen year it reaches (absent in documents issued before). */
+  storylines?: { name: string, description: string, lines: string[], source: string }[]
   charts: {
     years: number[]
     heights: number[]
     exceedance: { year: number, values: number[] }[]
-    fan: { years: number[], p1: number[], p5: number[], p17: number[], p50: number[], p83: number[], p95: number[], p99: number[] }
+    fan: { years: number[], p1: number[], p5: number[], p17: number[], p50: number[], p83: number[], p95: number[], p99: number[], /** Per year: the 1 % or 99 % level is extrapolated. */ outerExtrapolated?: boolean[] }
   }
+  /** What * means, where any number of the document is extrapolated (absent in documents issued before). */
+  extrapolation?: string | null
   table: { years: number[], rows: { scenario: string, threshold: string, height: string, measure: string, chances: ChanceCell[] }[] }
-  extremes: { year: number, allowance: string, amplification: string }[] | null
+  /** Allowance and amplification by year; amplification worded as expected floods of today's `today`-year level, with its annual chance. */
+  extremes: { today: number, rows: { year: number, allowance: string, expected: string, chance: string }[] } | null
   basis: { releases: { component: string, scenario: string, version: number, citation: string, state: string, scale: string }[], datum: string, landMotion: string, sampling: string, notes: string[], method: string[] }
   cautions: string[]
 }
@@ -126,6 +146,24 @@ function summaryGrid(rows: BriefingDocument['table']['rows'], source: BriefingSo
     caption: text.gridCaption(source.outlooks[0]!.scenario, rows.some(flood)),
     years: source.years,
     rows: rows.map(row => ({ threshold: row.threshold, height: row.height, flood: flood(row), chances: row.chances })),
+  }
+}
+
+/** Briefings issued before amplification was worded as expected floods froze this shape. */
+interface FrozenMultipleRow { year: number, allowance: string, amplification: string }
+const FROZEN_MULTIPLE_HEAD: Record<Language, string> = { en: 'Floods more often (×)', es: 'Inundaciones más frecuentes (×)' }
+
+/** The allowance table as laid out on the page and in the PDF, for a new or an already issued document. */
+export function extremesTable(doc: Pick<BriefingDocument, 'extremes' | 'meta'>): { head: string[], rows: string[][] } | null {
+  const extremes = doc.extremes as BriefingDocument['extremes'] | FrozenMultipleRow[]
+  if (!extremes) return null
+  const text = BRIEFING_TEXT[doc.meta.language]
+  if (Array.isArray(extremes)) {
+    return { head: [text.extremesHead.year, text.extremesHead.allowance, FROZEN_MULTIPLE_HEAD[doc.meta.language]], rows: extremes.map(row => [String(row.year), row.allowance, row.amplification]) }
+  }
+  return {
+    head: [text.extremesHead.year, text.extremesHead.allowance, text.extremesHead.expected(extremes.today), text.extremesHead.chance],
+    rows: extremes.rows.map(row => [String(row.year), row.allowance, row.expected, row.chance]),
   }
 }
 
@@ -216,25 +254,54 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
       if (isFlood(threshold)) return found.flood?.annualChance[index]?.value ?? Number.NaN
       return found.byYear[index]?.value ?? Number.NaN
     }
+    const extrapolatedAt = (index: number) => !isFlood(threshold) && found?.byYear[index]?.extrapolated === true
     return {
       scenario: outlook.scenario,
       threshold: threshold.label,
       height: heightOf(threshold, found),
       measure: isFlood(threshold) ? text.measures.flood : text.measures.meanSeaLevel,
-      chances: source.years.map((year) => {
-        const p = chanceAt(outlook.result.years.indexOf(year))
-        return { probability: p, text: Number.isNaN(p) ? '—' : formatChance(p, source.language) }
+      chances: source.years.map((year): ChanceCell => {
+        const index = outlook.result.years.indexOf(year)
+        const p = chanceAt(index)
+        if (Number.isNaN(p)) return { probability: p, text: '—' }
+        return extrapolatedAt(index)
+          ? { probability: p, text: `${formatChance(p, source.language)} ${EXTRAPOLATED_MARK}`, extrapolated: true }
+          : { probability: p, text: formatChance(p, source.language) }
       }),
     }
   }))
 
-  const extremes = result.gumbel
-    ? yearIndexes.map((t) => {
-        const g = result.byYear[t]!.gumbel!
-        // A heavy-tailed release makes both unbounded: the figures are for its tail capped, and say so.
-        const capped = g.settled === false ? ` (${text.unsettled})` : ''
-        return { year: result.years[t]!, allowance: `${height(g.allowance)}${capped}`, amplification: `${g.amplification.toLocaleString(source.language, { maximumSignificantDigits: 3 })}${capped}` }
-      })
+  const outerExtrapolated = result.byYear.map(y => y.percentiles.some(p => p.extrapolated === true && (Math.abs(p.level - 0.01) < 1e-9 || Math.abs(p.level - 0.99) < 1e-9)))
+  const anyExtrapolated = outerExtrapolated.some(Boolean) || rows.some(row => row.chances.some(cell => cell.extrapolated))
+    || source.thresholds.some(threshold => !isFlood(threshold) && yearIndexes.some(t => thresholdOf(primary, threshold.id)?.byYear[t]?.extrapolated === true))
+  const storylines = (source.storylines ?? []).map(storyline => ({
+    // Demo storylines are labelled illustrative, once.
+    name: storyline.illustrative && !/illustrative|ilustrativ/i.test(storyline.name) ? `${storyline.name} (${text.storylines.illustrative})` : storyline.name,
+    description: storyline.description,
+    lines: yearIndexes.flatMap((t) => {
+      const year = result.years[t]!
+      const at = storyline.rises.find(r => r.year === year)
+      return at ? [text.storylines.line(height(aboveDatum(at.rise)), site.referenceLevel, year, height(at.rise), site.referenceEpoch, height(percentile(result, t, 0.95)))] : []
+    }),
+    source: text.storylines.source(storyline.organisationName, storyline.version, storyline.citation),
+  }))
+  const wordedPeriod = result.gumbel ? amplificationReturnPeriod(result.byYear[yearIndexes[0] ?? 0]!.gumbel!.returnPeriods) : undefined
+  const extremes = wordedPeriod
+    ? {
+        today: wordedPeriod.today,
+        rows: yearIndexes.map((t) => {
+          const g = result.byYear[t]!.gumbel!
+          const period = g.returnPeriods.find(r => r.today === wordedPeriod.today)!
+          // A heavy-tailed release makes both unbounded: the figures are for its tail capped, and say so.
+          const capped = g.settled === false ? ` (${text.unsettled})` : ''
+          return {
+            year: result.years[t]!,
+            allowance: `${height(g.allowance)}${capped}`,
+            expected: `${todaysLevelExpected({ today: period.today, amplification: g.amplification }, source.language)}${capped}`,
+            chance: formatChance(period.annualChance.value, source.language),
+          }
+        }),
+      }
     : null
 
   return {
@@ -246,12 +313,14 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
     },
     summary: { intro: text.summaryIntro(site.name, primary.scenario), findings, grid: summaryGrid(rows.filter(row => row.scenario === primary.scenario), source, text) },
     detail: { lines: detailLines, ranges },
+    storylines,
     charts: {
       years: result.years,
       heights: result.heights.slice(from, to + 1),
       exceedance: yearIndexes.map(t => ({ year: result.years[t]!, values: result.byYear[t]!.exceedance.slice(from, to + 1).map(e => e.value) })),
-      fan: { years: result.years, p1: series(0.01), p5: series(0.05), p17: series(0.17), p50: series(0.5), p83: series(0.83), p95: series(0.95), p99: series(0.99) },
+      fan: { years: result.years, p1: series(0.01), p5: series(0.05), p17: series(0.17), p50: series(0.5), p83: series(0.83), p95: series(0.95), p99: series(0.99), outerExtrapolated },
     },
+    extrapolation: anyExtrapolated ? EXTRAPOLATED_NOTE[source.language] : null,
     table: { years: source.years, rows },
     extremes,
     basis: {

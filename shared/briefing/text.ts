@@ -38,8 +38,9 @@ export interface BriefingText {
   chartFanLegend: { median: string, likely: string, veryLikely: string, extreme: string }
   tableHead: { scenario: string, threshold: string, measure: string }
   extremesTitle: string
-  extremesHead: { year: string, allowance: string, amplification: string }
+  extremesHead: { year: string, allowance: string, expected: (today: number) => string, chance: string }
   extremesNote: string
+  storylines: { title: string, intro: string, line: (level: string, reference: string, year: number, rise: string, epoch: number, p95: string) => string, source: (organisation: string, version: number, citation: string) => string, illustrative: string }
   /** Beside an allowance that a heavy-tailed release leaves unbounded. */
   unsettled: string
   basisHead: { component: string, scenario: string, version: string, citation: string, state: string, scale: string }
@@ -86,8 +87,15 @@ const en: BriefingText = {
   chartFanLegend: { median: 'Middle estimate', likely: 'Likely range (17–83 %)', veryLikely: 'Very likely range (5–95 %)', extreme: '1–99 %' },
   tableHead: { scenario: 'Scenario', threshold: 'Threshold', measure: 'Chance of' },
   extremesTitle: 'Flood allowance and frequency',
-  extremesHead: { year: 'Year', allowance: 'Allowance', amplification: 'Floods more often (×)' },
-  extremesNote: 'The allowance is how much to raise an asset so that the expected number of floods stays as it is today; the second column is how many times more often today\'s floods would be expected.',
+  storylines: {
+    title: 'High-end storylines',
+    intro: 'A storyline is a named case a science group considers plausible, such as an early collapse of part of an ice sheet. It has no probability and is not part of the chances above, which come from the releases alone: read it as "if this happened".',
+    line: (level, reference, year, rise, epoch, p95) => `If this storyline happened, the mean sea level here would be ${level} above ${reference} by ${year} (a rise of ${rise} since ${epoch}); the outlook puts a 5 % chance on a rise above ${p95} by then.`,
+    source: (organisation, version, citation) => `Published by ${organisation}, version ${version}: ${citation}`,
+    illustrative: 'illustrative',
+  },
+  extremesHead: { year: 'Year', allowance: 'Allowance', expected: today => `Today's ${today}-year level is expected`, chance: 'Chance in any one year' },
+  extremesNote: 'The allowance is how much to raise an asset so that the expected number of floods stays as it is today. Without it, floods become more frequent: the multiple counts expected floods, while the chance of at least one flood in a year grows less and is shown beside it.',
   unsettled: 'not a settled value: a release\'s heavy tail is capped at its 99.9th percentile',
   basisHead: { component: 'Source of rise', scenario: 'Scenario', version: 'Version', citation: 'Citation', state: 'State', scale: 'Scale factor' },
   landMotion: (rate, sigma, source, epoch, reference) => `Land motion: ${rate} ± ${sigma} per year (negative means the land sinks, which adds to the rise), from ${source}, reference year ${epoch}. ${reference}`,
@@ -145,8 +153,15 @@ const es: BriefingText = {
   chartFanLegend: { median: 'Estimación central', likely: 'Rango probable (17–83 %)', veryLikely: 'Rango muy probable (5–95 %)', extreme: '1–99 %' },
   tableHead: { scenario: 'Escenario', threshold: 'Umbral', measure: 'Probabilidad de' },
   extremesTitle: 'Margen de inundación y frecuencia',
-  extremesHead: { year: 'Año', allowance: 'Margen', amplification: 'Inundaciones más frecuentes (×)' },
-  extremesNote: 'El margen es cuánto elevar una infraestructura para que el número esperado de inundaciones siga como hoy; la segunda columna indica cuántas veces más a menudo se esperarían las inundaciones de hoy.',
+  storylines: {
+    title: 'Escenarios extremos',
+    intro: 'Un escenario extremo es un caso concreto que un grupo científico considera plausible, como el colapso temprano de parte de un manto de hielo. No tiene probabilidad y no forma parte de las probabilidades anteriores, que salen solo de las versiones publicadas: léalo como «si esto ocurriera».',
+    line: (level, reference, year, rise, epoch, p95) => `Si este escenario ocurriera, el nivel medio del mar aquí estaría ${level} por encima de ${reference} en ${year} (una subida de ${rise} desde ${epoch}); la perspectiva da una probabilidad del 5 % a una subida de más de ${p95} para entonces.`,
+    source: (organisation, version, citation) => `Publicado por ${organisation}, versión ${version}: ${citation}`,
+    illustrative: 'ilustrativo',
+  },
+  extremesHead: { year: 'Año', allowance: 'Margen', expected: today => `El nivel de ${today} años de hoy se espera`, chance: 'Probabilidad en un año cualquiera' },
+  extremesNote: 'El margen es cuánto elevar una infraestructura para que el número esperado de inundaciones siga como hoy. Sin él, las inundaciones se vuelven más frecuentes: el múltiplo cuenta inundaciones esperadas, mientras que la probabilidad de al menos una inundación en un año crece menos y se muestra al lado.',
   unsettled: 'no es un valor estable: la cola larga de una versión se limita a su percentil 99,9',
   basisHead: { component: 'Fuente de subida', scenario: 'Escenario', version: 'Versión', citation: 'Cita', state: 'Estado', scale: 'Factor de escala' },
   landMotion: (rate, sigma, source, epoch, reference) => `Movimiento del terreno: ${rate} ± ${sigma} al año (negativo significa que el terreno se hunde, lo que suma a la subida), según ${source}, año de referencia ${epoch}. ${reference}`,

@@ -63,10 +63,35 @@ function proportion(count: number, n: number): Estimate {
   return estimate
 }
 
+/**
+ * An averaged chance of exactly 0 (or 1) has no spread to take an SE from, yet N samples only show
+ * that the rise reached a region where the chance is not negligible in fewer than about 3 of N
+ * trajectories (95 %, one-sided): each per-sample chance is at most 1, so the mean is at most about
+ * 3/N. The same rule of three as a count of 0.
+ */
+function withEdgeBounds(estimate: Estimate, n: number): Estimate {
+  if (estimate.value === 0) estimate.upperBound95 = Math.min(1, RULE_OF_THREE / n)
+  else if (estimate.value === 1) estimate.lowerBound95 = Math.max(0, 1 - RULE_OF_THREE / n)
+  return estimate
+}
+
 /** A mean chance from its deviation sums at `at` (see `SumLayout`); rounding may not take it outside [0, 1]. */
 function meanChance(reference: number, sums: Float64Array, at: number, n: number): Estimate {
   const estimate = meanFromDeviations(reference, sums[at]!, sums[at + 1]!, n)
-  return { value: Math.min(1, Math.max(0, estimate.value)), se: estimate.se }
+  return withEdgeBounds({ value: Math.min(1, Math.max(0, estimate.value)), se: estimate.se }, n)
+}
+
+/**
+ * A trigger year rests on the rise's level 1 − tolerance; it is extrapolated when that level is beyond
+ * a release's published levels in either output year around it (or in the last year, when the
+ * tolerance is not reached: "not within the horizon" rests on the same tail).
+ */
+function triggerExtrapolated(plan: OutlookPlan, byYear: YearOutlook[], tolerance: number, year: number | null): boolean {
+  const level = 1 - tolerance
+  const last = plan.years.length - 1
+  const after = year === null ? last : plan.years.findIndex(y => y >= year)
+  const around = after <= 0 ? [Math.max(0, after)] : [after - 1, after]
+  return around.some(t => extrapolated(plan, byYear[t]!.varianceShare, level))
 }
 
 /**
@@ -138,7 +163,12 @@ export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): Outloo
         extrapolated: extrapolated(plan, varianceShare, level),
       })),
       exceedance: plan.heightCutIndex.length
-        ? Array.from(plan.heightCutIndex, (cut) => proportion(exceedanceCounts[t]![cut]!, n))
+        ? Array.from(plan.heightCutIndex, (cut) => {
+            const estimate = proportion(exceedanceCounts[t]![cut]!, n)
+            // Only where true: the grid has hundreds of heights a year, and most chances rest on no tail.
+            if (extrapolated(plan, varianceShare, 1 - estimate.value)) estimate.extrapolated = true
+            return estimate
+          })
         : [],
       varianceShare,
       gumbel: yearGumbel(plan, sums, t, n),
@@ -170,7 +200,8 @@ export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): Outloo
         // The first calendar year whose chance (count / N, as in byYear) reaches the tolerance.
         triggerYears: plan.tolerances.map((tolerance) => {
           const index = annual.findIndex((count) => count / n >= tolerance)
-          return { tolerance, year: index < 0 ? null : trigger.firstYear + index }
+          const year = index < 0 ? null : trigger.firstYear + index
+          return { tolerance, year, extrapolated: triggerExtrapolated(plan, byYear, tolerance, year) }
         }),
         flood: null,
         lifeExceedance: null,
@@ -263,7 +294,7 @@ function floodThreshold(
   const span = plan.lifeSpans[threshold.lifeSpanIndex]!
   return {
     flood,
-    lifeExceedance: { value: 1 - none.value, se: none.se },
+    lifeExceedance: withEdgeBounds({ value: 1 - none.value, se: none.se }, n),
     designLifeLevel: {
       chance: threshold.designLifeChance,
       level: gumbel.uncertainty

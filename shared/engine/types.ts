@@ -282,7 +282,7 @@ export interface Estimate {
   /**
    * On every percentile and every mean-sea-level `byYear` chance: true when it rests on a quantile-form
    * release beyond its outermost published levels (rule in the engine README, "Extrapolated"); such a
-   * value gets no likelihood word.
+   * value gets no likelihood word. On the height grid's `exceedance`, present only where true.
    */
   extrapolated?: boolean
 }
@@ -352,8 +352,13 @@ export interface ThresholdOutlook {
   lifeStartYear: number | null
   /** mean-sea-level only: P(rise > height) per output year. Empty for a flood level: it is never worded from the mean-sea-level chance. */
   byYear: Estimate[]
-  /** mean-sea-level only: first output year whose P reaches each tolerance (null = not within the horizon); empty for a flood level. */
-  triggerYears: Array<{ tolerance: number; year: number | null }>
+  /** mean-sea-level only: first calendar year whose P reaches each tolerance (null = not within the horizon); empty for a flood level. */
+  triggerYears: Array<{
+    tolerance: number
+    year: number | null
+    /** The year rests on the rise's level 1 − tolerance beyond a release's published levels (see `Estimate.extrapolated`). */
+    extrapolated?: boolean
+  }>
   /** flood-level only (null otherwise). */
   flood: FloodLevelOutlook | null
   /** flood-level with a life: chance of at least one exceedance during years lifeStartYear … lifeStartYear+L−1. */

@@ -132,3 +132,28 @@ export const CreateScaleFactorGridSchema = z.object({
 
 export type CreateCorrelationSetInput = z.infer<typeof CreateCorrelationSetSchema>
 export type CreateScaleFactorGridInput = z.infer<typeof CreateScaleFactorGridSchema>
+
+/** A storyline's values: a rise (metres) per anchor year for each component it names. */
+export const CreateStorylineSchema = z.object({
+  scenario: scenarioField,
+  name: text('storyline name', MAX_TEXT.title),
+  description: text('description of what the storyline supposes', MAX_TEXT.method),
+  baselineYear: z.number({ error: 'Enter the baseline year (zero rise there).' }).int({ error: 'Enter a whole year.' }).min(1900, { error: 'Use a year from 1900.' }).max(2100, { error: 'Use a year up to 2100.' }),
+  anchorYears: anchorYearsField.min(1, { error: 'Enter at least one anchor year.' })
+    .refine(years => years.every((year, i) => i === 0 || year > years[i - 1]!), { error: 'List the anchor years in increasing order, each once.' }),
+  values: z.partialRecord(componentField, perAnchorList.refine(list => list.every(v => Math.abs(v) <= 30), { error: 'Enter metres between −30 and 30.' }), { error: 'Give { component: [metres per anchor year] }.' })
+    .refine(values => Object.keys(values).length > 0, { error: 'Name at least one component and its values.' }),
+  version: z.number({ error: VERSION_HINT }).int({ error: VERSION_HINT }).positive({ error: VERSION_HINT }).optional(),
+  ...provenanceFields,
+}).superRefine((input, ctx) => {
+  if (input.anchorYears[0] !== undefined && input.anchorYears[0] <= input.baselineYear) {
+    ctx.addIssue({ code: 'custom', path: ['anchorYears'], message: 'Anchor years come after the baseline year.' })
+  }
+  for (const [component, list] of Object.entries(input.values)) {
+    if (list && list.length !== input.anchorYears.length) {
+      ctx.addIssue({ code: 'custom', path: ['values', component], message: `Give one value per anchor year (${input.anchorYears.length}).` })
+    }
+  }
+})
+
+export type CreateStorylineInput = z.infer<typeof CreateStorylineSchema>

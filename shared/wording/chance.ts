@@ -79,8 +79,16 @@ export function samplingNote(standardError: number, language: Language): string 
  * level: the release does not describe that tail, so no likelihood word is earned.
  */
 export const BEYOND_RANGE: Record<Language, string> = {
-  en: 'beyond the range the releases describe',
-  es: 'fuera del rango que describen las versiones publicadas',
+  en: 'extrapolated: the releases do not describe this tail',
+  es: 'extrapolada: las versiones publicadas no describen esta cola',
+}
+
+/** The mark beside an extrapolated number in a table, and the note that explains it. */
+// An asterisk: the briefing PDF's font has no dagger, and the mark must read the same on paper.
+export const EXTRAPOLATED_MARK = '*'
+export const EXTRAPOLATED_NOTE: Record<Language, string> = {
+  en: '* Extrapolated: beyond the outermost level a release publishes. The release does not describe that tail; the value extends its outermost slope and carries no likelihood word.',
+  es: '* Extrapolado: más allá del nivel extremo que publica una versión. La versión no describe esa cola; el valor prolonga su pendiente exterior y no lleva término de probabilidad calibrado.',
 }
 
 export interface HeadlineParts {
@@ -109,4 +117,33 @@ export function headlineSentence(parts: HeadlineParts): string {
   return language === 'es'
     ? `Hay una probabilidad ${chanceAfterDe(probability)} ${qualifier} de que el nivel medio del mar aquí esté más de ${height} por encima de ${parts.referenceLevel} en ${parts.year}.`
     : `There is a ${chance} chance ${qualifier} that the mean sea level here will be more than ${height} above ${parts.referenceLevel} by ${parts.year}.`
+}
+
+export interface SampledChance { value: number, se: number, upperBound95?: number, lowerBound95?: number }
+
+const percentOf = (probability: number, language: Language) =>
+  `${(probability * 100).toLocaleString(language, { maximumSignificantDigits: 2 })}\u00A0%`
+
+/**
+ * How sure the sampling is of a chance: its Monte Carlo standard error, or where no sample (or every
+ * sample) reached the level, the one-sided 95 % bound of the rule of three instead of "0 ± 0".
+ */
+export function samplingPrecision(estimate: SampledChance, language: Language): string {
+  const es = language === 'es'
+  if (estimate.upperBound95 !== undefined) {
+    const bound = percentOf(estimate.upperBound95, language)
+    return es ? `Menos del ${bound} con un 95 % de confianza: ninguna muestra llegó a ella.` : `Below ${bound} at 95 % confidence: no sample reached it.`
+  }
+  if (estimate.lowerBound95 !== undefined) {
+    const bound = percentOf(estimate.lowerBound95, language)
+    return es ? `Más del ${bound} con un 95 % de confianza: todas las muestras llegaron a ella.` : `Above ${bound} at 95 % confidence: every sample reached it.`
+  }
+  const se = percentOf(estimate.se, language)
+  return es ? `Error estándar del muestreo: ${se}.` : `Sampling standard error: ${se}.`
+}
+
+/** "a 23 % chance" but "an 18 % chance", "an 8 % chance", "an 80 % chance": the article a number is read with. */
+export function aChance(probability: number): string {
+  const chance = formatChance(probability, 'en')
+  return /^(8|11|18)\b|^8\d\b/.test(chance.replace(/\u00A0/g, ' ')) ? `an ${chance}` : `a ${chance}`
 }

@@ -1,5 +1,5 @@
 import { formatHeight, type HeightUnit } from '../units'
-import { chanceAfterDe, formatChance, likelihoodPhrase, type Language } from './chance'
+import { aChance, chanceAfterDe, formatChance, likelihoodPhrase, type Language } from './chance'
 
 // Flood levels in plain words. A flood level is a height of the total water level (a crest, a floor,
 // a road), reached by the year's highest tides and surges on top of the mean sea level: its numbers
@@ -27,11 +27,10 @@ export function howOften(expectedPerYear: number, language: Language): string {
  */
 export function floodYearSentence(parts: { year: number, height: number, annualChance: number, expectedPerYear: number }, context: FloodWordingContext): string {
   const often = howOften(parts.expectedPerYear, context.language)
-  const chance = formatChance(parts.annualChance, context.language)
   const level = height(parts.height, context)
   return context.language === 'es'
     ? `En ${parts.year} se espera que el agua alcance ${level} sobre ${context.datum} ${often}: una probabilidad ${chanceAfterDe(parts.annualChance)} en un año cualquiera.`
-    : `In ${parts.year} the water is expected to reach ${level} above ${context.datum} ${often}: a ${chance} chance in any one year.`
+    : `In ${parts.year} the water is expected to reach ${level} above ${context.datum} ${often}: ${aChance(parts.annualChance)} chance in any one year.`
 }
 
 /**
@@ -54,4 +53,39 @@ export function designLifeLevelSentence(parts: { chance: number, level: number }
   return context.language === 'es'
     ? `Para que la probabilidad de al menos un rebase en esa vida útil sea ${chanceAfterDe(parts.chance)}, la cota tendría que estar a ${level} sobre ${context.datum}: es la cota de vida útil de diseño.`
     : `For a ${chance} chance of at least one overtopping in that life, the level would have to be ${level} above ${context.datum}: its design-life level.`
+}
+
+/**
+ * Amplification as expected events. A level reached on average once every T years today is expected
+ * e^{rise/λ} times as often under a rise, on average: the multiple is exact for the expected number of
+ * floods a year, not for the chance of one, which grows less (and can never pass 100 %). Past one
+ * expected event a year a multiple says nothing a planner can use, so it becomes "every year or more
+ * often". `today` is T; `amplification` the outlook's mean e^{rise/λ}.
+ */
+export function todaysLevelExpected(parts: { today: number, amplification: number }, language: Language): string {
+  const es = language === 'es'
+  // Today's expected events a year at the T-year level: −ln(1 − 1/T), the Gumbel's Poisson rate.
+  const perYear = parts.amplification * -Math.log1p(-1 / parts.today)
+  if (perYear >= 1) return es ? 'todos los años o más a menudo' : 'every year or more often'
+  const multiple = number(parts.amplification, language, parts.amplification < 10 ? 2 : 3)
+  const every = number(1 / perYear, language, 2)
+  return es
+    ? `aproximadamente una vez cada ${every} años (${multiple} veces más inundaciones esperadas que hoy)`
+    : `about once every ${every} years (${multiple} times as many expected floods as today)`
+}
+
+/**
+ * "Without that raise, today's 100-year level would be reached about once every 5.5 years (18.3 times as
+ * many expected floods as today): a 17 % chance in any one year." The chance beside the expected events.
+ */
+export function amplificationSentence(parts: { today: number, amplification: number, annualChance: number }, language: Language): string {
+  const often = todaysLevelExpected(parts, language)
+  return language === 'es'
+    ? `Sin esa elevación, el nivel de ${parts.today} años de hoy se alcanzaría ${often}: una probabilidad ${chanceAfterDe(parts.annualChance)} en un año cualquiera.`
+    : `Without that raise, today's ${parts.today}-year level would be reached ${often}: ${aChance(parts.annualChance)} chance in any one year.`
+}
+
+/** The return period amplification is worded for: today's 100-year level, or the rarest one computed. */
+export function amplificationReturnPeriod<T extends { today: number }>(periods: T[]): T | undefined {
+  return periods.find(period => period.today === 100) ?? periods.reduce<T | undefined>((rarest, period) => (!rarest || period.today > rarest.today ? period : rarest), undefined)
 }

@@ -3,7 +3,7 @@ import { join, relative } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import {
   ANNUAL_MAXIMA_CSV, GAUGE_RECORD_CSV, OUTLOOK_REQUEST, PERSONAS, RELEASE_CONTENT, SITE_BODY, createMatrixFixtures, foreignSecrets, foreignSnapshot,
-  newCorrelationSet, newGrid, newRelease, type MatrixFixtures, type Persona,
+  newCorrelationSet, newStoryline, newGrid, newRelease, type MatrixFixtures, type Persona,
 } from '../support/matrix-fixtures'
 import { ROOT, startServer, type RunningServer } from '../support/server'
 
@@ -172,6 +172,13 @@ const ROUTES: Record<string, RouteCase> = {
   'correlation-sets/[id]/approve.post.ts': { url: (fx, scope) => `/api/correlation-sets/${pick(scope, fx.home.correlationSets.approve, fx.foreign.correlationDraft)}/approve`, expect: only('analyst', 200) },
   'correlation-sets/[id]/return.post.ts': { url: (fx, scope) => `/api/correlation-sets/${pick(scope, fx.home.correlationSets.return, fx.foreign.correlationDraft)}/return`, body: () => ({ note: 'Check the matrix.' }), expect: only('analyst', 200) },
   'correlation-sets/[id]/withdraw.post.ts': { url: (fx, scope) => `/api/correlation-sets/${pick(scope, fx.home.correlationSets.withdraw, fx.foreign.correlationDraft)}/withdraw`, body: () => ({ reason: 'Matrix test.' }), expect: only('analyst', 200) },
+  'storylines/index.get.ts': { unscoped: true, url: () => '/api/storylines', expect: anyone(200) },
+  'storylines/index.post.ts': { unscoped: true, url: () => '/api/storylines', body: (_fx, _s, persona) => newStoryline('matrix-scenario', `Matrix new storyline ${persona}`), expect: { ...anyone(403), anonymous: 401, analyst: 201 } },
+  'storylines/[id].get.ts': { url: (fx, scope) => `/api/storylines/${pick(scope, fx.home.storylines.read, fx.foreign.storylineDraft)}`, expect: draftsInside },
+  'storylines/[id]/submit.post.ts': { url: (fx, scope) => `/api/storylines/${pick(scope, fx.home.storylines.submit, fx.foreign.storylineDraft)}/submit`, expect: only('analyst', 200) },
+  'storylines/[id]/approve.post.ts': { url: (fx, scope) => `/api/storylines/${pick(scope, fx.home.storylines.approve, fx.foreign.storylineDraft)}/approve`, expect: only('analyst', 200) },
+  'storylines/[id]/return.post.ts': { url: (fx, scope) => `/api/storylines/${pick(scope, fx.home.storylines.return, fx.foreign.storylineDraft)}/return`, body: () => ({ note: 'Check the values.' }), expect: only('analyst', 200) },
+  'storylines/[id]/withdraw.post.ts': { url: (fx, scope) => `/api/storylines/${pick(scope, fx.home.storylines.withdraw, fx.foreign.storylineDraft)}/withdraw`, body: () => ({ reason: 'Matrix test.' }), expect: only('analyst', 200) },
 
   'scale-factor-grids/index.get.ts': { unscoped: true, url: () => '/api/scale-factor-grids', expect: anyone(200) },
   'scale-factor-grids/index.post.ts': { unscoped: true, url: () => '/api/scale-factor-grids', body: () => newGrid('regional-ocean', 'Matrix new grid'), expect: { ...anyone(403), anonymous: 401, analyst: 201 } },

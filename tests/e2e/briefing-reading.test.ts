@@ -22,7 +22,7 @@ let shareToken: string
 
 /** Text as a reader sees it: no-break spaces and line breaks are just spaces. */
 const plain = (text: string) => text.replace(/[\s\u00A0\u202F]+/g, ' ').trim()
-const CHANCE = String.raw`(?:\d+|less than 1|more than 99) % \((?:[a-z ]+|beyond the range the releases describe)\)`
+const CHANCE = String.raw`(?:\d+|less than 1|more than 99) % \((?:[a-z ]+|extrapolated: the releases do not describe this tail)\)`
 const ODDS = /\b\d+ in \d+\b|1-in-|near certain/
 
 beforeAll(async () => {

@@ -31,12 +31,13 @@ export const RELEASE_CONTENT = { form: 'normal', baselineYear: 2020, anchorYears
 export const newRelease = (scenario: string, title: string) => ({ series: { component: 'glaciers', scenario, title }, ...RELEASE_CONTENT })
 export const newCorrelationSet = (scenario: string, title: string) => ({ scenario, title, components: ['glaciers', 'greenland'], matrix: [[1, 0.2], [0.2, 1]], ...PROVENANCE })
 // Far from the demo coast, so publishing one never changes a demo outlook.
+export const newStoryline = (scenario: string, name: string) => ({ scenario, name, description: 'Matrix test storyline.', baselineYear: 2020, anchorYears: [2100], values: { antarctica: [1] }, ...PROVENANCE })
 export const newGrid = (component: string, title: string) => ({ component, title, latitudes: [-60, -50], longitudes: [100, 110], factors: [[1, 1], [1, 1]], ...PROVENANCE })
 export const OUTLOOK_REQUEST = { scenario: 'SSP2-4.5', samples: 2000, seed: 5 }
 export const GAUGE_RECORD_CSV = `year,height\n${Array.from({ length: 25 }, (_, i) => `${2000 + i},${(1.2 + i * 0.004).toFixed(3)}`).join('\n')}\n`
 export const ANNUAL_MAXIMA_CSV = `year,value\n${Array.from({ length: 24 }, (_, i) => `${2000 + i},${(1.4 + (i % 5) * 0.05).toFixed(2)}`).join('\n')}\n`
 
-type Kind = 'releases' | 'correlation-sets' | 'scale-factor-grids'
+type Kind = 'releases' | 'correlation-sets' | 'scale-factor-grids' | 'storylines'
 interface Reviewed { read: string, submit: string, approve: string, return: string, withdraw: string, series?: string }
 
 export interface MatrixFixtures {
@@ -46,12 +47,12 @@ export interface MatrixFixtures {
     /** Kelwick's demo pathway and its measures in order. */
     pathwayId: string, measureIds: string[]
     briefingIssued: string, briefingDraft: string, briefingToIssue: string, shareToken: string
-    releases: Reviewed & { series: string }, correlationSets: Reviewed, grids: Reviewed
+    releases: Reviewed & { series: string }, correlationSets: Reviewed, grids: Reviewed, storylines: Reviewed
     userId: string, watchOf: Record<Exclude<Persona, 'anonymous'>, string>
   }
   foreign: {
     portId: string, siteId: string, outlookId: string, briefingIssued: string, briefingDraft: string, shareToken: string
-    releaseDraft: string, releaseSeries: string, correlationDraft: string, gridDraft: string, userId: string, watchId: string
+    releaseDraft: string, releaseSeries: string, correlationDraft: string, gridDraft: string, storylineDraft: string, userId: string, watchId: string
   }
   owners: { port: ApiClient, science: ApiClient, admin: ApiClient }
 }
@@ -125,6 +126,7 @@ export async function createMatrixFixtures(url: string): Promise<MatrixFixtures>
   const correlationSets = await reviewedSet('correlation-sets', author, analyst, key => newCorrelationSet(`matrix-${key}`, `Matrix ${key}`))
   const gridComponents: Record<string, string> = { read: 'ocean-expansion', submit: 'glaciers', approve: 'greenland', return: 'antarctica', withdraw: 'land-water' }
   const grids = await reviewedSet('scale-factor-grids', author, analyst, key => newGrid(gridComponents[key]!, `Matrix ${key}`))
+  const storylines = await reviewedSet('storylines', author, analyst, key => newStoryline('matrix-scenario', `Matrix ${key}`))
 
   const watchOf = {
     reader: await watchId(reader, READER.email, siteId),
@@ -144,6 +146,7 @@ export async function createMatrixFixtures(url: string): Promise<MatrixFixtures>
   const releaseDraft = ok(await science.post('/api/releases', newRelease('matrix-scenario', `Release ${FOREIGN_MARKER}`)), 'foreign release')
   const correlationDraft = ok(await science.post('/api/correlation-sets', newCorrelationSet('matrix-foreign', `Set ${FOREIGN_MARKER}`)), 'foreign set')
   const gridDraft = ok(await science.post('/api/scale-factor-grids', newGrid('greenland', `Grid ${FOREIGN_MARKER}`)), 'foreign grid')
+  const storylineDraft = ok(await science.post('/api/storylines', newStoryline('matrix-scenario', `Storyline ${FOREIGN_MARKER}`)), 'foreign storyline')
   const foreignWatch = await watchId(port, PORT_PLANNER.email, foreignSite.id)
   ok(await port.post(`/api/sites/${foreignSite.id}/measures`, { name: `Measure ${FOREIGN_MARKER}`, height: 2, leadTimeYears: 5 }), 'foreign measure')
 
@@ -152,12 +155,12 @@ export async function createMatrixFixtures(url: string): Promise<MatrixFixtures>
     home: {
       organisationId: councilId, siteId, editSiteId, thresholdIds, outlookId, pathwayId: demoPathway!.id, measureIds: demoPathway!.measureIds,
       briefingIssued: issued.id, briefingDraft: draft.id, briefingToIssue: toIssue.id, shareToken: shared.token,
-      releases: { ...releases, series: releases.series! }, correlationSets, grids, userId: homeUser.id, watchOf,
+      releases: { ...releases, series: releases.series! }, correlationSets, grids, storylines, userId: homeUser.id, watchOf,
     },
     foreign: {
       portId, siteId: foreignSite.id, outlookId: foreignOutlook, briefingIssued: foreignIssued.id, briefingDraft: foreignDraft.id,
       shareToken: foreignShared.token, releaseDraft: releaseDraft.id, releaseSeries: releaseDraft.seriesId, correlationDraft: correlationDraft.id,
-      gridDraft: gridDraft.id, userId: foreignUser.id, watchId: foreignWatch,
+      gridDraft: gridDraft.id, storylineDraft: storylineDraft.id, userId: foreignUser.id, watchId: foreignWatch,
     },
     owners: { port, science, admin },
   }
@@ -165,7 +168,7 @@ export async function createMatrixFixtures(url: string): Promise<MatrixFixtures>
 
 /** Every id and marker of the other organisations' private records. */
 export function foreignSecrets(f: MatrixFixtures['foreign']): string[] {
-  return [FOREIGN_MARKER, FOREIGN_PERSON, f.userId, f.siteId, f.outlookId, f.briefingIssued, f.briefingDraft, f.releaseDraft, f.releaseSeries, f.correlationDraft, f.gridDraft, f.watchId]
+  return [FOREIGN_MARKER, FOREIGN_PERSON, f.userId, f.siteId, f.outlookId, f.briefingIssued, f.briefingDraft, f.releaseDraft, f.releaseSeries, f.correlationDraft, f.gridDraft, f.storylineDraft, f.watchId]
 }
 
 /** How the other organisations' owners see their private records (compared before and after the matrix). */
@@ -176,6 +179,7 @@ export async function foreignSnapshot(fx: MatrixFixtures) {
     port.get(`/api/sites/${f.siteId}`), port.get(`/api/outlooks/${f.outlookId}`), port.get(`/api/briefings/${f.briefingIssued}`),
     port.get(`/api/briefings/${f.briefingDraft}`), port.get('/api/watches'), port.get('/api/briefings'),
     science.get(`/api/releases/${f.releaseDraft}`), science.get(`/api/correlation-sets/${f.correlationDraft}`), science.get(`/api/scale-factor-grids/${f.gridDraft}`),
+    science.get(`/api/storylines/${f.storylineDraft}`),
   ])
   return reads.map(r => ({ status: r.status, body: r.body }))
 }

@@ -3,7 +3,7 @@ import { buildRelease } from '../../../shared/releases/content'
 import { releaseBands } from '../../../shared/releases/summary'
 import type { ComponentKey } from '../../../shared/types/science'
 import type { Database } from '../client'
-import { correlationSets, releases, scaleFactorGrids, series } from '../schema'
+import { correlationSets, releases, scaleFactorGrids, series, storylines } from '../schema'
 
 // The demo science group's releases: invented, plausible-looking numbers for the fictional coast,
 // not taken from any assessment. Every title says "illustrative".
@@ -87,6 +87,15 @@ export async function seedScience(tx: Pick<Database, 'insert'>, people: SeedPeop
     components: correlated,
     madeForSeries: Object.fromEntries(correlated.map(component => [component, seriesOf.get(`SSP5-8.5/${component}`)!])),
     matrix: [[1, 0.4, 0.25, 0.05], [0.4, 1, 0.35, 0.05], [0.25, 0.35, 1, 0.15], [0.05, 0.05, 0.15, 1]],
+    version: 1, state: 'published', publishedAt: published, ...common,
+  })
+
+  // A high-end storyline: shown beside SSP5-8.5 outlooks, never sampled with the releases.
+  await tx.insert(storylines).values({
+    scenario: 'SSP5-8.5',
+    name: 'Early ice-sheet collapse (illustrative)',
+    description: 'Supposes that the marine parts of the Antarctic ice sheet start to retreat unstoppably around 2060 and that Greenland\'s outlet glaciers speed up: a plausible high-end case that the releases give no probability to. Invented for the demonstration.',
+    baselineYear: BASELINE, anchorYears: ANCHORS, values: { antarctica: [0.12, 0.95, 2.6], greenland: [0.08, 0.3, 0.8] },
     version: 1, state: 'published', publishedAt: published, ...common,
   })
 

@@ -46,8 +46,8 @@ describe('briefing sentences', () => {
     const patched = source(0.004)
     patched.outlooks[0]!.result.thresholds[0]!.byYear[2] = { value: 0.004, se: 0, extrapolated: true }
     const doc = buildBriefingDocument(patched)
-    expect(doc.detail!.lines[0]).toMatch(/less than 1\u00A0% \(beyond the range the releases describe\) by 2100/)
-    expect(doc.summary.findings![0]).toMatch(/beyond the range the releases describe/)
+    expect(doc.detail!.lines[0]).toMatch(/less than 1\u00A0% \(extrapolated: the releases do not describe this tail\) by 2100/)
+    expect(doc.summary.findings![0]).toMatch(/extrapolated: the releases do not describe this tail/)
     expect(doc.summary.findings!.join(' ')).not.toMatch(/unlikely/)
   })
 
@@ -130,7 +130,8 @@ describe('briefing document', () => {
     expect(doc.detail!.ranges[0]).toMatch(/^Between 2020 and 2100 the middle estimate of the rise is 0\.(49|50|51) m; it is likely \(two chances in three\) to lie between 0\.(39|40|41) m and 0\.(59|60|61) m\.$/)
     expect(doc.table.rows).toEqual([{ scenario: 'SSP2-4.5', threshold: 'Quay', height: '0.50 m', measure: 'Mean sea level above it by that year', chances: [{ probability: 0.5, text: '50\u00A0%' }] }])
     expect(doc.basis.datum).toMatch(/^Heights are above MSL 2020 \(mean sea level at an epoch\); mean sea level stood 0\.00 m above it in 2020, the year every rise here is counted from\./)
-    expect(doc.extremes).toHaveLength(1)
+    expect(doc.extremes!.rows).toHaveLength(1)
+    expect(doc.extremes!.today).toBe(100)
     expect(doc.basis.releases[0]).toMatchObject({ component: 'Glaciers', version: 3, citation: 'Cite (2026)' })
     expect(doc.basis.landMotion).toMatch(/^Land motion: -2 mm ± 0.5 mm per year \(negative means the land sinks/)
     expect(doc.cautions.join(' ')).toMatch(/not predictions.*ice sheets.*not engineering or legal advice.*2 m by 2100/)
@@ -148,5 +149,42 @@ describe('briefing document', () => {
     expect(exceedance.series[1]!.data.some(([x]) => Math.abs(x! - 0.5 / 0.3048) < 1e-9)).toBe(true)
     const fan = fanChartOption(doc) as { series: { data: number[][] }[] }
     expect(fan.series.at(-1)!.data[0]).toEqual([2020, 0])
+  })
+})
+
+describe('briefing tails and storylines', () => {
+  it('marks an extrapolated chance with *, gives it no calibrated word, and says what * means', () => {
+    const patched = source(0.01)
+    patched.outlooks[0]!.result.thresholds[0]!.byYear[2] = { value: 0.01, se: 0.001, extrapolated: true }
+    const doc = buildBriefingDocument(patched)
+    const detail = doc.detail!.lines[0]!.replace(/\u00A0/g, ' ')
+    expect(detail).toContain('1 % (extrapolated: the releases do not describe this tail)')
+    expect(detail).not.toMatch(/exceptionally unlikely|very unlikely|unlikely/)
+    expect(doc.table.rows[0]!.chances[0]).toMatchObject({ text: '1\u00A0% *', extrapolated: true })
+    expect(doc.extrapolation).toMatch(/^\* Extrapolated: beyond the outermost level a release publishes\. The release does not describe that tail/)
+    // A normal release is never extrapolated, so the unpatched document has no note.
+    expect(buildBriefingDocument(source(0.3)).extrapolation).toBeNull()
+  })
+
+  it('words amplification as expected floods of today’s 100-year level, with its chance in a year', () => {
+    const doc = buildBriefingDocument(source(0.5))
+    const g = result.byYear[2]!.gumbel!
+    const chance = g.returnPeriods.find(r => r.today === 100)!.annualChance.value
+    // [practice] λ = 0.1 m and a rise of 0.5 ± 0.1 m: amplification e^{A/λ} ≈ e^{5.5} ≈ 245, so today's
+    // 100-year level is expected more than once a year.
+    expect(g.amplification * 0.01005).toBeGreaterThan(1)
+    expect(doc.extremes).toEqual({ today: 100, rows: [{ year: 2100, allowance: expect.stringMatching(/^0\.5\d m$/), expected: 'every year or more often', chance: expect.stringMatching(/%$/) }] })
+    expect(chance).toBeLessThan(1)
+  })
+
+  it('places a storyline beside the chances, one line per chosen year it reaches', () => {
+    const doc = buildBriefingDocument(source(0.5, {
+      storylines: [{ name: 'Early collapse', description: 'Ice retreats.', version: 2, citation: 'Group (2026)', organisationName: 'Saltglass', illustrative: true, rises: [{ year: 2050, rise: 0.3 }, { year: 2100, rise: 1.4 }] }],
+    }))
+    expect(doc.storylines).toEqual([{
+      name: 'Early collapse (illustrative)', description: 'Ice retreats.',
+      lines: [expect.stringMatching(/^If this storyline happened, the mean sea level here would be 1\.40 m above MSL 2020 by 2100 \(a rise of 1\.40 m since 2020\); the outlook puts a 5 % chance on a rise above 0\.6\d m by then\.$/)],
+      source: 'Published by Saltglass, version 2: Group (2026)',
+    }])
   })
 })

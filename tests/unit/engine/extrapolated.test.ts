@@ -29,8 +29,21 @@ describe('extrapolated percentiles and chances', () => {
     expect(year.percentiles.map((p) => p.extrapolated)).toEqual([true, false, false, false, false, false, true])
     expect(result.thresholds[0]!.byYear[1]!.extrapolated).toBe(true)
     expect(result.thresholds[1]!.byYear[1]!.extrapolated).toBe(false)
+    // The height grid (0, 0.1, … 1 m) carries the same mark where it is true: 0.7 m (level 0.977) yes, 0.5 m (level 0.5) no.
+    const at = (h: number) => year.exceedance[result.heights.findIndex((x) => Math.abs(x - h) < 1e-9)]!
+    expect(at(0.7).extrapolated).toBe(true)
+    expect(at(0.5).extrapolated).toBeUndefined()
     // The baseline year has no spread, so nothing rests on any release there.
     expect(result.byYear[0]!.percentiles.every((p) => p.extrapolated === false)).toBe(true)
+  })
+
+  it('marks trigger years that rest on a level beyond the releases', () => {
+    // [practice] rise ~ N(0.5·(t − 2000)/100, (0.1·(t − 2000)/100)²); the 1 % trigger rests on level 0.99,
+    // beyond 0.95; the 50 % trigger on level 0.5, inside.
+    const result = runOutlook(baseInput({ years: [2000, 2050, 2100], components: [quantileComponent('antarctica', levels, 0.5, 0.1)], thresholds: [{ height: 0.3 }] }))
+    const triggers = result.thresholds[0]!.triggerYears
+    expect(triggers.find((entry) => entry.tolerance === 0.01)!.extrapolated).toBe(true)
+    expect(triggers.find((entry) => entry.tolerance === 0.5)!.extrapolated).toBe(false)
   })
 
   it('folds one-sided tables so that both tails count, and ignores a release with a negligible share', () => {

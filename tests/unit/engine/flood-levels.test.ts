@@ -179,6 +179,19 @@ describe('flood levels far from the sea', () => {
     expect(high!.returnPeriodYears[2]).toBeNull()
     expect(low!.annualChance[2]!.value).toBe(1)
     expect(low!.returnPeriodYears[2]).toBe(1)
+    // [practice: rule of three, −ln 0.05 ≈ 3] an averaged chance of exactly 0 is said as "below 3/N",
+    // not "0 ± 0"; one of exactly 1 as "above 1 − 3/N".
+    expect(high!.annualChance[2]!.upperBound95).toBe(3 / 20_000)
+    expect(low!.annualChance[2]!.lowerBound95).toBe(1 - 3 / 20_000)
+    expect(high!.annualChance[2]!.lowerBound95).toBeUndefined()
+  })
+
+  it('bounds a life chance of 0 by the rule of three', () => {
+    // [practice] 40 years of a level 99 m above the Gumbel location: no sample's chance differs from 0.
+    const result = outlook({ 2050: [0.2, 0.05], 2100: [0.5, 0.15] }, [{ kind: 'flood-level', height: 100, designLifeYears: 40, lifeStartYear: 2040 }])
+    const life = result.thresholds[0]!.lifeExceedance!
+    expect(life.value).toBe(0)
+    expect(life.upperBound95).toBe(3 / 20_000)
   })
 })
 
@@ -196,6 +209,22 @@ describe('standard errors of averaged chances', () => {
     for (const estimate of Object.values(fixed)) {
       expect(estimate.value).toBeGreaterThan(0)
       expect(estimate.se).toBe(0)
+    }
+  })
+
+  it('are within 20 % of the spread of the estimates over 200 seeds (normal rise)', () => {
+    // [practice; issue check] with 200 independent seeds the sample sd of the estimates is within about
+    // ±5 % (1/√(2·199)) of the true Monte Carlo error, so a correct SE lands well within 20 % of it.
+    const samples = 1000
+    const runs = Array.from({ length: 200 }, (_, seed) =>
+      estimates(outlook({ 2050: [0.2, 0.05], 2100: [0.5, 0.15] }, thresholds, { samples, seed: 1000 + seed })),
+    )
+    for (const which of ['annual', 'life'] as const) {
+      const values = runs.map((run) => run[which].value)
+      const mean = values.reduce((a, b) => a + b, 0) / values.length
+      const sd = Math.sqrt(values.reduce((a, b) => a + (b - mean) ** 2, 0) / (values.length - 1))
+      const reported = runs.reduce((a, run) => a + run[which].se, 0) / runs.length
+      expect(Math.abs(reported / sd - 1), which).toBeLessThan(0.2)
     }
   })
 

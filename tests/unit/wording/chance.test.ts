@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { chanceAfterDe, chanceAsOdds, formatChance, headlineSentence, likelihoodPhrase, samplingNote } from '../../../shared/wording/chance'
+import { aChance, chanceAfterDe, chanceAsOdds, formatChance, headlineSentence, likelihoodPhrase, samplingNote } from '../../../shared/wording/chance'
 
 const nb = (text: string) => text.replace(/\u00A0/g, ' ')
 
@@ -52,9 +52,9 @@ describe('chances in words', () => {
   it('gives no calibrated word to a chance that lies beyond what the releases publish', () => {
     const parts = { probability: 0.004, standardError: 0.0002, extrapolated: true, height: 1.2, year: 2100, referenceLevel: 'chart datum', unit: 'm' as const, language: 'en' as const }
     const sentence = nb(headlineSentence(parts))
-    expect(sentence).toBe('There is a less than 1 % chance (beyond the range the releases describe) that the mean sea level here will be more than 1.20 m above chart datum by 2100.')
+    expect(sentence).toBe('There is a less than 1 % chance (extrapolated: the releases do not describe this tail) that the mean sea level here will be more than 1.20 m above chart datum by 2100.')
     expect(sentence).not.toMatch(/unlikely/)
-    expect(nb(headlineSentence({ ...parts, language: 'es' }))).toMatch(/\(fuera del rango que describen las versiones publicadas\)/)
+    expect(nb(headlineSentence({ ...parts, language: 'es' }))).toMatch(/\(extrapolada: las versiones publicadas no describen esta cola\)/)
   })
 
   it('reads as Spanish at the edges: "de menos del 1 %", never "del menos del 1 %", and a decimal comma in the sampling note', () => {
@@ -62,5 +62,14 @@ describe('chances in words', () => {
     expect(nb(headlineSentence(parts))).toBe('Hay una probabilidad de menos del 1 % (excepcionalmente improbable; ± 0,8 % por el muestreo) de que el nivel medio del mar aquí esté más de 0,50 m por encima de NMM 2020 en 2070.')
     expect(nb(headlineSentence({ ...parts, probability: 0.999 }))).toMatch(/^Hay una probabilidad de más del 99 % /)
     expect(nb(chanceAfterDe(0.4))).toBe('del 40 %')
+  })
+
+  it('reads "an" before 8, 11, 18 and the eighties', () => {
+    // [practice] English article by sound: "an eighteen", "a twenty-three".
+    expect(aChance(0.18).replace(/\u00A0/g, ' ')).toBe('an 18 %')
+    expect(aChance(0.08).replace(/\u00A0/g, ' ')).toBe('an 8 %')
+    expect(aChance(0.85).replace(/\u00A0/g, ' ')).toBe('an 85 %')
+    expect(aChance(0.23).replace(/\u00A0/g, ' ')).toBe('a 23 %')
+    expect(aChance(0.001).replace(/\u00A0/g, ' ')).toBe('a less than 1 %')
   })
 })

@@ -1,0 +1,9 @@
+import { IdParams } from '#shared/schemas/users'
+import { getStoryline } from '~~/server/services/science-records'
+
+export default defineEventHandler(async (event) => {
+  const viewer = await optionalUser(event)
+  const { id } = readValidParams(event, IdParams)
+  const record = await getStoryline(viewer, id)
+  return { ...record, actions: viewer ? reviewActionsFor(viewer, record) : [] }
+})
