@@ -1,6 +1,7 @@
 import { and, eq, inArray } from 'drizzle-orm'
 import { jobs, outlooks, recomputations } from '~~/server/db/schema'
 import type { Database } from '~~/server/db/client'
+import { mailStaleBriefings } from './briefing-staleness'
 import { latestOutlooks, mailWhatChanged, type Cause, type Comparison } from './notify'
 import { queueOutlook } from './outlooks'
 import { siteWithThresholds } from './sites'
@@ -79,5 +80,7 @@ export async function recomputeSite(payload: RecomputeSitePayload): Promise<JobO
     return old && now?.state === 'done' ? [{ scenario: now.scenario, before: old, after: now }] : []
   })
   await mailWhatChanged(payload.siteId, payload.cause, comparisons)
+  // Issued briefings that the new numbers make out of date tell their planners (once per change).
+  if (comparisons.length) await mailStaleBriefings(payload.siteId)
   return { state: 'done' }
 }

@@ -1,7 +1,9 @@
 import { IdParams } from '#shared/schemas/users'
 import { briefingDocument, loadBriefing } from '~~/server/services/briefings'
+import { briefingStaleness } from '~~/server/services/briefing-staleness'
 
-// A briefing and its document (live for drafts, frozen once issued). Only planners see the link.
+// A briefing and its document (live for drafts, frozen once issued), and what newer outlooks change
+// in an issued one. Only planners see the link.
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
   const { id } = readValidParams(event, IdParams)
@@ -10,5 +12,6 @@ export default defineEventHandler(async (event) => {
   const { document: _frozen, shareToken, ...briefing } = row
   const canEdit = user.role === 'planner'
   // Links are built on the configured address (APP_URL), never on the request's Host header.
-  return { ...briefing, shareToken: canEdit ? shareToken : null, shared: shareToken !== null, canEdit, document, appUrl: appUrl() }
+  const staleness = await briefingStaleness(row)
+  return { ...briefing, shareToken: canEdit ? shareToken : null, shared: shareToken !== null, canEdit, document, staleness: staleness && { changes: staleness.changes }, appUrl: appUrl() }
 })
