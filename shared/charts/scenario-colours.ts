@@ -1,4 +1,4 @@
-import { KNOWN_SCENARIOS } from '../types/science'
+import type { KNOWN_SCENARIOS } from '../types/science'
 
 // One colour per scenario on every chart, page and PDF alike, whatever order the scenarios are
 // chosen in: a reader who learnt "SSP5-8.5 is plum" on one chart can trust it on the next. Our own
