@@ -81,15 +81,27 @@ describe('an issued briefing and newer science', () => {
     expect(latestId).not.toBe(outlookId)
     const before = (await author.get(`/api/outlooks/${outlookId}`)).body.result
     const after = (await author.get(`/api/outlooks/${latestId}`)).body.result
-    const t = before.years.indexOf(2100)
-    // The Quay Street threshold (mean sea level): the figures are the two stored outlooks' own.
-    const change = view.staleness.changes.find((c: { threshold: string, year: number }) => c.threshold === 'High-tide flooding of Quay Street' && c.year === 2100)
-    expect(change).toMatchObject({ scenario: 'SSP2-4.5', kind: 'mean-sea-level', was: before.thresholds[0].byYear[t].value, now: after.thresholds[0].byYear[t].value })
+    // Each listed figure is the two stored outlooks' own for that threshold and year.
+    const kelwick = (await author.get(`/api/sites/${siteId}`)).body.thresholds as { id: string, label: string, kind: string }[]
+    expect(view.staleness.changes.length).toBeGreaterThan(0)
+    const chanceOf = (result: { years: number[], thresholds: { key: string, byYear: { value: number }[], flood: { annualChance: { value: number }[] } | null }[] }, label: string, year: number) => {
+      const threshold = result.thresholds.find(th => th.key === kelwick.find(k => k.label === label)!.id)!
+      const t = result.years.indexOf(year)
+      return threshold.flood ? threshold.flood.annualChance[t]!.value : threshold.byYear[t]!.value
+    }
+    for (const c of view.staleness.changes) {
+      expect(c.scenario).toBe('SSP2-4.5')
+      expect(c.was).toBe(chanceOf(before, c.threshold, c.year))
+      expect(c.now).toBe(chanceOf(after, c.threshold, c.year))
+    }
+    // Quay Street (a mean-sea-level threshold) by 2050 moves with the glaciers.
+    const change = view.staleness.changes.find((c: { threshold: string, year: number }) => c.threshold === 'High-tide flooding of Quay Street' && c.year === 2050)
+    expect(change).toMatchObject({ kind: 'mean-sea-level' })
     expect(formatChance(change.now, 'en')).not.toBe(formatChance(change.was, 'en'))
 
     // The shared page says the same, without ids of the site's records.
     const shared = (await new ApiClient(server.url).get(`/api/shared/${shareToken}`)).body
-    expect(shared.staleness.changes).toContainEqual({ scenario: 'SSP2-4.5', threshold: 'High-tide flooding of Quay Street', kind: 'mean-sea-level', year: 2100, was: change.was, now: change.now })
+    expect(shared.staleness.changes).toContainEqual({ scenario: 'SSP2-4.5', threshold: 'High-tide flooding of Quay Street', kind: 'mean-sea-level', year: 2050, was: change.was, now: change.now })
     expect(JSON.stringify(shared.staleness)).not.toContain(thresholdIds[0])
     // Readers of the organisation see it too.
     expect((await (await as(READER.email, READER.password)).get(`/api/briefings/${briefingId}`)).body.staleness.changes.length).toBeGreaterThan(0)
@@ -103,9 +115,9 @@ describe('an issued briefing and newer science', () => {
     expect(smtp.to(SECOND_PLANNER.email).filter(stale)).toHaveLength(1)
     // Nobody else of the organisation is mailed about it.
     expect(smtp.messages.filter(stale)).toHaveLength(2)
-    const change = (await author.get(`/api/briefings/${briefingId}`)).body.staleness.changes.find((c: { threshold: string, year: number }) => c.threshold === 'High-tide flooding of Quay Street' && c.year === 2100)
+    const change = (await author.get(`/api/briefings/${briefingId}`)).body.staleness.changes.find((c: { threshold: string, year: number }) => c.threshold === 'High-tide flooding of Quay Street' && c.year === 2050)
     expect(first.subject).toBe('Briefing out of date: Kelwick to 2100 (version 1, Kelwick)')
-    expect(first.text).toContain(`SSP2-4.5, chance mean sea level is above "High-tide flooding of Quay Street" by 2100: ${formatChance(change.now, 'en')} now, ${formatChance(change.was, 'en')} in this briefing.`)
+    expect(first.text).toContain(`SSP2-4.5, chance mean sea level is above "High-tide flooding of Quay Street" by 2050: ${formatChance(change.now, 'en')} now, ${formatChance(change.was, 'en')} in this briefing.`)
     expect(first.text).toContain(`${server.url}/briefings/${briefingId}`)
   })
 

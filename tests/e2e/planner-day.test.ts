@@ -4,6 +4,7 @@ import { open, screenshot, seriousAxeViolations, signIn, type Page } from '../su
 import { useBrowserSuite } from '../support/browser-suite'
 import { ApiClient } from '../support/client'
 import { SCENARIO_COLOURS } from '../../shared/charts/scenario-colours'
+import { formatChance } from '../../shared/wording/chance'
 
 // A planner's day: headlines under the site's planning scenario, named, on the list and the map;
 // a briefing that newer science has overtaken says so and is renewed in one click; scenario
@@ -62,10 +63,10 @@ describe('the planning scenario on the list and the map', () => {
     const row = page.getByTestId('site-row-Kelwick')
     expect(plain(await row.getByTestId('site-planning-scenario').textContent())).toBe('SSP2-4.5, the planning scenario')
     const headline = (await api.get(`/api/outlooks/${moderate}`)).body.headline
-    expect(plain(await row.getByTestId('site-headline').textContent())).toBe(`${Math.round(headline.probability * 100)} % by 2100 for High-tide flooding of Quay Street`)
+    expect(plain(await row.getByTestId('site-headline').textContent())).toBe(plain(`${formatChance(headline.probability, 'en')} by 2100 for High-tide flooding of Quay Street`))
     // The marker carries the same chance, and names the scenario for screen readers and on hover.
     const marker = page.getByTestId('map-marker-Kelwick')
-    expect(plain(await marker.locator('.bw-map-figure').textContent())).toBe(`${Math.round(headline.probability * 100)} %`)
+    expect(plain(await marker.locator('.bw-map-figure').textContent())).toBe(plain(formatChance(headline.probability, 'en')))
     expect(await marker.getAttribute('title')).toMatch(/\(SSP2-4\.5, the planning scenario\)$/)
     expect(plain(await page.getByTestId('site-row-Drumhaven').getByTestId('site-headline').textContent())).toBe('No SSP2-4.5 outlook yet')
     expect(await seriousAxeViolations(page)).toEqual([])
@@ -85,7 +86,7 @@ describe('the planning scenario on the list and the map', () => {
     expect(plain(await page.getByTestId('site-row-Kelwick').getByTestId('site-planning-scenario').textContent())).toBe('SSP5-8.5, the planning scenario')
     const high = (await api.get('/api/sites')).body.find((s: { id: string }) => s.id === kelwick).planningOutlook
     expect(high.scenario).toBe('SSP5-8.5')
-    expect(plain(await page.getByTestId('site-row-Kelwick').getByTestId('site-headline').textContent())).toBe(`${Math.round(high.headline.probability * 100)} % by 2100 for High-tide flooding of Quay Street`)
+    expect(plain(await page.getByTestId('site-row-Kelwick').getByTestId('site-headline').textContent())).toBe(plain(`${formatChance(high.headline.probability, 'en')} by 2100 for High-tide flooding of Quay Street`))
     // Back to the default for the other tests.
     const site = (await api.get(`/api/sites/${kelwick}`)).body
     await page.request.patch(`/api/sites/${kelwick}`, { data: { ...siteBody(site), planning: { scenario: 'SSP2-4.5', tolerance: 0.1 } } })
@@ -128,7 +129,7 @@ describe('a briefing that newer science has overtaken', () => {
     await open(page, `/shared/${shareToken}`)
     const sharedNotice = page.getByTestId('briefing-stale')
     expect(plain(await sharedNotice.getByRole('heading').textContent())).toBe('Newer outlooks have changed numbers in this briefing')
-    expect(plain(await sharedNotice.getByTestId('briefing-stale-changes').textContent())).toMatch(/SSP2-4\.5, chance mean sea level is above “High-tide flooding of Quay Street” by 2100: \d+ % now, \d+ % in this briefing\./)
+    expect(plain(await sharedNotice.getByTestId('briefing-stale-changes').textContent())).toMatch(/SSP2-4\.5, chance mean sea level is above “High-tide flooding of Quay Street” by 2050: (\d+|less than 1|more than 99) % now, (\d+|less than 1|more than 99) % in this briefing\./)
     expect(await sharedNotice.getByTestId('new-version-latest').count()).toBe(0)
     expect(await seriousAxeViolations(page)).toEqual([])
     await atBothWidths(page, 'shared-stale')
@@ -137,8 +138,8 @@ describe('a briefing that newer science has overtaken', () => {
     await signIn(page, PLANNER.email, PLANNER.password)
     await open(page, `/briefings/${briefingId}`)
     const notice = page.getByTestId('briefing-stale')
-    const change = (await api.get(`/api/briefings/${briefingId}`)).body.staleness.changes.find((c: { threshold: string, year: number }) => c.year === 2100 && c.threshold === 'High-tide flooding of Quay Street')
-    expect(plain(await notice.textContent())).toContain(`${Math.round(change.now * 100)} % now, ${Math.round(change.was * 100)} % in this briefing.`)
+    const change = (await api.get(`/api/briefings/${briefingId}`)).body.staleness.changes.find((c: { threshold: string, year: number }) => c.year === 2050 && c.threshold === 'High-tide flooding of Quay Street')
+    expect(plain(await notice.textContent())).toContain(plain(`${formatChance(change.now, 'en')} now, ${formatChance(change.was, 'en')} in this briefing.`))
     expect(await seriousAxeViolations(page)).toEqual([])
     expect(await outsideLandmarks(page), 'content outside the landmarks').toEqual([])
     await atBothWidths(page, 'briefing-stale')
