@@ -68,7 +68,7 @@ describe('the planning scenario on the list and the map', () => {
     const marker = page.getByTestId('map-marker-Kelwick')
     expect(plain(await marker.locator('.bw-map-figure').textContent())).toBe(plain(formatChance(headline.probability, 'en')))
     expect(await marker.getAttribute('title')).toMatch(/\(SSP2-4\.5, the planning scenario\)$/)
-    expect(plain(await page.getByTestId('site-row-Drumhaven').getByTestId('site-headline').textContent())).toBe('No SSP2-4.5 outlook yet')
+    expect(plain(await page.getByTestId('site-row-Drumhaven').getByTestId('site-headline').textContent())).toBe('No outlook yet')
     expect(await seriousAxeViolations(page)).toEqual([])
     expect(await outsideLandmarks(page), 'content outside the landmarks').toEqual([])
     await atBothWidths(page, 'sites')
@@ -162,7 +162,10 @@ describe('scenario colours', () => {
       await open(page, `/sites/${kelwick}/outlooks/${id}`)
       const compare = page.getByTestId('compare')
       for (const box of await compare.getByRole('checkbox').all()) if (!(await box.isChecked())) await box.check()
-      await page.waitForSelector('[data-testid="compare"] svg path')
+      // Both scenarios' lines are drawn (SVG renderer: the colour is the path's stroke).
+      for (const colour of [SCENARIO_COLOURS['SSP2-4.5'], SCENARIO_COLOURS['SSP5-8.5']]) {
+        await page.waitForSelector(`[data-testid="compare"] svg path[stroke="${colour}"]`, { state: 'attached' })
+      }
       // The solid median lines' colours, by legend order (each scenario's label).
       return compare.locator('svg').first().evaluate(svg => [...svg.querySelectorAll('path')]
         .map(path => path.getAttribute('stroke')).filter((stroke): stroke is string => !!stroke && stroke.startsWith('#')).map(s => s.toLowerCase()))
