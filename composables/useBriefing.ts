@@ -1,5 +1,6 @@
 import type { BriefingDocument } from '#shared/briefing/document'
 import { dateLocale } from '#shared/wording/dates'
+import type { StaleFigure } from '~/components/briefing/BriefingStaleNotice.vue'
 
 /** A row of GET /api/briefings (dates arrive as strings). */
 export interface BriefingRow {
@@ -32,6 +33,8 @@ export interface BriefingView extends Omit<BriefingRow, 'siteName'> {
   /** The live page the document points to: the share link (planners, once shared), else the page inside, which needs a sign-in. */
   live: { url: string, signIn: boolean }
   document: BriefingDocument
+  /** Issued briefings only: the figures newer outlooks have changed; null while it is current. */
+  staleness: { changes: StaleFigure[] } | null
 }
 
 /** One briefing, keyed by id so the toolbar's refresh() after an action re-reads only this one. */

@@ -19,6 +19,8 @@ const LABELS: Record<string, string> = {
   'gumbel.location': 'sites.extremes.location',
   'gumbel.scale': 'sites.extremes.scale',
   'csv': 'sites.extremes.paste',
+  'planning.scenario': 'sites.planning.scenario',
+  'planning.tolerance': 'sites.planning.tolerance',
 }
 const THRESHOLD_LABELS: Record<string, string> = {
   label: 'sites.form.thresholdLabel',

@@ -1,4 +1,5 @@
 import type { DatumKind, LandMotionSource, ThresholdKind } from '#shared/types/science'
+import { DEFAULT_PLANNING } from '#shared/schemas/sites'
 import { fromMetres, toMetres, type HeightUnit } from '#shared/units'
 
 // The site form holds what the planner typed (heights in their chosen unit, blanks as ''); the API
@@ -14,6 +15,7 @@ export interface SiteFormState {
   landMotion: { rate: Typed, sigma: Typed, source: LandMotionSource, reference: string, epoch: Typed }
   thresholds: ThresholdRow[]
   extremes: { mode: ExtremesMode, location: Typed, scale: Typed, csv: string }
+  planning: { scenario: string, tolerance: number }
 }
 
 /** A site as GET /api/sites/[id] returns it (the parts the form reads). */
@@ -37,6 +39,8 @@ export interface SiteRecord {
   gumbelLocationSe: number | null
   gumbelScaleSe: number | null
   gumbelTrendSe: number | null
+  planningScenario: string
+  planningTolerance: number
   thresholds: { label: string, height: number, kind: ThresholdKind, buildYear: number | null, designLifeYears: number | null }[]
   /** The version the form was opened on, sent back as If-Match so a save never overwrites a newer one. */
   updatedAt: string
@@ -57,6 +61,7 @@ export function blankSiteForm(at: { latitude?: unknown, longitude?: unknown }): 
     landMotion: { rate: 0, sigma: 0.5, source: 'gps', reference: '', epoch: '' },
     thresholds: [blankThreshold()],
     extremes: { mode: 'none', location: '', scale: '', csv: '' },
+    planning: { ...DEFAULT_PLANNING },
   }
 }
 
@@ -73,6 +78,7 @@ export function siteFormFrom(site: SiteRecord, unit: HeightUnit): SiteFormState 
       scale: hasExtremes ? inUnit(site.gumbelScale!, unit) : '',
       csv: '',
     },
+    planning: { scenario: site.planningScenario, tolerance: site.planningTolerance },
   }
 }
 
@@ -94,6 +100,7 @@ export function siteBody(form: SiteFormState, unit: HeightUnit) {
     // Left out, the stored statistics stay as they are (kept, or about to be replaced by a CSV fit).
     gumbel: extremes.mode === 'entered' ? { location: metres(extremes.location, unit), scale: metres(extremes.scale, unit) }
       : extremes.mode === 'none' ? null : undefined,
+    planning: { scenario: form.planning.scenario, tolerance: form.planning.tolerance },
   }
 }
 

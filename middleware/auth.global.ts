@@ -9,6 +9,9 @@ export default defineNuxtRouteMiddleware((to) => {
     return navigateTo({ path: '/sign-in', query: to.fullPath !== '/' ? { next: to.fullPath } : {} })
   }
   const roles = to.meta.roles as Role[] | undefined
+  // The server has already answered this page with the 403 page; refusing again while the browser
+  // hydrates it would only log an uncaught error in the console.
+  if (import.meta.client && useNuxtApp().isHydrating && useError().value) return
   if (roles && user.value && !roles.includes(user.value.role)) {
     throw createError({ statusCode: 403, message: 'forbidden' })
   }

@@ -238,6 +238,10 @@ export const sites = pgTable('sites', {
   landMotionSource: landMotionSourceEnum('land_motion_source').notNull(),
   landMotionReference: text('land_motion_reference').notNull().default(''),
   landMotionEpoch: integer('land_motion_epoch').notNull(),
+  /** The scenario its planners plan for: lists, the map and mails give the headline chance under this one. */
+  planningScenario: text('planning_scenario').notNull().default('SSP2-4.5'),
+  /** The chance its planners accept of a threshold being passed (one of the engine's trigger tolerances). */
+  planningTolerance: doublePrecision('planning_tolerance').notNull().default(0.1),
   /** Gumbel statistics of annual maximum water level: location at the reference epoch and scale, metres above the datum. */
   gumbelLocation: doublePrecision('gumbel_location'),
   gumbelScale: doublePrecision('gumbel_scale'),
@@ -292,7 +296,14 @@ export const gaugeRecords = pgTable('gauge_records', {
 
 export interface OutlookReleaseRef { component: string, releaseId: string, seriesId: string, version: number, citation: string, title: string, scale: number, scaleSource: string | null }
 
-export interface OutlookHeadline { thresholdLabel: string, height: number, year: number, probability: number }
+export interface OutlookHeadline {
+  thresholdLabel: string
+  height: number
+  year: number
+  probability: number
+  /** The first year the chance reaches each tolerance (null: not by the last year); absent on outlooks stored before it was kept. */
+  triggerYears?: Array<{ tolerance: number, year: number | null }>
+}
 
 export const outlooks = pgTable('outlooks', {
   id: uuid('id').primaryKey().defaultRandom(),

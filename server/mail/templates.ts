@@ -59,6 +59,8 @@ export interface WhatChanged {
   ranges: RangeRow[]
   releases: ReleaseChange[]
   horizons?: HorizonChange[]
+  /** The sentence on the site's headline under its planning scenario, named, before and after (absent for a watch from a shared briefing). */
+  planning?: string
   briefingUrl: string | null
   unsubscribeUrl: string
 }
@@ -73,15 +75,43 @@ export function whatChangedMail(m: WhatChanged): MailBody {
         ? `El horizonte se amplió (${h.scenario}): la perspectiva llegaba hasta ${h.before} y ahora llega hasta ${h.after}.`
         : `The horizon was extended (${h.scenario}): the outlook reached ${h.before} and now reaches ${h.after}.`))
   const blocks: Block[] = [
-    { paragraphs: [m.cause, ...horizons, es ? 'Estas son las cifras antes y después del cambio.' : 'Here are the numbers before and after the change.'] },
+    { paragraphs: [m.cause, ...(m.planning ? [m.planning] : []), ...horizons, es ? 'Estas son las cifras antes y después del cambio.' : 'Here are the numbers before and after the change.'] },
     { heading: es ? 'La probabilidad para cada umbral' : 'The chance for each threshold', rows: [[es ? 'Umbral' : 'Threshold', es ? 'Año' : 'Year', es ? 'Antes' : 'Before', es ? 'Después' : 'After'], ...m.chances.map(r => [r.threshold, String(r.year), r.before, r.after])] },
     { heading: es ? 'Subida: estimación central (rango probable)' : 'Rise: middle estimate (likely range)', rows: [[es ? 'Escenario' : 'Scenario', es ? 'Año' : 'Year', es ? 'Antes' : 'Before', es ? 'Después' : 'After'], ...m.ranges.map(r => [r.scenario, String(r.year), r.before, r.after])] },
   ]
   if (m.releases.length) {
     blocks.push({ heading: es ? 'Qué versiones cambiaron' : 'Which releases changed', rows: [[es ? 'Fuente' : 'Source', es ? 'Antes' : 'Before', es ? 'Ahora' : 'Now', es ? 'Cita' : 'Citation'], ...m.releases.map(r => [r.component, r.from, r.to, r.citation])] })
   }
-  if (m.briefingUrl) blocks.push({ link: { label: es ? 'Leer el último informe' : 'Read the latest briefing', url: m.briefingUrl } })
+  if (m.briefingUrl) {
+    blocks.push({
+      paragraphs: [es ? 'El último informe se emitió antes de este cambio y no se modifica: su página indica qué cifras han quedado desfasadas.' : 'The latest briefing was issued before this change and stays as issued: its page says which of its numbers are out of date.'],
+      link: { label: es ? 'Leer el último informe' : 'Read the latest briefing', url: m.briefingUrl },
+    })
+  }
   return compose(m.language, es ? `Cambió la perspectiva del nivel del mar para ${m.site}` : `The sea-level outlook for ${m.site} has changed`, blocks, m.unsubscribeUrl)
+}
+
+export interface StaleBriefing {
+  language: Language
+  site: string
+  title: string
+  version: number
+  /** One line per changed figure: what it says now and what the briefing says. */
+  changes: string[]
+  url: string
+}
+
+/** To a briefing's planners: newer science changed numbers their issued briefing states. */
+export function briefingStaleMail(m: StaleBriefing): MailBody {
+  const es = m.language === 'es'
+  return compose(m.language, es ? `Informe desfasado: ${m.title} (versión ${m.version}, ${m.site})` : `Briefing out of date: ${m.title} (version ${m.version}, ${m.site})`, [
+    { paragraphs: [es
+      ? `Una perspectiva más reciente para ${m.site} cambia cifras de la versión ${m.version} de «${m.title}». El informe emitido no se modifica; su página y su enlace compartido avisan ya del cambio.`
+      : `A newer outlook for ${m.site} changes numbers in version ${m.version} of "${m.title}". The issued briefing stays as it is; its page and its shared link now say so.`] },
+    { heading: es ? 'Qué cambió' : 'What changed', paragraphs: m.changes },
+    { paragraphs: [es ? 'En la página del informe, «Crear una versión nueva con las últimas perspectivas» prepara un borrador con las cifras actuales para revisarlo y emitirlo.' : 'On the briefing\'s page, "Make a new version from the latest outlooks" prepares a draft with the current numbers to review and issue.'],
+      link: { label: es ? 'Abrir el informe' : 'Open the briefing', url: m.url } },
+  ])
 }
 
 export function briefingIssuedMail(language: Language, site: string, title: string, url: string | null, unsubscribeUrl: string): MailBody {

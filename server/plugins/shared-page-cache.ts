@@ -47,8 +47,10 @@ async function serveStoredPage(event: H3Event) {
     await Promise.race([inFlight, new Promise(resolve => setTimeout(resolve, RENDER_WAIT_MS).unref())])
     page = cachedSharedPage(key)
   }
-  if (!page || !(await shareIsLive(token))) {
-    // A revoked link is forgotten and rendered as "no longer shared" (404) by the app.
+  const live = page && await shareIsLive(token)
+  if (!page || !live || live.outlookAt >= page.storedAt) {
+    // A revoked link is forgotten and rendered as "no longer shared" (404) by the app; a page older
+    // than the site's latest outlook is rendered again, since it may now be out of date.
     if (page) forgetSharedPages(token)
     if (!rendering.has(key)) {
       let done!: () => void

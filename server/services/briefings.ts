@@ -137,18 +137,44 @@ export async function issueBriefing(planner: CurrentUser, id: string) {
   })
 }
 
-/** A new draft that starts from an issued briefing and replaces it once issued. */
-export async function newBriefingVersion(planner: CurrentUser, id: string) {
+/** The latest finished outlook of each of a briefing's scenarios, with the thresholds and years it can still state. */
+async function latestSelection(row: Briefing) {
+  const db = await useDb()
+  const used = await db.select({ id: outlooks.id, scenario: outlooks.scenario }).from(outlooks).where(inArray(outlooks.id, row.outlookIds))
+  const scenarios = row.outlookIds.map(id => used.find(o => o.id === id)?.scenario).filter((s): s is string => s !== undefined)
+  const latest = await db.selectDistinctOn([outlooks.scenario], { id: outlooks.id, scenario: outlooks.scenario, result: outlooks.result }).from(outlooks)
+    .where(and(eq(outlooks.siteId, row.siteId), eq(outlooks.state, 'done'), inArray(outlooks.scenario, scenarios)))
+    .orderBy(outlooks.scenario, desc(outlooks.finishedAt))
+  const ordered = scenarios.map(scenario => latest.find(o => o.scenario === scenario)!).filter(Boolean)
+  const own = new Set((await db.select({ id: thresholds.id }).from(thresholds).where(eq(thresholds.siteId, row.siteId))).map(t => t.id))
+  const years = new Set((ordered[0]?.result as unknown as OutlookResult | undefined)?.years ?? [])
+  return {
+    outlookIds: ordered.map(o => o.id),
+    // A threshold removed from the site, or a year the new outlook does not give, is left out of the draft.
+    thresholdIds: row.thresholdIds.filter(id => own.has(id)),
+    years: row.years.filter(year => years.has(year)),
+  }
+}
+
+/**
+ * A new draft that starts from an issued briefing and replaces it once issued: with the same
+ * outlooks, or (fromLatestOutlooks) with the latest finished outlook of each of its scenarios.
+ */
+export async function newBriefingVersion(planner: CurrentUser, id: string, options: { fromLatestOutlooks?: boolean } = {}) {
   const row = await loadBriefing(planner, id)
   if (row.state !== 'issued') throw createError({ statusCode: 409, message: 'Only an issued briefing gets a new version; edit this draft instead.' })
+  const selection = options.fromLatestOutlooks ? await latestSelection(row) : { outlookIds: row.outlookIds, thresholdIds: row.thresholdIds, years: row.years }
+  if (!selection.outlookIds.length || !selection.thresholdIds.length || !selection.years.length) {
+    throw createError({ statusCode: 409, message: 'The latest outlooks no longer cover this briefing\'s thresholds or years; start a new briefing from the site instead.' })
+  }
   const db = await useDb()
   const [latest] = await db.select({ version: briefings.version }).from(briefings).where(eq(briefings.siteId, row.siteId)).orderBy(desc(briefings.version)).limit(1)
   const [draft] = await db.insert(briefings).values({
-    organisationId: row.organisationId, siteId: row.siteId, outlookIds: row.outlookIds, version: Math.max(row.version, latest?.version ?? 0) + 1, previousId: row.id,
+    organisationId: row.organisationId, siteId: row.siteId, outlookIds: selection.outlookIds, version: Math.max(row.version, latest?.version ?? 0) + 1, previousId: row.id,
     title: row.title, audience: row.audience, localContext: row.localContext, language: row.language, units: row.units,
-    thresholdIds: row.thresholdIds, years: row.years, createdBy: planner.id,
+    thresholdIds: selection.thresholdIds, years: selection.years, createdBy: planner.id,
   }).returning()
-  await writeAudit(db, planner, 'briefing.new-version', { type: 'briefing', id: draft!.id }, { previous: id })
+  await writeAudit(db, planner, 'briefing.new-version', { type: 'briefing', id: draft!.id }, { previous: id, fromLatestOutlooks: options.fromLatestOutlooks === true })
   return draft!
 }
 

@@ -2,9 +2,10 @@ import { and, desc, eq, inArray, isNull } from 'drizzle-orm'
 import { briefings, outlooks, sites, thresholds, watches, type OutlookReleaseRef } from '~~/server/db/schema'
 import type { OutlookResult } from '#shared/engine'
 import { formatHeight } from '#shared/units'
-import { formatChance, type Language } from '#shared/wording/chance'
+import { chanceAfterDe, formatChance, type Language } from '#shared/wording/chance'
 import { BRIEFING_TEXT } from '#shared/briefing/text'
 import { briefingIssuedMail, whatChangedMail, type ChangeRow, type HorizonChange, type RangeRow, type ReleaseChange } from '../mail/templates'
+import { headlineOf } from './site-list'
 import { unsubscribeHeaders, unsubscribeUrl } from './watches'
 
 // The e-mails watchers get: what changed at a site after a recomputation (see recompute.ts), with
@@ -110,6 +111,26 @@ function describe(allComparisons: Comparison[], labels: Map<string, string>, lan
   return { chances, ranges, releases, horizons, shown: comparisons.length }
 }
 
+/**
+ * The site's headline under its planning scenario, named, before and after: the number lists and
+ * the map show, so a reader never mistakes another scenario's chance for it.
+ */
+function planningSentence(planningScenario: string, comparisons: Comparison[], labels: Map<string, string>, language: Language) {
+  const es = language === 'es'
+  const named = es ? `${planningScenario}, el escenario de planificación` : `${planningScenario}, the planning scenario`
+  const change = comparisons.find(c => c.scenario === planningScenario)
+  if (!change) return es ? `Este cambio no afecta a ${named}: su cifra principal sigue igual.` : `This change does not touch ${named}: its headline stays as it was.`
+  const offset = (outlook: Comparison['after']) => (outlook.input as { datum?: { offset: number } }).datum?.offset ?? 0
+  const now = headlineOf(change.after.result as unknown as OutlookResult, labels, offset(change.after))
+  const was = headlineOf(change.before.result as unknown as OutlookResult, labels, offset(change.before))
+  if (!now) return es ? `Con ${named}, el sitio no tiene umbral del nivel medio del mar para una cifra principal.` : `Under ${named}, the site has no mean-sea-level threshold to give a headline for.`
+  const height = formatHeight(now.height, 'm', language)
+  const before = was ? formatChance(was.probability, language) : '—'
+  return es
+    ? `Con ${named}: la probabilidad de que el nivel medio del mar supere «${now.thresholdLabel}» (${height}) en ${now.year} es ahora ${chanceAfterDe(now.probability)} (antes, ${before}).`
+    : `Under ${named}: the chance that mean sea level is above "${now.thresholdLabel}" (${height}) by ${now.year} is now ${formatChance(now.probability, language)} (was ${before}).`
+}
+
 async function latestBriefingUrl(siteId: string) {
   const db = await useDb()
   const [shared] = await db.select({ token: briefings.shareToken }).from(briefings)
@@ -122,8 +143,10 @@ export async function mailWhatChanged(siteId: string, cause: Cause, comparisons:
   const watchers = await activeWatches(siteId)
   if (!watchers.length || !comparisons.length) return
   const db = await useDb()
-  const [site] = await db.select({ name: sites.name }).from(sites).where(eq(sites.id, siteId))
+  const [site] = await db.select({ name: sites.name, planningScenario: sites.planningScenario }).from(sites).where(eq(sites.id, siteId))
   if (!site) return
+  // The planning scenario's rows come first in the tables, as its sentence does above them.
+  const ordered = [...comparisons].sort((a, b) => Number(b.scenario === site.planningScenario) - Number(a.scenario === site.planningScenario))
   const labels = new Map((await loadSiteThresholds(siteId)).map(t => [t.id, t.label]))
   const briefingUrl = await latestBriefingUrl(siteId)
   // The same recomputation mails each watcher once, even when its job runs again after a crash.
@@ -134,10 +157,12 @@ export async function mailWhatChanged(siteId: string, cause: Cause, comparisons:
       const scope = scopes.get(watch.id)
       if (!scope) continue
       const language: Language = watch.language === 'es' ? 'es' : 'en'
-      const { shown, ...numbers } = describe(comparisons, labels, language, scope)
+      const { shown, ...numbers } = describe(ordered, labels, language, scope)
       // Nothing the watcher's briefing showed has changed: nothing to tell them.
       if (!shown) continue
-      const mail = whatChangedMail({ language, site: site.name, cause: cause[language], ...numbers, briefingUrl: scope === 'everything' ? briefingUrl : scope.url, unsubscribeUrl: unsubscribeUrl(watch.unsubscribeToken) })
+      // A watch from a shared briefing hears only what that briefing showed, so not the planning headline.
+      const planning = scope === 'everything' ? planningSentence(site.planningScenario, ordered, labels, language) : undefined
+      const mail = whatChangedMail({ language, site: site.name, cause: cause[language], ...numbers, planning, briefingUrl: scope === 'everything' ? briefingUrl : scope.url, unsubscribeUrl: unsubscribeUrl(watch.unsubscribeToken) })
       await queueMail(tx, { to: watch.email, ...mail, headers: unsubscribeHeaders(watch.unsubscribeToken), dedupeKey: `change:${event}:${watch.id}` })
     }
   })

@@ -1,6 +1,7 @@
 import { and, eq, inArray } from 'drizzle-orm'
 import { correlationAdoptions, jobs, outlooks, recomputations, seriesAdoptions, sites } from '~~/server/db/schema'
 import type { Database } from '~~/server/db/client'
+import { mailStaleBriefings } from './briefing-staleness'
 import { latestOutlooks, mailWhatChanged, type Cause, type Comparison } from './notify'
 import { queueOutlook } from './outlooks'
 import { checkDecisionAlerts } from './pathways/alerts'
@@ -101,5 +102,7 @@ export async function recomputeSite(payload: RecomputeSitePayload): Promise<JobO
   })
   await mailWhatChanged(payload.siteId, payload.cause, comparisons)
   await checkDecisionAlerts(payload.siteId, comparisons)
+  // Issued briefings that the new numbers make out of date tell their planners (once per change).
+  if (comparisons.length) await mailStaleBriefings(payload.siteId)
   return { state: 'done' }
 }

@@ -18,15 +18,22 @@ export function headlineOf(result: OutlookResult, labels: Map<string, string>, d
   if (!threshold) return null
   let index = result.years.findLastIndex(year => year <= HEADLINE_YEAR)
   if (index < 0) index = 0
-  return { thresholdLabel: labels.get(threshold.key) ?? threshold.key, height: threshold.height + datumOffset, year: result.years[index]!, probability: threshold.byYear[index]!.value }
+  return {
+    thresholdLabel: labels.get(threshold.key) ?? threshold.key, height: threshold.height + datumOffset, year: result.years[index]!, probability: threshold.byYear[index]!.value,
+    triggerYears: threshold.triggerYears.map(({ tolerance, year }) => ({ tolerance, year })),
+  }
 }
 
+/**
+ * Each site of the caller's organisation with its headline under its planning scenario: the latest
+ * finished outlook of that scenario, never whichever scenario ran last (null when none has run yet).
+ */
 export async function listSites(user: CurrentUser) {
   const db = await useDb()
   const rows = await db.select().from(sites).where(eq(sites.organisationId, user.organisationId)).orderBy(asc(sites.name))
-  const latest = await db.selectDistinctOn([outlooks.siteId], { siteId: outlooks.siteId, id: outlooks.id, scenario: outlooks.scenario, headline: outlooks.headline, finishedAt: outlooks.finishedAt })
+  const planned = await db.selectDistinctOn([outlooks.siteId], { siteId: outlooks.siteId, id: outlooks.id, scenario: outlooks.scenario, headline: outlooks.headline, finishedAt: outlooks.finishedAt })
     .from(outlooks).innerJoin(sites, eq(sites.id, outlooks.siteId))
-    .where(and(eq(sites.organisationId, user.organisationId), eq(outlooks.state, 'done')))
+    .where(and(eq(sites.organisationId, user.organisationId), eq(outlooks.state, 'done'), eq(outlooks.scenario, sites.planningScenario)))
     .orderBy(outlooks.siteId, desc(outlooks.finishedAt))
   const counts = await db.select({ siteId: thresholds.siteId, n: count() }).from(thresholds)
     .innerJoin(sites, eq(sites.id, thresholds.siteId)).where(eq(sites.organisationId, user.organisationId)).groupBy(thresholds.siteId)
@@ -39,7 +46,8 @@ export async function listSites(user: CurrentUser) {
     landMotionSigma: site.landMotionSigma,
     thresholdCount: counts.find(c => c.siteId === site.id)?.n ?? 0,
     hasExtremes: site.gumbelScale !== null,
-    latestOutlook: latest.find(o => o.siteId === site.id) ?? null,
+    planning: { scenario: site.planningScenario, tolerance: site.planningTolerance },
+    planningOutlook: planned.find(o => o.siteId === site.id) ?? null,
   }))
 }
 

@@ -37,6 +37,7 @@ function siteColumns(input: SiteInput) {
     landMotionSource: input.landMotion.source,
     landMotionReference: input.landMotion.reference,
     landMotionEpoch: input.landMotion.epoch,
+    ...(input.planning ? { planningScenario: input.planning.scenario, planningTolerance: input.planning.tolerance } : {}),
     ...(input.gumbel !== undefined
       ? {
           gumbelLocation: input.gumbel?.location ?? null, gumbelScale: input.gumbel?.scale ?? null, gumbelSource: input.gumbel ? 'entered' : null,

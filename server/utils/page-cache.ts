@@ -1,6 +1,6 @@
 import type { H3Event } from 'h3'
-import { and, eq } from 'drizzle-orm'
-import { briefings } from '~~/server/db/schema'
+import { and, eq, max } from 'drizzle-orm'
+import { briefings, outlooks } from '~~/server/db/schema'
 
 // The HTML of shared briefing pages, kept in memory so a link passed round a council meeting is
 // rendered once, not for every reader. An issued briefing never changes, so its page only changes
@@ -8,6 +8,8 @@ import { briefings } from '~~/server/db/schema'
 // - only anonymous GETs without a query string (no session cookie) are cached or served from here;
 // - a revoked link answers 404 at once on the instance that revoked it, and within a second on any
 //   other instance sharing the database (hits re-check the link at most once a second);
+// - a page stored before its site's latest outlook finished is rendered again (it may now say that
+//   newer science changed the briefing's numbers), checked with the same once-a-second look;
 // - each response gets a fresh CSP nonce: the page is stored with the nonce it was rendered with,
 //   and on the way out that value is replaced in the header and the tags by this response's nonce.
 //   Markup injected into the page could not have known the render-time nonce, so it stays blocked.
@@ -50,17 +52,27 @@ export function sharedPageKey(event: H3Event, token: string) {
 // the page). The instance that revokes a link forgets it at once (forgetSharedPages, called by
 // setSharing); another instance sharing the database stops serving it within this interval.
 const LIVE_RECHECK_MS = 1000
-const liveUntil = new Map<string, number>()
+const liveUntil = new Map<string, { until: number, outlookAt: number }>()
 
-export async function shareIsLive(token: string) {
+/**
+ * Whether the link still opens an issued briefing, and when its site's latest outlook finished (ms;
+ * 0 when none): a page stored before then is rendered again. False for a revoked link.
+ */
+export async function shareIsLive(token: string): Promise<false | { outlookAt: number }> {
   const now = Date.now()
-  if ((liveUntil.get(token) ?? 0) > now) return true
+  const known = liveUntil.get(token)
+  if (known && known.until > now) return { outlookAt: known.outlookAt }
   const db = await useDb()
-  const [row] = await db.select({ id: briefings.id }).from(briefings)
-    .where(and(eq(briefings.shareToken, token), eq(briefings.state, 'issued'))).limit(1)
-  if (row) liveUntil.set(token, now + LIVE_RECHECK_MS)
-  else liveUntil.delete(token)
-  return row !== undefined
+  const [row] = await db.select({ id: briefings.id, outlookAt: max(outlooks.finishedAt) }).from(briefings)
+    .leftJoin(outlooks, and(eq(outlooks.siteId, briefings.siteId), eq(outlooks.state, 'done')))
+    .where(and(eq(briefings.shareToken, token), eq(briefings.state, 'issued'))).groupBy(briefings.id).limit(1)
+  if (!row) {
+    liveUntil.delete(token)
+    return false
+  }
+  const outlookAt = row.outlookAt ? new Date(row.outlookAt).getTime() : 0
+  liveUntil.set(token, { until: now + LIVE_RECHECK_MS, outlookAt })
+  return { outlookAt }
 }
 
 export function cachedSharedPage(key: string): CachedPage | undefined {

@@ -29,3 +29,9 @@ export const UpdateBriefingSchema = z.object(BriefingFields)
 
 export type CreateBriefingInput = z.infer<typeof CreateBriefingSchema>
 export type UpdateBriefingInput = z.infer<typeof UpdateBriefingSchema>
+
+/** A new version of an issued briefing: as it was, or from the latest finished outlooks of its scenarios. */
+export const NewVersionSchema = z.object({
+  fromLatestOutlooks: z.boolean({ error: 'fromLatestOutlooks must be true or false.' }).default(false),
+}, { error: 'Send { fromLatestOutlooks: true } to start from the latest outlooks, or no body.' })
+export type NewVersionInput = z.infer<typeof NewVersionSchema>

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { MAX_SAMPLES } from '../engine'
+import { DEFAULT_TOLERANCES, MAX_SAMPLES } from '../engine'
 import { DATUM_KINDS, LAND_MOTION_SOURCES, THRESHOLD_KINDS } from '../types/science'
 import { scenarioField } from './releases'
 import { textField } from './text'
@@ -27,6 +27,18 @@ export const ThresholdSchema = z.object({
 }, { error: 'Enter each threshold as { label, height }.' })
 
 export const MAX_THRESHOLDS = 12
+
+/** A site plans for SSP2-4.5 and a 10 % tolerance until its planners choose otherwise. */
+export const DEFAULT_PLANNING = { scenario: 'SSP2-4.5', tolerance: 0.1 } as const
+/** The tolerances a planner may choose: those the engine gives trigger years for. */
+export const PLANNING_TOLERANCES = DEFAULT_TOLERANCES
+
+/** The scenario a site's lists, map and mails speak of, and the chance of passing a threshold its planners accept. */
+export const PlanningSchema = z.object({
+  scenario: scenarioField,
+  tolerance: z.number({ error: 'Choose the chance of passing a threshold you accept.' })
+    .refine(value => PLANNING_TOLERANCES.some(t => Math.abs(t - value) < 1e-9), { error: `Choose one of: ${PLANNING_TOLERANCES.map(t => `${Math.round(t * 100)} %`).join(', ')}.` }),
+}, { error: 'Enter the planning scenario and tolerance as { scenario, tolerance }.' })
 
 /** Bounds of extreme-water statistics, in metres above the datum: the form, the API and an upload's fit share them. */
 export const GUMBEL_BOUNDS = { location: { min: -10, max: 20 }, scale: { max: 5 } } as const
@@ -58,6 +70,8 @@ const SiteFields = z.object({
     scale: z.number({ error: 'Enter the Gumbel scale as a number.' }).positive({ error: 'The Gumbel scale must be above 0 m.' })
       .max(GUMBEL_BOUNDS.scale.max, { error: `The Gumbel scale must be at most ${GUMBEL_BOUNDS.scale.max} m.` }),
   }).nullable().optional(),
+  /** Left out, a new site plans for DEFAULT_PLANNING and an edited one keeps what it had. */
+  planning: PlanningSchema.optional(),
 })
 
 type SiteFieldsInput = z.infer<typeof SiteFields>

@@ -88,6 +88,8 @@ const ROUTES: Record<string, RouteCase> = {
 
   // Sites, outlooks and briefings belong to an organisation; planners change them.
   'sites/index.get.ts': { unscoped: true, url: () => '/api/sites', expect: { ...anyone(200), anonymous: 401 } },
+  // The caller's own organisation's sites only, so it names no record of another.
+  'exports/sites.geojson.get.ts': { unscoped: true, url: () => '/api/exports/sites.geojson', expect: { ...anyone(200), anonymous: 401 } },
   'sites/index.post.ts': { unscoped: true, url: () => '/api/sites', body: (_fx, _s, persona) => SITE_BODY(`Matrix new site (${persona})`), expect: { ...anyone(403), anonymous: 401, planner: 201 } },
   'sites/[id].get.ts': { url: (fx, scope) => `/api/sites/${pick(scope, fx.home.siteId, fx.foreign.siteId)}`, expect: members },
   'sites/[id].patch.ts': { url: (fx, scope) => `/api/sites/${pick(scope, fx.home.editSiteId, fx.foreign.siteId)}`, body: () => SITE_BODY('Matrix Point'), expect: only('planner', 200) },
@@ -113,6 +115,7 @@ const ROUTES: Record<string, RouteCase> = {
     body: fx => ({ pathwayId: fx.home.pathwayId, measureId: fx.home.measureIds[1], scenario: OUTLOOK_REQUEST.scenario, tolerance: 0.5, rationale: 'Matrix decision', reviewDate: '2099-01-01' }),
   },
   'outlooks/[id].get.ts': { url: (fx, scope) => `/api/outlooks/${pick(scope, fx.home.outlookId, fx.foreign.outlookId)}`, expect: members },
+  'outlooks/[id]/csv.get.ts': { url: (fx, scope) => `/api/outlooks/${pick(scope, fx.home.outlookId, fx.foreign.outlookId)}/csv`, expect: members },
 
   'briefings/index.get.ts': { unscoped: true, url: () => '/api/briefings', expect: { ...anyone(200), anonymous: 401 } },
   'briefings/index.post.ts': {

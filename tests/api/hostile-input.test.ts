@@ -378,6 +378,20 @@ describe('hostile text a person may fairly type is kept as typed and shown escap
     expect(cells).toEqual(["'=cmd|' /C calc'!A0", "'@SUM(1+1)", "'+1+1", "'-1+1"])
   })
 
+  it('the outlook CSV export quotes every formula cell a planner typed (site name and threshold labels)', async () => {
+    const { planner } = clients
+    const hostile = ["=cmd|' /C calc'!A0", '@SUM(1+1)', '+1+1', '-1+1']
+    const created = (await planner.post('/api/sites', site({ name: '=HYPERLINK("http://example.invalid")', thresholds: hostile.map((label, i) => ({ label, height: 1 + i })) }))).body
+    const outlook = (await planner.post(`/api/sites/${created.id}/outlooks`, { scenario: 'SSP2-4.5', samples: 2000 })).body
+    const response = await planner.fetchRaw(`/api/outlooks/${outlook.id}/csv`)
+    expect(response.status).toBe(200)
+    const text = await response.text()
+    expect(text).toContain('site,"\'=HYPERLINK(""http://example.invalid"")"')
+    for (const label of hostile) expect(text, label).toContain(`\r\n'${label}`)
+    // No line starts a cell with a formula character unquoted.
+    for (const line of text.split('\r\n')) expect(line, line).not.toMatch(/^[=+@\t]|,[=+@\t]/)
+  })
+
   it('the release CSV export holds only numbers and year headers, with negative values left as numbers', async () => {
     const { analyst } = clients
     const draft = await analyst.post('/api/releases', { ...quantiles('level,2050,2100\n0.17,-0.02,0.1\n0.5,0.01,0.2\n0.83,0.03,0.4\n'), series: { component: 'land-water', scenario: 'SSP2-4.5', title: 'Negative export' } })

@@ -1,7 +1,9 @@
 import { IdParams } from '#shared/schemas/users'
 import { briefingDocument, liveLink, loadBriefing } from '~~/server/services/briefings'
+import { briefingStaleness } from '~~/server/services/briefing-staleness'
 
-// A briefing and its document (live for drafts, frozen once issued). Only planners see the link.
+// A briefing and its document (live for drafts, frozen once issued), and what newer outlooks change
+// in an issued one. Only planners see the link.
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
   const { id } = readValidParams(event, IdParams)
@@ -11,5 +13,6 @@ export default defineEventHandler(async (event) => {
   const canEdit = user.role === 'planner'
   // Links are built on the configured address (APP_URL), never on the request's Host header.
   const live = liveLink(row, user)
-  return { ...briefing, shareToken: canEdit ? shareToken : null, shared: shareToken !== null, canEdit, document, appUrl: appUrl(), live: { url: `${appUrl()}${live.path}`, signIn: live.signIn } }
+  const staleness = await briefingStaleness(row)
+  return { ...briefing, shareToken: canEdit ? shareToken : null, shared: shareToken !== null, canEdit, document, staleness: staleness && { changes: staleness.changes }, appUrl: appUrl(), live: { url: `${appUrl()}${live.path}`, signIn: live.signIn } }
 })

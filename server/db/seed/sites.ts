@@ -21,6 +21,8 @@ interface DemoSite {
   extremes?: { location: number, scale: number, years: number }
   /** An invented record of annual mean sea level at the town's gauge. */
   gauge?: DemoGauge
+  /** The scenario its planners plan for; SSP2-4.5 (the column's default) when absent. */
+  planningScenario?: string
 }
 
 /** Every demo site counts rise from 2020, the baseline of the demo science. */
@@ -41,7 +43,7 @@ export const DEMO_SITES: DemoSite[] = [
   { org: 'council', name: 'Saltcombe Ness', latitude: 48.55, longitude: -35.48, land: { rate: -0.4, sigma: 0.5, source: 'gps', reference: 'GNSS station SNES, 9-year series (illustrative)' },
     thresholds: [{ label: 'Coast road', height: 0.7 }, { label: 'Lifeboat slipway head', height: 1.2 }] },
   { org: 'port', name: 'Skerrow Quay', latitude: 48.21, longitude: -32.64, land: { rate: -1.8, sigma: 0.6, source: 'gps', reference: 'GNSS station SKRW on the harbour office (illustrative)' },
-    datum: { kind: 'chart', name: 'Skerrow harbour chart datum (illustrative)', offset: 1.2 },
+    datum: { kind: 'chart', name: 'Skerrow harbour chart datum (illustrative)', offset: 1.2 }, planningScenario: 'SSP5-8.5',
     thresholds: [{ label: 'Quay deck', height: 2.6, kind: 'flood-level', buildYear: 2030, designLifeYears: 50 }, { label: 'Crane rail', height: 0.8 }], extremes: { location: 1.7, scale: 0.16, years: 40 } },
   { org: 'port', name: 'Skerrow Breakwater', latitude: 48.28, longitude: -32.55, land: { rate: -1.6, sigma: 0.7, source: 'other', reference: 'Levelling from the harbour benchmark, 2019 (illustrative)' },
     thresholds: [{ label: 'Breakwater crest', height: 2.6 }] },
@@ -73,6 +75,7 @@ export async function seedSites(tx: Pick<Database, 'insert'>, owners: { council:
       referenceLevel: datum.name, datumKind: datum.kind, datumOffset: datum.offset, referenceEpoch: REFERENCE_EPOCH,
       landMotionRate: demo.land.rate, landMotionSigma: demo.land.sigma, landMotionSource: demo.land.source,
       landMotionReference: demo.land.reference, landMotionEpoch: 2020,
+      ...(demo.planningScenario ? { planningScenario: demo.planningScenario } : {}),
       gumbelLocation: fit?.location ?? null, gumbelScale: fit?.scale ?? null, gumbelSource: maxima ? `fitted:${maxima.length}` : null,
       gumbelTrend: fit?.trendPerYear ?? null, gumbelLocationSe: fit?.se.location ?? null, gumbelScaleSe: fit?.se.scale ?? null, gumbelTrendSe: fit?.se.trendPerYear ?? null,
     }).returning({ id: sites.id })

@@ -1,0 +1,130 @@
+import { and, desc, eq, inArray } from 'drizzle-orm'
+import { briefings, outlooks, sites, thresholds, users } from '~~/server/db/schema'
+import type { OutlookResult } from '#shared/engine'
+import { formatChance, type Language } from '#shared/wording/chance'
+import { briefingStaleMail } from '../mail/templates'
+
+// An issued briefing never changes. When a newer outlook of its site and scenario gives different
+// numbers for the thresholds and years it states, the briefing is out of date: its pages say what
+// changed ("19 % now, 4 % in this briefing"), its planners get one e-mail, and a planner can start a
+// new version from the latest outlooks. A figure counts as changed when it reads differently in the
+// briefing's language (a Monte Carlo wobble below a rounded percent is not news).
+
+type Briefing = typeof briefings.$inferSelect
+
+export interface StaleFigure {
+  scenario: string
+  thresholdId: string
+  threshold: string
+  kind: 'mean-sea-level' | 'flood-level'
+  year: number
+  /** The chance the briefing states, and the latest outlook's. */
+  was: number
+  now: number
+}
+
+export interface Staleness {
+  /** The latest finished outlook of each of the briefing's scenarios, in the briefing's order. */
+  latestOutlookIds: string[]
+  changes: StaleFigure[]
+}
+
+/** The chance a briefing states for a threshold in a year: above the mean sea, or the flood level's that year. */
+function chanceIn(result: OutlookResult, thresholdId: string, year: number) {
+  const threshold = result.thresholds.find(t => t.key === thresholdId)
+  const index = result.years.indexOf(year)
+  if (!threshold || index < 0) return null
+  if (threshold.kind === 'flood-level') return { kind: 'flood-level' as const, value: threshold.flood?.annualChance[index]?.value ?? null }
+  return { kind: 'mean-sea-level' as const, value: threshold.byYear[index]?.value ?? null }
+}
+
+/** The latest finished outlook of each scenario at a site (id and when it finished). */
+async function latestBySiteScenario(siteId: string, scenarios: string[]) {
+  const db = await useDb()
+  const rows = await db.selectDistinctOn([outlooks.scenario], { id: outlooks.id, scenario: outlooks.scenario, finishedAt: outlooks.finishedAt })
+    .from(outlooks).where(and(eq(outlooks.siteId, siteId), eq(outlooks.state, 'done'), inArray(outlooks.scenario, scenarios)))
+    .orderBy(outlooks.scenario, desc(outlooks.finishedAt))
+  return new Map(rows.map(row => [row.scenario, row]))
+}
+
+/** What newer outlooks change in an issued briefing; null for a draft or one that is still current. */
+export async function briefingStaleness(row: Briefing): Promise<Staleness | null> {
+  if (row.state !== 'issued' || !row.outlookIds.length) return null
+  const db = await useDb()
+  const used = await db.select({ id: outlooks.id, scenario: outlooks.scenario, finishedAt: outlooks.finishedAt }).from(outlooks).where(inArray(outlooks.id, row.outlookIds))
+  const latest = await latestBySiteScenario(row.siteId, [...new Set(used.map(o => o.scenario))])
+  const replaced = used.filter((o) => {
+    const now = latest.get(o.scenario)
+    return now && now.id !== o.id && (now.finishedAt?.getTime() ?? 0) > (o.finishedAt?.getTime() ?? 0)
+  })
+  if (!replaced.length) return null
+  const ids = [...replaced.map(o => o.id), ...replaced.map(o => latest.get(o.scenario)!.id)]
+  const results = new Map((await db.select({ id: outlooks.id, result: outlooks.result }).from(outlooks).where(inArray(outlooks.id, ids)))
+    .map(o => [o.id, o.result as unknown as OutlookResult]))
+  const labels = new Map((await db.select({ id: thresholds.id, label: thresholds.label }).from(thresholds).where(inArray(thresholds.id, row.thresholdIds))).map(t => [t.id, t.label]))
+  const language: Language = row.language === 'es' ? 'es' : 'en'
+  const changes: StaleFigure[] = []
+  // In the briefing's order: its own scenario first, then those compared with it.
+  for (const id of row.outlookIds) {
+    const before = replaced.find(o => o.id === id)
+    if (!before) continue
+    const was = results.get(id)
+    const now = results.get(latest.get(before.scenario)!.id)
+    if (!was || !now) continue
+    for (const thresholdId of row.thresholdIds) {
+      for (const year of row.years) {
+        const a = chanceIn(was, thresholdId, year)
+        const b = chanceIn(now, thresholdId, year)
+        if (a?.value == null || b?.value == null || a.kind !== b.kind) continue
+        if (formatChance(a.value, language) === formatChance(b.value, language)) continue
+        changes.push({ scenario: before.scenario, thresholdId, threshold: labels.get(thresholdId) ?? thresholdId, kind: b.kind, year, was: a.value, now: b.value })
+      }
+    }
+  }
+  if (!changes.length) return null
+  return { latestOutlookIds: row.outlookIds.map(id => latest.get(used.find(o => o.id === id)?.scenario ?? '')?.id ?? id), changes }
+}
+
+/** One line per changed figure, in the briefing's language: "19 % now, 4 % in this briefing". */
+export function staleLine(change: StaleFigure, language: Language) {
+  const es = language === 'es'
+  const what = change.kind === 'flood-level'
+    ? (es ? `probabilidad de que el agua alcance «${change.threshold}» en ${change.year}` : `chance the water reaches "${change.threshold}" in ${change.year}`)
+    : (es ? `probabilidad de que el nivel medio del mar supere «${change.threshold}» en ${change.year}` : `chance mean sea level is above "${change.threshold}" by ${change.year}`)
+  const now = formatChance(change.now, language)
+  const was = formatChance(change.was, language)
+  return es
+    ? `${change.scenario}, ${what}: ${now} ahora, ${was} en este informe.`
+    : `${change.scenario}, ${what}: ${now} now, ${was} in this briefing.`
+}
+
+/**
+ * After a recomputation of a site: each issued briefing of it that has no issued newer version and
+ * whose numbers changed mails its planners (author and issuer, if still active planners) once.
+ * The key names the outlooks that made it stale, so a later change mails again and this one never twice.
+ */
+export async function mailStaleBriefings(siteId: string) {
+  const db = await useDb()
+  const issued = await db.select().from(briefings).where(and(eq(briefings.siteId, siteId), eq(briefings.state, 'issued')))
+  const superseded = new Set(issued.map(b => b.previousId).filter(Boolean))
+  const [site] = await db.select({ name: sites.name }).from(sites).where(eq(sites.id, siteId))
+  if (!site) return
+  for (const row of issued) {
+    if (superseded.has(row.id)) continue
+    const staleness = await briefingStaleness(row)
+    if (!staleness) continue
+    const planners = await db.select({ id: users.id, email: users.email, locale: users.locale }).from(users)
+      .where(and(inArray(users.id, [...new Set([row.createdBy, row.issuedBy].filter((id): id is string => id !== null))]), eq(users.role, 'planner'), eq(users.disabled, false)))
+    const event = staleness.latestOutlookIds.join(',')
+    await db.transaction(async (tx) => {
+      for (const planner of planners) {
+        const language: Language = planner.locale === 'es' ? 'es' : 'en'
+        const mail = briefingStaleMail({
+          language, site: site.name, title: row.title, version: row.version,
+          changes: staleness.changes.map(change => staleLine(change, language)), url: `${appUrl()}/briefings/${row.id}`,
+        })
+        await queueMail(tx, { to: planner.email, ...mail, dedupeKey: `briefing-stale:${row.id}:${event}:${planner.id}` })
+      }
+    })
+  }
+}
