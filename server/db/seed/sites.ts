@@ -42,11 +42,12 @@ export const DEMO_SITES: DemoSite[] = [
     thresholds: [{ label: 'Wastewater works inlet', height: 1.0 }] },
   { org: 'council', name: 'Saltcombe Ness', latitude: 48.55, longitude: -35.48, land: { rate: -0.4, sigma: 0.5, source: 'gps', reference: 'GNSS station SNES, 9-year series (illustrative)' },
     thresholds: [{ label: 'Coast road', height: 0.7 }, { label: 'Lifeboat slipway head', height: 1.2 }] },
-  { org: 'port', name: 'Skerrow Quay', latitude: 48.21, longitude: -32.64, land: { rate: -1.8, sigma: 0.6, source: 'gps', reference: 'GNSS station SKRW on the harbour office (illustrative)' },
-    datum: { kind: 'chart', name: 'Skerrow harbour chart datum (illustrative)', offset: 1.2 }, planningScenario: 'SSP5-8.5',
-    thresholds: [{ label: 'Quay deck', height: 2.6, kind: 'flood-level', buildYear: 2030, designLifeYears: 50 }, { label: 'Crane rail', height: 0.8 }], extremes: { location: 1.7, scale: 0.16, years: 40 } },
-  { org: 'port', name: 'Skerrow Breakwater', latitude: 48.28, longitude: -32.55, land: { rate: -1.6, sigma: 0.7, source: 'other', reference: 'Levelling from the harbour benchmark, 2019 (illustrative)' },
-    thresholds: [{ label: 'Breakwater crest', height: 2.6 }] },
+  // The harbour board works in Spanish: its planners wrote these labels and references in Spanish.
+  { org: 'port', name: 'Skerrow Quay', latitude: 48.21, longitude: -32.64, land: { rate: -1.8, sigma: 0.6, source: 'gps', reference: 'Estación GNSS SKRW en la oficina del puerto (ilustrativa)' },
+    datum: { kind: 'chart', name: 'Cero hidrográfico del puerto de Skerrow (ilustrativo)', offset: 1.2 }, planningScenario: 'SSP5-8.5',
+    thresholds: [{ label: 'Plataforma del muelle', height: 2.6, kind: 'flood-level', buildYear: 2030, designLifeYears: 50 }, { label: 'Carril de las grúas', height: 0.8 }], extremes: { location: 1.7, scale: 0.16, years: 40 } },
+  { org: 'port', name: 'Skerrow Breakwater', latitude: 48.28, longitude: -32.55, land: { rate: -1.6, sigma: 0.7, source: 'other', reference: 'Nivelación desde el punto de referencia del puerto, 2019 (ilustrativa)' },
+    thresholds: [{ label: 'Coronación del rompeolas', height: 2.6 }] },
 ]
 
 /** Deterministic demo maxima: the Gumbel quantiles at evenly spread, shuffled probabilities, on a rising sea. */
