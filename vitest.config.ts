@@ -1,4 +1,8 @@
+import { fileURLToPath } from 'node:url'
 import { defineConfig } from 'vitest/config'
+
+// Client code imports shared code through Nuxt's #shared alias; unit tests that load it need the same.
+const shared = { '#shared': fileURLToPath(new URL('./shared', import.meta.url)) }
 
 // Two layers run by `npm test`: plain-Node unit tests and API tests against the built server.
 // `npm run test:postgres` runs what needs a PostgreSQL server. Browser tests (the e2e project) run separately with `npm run test:e2e`, which checks for Chromium first.
@@ -11,6 +15,7 @@ export default defineConfig({
           include: ['tests/unit/**/*.test.ts'],
           environment: 'node',
         },
+        resolve: { alias: shared },
       },
       {
         test: {

@@ -1,5 +1,5 @@
-import { maxOf, minOf } from '../shared/engine/arrays'
-import { niceAxis, niceYearAxis } from '../shared/charts/nice-axis'
+import { maxOf, minOf } from '#shared/engine/arrays'
+import { niceAxis, niceYearAxis } from '#shared/charts/nice-axis'
 
 // Shared look of the outlook charts, in the app's palette (tailwind.config.ts). Text colours are the
 // dark dune and abyss shades, which keep AA contrast on the white cards.
