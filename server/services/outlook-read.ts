@@ -7,6 +7,7 @@ import { newerScience } from './outlooks'
 import { publishedStorylines } from './science-records'
 import { storylineBasis, storylineRise, type StorylineBasis } from '#shared/storylines/rise'
 import type { OutlookInput } from '#shared/engine'
+import type { BriefingStoryline } from '#shared/briefing/document'
 
 type OutlookRow = typeof outlooks.$inferSelect
 
@@ -72,17 +73,8 @@ const siteOfOutlook = sharedReads(async (siteId: string) => {
 /** A crowd reading outlooks of one scenario shares one query for its storylines. */
 const storylinesOfScenario = sharedReads(publishedStorylines)
 
-export interface OutlookStoryline {
-  id: string
-  name: string
-  description: string
-  version: number
-  citation: string
-  organisationName: string
-  illustrative: boolean
-  /** Metres above mean sea level at the reference epoch, per output year the storyline reaches. */
-  rises: { year: number, rise: number }[]
-}
+/** A storyline as a briefing places it, with its id for the page's links. */
+export interface OutlookStoryline extends BriefingStoryline { id: string }
 
 /**
  * The scenario's published storylines placed at the outlook's site: read fresh on every request (a
