@@ -15,11 +15,11 @@ const nav = () => page.getByTestId('main-nav')
 describe('the shell for each role', () => {
   // Sites and briefings belong to organisations that plan: their planners and readers see them.
   it.each([
-    { demo: OPERATOR, links: ['Overview', 'Library', 'Watches', 'Users', 'Invitations', 'Mailbox', 'Outbox', 'Recomputations', 'Audit log'] },
-    { demo: ADMIN, links: ['Overview', 'Library', 'Watches', 'Users', 'Invitations', 'Outbox', 'Audit log'] },
+    { demo: OPERATOR, links: ['Overview', 'Library', 'Science adopted', 'Watches', 'Users', 'Invitations', 'Mailbox', 'Outbox', 'Recomputations', 'Audit log'] },
+    { demo: ADMIN, links: ['Overview', 'Library', 'Science adopted', 'Watches', 'Users', 'Invitations', 'Outbox', 'Audit log'] },
     { demo: ANALYST, links: ['Overview', 'Library', 'Watches'] },
-    { demo: PLANNER, links: ['Overview', 'Sites', 'Briefings', 'Library', 'Watches'] },
-    { demo: READER, links: ['Overview', 'Sites', 'Briefings', 'Library', 'Watches'] },
+    { demo: PLANNER, links: ['Overview', 'Sites', 'Briefings', 'Library', 'Science adopted', 'Watches'] },
+    { demo: READER, links: ['Overview', 'Sites', 'Briefings', 'Library', 'Science adopted', 'Watches'] },
   ])('$demo.role sees the navigation of the role, the demo label and no accessibility faults', async ({ demo, links }) => {
     await signIn(page, demo.email, demo.password)
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toContain(demo.name)
@@ -70,7 +70,7 @@ describe('preferences', () => {
   it('switches to Spanish, and the choice follows the account to the next sign-in', async () => {
     await signIn(page, PLANNER.email, PLANNER.password)
     await page.getByTestId('language-switcher').selectOption('es')
-    await expect.poll(() => nav().getByRole('link').allTextContents()).toEqual(['Resumen', 'Sitios', 'Informes', 'Biblioteca', 'Seguimientos'])
+    await expect.poll(() => nav().getByRole('link').allTextContents()).toEqual(['Resumen', 'Sitios', 'Informes', 'Biblioteca', 'Ciencia adoptada', 'Seguimientos'])
     expect(await page.getAttribute('html', 'lang')).toMatch(/^es/)
     expect(await seriousAxeViolations(page)).toEqual([])
 
