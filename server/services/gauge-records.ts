@@ -1,5 +1,5 @@
 import { desc, eq, sql } from 'drizzle-orm'
-import { gaugeRecords } from '~~/server/db/schema'
+import { gaugeRecords, sites } from '~~/server/db/schema'
 import type { OutlookResult } from '#shared/engine/types'
 import { gaugePoints, parseGaugeRecordCsv } from '#shared/observations/gauge-record'
 import { fitGaugeTrend, GaugeFitError, type GaugeTrendFit } from '#shared/observations/gauge-trend'
@@ -27,6 +27,8 @@ export async function uploadGaugeRecord(planner: CurrentUser, siteId: string, cs
   const { fit, fitIssue } = fitOrIssue(gaugePoints(record), record.resolution)
   const db = await useDb()
   return db.transaction(async (tx) => {
+    // Two uploads at once take their versions in turn instead of colliding on the unique version.
+    await tx.select({ id: sites.id }).from(sites).where(eq(sites.id, siteId)).for('update')
     const [latest] = await tx.select({ version: gaugeRecords.version }).from(gaugeRecords)
       .where(eq(gaugeRecords.siteId, siteId)).orderBy(desc(gaugeRecords.version)).limit(1)
     const version = (latest?.version ?? 0) + 1

@@ -1,4 +1,5 @@
 import { CsvError, readGrid, type CsvIssue } from '../releases/csv'
+import { withoutControls } from '../schemas/text'
 import type { GaugePoint, GaugeResolution } from './gauge-trend'
 
 // A site's tide-gauge record of mean sea level from CSV: `year,height` for annual means or
@@ -94,7 +95,8 @@ export function parseGaugeRecordCsv(text: string): GaugeRecord {
     const month = resolution === 'monthly' ? Number(row[1]) : null
     const heightCell = row[resolution === 'monthly' ? 2 : 1]!
     const height = heightCell === '' ? Number.NaN : Number(heightCell)
-    const flag = hasFlag ? (row[columns.length - 1] ?? '').slice(0, 40) || null : null
+    // Flags are text a person typed: the same rule as every text field (no control characters).
+    const flag = hasFlag ? withoutControls(row[columns.length - 1] ?? '').slice(0, 40) || null : null
     if (!/^\d{4}$/.test(row[0]!) || year < FIRST_YEAR || year > LAST_YEAR) {
       issues.push({ field: `${at}, column year`, message: `"${row[0]}" is not a year between ${FIRST_YEAR} and ${LAST_YEAR}; enter the whole year, like 1998.` })
     }

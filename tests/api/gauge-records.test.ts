@@ -47,6 +47,13 @@ describe('tide-gauge records', () => {
     expect(read.record.fitIssue).toBeNull()
   })
 
+  it('gives uploads sent at the same moment versions one after the other', async () => {
+    const before = (await planner.get(`/api/sites/${siteId}/gauge-record`)).body.versions[0].version as number
+    const answers = await Promise.all([1, 2, 3].map(() => planner.post(`/api/sites/${siteId}/gauge-record`, { csv: rising() })))
+    expect(answers.map(answer => answer.status)).toEqual([201, 201, 201])
+    expect(answers.map(answer => answer.body.version as number).sort()).toEqual([before + 1, before + 2, before + 3])
+  })
+
   it('keeps a record too short to fit, saying why there is no fit', async () => {
     const response = await planner.post(`/api/sites/${siteId}/gauge-record`, { csv: rising(12, 2010) })
     expect(response.status).toBe(201)

@@ -30,6 +30,11 @@ describe('parseGaugeRecordCsv', () => {
     expect(points[0]!.time).toBeCloseTo(2000 + 10.5 / 12, 12)
   })
 
+  it('drops control characters and bidirectional overrides from a flag, as from any text field', () => {
+    const record = parseGaugeRecordCsv('year,height,flag\n2000,1.1,sus\u0007pect\u202E\n2001,1.2,\n')
+    expect(record.values.map(v => v.flag)).toEqual(['suspect', null])
+  })
+
   it('refuses a time given twice, naming both rows', () => {
     expect(issuesOf('year,height\n2000,1.1\n2001,1.2\n2000,1.3\n')).toEqual([
       'csv row 4, column year: 2000 is also on row 2; give one value per year.',
