@@ -27,10 +27,13 @@ async function activeWatches(siteId: string) {
 /** The latest finished outlook of each scenario computed for a site. */
 export async function latestOutlooks(siteId: string) {
   const db = await useDb()
-  const rows = await db.select().from(outlooks).where(and(eq(outlooks.siteId, siteId), eq(outlooks.state, 'done'))).orderBy(desc(outlooks.finishedAt))
-  const latest = new Map<string, typeof rows[number]>()
-  for (const row of rows) if (!latest.has(row.scenario)) latest.set(row.scenario, row)
-  return [...latest.values()]
+  // Ids first, so only one full result per scenario is read: a site recomputed for years keeps every
+  // earlier outlook, each with a result of about 120 kB.
+  const latest = await db.selectDistinctOn([outlooks.scenario], { id: outlooks.id }).from(outlooks)
+    .where(and(eq(outlooks.siteId, siteId), eq(outlooks.state, 'done')))
+    .orderBy(outlooks.scenario, desc(outlooks.finishedAt), desc(outlooks.id))
+  if (!latest.length) return []
+  return db.select().from(outlooks).where(inArray(outlooks.id, latest.map(row => row.id))).orderBy(desc(outlooks.finishedAt))
 }
 
 export interface Comparison { scenario: string, before: typeof outlooks.$inferSelect, after: typeof outlooks.$inferSelect }

@@ -10,7 +10,12 @@ export const MIN_TRACKING_YEARS = 5
 /** One-sided 95 %: the observed value's interval must clear the range by this many standard errors. */
 const CLEAR_Z = 1.645
 
-export type TrackingStatus = 'below' | 'within' | 'above' | 'unclear' | 'too-soon'
+/**
+ * `epoch-unobserved`: the record starts after the epoch, so the rise since the epoch rests on the site's
+ * stated mean sea level at the epoch (its datum offset), whose uncertainty nobody has given; the comparison
+ * then says no side rather than word a number whose ± leaves that out.
+ */
+export type TrackingStatus = 'below' | 'within' | 'above' | 'unclear' | 'too-soon' | 'epoch-unobserved'
 
 export interface FanYear { year: number, p17: number, p83: number }
 
@@ -44,8 +49,8 @@ function interpolate(fan: readonly FanYear[], epoch: number, time: number): { lo
 /**
  * Compares the record's fitted rise since the epoch with the outlook's likely range. When the epoch lies
  * inside the record, the rise is the fitted change from the epoch; otherwise it is the fitted level less
- * the site's mean sea level at the epoch (its datum offset), which carries the offset's own uncertainty
- * unstated. Null when the record ends before the epoch or after the outlook's last year.
+ * the site's mean sea level at the epoch (its datum offset), shown with the fit's ± only and given the
+ * status `epoch-unobserved`. Null when the record ends before the epoch or after the outlook's last year.
  */
 export function trackAgainstOutlook(fit: GaugeTrendFit, epoch: number, datumOffset: number, fan: readonly FanYear[]): Tracking | null {
   const time = fit.lastTime
@@ -67,6 +72,7 @@ export function trackAgainstOutlook(fit: GaugeTrendFit, epoch: number, datumOffs
   }
   const base = { time, observed, observedSe, likelyLow: range.low, likelyHigh: range.high, epochFrom: insideRecord ? 'record' as const : 'datum-offset' as const }
   if (time - epoch < MIN_TRACKING_YEARS) return { ...base, status: 'too-soon' }
+  if (!insideRecord) return { ...base, status: 'epoch-unobserved' }
   if (observed - CLEAR_Z * observedSe > range.high) return { ...base, status: 'above' }
   if (observed + CLEAR_Z * observedSe < range.low) return { ...base, status: 'below' }
   if (observed >= range.low && observed <= range.high) return { ...base, status: 'within' }

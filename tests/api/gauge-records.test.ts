@@ -9,11 +9,11 @@ let reader: ApiClient
 let portPlanner: ApiClient
 let siteId: string
 
-/** Annual means 1981–2025 rising 6 mm/yr from 1.20 m in 2020 above the datum, with a small alternating wobble. */
-function rising(years = 45, from = 1981, skip: number[] = []) {
+/** Annual means 1981–2025 rising `rate` m/yr (6 mm/yr) through 1.20 m in 2020 above the datum, with a small alternating wobble. */
+function rising(years = 45, from = 1981, skip: number[] = [], rate = 0.006) {
   const rows = Array.from({ length: years }, (_, i) => from + i)
     .filter(year => !skip.includes(year))
-    .map(year => `${year},${(1.2 + 0.006 * (year + 0.5 - 2020) + (year % 2 ? 0.004 : -0.004)).toFixed(4)}`)
+    .map(year => `${year},${(1.2 + rate * (year + 0.5 - 2020) + (year % 2 ? 0.004 : -0.004)).toFixed(4)}`)
   return `year,height\n${rows.join('\n')}\n`
 }
 
@@ -74,8 +74,20 @@ describe('tide-gauge records', () => {
       // 6 mm/yr from 2020 to the middle of 2025 is 33 mm [practice: arithmetic].
       expect(entry.tracking.observed).toBeCloseTo(0.033, 2)
       expect(entry.tracking.epochFrom).toBe('record')
-      expect(['below', 'within', 'above', 'unclear']).toContain(entry.tracking.status)
+      expect(entry.tracking.likelyLow).toBeLessThan(entry.tracking.likelyHigh)
     }
+  })
+
+  // Over the 5.5 years from the 2020 epoch, 40 mm/yr gives 0.22 m and −20 mm/yr gives −0.11 m: far outside
+  // any likely range of a few centimetres of rise, with a fit error of a millimetre or two [practice: arithmetic].
+  it.each([
+    ['above', 0.04],
+    ['below', -0.02],
+  ])('says the sea is tracking %s the likely range when the record clearly is', async (status, rate) => {
+    await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000 })
+    await planner.post(`/api/sites/${siteId}/gauge-record`, { csv: rising(45, 1981, [], rate) })
+    const [entry] = (await planner.get(`/api/sites/${siteId}/gauge-record`)).body.tracking
+    expect(entry.tracking.status).toBe(status)
   })
 
   it.each([

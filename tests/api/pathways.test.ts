@@ -73,6 +73,8 @@ describe('adaptation pathways', () => {
     const [demo] = v.pathways
     expect(demo!.illustrative).toBe(true)
     expect(demo!.measureIds).toHaveLength(4)
+    // The demo's measures are listed in the order they were written, from today's wall to retreat.
+    expect(v.measures.map(m => m.name)).toEqual(['Today\'s quay wall', 'Raise the quay wall by 0.4 m', 'Tidal barrier at the harbour mouth', 'Managed retreat from the quay district'])
     expect(v.scenarios.map(s => s.scenario)).toEqual(['SSP2-4.5'])
     expect(v.scenarios[0]!.outlookId).toBe(outlookId)
     // Each step's decision year is the tipping year of the measure in service less the next one's lead time.

@@ -14,8 +14,11 @@ const KELWICK_MEASURES = [
 export async function seedPathways(tx: Pick<Database, 'insert' | 'select'>, planner: string) {
   const [kelwick] = await tx.select({ id: sites.id }).from(sites).where(eq(sites.name, 'Kelwick'))
   if (!kelwick) return
-  const measures = await tx.insert(adaptationMeasures).values(KELWICK_MEASURES.map(({ key: _key, ...m }) => ({
-    ...m, siteId: kelwick.id, kind: 'mean-sea-level' as const, createdBy: planner,
+  // Lists show measures in the order they were made; rows inserted in one statement share the
+  // transaction's clock, so each gets its own second to keep the list in the order written here.
+  const madeFrom = Date.now() - KELWICK_MEASURES.length * 1000
+  const measures = await tx.insert(adaptationMeasures).values(KELWICK_MEASURES.map(({ key: _key, ...m }, index) => ({
+    ...m, siteId: kelwick.id, kind: 'mean-sea-level' as const, createdBy: planner, createdAt: new Date(madeFrom + index * 1000),
   }))).returning({ id: adaptationMeasures.id })
   await tx.insert(adaptationPathways).values({
     siteId: kelwick.id, name: 'Quay district: hold the line, then retreat', measureIds: measures.map(m => m.id),

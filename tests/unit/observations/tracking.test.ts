@@ -21,12 +21,16 @@ describe('trackAgainstOutlook', () => {
     expect(within.epochFrom).toBe('record')
   })
 
-  it('refers to the datum offset when the epoch is before the record', () => {
+  it('refers to the datum offset when the epoch is before the record, and then names no side', () => {
     const late = record.filter(point => point.time > 2005)
     const lateFit = fitGaugeTrend(late, 'annual')
     const tracking = trackAgainstOutlook(lateFit, 2000, 1, [{ year: 2040, p17: 0.1, p83: 0.3 }])!
     expect(tracking.epochFrom).toBe('datum-offset')
     expect(tracking.observed).toBeCloseTo(0.118, 5)
+    // 0.118 m lies inside 0.1–0.3 scaled to 2029.5, but the offset's own uncertainty is not in the ±, so
+    // the comparison must not say "within" (nor above or below).
+    expect(tracking.status).toBe('epoch-unobserved')
+    expect(trackAgainstOutlook(lateFit, 2000, 1, [{ year: 2040, p17: 0.01, p83: 0.02 }])!.status).toBe('epoch-unobserved')
   })
 
   it('is too soon to tell within five years of the epoch, and silent past the outlook', () => {
