@@ -8,6 +8,8 @@ import type { GaugeResolution, GaugeTrendFit } from '../../shared/observations/g
 import type { BandsAtYear } from '../../shared/releases/summary'
 import type { ReleaseParameters } from '../../shared/releases/parameters'
 import type { BriefingDocument } from '../../shared/briefing/document'
+import type { Language } from '../../shared/wording/chance'
+import type { HeightUnit } from '../../shared/units'
 
 export const roleEnum = pgEnum('role', ROLES)
 export const organisationKindEnum = pgEnum('organisation_kind', ORGANISATION_KINDS)
@@ -362,8 +364,8 @@ export const briefings = pgTable('briefings', {
   title: text('title').notNull(),
   audience: text('audience').notNull().default(''),
   localContext: text('local_context').notNull().default(''),
-  language: text('language').notNull(),
-  units: text('units').notNull(),
+  language: text('language').$type<Language>().notNull(),
+  units: text('units').$type<HeightUnit>().notNull(),
   thresholdIds: jsonb('threshold_ids').$type<string[]>().notNull(),
   years: jsonb('years').$type<number[]>().notNull(),
   /** The frozen document (shared/briefing/document.ts), written when issued. */
