@@ -1,45 +1,15 @@
-import type { BriefingDocument } from '#shared/briefing/document'
 import { dateLocale } from '#shared/wording/dates'
-import type { StaleFigure } from '~/components/briefing/BriefingStaleNotice.vue'
+import type { ApiResponse } from '~/utils/apiResponse'
 
-/** A row of GET /api/briefings (dates arrive as strings). */
-export interface BriefingRow {
-  id: string
-  title: string
-  version: number
-  state: 'draft' | 'issued'
-  siteId: string
-  siteName: string
-  language: 'en' | 'es'
-  issuedAt: string | null
-  shared: boolean
-  previousId: string | null
-  updatedAt: string
-}
+/** A row of GET /api/briefings. */
+export type BriefingRow = ApiResponse<'/api/briefings'>[number]
 
-/** GET /api/briefings/[id]: the stored fields, who may change it, and the document to show. */
-export interface BriefingView extends Omit<BriefingRow, 'siteName'> {
-  audience: string
-  localContext: string
-  units: 'm' | 'ft'
-  thresholdIds: string[]
-  years: number[]
-  /** The first is the outlook the briefing is issued from; the rest are compared with it. */
-  outlookIds: string[]
-  canEdit: boolean
-  shareToken: string | null
-  /** The configured public address (APP_URL) that links are built on. */
-  appUrl: string
-  /** The live page the document points to: the share link (planners, once shared), else the page inside, which needs a sign-in. */
-  live: { url: string, signIn: boolean }
-  document: BriefingDocument
-  /** Issued briefings only: the figures newer outlooks have changed; null while it is current. */
-  staleness: { changes: StaleFigure[] } | null
-}
+/** GET /api/briefings/[id]: the stored fields, who may change it, the document to show and, once issued, what newer outlooks changed. */
+export type BriefingView = ApiResponse<'/api/briefings/:id'>
 
 /** One briefing, keyed by id so the toolbar's refresh() after an action re-reads only this one. */
 export function useBriefing(id: string) {
-  return useFetch<BriefingView>(`/api/briefings/${id}`, { key: `briefing-${id}` })
+  return useFetch(`/api/briefings/${id}`, { key: `briefing-${id}` })
 }
 
 /** The date of issue as the document writes it: in the briefing's language, as the PDF does. */

@@ -1,12 +1,7 @@
 import type { OutlookResult } from '#shared/engine'
+import type { ApiResponse } from '~/utils/apiResponse'
 
 interface OutlookSummary { id: string, siteId: string, scenario: string, state: string, samples: number, result: OutlookResult | null }
-interface SiteSummary {
-  id: string
-  name: string
-  thresholds: { id: string, label: string, height: number }[]
-  outlooks: { id: string, scenario: string, state: string, samples: number }[]
-}
 
 /**
  * The outlook a briefing is issued from and its site, as the issue form needs them. One
@@ -17,7 +12,7 @@ export async function useBriefingChoices(outlookId: string) {
   const requestFetch = useRequestFetch()
   const { data, error } = await useAsyncData(`briefing-choices-${outlookId}`, async () => {
     const outlook = await requestFetch<OutlookSummary>(`/api/outlooks/${outlookId}`)
-    const site = await requestFetch<SiteSummary>(`/api/sites/${outlook.siteId}`)
+    const site = await requestFetch<ApiResponse<'/api/sites/:id'>>(`/api/sites/${outlook.siteId}`)
     // Only what the form needs travels in the page payload, not the whole result.
     return { outlook: { id: outlook.id, siteId: outlook.siteId, scenario: outlook.scenario, state: outlook.state, years: outlook.result?.years ?? [] }, site }
   })

@@ -1,28 +1,8 @@
 import type { BandsAtYear } from '#shared/releases/summary'
-import type { ReviewState } from '#shared/types/science'
+import type { ApiResponse } from '~/utils/apiResponse'
 
-/** One row of GET /api/releases, as the client reads it (dates arrive as strings). */
-export interface ReleaseRow {
-  id: string
-  version: number
-  state: ReviewState
-  form: string
-  baselineYear: number
-  anchorYears: number[]
-  summary: BandsAtYear[]
-  citation: string
-  withdrawalReason: string | null
-  publishedAt: string | null
-  seriesId: string
-  component: string
-  scenario: string
-  title: string
-  organisationId: string
-  organisationName: string
-  illustrative: boolean
-  authorName: string
-  authorId: string
-}
+/** One row of GET /api/releases. */
+export type ReleaseRow = ApiResponse<'/api/releases'>[number]
 
 /** The year a library table summarises a release at: 2100 when it is an anchor, else the last anchor. */
 export const SUMMARY_YEAR = 2100

@@ -1,6 +1,7 @@
 import type { DatumKind, LandMotionSource, ThresholdKind } from '#shared/types/science'
 import { DEFAULT_PLANNING } from '#shared/schemas/sites'
 import { fromMetres, toMetres, type HeightUnit } from '#shared/units'
+import type { ApiResponse } from '~/utils/apiResponse'
 
 // The site form holds what the planner typed (heights in their chosen unit, blanks as ''); the API
 // takes metres and numbers. Blanks go to the API as null so its messages name the field to fill.
@@ -18,33 +19,8 @@ export interface SiteFormState {
   planning: { scenario: string, tolerance: number }
 }
 
-/** A site as GET /api/sites/[id] returns it (the parts the form reads). */
-export interface SiteRecord {
-  name: string
-  latitude: number
-  longitude: number
-  referenceLevel: string
-  datumKind: DatumKind
-  datumOffset: number
-  referenceEpoch: number
-  landMotionRate: number
-  landMotionSigma: number
-  landMotionSource: string
-  landMotionReference: string
-  landMotionEpoch: number
-  gumbelLocation: number | null
-  gumbelScale: number | null
-  gumbelSource: string | null
-  gumbelTrend: number | null
-  gumbelLocationSe: number | null
-  gumbelScaleSe: number | null
-  gumbelTrendSe: number | null
-  planningScenario: string
-  planningTolerance: number
-  thresholds: { label: string, height: number, kind: ThresholdKind, buildYear: number | null, designLifeYears: number | null }[]
-  /** The version the form was opened on, sent back as If-Match so a save never overwrites a newer one. */
-  updatedAt: string
-}
+/** A site as GET /api/sites/[id] returns it; its `updatedAt` goes back as If-Match, so a save never overwrites a newer version. */
+export type SiteRecord = ApiResponse<'/api/sites/:id'>
 
 const inUnit = (metres: number, unit: HeightUnit) => Math.round(fromMetres(metres, unit) * 1000) / 1000
 const num = (value: Typed) => (value === '' || value === null ? null : Number(value))

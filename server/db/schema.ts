@@ -5,6 +5,11 @@ import { AMOUNT_UNITS, DATUM_KINDS, LAND_MOTION_SOURCES, OUTLOOK_STATES, RELEASE
 import type { StoredOutlookNote } from '../../shared/types/outlook-notes'
 import type { GaugeRecord, GaugeValue } from '../../shared/observations/gauge-record'
 import type { GaugeResolution, GaugeTrendFit } from '../../shared/observations/gauge-trend'
+import type { BandsAtYear } from '../../shared/releases/summary'
+import type { ReleaseParameters } from '../../shared/releases/parameters'
+import type { BriefingDocument } from '../../shared/briefing/document'
+import type { Language } from '../../shared/wording/chance'
+import type { HeightUnit } from '../../shared/units'
 
 export const roleEnum = pgEnum('role', ROLES)
 export const organisationKindEnum = pgEnum('organisation_kind', ORGANISATION_KINDS)
@@ -96,8 +101,6 @@ export const series = pgTable('series', {
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 }, table => [unique('series_identity').on(table.organisationId, table.component, table.scenario, table.title)])
 
-export interface ReleaseSummaryAnchor { year: number, p5: number, p17: number, p50: number, p83: number, p95: number }
-
 export const releases = pgTable('releases', {
   id: uuid('id').primaryKey().defaultRandom(),
   seriesId: uuid('series_id').notNull().references(() => series.id),
@@ -105,10 +108,10 @@ export const releases = pgTable('releases', {
   baselineYear: integer('baseline_year').notNull(),
   anchorYears: jsonb('anchor_years').$type<number[]>().notNull(),
   /** Form parameters in metres (draws live in release_draws). */
-  parameters: jsonb('parameters').$type<Record<string, unknown>>().notNull(),
+  parameters: jsonb('parameters').$type<ReleaseParameters>().notNull(),
   enteredUnit: amountUnitEnum('entered_unit').notNull().default('m'),
   /** Median and ranges at the anchor years, computed by the engine when saved. */
-  summary: jsonb('summary').$type<ReleaseSummaryAnchor[]>().notNull(),
+  summary: jsonb('summary').$type<BandsAtYear[]>().notNull(),
   ...reviewed(),
 }, table => [
   unique('releases_series_version').on(table.seriesId, table.version),
@@ -361,12 +364,12 @@ export const briefings = pgTable('briefings', {
   title: text('title').notNull(),
   audience: text('audience').notNull().default(''),
   localContext: text('local_context').notNull().default(''),
-  language: text('language').notNull(),
-  units: text('units').notNull(),
+  language: text('language').$type<Language>().notNull(),
+  units: text('units').$type<HeightUnit>().notNull(),
   thresholdIds: jsonb('threshold_ids').$type<string[]>().notNull(),
   years: jsonb('years').$type<number[]>().notNull(),
   /** The frozen document (shared/briefing/document.ts), written when issued. */
-  document: jsonb('document').$type<Record<string, unknown>>(),
+  document: jsonb('document').$type<BriefingDocument>(),
   shareToken: text('share_token').unique(),
   createdBy: uuid('created_by').notNull().references(() => users.id),
   issuedBy: uuid('issued_by').references(() => users.id),

@@ -87,7 +87,7 @@ async function storylinesOfOutlook(outlook: { scenario: string, state: string, i
 
 /** The document as it reads now (drafts) or as it was frozen (issued). */
 export async function briefingDocument(row: Briefing, issuedAt: Date | null = row.issuedAt, issuedBy: string | null = row.issuedBy): Promise<BriefingDocument> {
-  if (row.document) return row.document as unknown as BriefingDocument
+  if (row.document) return row.document
   const db = await useDb()
   const [site] = await db.select({ site: sites, illustrative: organisations.illustrative, organisation: organisations.name }).from(sites)
     .innerJoin(organisations, eq(organisations.id, sites.organisationId)).where(eq(sites.id, row.siteId))
@@ -125,7 +125,7 @@ export async function issueBriefing(planner: CurrentUser, id: string) {
   const document = await briefingDocument(row, issuedAt, planner.id)
   const db = await useDb()
   return db.transaction(async (tx) => {
-    const [issued] = await tx.update(briefings).set({ state: 'issued', document: document as unknown as Record<string, unknown>, issuedAt, issuedBy: planner.id, updatedAt: issuedAt })
+    const [issued] = await tx.update(briefings).set({ state: 'issued', document, issuedAt, issuedBy: planner.id, updatedAt: issuedAt })
       .where(and(eq(briefings.id, id), eq(briefings.state, 'draft'))).returning()
     if (!issued) throw createError({ statusCode: 409, message: 'This briefing has just been issued by someone else.' })
     await writeAudit(tx, planner, 'briefing.issued', { type: 'briefing', id }, { version: row.version, site: row.siteId })

@@ -6,6 +6,7 @@ import { latestOutlooks, mailWhatChanged, type Cause, type Comparison } from './
 import { queueOutlook } from './outlooks'
 import { checkDecisionAlerts } from './pathways/alerts'
 import { siteWithThresholds } from './sites'
+import type { CurrentUser } from '../utils/auth'
 
 // When the science or a site changes, every site with an outlook it affects gets that outlook
 // computed again with the same samples and seed, and the people watching the site are told what
@@ -62,6 +63,16 @@ export async function startRecomputation(tx: Tx, options: RecomputationScope & {
     })))
   }
   return batch!.id
+}
+
+/** An operator's recomputation (after an engine upgrade, say), audited in the same transaction. */
+export async function requestRecomputation(operator: CurrentUser, options: { scenario: string | null, cause: Cause }) {
+  const db = await useDb()
+  return db.transaction(async (tx) => {
+    const batchId = await startRecomputation(tx, { ...options, requestedBy: operator.id })
+    await writeAudit(tx, operator, 'recomputation.started', { type: 'recomputation', id: batchId }, { scenario: options.scenario })
+    return batchId
+  })
 }
 
 export type JobOutcome = { state: 'done' } | { state: 'waiting', payload: Record<string, unknown>, retryInMs: number }

@@ -1,7 +1,7 @@
 import { and, desc, eq, inArray, max, or, type SQL } from 'drizzle-orm'
 import { alias, type AnyPgColumn } from 'drizzle-orm/pg-core'
 import { organisations, releaseDraws, releases, series, users } from '~~/server/db/schema'
-import type { ParsedRelease } from '#shared/engine'
+import { splitRelease } from '#shared/releases/parameters'
 import type { CreateReleaseInput, ReleaseContentInput } from '#shared/schemas/releases'
 import { judgeEdit } from '#shared/review/rules'
 import { PUBLIC_STATES, type ReviewState } from '#shared/types/science'
@@ -30,10 +30,8 @@ export function decodeDraws(values: Buffer, drawCount: number, anchorCount: numb
 /** A release as entered → the row's distribution columns, its bands and its draws (if any), worked off the request thread. */
 async function prepare(input: ReleaseContentInput) {
   const { release, bands: summary } = await releaseWork({ input, years: 'anchors' })
-  const { form, baselineYear, anchorYears, ...rest } = release as ParsedRelease & { draws?: number[][] }
-  const draws = 'draws' in rest ? rest.draws as number[][] : null
-  if (draws) delete (rest as { draws?: unknown }).draws
-  return { columns: { form, baselineYear, anchorYears, parameters: rest, enteredUnit: input.unit, summary }, draws }
+  const { parameters, draws } = splitRelease(release)
+  return { columns: { form: release.form, baselineYear: release.baselineYear, anchorYears: release.anchorYears, parameters, enteredUnit: input.unit, summary }, draws }
 }
 
 async function seriesFor(actor: CurrentUser, input: CreateReleaseInput) {

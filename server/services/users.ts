@@ -19,6 +19,13 @@ export async function organisationForPeople(admin: CurrentUser, organisationId: 
   return organisation
 }
 
+/** The organisations this administrator may create or invite people into (their own; every one for the operator). */
+export async function organisationsForPeople(admin: CurrentUser) {
+  const scope = administeredOrganisation(admin)
+  const db = await useDb()
+  return db.select().from(organisations).where(scope ? eq(organisations.id, scope) : undefined).orderBy(asc(organisations.name))
+}
+
 export async function listUsers(admin: CurrentUser) {
   const scope = administeredOrganisation(admin)
   const db = await useDb()
@@ -85,4 +92,10 @@ async function keepOneInCharge(tx: Tx, target: typeof users.$inferSelect, patch:
       ? 'This is the last active administrator of this organisation. Make another of its users an administrator first.'
       : 'This is the last active operator. Make another user an operator first.',
   })
+}
+
+/** A user's own preferences (language), remembered across devices. */
+export async function setOwnLocale(user: CurrentUser, locale: string) {
+  const db = await useDb()
+  await db.update(users).set({ locale, updatedAt: new Date() }).where(eq(users.id, user.id))
 }

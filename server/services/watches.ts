@@ -1,5 +1,5 @@
 import { createHash, randomBytes } from 'node:crypto'
-import { and, eq } from 'drizzle-orm'
+import { and, eq, ne } from 'drizzle-orm'
 import { briefings, sites, watches } from '~~/server/db/schema'
 import type { z } from 'zod'
 import type { WatchRequestSchema } from '#shared/schemas/watches'
@@ -31,6 +31,22 @@ async function siteFor(request: z.infer<typeof WatchRequestSchema>, user: Curren
   const [row] = await db.select({ id: sites.id, name: sites.name }).from(sites).where(and(eq(sites.id, request.siteId!), eq(sites.organisationId, user.organisationId)))
   if (!row) throw createError({ statusCode: 404, message: 'No such site.' })
   return { ...row, briefingId: null }
+}
+
+/** The signed-in user's own watches (by their e-mail address), stopped ones left out. */
+export async function listOwnWatches(user: CurrentUser) {
+  const db = await useDb()
+  return db.select({ id: watches.id, siteId: watches.siteId, siteName: sites.name, state: watches.state, language: watches.language, createdAt: watches.createdAt, confirmedAt: watches.confirmedAt })
+    .from(watches).innerJoin(sites, eq(sites.id, watches.siteId))
+    .where(and(eq(watches.email, user.email), ne(watches.state, 'unsubscribed')))
+}
+
+/** Stops one of the user's own watches; another's answers 404 like one that does not exist. */
+export async function stopOwnWatch(user: CurrentUser, id: string) {
+  const db = await useDb()
+  const [stopped] = await db.update(watches).set({ state: 'unsubscribed', unsubscribedAt: new Date(), confirmTokenHash: null })
+    .where(and(eq(watches.id, id), eq(watches.email, user.email))).returning({ id: watches.id })
+  if (!stopped) throw createError({ statusCode: 404, message: 'No such watch.' })
 }
 
 /**

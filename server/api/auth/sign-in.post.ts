@@ -1,6 +1,5 @@
-import { eq } from 'drizzle-orm'
-import { users } from '~~/server/db/schema'
 import { SignInSchema } from '#shared/schemas/users'
+import { accountForSignIn, recordSignIn, recordSignInFailure } from '~~/server/services/sign-in'
 
 // One answer for an unknown address and a wrong password, so neither can be told apart.
 const GENERIC_REFUSAL = 'That e-mail address and password do not match an account.'
@@ -37,13 +36,15 @@ export default defineEventHandler(async (event) => {
     throw error
   }
 
-  const db = await useDb()
-  const [row] = await db.select({ id: users.id, hash: users.passwordHash, disabled: users.disabled, organisationId: users.organisationId })
-    .from(users).where(eq(users.email, email))
+  const row = await accountForSignIn(email)
   // Verify against a stand-in hash when the address is unknown, so timing does not tell either.
   const valid = await verifyPassword(row?.hash ?? await standInHash(), password)
   if (!row || !valid) {
-    await recordFailure(db, { email, userId: row?.id ?? null, organisationId: row?.organisationId ?? null, client, forAddress, forClient })
+    await recordSignInFailure({
+      email, userId: row?.id ?? null, organisationId: row?.organisationId ?? null, client, failuresForAddress: forAddress,
+      lockedForMinutes: forAddress === ADDRESS_FAILURES ? WINDOW_MS / 60_000 : null,
+      slowedToSeconds: forClient === CLIENT_FAILURES ? slowSeconds() : null,
+    })
     throw createError({ statusCode: 401, message: GENERIC_REFUSAL })
   }
   // The right password is not a guess: neither limit keeps it.
@@ -56,20 +57,9 @@ export default defineEventHandler(async (event) => {
   await clearFailures(addressKey(email))
   const user = await startSession(event, row.id)
   if (!user) throw createError({ statusCode: 401, message: GENERIC_REFUSAL })
-  await writeAudit(db, user, 'session.signed-in', { type: 'user', id: user.id })
+  await recordSignIn(user)
   return { user }
 })
-
-interface Failure { email: string, userId: string | null, organisationId: string | null, client: string, forAddress: number, forClient: number | null }
-
-/** A failed sign-in leaves an audit line; the failure that locks an address or slows a client says so. */
-async function recordFailure(db: Awaited<ReturnType<typeof useDb>>, failure: Failure) {
-  const { email, userId, organisationId, client, forAddress, forClient } = failure
-  const target = { type: 'user', id: userId }
-  await writeAudit(db, null, 'session.sign-in-failed', target, { email, client, failuresForAddress: forAddress }, organisationId)
-  if (forAddress === ADDRESS_FAILURES) await writeAudit(db, null, 'session.locked-out', target, { email, client, scope: 'address', minutes: WINDOW_MS / 60_000 }, organisationId)
-  if (forClient === CLIENT_FAILURES) await writeAudit(db, null, 'session.locked-out', { type: 'client' }, { email, client, scope: 'client', slowedToSeconds: slowSeconds() }, organisationId)
-}
 
 let standIn: Promise<string> | undefined
 const standInHash = () => (standIn ??= hashPassword('not-a-real-password-for-timing'))

@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { briefingDocument, liveLink, loadBriefing } from '~~/server/services/briefings'
 import { briefingStaleness } from '~~/server/services/briefing-staleness'
 

@@ -1,5 +1,5 @@
 import { UpdateBriefingSchema } from '#shared/schemas/briefings'
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { updateBriefing } from '~~/server/services/briefings'
 
 // Drafts change; an issued briefing answers 409 (start a new version instead).

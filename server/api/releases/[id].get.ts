@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { getRelease } from '~~/server/services/releases'
 
 // Full distribution and provenance; drafts only within their organisation (404 elsewhere).

@@ -1,5 +1,5 @@
 import { UpdateReleaseSchema } from '#shared/schemas/releases'
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { updateRelease } from '~~/server/services/releases'
 
 // Edit a draft (only drafts change; a later state answers 409).

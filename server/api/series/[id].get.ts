@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { listReleases } from '~~/server/services/releases'
 
 // A series' history: every version this person may see, newest first, with its bands.

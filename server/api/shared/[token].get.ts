@@ -1,13 +1,11 @@
-import { z } from 'zod'
+import { ShareTokenParams } from '#shared/schemas/params'
 import { briefingDocument, sharedBriefing } from '~~/server/services/briefings'
 import { briefingStaleness } from '~~/server/services/briefing-staleness'
-
-const Params = z.object({ token: z.string().regex(/^[\w-]{20,64}$/) })
 
 // Public: an issued briefing by its share link, read-only, until the link is revoked, saying which of
 // its numbers newer outlooks have changed (the figures only: no outlook or threshold ids).
 export default defineEventHandler(async (event) => {
-  const { token } = readValidParams(event, Params)
+  const { token } = readValidParams(event, ShareTokenParams)
   const briefing = await sharedBriefing(token)
   // The address printed on the page is the configured one (APP_URL), never the request's Host header.
   const staleness = await briefingStaleness(briefing)

@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { listSiteOutlooks } from '~~/server/services/outlooks'
 import { openAlertCount } from '~~/server/services/pathways/store'
 import { loadSite } from '~~/server/services/sites'

@@ -1,5 +1,5 @@
 import { SiteSchema } from '#shared/schemas/sites'
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { updateSite } from '~~/server/services/sites'
 
 // Replaces the site's details and thresholds (the form always sends the whole site). The form sends

@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { getStoryline } from '~~/server/services/science-records'
 
 export default defineEventHandler(async (event) => {

@@ -1,6 +1,7 @@
 import type { ParsedRelease } from '../../../shared/engine'
 import { buildRelease } from '../../../shared/releases/content'
 import { releaseBands } from '../../../shared/releases/summary'
+import { splitRelease } from '../../../shared/releases/parameters'
 import type { ComponentKey } from '../../../shared/types/science'
 import type { Database } from '../client'
 import { correlationSets, releases, scaleFactorGrids, series, storylines } from '../schema'
@@ -56,8 +57,9 @@ interface SeedPeople { organisationId: string, authorId: string, reviewerId: str
 
 function prepare(form: ParsedRelease['form'], fields: Record<string, unknown>) {
   const release = buildRelease({ form, unit: 'm', baselineYear: BASELINE, anchorYears: ANCHORS, ...fields })
-  const { form: _f, baselineYear, anchorYears, ...parameters } = release
-  return { form, baselineYear, anchorYears, parameters, summary: releaseBands(release) }
+  // Every demo recipe has a parametric or quantile form, so there are no draws to store.
+  const { parameters } = splitRelease(release)
+  return { form, baselineYear: release.baselineYear, anchorYears: release.anchorYears, parameters, summary: releaseBands(release) }
 }
 
 /** Releases for every component under three scenarios; Greenland SSP2-4.5 has a superseded version 1. */

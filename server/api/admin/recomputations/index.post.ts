@@ -1,5 +1,5 @@
 import { RecomputationRequestSchema } from '#shared/schemas/recomputations'
-import { startRecomputation } from '~~/server/services/recompute'
+import { requestRecomputation } from '~~/server/services/recompute'
 import { scenarioCoverage } from '~~/server/services/site-list'
 
 // Recompute every site's latest outlooks for a scenario (or all scenarios): after an engine
@@ -14,12 +14,7 @@ export default defineEventHandler(async (event) => {
     en: `An administrator asked for the outlooks${scenario ? ` for ${scenario}` : ''} to be recomputed.`,
     es: `Una persona administradora pidió recalcular las perspectivas${scenario ? ` de ${scenario}` : ''}.`,
   }
-  const db = await useDb()
-  const id = await db.transaction(async (tx) => {
-    const batchId = await startRecomputation(tx, { scenario, cause, requestedBy: admin.id })
-    await writeAudit(tx, admin, 'recomputation.started', { type: 'recomputation', id: batchId }, { scenario })
-    return batchId
-  })
+  const id = await requestRecomputation(admin, { scenario, cause })
   kickJobs()
   setResponseStatus(event, 202)
   return { id }

@@ -1,5 +1,6 @@
 import { updateUser } from '~~/server/services/users'
-import { IdParams, UpdateUserSchema } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
+import { UpdateUserSchema } from '#shared/schemas/users'
 
 // Change a user's role, name or whether they may sign in; the last admin cannot be locked out.
 export default defineEventHandler(async (event) => {

@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { issueBriefing } from '~~/server/services/briefings'
 
 // Freezes the document as it reads now, with today's date; from here on it never changes.

@@ -1,5 +1,6 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { briefingDocument, liveLink, loadBriefing } from '~~/server/services/briefings'
+import { sendBriefingPdf } from '~~/server/services/briefing-download'
 
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)

@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { setSharing } from '~~/server/services/briefings'
 
 // Revokes the public link at once: it answers 404 from now on.

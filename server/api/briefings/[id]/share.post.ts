@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { setSharing } from '~~/server/services/briefings'
 
 // A public, unguessable, revocable link to an issued briefing.

@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { NewVersionSchema } from '#shared/schemas/briefings'
 import { newBriefingVersion } from '~~/server/services/briefings'
 

@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { adoptionView } from '~~/server/services/adoptions'
 
 // The science an organisation adopted for its outlooks, per scenario, with what else is published

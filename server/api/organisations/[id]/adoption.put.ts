@@ -1,5 +1,5 @@
 import { AdoptionSchema } from '#shared/schemas/adoptions'
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { adopt } from '~~/server/services/adoptions'
 
 // Adopts, for one scenario, series of releases per component and whose correlation sets the

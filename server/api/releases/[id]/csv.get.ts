@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { releaseCsv } from '#shared/releases/export'
 import { getRelease } from '~~/server/services/releases'
 

@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { releaseReach } from '~~/server/services/publication-reach'
 
 // How many sites approving this release would compute again and how many watchers it may mail,

@@ -1,1 +1,3 @@
+import { defineReviewAction } from '~~/server/services/review-action'
+
 export default defineReviewAction('release', 'return')

@@ -1,10 +1,9 @@
-import { z } from 'zod'
+import { ShareTokenParams } from '#shared/schemas/params'
 import { briefingDocument, liveLink, sharedBriefing } from '~~/server/services/briefings'
-
-const Params = z.object({ token: z.string().regex(/^[\w-]{20,64}$/) })
+import { sendBriefingPdf } from '~~/server/services/briefing-download'
 
 export default defineEventHandler(async (event) => {
-  const { token } = readValidParams(event, Params)
+  const { token } = readValidParams(event, ShareTokenParams)
   const briefing = await sharedBriefing(token)
   return sendBriefingPdf(event, await briefingDocument(briefing), liveLink(briefing, null))
 })

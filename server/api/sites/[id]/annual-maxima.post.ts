@@ -1,5 +1,5 @@
 import { AnnualMaximaSchema } from '#shared/schemas/sites'
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { replaceAnnualMaxima } from '~~/server/services/sites'
 
 // Annual maximum water levels (CSV year,value) → a Gumbel fit whose location moves in time, stored on the site.

@@ -1,5 +1,5 @@
 import { DecisionRecordSchema } from '#shared/pathways/schemas'
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { createRecord } from '~~/server/services/pathways/records'
 
 // Records a council's decision (or a review of an earlier one). Records are never changed.

@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { readGaugeRecord } from '~~/server/services/gauge-records'
 
 // The site's latest tide-gauge record with its fit, earlier versions, and tracking against each scenario's latest outlook.

@@ -1,5 +1,5 @@
 import { GaugeRecordSchema } from '#shared/schemas/sites'
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { uploadGaugeRecord } from '~~/server/services/gauge-records'
 
 // A new version of the site's tide-gauge record (CSV year[,month],height[,flag]), fitted on upload.

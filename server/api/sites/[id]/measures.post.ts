@@ -1,5 +1,5 @@
 import { MeasureSchema } from '#shared/pathways/schemas'
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { createMeasure } from '~~/server/services/pathways/measures'
 
 export default defineEventHandler(async (event) => {

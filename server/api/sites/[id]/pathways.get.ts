@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { pathwaysView } from '~~/server/services/pathways/view'
 
 // A site's adaptation measures, pathways with their tipping and decision years per scenario, the

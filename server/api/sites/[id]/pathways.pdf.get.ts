@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { pathwaysPdfDefinition } from '~~/server/services/pathways/pdf'
 import { pathwaysView } from '~~/server/services/pathways/view'
 

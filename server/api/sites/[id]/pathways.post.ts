@@ -1,5 +1,5 @@
 import { PathwaySchema } from '#shared/pathways/schemas'
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { createPathway } from '~~/server/services/pathways/pathways'
 
 export default defineEventHandler(async (event) => {

@@ -1,7 +1,7 @@
 import type { H3Event } from 'h3'
 import { z } from 'zod'
 import type { BriefingDocument } from '#shared/briefing/document'
-import { briefingPdfDefinition } from '../services/briefing-pdf'
+import { briefingPdfDefinition } from './briefing-pdf'
 
 const Query = z.object({ paper: z.enum(['a4', 'letter'], { error: 'paper must be a4 or letter.' }).default('a4') })
 
