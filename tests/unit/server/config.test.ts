@@ -47,7 +47,7 @@ describe('the server\'s environment (server/utils/config.ts)', () => {
   it.each([
     ['MAIL_POLL_MS', 'soon', 'MAIL_POLL_MS is "soon": give a whole number of milliseconds, such as 2000.'],
     ['JOB_LEASE_MS', '0', 'JOB_LEASE_MS is "0": give a whole number of milliseconds from 1 up, such as 60000.'],
-    ['PORT', '70000', 'PORT is "70000": give a whole number of a port from 1 to 65535, such as 3000.'],
+    ['PORT', '70000', 'PORT is "70000": give a whole number for a port from 1 to 65535, such as 3000.'],
     ['OUTLOOK_WORKERS', '2.5', 'OUTLOOK_WORKERS is "2.5": give a whole number of threads, such as 4.'],
     ['WATCH_CONFIRM_HOURS', '-1', 'WATCH_CONFIRM_HOURS is "-1": give a number of hours, 0 or more, such as 48.'],
     ['TRUST_PROXY', 'yes', 'TRUST_PROXY is "yes": give true or false.'],
