@@ -4,6 +4,7 @@ import { migrate as migratePglite } from 'drizzle-orm/pglite/migrator'
 import { drizzle as drizzleNodePg } from 'drizzle-orm/node-postgres'
 import { migrate as migrateNodePg } from 'drizzle-orm/node-postgres/migrator'
 import pg from 'pg'
+import { DEFAULT_PGLITE_SHARED_BUFFERS, PGLITE_MEMORY_HINT, PGLITE_MEMORY_SETTING, serverConfig, type ServerConfig } from '../utils/config'
 import { claimDataDir } from './data-dir-lock'
 import { LeanPGlite } from './pglite-client'
 import * as schema from './schema'
@@ -56,12 +57,11 @@ export async function openDatabase(options: DatabaseOptions): Promise<DatabaseHa
  * resident memory more than 32 MB does. An app's working set (sites, releases, the latest outlooks) fits
  * in 32 MB, and a page that misses is read from the operating system's file cache.
  */
-export const DEFAULT_PGLITE_SHARED_BUFFERS = '32MB'
-const MEMORY_SETTING = /^[1-9]\d{0,6}(?:kB|MB|GB)$/
+export { DEFAULT_PGLITE_SHARED_BUFFERS }
 
 async function openPglite(dataDir: string, sharedBuffers = DEFAULT_PGLITE_SHARED_BUFFERS): Promise<DatabaseHandle> {
-  if (!MEMORY_SETTING.test(sharedBuffers)) {
-    throw new Error(`PGLITE_SHARED_BUFFERS is "${sharedBuffers}": give a whole number with kB, MB or GB, such as 32MB.`)
+  if (!PGLITE_MEMORY_SETTING.test(sharedBuffers)) {
+    throw new Error(`PGLITE_SHARED_BUFFERS is "${sharedBuffers}": ${PGLITE_MEMORY_HINT}`)
   }
   const inMemory = dataDir === 'memory://'
   const release = inMemory ? async () => {} : await claimDataDir(dataDir)
@@ -139,13 +139,14 @@ export function describeUrl(url: string) {
   }
 }
 
-export const DEFAULT_DATA_DIR = '.data/pglite'
+type DatabaseSettings = Pick<ServerConfig, 'DATABASE_URL' | 'PGLITE_DATA_DIR' | 'DATABASE_POOL_SIZE' | 'PGLITE_SHARED_BUFFERS'>
 
-export function databaseOptionsFromEnv(env: NodeJS.ProcessEnv = process.env): DatabaseOptions {
+/** The database the settings name (server/utils/config.ts): the app and the db:* commands alike. */
+export function databaseOptions(config: DatabaseSettings = serverConfig()): DatabaseOptions {
   return {
-    url: env.DATABASE_URL || undefined,
-    dataDir: env.PGLITE_DATA_DIR || DEFAULT_DATA_DIR,
-    poolSize: Number(env.DATABASE_POOL_SIZE) || undefined,
-    sharedBuffers: env.PGLITE_SHARED_BUFFERS || undefined,
+    url: config.DATABASE_URL,
+    dataDir: config.PGLITE_DATA_DIR,
+    poolSize: config.DATABASE_POOL_SIZE,
+    sharedBuffers: config.PGLITE_SHARED_BUFFERS,
   }
 }

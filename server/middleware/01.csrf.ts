@@ -29,6 +29,6 @@ export default defineEventHandler((event) => {
   }
   const origin = getRequestHeader(event, 'origin')
   if (origin === undefined) return
-  const own = [new URL(appUrl()).origin, getRequestURL(event, { xForwardedHost: process.env.TRUST_PROXY === 'true', xForwardedProto: process.env.TRUST_PROXY === 'true' }).origin]
+  const own = [new URL(appUrl()).origin, getRequestURL(event, { xForwardedHost: serverConfig().TRUST_PROXY, xForwardedProto: serverConfig().TRUST_PROXY }).origin]
   if (!own.includes(origin)) throw refuse()
 })

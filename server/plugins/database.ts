@@ -1,12 +1,12 @@
 // Open, migrate and (on an empty database) seed at start, so the first request does not wait.
-import { databaseOptionsFromEnv } from '~~/server/db/client'
+import { databaseOptions } from '~~/server/db/client'
 import { dataDirProblemSync } from '~~/server/db/data-dir-lock'
 
 export default defineNitroPlugin((nitroApp) => {
   // A PGlite folder this process cannot have will not get better by waiting: say why and exit
   // non-zero before listening, rather than answer every request with an error. (A PostgreSQL
   // server that is away may come back, so that case keeps running and reports "down".)
-  const options = databaseOptionsFromEnv()
+  const options = databaseOptions()
   if (!options.url && options.dataDir !== 'memory://') {
     const problem = dataDirProblemSync(options.dataDir)
     if (problem) {

@@ -10,7 +10,7 @@ import { loadSite } from '~~/server/services/sites'
 const DEMO_SCENARIOS = ['SSP2-4.5', 'SSP5-8.5']
 
 export default defineNitroPlugin(() => {
-  if (process.env.SEED_DEMO === 'false' || process.env.PRECOMPUTE_DEMO_OUTLOOKS === 'false') return
+  if (!serverConfig().SEED_DEMO || !serverConfig().PRECOMPUTE_DEMO_OUTLOOKS) return
   precompute().catch(error => console.error('[brinkwater] Demo outlooks were not precomputed:', error instanceof Error ? error.message : error))
 })
 

@@ -5,8 +5,7 @@ import { kickBackgroundWork } from '../services/background'
 // queued by other instances and for jobs waiting on outlooks.
 export default defineNitroPlugin((nitroApp) => {
   setJobRunner(kickBackgroundWork)
-  const every = Number(process.env.JOBS_POLL_MS) || 1_000
-  const timer = setInterval(kickBackgroundWork, every)
+  const timer = setInterval(kickBackgroundWork, serverConfig().JOBS_POLL_MS)
   timer.unref()
   kickBackgroundWork()
   nitroApp.hooks.hook('close', () => clearInterval(timer))

@@ -1,7 +1,6 @@
 // Sends the outbox: at start, whenever mail is queued, and on a timer for retries.
 export default defineNitroPlugin((nitroApp) => {
-  const every = Number(process.env.MAIL_POLL_MS) || 2_000
-  const timer = setInterval(kickMail, every)
+  const timer = setInterval(kickMail, serverConfig().MAIL_POLL_MS)
   timer.unref()
   kickMail()
   nitroApp.hooks.hook('close', () => clearInterval(timer))

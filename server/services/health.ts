@@ -84,7 +84,7 @@ async function probeMail(): Promise<MailHealth> {
     .where(and(eq(mailOutbox.state, 'queued'), gt(mailOutbox.attempts, 0)))
     .orderBy(sql`${mailOutbox.nextAttemptAt} desc`).limit(1)
   return {
-    transport: process.env.SMTP_URL ? 'smtp' : 'stand-in',
+    transport: serverConfig().SMTP_URL ? 'smtp' : 'stand-in',
     queued: counts?.queued ?? 0,
     failing: counts?.failing ?? 0,
     failed: counts?.failed ?? 0,
@@ -113,7 +113,7 @@ export async function checkHealth(): Promise<Health> {
     database = await withTimeout(probeDatabase(handle), PROBE_TIMEOUT_MS, 'The database')
   }
   catch {
-    return { status: 'down', database: { ok: false, kind: process.env.DATABASE_URL ? 'postgresql' : 'pglite', latencyMs: null, migrations: null }, mail: null, work: null }
+    return { status: 'down', database: { ok: false, kind: serverConfig().DATABASE_URL ? 'postgresql' : 'pglite', latencyMs: null, migrations: null }, mail: null, work: null }
   }
   const [mail, work] = await Promise.all([
     withTimeout(probeMail(), PROBE_TIMEOUT_MS, 'The mail outbox').catch(() => null),

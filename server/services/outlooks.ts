@@ -198,7 +198,7 @@ export async function listSiteOutlooks(siteId: string) {
 }
 
 /** How many outlooks people of one organisation may have waiting or computing at once (OUTLOOK_QUEUE_PER_ORGANISATION). */
-export const outlookQueueQuota = () => Number(process.env.OUTLOOK_QUEUE_PER_ORGANISATION) || 6
+export const outlookQueueQuota = () => serverConfig().OUTLOOK_QUEUE_PER_ORGANISATION
 
 type Tx = Parameters<Parameters<Awaited<ReturnType<typeof useDb>>['transaction']>[0]>[0]
 

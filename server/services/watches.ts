@@ -8,7 +8,7 @@ import { shareWatchEndedMail, watchConfirmMail } from '../mail/templates'
 import type { Database } from '../db/client'
 
 /** How long a confirmation link works (WATCH_CONFIRM_HOURS overrides, e.g. 0 in tests of expiry). */
-const confirmHours = () => process.env.WATCH_CONFIRM_HOURS !== undefined ? Number(process.env.WATCH_CONFIRM_HOURS) : 48
+const confirmHours = () => serverConfig().WATCH_CONFIRM_HOURS
 export const hashToken = (token: string) => createHash('sha256').update(token).digest('hex')
 const newToken = () => randomBytes(24).toString('base64url')
 

@@ -1,4 +1,4 @@
-import { databaseOptionsFromEnv, openDatabase, type DatabaseHandle } from '../db/client'
+import { databaseOptions, openDatabase, type DatabaseHandle } from '../db/client'
 import { isEmpty, seedDemo } from '../db/seed/demo'
 
 let ready: Promise<DatabaseHandle> | undefined
@@ -15,13 +15,13 @@ export async function useDbHandle() {
 }
 
 async function start() {
-  const handle = await openDatabase(databaseOptionsFromEnv())
+  const handle = await openDatabase(databaseOptions())
   try {
     const migrations = await materialiseAssets('migrations')
     // Instances starting side by side on one server take turns, so only the first seeds.
     await handle.exclusive(async () => {
       await handle.migrate(migrations)
-      if (process.env.SEED_DEMO !== 'false' && await isEmpty(handle.db)) {
+      if (serverConfig().SEED_DEMO && await isEmpty(handle.db)) {
         await seedDemo(handle.db, hashPassword)
         console.info('[brinkwater] Empty database: seeded the illustrative demo coast.')
       }

@@ -5,5 +5,5 @@
 export type FaultPoint = 'outlook-write' | 'release-publish'
 
 export function faultPoint(point: FaultPoint) {
-  if (process.env.BRINKWATER_FAULT === point) process.kill(process.pid, 'SIGKILL')
+  if (serverConfig().BRINKWATER_FAULT === point) process.kill(process.pid, 'SIGKILL')
 }

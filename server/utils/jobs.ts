@@ -7,7 +7,7 @@ import type { Database } from '../db/client'
 export const INSTANCE_ID = `${hostname()}:${process.pid}:${randomUUID().slice(0, 8)}`
 
 /** How long a claimed job or outlook stays claimed without a heartbeat (JOB_LEASE_MS). */
-export const jobLeaseMs = () => Number(process.env.JOB_LEASE_MS) || 60_000
+export const jobLeaseMs = () => serverConfig().JOB_LEASE_MS
 
 export type JobKind = 'science-change' | 'recompute-site' | 'briefing-issued' | 'password-reset'
 

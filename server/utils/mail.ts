@@ -14,10 +14,10 @@ export const MAX_MAIL_ATTEMPTS = 12
 const BATCH = 20
 const LEASE_MS = 60_000
 
-const retryBaseMs = () => Number(process.env.MAIL_RETRY_BASE_MS) || 5_000
-export const mailFrom = () => process.env.MAIL_FROM || 'Brinkwater <no-reply@brinkwater.invalid>'
+const retryBaseMs = () => serverConfig().MAIL_RETRY_BASE_MS
+export const mailFrom = () => serverConfig().MAIL_FROM
 /** Where links in e-mails point. */
-export const appUrl = () => (process.env.APP_URL || `http://localhost:${process.env.PORT || 3000}`).replace(/\/$/, '')
+export const appUrl = () => serverConfig().APP_URL
 
 /** Queue a message; pass the transaction of the change that causes it. A repeated dedupeKey is ignored. */
 export async function queueMail(executor: Pick<Database, 'insert'>, mail: OutgoingMail) {
@@ -29,8 +29,9 @@ let transport: Promise<{ transporter: Transporter, describe: string }> | undefin
 
 export function mailTransport() {
   transport ??= (async () => {
-    if (process.env.SMTP_URL) return { transporter: nodemailer.createTransport(process.env.SMTP_URL), describe: 'SMTP server (SMTP_URL)' }
-    const standIn = await startStandInSmtp(await useDb(), Number(process.env.SMTP_STANDIN_PORT) || 0)
+    const { SMTP_URL, SMTP_STANDIN_PORT } = serverConfig()
+    if (SMTP_URL) return { transporter: nodemailer.createTransport(SMTP_URL), describe: 'SMTP server (SMTP_URL)' }
+    const standIn = await startStandInSmtp(await useDb(), SMTP_STANDIN_PORT)
     console.info(`[brinkwater] No SMTP_URL: mail goes to the local stand-in on 127.0.0.1:${standIn.port} (read it on the admin mailbox page).`)
     return { transporter: nodemailer.createTransport({ host: '127.0.0.1', port: standIn.port, secure: false, ignoreTLS: true }), describe: `local stand-in on port ${standIn.port}` }
   })()

@@ -1,4 +1,3 @@
-import { availableParallelism } from 'node:os'
 import { dirname, join } from 'node:path'
 import { Worker } from 'node:worker_threads'
 import { finishOutlook, mergePartials, planOutlook, type OutlookPartial, type OutlookPlan, type OutlookResult } from '#shared/engine'
@@ -128,6 +127,6 @@ let pool: OutlookPool | undefined
 /** Plans on this thread (validation errors surface here), samples on the pool. */
 export function runOutlookOffThread(input: unknown, onProgress?: (fraction: number) => void): Promise<OutlookResult> {
   const plan = planOutlook(input)
-  pool ??= new OutlookPool(Number(process.env.OUTLOOK_WORKERS) || Math.max(1, Math.min(4, availableParallelism())))
+  pool ??= new OutlookPool(serverConfig().OUTLOOK_WORKERS)
   return pool.run(plan, onProgress)
 }

@@ -108,5 +108,5 @@ export async function clearFailures(key: string) {
 }
 
 export function clientKey(event: H3Event) {
-  return getRequestIP(event, { xForwardedFor: process.env.TRUST_PROXY === 'true' }) ?? 'unknown'
+  return getRequestIP(event, { xForwardedFor: serverConfig().TRUST_PROXY }) ?? 'unknown'
 }

@@ -8,7 +8,6 @@ import type { ReleaseWork } from '../workers/release-worker'
 // one analyst's large release must not freeze every other request. At most MAX_RUNNING run at once and
 // the rest wait their turn; past the budget, or with too many waiting, the answer is 503 saying what to do.
 
-export const RELEASE_WORK_MS = Number(process.env.RELEASE_WORK_MS) || 20_000
 const busy = (message: string) => createError({ statusCode: 503, message })
 
 const MAX_RUNNING = 4
@@ -62,7 +61,8 @@ async function runReleaseWorker(work: ReleaseWork): Promise<Reply> {
   const worker = new Worker(workerScript(), { workerData: work })
   try {
     const reply = await new Promise<Reply>((resolve, reject) => {
-      const timer = setTimeout(() => reject(busy(`Checking this release took longer than ${RELEASE_WORK_MS / 1000} s, so it was stopped. Send fewer draws or anchor years, or try again when the server is less busy.`)), RELEASE_WORK_MS)
+      const budgetMs = serverConfig().RELEASE_WORK_MS
+      const timer = setTimeout(() => reject(busy(`Checking this release took longer than ${budgetMs / 1000} s, so it was stopped. Send fewer draws or anchor years, or try again when the server is less busy.`)), budgetMs)
       worker.once('message', (message: Reply) => { clearTimeout(timer); resolve(message) })
       worker.once('error', (error) => { clearTimeout(timer); reject(error) })
     })

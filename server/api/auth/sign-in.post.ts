@@ -13,7 +13,7 @@ const WINDOW_MS = 15 * 60_000
 const ADDRESS_FAILURES = 10
 const CLIENT_FAILURES = 50
 /** Seconds between attempts from a slowed client (SIGN_IN_SLOW_SECONDS overrides). */
-const slowSeconds = () => Number(process.env.SIGN_IN_SLOW_SECONDS ?? 5)
+const slowSeconds = () => serverConfig().SIGN_IN_SLOW_SECONDS
 const addressKey = (email: string) => `sign-in:address:${email}`
 const clientFailureKey = (client: string) => `sign-in:client:${client}`
 const clientSlowKey = (client: string) => `sign-in:slow:${client}`

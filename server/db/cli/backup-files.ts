@@ -1,8 +1,9 @@
 import { mkdir } from 'node:fs/promises'
 import { resolve } from 'node:path'
+import { serverConfig } from '../../utils/config'
 
 /** Backups land here (gitignored) unless --out names a file. */
-export const BACKUP_FOLDER = resolve(process.env.BACKUP_DIR || 'backups')
+export const backupFolder = () => resolve(serverConfig().BACKUP_DIR)
 
 /** 2026-12-02T00-35-12Z: sorts by time and is safe in every file system. */
 export function timestamp(date = new Date()) {
@@ -10,8 +11,8 @@ export function timestamp(date = new Date()) {
 }
 
 export async function backupPath(kind: 'pglite' | 'postgresql', prefix = 'brinkwater') {
-  await mkdir(BACKUP_FOLDER, { recursive: true })
-  return resolve(BACKUP_FOLDER, `${prefix}-${timestamp()}.${kind === 'pglite' ? 'tar.gz' : 'dump'}`)
+  await mkdir(backupFolder(), { recursive: true })
+  return resolve(backupFolder(), `${prefix}-${timestamp()}.${kind === 'pglite' ? 'tar.gz' : 'dump'}`)
 }
 
 export interface CliArgs { positional: string[], force: boolean, out?: string }

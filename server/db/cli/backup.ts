@@ -5,7 +5,7 @@ import { existsSync } from 'node:fs'
 import { readdir, stat, writeFile } from 'node:fs/promises'
 import { fileURLToPath } from 'node:url'
 import { PGlite } from '@electric-sql/pglite'
-import { databaseOptionsFromEnv, describeUrl } from '../client'
+import { databaseOptions, describeUrl } from '../client'
 import { claimDataDir, dataDirHolder } from '../data-dir-lock'
 import { backupPath, parseArgs, runCli } from './backup-files'
 import { runPgTool } from './pg-tools'
@@ -45,7 +45,7 @@ export async function backupServer(url: string, out?: string) {
 
 async function main() {
   const args = parseArgs()
-  const options = databaseOptionsFromEnv()
+  const options = databaseOptions()
   const file = options.url ? await backupServer(options.url, args.out) : await backupPglite(options.dataDir, args.out)
   const size = (await stat(file)).size
   console.log(`Backed up ${options.url ? `PostgreSQL (${describeUrl(options.url)})` : `PGlite (${options.dataDir})`} to ${file} (${(size / 1e6).toFixed(1)} MB).`)

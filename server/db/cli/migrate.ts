@@ -1,11 +1,11 @@
 // `npm run db:migrate`: applies the committed migrations to the configured database.
 import { fileURLToPath } from 'node:url'
-import { databaseOptionsFromEnv, openDatabase } from '../client'
+import { databaseOptions, openDatabase } from '../client'
 
 export const MIGRATIONS_FOLDER = fileURLToPath(new URL('../migrations', import.meta.url))
 
 async function main() {
-  const handle = await openDatabase(databaseOptionsFromEnv())
+  const handle = await openDatabase(databaseOptions())
   try {
     await handle.migrate(MIGRATIONS_FOLDER)
     console.log(`Migrations applied to ${handle.describe}.`)

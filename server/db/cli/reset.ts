@@ -3,7 +3,7 @@
 // with --force, since a server database may hold work that is not demo data.
 import { rm } from 'node:fs/promises'
 import { sql } from 'drizzle-orm'
-import { databaseOptionsFromEnv, describeUrl, openDatabase } from '../client'
+import { databaseOptions, describeUrl, openDatabase } from '../client'
 import { dataDirHolder } from '../data-dir-lock'
 import { hashPasswordOffline } from '../password'
 import { seedDemo } from '../seed/demo'
@@ -12,7 +12,7 @@ import { MIGRATIONS_FOLDER } from './migrate'
 
 async function main() {
   const args = parseArgs()
-  const options = databaseOptionsFromEnv()
+  const options = databaseOptions()
   if (options.url && !args.force) {
     throw new Error(`db:reset deletes every table in ${describeUrl(options.url)}. Back it up first (npm run db:backup) if it matters, then run: npm run db:reset -- --force`)
   }

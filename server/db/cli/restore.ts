@@ -6,9 +6,9 @@ import { open, readdir, readFile, rename, rm } from 'node:fs/promises'
 import { fileURLToPath } from 'node:url'
 import { PGlite } from '@electric-sql/pglite'
 import pg from 'pg'
-import { APPLICATION_NAME, databaseOptionsFromEnv, describeUrl } from '../client'
+import { APPLICATION_NAME, databaseOptions, describeUrl } from '../client'
 import { claimDataDir, dataDirHolder } from '../data-dir-lock'
-import { BACKUP_FOLDER, backupPath, parseArgs, runCli, timestamp } from './backup-files'
+import { backupFolder, backupPath, parseArgs, runCli, timestamp } from './backup-files'
 import { backupServer } from './backup'
 import { runPgTool } from './pg-tools'
 
@@ -82,7 +82,7 @@ export async function restoreServer(file: string, url: string, force: boolean) {
     throw new Error(`The app is connected to ${where} (${state.appConnections} connections). Stop every app instance first, then run the restore again (--force restores anyway).`)
   }
   if (state.tables > 0 && !force) {
-    throw new Error(`${where} already holds data. Restoring replaces it: stop the app, then run the restore again with --force (the current data is dumped into ${BACKUP_FOLDER} first).`)
+    throw new Error(`${where} already holds data. Restoring replaces it: stop the app, then run the restore again with --force (the current data is dumped into ${backupFolder()} first).`)
   }
   const keptAs = state.tables > 0 ? await backupServer(url, await backupPath('postgresql', 'brinkwater-before-restore')) : undefined
   // One transaction: a failed restore leaves the database as it was.
@@ -95,7 +95,7 @@ async function main() {
   const file = args.positional[0]
   if (!file || args.positional.length > 1) throw new Error(USAGE)
   if (!existsSync(file)) throw new Error(`${file} does not exist. ${USAGE}`)
-  const options = databaseOptionsFromEnv()
+  const options = databaseOptions()
   const keptAs = options.url
     ? await restoreServer(file, options.url, args.force)
     : await restorePglite(file, options.dataDir, args.force)

@@ -1,11 +1,12 @@
 import { sql } from 'drizzle-orm'
 import { describe, expect, it } from 'vitest'
-import { DEFAULT_PGLITE_SHARED_BUFFERS, databaseOptionsFromEnv, openDatabase } from '../../../server/db/client'
+import { DEFAULT_PGLITE_SHARED_BUFFERS, databaseOptions, openDatabase } from '../../../server/db/client'
+import { parseConfig } from '../../../server/utils/config'
 
 describe('the embedded database\'s buffer pool (PGLITE_SHARED_BUFFERS)', () => {
-  it('is read from the environment, and left to the default when unset', () => {
-    expect(databaseOptionsFromEnv({ PGLITE_SHARED_BUFFERS: '48MB' }).sharedBuffers).toBe('48MB')
-    expect(databaseOptionsFromEnv({}).sharedBuffers).toBeUndefined()
+  it('is read from the environment, and 32MB when unset', () => {
+    expect(databaseOptions(parseConfig({ PGLITE_SHARED_BUFFERS: '48MB' })).sharedBuffers).toBe('48MB')
+    expect(databaseOptions(parseConfig({})).sharedBuffers).toBe('32MB')
     expect(DEFAULT_PGLITE_SHARED_BUFFERS).toBe('32MB')
   })
 
