@@ -9,7 +9,7 @@ const COLUMNS = [{ key: 'name', header: 'Harbour', rowHeader: true }, { key: 'be
 
 function mountTable(props: Partial<{ rows: Harbour[], empty: string, captionVisible: boolean }> = {}, slots = {}) {
   return mountSuspended(AppDataTable, {
-    props: { caption: 'Harbours of Caldwyn', columns: COLUMNS, rows: HARBOURS, rowKey: (row: Harbour) => row.id, testid: 'harbours', rowAttrs: (row: Harbour) => ({ 'data-testid': `harbour-${row.name}` }), ...props },
+    props: { caption: 'Harbours of Caldwyn', columns: COLUMNS, rows: HARBOURS, rowKey: (row: unknown) => (row as Harbour).id, testid: 'harbours', rowAttrs: (row: unknown) => ({ 'data-testid': `harbour-${(row as Harbour).name}` }), ...props },
     slots,
   })
 }
