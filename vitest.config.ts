@@ -1,5 +1,6 @@
 import { fileURLToPath } from 'node:url'
 import { defineConfig } from 'vitest/config'
+import { defineVitestProject } from '@nuxt/test-utils/config'
 
 // Client code imports shared code through Nuxt's #shared alias; unit tests that load it need the same.
 const shared = { '#shared': fileURLToPath(new URL('./shared', import.meta.url)) }
@@ -17,6 +18,18 @@ export default defineConfig({
         },
         resolve: { alias: shared },
       },
+      // Components and composables mounted in a Nuxt app on happy-dom (auto-imports, i18n, the real
+      // components), without a server: `npx vitest run --project components`.
+      await defineVitestProject({
+        test: {
+          name: 'components',
+          include: ['tests/components/**/*.test.ts'],
+          environment: 'nuxt',
+          // Each file starts a Nuxt app first, which takes seconds on a loaded two-core machine.
+          hookTimeout: 60_000,
+          testTimeout: 30_000,
+        },
+      }),
       {
         test: {
           name: 'api',

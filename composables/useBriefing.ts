@@ -1,4 +1,3 @@
-import { dateLocale } from '#shared/wording/dates'
 import type { ApiResponse } from '~/utils/apiResponse'
 
 /** A row of GET /api/briefings. */
@@ -10,12 +9,6 @@ export type BriefingView = ApiResponse<'/api/briefings/:id'>
 /** One briefing, keyed by id so the toolbar's refresh() after an action re-reads only this one. */
 export function useBriefing(id: string) {
   return useFetch(`/api/briefings/${id}`, { key: `briefing-${id}` })
-}
-
-/** The date of issue as the document writes it: in the briefing's language, as the PDF does. */
-export function briefingDate(iso: string | null, language: string) {
-  // UTC on both sides, so the server-rendered page and the hydrated one agree.
-  return iso ? new Date(iso).toLocaleDateString(dateLocale(language), { dateStyle: 'long', timeZone: 'UTC' }) : null
 }
 
 /** What the issue form edits: the body of POST (with outlookId) and PATCH /api/briefings. */
