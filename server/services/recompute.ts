@@ -2,7 +2,8 @@ import { and, eq, inArray } from 'drizzle-orm'
 import { correlationAdoptions, jobs, outlooks, recomputations, seriesAdoptions, sites } from '~~/server/db/schema'
 import type { Database } from '~~/server/db/client'
 import { mailStaleBriefings } from './briefing-staleness'
-import { latestOutlooks, mailWhatChanged, type Cause, type Comparison } from './notify'
+import type { RecomputeSitePayload, ScienceChangePayload } from '~~/server/utils/jobs'
+import { latestOutlooks, mailWhatChanged, type Comparison } from './notify'
 import { queueOutlook } from './outlooks'
 import { checkDecisionAlerts } from './pathways/alerts'
 import { siteWithThresholds } from './sites'
@@ -13,17 +14,6 @@ import { siteWithThresholds } from './sites'
 // job per site; the outlooks themselves are computed by whichever instance claims them.
 
 type Tx = Parameters<Parameters<Database['transaction']>[0]>[0]
-
-export interface RecomputeSitePayload {
-  siteId: string
-  /** Only these scenarios' outlooks; all of the site's when absent. */
-  scenarios?: string[]
-  cause: Cause
-  /** Filled by the job's first pass: each latest outlook and the outlook queued to replace it. */
-  pairs?: Array<{ before: string, after: string }>
-  /** How many times the job has found its outlooks still running. */
-  checks?: number
-}
 
 const FIRST_WAIT_MS = 500
 const MAX_WAIT_MS = 5000
@@ -51,7 +41,7 @@ export function reachedSites(db: Pick<Tx, 'select' | 'selectDistinct'>, scope: R
 }
 
 /** Queues one recompute-site job per site the change reaches (see reachedSites). */
-export async function startRecomputation(tx: Tx, options: RecomputationScope & { cause: Cause, requestedBy: string | null }) {
+export async function startRecomputation(tx: Tx, options: RecomputationScope & { cause: ScienceChangePayload['cause'], requestedBy: string | null }) {
   const siteIds = (await reachedSites(tx, options)).map(row => row.siteId)
   const [batch] = await tx.insert(recomputations).values({ scenario: options.scenario, cause: options.cause, requestedBy: options.requestedBy, siteCount: siteIds.length })
     .returning({ id: recomputations.id })
@@ -64,7 +54,7 @@ export async function startRecomputation(tx: Tx, options: RecomputationScope & {
   return batch!.id
 }
 
-export type JobOutcome = { state: 'done' } | { state: 'waiting', payload: Record<string, unknown>, retryInMs: number }
+export type JobOutcome = { state: 'done' } | { state: 'waiting', payload: RecomputeSitePayload, retryInMs: number }
 
 /**
  * First pass: queue a new outlook for each of the site's latest ones (a science change that does

@@ -10,13 +10,9 @@ export default defineEventHandler(async (event) => {
   if (scenario && !(await scenarioCoverage()).some(s => s.scenario === scenario)) {
     throw createError({ statusCode: 400, message: `scenario: There is no scenario called ${scenario}; choose one from the list.`, data: { issues: [{ field: 'scenario', message: 'Choose a scenario from the list.' }] } })
   }
-  const cause = {
-    en: `An administrator asked for the outlooks${scenario ? ` for ${scenario}` : ''} to be recomputed.`,
-    es: `Una persona administradora pidió recalcular las perspectivas${scenario ? ` de ${scenario}` : ''}.`,
-  }
   const db = await useDb()
   const id = await db.transaction(async (tx) => {
-    const batchId = await startRecomputation(tx, { scenario, cause, requestedBy: admin.id })
+    const batchId = await startRecomputation(tx, { scenario, cause: { kind: 'requested', scenario }, requestedBy: admin.id })
     await writeAudit(tx, admin, 'recomputation.started', { type: 'recomputation', id: batchId }, { scenario })
     return batchId
   })
