@@ -75,3 +75,15 @@ export function translator(language: Language): Translate {
 export function languageOf(code: string | null | undefined): Language {
   return LANGUAGES.some(entry => entry.code === code) ? code as Language : 'en'
 }
+
+/** A group of fixed words as it stands (labels without parameters), e.g. a table's headings. */
+export function wordsAt<T>(language: Language, key: string): T {
+  const found = lookUp(catalogue.get(language), key) ?? lookUp(catalogue.get('en'), key)
+  if (found === undefined) throw new Error(`No words for "${key}" in locales/${language}.`)
+  return found as T
+}
+
+/** The BCP 47 tag a language's lists and dates are written in ("en-GB"). */
+export function languageTag(language: Language): string {
+  return LANGUAGES.find(entry => entry.code === language)?.language ?? language
+}
