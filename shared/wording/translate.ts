@@ -35,7 +35,8 @@ function choose(forms: string[], count: number | undefined): string {
   return forms[Math.min(index, forms.length - 1)]!
 }
 
-function format(message: string, params: WordParams): string {
+/** One message with its parameters: the plural form chosen, then each {name} replaced once. */
+export function formatMessage(message: string, params: WordParams): string {
   const count = typeof params.count === 'number' ? params.count : typeof params.n === 'number' ? params.n : undefined
   const forms = message.split(/\s\|\s/)
   const chosen = forms.length > 1 ? choose(forms, count) : message
@@ -60,11 +61,11 @@ export function translator(language: Language): Translate {
   }
   const t = ((key: string, params: WordParams = {}) => {
     const found = find(key)
-    return format(Array.isArray(found) ? found.join(' ') : found, params)
+    return formatMessage(Array.isArray(found) ? found.join(' ') : found, params)
   }) as Translate
   t.list = (key, params = {}) => {
     const found = find(key)
-    return (Array.isArray(found) ? found : [found]).map(message => format(message, params))
+    return (Array.isArray(found) ? found : [found]).map(message => formatMessage(message, params))
   }
   t.language = language
   translators.set(language, t)
