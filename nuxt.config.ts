@@ -1,8 +1,7 @@
 import { fileURLToPath } from 'node:url'
+import { LANGUAGES, PAGE_DOMAINS } from './locales'
 
 // Brinkwater keeps the classic top-level layout (no app/ folder): srcDir is the repository root.
-/** Each language's strings, one file per area of the app: locales/<lang><domain>.json. */
-const LOCALE_DOMAINS = ['', '-sites', '-gauge', '-briefings', '-mail', '-pathways']
 
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
@@ -25,11 +24,9 @@ export default defineNuxtConfig({
     langDir: 'locales',
     defaultLocale: 'en',
     strategy: 'no_prefix',
-    locales: [
-      // One file per domain, merged per language, so areas of the app keep their strings apart.
-      { code: 'en', language: 'en-GB', name: 'English', files: LOCALE_DOMAINS.map(domain => `en${domain}.json`) },
-      { code: 'es', language: 'es-ES', name: 'Español', files: LOCALE_DOMAINS.map(domain => `es${domain}.json`) },
-    ],
+    // Each language is a folder (locales/<code>/, listed in locales/index.ts) with one file per area of
+    // the app, merged per language so areas keep their strings apart.
+    locales: LANGUAGES.map(({ code, language, name }) => ({ code, language, name, files: PAGE_DOMAINS.map(domain => `${code}/${domain}.json`) })),
     detectBrowserLanguage: { useCookie: true, cookieKey: 'brinkwater_locale', redirectOn: 'root' },
   },
 

@@ -1,6 +1,7 @@
-import { BEYOND_RANGE, chanceAfterDe, chanceAsOdds, EXTRAPOLATED_MARK, EXTRAPOLATED_NOTE, formatChance, headlineSentence, likelihoodPhrase, type Language } from '#shared/wording/chance'
+import { beyondRange, chanceAfterDe, chanceAsOdds, EXTRAPOLATED_MARK, extrapolatedNote, formatChance, headlineSentence, likelihoodPhrase, type Language } from '#shared/wording/chance'
 import { formatHeight, fromMetres } from '#shared/units'
 import type { StoredOutlookNote } from '#shared/types/outlook-notes'
+import { languageOf } from '#shared/wording/translate'
 
 /**
  * Chances and heights for sites and outlooks in the reader's language and units. Every probability
@@ -9,12 +10,12 @@ import type { StoredOutlookNote } from '#shared/types/outlook-notes'
 export function useOutlookText() {
   const { t, locale } = useI18n()
   const preferences = usePreferencesStore()
-  const language = computed<Language>(() => (locale.value === 'es' ? 'es' : 'en'))
+  const language = computed<Language>(() => languageOf(locale.value))
 
   const chance = (probability: number) => formatChance(probability, language.value)
   const word = (probability: number) => likelihoodPhrase(probability, language.value)
   /** The calibrated word, or none for a chance beyond the releases' outermost levels (they do not describe that tail). */
-  const wordFor = (probability: number, extrapolated?: boolean) => (extrapolated ? BEYOND_RANGE[language.value] : word(probability))
+  const wordFor = (probability: number, extrapolated?: boolean) => (extrapolated ? beyondRange(language.value) : word(probability))
   const number = (value: number, digits = 1) => value.toLocaleString(locale.value, { minimumFractionDigits: digits, maximumFractionDigits: digits })
   const dateTime = useDateTime()
   const component = (key: string) => (key === 'land-motion' ? t('outlook.landMotion') : t(`components.${key}`))
@@ -36,8 +37,8 @@ export function useOutlookText() {
     /** A table cell: the value, with * when it rests on a release beyond its outermost level. */
     marked: (cell: string, extrapolated?: boolean) => (extrapolated ? `${cell} ${EXTRAPOLATED_MARK}` : cell),
     /** What * means, in the reader's language. */
-    extrapolatedNote: computed(() => EXTRAPOLATED_NOTE[language.value]),
-    beyondRange: computed(() => BEYOND_RANGE[language.value]),
+    extrapolatedNote: computed(() => extrapolatedNote(language.value)),
+    beyondRange: computed(() => beyondRange(language.value)),
     sentence: (parts: { probability: number, standardError: number, extrapolated?: boolean, height: number, year: number, referenceLevel: string }) =>
       headlineSentence({ ...parts, unit: preferences.units, language: language.value }),
     number,

@@ -3,6 +3,7 @@ import { boolean, customType, doublePrecision, index, integer, jsonb, pgEnum, pg
 import { ORGANISATION_KINDS, ROLES } from '../../shared/types/roles'
 import { AMOUNT_UNITS, DATUM_KINDS, LAND_MOTION_SOURCES, OUTLOOK_STATES, RELEASE_FORMS, REVIEW_STATES, THRESHOLD_KINDS } from '../../shared/types/science'
 import type { StoredOutlookNote } from '../../shared/types/outlook-notes'
+import type { StoredCause } from '../../shared/types/causes'
 import type { GaugeRecord, GaugeValue } from '../../shared/observations/gauge-record'
 import type { GaugeResolution, GaugeTrendFit } from '../../shared/observations/gauge-trend'
 import type { BandsAtYear } from '../../shared/releases/summary'
@@ -463,7 +464,7 @@ export const recomputations = pgTable('recomputations', {
   /** The scenario whose outlooks are recomputed; null for every scenario. */
   scenario: text('scenario'),
   /** Why, in each language: the first line of the "what changed" e-mail. */
-  cause: jsonb('cause').$type<Record<string, string>>().notNull(),
+  cause: jsonb('cause').$type<StoredCause>().notNull(),
   requestedBy: uuid('requested_by').references(() => users.id),
   siteCount: integer('site_count').notNull(),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),

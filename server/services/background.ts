@@ -1,9 +1,11 @@
 import { and, asc, eq, isNull, lt, lte, or } from 'drizzle-orm'
 import { jobs } from '~~/server/db/schema'
+import { languageOf } from '#shared/wording/translate'
 import { sendPasswordReset } from './accounts'
-import { mailBriefingIssued, type Cause } from './notify'
+import type { JobPayloads } from '~~/server/utils/jobs'
+import { mailBriefingIssued } from './notify'
 import { kickOutlooks } from './outlook-jobs'
-import { recomputeSite, startRecomputation, type JobOutcome, type RecomputeSitePayload } from './recompute'
+import { recomputeSite, startRecomputation, type JobOutcome } from './recompute'
 
 // Runs the durable jobs (server/utils/jobs.ts) on any app instance: claimed one at a time under a
 // lease with SKIP LOCKED, so each runs once however many instances share the database. A job that
@@ -11,20 +13,19 @@ import { recomputeSite, startRecomputation, type JobOutcome, type RecomputeSiteP
 
 export const MAX_JOB_ATTEMPTS = 5
 
-const HANDLERS: Record<JobKind, (payload: Record<string, unknown>) => Promise<JobOutcome>> = {
-  'science-change': async (payload) => {
+const HANDLERS: { [Kind in JobKind]: (payload: JobPayloads[Kind]) => Promise<JobOutcome> } = {
+  'science-change': async ({ scenario, cause, requestedBy, seriesId, correlationSource }) => {
     const db = await useDb()
-    const { scenario, cause, requestedBy, seriesId, correlationSource } = payload as { scenario: string | null, cause: Cause, requestedBy?: string, seriesId?: string, correlationSource?: string }
     await db.transaction(tx => startRecomputation(tx, { scenario, cause, requestedBy: requestedBy ?? null, seriesId, correlationSource }))
     return { state: 'done' }
   },
-  'recompute-site': payload => recomputeSite(payload as unknown as RecomputeSitePayload),
+  'recompute-site': payload => recomputeSite(payload),
   'password-reset': async (payload) => {
-    await sendPasswordReset(payload.email as string, payload.language === 'es' ? 'es' : 'en')
+    await sendPasswordReset(payload.email, languageOf(payload.language))
     return { state: 'done' }
   },
   'briefing-issued': async (payload) => {
-    await mailBriefingIssued(payload.briefingId as string)
+    await mailBriefingIssued(payload.briefingId)
     return { state: 'done' }
   },
 }
@@ -52,7 +53,8 @@ const stillMine = (id: string) => and(eq(jobs.id, id), eq(jobs.state, 'running')
 async function runJob(job: Job) {
   const db = await useDb()
   try {
-    const outcome = await HANDLERS[job.kind as JobKind](job.payload)
+    // The row's kind says which payload it holds (written by enqueueJob, or by a re-queue of its own kind).
+    const outcome = await (HANDLERS[job.kind as JobKind] as (payload: unknown) => Promise<JobOutcome>)(job.payload)
     if (outcome.state === 'done') {
       await db.update(jobs).set({ state: 'done', finishedAt: new Date(), leaseUntil: null, error: null }).where(stillMine(job.id))
     }

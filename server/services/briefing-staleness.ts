@@ -1,7 +1,8 @@
 import { and, desc, eq, inArray } from 'drizzle-orm'
 import { briefings, outlooks, sites, thresholds, users } from '~~/server/db/schema'
 import type { OutlookResult } from '#shared/engine'
-import { formatChance, type Language } from '#shared/wording/chance'
+import { formatChance } from '#shared/wording/chance'
+import { languageOf, translator, type Language } from '#shared/wording/translate'
 import { briefingStaleMail } from '../mail/templates'
 
 // An issued briefing never changes. When a newer outlook of its site and scenario gives different
@@ -62,7 +63,7 @@ export async function briefingStaleness(row: Briefing): Promise<Staleness | null
   const results = new Map((await db.select({ id: outlooks.id, result: outlooks.result }).from(outlooks).where(inArray(outlooks.id, ids)))
     .map(o => [o.id, o.result as unknown as OutlookResult]))
   const labels = new Map((await db.select({ id: thresholds.id, label: thresholds.label }).from(thresholds).where(inArray(thresholds.id, row.thresholdIds))).map(t => [t.id, t.label]))
-  const language: Language = row.language === 'es' ? 'es' : 'en'
+  const language = languageOf(row.language)
   const changes: StaleFigure[] = []
   // In the briefing's order: its own scenario first, then those compared with it.
   for (const id of row.outlookIds) {
@@ -87,15 +88,9 @@ export async function briefingStaleness(row: Briefing): Promise<Staleness | null
 
 /** One line per changed figure, in the briefing's language: "19 % now, 4 % in this briefing". */
 export function staleLine(change: StaleFigure, language: Language) {
-  const es = language === 'es'
-  const what = change.kind === 'flood-level'
-    ? (es ? `probabilidad de que el agua alcance «${change.threshold}» en ${change.year}` : `chance the water reaches "${change.threshold}" in ${change.year}`)
-    : (es ? `probabilidad de que el nivel medio del mar supere «${change.threshold}» en ${change.year}` : `chance mean sea level is above "${change.threshold}" by ${change.year}`)
-  const now = formatChance(change.now, language)
-  const was = formatChance(change.was, language)
-  return es
-    ? `${change.scenario}, ${what}: ${now} ahora, ${was} en este informe.`
-    : `${change.scenario}, ${what}: ${now} now, ${was} in this briefing.`
+  const t = translator(language)
+  const what = t(change.kind === 'flood-level' ? 'emails.briefingStale.flood' : 'emails.briefingStale.meanSeaLevel', { threshold: change.threshold, year: change.year })
+  return t('emails.briefingStale.line', { scenario: change.scenario, what, now: formatChance(change.now, language), was: formatChance(change.was, language) })
 }
 
 /**
@@ -118,7 +113,7 @@ export async function mailStaleBriefings(siteId: string) {
     const event = staleness.latestOutlookIds.join(',')
     await db.transaction(async (tx) => {
       for (const planner of planners) {
-        const language: Language = planner.locale === 'es' ? 'es' : 'en'
+        const language = languageOf(planner.locale)
         const mail = briefingStaleMail({
           language, site: site.name, title: row.title, version: row.version,
           changes: staleness.changes.map(change => staleLine(change, language)), url: `${appUrl()}/briefings/${row.id}`,

@@ -9,6 +9,7 @@ import { storylinesAt } from './outlook-read'
 import type { CreateBriefingInput, UpdateBriefingInput } from '#shared/schemas/briefings'
 import type { CurrentUser } from '../utils/auth'
 import { endShareWatches } from './watches'
+import { languageOf } from '#shared/wording/translate'
 
 type Briefing = typeof briefings.$inferSelect
 
@@ -108,7 +109,7 @@ export async function briefingDocument(row: Briefing, issuedAt: Date | null = ro
     }
   })
   return buildBriefingDocument({
-    language: row.language === 'es' ? 'es' : 'en', units: row.units === 'ft' ? 'ft' : 'm',
+    language: languageOf(row.language), units: row.units === 'ft' ? 'ft' : 'm',
     title: row.title, audience: row.audience, localContext: row.localContext, version: row.version,
     previousVersion: previous?.version ?? null, issuedAt: issuedAt?.toISOString() ?? null, livePath: `/briefings/${row.id}`,
     illustrative: site!.illustrative, organisation: site!.organisation, author: author?.name ?? null, site: { ...site!.site, ...datumOf(stored.find(o => o.id === row.outlookIds[0])) },

@@ -2,8 +2,10 @@ import { and, desc, eq, inArray, isNull } from 'drizzle-orm'
 import { briefings, outlooks, sites, thresholds, watches, type OutlookReleaseRef } from '~~/server/db/schema'
 import type { OutlookResult } from '#shared/engine'
 import { formatHeight } from '#shared/units'
-import { chanceAfterDe, formatChance, type Language } from '#shared/wording/chance'
-import { BRIEFING_TEXT } from '#shared/briefing/text'
+import { chanceAfterDe, formatChance } from '#shared/wording/chance'
+import { causeSentence } from '#shared/wording/causes'
+import { languageOf, translator, type Language } from '#shared/wording/translate'
+import type { StoredCause } from '#shared/types/causes'
 import { briefingIssuedMail, whatChangedMail, type ChangeRow, type HorizonChange, type RangeRow, type ReleaseChange } from '../mail/templates'
 import { headlineOf } from './site-list'
 import { unsubscribeHeaders, unsubscribeUrl } from './watches'
@@ -13,11 +15,6 @@ import { unsubscribeHeaders, unsubscribeUrl } from './watches'
 // watcher, in the watcher's language.
 
 const KEY_YEARS = [2050, 2100]
-const MEASURE: Record<Language, { meanSeaLevel: string, flood: string }> = {
-  en: { meanSeaLevel: 'mean sea level above it', flood: 'flood level: chance the water reaches it that year' },
-  es: { meanSeaLevel: 'nivel medio del mar por encima', flood: 'cota de inundación: probabilidad de que el agua la alcance ese año' },
-}
-export type Cause = Record<Language, string>
 
 async function activeWatches(siteId: string) {
   const db = await useDb()
@@ -65,6 +62,7 @@ function describe(allComparisons: Comparison[], labels: Map<string, string>, lan
   const comparisons = scoped ? allComparisons.filter(c => scoped.scenarios.has(c.scenario)) : allComparisons
   const keyYears = scoped?.years ?? KEY_YEARS
   const height = (m: number) => formatHeight(m, 'm', language)
+  const t = translator(language)
   const chances: ChangeRow[] = []
   const ranges: RangeRow[] = []
   const releases: ReleaseChange[] = []
@@ -83,7 +81,7 @@ function describe(allComparisons: Comparison[], labels: Map<string, string>, lan
         if (t.kind === 'flood-level') return t.flood?.annualChance[index]?.value ?? null
         return t.byYear[index]?.value ?? null
       }
-      const what = threshold.kind === 'flood-level' ? MEASURE[language].flood : MEASURE[language].meanSeaLevel
+      const what = t(threshold.kind === 'flood-level' ? 'emails.whatChanged.measures.flood' : 'emails.whatChanged.measures.meanSeaLevel')
       for (const year of keyYears) {
         const ta = a.years.indexOf(year)
         const tb = b.years.indexOf(year)
@@ -105,10 +103,9 @@ function describe(allComparisons: Comparison[], labels: Map<string, string>, lan
       return t < 0 ? '—' : `${height(median(r, t, 0.5))} (${height(median(r, t, 0.17))}–${height(median(r, t, 0.83))})`
     }
     ranges.push({ scenario, year, before: range(b), after: range(a) })
-    const names = BRIEFING_TEXT[language].components
     for (const ref of after.releaseRefs as OutlookReleaseRef[]) {
       const was = (before.releaseRefs as OutlookReleaseRef[]).find(r => r.component === ref.component)
-      if (was?.releaseId !== ref.releaseId) releases.push({ component: `${names[ref.component] ?? ref.component} (${scenario})`, from: was ? `v${was.version}` : '—', to: `v${ref.version}`, citation: ref.citation })
+      if (was?.releaseId !== ref.releaseId) releases.push({ component: `${t(`document.components.${ref.component}`)} (${scenario})`, from: was ? `v${was.version}` : '—', to: `v${ref.version}`, citation: ref.citation })
     }
   }
   return { chances, ranges, releases, horizons, shown: comparisons.length }
@@ -119,19 +116,19 @@ function describe(allComparisons: Comparison[], labels: Map<string, string>, lan
  * the map show, so a reader never mistakes another scenario's chance for it.
  */
 function planningSentence(planningScenario: string, comparisons: Comparison[], labels: Map<string, string>, language: Language) {
-  const es = language === 'es'
-  const named = es ? `${planningScenario}, el escenario de planificación` : `${planningScenario}, the planning scenario`
+  const t = translator(language)
+  const named = t('emails.whatChanged.planningScenario', { scenario: planningScenario })
   const change = comparisons.find(c => c.scenario === planningScenario)
-  if (!change) return es ? `Este cambio no afecta a ${named}: su cifra principal sigue igual.` : `This change does not touch ${named}: its headline stays as it was.`
+  if (!change) return t('emails.whatChanged.planningUntouched', { named })
   const offset = (outlook: Comparison['after']) => (outlook.input as { datum?: { offset: number } }).datum?.offset ?? 0
   const now = headlineOf(change.after.result as unknown as OutlookResult, labels, offset(change.after))
   const was = headlineOf(change.before.result as unknown as OutlookResult, labels, offset(change.before))
-  if (!now) return es ? `Con ${named}, el sitio no tiene umbral del nivel medio del mar para una cifra principal.` : `Under ${named}, the site has no mean-sea-level threshold to give a headline for.`
-  const height = formatHeight(now.height, 'm', language)
-  const before = was ? formatChance(was.probability, language) : '—'
-  return es
-    ? `Con ${named}: la probabilidad de que el nivel medio del mar supere «${now.thresholdLabel}» (${height}) en ${now.year} es ahora ${chanceAfterDe(now.probability)} (antes, ${before}).`
-    : `Under ${named}: the chance that mean sea level is above "${now.thresholdLabel}" (${height}) by ${now.year} is now ${formatChance(now.probability, language)} (was ${before}).`
+  if (!now) return t('emails.whatChanged.planningNoThreshold', { named })
+  return t('emails.whatChanged.planningHeadline', {
+    named, threshold: now.thresholdLabel, height: formatHeight(now.height, 'm', language), year: now.year,
+    chance: formatChance(now.probability, language), chanceAfterDe: chanceAfterDe(now.probability),
+    before: was ? formatChance(was.probability, language) : '—',
+  })
 }
 
 async function latestBriefingUrl(siteId: string) {
@@ -142,7 +139,7 @@ async function latestBriefingUrl(siteId: string) {
 }
 
 /** Mails each watcher of a site the numbers before and after a recomputation, in their language. */
-export async function mailWhatChanged(siteId: string, cause: Cause, comparisons: Comparison[]) {
+export async function mailWhatChanged(siteId: string, cause: StoredCause, comparisons: Comparison[]) {
   const watchers = await activeWatches(siteId)
   if (!watchers.length || !comparisons.length) return
   const db = await useDb()
@@ -159,13 +156,13 @@ export async function mailWhatChanged(siteId: string, cause: Cause, comparisons:
     for (const watch of watchers) {
       const scope = scopes.get(watch.id)
       if (!scope) continue
-      const language: Language = watch.language === 'es' ? 'es' : 'en'
+      const language = languageOf(watch.language)
       const { shown, ...numbers } = describe(ordered, labels, language, scope)
       // Nothing the watcher's briefing showed has changed: nothing to tell them.
       if (!shown) continue
       // A watch from a shared briefing hears only what that briefing showed, so not the planning headline.
       const planning = scope === 'everything' ? planningSentence(site.planningScenario, ordered, labels, language) : undefined
-      const mail = whatChangedMail({ language, site: site.name, cause: cause[language], ...numbers, planning, briefingUrl: scope === 'everything' ? briefingUrl : scope.url, unsubscribeUrl: unsubscribeUrl(watch.unsubscribeToken) })
+      const mail = whatChangedMail({ language, site: site.name, cause: causeSentence(cause, language), ...numbers, planning, briefingUrl: scope === 'everything' ? briefingUrl : scope.url, unsubscribeUrl: unsubscribeUrl(watch.unsubscribeToken) })
       await queueMail(tx, { to: watch.email, ...mail, headers: unsubscribeHeaders(watch.unsubscribeToken), dedupeKey: `change:${event}:${watch.id}` })
     }
   })
@@ -187,7 +184,7 @@ export async function mailBriefingIssued(briefingId: string) {
   await db.transaction(async (tx) => {
     // A watch from a shared link sees that briefing only, not what else the organisation issues.
     for (const watch of watchers.filter(w => !w.briefingId)) {
-      const language: Language = watch.language === 'es' ? 'es' : 'en'
+      const language = languageOf(watch.language)
       const mail = briefingIssuedMail(language, row.site, row.title, url, unsubscribeUrl(watch.unsubscribeToken))
       await queueMail(tx, { to: watch.email, ...mail, headers: unsubscribeHeaders(watch.unsubscribeToken), dedupeKey: `briefing:${briefingId}:${watch.id}` })
     }

@@ -2,7 +2,9 @@ import { and, eq, inArray } from 'drizzle-orm'
 import { correlationAdoptions, jobs, outlooks, recomputations, seriesAdoptions, sites } from '~~/server/db/schema'
 import type { Database } from '~~/server/db/client'
 import { mailStaleBriefings } from './briefing-staleness'
-import { latestOutlooks, mailWhatChanged, type Cause, type Comparison } from './notify'
+import type { RecomputeSitePayload, ScienceChangePayload } from '~~/server/utils/jobs'
+import type { RecomputationCause } from '#shared/types/causes'
+import { latestOutlooks, mailWhatChanged, type Comparison } from './notify'
 import { queueOutlook } from './outlooks'
 import { checkDecisionAlerts } from './pathways/alerts'
 import { siteWithThresholds } from './sites'
@@ -14,17 +16,6 @@ import type { CurrentUser } from '../utils/auth'
 // job per site; the outlooks themselves are computed by whichever instance claims them.
 
 type Tx = Parameters<Parameters<Database['transaction']>[0]>[0]
-
-export interface RecomputeSitePayload {
-  siteId: string
-  /** Only these scenarios' outlooks; all of the site's when absent. */
-  scenarios?: string[]
-  cause: Cause
-  /** Filled by the job's first pass: each latest outlook and the outlook queued to replace it. */
-  pairs?: Array<{ before: string, after: string }>
-  /** How many times the job has found its outlooks still running. */
-  checks?: number
-}
 
 const FIRST_WAIT_MS = 500
 const MAX_WAIT_MS = 5000
@@ -52,7 +43,7 @@ export function reachedSites(db: Pick<Tx, 'select' | 'selectDistinct'>, scope: R
 }
 
 /** Queues one recompute-site job per site the change reaches (see reachedSites). */
-export async function startRecomputation(tx: Tx, options: RecomputationScope & { cause: Cause, requestedBy: string | null }) {
+export async function startRecomputation(tx: Tx, options: RecomputationScope & { cause: ScienceChangePayload['cause'], requestedBy: string | null }) {
   const siteIds = (await reachedSites(tx, options)).map(row => row.siteId)
   const [batch] = await tx.insert(recomputations).values({ scenario: options.scenario, cause: options.cause, requestedBy: options.requestedBy, siteCount: siteIds.length })
     .returning({ id: recomputations.id })
@@ -66,7 +57,7 @@ export async function startRecomputation(tx: Tx, options: RecomputationScope & {
 }
 
 /** An operator's recomputation (after an engine upgrade, say), audited in the same transaction. */
-export async function requestRecomputation(operator: CurrentUser, options: { scenario: string | null, cause: Cause }) {
+export async function requestRecomputation(operator: CurrentUser, options: { scenario: string | null, cause: RecomputationCause }) {
   const db = await useDb()
   return db.transaction(async (tx) => {
     const batchId = await startRecomputation(tx, { ...options, requestedBy: operator.id })
@@ -75,7 +66,7 @@ export async function requestRecomputation(operator: CurrentUser, options: { sce
   })
 }
 
-export type JobOutcome = { state: 'done' } | { state: 'waiting', payload: Record<string, unknown>, retryInMs: number }
+export type JobOutcome = { state: 'done' } | { state: 'waiting', payload: RecomputeSitePayload, retryInMs: number }
 
 /**
  * First pass: queue a new outlook for each of the site's latest ones (a science change that does

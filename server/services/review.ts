@@ -1,7 +1,7 @@
 import { and, eq, type SQL } from 'drizzle-orm'
 import { correlationSets, releases, scaleFactorGrids, series, storylines } from '~~/server/db/schema'
 import type { Database } from '~~/server/db/client'
-import { BRIEFING_TEXT } from '#shared/briefing/text'
+import type { RecomputationCause } from '#shared/types/causes'
 import { judgeReviewAction, type ReviewAction } from '#shared/review/rules'
 import type { CurrentUser } from '../utils/auth'
 
@@ -89,28 +89,23 @@ export async function applyReviewAction(kind: ReviewedKind, id: string, action: 
 
 /**
  * Published or withdrawn science changes outlooks: which scenario (null: every scenario, for a
- * scale-factor grid) and why, in each language, for the "what changed" e-mails.
+ * scale-factor grid) and why, as facts the "what changed" e-mails word in each watcher's language.
  */
 async function scienceChange(tx: Tx, kind: Exclude<ReviewedKind, 'storyline'>, id: string, action: 'approve' | 'withdraw') {
+  const done = action === 'approve' ? 'published' : 'withdrawn'
   if (kind === 'release') {
     const [row] = await tx.select({ scenario: series.scenario, component: series.component, version: releases.version, seriesId: series.id })
       .from(releases).innerJoin(series, eq(series.id, releases.seriesId)).where(eq(releases.id, id))
-    const name = (language: 'en' | 'es') => BRIEFING_TEXT[language].components[row!.component] ?? row!.component
-    const what = { en: `${action === 'approve' ? 'A new' : 'A withdrawn'} release for ${name('en')} (version ${row!.version}, ${row!.scenario})`, es: `Una versión ${action === 'approve' ? 'nueva' : 'retirada'} de ${name('es')} (versión ${row!.version}, ${row!.scenario})` }
+    const cause: RecomputationCause = { kind: 'release', action: done, component: row!.component, version: row!.version, scenario: row!.scenario }
     // Only organisations that adopted this series are reached: another series is offered, not applied.
-    return { scenario: row!.scenario, seriesId: row!.seriesId, cause: { en: `${what.en} changes the outlook for this site.`, es: `${what.es} cambia la perspectiva de este sitio.` } }
+    return { scenario: row!.scenario, seriesId: row!.seriesId, cause }
   }
   if (kind === 'correlation-set') {
     const [row] = await tx.select({ scenario: correlationSets.scenario, organisationId: correlationSets.organisationId }).from(correlationSets).where(eq(correlationSets.id, id))
-    return { scenario: row!.scenario, correlationSource: row!.organisationId, cause: { en: `The correlation between sources of rise for ${row!.scenario} was ${action === 'approve' ? 'updated' : 'withdrawn'}.`, es: `La correlación entre fuentes de subida para ${row!.scenario} fue ${action === 'approve' ? 'actualizada' : 'retirada'}.` } }
+    const cause: RecomputationCause = { kind: 'correlation-set', action: done, scenario: row!.scenario }
+    return { scenario: row!.scenario, correlationSource: row!.organisationId, cause }
   }
   const [row] = await tx.select({ component: scaleFactorGrids.component, version: scaleFactorGrids.version }).from(scaleFactorGrids).where(eq(scaleFactorGrids.id, id))
-  const name = (language: 'en' | 'es') => BRIEFING_TEXT[language].components[row!.component] ?? row!.component
-  return {
-    scenario: null,
-    cause: {
-      en: `The regional scale factors for ${name('en')} (version ${row!.version}) were ${action === 'approve' ? 'published' : 'withdrawn'}.`,
-      es: `Los factores de escala regionales de ${name('es')} (versión ${row!.version}) fueron ${action === 'approve' ? 'publicados' : 'retirados'}.`,
-    },
-  }
+  const cause: RecomputationCause = { kind: 'scale-factor-grid', action: done, component: row!.component, version: row!.version }
+  return { scenario: null, cause }
 }

@@ -104,7 +104,7 @@ export async function updateSite(planner: CurrentUser, id: string, input: SiteIn
       thresholds: { before: before.thresholds.map(t => [t.label, t.height]), after: input.thresholds.map(t => [t.label, t.height]) },
     })
     // Its outlooks are recomputed and its watchers told, in the background (server/services/background.ts).
-    await enqueueJob(tx, 'recompute-site', { siteId: id, cause: { en: `The datum, reference epoch, land motion or thresholds of ${input.name} were updated.`, es: `Se actualizaron el datum, la época de referencia, el movimiento del terreno o los umbrales de ${input.name}.` } })
+    await enqueueJob(tx, 'recompute-site', { siteId: id, cause: { kind: 'site-edited', site: input.name } })
     return site!
   })
   kickJobs()
@@ -135,7 +135,7 @@ export async function replaceAnnualMaxima(planner: CurrentUser, id: string, csv:
       updatedAt: new Date(),
     }).where(eq(sites.id, id))
     await writeAudit(tx, planner, 'site.annual-maxima', { type: 'site', id }, { years: sampleSize, location: fit.location, scale: fit.scale, trendPerYear: fit.trendPerYear })
-    await enqueueJob(tx, 'recompute-site', { siteId: id, cause: { en: `New annual maxima were fitted for ${site.name}.`, es: `Se ajustaron nuevos máximos anuales para ${site.name}.` } })
+    await enqueueJob(tx, 'recompute-site', { siteId: id, cause: { kind: 'annual-maxima', site: site.name } })
   })
   kickJobs()
   return { fit, sampleSize, referenceEpoch: site.referenceEpoch }

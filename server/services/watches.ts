@@ -6,6 +6,7 @@ import type { WatchRequestSchema } from '#shared/schemas/watches'
 import type { CurrentUser } from '../utils/auth'
 import { shareWatchEndedMail, watchConfirmMail } from '../mail/templates'
 import type { Database } from '../db/client'
+import { languageOf } from '#shared/wording/translate'
 
 /** How long a confirmation link works (WATCH_CONFIRM_HOURS overrides, e.g. 0 in tests of expiry). */
 const confirmHours = () => serverConfig().WATCH_CONFIRM_HOURS
@@ -131,7 +132,7 @@ export async function endShareWatches(tx: Tx, briefing: { id: string, siteId: st
   if (!active.length) return
   const [site] = await tx.select({ name: sites.name }).from(sites).where(eq(sites.id, briefing.siteId))
   for (const watch of active) {
-    const language = watch.language === 'es' ? 'es' : 'en'
+    const language = languageOf(watch.language)
     await queueMail(tx, { to: watch.email, ...shareWatchEndedMail(language, site!.name, briefing.title), dedupeKey: `watch-ended:${watch.id}:${briefing.id}` })
   }
 }

@@ -6,6 +6,7 @@ import type { Role } from '#shared/types/roles'
 import type { SessionUser } from '#shared/types/user'
 import { preparedQuery } from './prepared-query'
 import { sharedReads } from './shared-reads'
+import { languageOf } from '#shared/wording/translate'
 
 export type CurrentUser = SessionUser
 
@@ -124,7 +125,7 @@ const loadSessionRow = sharedReads(async (id: string): Promise<{ user: CurrentUs
   const [row] = await (await sessionUserQuery()).execute({ id })
   if (!row || row.disabled) return undefined
   const { disabled: _disabled, generation, ...user } = row
-  return { user: { ...user, locale: user.locale === 'es' ? 'es' : 'en' }, generation }
+  return { user: { ...user, locale: languageOf(user.locale) }, generation }
 })
 
 /** The user's row as routes see it; undefined when missing or disabled. */

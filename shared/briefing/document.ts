@@ -1,6 +1,6 @@
 import type { OutlookResult, ThresholdOutlook } from '../engine'
 import { formatHeight, type HeightUnit } from '../units'
-import { EXTRAPOLATED_MARK, EXTRAPOLATED_NOTE, formatChance, type Language } from '../wording/chance'
+import { EXTRAPOLATED_MARK, extrapolatedNote, formatChance, type Language } from '../wording/chance'
 import { amplificationReturnPeriod, designLifeLevelSentence, floodYearSentence, lifeSentence, todaysLevelExpected } from '../wording/flood'
 import type { DatumKind, ThresholdKind } from '../types/science'
 import { BRIEFING_TEXT, type BriefingText } from './text'
@@ -320,7 +320,7 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
       exceedance: yearIndexes.map(t => ({ year: result.years[t]!, values: result.byYear[t]!.exceedance.slice(from, to + 1).map(e => e.value) })),
       fan: { years: result.years, p1: series(0.01), p5: series(0.05), p17: series(0.17), p50: series(0.5), p83: series(0.83), p95: series(0.95), p99: series(0.99), outerExtrapolated },
     },
-    extrapolation: anyExtrapolated ? EXTRAPOLATED_NOTE[source.language] : null,
+    extrapolation: anyExtrapolated ? extrapolatedNote(source.language) : null,
     table: { years: source.years, rows },
     extremes,
     basis: {

@@ -1,5 +1,5 @@
 import type { Estimate, ThresholdOutlook } from '../engine'
-import { BEYOND_RANGE, chanceAfterDe, formatChance, likelihoodPhrase, type Language } from '../wording/chance'
+import { beyondRange, chanceAfterDe, formatChance, likelihoodPhrase, type Language } from '../wording/chance'
 import type { BriefingText, ChanceSaid } from './text'
 
 // The chance said once, one way: the number, then the calibrated word in brackets, or the mark that
@@ -8,7 +8,7 @@ import type { BriefingText, ChanceSaid } from './text'
 
 export function sayChance(estimate: Pick<Estimate, 'value' | 'extrapolated'>, language: Language): ChanceSaid {
   const p = estimate.value
-  const word = `(${estimate.extrapolated ? BEYOND_RANGE[language] : likelihoodPhrase(p, language)})`
+  const word = `(${estimate.extrapolated ? beyondRange(language) : likelihoodPhrase(p, language)})`
   const plain = `${formatChance(p, language)} ${word}`
   if (language !== 'es') return { plain, afterDe: plain, afterA: plain }
   const afterDe = chanceAfterDe(p)

@@ -3,6 +3,8 @@ import { ApiClient } from '../support/client'
 import { ANALYST, OPERATOR, PLANNER, PORT_PLANNER, READER, demoUser } from '../support/demo-users'
 import { startServer, type RunningServer } from '../support/server'
 import { TestSmtp, isTo, linkIn } from '../support/smtp'
+import type { StoredCause } from '../../shared/types/causes'
+import { causeSentence } from '../../shared/wording/causes'
 
 // Each organisation's outlooks use the science it adopted: a new version in an adopted series flows
 // in (recomputed and mailed), while another series — another group's, a storyline — is only offered.
@@ -26,7 +28,7 @@ let portSite: string
 let originalGlaciers: string
 let storylineGlaciers: string
 
-interface Recomputation { id: string, scenario: string | null, siteCount: number, finishedAt: string | null, cause: Record<string, string> }
+interface Recomputation { id: string, scenario: string | null, siteCount: number, finishedAt: string | null, cause: StoredCause }
 
 const as = (email: string, password: string) => ApiClient.signedIn(server.url, email, password)
 const outlook = async (api: ApiClient, siteId: string) => {
@@ -44,10 +46,10 @@ async function publish(body: Record<string, unknown>) {
   return draft.body as { id: string, seriesId: string }
 }
 
-/** Waits for the recomputation queued by a publication whose cause names `version`, and for it to finish. */
+/** Waits for the recomputation queued by a publication whose cause, worded in English as the page does, matches. */
 function recomputationFor(match: RegExp) {
   return vi.waitFor(async () => {
-    const row = ((await operator.get('/api/admin/recomputations')).body.recomputations as Recomputation[]).find(r => match.test(r.cause.en ?? ''))
+    const row = ((await operator.get('/api/admin/recomputations')).body.recomputations as Recomputation[]).find(r => match.test(causeSentence(r.cause, 'en')))
     if (!row?.finishedAt) throw new Error('not finished yet')
     return row
   }, { timeout: 30_000, interval: 100 })

@@ -2,6 +2,8 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { ApiClient } from '../support/client'
 import { ANALYST, OPERATOR, PLANNER, demoUser } from '../support/demo-users'
 import { startServer, type RunningServer } from '../support/server'
+import type { StoredCause } from '../../shared/types/causes'
+import { causeSentence } from '../../shared/wording/causes'
 
 // New science queues a recomputation of every site with an outlook of its scenario: one durable
 // job per site, outlooks computed by whichever instance claims them, progress visible to admins.
@@ -11,7 +13,7 @@ let server: RunningServer
 let admin: ApiClient
 let planner: ApiClient
 
-interface Recomputation { id: string, scenario: string | null, siteCount: number, done: number, failed: number, pending: number, finishedAt: string | null, cause: Record<string, string> }
+interface Recomputation { id: string, scenario: string | null, siteCount: number, done: number, failed: number, pending: number, finishedAt: string | null, cause: StoredCause }
 
 /** Polls the operator's list until the recomputation has finished. */
 function finished(id: string) {
@@ -75,7 +77,9 @@ describe('recomputations', () => {
       return row
     }, { timeout: 10_000, interval: 100 })
     expect(batch.siteCount).toBe(siteIds.length)
-    expect(batch.cause.en).toMatch(/A new release for .* \(version 2, SSP2-4\.5\) changes the outlook/)
+    // The cause is stored as facts; the page words it in the reader's language (tests/unit/wording/catalogue.test.ts).
+    expect(batch.cause).toMatchObject({ kind: 'release', action: 'published', version: 2, scenario: 'SSP2-4.5' })
+    expect(causeSentence(batch.cause, 'en')).toMatch(/A new release for .* \(version 2, SSP2-4\.5\) changes the outlook/)
 
     const done = await finished(batch.id)
     expect(done).toMatchObject({ done: siteIds.length, failed: 0, pending: 0 })

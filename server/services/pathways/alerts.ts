@@ -5,6 +5,7 @@ import { evaluateOutlook } from './evaluation'
 import { decisionAlertMail, type AlertedDecision } from './alert-mail'
 import { currentRecords, siteMeasures, sitePathways, siteRecords, type DecisionRecord } from './store'
 import { currentYear } from './view'
+import { languageOf } from '#shared/wording/translate'
 
 // After a site's outlooks are computed again on new science, each decision in force is checked
 // against the new outlook of its scenario. It is raised when the measure in service now tips before
@@ -74,7 +75,7 @@ export async function checkDecisionAlerts(siteId: string, comparisons: Compariso
       horizon: record.horizon, kinds: reason.kinds, marginYears: record.marginYears, releases: reason.releases,
     }))
     for (const planner of planners) {
-      const mail = decisionAlertMail({ language: planner.locale === 'es' ? 'es' : 'en', site: site.name, url: `${appUrl()}/sites/${siteId}/pathways`, currentYear: year, decisions })
+      const mail = decisionAlertMail({ language: languageOf(planner.locale), site: site.name, url: `${appUrl()}/sites/${siteId}/pathways`, currentYear: year, decisions })
       // One e-mail per planner and recomputation, even when its job runs again after a crash.
       await queueMail(tx, { to: planner.email, ...mail, dedupeKey: `decision-alert:${siteId}:${event}:${planner.id}` })
     }

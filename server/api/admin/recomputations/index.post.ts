@@ -10,11 +10,7 @@ export default defineEventHandler(async (event) => {
   if (scenario && !(await scenarioCoverage()).some(s => s.scenario === scenario)) {
     throw createError({ statusCode: 400, message: `scenario: There is no scenario called ${scenario}; choose one from the list.`, data: { issues: [{ field: 'scenario', message: 'Choose a scenario from the list.' }] } })
   }
-  const cause = {
-    en: `An administrator asked for the outlooks${scenario ? ` for ${scenario}` : ''} to be recomputed.`,
-    es: `Una persona administradora pidió recalcular las perspectivas${scenario ? ` de ${scenario}` : ''}.`,
-  }
-  const id = await requestRecomputation(admin, { scenario, cause })
+  const id = await requestRecomputation(admin, { scenario, cause: { kind: 'requested', scenario } })
   kickJobs()
   setResponseStatus(event, 202)
   return { id }
