@@ -2,7 +2,7 @@ import { and, asc, eq, isNull, lt, lte, or } from 'drizzle-orm'
 import { jobs } from '~~/server/db/schema'
 import { sendPasswordReset } from './accounts'
 import { mailBriefingIssued, type Cause } from './notify'
-import { kickOutlooks } from './outlook-jobs'
+import { kickOutlooks } from '../outlooks/run'
 import { recomputeSite, startRecomputation, type JobOutcome, type RecomputeSitePayload } from './recompute'
 
 // Runs the durable jobs (server/utils/jobs.ts) on any app instance: claimed one at a time under a

@@ -5,7 +5,7 @@ import { briefings, organisations, outlooks, releases, sites, thresholds, users 
 import { buildBriefingDocument, type BriefingDocument, type BriefingOutlook } from '#shared/briefing/document'
 import type { OutlookInput, OutlookResult } from '#shared/engine'
 import { storylineBasis } from '#shared/storylines/rise'
-import { storylinesAt } from './outlook-read'
+import { storylinesAt } from '../outlooks/read'
 import type { CreateBriefingInput, UpdateBriefingInput } from '#shared/schemas/briefings'
 import type { CurrentUser } from '../utils/auth'
 import { endShareWatches } from './watches'

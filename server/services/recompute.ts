@@ -3,7 +3,7 @@ import { correlationAdoptions, jobs, outlooks, recomputations, seriesAdoptions, 
 import type { Database } from '~~/server/db/client'
 import { mailStaleBriefings } from './briefing-staleness'
 import { latestOutlooks, mailWhatChanged, type Cause, type Comparison } from './notify'
-import { queueOutlook } from './outlooks'
+import { queueOutlook } from '../outlooks/queue'
 import { checkDecisionAlerts } from './pathways/alerts'
 import { siteWithThresholds } from './sites'
 

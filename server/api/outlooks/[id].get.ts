@@ -1,5 +1,5 @@
 import { IdParams } from '#shared/schemas/users'
-import { getOutlookBody } from '~~/server/services/outlook-read'
+import { getOutlookBody } from '~~/server/outlooks/read'
 
 // One outlook with its provenance, its progress while running, and whether newer science exists.
 export default defineEventHandler(async (event) => {

@@ -2,7 +2,8 @@ import { EventEmitter } from 'node:events'
 import { and, asc, eq, inArray, isNull, lt, or, sql } from 'drizzle-orm'
 import { outlooks, sites, thresholds } from '~~/server/db/schema'
 import { EngineInputError, type OutlookResult } from '#shared/engine'
-import { headlineOf } from './site-list'
+import { headlineOf } from '../services/site-list'
+import { runOutlookOffThread } from './pool'
 
 // A stored outlook in state `running` is its own job. Any app instance claims one by taking its
 // lease under a row lock with SKIP LOCKED (two instances never take the same one), renews the
