@@ -1,11 +1,11 @@
 import { createHash } from 'node:crypto'
-import type { OutlookReleaseRef } from '~~/server/db/schema'
 import { validateOutlookInput } from '#shared/engine'
+import type { ReleaseInput } from '#shared/engine/schema'
 import { minOf } from '#shared/engine/arrays'
 import { ENGINE_VERSION } from '#shared/engine/version'
 import type { OutlookRequest } from '#shared/schemas/sites'
 import type { OutlookNote } from '#shared/types/outlook-notes'
-import type { DatumKind } from '#shared/types/science'
+import type { OutlookDatum, OutlookReleaseRef, StoredOutlookInput } from '#shared/types/outlook'
 import { correlationFor, scaleFactorsAt, scienceFor } from '../services/science-inputs'
 import type { loadSite } from '../services/sites'
 
@@ -25,12 +25,6 @@ export function outlookYears(referenceEpoch: number, horizon: number) {
   for (let year = Math.floor(referenceEpoch / DECADE) * DECADE + DECADE; year <= horizon; year += DECADE) years.push(year)
   return years
 }
-
-/**
- * What the page, briefing and e-mails need to state heights as the planner entered them: the engine
- * works in metres above mean sea level at the reference epoch, the planner above the datum.
- */
-export interface OutlookDatum { name: string, kind: DatumKind, offset: number, referenceEpoch: number }
 
 /**
  * A fitted site's parameter uncertainty, sampled with each trajectory. Only the standard errors are
@@ -75,12 +69,14 @@ export async function assembleOutlook(site: Site, request: OutlookRequest) {
   const hasStatistics = site.gumbelLocation !== null && site.gumbelScale !== null
   refuseFloodLevelsWithoutStatistics(site, hasStatistics)
 
-  const input = {
+  const input: StoredOutlookInput = {
     baselineYear,
     years,
     samples: request.samples,
     seed: request.seed,
-    components: science.map(s => ({ key: s.component, scale: scales.get(s.component)!.factor, release: s.release })),
+    // A published release passed the engine's release checks when it was approved; validateOutlookInput
+    // below checks the whole input again before anything is stored.
+    components: science.map(s => ({ key: s.component, scale: scales.get(s.component)!.factor, release: s.release as ReleaseInput })),
     ...(matrix ? { correlation: matrix } : {}),
     landMotion: { rateMmPerYear: site.landMotionRate, sigmaMmPerYear: site.landMotionSigma, epoch: site.landMotionEpoch },
     heights: HEIGHT_GRID,

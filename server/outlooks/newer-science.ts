@@ -1,4 +1,4 @@
-import type { OutlookReleaseRef } from '~~/server/db/schema'
+import type { OutlookReleaseRef } from '#shared/types/outlook'
 import { adoptedForReading } from '../services/adoptions'
 
 /**

@@ -6,7 +6,6 @@ import { sharedReads } from '../utils/shared-reads'
 import { publishedStorylines } from '../services/science-records'
 import { newerScience } from './newer-science'
 import { storylineBasis, storylineRise, type StorylineBasis } from '#shared/storylines/rise'
-import type { OutlookInput } from '#shared/engine'
 import type { BriefingStoryline } from '#shared/briefing/document'
 
 type OutlookRow = typeof outlooks.$inferSelect
@@ -43,7 +42,7 @@ function loaded(row: OutlookRow): Loaded {
     scenario: row.scenario,
     releaseRefs: row.releaseRefs,
     progress: row.state === 'running' ? row.progress : null,
-    storylineBasis: row.state === 'done' ? storylineBasis(row.input as unknown as OutlookInput) : null,
+    storylineBasis: row.state === 'done' ? storylineBasis(row.input) : null,
     head: Buffer.from(json.slice(0, -1)),
   }
 }

@@ -89,7 +89,7 @@ async function compute(row: ClaimedOutlook) {
     const labels = await db.select({ id: thresholds.id, label: thresholds.label }).from(thresholds).where(eq(thresholds.siteId, row.siteId))
     await db.transaction(async (tx) => {
       await tx.update(outlooks).set({
-        state: 'done', result: result as unknown as Record<string, unknown>, headline: headlineOf(result, new Map(labels.map(t => [t.id, t.label])), (row.input as { datum?: { offset: number } }).datum?.offset ?? 0),
+        state: 'done', result, headline: headlineOf(result, new Map(labels.map(t => [t.id, t.label])), row.input.datum?.offset ?? 0),
         durationMs: Math.round(performance.now() - started), finishedAt: new Date(), leaseUntil: null, progress: null,
       }).where(stillMine(row.id))
       faultPoint('outlook-write')
