@@ -1,6 +1,3 @@
-import type { OutlookResult } from '#shared/engine'
-
-interface OutlookSummary { id: string, siteId: string, scenario: string, state: string, samples: number, result: OutlookResult | null }
 interface SiteSummary {
   id: string
   name: string
@@ -16,7 +13,7 @@ interface SiteSummary {
 export async function useBriefingChoices(outlookId: string) {
   const requestFetch = useRequestFetch()
   const { data, error } = await useAsyncData(`briefing-choices-${outlookId}`, async () => {
-    const outlook = await requestFetch<OutlookSummary>(`/api/outlooks/${outlookId}`)
+    const outlook = await requestFetch(`/api/outlooks/${outlookId}`)
     const site = await requestFetch<SiteSummary>(`/api/sites/${outlook.siteId}`)
     // Only what the form needs travels in the page payload, not the whole result.
     return { outlook: { id: outlook.id, siteId: outlook.siteId, scenario: outlook.scenario, state: outlook.state, years: outlook.result?.years ?? [] }, site }
