@@ -109,7 +109,8 @@ describe('a finished outlook', () => {
       newerScience: [], offeredScience: expect.any(Array), storylines: expect.any(Array),
     })
     expect((await raw(new ApiClient(server.url), `/api/outlooks/${doneId}/status`)).status).toBe(401)
-    expect((await raw(planner, '/api/outlooks/not-an-id/status')).status).toBe(400)
+    // A malformed id names no outlook: 404, as for a missing one.
+    expect((await raw(planner, '/api/outlooks/not-an-id/status')).status).toBe(404)
     expect((await raw(planner, '/api/outlooks/00000000-0000-4000-8000-000000000000/status')).status).toBe(404)
   })
 })
