@@ -1,7 +1,4 @@
-import type { OutlookResult } from '#shared/engine'
 import type { ApiResponse } from '~/utils/apiResponse'
-
-interface OutlookSummary { id: string, siteId: string, scenario: string, state: string, samples: number, result: OutlookResult | null }
 
 /**
  * The outlook a briefing is issued from and its site, as the issue form needs them. One
@@ -11,7 +8,7 @@ interface OutlookSummary { id: string, siteId: string, scenario: string, state: 
 export async function useBriefingChoices(outlookId: string) {
   const requestFetch = useRequestFetch()
   const { data, error } = await useAsyncData(`briefing-choices-${outlookId}`, async () => {
-    const outlook = await requestFetch<OutlookSummary>(`/api/outlooks/${outlookId}`)
+    const outlook = await requestFetch(`/api/outlooks/${outlookId}`)
     const site = await requestFetch<ApiResponse<'/api/sites/:id'>>(`/api/sites/${outlook.siteId}`)
     // Only what the form needs travels in the page payload, not the whole result.
     return { outlook: { id: outlook.id, siteId: outlook.siteId, scenario: outlook.scenario, state: outlook.state, years: outlook.result?.years ?? [] }, site }

@@ -1,40 +1,9 @@
-import type { OutlookResult } from '#shared/engine'
-import type { StoredOutlookNote } from '#shared/types/outlook-notes'
+import type { InternalApi } from 'nitropack/types'
 
-/** GET /api/outlooks/[id] as the page reads it (dates arrive as strings; the result is the engine's). */
-export interface OutlookView {
-  id: string
-  siteId: string
-  siteName: string
-  referenceLevel: string
-  scenario: string
-  samples: number
-  seed: number
-  inputHash: string
-  engineVersion: string
-  state: 'running' | 'done' | 'failed'
-  progress: number | null
-  error: string | null
-  notes: StoredOutlookNote[]
-  releaseRefs: { component: string, releaseId: string, seriesId: string, version: number, citation: string, title: string, scale: number, scaleSource: string | null }[]
-  input: {
-    baselineYear: number
-    landMotion: { rateMmPerYear: number, sigmaMmPerYear: number, epoch: number }
-    thresholds: { key: string, height: number, kind?: 'mean-sea-level' | 'flood-level', designLifeYears?: number, lifeStartYear?: number }[]
-    gumbel?: { location: number, scale: number }
-    /** How the engine's heights (above mean sea level at the epoch) read above the datum; absent on outlooks stored before datums. */
-    datum?: { name: string, kind: 'mean-sea-level' | 'land-survey' | 'chart', offset: number, referenceEpoch: number }
-  }
-  newerScience: { kind: 'new-version' | 'withdrawn' | 'adopted-other', component: string, usedVersion: number, latestVersion: number | null, latestReleaseId: string | null, seriesTitle: string | null }[]
-  /** Published series of this scenario the organisation has not adopted: offered, not used. */
-  offeredScience: { component: string, seriesId: string, title: string, organisationName: string, version: number }[]
-  /** Published high-end storylines of the scenario at this site: beside the chances, never part of them (absent while running). */
-  storylines?: { id: string, name: string, description: string, version: number, citation: string, organisationName: string, illustrative: boolean, rises: { year: number, rise: number }[] }[]
-  durationMs: number | null
-  createdAt: string
-  finishedAt: string | null
-  result: OutlookResult | null
-}
+/** GET /api/outlooks/[id] as the page receives it: the stored outlook (dates arrive as strings). */
+export type OutlookView = InternalApi['/api/outlooks/:id']['get']
+/** GET /api/outlooks/[id]/status: what changes while the outlook is read (progress, site name, science, storylines). */
+export type OutlookStatus = InternalApi['/api/outlooks/:id/status']['get']
 
 /** The datum offset and reference epoch an outlook's heights are stated with. */
 export function outlookDatum(outlook: Pick<OutlookView, 'input'>) {
@@ -45,25 +14,35 @@ export function outlookDatum(outlook: Pick<OutlookView, 'input'>) {
 const POLL_MS = 500
 
 /**
- * One outlook, followed until it is done: while the server still computes it, the page asks again
- * every half second (the progress bar moves, and the charts appear when the run finishes).
- * Not async itself, so the lifecycle hooks are registered while the component is still current;
- * the caller awaits the returned fetch.
+ * One outlook and its status, followed until it is done: while the server still computes it, the page
+ * asks for the status every half second (the progress bar moves), and reads the stored outlook again
+ * once it has finished (the charts appear). A finished outlook is read once; the browser keeps it and
+ * revalidates it with its ETag. Not async itself, so the lifecycle hooks are registered while the
+ * component is still current; the caller awaits the returned promise.
  */
 export function useOutlook(id: string) {
-  const fetched = useFetch<OutlookView>(`/api/outlooks/${id}`, { key: `outlook-${id}` })
+  const stored = useFetch(`/api/outlooks/${id}`, { key: `outlook-${id}` })
+  const status = useFetch(`/api/outlooks/${id}/status`, { key: `outlook-status-${id}` })
   let timer: ReturnType<typeof setTimeout> | undefined
 
   function follow() {
     clearTimeout(timer)
-    if (fetched.data.value?.state !== 'running') return
-    timer = setTimeout(async () => {
-      await fetched.refresh()
-      follow()
-    }, POLL_MS)
+    if (status.data.value?.state === 'running') {
+      timer = setTimeout(async () => {
+        await status.refresh()
+        follow()
+      }, POLL_MS)
+      return
+    }
+    // It finished while followed (or between the two reads): the stored outlook now has its result.
+    if (stored.data.value?.state === 'running' && status.data.value) stored.refresh()
   }
 
   onMounted(follow)
   onBeforeUnmount(() => clearTimeout(timer))
-  return fetched
+  return Promise.all([stored, status]).then(() => ({
+    outlook: stored.data,
+    status: status.data,
+    error: computed(() => stored.error.value ?? status.error.value),
+  }))
 }

@@ -4,13 +4,16 @@ import { build } from 'esbuild'
 import { defineNuxtModule } from 'nuxt/kit'
 
 // Outlooks and a release's checks run on worker threads, which need script files of their own. This
-// bundles server/workers/outlook-worker.ts and release-worker.ts (and the engine they import) with
-// esbuild: into .nuxt for `nuxt dev`, and beside the built server (.output/server/workers) for production.
+// bundles the outlook thread (server/outlooks/worker.ts, beside the rest of the outlook feature) and
+// server/workers/release-worker.ts, with the engine they import, using esbuild: into .nuxt for `nuxt dev`,
+// and beside the built server (.output/server/workers) for production. It stays in modules/ because Nuxt
+// loads build-time modules from there; the code it bundles lives with its feature.
 export default defineNuxtModule({
   meta: { name: 'outlook-worker' },
   setup(_options, nuxt) {
-    const entry = (name: string) => join(nuxt.options.rootDir, `server/workers/${name}.ts`)
-    const bundleOne = (name: string, dir: string) => build({ entryPoints: [entry(name)], outfile: join(dir, `${name}.mjs`), bundle: true, platform: 'node', format: 'esm', target: 'node20', logLevel: 'warning' })
+    const entries = { 'outlook-worker': 'server/outlooks/worker.ts', 'release-worker': 'server/workers/release-worker.ts' }
+    const entry = (name: keyof typeof entries) => join(nuxt.options.rootDir, entries[name])
+    const bundleOne = (name: keyof typeof entries, dir: string) => build({ entryPoints: [entry(name)], outfile: join(dir, `${name}.mjs`), bundle: true, platform: 'node', format: 'esm', target: 'node20', logLevel: 'warning' })
     const bundle = (dir: string) => Promise.all([bundleOne('outlook-worker', dir), bundleOne('release-worker', dir)])
 
     if (nuxt.options.dev) {

@@ -4,6 +4,8 @@ import { ORGANISATION_KINDS, ROLES } from '../../shared/types/roles'
 import { AMOUNT_UNITS, DATUM_KINDS, LAND_MOTION_SOURCES, OUTLOOK_STATES, RELEASE_FORMS, REVIEW_STATES, THRESHOLD_KINDS } from '../../shared/types/science'
 import type { StoredOutlookNote } from '../../shared/types/outlook-notes'
 import type { StoredCause } from '../../shared/types/causes'
+import type { OutlookHeadline, OutlookReleaseRef, StoredOutlookInput } from '../../shared/types/outlook'
+import type { OutlookResult } from '../../shared/engine/types'
 import type { GaugeRecord, GaugeValue } from '../../shared/observations/gauge-record'
 import type { GaugeResolution, GaugeTrendFit } from '../../shared/observations/gauge-trend'
 import type { BandsAtYear } from '../../shared/releases/summary'
@@ -298,17 +300,6 @@ export const gaugeRecords = pgTable('gauge_records', {
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 }, table => [unique('gauge_records_site_version').on(table.siteId, table.version)])
 
-export interface OutlookReleaseRef { component: string, releaseId: string, seriesId: string, version: number, citation: string, title: string, scale: number, scaleSource: string | null }
-
-export interface OutlookHeadline {
-  thresholdLabel: string
-  height: number
-  year: number
-  probability: number
-  /** The first year the chance reaches each tolerance (null: not by the last year); absent on outlooks stored before it was kept. */
-  triggerYears?: Array<{ tolerance: number, year: number | null }>
-}
-
 export const outlooks = pgTable('outlooks', {
   id: uuid('id').primaryKey().defaultRandom(),
   siteId: uuid('site_id').notNull().references(() => sites.id, { onDelete: 'cascade' }),
@@ -320,12 +311,11 @@ export const outlooks = pgTable('outlooks', {
   engineVersion: text('engine_version').notNull(),
   state: outlookStateEnum('state').notNull().default('running'),
   /** Everything needed to reproduce the run: the engine input as sent. */
-  input: jsonb('input').$type<Record<string, unknown>>().notNull(),
+  input: jsonb('input').$type<StoredOutlookInput>().notNull(),
   releaseRefs: jsonb('release_refs').$type<OutlookReleaseRef[]>().notNull(),
   correlationSetId: uuid('correlation_set_id').references(() => correlationSets.id),
   notes: jsonb('notes').$type<StoredOutlookNote[]>().notNull().default([]),
-  result: jsonb('result').$type<Record<string, unknown>>(),
-  /** The first threshold's chance in the headline year, kept small for site lists. */
+  result: jsonb('result').$type<OutlookResult>(),
   headline: jsonb('headline').$type<OutlookHeadline>(),
   error: text('error'),
   durationMs: integer('duration_ms'),

@@ -1,7 +1,7 @@
 import { and, eq, notExists } from 'drizzle-orm'
 import { organisations, outlooks, sites, users } from '~~/server/db/schema'
 import { createBriefing, issueBriefing, setSharing } from '~~/server/services/briefings'
-import { requestOutlook } from '~~/server/services/outlooks'
+import { requestOutlook } from '~~/server/outlooks/queue'
 import { loadSite } from '~~/server/services/sites'
 
 // The demo opens with outlooks already computed for its towns, and a briefing issued for each, so

@@ -4,7 +4,7 @@ import { languageOf } from '#shared/wording/translate'
 import { sendPasswordReset } from './accounts'
 import type { JobPayloads } from '~~/server/utils/jobs'
 import { mailBriefingIssued } from './notify'
-import { kickOutlooks } from './outlook-jobs'
+import { kickOutlooks } from '../outlooks/run'
 import { recomputeSite, startRecomputation, type JobOutcome } from './recompute'
 
 // Runs the durable jobs (server/utils/jobs.ts) on any app instance: claimed one at a time under a

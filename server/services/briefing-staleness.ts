@@ -61,7 +61,8 @@ export async function briefingStaleness(row: Briefing): Promise<Staleness | null
   if (!replaced.length) return null
   const ids = [...replaced.map(o => o.id), ...replaced.map(o => latest.get(o.scenario)!.id)]
   const results = new Map((await db.select({ id: outlooks.id, result: outlooks.result }).from(outlooks).where(inArray(outlooks.id, ids)))
-    .map(o => [o.id, o.result as unknown as OutlookResult]))
+    // Both sides are latest finished outlooks or ones a briefing was made of: finished, with results.
+    .map(o => [o.id, o.result!]))
   const labels = new Map((await db.select({ id: thresholds.id, label: thresholds.label }).from(thresholds).where(inArray(thresholds.id, row.thresholdIds))).map(t => [t.id, t.label]))
   const language = languageOf(row.language)
   const changes: StaleFigure[] = []

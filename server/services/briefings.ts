@@ -1,11 +1,10 @@
 import { randomBytes } from 'node:crypto'
 import { and, desc, eq, inArray } from 'drizzle-orm'
-import type { DatumKind } from '#shared/types/science'
+import type { StoredOutlookInput } from '#shared/types/outlook'
 import { briefings, organisations, outlooks, releases, sites, thresholds, users } from '~~/server/db/schema'
 import { buildBriefingDocument, type BriefingDocument, type BriefingOutlook } from '#shared/briefing/document'
-import type { OutlookInput, OutlookResult } from '#shared/engine'
 import { storylineBasis } from '#shared/storylines/rise'
-import { storylinesAt } from './outlook-read'
+import { storylinesAt } from '../outlooks/storylines'
 import type { CreateBriefingInput, UpdateBriefingInput } from '#shared/schemas/briefings'
 import type { CurrentUser } from '../utils/auth'
 import { endShareWatches } from './watches'
@@ -36,7 +35,8 @@ async function checkSelection(user: CurrentUser, input: UpdateBriefingInput & { 
   const own = await db.select({ id: thresholds.id }).from(thresholds).where(eq(thresholds.siteId, siteId))
   const stray = input.thresholdIds.find(id => !own.some(t => t.id === id))
   if (stray) throw bad('thresholdIds', `${stray} is not a threshold of this site.`)
-  const years = (list[0]!.result as unknown as OutlookResult).years
+  // A finished outlook (loadOutlooks refuses any other) has its result.
+  const years = list[0]!.result!.years
   const missing = input.years.find(year => !years.includes(year))
   if (missing !== undefined) throw bad('years', `${missing} is not a year of the outlook; choose from ${years.join(', ')}.`)
   return { siteId, outlookIds: list.map(o => o.id) }
@@ -75,15 +75,15 @@ export async function updateBriefing(planner: CurrentUser, id: string, input: Up
 }
 
 /** The datum an outlook's heights were computed with (outlooks stored before datums have none: the site's then). */
-function datumOf(outlook: { input: unknown } | undefined) {
-  const datum = (outlook?.input as { datum?: { name: string, kind: DatumKind, offset: number, referenceEpoch: number } } | undefined)?.datum
+function datumOf(outlook: { input: StoredOutlookInput } | undefined) {
+  const datum = outlook?.input.datum
   return datum ? { referenceLevel: datum.name, datumKind: datum.kind, datumOffset: datum.offset, referenceEpoch: datum.referenceEpoch } : {}
 }
 
 /** The published storylines of the primary outlook's scenario, placed at its site. */
-async function storylinesOfOutlook(outlook: { scenario: string, state: string, input: unknown } | undefined) {
+async function storylinesOfOutlook(outlook: { scenario: string, state: string, input: StoredOutlookInput } | undefined) {
   if (!outlook || outlook.state !== 'done') return []
-  return storylinesAt({ scenario: outlook.scenario, storylineBasis: storylineBasis(outlook.input as OutlookInput) })
+  return storylinesAt({ scenario: outlook.scenario, storylineBasis: storylineBasis(outlook.input) })
 }
 
 /** The document as it reads now (drafts) or as it was frozen (issued). */
@@ -104,7 +104,8 @@ export async function briefingDocument(row: Briefing, issuedAt: Date | null = ro
     const o = stored.find(s => s.id === id)!
     return {
       scenario: o.scenario, inputHash: o.inputHash, samples: o.samples, seed: o.seed, correlated: o.correlationSetId !== null,
-      result: o.result as unknown as OutlookResult,
+      // A briefing is made of finished outlooks only (loadOutlooks), so each has its result.
+      result: o.result!,
       releaseRefs: o.releaseRefs.map(r => ({ ...r, state: states.find(s => s.id === r.releaseId)?.state ?? 'published' })),
     }
   })
@@ -148,7 +149,7 @@ async function latestSelection(row: Briefing) {
     .orderBy(outlooks.scenario, desc(outlooks.finishedAt))
   const ordered = scenarios.map(scenario => latest.find(o => o.scenario === scenario)!).filter(Boolean)
   const own = new Set((await db.select({ id: thresholds.id }).from(thresholds).where(eq(thresholds.siteId, row.siteId))).map(t => t.id))
-  const years = new Set((ordered[0]?.result as unknown as OutlookResult | undefined)?.years ?? [])
+  const years = new Set(ordered[0]?.result?.years ?? [])
   return {
     outlookIds: ordered.map(o => o.id),
     // A threshold removed from the site, or a year the new outlook does not give, is left out of the draft.

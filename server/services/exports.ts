@@ -1,6 +1,5 @@
 import { and, desc, eq, inArray } from 'drizzle-orm'
 import { outlooks, sites, thresholds } from '~~/server/db/schema'
-import type { OutlookResult } from '#shared/engine'
 import { outlookCsv } from '#shared/exports/outlook-csv'
 import { sitesGeoJson } from '#shared/exports/sites-geojson'
 import type { CurrentUser } from '../utils/auth'
@@ -16,14 +15,14 @@ export async function outlookCsvExport(user: CurrentUser, id: string) {
   if (outlook.state !== 'done' || !outlook.result) throw createError({ statusCode: 409, message: 'This outlook has not finished; download it once it is done.' })
   const labels = await db.select({ id: thresholds.id, label: thresholds.label }).from(thresholds).where(eq(thresholds.siteId, site.id))
   // The datum the outlook was computed with; outlooks stored before datums were kept use the site's now.
-  const datum = (outlook.input as { datum?: { name: string, kind: string, offset: number, referenceEpoch: number } }).datum
+  const datum = outlook.input.datum
     ?? { name: site.referenceLevel, kind: site.datumKind, offset: site.datumOffset, referenceEpoch: site.referenceEpoch }
   const csv = outlookCsv({
     siteName: site.name, scenario: outlook.scenario, datum, samples: outlook.samples, seed: outlook.seed,
     engineVersion: outlook.engineVersion, inputHash: outlook.inputHash, finishedAt: outlook.finishedAt?.toISOString() ?? null,
     releases: outlook.releaseRefs.map(r => ({ component: r.component, version: r.version, citation: r.citation, scale: r.scale })),
     labels: Object.fromEntries(labels.map(t => [t.id, t.label])),
-  }, outlook.result as unknown as OutlookResult)
+  }, outlook.result)
   const name = `brinkwater-${site.name}-${outlook.scenario}-${outlook.inputHash.slice(0, 8)}`.toLowerCase().normalize('NFKD').replace(/[^\w.-]+/g, '-')
   return { csv, name: `${name}.csv` }
 }

@@ -1,6 +1,5 @@
 import { desc, eq, sql } from 'drizzle-orm'
 import { gaugeRecords, sites } from '~~/server/db/schema'
-import type { OutlookResult } from '#shared/engine/types'
 import { gaugePoints, parseGaugeRecordCsv } from '#shared/observations/gauge-record'
 import { fitGaugeTrend, GaugeFitError, type GaugeTrendFit } from '#shared/observations/gauge-trend'
 import { trackAgainstOutlook, type Tracking } from '#shared/observations/tracking'
@@ -43,8 +42,9 @@ export async function uploadGaugeRecord(planner: CurrentUser, siteId: string, cs
 export interface ScenarioTracking { scenario: string, outlookId: string, epoch: number, tracking: Tracking | null }
 
 function trackingFor(fit: GaugeTrendFit, outlook: Awaited<ReturnType<typeof latestOutlooks>>[number]): ScenarioTracking {
-  const result = outlook.result as unknown as OutlookResult
-  const datum = (outlook.input as { datum?: { offset: number, referenceEpoch: number } }).datum
+  // latestOutlooks reads finished outlooks only, which have their results.
+  const result = outlook.result!
+  const datum = outlook.input.datum
   const epoch = datum?.referenceEpoch ?? result.baselineYear
   const level = (year: (typeof result.byYear)[number], p: number) => year.percentiles.find(entry => Math.abs(entry.level - p) < 1e-9)?.value
   const fan = result.byYear.flatMap((year) => {

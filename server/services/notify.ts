@@ -1,5 +1,5 @@
 import { and, desc, eq, inArray, isNull } from 'drizzle-orm'
-import { briefings, outlooks, sites, thresholds, watches, type OutlookReleaseRef } from '~~/server/db/schema'
+import { briefings, outlooks, sites, thresholds, watches } from '~~/server/db/schema'
 import type { OutlookResult } from '#shared/engine'
 import { formatHeight } from '#shared/units'
 import { chanceAfterDe, formatChance } from '#shared/wording/chance'
@@ -68,9 +68,10 @@ function describe(allComparisons: Comparison[], labels: Map<string, string>, lan
   const releases: ReleaseChange[] = []
   const horizons: HorizonChange[] = []
   for (const { scenario, before, after } of comparisons) {
-    const b = before.result as unknown as OutlookResult
-    const a = after.result as unknown as OutlookResult
-    const offset = (outlook: typeof before) => (outlook.input as { datum?: { offset: number } }).datum?.offset ?? 0
+    // A comparison is between finished outlooks, which have their results.
+    const b = before.result!
+    const a = after.result!
+    const offset = (outlook: typeof before) => outlook.input.datum?.offset ?? 0
     for (const threshold of a.thresholds) {
       if (scoped && !scoped.thresholdIds.has(threshold.key)) continue
       const old = b.thresholds.find(t => t.key === threshold.key)
@@ -103,8 +104,8 @@ function describe(allComparisons: Comparison[], labels: Map<string, string>, lan
       return t < 0 ? '—' : `${height(median(r, t, 0.5))} (${height(median(r, t, 0.17))}–${height(median(r, t, 0.83))})`
     }
     ranges.push({ scenario, year, before: range(b), after: range(a) })
-    for (const ref of after.releaseRefs as OutlookReleaseRef[]) {
-      const was = (before.releaseRefs as OutlookReleaseRef[]).find(r => r.component === ref.component)
+    for (const ref of after.releaseRefs) {
+      const was = before.releaseRefs.find(r => r.component === ref.component)
       if (was?.releaseId !== ref.releaseId) releases.push({ component: `${t(`document.components.${ref.component}`)} (${scenario})`, from: was ? `v${was.version}` : '—', to: `v${ref.version}`, citation: ref.citation })
     }
   }
@@ -120,9 +121,9 @@ function planningSentence(planningScenario: string, comparisons: Comparison[], l
   const named = t('emails.whatChanged.planningScenario', { scenario: planningScenario })
   const change = comparisons.find(c => c.scenario === planningScenario)
   if (!change) return t('emails.whatChanged.planningUntouched', { named })
-  const offset = (outlook: Comparison['after']) => (outlook.input as { datum?: { offset: number } }).datum?.offset ?? 0
-  const now = headlineOf(change.after.result as unknown as OutlookResult, labels, offset(change.after))
-  const was = headlineOf(change.before.result as unknown as OutlookResult, labels, offset(change.before))
+  const offset = (outlook: Comparison['after']) => outlook.input.datum?.offset ?? 0
+  const now = headlineOf(change.after.result!, labels, offset(change.after))
+  const was = headlineOf(change.before.result!, labels, offset(change.before))
   if (!now) return t('emails.whatChanged.planningNoThreshold', { named })
   return t('emails.whatChanged.planningHeadline', {
     named, threshold: now.thresholdLabel, height: formatHeight(now.height, 'm', language), year: now.year,

@@ -1,5 +1,6 @@
 import { and, asc, count, desc, eq } from 'drizzle-orm'
-import { outlooks, series, sites, thresholds, type OutlookHeadline } from '~~/server/db/schema'
+import { outlooks, series, sites, thresholds } from '~~/server/db/schema'
+import type { OutlookHeadline } from '#shared/types/outlook'
 import type { OutlookResult } from '#shared/engine'
 import { COMPONENTS, KNOWN_SCENARIOS } from '#shared/types/science'
 import type { CurrentUser } from '../utils/auth'

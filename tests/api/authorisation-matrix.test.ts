@@ -116,6 +116,7 @@ const ROUTES: Record<string, RouteCase> = {
   },
   'outlooks/[id].get.ts': { url: (fx, scope) => `/api/outlooks/${pick(scope, fx.home.outlookId, fx.foreign.outlookId)}`, expect: members },
   'outlooks/[id]/csv.get.ts': { url: (fx, scope) => `/api/outlooks/${pick(scope, fx.home.outlookId, fx.foreign.outlookId)}/csv`, expect: members },
+  'outlooks/[id]/status.get.ts': { url: (fx, scope) => `/api/outlooks/${pick(scope, fx.home.outlookId, fx.foreign.outlookId)}/status`, expect: members },
 
   'briefings/index.get.ts': { unscoped: true, url: () => '/api/briefings', expect: { ...anyone(200), anonymous: 401 } },
   'briefings/index.post.ts': {

@@ -221,7 +221,7 @@ describe('outlooks', () => {
     expect(outlook.notes).toContainEqual({ kind: 'unscaled', components: expect.arrayContaining(['glaciers']) })
     expect(outlook.notes).toContainEqual({ kind: 'uncorrelated', scenario: 'SSP2-4.5' })
     expect(outlook.result.thresholds).toHaveLength(2)
-    expect(outlook.newerScience).toEqual([])
+    expect((await reader.get(`/api/outlooks/${outlookId}/status`)).body.newerScience).toEqual([])
   })
 
   it('serves the same request from the store, and the same seed elsewhere gives the same numbers', async () => {
@@ -246,23 +246,23 @@ describe('outlooks', () => {
     expect(outlook.input.thresholds[0].designLifeYears).toBeUndefined()
   })
 
-  it('sends a kept outlook as one JSON document whose length counts bytes, with the site as it is now', async () => {
+  it('sends a kept outlook as one JSON document whose length counts bytes, and the site as it is now in its status', async () => {
     const named = (await planner.post('/api/sites', site({ name: 'Pørt Ærwick – Ōtaki quay' }))).body.id
     const id = (await planner.post(`/api/sites/${named}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 7 })).body.id
     const read = async () => {
-      const response = await planner.fetchRaw(`/api/outlooks/${id}`)
-      const bytes = Buffer.from(await response.arrayBuffer())
+      const response = await planner.request('GET', `/api/outlooks/${id}`, undefined, { headers: { 'accept-encoding': 'identity' } })
       expect(response.headers.get('content-type')).toMatch(/^application\/json/)
-      expect(Number(response.headers.get('content-length'))).toBe(bytes.length)
-      return JSON.parse(bytes.toString('utf8'))
+      expect(Number(response.headers.get('content-length'))).toBe(Buffer.byteLength(JSON.stringify(response.body)))
+      return response.body
     }
+    const status = async () => (await planner.get(`/api/outlooks/${id}/status`)).body
     const first = await read()
-    expect(first).toMatchObject({ id, siteName: 'Pørt Ærwick – Ōtaki quay', state: 'done', newerScience: [] })
-    // The stored part is kept after the first read; the site's own fields are read fresh every time.
+    expect(first).toMatchObject({ id, state: 'done' })
+    expect(await status()).toMatchObject({ state: 'done', progress: null, siteName: 'Pørt Ærwick – Ōtaki quay', newerScience: [] })
+    // The stored outlook is kept after the first read; the site's own fields are read fresh every time.
     expect((await planner.patch(`/api/sites/${named}`, site({ name: 'Ōtaki quay' }))).status).toBe(200)
-    const second = await read()
-    expect(second.siteName).toBe('Ōtaki quay')
-    expect(second.result).toEqual(first.result)
+    expect((await status()).siteName).toBe('Ōtaki quay')
+    expect((await read()).result).toEqual(first.result)
   })
 
   it('adds the land sinking to the rise: a sinking site is likelier to pass a height than a rising one', async () => {
@@ -313,7 +313,7 @@ describe('outlooks', () => {
     await analyst.post(`/api/releases/${next.body.id}/submit`)
     await reviewer.post(`/api/releases/${next.body.id}/approve`)
 
-    const stale = (await planner.get(`/api/outlooks/${outlookId}`)).body
+    const stale = (await planner.get(`/api/outlooks/${outlookId}/status`)).body
     expect(stale.newerScience).toEqual([{ kind: 'new-version', component: 'glaciers', usedVersion: 1, latestVersion: 2, latestReleaseId: next.body.id, seriesTitle: 'Mountain glaciers (illustrative)' }])
     expect(stale.offeredScience).toEqual([])
     // The publication queued a recomputation of every site with an SSP2-4.5 outlook, same samples and seed.
@@ -323,7 +323,7 @@ describe('outlooks', () => {
       if (!row) throw new Error('not recomputed yet')
       return row
     }, { timeout: 20_000, interval: 100 })
-    expect((await planner.get(`/api/outlooks/${recomputed.id}`)).body.newerScience).toEqual([])
+    expect((await planner.get(`/api/outlooks/${recomputed.id}/status`)).body.newerScience).toEqual([])
     // Asking for it again finds the recomputed outlook in the store.
     const again = await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 7 })
     expect(again.status).toBe(200)

@@ -1,16 +1,13 @@
 import { IdParams } from '#shared/schemas/users'
-import { getOutlookBody } from '~~/server/services/outlook-read'
+import { readOutlook, sendStoredOutlook } from '~~/server/outlooks/read'
 
-// One outlook with its provenance, its progress while running, and whether newer science exists.
+// One outlook as stored, with its provenance: immutable once done, so it carries an ETag (304 when the
+// reader has it) and is gzip-encoded for readers that accept it. What changes while it is read
+// (progress, site name, newer science, storylines) is GET /api/outlooks/[id]/status.
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
   const { id } = readValidParams(event, IdParams)
-  const [stored, live] = await getOutlookBody(user, id)
-  // Written as two pieces: the stored one is the same bytes for every reader of a finished outlook,
-  // so a crowd of readers does not make a 120 kB copy each.
-  const response = event.node.res
-  response.setHeader('content-type', 'application/json')
-  response.setHeader('content-length', stored.length + live.length)
-  response.write(stored)
-  response.end(live)
+  // Another organisation's outlook answers 404 before any ETag is compared, so its validator never leaks.
+  const outlook = await readOutlook(user, id)
+  return sendStoredOutlook(event, outlook)
 })

@@ -1,5 +1,5 @@
 import { IdParams } from '#shared/schemas/params'
-import { listSiteOutlooks } from '~~/server/services/outlooks'
+import { listSiteOutlooks } from '~~/server/outlooks/list'
 import { openAlertCount } from '~~/server/services/pathways/store'
 import { loadSite } from '~~/server/services/sites'
 

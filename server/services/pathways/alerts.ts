@@ -1,5 +1,6 @@
 import { and, eq } from 'drizzle-orm'
-import { decisionAlerts, sites, users, type AlertReason, type OutlookReleaseRef } from '~~/server/db/schema'
+import { decisionAlerts, sites, users, type AlertReason } from '~~/server/db/schema'
+import type { OutlookReleaseRef } from '#shared/types/outlook'
 import type { Comparison } from '../notify'
 import { evaluateOutlook } from './evaluation'
 import { decisionAlertMail, type AlertedDecision } from './alert-mail'
@@ -51,7 +52,7 @@ export async function checkDecisionAlerts(siteId: string, comparisons: Compariso
       record, outlookId: comparison.after.id,
       reason: {
         kinds, tippingYear, decisionYear: tippingYear === null ? null : tippingYear - record.leadTimeYears,
-        releases: releaseChanges(comparison.before.releaseRefs as OutlookReleaseRef[], comparison.after.releaseRefs as OutlookReleaseRef[]),
+        releases: releaseChanges(comparison.before.releaseRefs, comparison.after.releaseRefs),
       },
     })
   }

@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto'
-import type { outlooks, OutlookReleaseRef } from '~~/server/db/schema'
+import type { outlooks } from '~~/server/db/schema'
+import type { OutlookReleaseRef } from '#shared/types/outlook'
 import { ENGINE_VERSION } from '#shared/engine/version'
 import { evaluateMeasures } from '#shared/pathways/evaluate-measures'
 import type { ScenarioTipping } from '#shared/pathways/decisions'
@@ -22,7 +23,7 @@ const CACHE_LIMIT = 200
 const cache = new Map<string, ScenarioTipping>()
 
 function engineHeights(outlook: Outlook, measures: Measure[]) {
-  const input = outlook.input as { datum?: { offset: number }, gumbel?: unknown }
+  const input = outlook.input
   const offset = input.datum?.offset ?? 0
   // A measure without a height never tips; a flood level needs the outlook's extreme-water statistics.
   return measures.flatMap(m => m.height === null || (m.kind === 'flood-level' && !input.gumbel)
@@ -35,15 +36,15 @@ export function evaluateOutlook(outlook: Outlook, measures: Measure[], tolerance
   const key = createHash('sha256').update(JSON.stringify([ENGINE_VERSION, outlook.inputHash, heights, tolerances])).digest('hex')
   let tipping = cache.get(key)
   if (!tipping) {
-    const input = outlook.input as Record<string, unknown>
+    const input = outlook.input
     const evaluated = heights.length
       ? evaluateMeasures(input, heights, tolerances)
-      : { horizon: (input.years as number[]).at(-1)!, measures: [] }
+      : { horizon: input.years.at(-1)!, measures: [] }
     tipping = { scenario: outlook.scenario, horizon: evaluated.horizon, tipping: Object.fromEntries(evaluated.measures.map(m => [m.key, m.tipping])) }
     if (cache.size >= CACHE_LIMIT) cache.delete(cache.keys().next().value!)
     cache.set(key, tipping)
   }
-  return { ...tipping, outlookId: outlook.id, inputHash: outlook.inputHash, releaseRefs: outlook.releaseRefs as OutlookReleaseRef[] }
+  return { ...tipping, outlookId: outlook.id, inputHash: outlook.inputHash, releaseRefs: outlook.releaseRefs }
 }
 
 /** Every scenario with a finished outlook for the site, in name order. */

@@ -1,5 +1,5 @@
 import { IdParams } from '#shared/schemas/users'
-import { listSiteOutlooks } from '~~/server/services/outlooks'
+import { listSiteOutlooks } from '~~/server/outlooks/list'
 import { loadSite } from '~~/server/services/sites'
 
 export default defineEventHandler(async (event) => {

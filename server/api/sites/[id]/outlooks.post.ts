@@ -1,6 +1,6 @@
 import { OutlookRequestSchema } from '#shared/schemas/sites'
 import { IdParams } from '#shared/schemas/users'
-import { requestOutlook } from '~~/server/services/outlooks'
+import { requestOutlook } from '~~/server/outlooks/queue'
 
 // Compute (or find the stored) outlook for a scenario. 200 when served from the store, 201 when
 // computed now, 202 when it is still running (wait: false) — follow GET /api/outlooks/[id].

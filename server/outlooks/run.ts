@@ -2,7 +2,8 @@ import { EventEmitter } from 'node:events'
 import { and, asc, eq, inArray, isNull, lt, or, sql } from 'drizzle-orm'
 import { outlooks, sites, thresholds } from '~~/server/db/schema'
 import { EngineInputError, type OutlookResult } from '#shared/engine'
-import { headlineOf } from './site-list'
+import { headlineOf } from '../services/site-list'
+import { runOutlookOffThread } from './pool'
 
 // A stored outlook in state `running` is its own job. Any app instance claims one by taking its
 // lease under a row lock with SKIP LOCKED (two instances never take the same one), renews the
@@ -88,7 +89,7 @@ async function compute(row: ClaimedOutlook) {
     const labels = await db.select({ id: thresholds.id, label: thresholds.label }).from(thresholds).where(eq(thresholds.siteId, row.siteId))
     await db.transaction(async (tx) => {
       await tx.update(outlooks).set({
-        state: 'done', result: result as unknown as Record<string, unknown>, headline: headlineOf(result, new Map(labels.map(t => [t.id, t.label])), (row.input as { datum?: { offset: number } }).datum?.offset ?? 0),
+        state: 'done', result, headline: headlineOf(result, new Map(labels.map(t => [t.id, t.label])), row.input.datum?.offset ?? 0),
         durationMs: Math.round(performance.now() - started), finishedAt: new Date(), leaseUntil: null, progress: null,
       }).where(stillMine(row.id))
       faultPoint('outlook-write')
