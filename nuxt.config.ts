@@ -4,12 +4,8 @@ import { LANGUAGES, PAGE_DOMAINS } from './locales'
 // Brinkwater keeps the classic top-level layout (no app/ folder): srcDir is the repository root.
 
 export default defineNuxtConfig({
-  compatibilityDate: '2026-11-01',
-  srcDir: '.',
   modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', '@nuxtjs/i18n', 'nuxt-auth-utils', 'nuxt-security'],
-  tailwindcss: { cssPath: '~/assets/css/main.css' },
   devtools: { enabled: false },
-  telemetry: false,
 
   app: {
     head: {
@@ -19,6 +15,41 @@ export default defineNuxtConfig({
     },
   },
 
+  runtimeConfig: {
+    // Overridden by NUXT_SESSION_PASSWORD; nuxt-auth-utils writes one to .env in development.
+    // httpOnly and SameSite=Lax always; Secure is set at start from APP_URL (server/plugins/security-runtime.ts).
+    session: {
+      name: 'brinkwater-session',
+      maxAge: 60 * 60 * 12,
+      cookie: { httpOnly: true, sameSite: 'lax', secure: false },
+    },
+  },
+  srcDir: '.',
+
+  // echarts, zrender and vue-echarts ship ESM that must go through Vite's transform for SSR.
+  build: { transpile: ['echarts', 'zrender', 'vue-echarts'] },
+  compatibilityDate: '2026-11-01',
+
+  nitro: {
+    esbuild: { options: { target: 'es2022' } },
+    // Files read at run time by the built server travel as server assets.
+    serverAssets: [
+      { baseName: 'migrations', dir: fileURLToPath(new URL('./server/db/migrations', import.meta.url)) },
+      // The PDF embeds the app's own font; PDFKit reads .woff (its .woff2 renders blank).
+      {
+        baseName: 'fonts',
+        dir: fileURLToPath(new URL('./node_modules/@fontsource/atkinson-hyperlegible/files', import.meta.url)),
+        pattern: 'atkinson-hyperlegible-latin-*.woff',
+      },
+    ],
+  },
+
+  // The engine's seeded generator uses BigInt literals; Node.js 20 and current browsers have them.
+  vite: { build: { target: 'es2022' } },
+
+  typescript: { strict: true },
+  telemetry: false,
+
   i18n: {
     restructureDir: '.',
     langDir: 'locales',
@@ -26,14 +57,13 @@ export default defineNuxtConfig({
     strategy: 'no_prefix',
     // Each language is a folder (locales/<code>/, listed in locales/index.ts) with one file per area of
     // the app, merged per language so areas keep their strings apart.
-    locales: LANGUAGES.map(({ code, language, name }) => ({ code, language, name, files: PAGE_DOMAINS.map(domain => `${code}/${domain}.json`) })),
+    locales: LANGUAGES.map(({ code, language, name }) => ({
+      code,
+      language,
+      name,
+      files: PAGE_DOMAINS.map(domain => `${code}/${domain}.json`),
+    })),
     detectBrowserLanguage: { useCookie: true, cookieKey: 'brinkwater_locale', redirectOn: 'root' },
-  },
-
-  runtimeConfig: {
-    // Overridden by NUXT_SESSION_PASSWORD; nuxt-auth-utils writes one to .env in development.
-    // httpOnly and SameSite=Lax always; Secure is set at start from APP_URL (server/plugins/security-runtime.ts).
-    session: { name: 'brinkwater-session', maxAge: 60 * 60 * 12, cookie: { httpOnly: true, sameSite: 'lax', secure: false } },
   },
 
   // Response headers and a nonce-based content security policy. The parts of nuxt-security that would
@@ -46,27 +76,27 @@ export default defineNuxtConfig({
     // shared-briefing page cache (server/utils/page-cache.ts) swaps in a new one each time it serves.
     headers: {
       contentSecurityPolicy: {
-        'default-src': ["'self'"],
+        'default-src': ['\'self\''],
         // The entry script is allowed by its nonce and loads the rest ('strict-dynamic'); 'self' is for
         // browsers without CSP 3. No 'unsafe-eval': neither Vue's runtime build nor ECharts needs it.
-        'script-src': ["'self'", "'nonce-{{nonce}}'", "'strict-dynamic'"],
-        'script-src-attr': ["'none'"],
+        'script-src': ['\'self\'', '\'nonce-{{nonce}}\'', '\'strict-dynamic\''],
+        'script-src-attr': ['\'none\''],
         // ECharts, MapLibre and Vue's :style bindings write inline styles; a nonce here would cancel
         // 'unsafe-inline', so styles are limited by origin only (img-src keeps CSS from fetching elsewhere).
-        'style-src': ["'self'", "'unsafe-inline'"],
+        'style-src': ['\'self\'', '\'unsafe-inline\''],
         // MapLibre starts its worker from the app's own URL (setWorkerUrl); blob: for its fallback.
-        'worker-src': ["'self'", 'blob:'],
-        'child-src': ["'self'", 'blob:'],
-        'img-src': ["'self'", 'data:', 'blob:'],
-        'font-src': ["'self'"],
-        'connect-src': ["'self'"],
-        'manifest-src': ["'self'"],
-        'media-src': ["'none'"],
-        'frame-src': ["'none'"],
-        'object-src': ["'none'"],
-        'base-uri': ["'none'"],
-        'frame-ancestors': ["'none'"],
-        'form-action': ["'self'"],
+        'worker-src': ['\'self\'', 'blob:'],
+        'child-src': ['\'self\'', 'blob:'],
+        'img-src': ['\'self\'', 'data:', 'blob:'],
+        'font-src': ['\'self\''],
+        'connect-src': ['\'self\''],
+        'manifest-src': ['\'self\''],
+        'media-src': ['\'none\''],
+        'frame-src': ['\'none\''],
+        'object-src': ['\'none\''],
+        'base-uri': ['\'none\''],
+        'frame-ancestors': ['\'none\''],
+        'form-action': ['\'self\''],
         // Turned on at start when APP_URL is https (server/plugins/security-runtime.ts): on plain-http
         // loopback it would send the browser to an https port that does not exist.
         'upgrade-insecure-requests': false,
@@ -81,7 +111,12 @@ export default defineNuxtConfig({
       // Also set at start from APP_URL: HSTS means nothing over http and would pin a test host to https.
       strictTransportSecurity: false,
       permissionsPolicy: {
-        'camera': [], 'microphone': [], 'geolocation': [], 'display-capture': [], 'payment': [], 'usb': [],
+        'camera': [],
+        'microphone': [],
+        'geolocation': [],
+        'display-capture': [],
+        'payment': [],
+        'usb': [],
         'fullscreen': [],
       },
     },
@@ -93,22 +128,5 @@ export default defineNuxtConfig({
     // Keep console output: server logs matter, and the browser tests read the console.
     removeLoggers: false,
   },
-
-  // The engine's seeded generator uses BigInt literals; Node.js 20 and current browsers have them.
-  vite: { build: { target: 'es2022' } },
-
-  nitro: {
-    esbuild: { options: { target: 'es2022' } },
-    // Files read at run time by the built server travel as server assets.
-    serverAssets: [
-      { baseName: 'migrations', dir: fileURLToPath(new URL('./server/db/migrations', import.meta.url)) },
-      // The PDF embeds the app's own font; PDFKit reads .woff (its .woff2 renders blank).
-      { baseName: 'fonts', dir: fileURLToPath(new URL('./node_modules/@fontsource/atkinson-hyperlegible/files', import.meta.url)), pattern: 'atkinson-hyperlegible-latin-*.woff' },
-    ],
-  },
-
-  // echarts, zrender and vue-echarts ship ESM that must go through Vite's transform for SSR.
-  build: { transpile: ['echarts', 'zrender', 'vue-echarts'] },
-
-  typescript: { strict: true },
+  tailwindcss: { cssPath: '~/assets/css/main.css' },
 })

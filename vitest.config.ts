@@ -6,7 +6,8 @@ import { defineVitestProject } from '@nuxt/test-utils/config'
 const shared = { '#shared': fileURLToPath(new URL('./shared', import.meta.url)) }
 
 // Two layers run by `npm test`: plain-Node unit tests and API tests against the built server.
-// `npm run test:postgres` runs what needs a PostgreSQL server. Browser tests (the e2e project) run separately with `npm run test:e2e`, which checks for Chromium first.
+// `npm run test:postgres` runs what needs a PostgreSQL server. Browser tests (the e2e project) run separately with `npm
+// run test:e2e`, which checks for Chromium first.
 export default defineConfig({
   test: {
     projects: [

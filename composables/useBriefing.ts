@@ -3,7 +3,10 @@ import type { ApiResponse } from '~/utils/apiResponse'
 /** A row of GET /api/briefings. */
 export type BriefingRow = ApiResponse<'/api/briefings'>[number]
 
-/** GET /api/briefings/[id]: the stored fields, who may change it, the document to show and, once issued, what newer outlooks changed. */
+/**
+ * GET /api/briefings/[id]: the stored fields, who may change it, the document to show and, once issued, what newer
+ * outlooks changed.
+ */
 export type BriefingView = ApiResponse<'/api/briefings/:id'>
 
 /** One briefing, keyed by id so the toolbar's refresh() after an action re-reads only this one. */

@@ -11,7 +11,16 @@ export async function useBriefingChoices(outlookId: string) {
     const outlook = await requestFetch(`/api/outlooks/${outlookId}`)
     const site = await requestFetch<ApiResponse<'/api/sites/:id'>>(`/api/sites/${outlook.siteId}`)
     // Only what the form needs travels in the page payload, not the whole result.
-    return { outlook: { id: outlook.id, siteId: outlook.siteId, scenario: outlook.scenario, state: outlook.state, years: outlook.result?.years ?? [] }, site }
+    return {
+      outlook: {
+        id: outlook.id,
+        siteId: outlook.siteId,
+        scenario: outlook.scenario,
+        state: outlook.state,
+        years: outlook.result?.years ?? [],
+      },
+      site,
+    }
   })
   const outlook = computed(() => data.value?.outlook ?? null)
   const site = computed(() => data.value?.site ?? null)

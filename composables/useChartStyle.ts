@@ -71,7 +71,16 @@ export function chartFrame(description: string, extra: Record<string, unknown>) 
  */
 export function yearAxis(years: number[]) {
   // The first year starts at the corner rather than centred on it, clear of the value axis's 0.
-  return chartAxis({ type: 'value', ...niceYearAxis(minOf(years), maxOf(years)), axisLabel: { color: CHART_COLOURS.text, formatter: (year: number) => String(year), alignMinLabel: 'left', alignMaxLabel: 'right' } })
+  return chartAxis({
+    type: 'value',
+    ...niceYearAxis(minOf(years), maxOf(years)),
+    axisLabel: {
+      color: CHART_COLOURS.text,
+      formatter: (year: number) => String(year),
+      alignMinLabel: 'left',
+      alignMaxLabel: 'right',
+    },
+  })
 }
 
 /** A value axis whose ends and step are round numbers covering `values` (heights, in the page's unit). */

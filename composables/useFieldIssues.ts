@@ -14,14 +14,24 @@ export function useIssueWording(label: FieldLabel) {
     'year': () => ` ${t('issues.units.years')}`,
     'years': () => ` ${t('issues.units.years')}`,
   }
-  const limit = (rule: IssueRule) => 'unit' in rule ? `${n(rule.limit)}${units[rule.unit]?.() ?? (rule.unit ? ` ${rule.unit}` : '')}` : 'limit' in rule ? n(rule.limit) : ''
+  const limit = (rule: IssueRule) =>
+    'unit' in rule
+      ? `${n(rule.limit)}${units[rule.unit]?.() ?? (rule.unit ? ` ${rule.unit}` : '')}`
+      : 'limit' in rule
+        ? n(rule.limit)
+        : ''
   // Years are written without a thousands separator.
-  const shown = (rule: IssueRule) => 'unit' in rule && !rule.unit && Number.isInteger(rule.limit) && rule.limit >= 1000 ? String(rule.limit) : limit(rule)
+  const shown = (rule: IssueRule) =>
+    'unit' in rule && !rule.unit && Number.isInteger(rule.limit) && rule.limit >= 1000
+      ? String(rule.limit)
+      : limit(rule)
 
   return (issue: FieldIssue, body: unknown): FieldIssue => {
     const path = issuePath(issue.field)
     const rule = issueRule(issue.message, valueAt(body, path))
-    const message = rule ? t(`issues.${rule.rule}`, { limit: shown(rule) }) : issue.message.charAt(0).toUpperCase() + issue.message.slice(1)
+    const message = rule
+      ? t(`issues.${rule.rule}`, { limit: shown(rule) })
+      : issue.message.charAt(0).toUpperCase() + issue.message.slice(1)
     return { field: issue.field, label: label(issue.field, path), message }
   }
 }
@@ -32,7 +42,11 @@ export function useIssueWording(label: FieldLabel) {
  * it is wrong. `body` builds the request from the form as it is now, exactly as the form sends it.
  * `summary` is for the form's alert: what is left to fix, or the API's message when it named no field.
  */
-export function useFieldIssues(submit: { error: Ref<string>, issues: Ref<FieldIssue[]> }, body: () => unknown, label: FieldLabel) {
+export function useFieldIssues(
+  submit: { error: Ref<string>, issues: Ref<FieldIssue[]> },
+  body: () => unknown,
+  label: FieldLabel,
+) {
   const { t } = useI18n()
   const { error, issues } = submit
   const word = useIssueWording(label)
@@ -44,7 +58,9 @@ export function useFieldIssues(submit: { error: Ref<string>, issues: Ref<FieldIs
   })
   const shown = computed(() => {
     const now = body()
-    return issues.value.filter(issue => sent.value.get(issue) === snapshot(now, issue.field)).map(issue => word(issue, now))
+    return issues.value
+      .filter(issue => sent.value.get(issue) === snapshot(now, issue.field))
+      .map(issue => word(issue, now))
   })
   const summary = computed(() => {
     if (!issues.value.length) return error.value

@@ -5,7 +5,10 @@ import type { FieldLabel } from '~/composables/useFieldIssues'
  * first part, for "years.2" or "matrix.0.1") to an i18n key; `special` words a field that needs more
  * (a matrix cell, a CSV row) and returns undefined otherwise.
  */
-export function useFieldLabels(keys: Record<string, string>, special?: (field: string, path: string[]) => string | undefined): FieldLabel {
+export function useFieldLabels(
+  keys: Record<string, string>,
+  special?: (field: string, path: string[]) => string | undefined,
+): FieldLabel {
   const { t } = useI18n()
   return (field, path) => {
     const worded = special?.(field, path)
@@ -20,9 +23,16 @@ export function useCsvRowLabel(file: () => string) {
   const { t } = useI18n()
   return (field: string) => {
     const row = field.match(/^csv row (\d+)(?:, column (.+))?$/)
-    return row ? t(row[2] ? 'issues.csvCell' : 'issues.csvRow', { file: file(), row: row[1], column: row[2] }) : undefined
+    return row
+      ? t(row[2] ? 'issues.csvCell' : 'issues.csvRow', { file: file(), row: row[1], column: row[2] })
+      : undefined
   }
 }
 
 /** Provenance fields shared by releases, correlation sets and scale-factor grids. */
-export const PROVENANCE_LABELS: Record<string, string> = { method: 'release.method', citation: 'release.citation', doi: 'editor.doi', licence: 'release.licence' }
+export const PROVENANCE_LABELS: Record<string, string> = {
+  method: 'release.method',
+  citation: 'release.citation',
+  doi: 'editor.doi',
+  licence: 'release.licence',
+}

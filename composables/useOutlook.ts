@@ -7,7 +7,10 @@ export type OutlookStatus = InternalApi['/api/outlooks/:id/status']['get']
 
 /** The datum offset and reference epoch an outlook's heights are stated with. */
 export function outlookDatum(outlook: Pick<OutlookView, 'input'>) {
-  return { offset: outlook.input.datum?.offset ?? 0, referenceEpoch: outlook.input.datum?.referenceEpoch ?? outlook.input.baselineYear }
+  return {
+    offset: outlook.input.datum?.offset ?? 0,
+    referenceEpoch: outlook.input.datum?.referenceEpoch ?? outlook.input.baselineYear,
+  }
 }
 
 /** How often a running outlook is asked for its progress. */

@@ -9,5 +9,6 @@
  */
 export function useRefreshData() {
   const nuxtApp = useNuxtApp()
-  return (keys: string | string[]) => nuxtApp.hooks.callHookParallel('app:data:refresh', Array.isArray(keys) ? keys : [keys])
+  return (keys: string | string[]) =>
+    nuxtApp.hooks.callHookParallel('app:data:refresh', Array.isArray(keys) ? keys : [keys])
 }

@@ -33,7 +33,8 @@ export function useReleaseFieldLabel(draft: () => DraftModel): FieldLabel {
       if (head === 'anchorYears') return t('editor.anchorYearN', { n: Number(first) + 1 })
       if (head === 'levels') return t('editor.levelN', { n: Number(first) + 1 })
       if (head && PARAMETERS.has(head)) return t('editor.paramAt', { param: t(`editor.${head}`), year: year(first) })
-      if (head === 'values' && second !== undefined) return t('editor.valueAt', { level: draft().levels[Number(second)] ?? '', year: year(first) })
+      if (head === 'values' && second !== undefined)
+        return t('editor.valueAt', { level: draft().levels[Number(second)] ?? '', year: year(first) })
       if (head === 'values') return t('editor.valuesAt', { year: year(first) })
     }
     if (head && PARAMETERS.has(head)) return t(`editor.${head}`)

@@ -1,6 +1,8 @@
 import type { ReviewAction } from '#shared/review/rules'
 
-/** Science records reviewed on a library page of their own, with their API folder and the library list they appear in. */
+/**
+ * Science records reviewed on a library page of their own, with their API folder and the library list they appear in.
+ */
 const SCIENCE_RECORDS = {
   'storyline': { api: '/api/storylines', list: 'library-storylines' },
   'correlation-set': { api: '/api/correlation-sets', list: 'library-correlation-sets' },
@@ -19,7 +21,8 @@ export async function useScienceRecord<Item>(kind: ScienceRecordKind, id: MaybeR
   const { api, list } = SCIENCE_RECORDS[kind]
   const key = computed(() => `${kind}-${toValue(id)}`)
   const { data: record, error } = await useFetch<Item>(() => `${api}/${toValue(id)}`, { key })
-  if (error.value) throw createError({ statusCode: error.value.statusCode ?? 500, message: error.value.statusMessage, fatal: true })
+  if (error.value)
+    throw createError({ statusCode: error.value.statusCode ?? 500, message: error.value.statusMessage, fatal: true })
   const notice = ref('')
 
   async function reviewed(action: ReviewAction) {

@@ -5,7 +5,11 @@
 export async function useSite(id: string) {
   const fetched = await useFetch(`/api/sites/${id}`, { key: `site-${id}` })
   if (fetched.error.value || !fetched.data.value) {
-    throw createError({ statusCode: fetched.error.value?.statusCode ?? 404, statusMessage: 'No such site.', fatal: true })
+    throw createError({
+      statusCode: fetched.error.value?.statusCode ?? 404,
+      statusMessage: 'No such site.',
+      fatal: true,
+    })
   }
   return fetched
 }

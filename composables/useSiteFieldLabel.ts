@@ -38,12 +38,15 @@ export function useSiteFieldLabel(thresholdNames: () => string[]): FieldLabel {
   const say = (key: string) => t(key, { unit: preferences.units })
   return (field, path) => {
     const row = field.match(/^csv row (\d+)(?:, column (.+))?$/)
-    if (row) return t(row[2] ? 'issues.csvCell' : 'issues.csvRow', { file: say(LABELS.csv!), row: row[1], column: row[2] })
+    if (row)
+      return t(row[2] ? 'issues.csvCell' : 'issues.csvRow', { file: say(LABELS.csv!), row: row[1], column: row[2] })
     const [head, index, part] = path
     if (head === 'thresholds' && index !== undefined) {
       const typed = thresholdNames()[Number(index)]
       const name = typed || upperFirst(t('sites.form.thresholdNumber', { n: Number(index) + 1 }))
-      return part && THRESHOLD_LABELS[part] ? t('issues.within', { item: name, label: say(THRESHOLD_LABELS[part]) }) : name
+      return part && THRESHOLD_LABELS[part]
+        ? t('issues.within', { item: name, label: say(THRESHOLD_LABELS[part]) })
+        : name
     }
     const key = LABELS[path.join('.')]
     return key ? say(key) : ''

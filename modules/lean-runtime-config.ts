@@ -12,7 +12,9 @@ export default defineNuxtModule({
     nuxt.hook('modules:done', () => {
       const runtimeConfig = nuxt.options.runtimeConfig as Record<string, unknown>
       if (!('oauth' in runtimeConfig)) {
-        useLogger('lean-runtime-config').warn('nuxt-auth-utils added no runtimeConfig.oauth to drop: check where its provider settings went (modules/lean-runtime-config.ts).')
+        useLogger('lean-runtime-config').warn(
+          'nuxt-auth-utils added no runtimeConfig.oauth to drop: check where its provider settings went (modules/lean-runtime-config.ts).',
+        )
         return
       }
       delete runtimeConfig.oauth

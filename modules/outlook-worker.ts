@@ -11,9 +11,21 @@ import { defineNuxtModule } from 'nuxt/kit'
 export default defineNuxtModule({
   meta: { name: 'outlook-worker' },
   setup(_options, nuxt) {
-    const entries = { 'outlook-worker': 'server/outlooks/worker.ts', 'release-worker': 'server/workers/release-worker.ts' }
+    const entries = {
+      'outlook-worker': 'server/outlooks/worker.ts',
+      'release-worker': 'server/workers/release-worker.ts',
+    }
     const entry = (name: keyof typeof entries) => join(nuxt.options.rootDir, entries[name])
-    const bundleOne = (name: keyof typeof entries, dir: string) => build({ entryPoints: [entry(name)], outfile: join(dir, `${name}.mjs`), bundle: true, platform: 'node', format: 'esm', target: 'node20', logLevel: 'warning' })
+    const bundleOne = (name: keyof typeof entries, dir: string) =>
+      build({
+        entryPoints: [entry(name)],
+        outfile: join(dir, `${name}.mjs`),
+        bundle: true,
+        platform: 'node',
+        format: 'esm',
+        target: 'node20',
+        logLevel: 'warning',
+      })
     const bundle = (dir: string) => Promise.all([bundleOne('outlook-worker', dir), bundleOne('release-worker', dir)])
 
     if (nuxt.options.dev) {

@@ -16,6 +16,9 @@ export function toMetres(value: number, unit: HeightUnit): number {
 /** `fine`: a digit more (millimetres, hundredths of a foot) for gauge-sized changes. */
 export function formatHeight(metres: number, unit: HeightUnit, locale = 'en', fine = false): string {
   const digits = (unit === 'ft' ? 1 : 2) + (fine ? 1 : 0)
-  const value = fromMetres(metres, unit).toLocaleString(locale, { minimumFractionDigits: digits, maximumFractionDigits: digits })
+  const value = fromMetres(metres, unit).toLocaleString(locale, {
+    minimumFractionDigits: digits,
+    maximumFractionDigits: digits,
+  })
   return `${value} ${unit}`
 }

@@ -2,15 +2,15 @@
 // English message the API gives, so the client can say them in the reader's language. A message that
 // matches no rule is shown as the server wrote it.
 
-export type IssueRule =
-  | { rule: 'required' }
-  | { rule: 'number' }
-  | { rule: 'wholeYear' }
-  | { rule: 'wholeNumber' }
-  | { rule: 'choose' }
-  | { rule: 'chooseSome' }
-  | { rule: 'atLeast' | 'above' | 'atMost', limit: number, unit: string }
-  | { rule: 'tooLong', limit: number }
+export type IssueRule
+  = | { rule: 'required' }
+    | { rule: 'number' }
+    | { rule: 'wholeYear' }
+    | { rule: 'wholeNumber' }
+    | { rule: 'choose' }
+    | { rule: 'chooseSome' }
+    | { rule: 'atLeast' | 'above' | 'atMost', limit: number, unit: string }
+    | { rule: 'tooLong', limit: number }
 
 /** A value the planner left blank: '' in the form, null or NaN in the request. */
 export function isBlank(value: unknown): boolean {
@@ -26,7 +26,8 @@ const bound = (rule: 'atLeast' | 'above' | 'atMost', match: RegExpMatchArray): I
  * that (a colon, or "leave it empty").
  */
 export function issueRule(message: string, value: unknown): IssueRule | null {
-  if (isBlank(value) && /^(Enter|Name|Choose|Say) /.test(message) && !/:|leave/.test(message)) return { rule: 'required' }
+  if (isBlank(value) && /^(Enter|Name|Choose|Say) /.test(message) && !/:|leave/.test(message))
+    return { rule: 'required' }
   let match: RegExpMatchArray | null
   if (/^Choose (one of|the kind)/.test(message)) return { rule: 'choose' }
   // A list of boxes left with none ticked (the briefing's thresholds and years).

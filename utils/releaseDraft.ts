@@ -94,10 +94,14 @@ export function draftContent(draft: DraftModel) {
   const numbers = (texts: string[]) => texts.map(numberFrom)
   const anchorYears = numbers(draft.anchorYears)
   switch (draft.form) {
-    case 'normal': return { ...base, anchorYears, mean: numbers(draft.mean), sd: numbers(draft.sd) }
-    case 'lognormal': return { ...base, anchorYears, shift: numbers(draft.shift), mu: numbers(draft.mu), sigma: numbers(draft.sigma) }
-    case 'quantiles': return { ...base, anchorYears, levels: numbers(draft.levels), values: draft.values.map(numbers) }
-    default: return { ...base, csv: '' }
+    case 'normal':
+      return { ...base, anchorYears, mean: numbers(draft.mean), sd: numbers(draft.sd) }
+    case 'lognormal':
+      return { ...base, anchorYears, shift: numbers(draft.shift), mu: numbers(draft.mu), sigma: numbers(draft.sigma) }
+    case 'quantiles':
+      return { ...base, anchorYears, levels: numbers(draft.levels), values: draft.values.map(numbers) }
+    default:
+      return { ...base, csv: '' }
   }
 }
 
@@ -137,8 +141,13 @@ export function issuesOf(error: unknown): FieldIssue[] {
 
 /** Messages for a field: its own name, or anything below it ("mean.1", "values[0]", "csv row 3"). */
 export function messagesFor(issues: FieldIssue[], ...fields: string[]): string[] {
-  return issues.filter(issue => fields.some(field => issue.field === field || new RegExp(`^${field}[.[ ]`).test(issue.field)))
-    .map(issue => (issue.label === undefined ? `${issue.field}: ${issue.message}` : [issue.label, issue.message].filter(Boolean).join(': ')))
+  return issues
+    .filter(issue => fields.some(field => issue.field === field || new RegExp(`^${field}[.[ ]`).test(issue.field)))
+    .map(issue =>
+      issue.label === undefined
+        ? `${issue.field}: ${issue.message}`
+        : [issue.label, issue.message].filter(Boolean).join(': '),
+    )
 }
 
 /** Are cells still blank? The preview waits for them rather than listing every empty cell. */
@@ -147,6 +156,11 @@ export function draftHasBlanks(draft: DraftModel): boolean {
   if (draft.baselineYear.trim() === '') return true
   if (draft.form === 'samples') return draft.csv === null
   if (draft.form === 'quantiles' && draft.csv !== null) return false
-  const fields = draft.form === 'normal' ? [draft.mean, draft.sd] : draft.form === 'lognormal' ? [draft.shift, draft.mu, draft.sigma] : [draft.levels, ...draft.values]
+  const fields
+    = draft.form === 'normal'
+      ? [draft.mean, draft.sd]
+      : draft.form === 'lognormal'
+        ? [draft.shift, draft.mu, draft.sigma]
+        : [draft.levels, ...draft.values]
   return blank(draft.anchorYears) || fields.some(blank)
 }

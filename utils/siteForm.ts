@@ -7,7 +7,13 @@ import type { ApiResponse } from '~/utils/apiResponse'
 // takes metres and numbers. Blanks go to the API as null so its messages name the field to fill.
 
 type Typed = number | string
-export interface ThresholdRow { label: string, height: Typed, kind: ThresholdKind, buildYear: Typed, designLifeYears: Typed }
+export interface ThresholdRow {
+  label: string
+  height: Typed
+  kind: ThresholdKind
+  buildYear: Typed
+  designLifeYears: Typed
+}
 export type ExtremesMode = 'none' | 'keep' | 'entered' | 'csv'
 export interface SiteFormState {
   place: { name: string, latitude: Typed, longitude: Typed }
@@ -19,17 +25,30 @@ export interface SiteFormState {
   planning: { scenario: string, tolerance: number }
 }
 
-/** A site as GET /api/sites/[id] returns it; its `updatedAt` goes back as If-Match, so a save never overwrites a newer version. */
+/**
+ * A site as GET /api/sites/[id] returns it; its `updatedAt` goes back as If-Match, so a save never overwrites a newer
+ * version.
+ */
 export type SiteRecord = ApiResponse<'/api/sites/:id'>
 
 const inUnit = (metres: number, unit: HeightUnit) => Math.round(fromMetres(metres, unit) * 1000) / 1000
 const num = (value: Typed) => (value === '' || value === null ? null : Number(value))
-const metres = (value: Typed, unit: HeightUnit) => { const n = num(value); return n === null ? null : toMetres(n, unit) }
+const metres = (value: Typed, unit: HeightUnit) => {
+  const n = num(value)
+  return n === null ? null : toMetres(n, unit)
+}
 
-export const blankThreshold = (): ThresholdRow => ({ label: '', height: '', kind: 'mean-sea-level', buildYear: '', designLifeYears: '' })
+export const blankThreshold = (): ThresholdRow => ({
+  label: '',
+  height: '',
+  kind: 'mean-sea-level',
+  buildYear: '',
+  designLifeYears: '',
+})
 
 export function blankSiteForm(at: { latitude?: unknown, longitude?: unknown }): SiteFormState {
-  const coordinate = (value: unknown) => (typeof value === 'string' && value !== '' && Number.isFinite(Number(value)) ? Number(value) : '')
+  const coordinate = (value: unknown) =>
+    typeof value === 'string' && value !== '' && Number.isFinite(Number(value)) ? Number(value) : ''
   return {
     place: { name: '', latitude: coordinate(at.latitude), longitude: coordinate(at.longitude) },
     // Blank on purpose: the epoch and the datum's offset are facts of the site the planner must state.
@@ -45,9 +64,26 @@ export function siteFormFrom(site: SiteRecord, unit: HeightUnit): SiteFormState 
   const hasExtremes = site.gumbelLocation !== null && site.gumbelScale !== null
   return {
     place: { name: site.name, latitude: site.latitude, longitude: site.longitude },
-    datum: { kind: site.datumKind, name: site.referenceLevel, offset: inUnit(site.datumOffset, unit), referenceEpoch: site.referenceEpoch },
-    landMotion: { rate: site.landMotionRate, sigma: site.landMotionSigma, source: site.landMotionSource as LandMotionSource, reference: site.landMotionReference, epoch: site.landMotionEpoch },
-    thresholds: site.thresholds.map(t => ({ label: t.label, height: inUnit(t.height, unit), kind: t.kind, buildYear: t.buildYear ?? '', designLifeYears: t.designLifeYears ?? '' })),
+    datum: {
+      kind: site.datumKind,
+      name: site.referenceLevel,
+      offset: inUnit(site.datumOffset, unit),
+      referenceEpoch: site.referenceEpoch,
+    },
+    landMotion: {
+      rate: site.landMotionRate,
+      sigma: site.landMotionSigma,
+      source: site.landMotionSource as LandMotionSource,
+      reference: site.landMotionReference,
+      epoch: site.landMotionEpoch,
+    },
+    thresholds: site.thresholds.map(t => ({
+      label: t.label,
+      height: inUnit(t.height, unit),
+      kind: t.kind,
+      buildYear: t.buildYear ?? '',
+      designLifeYears: t.designLifeYears ?? '',
+    })),
     extremes: {
       mode: hasExtremes ? 'keep' : 'none',
       location: hasExtremes ? inUnit(site.gumbelLocation!, unit) : '',
@@ -68,14 +104,32 @@ export function siteBody(form: SiteFormState, unit: HeightUnit) {
     referenceLevel: datum.name,
     datum: { kind: datum.kind, offset: metres(datum.offset, unit) },
     referenceEpoch: num(datum.referenceEpoch),
-    landMotion: { rateMmPerYear: num(landMotion.rate), sigmaMmPerYear: num(landMotion.sigma), source: landMotion.source, reference: landMotion.reference, epoch: num(landMotion.epoch) },
+    landMotion: {
+      rateMmPerYear: num(landMotion.rate),
+      sigmaMmPerYear: num(landMotion.sigma),
+      source: landMotion.source,
+      reference: landMotion.reference,
+      epoch: num(landMotion.epoch),
+    },
     // A mean-sea-level threshold has no life: what the planner typed there before switching kind is dropped.
-    thresholds: form.thresholds.map(t => t.kind === 'flood-level'
-      ? { label: t.label, height: metres(t.height, unit), kind: t.kind, buildYear: num(t.buildYear), designLifeYears: num(t.designLifeYears) }
-      : { label: t.label, height: metres(t.height, unit), kind: t.kind, buildYear: null, designLifeYears: null }),
+    thresholds: form.thresholds.map(t =>
+      t.kind === 'flood-level'
+        ? {
+            label: t.label,
+            height: metres(t.height, unit),
+            kind: t.kind,
+            buildYear: num(t.buildYear),
+            designLifeYears: num(t.designLifeYears),
+          }
+        : { label: t.label, height: metres(t.height, unit), kind: t.kind, buildYear: null, designLifeYears: null },
+    ),
     // Left out, the stored statistics stay as they are (kept, or about to be replaced by a CSV fit).
-    gumbel: extremes.mode === 'entered' ? { location: metres(extremes.location, unit), scale: metres(extremes.scale, unit) }
-      : extremes.mode === 'none' ? null : undefined,
+    gumbel:
+      extremes.mode === 'entered'
+        ? { location: metres(extremes.location, unit), scale: metres(extremes.scale, unit) }
+        : extremes.mode === 'none'
+          ? null
+          : undefined,
     planning: { scenario: form.planning.scenario, tolerance: form.planning.tolerance },
   }
 }

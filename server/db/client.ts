@@ -4,7 +4,13 @@ import { migrate as migratePglite } from 'drizzle-orm/pglite/migrator'
 import { drizzle as drizzleNodePg } from 'drizzle-orm/node-postgres'
 import { migrate as migrateNodePg } from 'drizzle-orm/node-postgres/migrator'
 import pg from 'pg'
-import { DEFAULT_PGLITE_SHARED_BUFFERS, PGLITE_MEMORY_HINT, PGLITE_MEMORY_SETTING, serverConfig, type ServerConfig } from '../utils/config'
+import {
+  DEFAULT_PGLITE_SHARED_BUFFERS,
+  PGLITE_MEMORY_HINT,
+  PGLITE_MEMORY_SETTING,
+  serverConfig,
+  type ServerConfig,
+} from '../utils/config'
 import { claimDataDir } from './data-dir-lock'
 import { LeanPGlite } from './pglite-client'
 import * as schema from './schema'
@@ -91,7 +97,12 @@ async function openPglite(dataDir: string, sharedBuffers = DEFAULT_PGLITE_SHARED
 
 async function openServer(url: string, poolSize = 10): Promise<DatabaseHandle> {
   // Two at least: `exclusive` holds one while migrating through another.
-  const pool = new pg.Pool({ connectionString: url, max: Math.max(2, poolSize), connectionTimeoutMillis: 10_000, application_name: APPLICATION_NAME })
+  const pool = new pg.Pool({
+    connectionString: url,
+    max: Math.max(2, poolSize),
+    connectionTimeoutMillis: 10_000,
+    application_name: APPLICATION_NAME,
+  })
   // An idle connection the server drops must not crash the process; the next query reconnects.
   pool.on('error', error => console.error('[brinkwater] A pooled database connection failed:', error.message))
   const db = drizzleNodePg({ client: pool, schema }) as unknown as Database
@@ -101,7 +112,9 @@ async function openServer(url: string, poolSize = 10): Promise<DatabaseHandle> {
   }
   catch (error) {
     await pool.end()
-    throw new Error(`Could not connect to the PostgreSQL server at ${describeUrl(url)}: ${error instanceof Error ? error.message : error}`)
+    throw new Error(
+      `Could not connect to the PostgreSQL server at ${describeUrl(url)}: ${error instanceof Error ? error.message : error}`,
+    )
   }
   return {
     db,
@@ -139,7 +152,10 @@ export function describeUrl(url: string) {
   }
 }
 
-type DatabaseSettings = Pick<ServerConfig, 'DATABASE_URL' | 'PGLITE_DATA_DIR' | 'DATABASE_POOL_SIZE' | 'PGLITE_SHARED_BUFFERS'>
+type DatabaseSettings = Pick<
+  ServerConfig,
+  'DATABASE_URL' | 'PGLITE_DATA_DIR' | 'DATABASE_POOL_SIZE' | 'PGLITE_SHARED_BUFFERS'
+>
 
 /** The database the settings name (server/utils/config.ts): the app and the db:* commands alike. */
 export function databaseOptions(config: DatabaseSettings = serverConfig()): DatabaseOptions {

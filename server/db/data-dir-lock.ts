@@ -33,7 +33,9 @@ export async function dataDirHolder(dataDir: string): Promise<number | undefined
 export async function claimDataDir(dataDir: string): Promise<() => Promise<void>> {
   const holder = await dataDirHolder(dataDir)
   if (holder) {
-    throw new Error(`The PGlite data folder ${dataDir} is in use by process ${holder}. Stop that process first (only one process may open an embedded database), or set PGLITE_DATA_DIR to another folder.`)
+    throw new Error(
+      `The PGlite data folder ${dataDir} is in use by process ${holder}. Stop that process first (only one process may open an embedded database), or set PGLITE_DATA_DIR to another folder.`,
+    )
   }
   const lockFile = lockFileOf(dataDir)
   await mkdir(dirname(lockFile), { recursive: true })

@@ -1,4 +1,15 @@
-import { boolean, doublePrecision, index, integer, jsonb, pgTable, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core'
+import {
+  boolean,
+  doublePrecision,
+  index,
+  integer,
+  jsonb,
+  pgTable,
+  text,
+  timestamp,
+  unique,
+  uuid,
+} from 'drizzle-orm/pg-core'
 import type { ThresholdKind } from '../../shared/types/science'
 import { sites, users } from './schema'
 
@@ -33,7 +44,13 @@ export const adaptationPathways = pgTable('adaptation_pathways', {
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 }, table => [index('adaptation_pathways_site_idx').on(table.siteId)])
 
-export interface RecordedRelease { component: string, releaseId: string, seriesId: string, version: number, citation: string }
+export interface RecordedRelease {
+  component: string
+  releaseId: string
+  seriesId: string
+  version: number
+  citation: string
+}
 
 /** What a council decided and the outlook it rested on. Never updated: a review is a new record. */
 export const decisionRecords = pgTable('decision_records', {
@@ -75,12 +92,23 @@ export interface AlertReason {
 }
 
 /** New science moved a recorded decision; open until a later record reviews it. */
-export const decisionAlerts = pgTable('decision_alerts', {
-  id: uuid('id').primaryKey().defaultRandom(),
-  recordId: uuid('record_id').notNull().references(() => decisionRecords.id, { onDelete: 'cascade' }),
-  siteId: uuid('site_id').notNull().references(() => sites.id, { onDelete: 'cascade' }),
-  /** The outlook whose science raised it: one alert per record and outlook. */
-  outlookId: uuid('outlook_id').notNull(),
-  reason: jsonb('reason').$type<AlertReason>().notNull(),
-  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
-}, table => [unique('decision_alerts_record_outlook').on(table.recordId, table.outlookId), index('decision_alerts_site_idx').on(table.siteId)])
+export const decisionAlerts = pgTable(
+  'decision_alerts',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    recordId: uuid('record_id')
+      .notNull()
+      .references(() => decisionRecords.id, { onDelete: 'cascade' }),
+    siteId: uuid('site_id')
+      .notNull()
+      .references(() => sites.id, { onDelete: 'cascade' }),
+    /** The outlook whose science raised it: one alert per record and outlook. */
+    outlookId: uuid('outlook_id').notNull(),
+    reason: jsonb('reason').$type<AlertReason>().notNull(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  table => [
+    unique('decision_alerts_record_outlook').on(table.recordId, table.outlookId),
+    index('decision_alerts_site_idx').on(table.siteId),
+  ],
+)

@@ -1,7 +1,30 @@
 import { sql } from 'drizzle-orm'
-import { boolean, customType, doublePrecision, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, unique, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import {
+  boolean,
+  customType,
+  doublePrecision,
+  index,
+  integer,
+  jsonb,
+  pgEnum,
+  pgTable,
+  primaryKey,
+  text,
+  timestamp,
+  unique,
+  uniqueIndex,
+  uuid,
+} from 'drizzle-orm/pg-core'
 import { ORGANISATION_KINDS, ROLES } from '../../shared/types/roles'
-import { AMOUNT_UNITS, DATUM_KINDS, LAND_MOTION_SOURCES, OUTLOOK_STATES, RELEASE_FORMS, REVIEW_STATES, THRESHOLD_KINDS } from '../../shared/types/science'
+import {
+  AMOUNT_UNITS,
+  DATUM_KINDS,
+  LAND_MOTION_SOURCES,
+  OUTLOOK_STATES,
+  RELEASE_FORMS,
+  REVIEW_STATES,
+  THRESHOLD_KINDS,
+} from '../../shared/types/science'
 import type { StoredOutlookNote } from '../../shared/types/outlook-notes'
 import type { StoredCause } from '../../shared/types/causes'
 import type { OutlookHeadline, OutlookReleaseRef, StoredOutlookInput } from '../../shared/types/outlook'
@@ -225,43 +248,54 @@ export const outlookStateEnum = pgEnum('outlook_state', OUTLOOK_STATES)
 export const datumKindEnum = pgEnum('datum_kind', DATUM_KINDS)
 export const thresholdKindEnum = pgEnum('threshold_kind', THRESHOLD_KINDS)
 
-export const sites = pgTable('sites', {
-  id: uuid('id').primaryKey().defaultRandom(),
-  organisationId: uuid('organisation_id').notNull().references(() => organisations.id),
-  name: text('name').notNull(),
-  latitude: doublePrecision('latitude').notNull(),
-  longitude: doublePrecision('longitude').notNull(),
-  /** The datum every height here is measured above, by name in the planner's words. */
-  referenceLevel: text('reference_level').notNull(),
-  datumKind: datumKindEnum('datum_kind').notNull(),
-  /** Mean sea level at the reference epoch, metres above the datum (0 when the datum is that mean sea level). */
-  datumOffset: doublePrecision('datum_offset').notNull(),
-  /** The year rise is counted from: fixed per site, never the calendar year. */
-  referenceEpoch: integer('reference_epoch').notNull(),
-  /** mm/yr, negative = sinking (which adds to local rise). */
-  landMotionRate: doublePrecision('land_motion_rate').notNull(),
-  landMotionSigma: doublePrecision('land_motion_sigma').notNull(),
-  landMotionSource: landMotionSourceEnum('land_motion_source').notNull(),
-  landMotionReference: text('land_motion_reference').notNull().default(''),
-  landMotionEpoch: integer('land_motion_epoch').notNull(),
-  /** The scenario its planners plan for: lists, the map and mails give the headline chance under this one. */
-  planningScenario: text('planning_scenario').notNull().default('SSP2-4.5'),
-  /** The chance its planners accept of a threshold being passed (one of the engine's trigger tolerances). */
-  planningTolerance: doublePrecision('planning_tolerance').notNull().default(0.1),
-  /** Gumbel statistics of annual maximum water level: location at the reference epoch and scale, metres above the datum. */
-  gumbelLocation: doublePrecision('gumbel_location'),
-  gumbelScale: doublePrecision('gumbel_scale'),
-  /** From a fit of annual maxima: how fast the location moved (m/yr), and standard errors of the three. */
-  gumbelTrend: doublePrecision('gumbel_trend'),
-  gumbelLocationSe: doublePrecision('gumbel_location_se'),
-  gumbelScaleSe: doublePrecision('gumbel_scale_se'),
-  gumbelTrendSe: doublePrecision('gumbel_trend_se'),
-  /** 'entered', or the number of annual maxima the fit used. */
-  gumbelSource: text('gumbel_source'),
-  createdBy: uuid('created_by').notNull().references(() => users.id),
-  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
-  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
-}, table => [index('sites_organisation_idx').on(table.organisationId)])
+export const sites = pgTable(
+  'sites',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    organisationId: uuid('organisation_id')
+      .notNull()
+      .references(() => organisations.id),
+    name: text('name').notNull(),
+    latitude: doublePrecision('latitude').notNull(),
+    longitude: doublePrecision('longitude').notNull(),
+    /** The datum every height here is measured above, by name in the planner's words. */
+    referenceLevel: text('reference_level').notNull(),
+    datumKind: datumKindEnum('datum_kind').notNull(),
+    /** Mean sea level at the reference epoch, metres above the datum (0 when the datum is that mean sea level). */
+    datumOffset: doublePrecision('datum_offset').notNull(),
+    /** The year rise is counted from: fixed per site, never the calendar year. */
+    referenceEpoch: integer('reference_epoch').notNull(),
+    /** mm/yr, negative = sinking (which adds to local rise). */
+    landMotionRate: doublePrecision('land_motion_rate').notNull(),
+    landMotionSigma: doublePrecision('land_motion_sigma').notNull(),
+    landMotionSource: landMotionSourceEnum('land_motion_source').notNull(),
+    landMotionReference: text('land_motion_reference').notNull().default(''),
+    landMotionEpoch: integer('land_motion_epoch').notNull(),
+    /** The scenario its planners plan for: lists, the map and mails give the headline chance under this one. */
+    planningScenario: text('planning_scenario').notNull().default('SSP2-4.5'),
+    /** The chance its planners accept of a threshold being passed (one of the engine's trigger tolerances). */
+    planningTolerance: doublePrecision('planning_tolerance').notNull().default(0.1),
+    /**
+     * Gumbel statistics of annual maximum water level: location at the reference epoch and scale, metres above the
+     * datum.
+     */
+    gumbelLocation: doublePrecision('gumbel_location'),
+    gumbelScale: doublePrecision('gumbel_scale'),
+    /** From a fit of annual maxima: how fast the location moved (m/yr), and standard errors of the three. */
+    gumbelTrend: doublePrecision('gumbel_trend'),
+    gumbelLocationSe: doublePrecision('gumbel_location_se'),
+    gumbelScaleSe: doublePrecision('gumbel_scale_se'),
+    gumbelTrendSe: doublePrecision('gumbel_trend_se'),
+    /** 'entered', or the number of annual maxima the fit used. */
+    gumbelSource: text('gumbel_source'),
+    createdBy: uuid('created_by')
+      .notNull()
+      .references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  table => [index('sites_organisation_idx').on(table.organisationId)],
+)
 
 export const thresholds = pgTable('thresholds', {
   id: uuid('id').primaryKey().defaultRandom(),
@@ -343,31 +377,41 @@ export const outlooks = pgTable('outlooks', {
 
 export const briefingStateEnum = pgEnum('briefing_state', ['draft', 'issued'])
 
-export const briefings = pgTable('briefings', {
-  id: uuid('id').primaryKey().defaultRandom(),
-  organisationId: uuid('organisation_id').notNull().references(() => organisations.id),
-  siteId: uuid('site_id').notNull().references(() => sites.id, { onDelete: 'cascade' }),
-  /** The outlook it is issued from, then those compared with it (other scenarios). */
-  outlookIds: jsonb('outlook_ids').$type<string[]>().notNull(),
-  version: integer('version').notNull().default(1),
-  previousId: uuid('previous_id'),
-  state: briefingStateEnum('state').notNull().default('draft'),
-  title: text('title').notNull(),
-  audience: text('audience').notNull().default(''),
-  localContext: text('local_context').notNull().default(''),
-  language: text('language').$type<Language>().notNull(),
-  units: text('units').$type<HeightUnit>().notNull(),
-  thresholdIds: jsonb('threshold_ids').$type<string[]>().notNull(),
-  years: jsonb('years').$type<number[]>().notNull(),
-  /** The frozen document (shared/briefing/document.ts), written when issued. */
-  document: jsonb('document').$type<BriefingDocument>(),
-  shareToken: text('share_token').unique(),
-  createdBy: uuid('created_by').notNull().references(() => users.id),
-  issuedBy: uuid('issued_by').references(() => users.id),
-  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
-  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
-  issuedAt: timestamp('issued_at', { withTimezone: true }),
-}, table => [index('briefings_site_idx').on(table.siteId), index('briefings_organisation_idx').on(table.organisationId)])
+export const briefings = pgTable(
+  'briefings',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    organisationId: uuid('organisation_id')
+      .notNull()
+      .references(() => organisations.id),
+    siteId: uuid('site_id')
+      .notNull()
+      .references(() => sites.id, { onDelete: 'cascade' }),
+    /** The outlook it is issued from, then those compared with it (other scenarios). */
+    outlookIds: jsonb('outlook_ids').$type<string[]>().notNull(),
+    version: integer('version').notNull().default(1),
+    previousId: uuid('previous_id'),
+    state: briefingStateEnum('state').notNull().default('draft'),
+    title: text('title').notNull(),
+    audience: text('audience').notNull().default(''),
+    localContext: text('local_context').notNull().default(''),
+    language: text('language').$type<Language>().notNull(),
+    units: text('units').$type<HeightUnit>().notNull(),
+    thresholdIds: jsonb('threshold_ids').$type<string[]>().notNull(),
+    years: jsonb('years').$type<number[]>().notNull(),
+    /** The frozen document (shared/briefing/document.ts), written when issued. */
+    document: jsonb('document').$type<BriefingDocument>(),
+    shareToken: text('share_token').unique(),
+    createdBy: uuid('created_by')
+      .notNull()
+      .references(() => users.id),
+    issuedBy: uuid('issued_by').references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+    issuedAt: timestamp('issued_at', { withTimezone: true }),
+  },
+  table => [index('briefings_site_idx').on(table.siteId), index('briefings_organisation_idx').on(table.organisationId)],
+)
 
 // ---- Mail: the outbox, the local stand-in's mailbox, watches, invitations, password resets ----
 

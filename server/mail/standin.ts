@@ -17,8 +17,16 @@ export async function startStandInSmtp(db: Database, port = 0): Promise<{ port: 
       stream.on('data', (chunk: Buffer) => chunks.push(chunk))
       stream.on('end', () => {
         const envelopeFrom = session.envelope.mailFrom ? session.envelope.mailFrom.address : ''
-        db.insert(mailbox).values({ envelopeFrom, envelopeTo: session.envelope.rcptTo.map(r => r.address), raw: Buffer.concat(chunks).toString('utf8') })
-          .then(() => callback(), error => callback(error as Error))
+        db.insert(mailbox)
+          .values({
+            envelopeFrom,
+            envelopeTo: session.envelope.rcptTo.map(r => r.address),
+            raw: Buffer.concat(chunks).toString('utf8'),
+          })
+          .then(
+            () => callback(),
+            error => callback(error as Error),
+          )
       })
     },
   })

@@ -17,7 +17,8 @@ const PLACEHOLDER = /\s*'nonce-\{\{nonce\}\}'/g
 
 function withoutPlaceholder(res: ServerResponse) {
   const policy = res.getHeader('content-security-policy')
-  if (typeof policy === 'string' && policy.includes('{{nonce}}')) res.setHeader('content-security-policy', policy.replace(PLACEHOLDER, ''))
+  if (typeof policy === 'string' && policy.includes('{{nonce}}'))
+    res.setHeader('content-security-policy', policy.replace(PLACEHOLDER, ''))
 }
 
 export default defineEventHandler((event) => {

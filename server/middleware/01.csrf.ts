@@ -29,6 +29,10 @@ export default defineEventHandler((event) => {
   }
   const origin = getRequestHeader(event, 'origin')
   if (origin === undefined) return
-  const own = [new URL(appUrl()).origin, getRequestURL(event, { xForwardedHost: serverConfig().TRUST_PROXY, xForwardedProto: serverConfig().TRUST_PROXY }).origin]
+  const own = [
+    new URL(appUrl()).origin,
+    getRequestURL(event, { xForwardedHost: serverConfig().TRUST_PROXY, xForwardedProto: serverConfig().TRUST_PROXY })
+      .origin,
+  ]
   if (!own.includes(origin)) throw refuse()
 })

@@ -22,7 +22,8 @@ const DECADE = 10
  */
 export function outlookYears(referenceEpoch: number, horizon: number) {
   const years = [referenceEpoch]
-  for (let year = Math.floor(referenceEpoch / DECADE) * DECADE + DECADE; year <= horizon; year += DECADE) years.push(year)
+  for (let year = Math.floor(referenceEpoch / DECADE) * DECADE + DECADE; year <= horizon; year += DECADE)
+    years.push(year)
   return years
 }
 
@@ -32,7 +33,9 @@ export function outlookYears(referenceEpoch: number, horizon: number) {
  * of a Gumbel fit correlate by about 0.3 [memory: asymptotic covariance of the Gumbel MLE]).
  */
 function fitUncertainty(site: Site) {
-  return site.gumbelLocationSe !== null && site.gumbelScaleSe !== null ? { locationSe: site.gumbelLocationSe, scaleSe: site.gumbelScaleSe } : {}
+  return site.gumbelLocationSe !== null && site.gumbelScaleSe !== null
+    ? { locationSe: site.gumbelLocationSe, scaleSe: site.gumbelScaleSe }
+    : {}
 }
 
 /**
@@ -42,10 +45,22 @@ function fitUncertainty(site: Site) {
  */
 function refuseFloodLevelsWithoutStatistics(site: Site, hasStatistics: boolean) {
   if (hasStatistics) return
-  const issues = site.thresholds.flatMap((t, index) => t.kind === 'flood-level'
-    ? [{ field: `thresholds.${index}.kind`, message: `The flood level "${t.label}" is compared with the total water level and needs the site's extreme-water statistics (Gumbel location and scale); enter them on the site, or make it a mean-sea-level threshold.` }]
-    : [])
-  if (issues.length) throw createError({ statusCode: 400, message: issues.map(issue => `${issue.field}: ${issue.message}`).join(' '), data: { issues } })
+  const issues = site.thresholds.flatMap((t, index) =>
+    t.kind === 'flood-level'
+      ? [
+          {
+            field: `thresholds.${index}.kind`,
+            message: `The flood level "${t.label}" is compared with the total water level and needs the site's extreme-water statistics (Gumbel location and scale); enter them on the site, or make it a mean-sea-level threshold.`,
+          },
+        ]
+      : [],
+  )
+  if (issues.length)
+    throw createError({
+      statusCode: 400,
+      message: issues.map(issue => `${issue.field}: ${issue.message}`).join(' '),
+      data: { issues },
+    })
 }
 
 /** Everything that goes into one run, with the provenance stored beside it. */
@@ -54,7 +69,8 @@ export async function assembleOutlook(site: Site, request: OutlookRequest) {
   const components = science.map(s => s.component)
   const adoptedSeries = Object.fromEntries(science.map(s => [s.component, s.seriesId]))
   const [{ set, matrix, otherSeries }, scales] = await Promise.all([
-    correlationFor(site.organisationId, request.scenario, components, adoptedSeries), scaleFactorsAt(site.latitude, site.longitude),
+    correlationFor(site.organisationId, request.scenario, components, adoptedSeries),
+    scaleFactorsAt(site.latitude, site.longitude),
   ])
   const horizon = minOf(science.map(s => (s.release.anchorYears as number[]).at(-1)!))
   const baselineYear = site.referenceEpoch
@@ -76,9 +92,17 @@ export async function assembleOutlook(site: Site, request: OutlookRequest) {
     seed: request.seed,
     // A published release passed the engine's release checks when it was approved; validateOutlookInput
     // below checks the whole input again before anything is stored.
-    components: science.map(s => ({ key: s.component, scale: scales.get(s.component)!.factor, release: s.release as ReleaseInput })),
+    components: science.map(s => ({
+      key: s.component,
+      scale: scales.get(s.component)!.factor,
+      release: s.release as ReleaseInput,
+    })),
     ...(matrix ? { correlation: matrix } : {}),
-    landMotion: { rateMmPerYear: site.landMotionRate, sigmaMmPerYear: site.landMotionSigma, epoch: site.landMotionEpoch },
+    landMotion: {
+      rateMmPerYear: site.landMotionRate,
+      sigmaMmPerYear: site.landMotionSigma,
+      epoch: site.landMotionEpoch,
+    },
     heights: HEIGHT_GRID,
     thresholds: site.thresholds.flatMap((t) => {
       const base = { key: t.id, height: aboveEpochMean(t.height), kind: t.kind }
@@ -90,14 +114,29 @@ export async function assembleOutlook(site: Site, request: OutlookRequest) {
       }
       return [{ ...base, designLifeYears: t.designLifeYears, lifeStartYear: t.buildYear }]
     }),
-    ...(hasStatistics ? { gumbel: { location: aboveEpochMean(site.gumbelLocation!), scale: site.gumbelScale!, ...fitUncertainty(site) } } : {}),
+    ...(hasStatistics
+      ? {
+          gumbel: { location: aboveEpochMean(site.gumbelLocation!), scale: site.gumbelScale!, ...fitUncertainty(site) },
+        }
+      : {}),
     // Not read by the engine: how to state its heights above the site's datum (part of the hash, so a
     // changed datum is a changed outlook).
-    datum: { name: site.referenceLevel, kind: site.datumKind, offset: site.datumOffset, referenceEpoch: site.referenceEpoch } satisfies OutlookDatum,
+    datum: {
+      name: site.referenceLevel,
+      kind: site.datumKind,
+      offset: site.datumOffset,
+      referenceEpoch: site.referenceEpoch,
+    } satisfies OutlookDatum,
   }
   const releaseRefs: OutlookReleaseRef[] = science.map(s => ({
-    component: s.component, releaseId: s.releaseId, seriesId: s.seriesId, version: s.version, citation: s.citation, title: s.title,
-    scale: scales.get(s.component)!.factor, scaleSource: scales.get(s.component)!.note,
+    component: s.component,
+    releaseId: s.releaseId,
+    seriesId: s.seriesId,
+    version: s.version,
+    citation: s.citation,
+    title: s.title,
+    scale: scales.get(s.component)!.factor,
+    scaleSource: scales.get(s.component)!.note,
   }))
   // Refuse a run the engine would refuse before anything is stored.
   asBadRequest(() => validateOutlookInput(input))

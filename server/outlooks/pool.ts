@@ -1,6 +1,13 @@
 import { dirname, join } from 'node:path'
 import { Worker } from 'node:worker_threads'
-import { finishOutlook, mergePartials, planOutlook, type OutlookPartial, type OutlookPlan, type OutlookResult } from '#shared/engine'
+import {
+  finishOutlook,
+  mergePartials,
+  planOutlook,
+  type OutlookPartial,
+  type OutlookPlan,
+  type OutlookResult,
+} from '#shared/engine'
 
 // Outlooks run off the request thread on a small pool of worker threads. Every free thread joins the
 // oldest job and claims its blocks one at a time from a counter the threads share, so a thread that
@@ -61,7 +68,17 @@ class OutlookPool {
   run(plan: OutlookPlan, onProgress: (fraction: number) => void = () => {}): Promise<OutlookResult> {
     return new Promise((resolve, reject) => {
       const nextBlock = new Int32Array(new SharedArrayBuffer(Int32Array.BYTES_PER_ELEMENT))
-      this.jobs.push({ id: this.nextJobId++, plan, nextBlock, partials: [], working: new Set(), sentTo: new Set(), onProgress, resolve, reject })
+      this.jobs.push({
+        id: this.nextJobId++,
+        plan,
+        nextBlock,
+        partials: [],
+        working: new Set(),
+        sentTo: new Set(),
+        onProgress,
+        resolve,
+        reject,
+      })
       this.dispatch()
       this.progressTimer ??= setInterval(() => this.reportProgress(), PROGRESS_EVERY_MS).unref()
     })

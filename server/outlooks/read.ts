@@ -6,7 +6,14 @@ import { storylineBasis, type StorylineBasis } from '#shared/storylines/rise'
 import type { CurrentUser } from '../utils/auth'
 import { preparedQuery } from '../utils/prepared-query'
 import { sharedReads } from '../utils/shared-reads'
-import { acceptsGzip, gzipJsonBytes, jsonBytes, sendJsonBytes, sendNotModified, type JsonBytes } from '../utils/json-bytes'
+import {
+  acceptsGzip,
+  gzipJsonBytes,
+  jsonBytes,
+  sendJsonBytes,
+  sendNotModified,
+  type JsonBytes,
+} from '../utils/json-bytes'
 
 type OutlookRow = typeof outlooks.$inferSelect
 
@@ -40,7 +47,14 @@ const loading = new Map<string, Promise<ReadableOutlook | undefined>>()
 const MAX_FINISHED = 50
 
 function stored(row: OutlookRow): StoredOutlook {
-  const { claimedBy: _claimedBy, claimedAt: _claimedAt, leaseUntil: _leaseUntil, attempts: _attempts, progress: _progress, ...rest } = row
+  const {
+    claimedBy: _claimedBy,
+    claimedAt: _claimedAt,
+    leaseUntil: _leaseUntil,
+    attempts: _attempts,
+    progress: _progress,
+    ...rest
+  } = row
   return rest
 }
 
@@ -88,8 +102,13 @@ export function loadOutlook(id: string): Promise<ReadableOutlook | undefined> {
 }
 
 /** What a reader needs of an outlook's site: who owns it, and the fields shown beside the outlook. */
-const siteQuery = preparedQuery(db => db.select({ name: sites.name, organisationId: sites.organisationId, referenceLevel: sites.referenceLevel })
-  .from(sites).where(eq(sites.id, sql.placeholder('siteId'))).prepare('outlook_site'))
+const siteQuery = preparedQuery(db =>
+  db
+    .select({ name: sites.name, organisationId: sites.organisationId, referenceLevel: sites.referenceLevel })
+    .from(sites)
+    .where(eq(sites.id, sql.placeholder('siteId')))
+    .prepare('outlook_site'),
+)
 const siteOfOutlook = sharedReads(async (siteId: string) => {
   const [site] = await (await siteQuery()).execute({ siteId })
   return site
@@ -98,7 +117,8 @@ const siteOfOutlook = sharedReads(async (siteId: string) => {
 /** The site of an outlook the user's organisation owns; 404 for any other, like a missing one. */
 export async function readableSite(user: CurrentUser, outlook: { siteId: string } | undefined) {
   const site = outlook && await siteOfOutlook(outlook.siteId)
-  if (!site || site.organisationId !== user.organisationId) throw createError({ statusCode: 404, message: 'No such outlook.' })
+  if (!site || site.organisationId !== user.organisationId)
+    throw createError({ statusCode: 404, message: 'No such outlook.' })
   return site
 }
 

@@ -48,16 +48,34 @@ async function claimOutlook() {
   return db.transaction(async (tx) => {
     for (const organisation of await organisationsInTurn(tx)) {
       const now = new Date()
-      const [due] = await tx.select({ id: outlooks.id }).from(outlooks)
-        .where(and(
-          eq(outlooks.state, 'running'), or(isNull(outlooks.leaseUntil), lt(outlooks.leaseUntil, now)),
-          inArray(outlooks.siteId, tx.select({ id: sites.id }).from(sites).where(eq(sites.organisationId, organisation))),
-        ))
-        .orderBy(asc(outlooks.createdAt)).limit(1).for('update', { skipLocked: true })
+      const [due] = await tx
+        .select({ id: outlooks.id })
+        .from(outlooks)
+        .where(
+          and(
+            eq(outlooks.state, 'running'),
+            or(isNull(outlooks.leaseUntil), lt(outlooks.leaseUntil, now)),
+            inArray(
+              outlooks.siteId,
+              tx.select({ id: sites.id }).from(sites).where(eq(sites.organisationId, organisation)),
+            ),
+          ),
+        )
+        .orderBy(asc(outlooks.createdAt))
+        .limit(1)
+        .for('update', { skipLocked: true })
       if (!due) continue
-      const [claimed] = await tx.update(outlooks)
-        .set({ claimedBy: INSTANCE_ID, claimedAt: now, leaseUntil: new Date(now.getTime() + jobLeaseMs()), attempts: sql`${outlooks.attempts} + 1`, progress: 0 })
-        .where(eq(outlooks.id, due.id)).returning()
+      const [claimed] = await tx
+        .update(outlooks)
+        .set({
+          claimedBy: INSTANCE_ID,
+          claimedAt: now,
+          leaseUntil: new Date(now.getTime() + jobLeaseMs()),
+          attempts: sql`${outlooks.attempts} + 1`,
+          progress: 0,
+        })
+        .where(eq(outlooks.id, due.id))
+        .returning()
       return claimed ?? null
     }
     return null
@@ -67,12 +85,21 @@ async function claimOutlook() {
 type ClaimedOutlook = NonNullable<Awaited<ReturnType<typeof claimOutlook>>>
 
 /** The update only lands while this instance still holds the outlook's lease. */
-const stillMine = (id: string) => and(eq(outlooks.id, id), eq(outlooks.state, 'running'), eq(outlooks.claimedBy, INSTANCE_ID))
+const stillMine = (id: string) =>
+  and(eq(outlooks.id, id), eq(outlooks.state, 'running'), eq(outlooks.claimedBy, INSTANCE_ID))
 
 async function compute(row: ClaimedOutlook) {
   const db = await useDb()
   if (row.attempts > MAX_OUTLOOK_ATTEMPTS) {
-    await db.update(outlooks).set({ state: 'failed', error: `The computation stopped ${row.attempts - 1} times before finishing; ask an administrator to look at the server's logs.`, finishedAt: new Date(), leaseUntil: null }).where(stillMine(row.id))
+    await db
+      .update(outlooks)
+      .set({
+        state: 'failed',
+        error: `The computation stopped ${row.attempts - 1} times before finishing; ask an administrator to look at the server's logs.`,
+        finishedAt: new Date(),
+        leaseUntil: null,
+      })
+      .where(stillMine(row.id))
     return
   }
   const started = performance.now()
@@ -81,24 +108,43 @@ async function compute(row: ClaimedOutlook) {
     // Progress for the outlook page, and a longer lease while the work goes on.
     if (performance.now() - lastBeat < 500) return
     lastBeat = performance.now()
-    db.update(outlooks).set({ progress: fraction, leaseUntil: new Date(Date.now() + jobLeaseMs()) }).where(stillMine(row.id))
+    db.update(outlooks)
+      .set({ progress: fraction, leaseUntil: new Date(Date.now() + jobLeaseMs()) })
+      .where(stillMine(row.id))
       .catch(error => console.error('[brinkwater] outlook heartbeat failed:', error))
   }
   try {
     const result: OutlookResult = await runOutlookOffThread(row.input, heartbeat)
-    const labels = await db.select({ id: thresholds.id, label: thresholds.label }).from(thresholds).where(eq(thresholds.siteId, row.siteId))
+    const labels = await db
+      .select({ id: thresholds.id, label: thresholds.label })
+      .from(thresholds)
+      .where(eq(thresholds.siteId, row.siteId))
     await db.transaction(async (tx) => {
-      await tx.update(outlooks).set({
-        state: 'done', result, headline: headlineOf(result, new Map(labels.map(t => [t.id, t.label])), row.input.datum?.offset ?? 0),
-        durationMs: Math.round(performance.now() - started), finishedAt: new Date(), leaseUntil: null, progress: null,
-      }).where(stillMine(row.id))
+      await tx
+        .update(outlooks)
+        .set({
+          state: 'done',
+          result,
+          headline: headlineOf(result, new Map(labels.map(t => [t.id, t.label])), row.input.datum?.offset ?? 0),
+          durationMs: Math.round(performance.now() - started),
+          finishedAt: new Date(),
+          leaseUntil: null,
+          progress: null,
+        })
+        .where(stillMine(row.id))
       faultPoint('outlook-write')
     })
   }
   catch (error) {
-    const message = error instanceof EngineInputError ? error.message : 'The computation failed; try again, and tell an administrator if it keeps failing.'
+    const message
+      = error instanceof EngineInputError
+        ? error.message
+        : 'The computation failed; try again, and tell an administrator if it keeps failing.'
     if (!(error instanceof EngineInputError)) console.error('[brinkwater] outlook failed', error)
-    await db.update(outlooks).set({ state: 'failed', error: message, finishedAt: new Date(), leaseUntil: null, progress: null }).where(stillMine(row.id))
+    await db
+      .update(outlooks)
+      .set({ state: 'failed', error: message, finishedAt: new Date(), leaseUntil: null, progress: null })
+      .where(stillMine(row.id))
   }
   finally {
     finished.emit(row.id)

@@ -11,9 +11,20 @@ import { storylinesAt } from './storylines'
 // published storylines of its scenario. Read fresh on every request; the page polls it while running.
 
 /** While running, only the small columns: the page asks for them twice a second. */
-const progressQuery = preparedQuery(db => db.select({
-  id: outlooks.id, siteId: outlooks.siteId, scenario: outlooks.scenario, state: outlooks.state, progress: outlooks.progress, releaseRefs: outlooks.releaseRefs,
-}).from(outlooks).where(eq(outlooks.id, sql.placeholder('id'))).prepare('outlook_progress'))
+const progressQuery = preparedQuery(db =>
+  db
+    .select({
+      id: outlooks.id,
+      siteId: outlooks.siteId,
+      scenario: outlooks.scenario,
+      state: outlooks.state,
+      progress: outlooks.progress,
+      releaseRefs: outlooks.releaseRefs,
+    })
+    .from(outlooks)
+    .where(eq(outlooks.id, sql.placeholder('id')))
+    .prepare('outlook_progress'),
+)
 
 async function liveOutlook(id: string) {
   const kept = keptOutlook(id)

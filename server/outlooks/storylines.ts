@@ -13,7 +13,10 @@ export interface OutlookStoryline extends BriefingStoryline { id: string }
  * The scenario's published storylines placed at the outlook's site: read fresh on every request (a
  * storyline published later appears beside an outlook computed earlier), never part of the outlook.
  */
-export async function storylinesAt(outlook: { scenario: string, storylineBasis: StorylineBasis | null }): Promise<OutlookStoryline[]> {
+export async function storylinesAt(outlook: {
+  scenario: string
+  storylineBasis: StorylineBasis | null
+}): Promise<OutlookStoryline[]> {
   if (!outlook.storylineBasis) return []
   const published = await storylinesOfScenario(outlook.scenario)
   return published.map(({ baselineYear, anchorYears, values, ...about }) => ({

@@ -19,7 +19,9 @@ parentPort!.on('message', (request: JobRequest) => {
     if (request.plan) current = { jobId: request.jobId, plan: request.plan }
     if (!current || current.jobId !== request.jobId) throw new Error(`No plan for job ${request.jobId}`)
     const partial = runClaimedBlocks(current.plan, claimFromCounter(request.nextBlock, current.plan.blockCount))
-    const buffers = Object.values(partial).filter(ArrayBuffer.isView).map(view => (view as Float64Array).buffer as ArrayBuffer)
+    const buffers = Object.values(partial)
+      .filter(ArrayBuffer.isView)
+      .map(view => (view as Float64Array).buffer as ArrayBuffer)
     parentPort!.postMessage({ jobId: request.jobId, partial }, buffers)
   }
   catch (error) {

@@ -11,17 +11,29 @@ const DEMO_SCENARIOS = ['SSP2-4.5', 'SSP5-8.5']
 
 export default defineNitroPlugin(() => {
   if (!serverConfig().SEED_DEMO || !serverConfig().PRECOMPUTE_DEMO_OUTLOOKS) return
-  precompute().catch(error => console.error('[brinkwater] Demo outlooks were not precomputed:', error instanceof Error ? error.message : error))
+  precompute().catch(error =>
+    console.error('[brinkwater] Demo outlooks were not precomputed:', error instanceof Error ? error.message : error),
+  )
 })
 
 async function precompute() {
   const db = await useDb()
-  const pending = await db.select({ id: sites.id, organisationId: sites.organisationId }).from(sites)
+  const pending = await db
+    .select({ id: sites.id, organisationId: sites.organisationId })
+    .from(sites)
     .innerJoin(organisations, eq(organisations.id, sites.organisationId))
-    .where(and(eq(organisations.illustrative, true), notExists(db.select({ id: outlooks.id }).from(outlooks).where(eq(outlooks.siteId, sites.id)))))
+    .where(
+      and(
+        eq(organisations.illustrative, true),
+        notExists(db.select({ id: outlooks.id }).from(outlooks).where(eq(outlooks.siteId, sites.id))),
+      ),
+    )
   for (const site of pending) {
-    const [planner] = await db.select({ id: users.id }).from(users)
-      .where(and(eq(users.organisationId, site.organisationId), eq(users.role, 'planner'), eq(users.disabled, false))).limit(1)
+    const [planner] = await db
+      .select({ id: users.id })
+      .from(users)
+      .where(and(eq(users.organisationId, site.organisationId), eq(users.role, 'planner'), eq(users.disabled, false)))
+      .limit(1)
     const user = planner && await loadSessionUser(planner.id)
     if (!user) continue
     const outlookIds: string[] = []
@@ -35,12 +47,22 @@ async function precompute() {
   if (pending.length) console.info(`[brinkwater] Precomputed demo outlooks for ${pending.length} sites.`)
 }
 
-async function issueDemoBriefing(user: NonNullable<Awaited<ReturnType<typeof loadSessionUser>>>, siteId: string, [outlookId, ...comparisonOutlookIds]: string[]) {
+async function issueDemoBriefing(
+  user: NonNullable<Awaited<ReturnType<typeof loadSessionUser>>>,
+  siteId: string,
+  [outlookId, ...comparisonOutlookIds]: string[],
+) {
   const site = await loadSite(user, siteId)
   const draft = await createBriefing(user, {
-    outlookId: outlookId!, comparisonOutlookIds, title: `${site.name}: sea level to 2100 (illustrative)`,
-    audience: 'Councillors and the public (demo)', localContext: `An illustrative briefing for the invented town of ${site.name}.`,
-    language: user.locale, units: 'm', thresholdIds: site.thresholds.map(t => t.id), years: [2050, 2100],
+    outlookId: outlookId!,
+    comparisonOutlookIds,
+    title: `${site.name}: sea level to 2100 (illustrative)`,
+    audience: 'Councillors and the public (demo)',
+    localContext: `An illustrative briefing for the invented town of ${site.name}.`,
+    language: user.locale,
+    units: 'm',
+    thresholdIds: site.thresholds.map(t => t.id),
+    years: [2050, 2100],
   })
   await issueBriefing(user, draft.id)
   // One demo briefing is shared, so the public link can be tried without signing in.

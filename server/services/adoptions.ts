@@ -1,5 +1,13 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm'
-import { correlationAdoptions, correlationSets, organisations, releases, series, seriesAdoptions, users } from '~~/server/db/schema'
+import {
+  correlationAdoptions,
+  correlationSets,
+  organisations,
+  releases,
+  series,
+  seriesAdoptions,
+  users,
+} from '~~/server/db/schema'
 import type { AdoptionInput } from '#shared/schemas/adoptions'
 import { COMPONENTS } from '#shared/types/science'
 import type { CurrentUser } from '../utils/auth'
@@ -18,34 +26,75 @@ import { sharedReads } from '../utils/shared-reads'
 /** Every series of a scenario with a published version, oldest first publication first. */
 export async function publishedSeries(scenario: string) {
   const db = await useDb()
-  return db.select({
-    seriesId: series.id, component: series.component, title: series.title, organisationId: series.organisationId, organisationName: organisations.name,
-    releaseId: releases.id, version: releases.version, anchorYears: releases.anchorYears,
-  }).from(releases).innerJoin(series, eq(series.id, releases.seriesId)).innerJoin(organisations, eq(organisations.id, series.organisationId))
+  return db
+    .select({
+      seriesId: series.id,
+      component: series.component,
+      title: series.title,
+      organisationId: series.organisationId,
+      organisationName: organisations.name,
+      releaseId: releases.id,
+      version: releases.version,
+      anchorYears: releases.anchorYears,
+    })
+    .from(releases)
+    .innerJoin(series, eq(series.id, releases.seriesId))
+    .innerJoin(organisations, eq(organisations.id, series.organisationId))
     .where(and(eq(series.scenario, scenario), eq(releases.state, 'published')))
-    .orderBy(sql`(select min(earliest.published_at) from releases earliest where earliest.series_id = ${series.id})`, asc(series.createdAt), asc(series.id))
+    .orderBy(
+      sql`(select min(earliest.published_at) from releases earliest where earliest.series_id = ${series.id})`,
+      asc(series.createdAt),
+      asc(series.id),
+    )
 }
 export type PublishedSeries = Awaited<ReturnType<typeof publishedSeries>>[number]
 
 /** Published correlation sets of a scenario (one per publishing organisation), oldest series first. */
 export async function publishedCorrelationSets(scenario: string) {
   const db = await useDb()
-  return db.select({
-    id: correlationSets.id, organisationId: correlationSets.organisationId, organisationName: organisations.name, title: correlationSets.title,
-    version: correlationSets.version, components: correlationSets.components, madeForSeries: correlationSets.madeForSeries,
-  }).from(correlationSets).innerJoin(organisations, eq(organisations.id, correlationSets.organisationId))
+  return db
+    .select({
+      id: correlationSets.id,
+      organisationId: correlationSets.organisationId,
+      organisationName: organisations.name,
+      title: correlationSets.title,
+      version: correlationSets.version,
+      components: correlationSets.components,
+      madeForSeries: correlationSets.madeForSeries,
+    })
+    .from(correlationSets)
+    .innerJoin(organisations, eq(organisations.id, correlationSets.organisationId))
     .where(and(eq(correlationSets.scenario, scenario), eq(correlationSets.state, 'published')))
-    .orderBy(sql`(select min(earliest.published_at) from correlation_sets earliest where earliest.organisation_id = ${correlationSets.organisationId} and earliest.scenario = ${correlationSets.scenario})`, asc(correlationSets.organisationId))
+    .orderBy(
+      sql`(select min(earliest.published_at) from correlation_sets earliest where earliest.organisation_id = ${correlationSets.organisationId} and earliest.scenario = ${correlationSets.scenario})`,
+      asc(correlationSets.organisationId),
+    )
 }
 
-/** What an organisation adopted for a scenario: component → series id, and the correlation choice (undefined: none made). */
+/**
+ * What an organisation adopted for a scenario: component → series id, and the correlation choice (undefined: none
+ * made).
+ */
 export async function adoptionOf(organisationId: string, scenario: string) {
   const db = await useDb()
   const [rows, [correlation]] = await Promise.all([
-    db.select({ component: seriesAdoptions.component, seriesId: seriesAdoptions.seriesId, adoptedBy: seriesAdoptions.adoptedBy, adoptedAt: seriesAdoptions.adoptedAt })
-      .from(seriesAdoptions).where(and(eq(seriesAdoptions.organisationId, organisationId), eq(seriesAdoptions.scenario, scenario))),
-    db.select({ source: correlationAdoptions.sourceOrganisationId, adoptedBy: correlationAdoptions.adoptedBy, adoptedAt: correlationAdoptions.adoptedAt })
-      .from(correlationAdoptions).where(and(eq(correlationAdoptions.organisationId, organisationId), eq(correlationAdoptions.scenario, scenario))),
+    db
+      .select({
+        component: seriesAdoptions.component,
+        seriesId: seriesAdoptions.seriesId,
+        adoptedBy: seriesAdoptions.adoptedBy,
+        adoptedAt: seriesAdoptions.adoptedAt,
+      })
+      .from(seriesAdoptions)
+      .where(and(eq(seriesAdoptions.organisationId, organisationId), eq(seriesAdoptions.scenario, scenario))),
+    db
+      .select({
+        source: correlationAdoptions.sourceOrganisationId,
+        adoptedBy: correlationAdoptions.adoptedBy,
+        adoptedAt: correlationAdoptions.adoptedAt,
+      })
+      .from(correlationAdoptions)
+      .where(and(eq(correlationAdoptions.organisationId, organisationId), eq(correlationAdoptions.scenario, scenario))),
   ])
   return { series: new Map(rows.map(row => [row.component, row])), correlation }
 }
@@ -54,7 +103,13 @@ export async function adoptionOf(organisationId: string, scenario: string) {
 export const adoptedForReading = sharedReads(async (key: string) => {
   const [organisationId, scenario] = key.split('\n') as [string, string]
   const [adoption, published] = await Promise.all([adoptionOf(organisationId, scenario), publishedSeries(scenario)])
-  return { adopted: Object.fromEntries([...adoption.series].map(([component, row]) => [component, row.seriesId])) as Record<string, string>, published }
+  return {
+    adopted: Object.fromEntries([...adoption.series].map(([component, row]) => [component, row.seriesId])) as Record<
+      string,
+      string
+    >,
+    published,
+  }
 })
 
 /**
@@ -72,18 +127,42 @@ export async function ensureAdoption(organisationId: string, scenario: string) {
   if (COMPONENTS.some(component => !first.has(component))) return
   const [set] = await publishedCorrelationSets(scenario)
   await db.transaction(async (tx) => {
-    const adopted = await tx.insert(seriesAdoptions).values([...first.values()].map(row => ({ organisationId, scenario, component: row.component, seriesId: row.seriesId })))
-      .onConflictDoNothing().returning({ component: seriesAdoptions.component })
-    await tx.insert(correlationAdoptions).values({ organisationId, scenario, sourceOrganisationId: set?.organisationId ?? null }).onConflictDoNothing()
+    const adopted = await tx
+      .insert(seriesAdoptions)
+      .values(
+        [...first.values()].map(row => ({
+          organisationId,
+          scenario,
+          component: row.component,
+          seriesId: row.seriesId,
+        })),
+      )
+      .onConflictDoNothing()
+      .returning({ component: seriesAdoptions.component })
+    await tx
+      .insert(correlationAdoptions)
+      .values({ organisationId, scenario, sourceOrganisationId: set?.organisationId ?? null })
+      .onConflictDoNothing()
     if (adopted.length) {
-      await writeAudit(tx, null, 'science.adopted', { type: 'organisation', id: organisationId }, {
-        scenario, automatic: true, series: Object.fromEntries([...first].map(([component, row]) => [component, row.seriesId])), correlation: set?.organisationId ?? null,
-      }, organisationId)
+      await writeAudit(
+        tx,
+        null,
+        'science.adopted',
+        { type: 'organisation', id: organisationId },
+        {
+          scenario,
+          automatic: true,
+          series: Object.fromEntries([...first].map(([component, row]) => [component, row.seriesId])),
+          correlation: set?.organisationId ?? null,
+        },
+        organisationId,
+      )
     }
   })
 }
 
-const describeSeries = (row: Pick<PublishedSeries, 'title' | 'organisationName'>) => `"${row.title}" (${row.organisationName})`
+const describeSeries = (row: Pick<PublishedSeries, 'title' | 'organisationName'>) =>
+  `"${row.title}" (${row.organisationName})`
 
 /**
  * The published release of every component in the series the organisation adopted for a scenario.
@@ -92,24 +171,36 @@ const describeSeries = (row: Pick<PublishedSeries, 'title' | 'organisationName'>
  */
 export async function adoptedReleases(organisationId: string, scenario: string) {
   await ensureAdoption(organisationId, scenario)
-  const [{ series: adopted }, published] = await Promise.all([adoptionOf(organisationId, scenario), publishedSeries(scenario)])
+  const [{ series: adopted }, published] = await Promise.all([
+    adoptionOf(organisationId, scenario),
+    publishedSeries(scenario),
+  ])
   if (!adopted.size) {
     const missing = COMPONENTS.filter(component => !published.some(row => row.component === component))
-    throw createError({ statusCode: 400, message: `scenario: No published release for ${missing.join(', ')} under ${scenario}. Choose another scenario, or ask an analyst to publish ${missing.length > 1 ? 'them' : 'it'}.` })
+    throw createError({
+      statusCode: 400,
+      message: `scenario: No published release for ${missing.join(', ')} under ${scenario}. Choose another scenario, or ask an analyst to publish ${missing.length > 1 ? 'them' : 'it'}.`,
+    })
   }
   const problems: string[] = []
   const chosen = new Map<string, PublishedSeries>()
   for (const component of COMPONENTS) {
     const offers = published.filter(row => row.component === component)
-    const available = offers.length ? ` Published series to choose from: ${offers.map(describeSeries).join(', ')}.` : ` No series of ${component} is published under ${scenario} yet; ask an analyst to publish one.`
+    const available = offers.length
+      ? ` Published series to choose from: ${offers.map(describeSeries).join(', ')}.`
+      : ` No series of ${component} is published under ${scenario} yet; ask an analyst to publish one.`
     const choice = adopted.get(component)
     if (!choice) {
-      problems.push(`Your organisation has adopted no series of ${component} for ${scenario}: adopt one on the science adoption page (Science adopted, /adoption).${available}`)
+      problems.push(
+        `Your organisation has adopted no series of ${component} for ${scenario}: adopt one on the science adoption page (Science adopted, /adoption).${available}`,
+      )
       continue
     }
     const current = offers.find(row => row.seriesId === choice.seriesId)
     if (!current) {
-      problems.push(`The series your organisation adopted for ${component} under ${scenario} has no published version now (withdrawn): adopt another on the science adoption page (/adoption), or ask its analysts to publish a new version.${available}`)
+      problems.push(
+        `The series your organisation adopted for ${component} under ${scenario} has no published version now (withdrawn): adopt another on the science adoption page (/adoption), or ask its analysts to publish a new version.${available}`,
+      )
       continue
     }
     chosen.set(component, current)
@@ -122,30 +213,69 @@ export async function adoptedReleases(organisationId: string, scenario: string) 
 export async function adoptionView(viewer: CurrentUser, organisationId: string) {
   assertSameOrganisation(viewer, organisationId, 'organisation')
   const db = await useDb()
-  const scenarios = new Set((await db.selectDistinct({ scenario: series.scenario }).from(series).innerJoin(releases, eq(releases.seriesId, series.id))
-    .where(eq(releases.state, 'published'))).map(row => row.scenario))
-  for (const row of await db.selectDistinct({ scenario: seriesAdoptions.scenario }).from(seriesAdoptions).where(eq(seriesAdoptions.organisationId, organisationId))) scenarios.add(row.scenario)
-  return { organisationId, scenarios: await Promise.all([...scenarios].sort().map(scenario => scenarioView(organisationId, scenario))) }
+  const scenarios = new Set(
+    (
+      await db
+        .selectDistinct({ scenario: series.scenario })
+        .from(series)
+        .innerJoin(releases, eq(releases.seriesId, series.id))
+        .where(eq(releases.state, 'published'))
+    ).map(row => row.scenario),
+  )
+  for (const row of await db
+    .selectDistinct({ scenario: seriesAdoptions.scenario })
+    .from(seriesAdoptions)
+    .where(eq(seriesAdoptions.organisationId, organisationId)))
+    scenarios.add(row.scenario)
+  return {
+    organisationId,
+    scenarios: await Promise.all([...scenarios].sort().map(scenario => scenarioView(organisationId, scenario))),
+  }
 }
 
 async function namesOf(ids: string[]) {
   if (!ids.length) return new Map<string, string>()
   const db = await useDb()
-  return new Map((await db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, ids))).map(row => [row.id, row.name]))
+  return new Map(
+    (await db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, ids))).map(row => [
+      row.id,
+      row.name,
+    ]),
+  )
 }
 
 /** One scenario's adoption: per component the adopted series and those offered; the correlation choice; warnings. */
 export async function scenarioView(organisationId: string, scenario: string) {
   const db = await useDb()
-  const [adoption, published, sets] = await Promise.all([adoptionOf(organisationId, scenario), publishedSeries(scenario), publishedCorrelationSets(scenario)])
-  const people = await namesOf([...adoption.series.values(), adoption.correlation].flatMap(row => row?.adoptedBy ? [row.adoptedBy] : []))
+  const [adoption, published, sets] = await Promise.all([
+    adoptionOf(organisationId, scenario),
+    publishedSeries(scenario),
+    publishedCorrelationSets(scenario),
+  ])
+  const people = await namesOf(
+    [...adoption.series.values(), adoption.correlation].flatMap(row => (row?.adoptedBy ? [row.adoptedBy] : [])),
+  )
   const adoptedSeriesIds = [...adoption.series.values()].map(row => row.seriesId)
   // An adopted series without a published version still has a title to show.
-  const titles = new Map(adoptedSeriesIds.length
-    ? (await db.select({ id: series.id, title: series.title, organisationName: organisations.name }).from(series)
-        .innerJoin(organisations, eq(organisations.id, series.organisationId)).where(inArray(series.id, adoptedSeriesIds))).map(row => [row.id, row])
-    : [])
-  const offer = (row: PublishedSeries) => ({ seriesId: row.seriesId, title: row.title, organisationName: row.organisationName, version: row.version, releaseId: row.releaseId, anchorYears: row.anchorYears })
+  const titles = new Map(
+    adoptedSeriesIds.length
+      ? (
+          await db
+            .select({ id: series.id, title: series.title, organisationName: organisations.name })
+            .from(series)
+            .innerJoin(organisations, eq(organisations.id, series.organisationId))
+            .where(inArray(series.id, adoptedSeriesIds))
+        ).map(row => [row.id, row])
+      : [],
+  )
+  const offer = (row: PublishedSeries) => ({
+    seriesId: row.seriesId,
+    title: row.title,
+    organisationName: row.organisationName,
+    version: row.version,
+    releaseId: row.releaseId,
+    anchorYears: row.anchorYears,
+  })
   const components = COMPONENTS.map((component) => {
     const choice = adoption.series.get(component)
     const current = choice && published.find(row => row.seriesId === choice.seriesId)
@@ -153,15 +283,32 @@ export async function scenarioView(organisationId: string, scenario: string) {
     return {
       component,
       adopted: choice
-        ? { seriesId: choice.seriesId, title: named?.title ?? '', organisationName: named?.organisationName ?? '', version: current?.version ?? null, releaseId: current?.releaseId ?? null,
-            anchorYears: current?.anchorYears ?? null, adoptedAt: choice.adoptedAt, adoptedBy: choice.adoptedBy ? people.get(choice.adoptedBy) ?? null : null, automatic: !choice.adoptedBy }
+        ? {
+            seriesId: choice.seriesId,
+            title: named?.title ?? '',
+            organisationName: named?.organisationName ?? '',
+            version: current?.version ?? null,
+            releaseId: current?.releaseId ?? null,
+            anchorYears: current?.anchorYears ?? null,
+            adoptedAt: choice.adoptedAt,
+            adoptedBy: choice.adoptedBy ? (people.get(choice.adoptedBy) ?? null) : null,
+            automatic: !choice.adoptedBy,
+          }
         : null,
       available: published.filter(row => row.component === component && row.seriesId !== choice?.seriesId).map(offer),
     }
   })
   const source = adoption.correlation?.source ?? null
   const adoptedSet = source ? sets.find(set => set.organisationId === source) : undefined
-  const setView = (set: typeof sets[number]) => ({ organisationId: set.organisationId, organisationName: set.organisationName, id: set.id, title: set.title, version: set.version, components: set.components, madeForSeries: set.madeForSeries })
+  const setView = (set: (typeof sets)[number]) => ({
+    organisationId: set.organisationId,
+    organisationName: set.organisationName,
+    id: set.id,
+    title: set.title,
+    version: set.version,
+    components: set.components,
+    madeForSeries: set.madeForSeries,
+  })
   const adoptedIds = Object.fromEntries([...adoption.series].map(([component, row]) => [component, row.seriesId]))
   return {
     scenario,
@@ -172,17 +319,22 @@ export async function scenarioView(organisationId: string, scenario: string) {
       adopted: adoptedSet ? setView(adoptedSet) : null,
       /** The adopted organisation's sets, none published now (withdrawn). */
       adoptedUnpublished: Boolean(source && !adoptedSet),
-      available: sets.filter(set => set.organisationId !== source).map(set => ({ ...setView(set), otherSeries: otherSeries(set.madeForSeries, adoptedIds) })),
+      available: sets
+        .filter(set => set.organisationId !== source)
+        .map(set => ({ ...setView(set), otherSeries: otherSeries(set.madeForSeries, adoptedIds) })),
       otherSeries: adoptedSet ? otherSeries(adoptedSet.madeForSeries, adoptedIds) : [],
       adoptedAt: adoption.correlation?.adoptedAt ?? null,
-      adoptedBy: adoption.correlation?.adoptedBy ? people.get(adoption.correlation.adoptedBy) ?? null : null,
+      adoptedBy: adoption.correlation?.adoptedBy ? (people.get(adoption.correlation.adoptedBy) ?? null) : null,
     },
   }
 }
 
 /** Components a correlation set was made for another series of than the one adopted (a warning, not a refusal). */
 export function otherSeries(madeFor: Record<string, string>, adopted: Record<string, string>) {
-  return Object.entries(madeFor).filter(([component, id]) => adopted[component] && adopted[component] !== id).map(([component]) => component).sort()
+  return Object.entries(madeFor)
+    .filter(([component, id]) => adopted[component] && adopted[component] !== id)
+    .map(([component]) => component)
+    .sort()
 }
 
 /**
@@ -195,18 +347,38 @@ export async function adopt(actor: CurrentUser, organisationId: string, input: A
   const published = await publishedSeries(input.scenario)
   const sets = await publishedCorrelationSets(input.scenario)
   if (!published.length) {
-    throw createError({ statusCode: 400, message: `scenario: Nothing is published under ${input.scenario}; choose a scenario from the list.`, data: { issues: [{ field: 'scenario', message: 'Choose a scenario from the list.' }] } })
+    throw createError({
+      statusCode: 400,
+      message: `scenario: Nothing is published under ${input.scenario}; choose a scenario from the list.`,
+      data: { issues: [{ field: 'scenario', message: 'Choose a scenario from the list.' }] },
+    })
   }
   const issues: Array<{ field: string, message: string }> = []
   for (const [component, id] of Object.entries(input.series ?? {})) {
     const row = published.find(p => p.seriesId === id)
-    if (!row) issues.push({ field: `series.${component}`, message: `No published series with this id under ${input.scenario}; choose one from the list.` })
-    else if (row.component !== component) issues.push({ field: `series.${component}`, message: `This series is of ${row.component}, not ${component}; choose a series of ${component}.` })
+    if (!row)
+      issues.push({
+        field: `series.${component}`,
+        message: `No published series with this id under ${input.scenario}; choose one from the list.`,
+      })
+    else if (row.component !== component)
+      issues.push({
+        field: `series.${component}`,
+        message: `This series is of ${row.component}, not ${component}; choose a series of ${component}.`,
+      })
   }
   if (input.correlation && !sets.some(set => set.organisationId === input.correlation)) {
-    issues.push({ field: 'correlation', message: `That organisation has no published correlation set under ${input.scenario}; choose one from the list, or none.` })
+    issues.push({
+      field: 'correlation',
+      message: `That organisation has no published correlation set under ${input.scenario}; choose one from the list, or none.`,
+    })
   }
-  if (issues.length) throw createError({ statusCode: 400, message: issues.map(i => `${i.field}: ${i.message}`).join(' '), data: { issues } })
+  if (issues.length)
+    throw createError({
+      statusCode: 400,
+      message: issues.map(i => `${i.field}: ${i.message}`).join(' '),
+      data: { issues },
+    })
 
   await ensureAdoption(organisationId, input.scenario)
   const before = await adoptionOf(organisationId, input.scenario)
@@ -218,18 +390,40 @@ export async function adopt(actor: CurrentUser, organisationId: string, input: A
       const was = before.series.get(component)?.seriesId ?? null
       if (was === seriesId) continue
       changes[component] = { from: was, to: seriesId }
-      await tx.insert(seriesAdoptions).values({ organisationId, scenario: input.scenario, component, seriesId, adoptedBy: actor.id, adoptedAt: now })
-        .onConflictDoUpdate({ target: [seriesAdoptions.organisationId, seriesAdoptions.scenario, seriesAdoptions.component], set: { seriesId, adoptedBy: actor.id, adoptedAt: now } })
+      await tx
+        .insert(seriesAdoptions)
+        .values({ organisationId, scenario: input.scenario, component, seriesId, adoptedBy: actor.id, adoptedAt: now })
+        .onConflictDoUpdate({
+          target: [seriesAdoptions.organisationId, seriesAdoptions.scenario, seriesAdoptions.component],
+          set: { seriesId, adoptedBy: actor.id, adoptedAt: now },
+        })
     }
     let correlation: { from: string | null, to: string | null } | undefined
     const was = before.correlation === undefined ? undefined : before.correlation.source
     if (input.correlation !== undefined && (was === undefined || was !== input.correlation)) {
       correlation = { from: was ?? null, to: input.correlation }
-      await tx.insert(correlationAdoptions).values({ organisationId, scenario: input.scenario, sourceOrganisationId: input.correlation, adoptedBy: actor.id, adoptedAt: now })
-        .onConflictDoUpdate({ target: [correlationAdoptions.organisationId, correlationAdoptions.scenario], set: { sourceOrganisationId: input.correlation, adoptedBy: actor.id, adoptedAt: now } })
+      await tx
+        .insert(correlationAdoptions)
+        .values({
+          organisationId,
+          scenario: input.scenario,
+          sourceOrganisationId: input.correlation,
+          adoptedBy: actor.id,
+          adoptedAt: now,
+        })
+        .onConflictDoUpdate({
+          target: [correlationAdoptions.organisationId, correlationAdoptions.scenario],
+          set: { sourceOrganisationId: input.correlation, adoptedBy: actor.id, adoptedAt: now },
+        })
     }
     if (Object.keys(changes).length || correlation) {
-      await writeAudit(tx, actor, 'science.adopted', { type: 'organisation', id: organisationId }, { scenario: input.scenario, series: changes, ...(correlation ? { correlation } : {}) })
+      await writeAudit(
+        tx,
+        actor,
+        'science.adopted',
+        { type: 'organisation', id: organisationId },
+        { scenario: input.scenario, series: changes, ...(correlation ? { correlation } : {}) },
+      )
     }
   })
   return scenarioView(organisationId, input.scenario)

@@ -16,7 +16,9 @@ export const MAX_JOB_ATTEMPTS = 5
 const HANDLERS: { [Kind in JobKind]: (payload: JobPayloads[Kind]) => Promise<JobOutcome> } = {
   'science-change': async ({ scenario, cause, requestedBy, seriesId, correlationSource }) => {
     const db = await useDb()
-    await db.transaction(tx => startRecomputation(tx, { scenario, cause, requestedBy: requestedBy ?? null, seriesId, correlationSource }))
+    await db.transaction(tx =>
+      startRecomputation(tx, { scenario, cause, requestedBy: requestedBy ?? null, seriesId, correlationSource }),
+    )
     return { state: 'done' }
   },
   'recompute-site': payload => recomputeSite(payload),
@@ -41,8 +43,11 @@ async function claimJob() {
       ))
       .orderBy(asc(jobs.runAfter)).limit(1).for('update', { skipLocked: true })
     if (!due) return null
-    const [claimed] = await tx.update(jobs).set({ state: 'running', claimedBy: INSTANCE_ID, leaseUntil: new Date(now.getTime() + jobLeaseMs()) })
-      .where(eq(jobs.id, due.id)).returning()
+    const [claimed] = await tx
+      .update(jobs)
+      .set({ state: 'running', claimedBy: INSTANCE_ID, leaseUntil: new Date(now.getTime() + jobLeaseMs()) })
+      .where(eq(jobs.id, due.id))
+      .returning()
     return claimed ?? null
   })
 }
@@ -56,10 +61,21 @@ async function runJob(job: Job) {
     // The row's kind says which payload it holds (written by enqueueJob, or by a re-queue of its own kind).
     const outcome = await (HANDLERS[job.kind as JobKind] as (payload: unknown) => Promise<JobOutcome>)(job.payload)
     if (outcome.state === 'done') {
-      await db.update(jobs).set({ state: 'done', finishedAt: new Date(), leaseUntil: null, error: null }).where(stillMine(job.id))
+      await db
+        .update(jobs)
+        .set({ state: 'done', finishedAt: new Date(), leaseUntil: null, error: null })
+        .where(stillMine(job.id))
     }
     else {
-      await db.update(jobs).set({ state: 'queued', payload: outcome.payload, runAfter: new Date(Date.now() + outcome.retryInMs), leaseUntil: null }).where(stillMine(job.id))
+      await db
+        .update(jobs)
+        .set({
+          state: 'queued',
+          payload: outcome.payload,
+          runAfter: new Date(Date.now() + outcome.retryInMs),
+          leaseUntil: null,
+        })
+        .where(stillMine(job.id))
     }
   }
   catch (error) {

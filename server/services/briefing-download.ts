@@ -13,8 +13,11 @@ export async function sendBriefingPdf(event: H3Event, doc: BriefingDocument, liv
   const link = { url: `${appUrl()}${live.path}`, signIn: live.signIn }
   const pdf = await renderPdf(briefingPdfDefinition(doc, link, paper === 'letter' ? 'LETTER' : 'A4'))
   const date = (doc.meta.issuedAt ?? new Date().toISOString()).slice(0, 10)
-  const name = `brinkwater-${doc.meta.siteName}-${doc.meta.scenario}-v${doc.meta.version}-${doc.meta.issuedAt ? date : 'draft'}`
-    .toLowerCase().normalize('NFKD').replace(/[^\w.-]+/g, '-')
+  const name
+    = `brinkwater-${doc.meta.siteName}-${doc.meta.scenario}-v${doc.meta.version}-${doc.meta.issuedAt ? date : 'draft'}`
+      .toLowerCase()
+      .normalize('NFKD')
+      .replace(/[^\w.-]+/g, '-')
   setResponseHeader(event, 'content-type', 'application/pdf')
   setResponseHeader(event, 'content-disposition', `attachment; filename="${name}.pdf"`)
   setResponseHeader(event, 'cache-control', 'private, no-store')

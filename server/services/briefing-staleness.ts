@@ -35,15 +35,22 @@ function chanceIn(result: OutlookResult, thresholdId: string, year: number) {
   const threshold = result.thresholds.find(t => t.key === thresholdId)
   const index = result.years.indexOf(year)
   if (!threshold || index < 0) return null
-  if (threshold.kind === 'flood-level') return { kind: 'flood-level' as const, value: threshold.flood?.annualChance[index]?.value ?? null }
+  if (threshold.kind === 'flood-level')
+    return { kind: 'flood-level' as const, value: threshold.flood?.annualChance[index]?.value ?? null }
   return { kind: 'mean-sea-level' as const, value: threshold.byYear[index]?.value ?? null }
 }
 
 /** The latest finished outlook of each scenario at a site (id and when it finished). */
 async function latestBySiteScenario(siteId: string, scenarios: string[]) {
   const db = await useDb()
-  const rows = await db.selectDistinctOn([outlooks.scenario], { id: outlooks.id, scenario: outlooks.scenario, finishedAt: outlooks.finishedAt })
-    .from(outlooks).where(and(eq(outlooks.siteId, siteId), eq(outlooks.state, 'done'), inArray(outlooks.scenario, scenarios)))
+  const rows = await db
+    .selectDistinctOn([outlooks.scenario], {
+      id: outlooks.id,
+      scenario: outlooks.scenario,
+      finishedAt: outlooks.finishedAt,
+    })
+    .from(outlooks)
+    .where(and(eq(outlooks.siteId, siteId), eq(outlooks.state, 'done'), inArray(outlooks.scenario, scenarios)))
     .orderBy(outlooks.scenario, desc(outlooks.finishedAt))
   return new Map(rows.map(row => [row.scenario, row]))
 }
@@ -52,7 +59,10 @@ async function latestBySiteScenario(siteId: string, scenarios: string[]) {
 export async function briefingStaleness(row: Briefing): Promise<Staleness | null> {
   if (row.state !== 'issued' || !row.outlookIds.length) return null
   const db = await useDb()
-  const used = await db.select({ id: outlooks.id, scenario: outlooks.scenario, finishedAt: outlooks.finishedAt }).from(outlooks).where(inArray(outlooks.id, row.outlookIds))
+  const used = await db
+    .select({ id: outlooks.id, scenario: outlooks.scenario, finishedAt: outlooks.finishedAt })
+    .from(outlooks)
+    .where(inArray(outlooks.id, row.outlookIds))
   const latest = await latestBySiteScenario(row.siteId, [...new Set(used.map(o => o.scenario))])
   const replaced = used.filter((o) => {
     const now = latest.get(o.scenario)
@@ -60,10 +70,19 @@ export async function briefingStaleness(row: Briefing): Promise<Staleness | null
   })
   if (!replaced.length) return null
   const ids = [...replaced.map(o => o.id), ...replaced.map(o => latest.get(o.scenario)!.id)]
-  const results = new Map((await db.select({ id: outlooks.id, result: outlooks.result }).from(outlooks).where(inArray(outlooks.id, ids)))
-    // Both sides are latest finished outlooks or ones a briefing was made of: finished, with results.
-    .map(o => [o.id, o.result!]))
-  const labels = new Map((await db.select({ id: thresholds.id, label: thresholds.label }).from(thresholds).where(inArray(thresholds.id, row.thresholdIds))).map(t => [t.id, t.label]))
+  const results = new Map(
+    (await db.select({ id: outlooks.id, result: outlooks.result }).from(outlooks).where(inArray(outlooks.id, ids)))
+      // Both sides are latest finished outlooks or ones a briefing was made of: finished, with results.
+      .map(o => [o.id, o.result!]),
+  )
+  const labels = new Map(
+    (
+      await db
+        .select({ id: thresholds.id, label: thresholds.label })
+        .from(thresholds)
+        .where(inArray(thresholds.id, row.thresholdIds))
+    ).map(t => [t.id, t.label]),
+  )
   const language = languageOf(row.language)
   const changes: StaleFigure[] = []
   // In the briefing's order: its own scenario first, then those compared with it.
@@ -79,19 +98,38 @@ export async function briefingStaleness(row: Briefing): Promise<Staleness | null
         const b = chanceIn(now, thresholdId, year)
         if (a?.value == null || b?.value == null || a.kind !== b.kind) continue
         if (formatChance(a.value, language) === formatChance(b.value, language)) continue
-        changes.push({ scenario: before.scenario, thresholdId, threshold: labels.get(thresholdId) ?? thresholdId, kind: b.kind, year, was: a.value, now: b.value })
+        changes.push({
+          scenario: before.scenario,
+          thresholdId,
+          threshold: labels.get(thresholdId) ?? thresholdId,
+          kind: b.kind,
+          year,
+          was: a.value,
+          now: b.value,
+        })
       }
     }
   }
   if (!changes.length) return null
-  return { latestOutlookIds: row.outlookIds.map(id => latest.get(used.find(o => o.id === id)?.scenario ?? '')?.id ?? id), changes }
+  return {
+    latestOutlookIds: row.outlookIds.map(id => latest.get(used.find(o => o.id === id)?.scenario ?? '')?.id ?? id),
+    changes,
+  }
 }
 
 /** One line per changed figure, in the briefing's language: "19 % now, 4 % in this briefing". */
 export function staleLine(change: StaleFigure, language: Language) {
   const t = translator(language)
-  const what = t(change.kind === 'flood-level' ? 'emails.briefingStale.flood' : 'emails.briefingStale.meanSeaLevel', { threshold: change.threshold, year: change.year })
-  return t('emails.briefingStale.line', { scenario: change.scenario, what, now: formatChance(change.now, language), was: formatChance(change.was, language) })
+  const what = t(change.kind === 'flood-level' ? 'emails.briefingStale.flood' : 'emails.briefingStale.meanSeaLevel', {
+    threshold: change.threshold,
+    year: change.year,
+  })
+  return t('emails.briefingStale.line', {
+    scenario: change.scenario,
+    what,
+    now: formatChance(change.now, language),
+    was: formatChance(change.was, language),
+  })
 }
 
 /**
@@ -101,7 +139,10 @@ export function staleLine(change: StaleFigure, language: Language) {
  */
 export async function mailStaleBriefings(siteId: string) {
   const db = await useDb()
-  const issued = await db.select().from(briefings).where(and(eq(briefings.siteId, siteId), eq(briefings.state, 'issued')))
+  const issued = await db
+    .select()
+    .from(briefings)
+    .where(and(eq(briefings.siteId, siteId), eq(briefings.state, 'issued')))
   const superseded = new Set(issued.map(b => b.previousId).filter(Boolean))
   const [site] = await db.select({ name: sites.name }).from(sites).where(eq(sites.id, siteId))
   if (!site) return
@@ -109,8 +150,16 @@ export async function mailStaleBriefings(siteId: string) {
     if (superseded.has(row.id)) continue
     const staleness = await briefingStaleness(row)
     if (!staleness) continue
-    const planners = await db.select({ id: users.id, email: users.email, locale: users.locale }).from(users)
-      .where(and(inArray(users.id, [...new Set([row.createdBy, row.issuedBy].filter((id): id is string => id !== null))]), eq(users.role, 'planner'), eq(users.disabled, false)))
+    const planners = await db
+      .select({ id: users.id, email: users.email, locale: users.locale })
+      .from(users)
+      .where(
+        and(
+          inArray(users.id, [...new Set([row.createdBy, row.issuedBy].filter((id): id is string => id !== null))]),
+          eq(users.role, 'planner'),
+          eq(users.disabled, false),
+        ),
+      )
     const event = staleness.latestOutlookIds.join(',')
     await db.transaction(async (tx) => {
       for (const planner of planners) {
@@ -119,7 +168,11 @@ export async function mailStaleBriefings(siteId: string) {
           language, site: site.name, title: row.title, version: row.version,
           changes: staleness.changes.map(change => staleLine(change, language)), url: `${appUrl()}/briefings/${row.id}`,
         })
-        await queueMail(tx, { to: planner.email, ...mail, dedupeKey: `briefing-stale:${row.id}:${event}:${planner.id}` })
+        await queueMail(tx, {
+          to: planner.email,
+          ...mail,
+          dedupeKey: `briefing-stale:${row.id}:${event}:${planner.id}`,
+        })
       }
     })
   }

@@ -11,10 +11,14 @@ import { loadSite } from './sites'
 // fit is made once at upload, and tracking against the site's outlooks is worked out on read, so a
 // new outlook is compared without a new upload.
 
-function fitOrIssue(points: ReturnType<typeof gaugePoints>, resolution: 'annual' | 'monthly'): { fit: GaugeTrendFit | null, fitIssue: string | null } {
+function fitOrIssue(
+  points: ReturnType<typeof gaugePoints>,
+  resolution: 'annual' | 'monthly',
+): { fit: GaugeTrendFit | null, fitIssue: string | null } {
   try {
     return { fit: fitGaugeTrend(points, resolution), fitIssue: null }
-  } catch (error) {
+  }
+  catch (error) {
     if (error instanceof GaugeFitError) return { fit: null, fitIssue: error.message }
     throw error
   }
@@ -31,36 +35,69 @@ export async function uploadGaugeRecord(planner: CurrentUser, siteId: string, cs
     const [latest] = await tx.select({ version: gaugeRecords.version }).from(gaugeRecords)
       .where(eq(gaugeRecords.siteId, siteId)).orderBy(desc(gaugeRecords.version)).limit(1)
     const version = (latest?.version ?? 0) + 1
-    const [row] = await tx.insert(gaugeRecords).values({
-      siteId, version, resolution: record.resolution, values: record.values, gaps: record.gaps, fit, fitIssue, uploadedBy: planner.id,
-    }).returning({ id: gaugeRecords.id, version: gaugeRecords.version })
-    await writeAudit(tx, planner, 'site.gauge-record', { type: 'site', id: siteId }, { site: site.name, version, values: record.values.length, resolution: record.resolution })
+    const [row] = await tx
+      .insert(gaugeRecords)
+      .values({
+        siteId,
+        version,
+        resolution: record.resolution,
+        values: record.values,
+        gaps: record.gaps,
+        fit,
+        fitIssue,
+        uploadedBy: planner.id,
+      })
+      .returning({ id: gaugeRecords.id, version: gaugeRecords.version })
+    await writeAudit(
+      tx,
+      planner,
+      'site.gauge-record',
+      { type: 'site', id: siteId },
+      { site: site.name, version, values: record.values.length, resolution: record.resolution },
+    )
     return row!
   })
 }
 
 export interface ScenarioTracking { scenario: string, outlookId: string, epoch: number, tracking: Tracking | null }
 
-function trackingFor(fit: GaugeTrendFit, outlook: Awaited<ReturnType<typeof latestOutlooks>>[number]): ScenarioTracking {
+function trackingFor(
+  fit: GaugeTrendFit,
+  outlook: Awaited<ReturnType<typeof latestOutlooks>>[number],
+): ScenarioTracking {
   // latestOutlooks reads finished outlooks only, which have their results.
   const result = outlook.result!
   const datum = outlook.input.datum
   const epoch = datum?.referenceEpoch ?? result.baselineYear
-  const level = (year: (typeof result.byYear)[number], p: number) => year.percentiles.find(entry => Math.abs(entry.level - p) < 1e-9)?.value
+  const level = (year: (typeof result.byYear)[number], p: number) =>
+    year.percentiles.find(entry => Math.abs(entry.level - p) < 1e-9)?.value
   const fan = result.byYear.flatMap((year) => {
     const p17 = level(year, 0.17)
     const p83 = level(year, 0.83)
     return p17 === undefined || p83 === undefined ? [] : [{ year: year.year, p17, p83 }]
   })
-  return { scenario: outlook.scenario, outlookId: outlook.id, epoch, tracking: trackAgainstOutlook(fit, epoch, datum?.offset ?? 0, fan) }
+  return {
+    scenario: outlook.scenario,
+    outlookId: outlook.id,
+    epoch,
+    tracking: trackAgainstOutlook(fit, epoch, datum?.offset ?? 0, fan),
+  }
 }
 
 /** The latest version of a site's gauge record, the versions before it, and tracking per scenario. */
 export async function readGaugeRecord(user: CurrentUser, siteId: string) {
   await loadSite(user, siteId)
   const db = await useDb()
-  const versions = await db.select({ id: gaugeRecords.id, version: gaugeRecords.version, createdAt: gaugeRecords.createdAt, values: sql<number>`jsonb_array_length(${gaugeRecords.values})` })
-    .from(gaugeRecords).where(eq(gaugeRecords.siteId, siteId)).orderBy(desc(gaugeRecords.version))
+  const versions = await db
+    .select({
+      id: gaugeRecords.id,
+      version: gaugeRecords.version,
+      createdAt: gaugeRecords.createdAt,
+      values: sql<number>`jsonb_array_length(${gaugeRecords.values})`,
+    })
+    .from(gaugeRecords)
+    .where(eq(gaugeRecords.siteId, siteId))
+    .orderBy(desc(gaugeRecords.version))
   if (!versions.length) return { record: null, versions: [], tracking: [] }
   const [record] = await db.select().from(gaugeRecords).where(eq(gaugeRecords.id, versions[0]!.id))
   const tracking = record!.fit ? (await latestOutlooks(siteId)).map(outlook => trackingFor(record!.fit!, outlook)) : []

@@ -64,22 +64,37 @@ async function migrationJournal(): Promise<JournalEntry[]> {
 async function probeDatabase(handle: DatabaseHandle): Promise<DatabaseHealth> {
   const started = performance.now()
   // drizzle's migrators (PGlite and node-postgres alike) record applied migrations here.
-  const result = await handle.db.execute(sql`select count(*)::int as applied, max(created_at)::float8 as latest from drizzle.__drizzle_migrations`)
+  const result = await handle.db.execute(
+    sql`select count(*)::int as applied, max(created_at)::float8 as latest from drizzle.__drizzle_migrations`,
+  )
   const latencyMs = Math.round((performance.now() - started) * 10) / 10
   const row = (result as unknown as { rows: Array<{ applied: number, latest: number | null }> }).rows[0]
   const journal = await migrationJournal()
   const latest = journal.find(entry => entry.when === Number(row?.latest))?.tag ?? null
-  return { ok: true, kind: handle.kind, latencyMs, migrations: { applied: Number(row?.applied ?? 0), expected: journal.length, latest } }
+  return {
+    ok: true,
+    kind: handle.kind,
+    latencyMs,
+    migrations: { applied: Number(row?.applied ?? 0), expected: journal.length, latest },
+  }
 }
 
 async function probeMail(): Promise<MailHealth> {
   const db = await useDb()
-  const [counts] = await db.select({
-    queued: sql<number>`count(*) filter (where ${mailOutbox.state} = 'queued')::int`.mapWith(Number),
-    failing: sql<number>`count(*) filter (where ${mailOutbox.state} = 'queued' and ${mailOutbox.attempts} > 0)::int`.mapWith(Number),
-    failed: sql<number>`count(*) filter (where ${mailOutbox.state} = 'failed')::int`.mapWith(Number),
-    oldest: sql<number>`coalesce(extract(epoch from now() - min(${mailOutbox.createdAt}) filter (where ${mailOutbox.state} = 'queued')), 0)::float8`.mapWith(Number),
-  }).from(mailOutbox)
+  const [counts] = await db
+    .select({
+      queued: sql<number>`count(*) filter (where ${mailOutbox.state} = 'queued')::int`.mapWith(Number),
+      failing:
+        sql<number>`count(*) filter (where ${mailOutbox.state} = 'queued' and ${mailOutbox.attempts} > 0)::int`.mapWith(
+          Number,
+        ),
+      failed: sql<number>`count(*) filter (where ${mailOutbox.state} = 'failed')::int`.mapWith(Number),
+      oldest:
+        sql<number>`coalesce(extract(epoch from now() - min(${mailOutbox.createdAt}) filter (where ${mailOutbox.state} = 'queued')), 0)::float8`.mapWith(
+          Number,
+        ),
+    })
+    .from(mailOutbox)
   const [latestError] = await db.select({ lastError: mailOutbox.lastError }).from(mailOutbox)
     .where(and(eq(mailOutbox.state, 'queued'), gt(mailOutbox.attempts, 0)))
     .orderBy(sql`${mailOutbox.nextAttemptAt} desc`).limit(1)
@@ -96,13 +111,22 @@ async function probeMail(): Promise<MailHealth> {
 async function probeWork(): Promise<WorkHealth> {
   const db = await useDb()
   const [[outlookCounts], [jobCounts]] = await Promise.all([
-    db.select({ running: sql<number>`count(*)::int`.mapWith(Number) }).from(outlooks).where(eq(outlooks.state, 'running')),
-    db.select({
-      pending: sql<number>`count(*) filter (where ${jobs.state} in ('queued', 'running'))::int`.mapWith(Number),
-      failed: sql<number>`count(*) filter (where ${jobs.state} = 'failed')::int`.mapWith(Number),
-    }).from(jobs),
+    db
+      .select({ running: sql<number>`count(*)::int`.mapWith(Number) })
+      .from(outlooks)
+      .where(eq(outlooks.state, 'running')),
+    db
+      .select({
+        pending: sql<number>`count(*) filter (where ${jobs.state} in ('queued', 'running'))::int`.mapWith(Number),
+        failed: sql<number>`count(*) filter (where ${jobs.state} = 'failed')::int`.mapWith(Number),
+      })
+      .from(jobs),
   ])
-  return { outlooksRunning: outlookCounts?.running ?? 0, jobsPending: jobCounts?.pending ?? 0, jobsFailed: jobCounts?.failed ?? 0 }
+  return {
+    outlooksRunning: outlookCounts?.running ?? 0,
+    jobsPending: jobCounts?.pending ?? 0,
+    jobsFailed: jobCounts?.failed ?? 0,
+  }
 }
 
 export async function checkHealth(): Promise<Health> {
@@ -113,7 +137,17 @@ export async function checkHealth(): Promise<Health> {
     database = await withTimeout(probeDatabase(handle), PROBE_TIMEOUT_MS, 'The database')
   }
   catch {
-    return { status: 'down', database: { ok: false, kind: serverConfig().DATABASE_URL ? 'postgresql' : 'pglite', latencyMs: null, migrations: null }, mail: null, work: null }
+    return {
+      status: 'down',
+      database: {
+        ok: false,
+        kind: serverConfig().DATABASE_URL ? 'postgresql' : 'pglite',
+        latencyMs: null,
+        migrations: null,
+      },
+      mail: null,
+      work: null,
+    }
   }
   const [mail, work] = await Promise.all([
     withTimeout(probeMail(), PROBE_TIMEOUT_MS, 'The mail outbox').catch(() => null),

@@ -10,12 +10,29 @@ const SHOWN_HEADERS = ['date', 'message-id', 'list-unsubscribe', 'list-unsubscri
 /** The newest messages of the outbox; `organisationId` keeps those to that organisation's people (null: all). */
 export async function listOutbox(organisationId: string | null, limit: number) {
   const db = await useDb()
-  return db.select({
-    id: mailOutbox.id, to: mailOutbox.to, subject: mailOutbox.subject, state: mailOutbox.state, attempts: mailOutbox.attempts,
-    lastError: mailOutbox.lastError, nextAttemptAt: mailOutbox.nextAttemptAt, createdAt: mailOutbox.createdAt, sentAt: mailOutbox.sentAt,
-  }).from(mailOutbox)
-    .where(organisationId ? inArray(mailOutbox.to, db.select({ email: users.email }).from(users).where(eq(users.organisationId, organisationId))) : undefined)
-    .orderBy(desc(mailOutbox.createdAt)).limit(limit)
+  return db
+    .select({
+      id: mailOutbox.id,
+      to: mailOutbox.to,
+      subject: mailOutbox.subject,
+      state: mailOutbox.state,
+      attempts: mailOutbox.attempts,
+      lastError: mailOutbox.lastError,
+      nextAttemptAt: mailOutbox.nextAttemptAt,
+      createdAt: mailOutbox.createdAt,
+      sentAt: mailOutbox.sentAt,
+    })
+    .from(mailOutbox)
+    .where(
+      organisationId
+        ? inArray(
+            mailOutbox.to,
+            db.select({ email: users.email }).from(users).where(eq(users.organisationId, organisationId)),
+          )
+        : undefined,
+    )
+    .orderBy(desc(mailOutbox.createdAt))
+    .limit(limit)
 }
 
 /** What the stand-in SMTP server received, newest first, parsed for reading. */

@@ -6,7 +6,14 @@ import { chanceAfterDe, formatChance } from '#shared/wording/chance'
 import { causeSentence } from '#shared/wording/causes'
 import { languageOf, translator, type Language } from '#shared/wording/translate'
 import type { StoredCause } from '#shared/types/causes'
-import { briefingIssuedMail, whatChangedMail, type ChangeRow, type HorizonChange, type RangeRow, type ReleaseChange } from '../mail/templates'
+import {
+  briefingIssuedMail,
+  whatChangedMail,
+  type ChangeRow,
+  type HorizonChange,
+  type RangeRow,
+  type ReleaseChange,
+} from '../mail/templates'
 import { headlineOf } from './site-list'
 import { unsubscribeHeaders, unsubscribeUrl } from './watches'
 
@@ -18,7 +25,10 @@ const KEY_YEARS = [2050, 2100]
 
 async function activeWatches(siteId: string) {
   const db = await useDb()
-  return db.select().from(watches).where(and(eq(watches.siteId, siteId), eq(watches.state, 'active'), isNull(watches.undeliverableAt)))
+  return db
+    .select()
+    .from(watches)
+    .where(and(eq(watches.siteId, siteId), eq(watches.state, 'active'), isNull(watches.undeliverableAt)))
 }
 
 /** The latest finished outlook of each scenario computed for a site. */
@@ -30,10 +40,23 @@ export async function latestOutlooks(siteId: string) {
     .where(and(eq(outlooks.siteId, siteId), eq(outlooks.state, 'done')))
     .orderBy(outlooks.scenario, desc(outlooks.finishedAt), desc(outlooks.id))
   if (!latest.length) return []
-  return db.select().from(outlooks).where(inArray(outlooks.id, latest.map(row => row.id))).orderBy(desc(outlooks.finishedAt))
+  return db
+    .select()
+    .from(outlooks)
+    .where(
+      inArray(
+        outlooks.id,
+        latest.map(row => row.id),
+      ),
+    )
+    .orderBy(desc(outlooks.finishedAt))
 }
 
-export interface Comparison { scenario: string, before: typeof outlooks.$inferSelect, after: typeof outlooks.$inferSelect }
+export interface Comparison {
+  scenario: string
+  before: typeof outlooks.$inferSelect
+  after: typeof outlooks.$inferSelect
+}
 
 function median(result: OutlookResult, t: number, level: number) {
   return result.byYear[t]!.percentiles.find(p => Math.abs(p.level - level) < 1e-9)!.value
@@ -50,14 +73,22 @@ async function scopeOf(watch: typeof watches.$inferSelect): Promise<WatchScope |
   const db = await useDb()
   const [briefing] = await db.select().from(briefings).where(eq(briefings.id, watch.briefingId))
   if (!briefing?.shareToken || briefing.state !== 'issued') return null
-  const shown = await db.select({ scenario: outlooks.scenario }).from(outlooks).where(inArray(outlooks.id, briefing.outlookIds))
+  const shown = await db
+    .select({ scenario: outlooks.scenario })
+    .from(outlooks)
+    .where(inArray(outlooks.id, briefing.outlookIds))
   return {
     thresholdIds: new Set(briefing.thresholdIds), scenarios: new Set(shown.map(row => row.scenario)),
     years: [...briefing.years].sort((a, b) => a - b), url: `${appUrl()}/shared/${briefing.shareToken}`,
   }
 }
 
-function describe(allComparisons: Comparison[], labels: Map<string, string>, language: Language, scope: WatchScope | 'everything') {
+function describe(
+  allComparisons: Comparison[],
+  labels: Map<string, string>,
+  language: Language,
+  scope: WatchScope | 'everything',
+) {
   const scoped = scope === 'everything' ? null : scope
   const comparisons = scoped ? allComparisons.filter(c => scoped.scenarios.has(c.scenario)) : allComparisons
   const keyYears = scoped?.years ?? KEY_YEARS
@@ -82,7 +113,11 @@ function describe(allComparisons: Comparison[], labels: Map<string, string>, lan
         if (t.kind === 'flood-level') return t.flood?.annualChance[index]?.value ?? null
         return t.byYear[index]?.value ?? null
       }
-      const what = t(threshold.kind === 'flood-level' ? 'emails.whatChanged.measures.flood' : 'emails.whatChanged.measures.meanSeaLevel')
+      const what = t(
+        threshold.kind === 'flood-level'
+          ? 'emails.whatChanged.measures.flood'
+          : 'emails.whatChanged.measures.meanSeaLevel',
+      )
       for (const year of keyYears) {
         const ta = a.years.indexOf(year)
         const tb = b.years.indexOf(year)
@@ -90,14 +125,19 @@ function describe(allComparisons: Comparison[], labels: Map<string, string>, lan
         if (now === null) continue
         const was = old?.kind === threshold.kind ? chanceIn(old, tb) : null
         chances.push({
-          threshold: `${labels.get(threshold.key) ?? threshold.key} (${height(threshold.height + offset(after))}, ${what}, ${scenario})`, year,
+          threshold: `${labels.get(threshold.key) ?? threshold.key} (${height(threshold.height + offset(after))}, ${what}, ${scenario})`,
+          year,
           before: was === null ? '—' : formatChance(was, language),
           after: formatChance(now, language),
         })
       }
     }
     if (a.years.at(-1) !== b.years.at(-1)) horizons.push({ scenario, before: b.years.at(-1)!, after: a.years.at(-1)! })
-    const year = scoped ? scoped.years.findLast(y => a.years.includes(y)) : a.years.includes(2100) ? 2100 : a.years.at(-1)!
+    const year = scoped
+      ? scoped.years.findLast(y => a.years.includes(y))
+      : a.years.includes(2100)
+        ? 2100
+        : a.years.at(-1)!
     if (year === undefined) continue
     const range = (r: OutlookResult) => {
       const t = r.years.indexOf(year)
@@ -106,7 +146,13 @@ function describe(allComparisons: Comparison[], labels: Map<string, string>, lan
     ranges.push({ scenario, year, before: range(b), after: range(a) })
     for (const ref of after.releaseRefs) {
       const was = before.releaseRefs.find(r => r.component === ref.component)
-      if (was?.releaseId !== ref.releaseId) releases.push({ component: `${t(`document.components.${ref.component}`)} (${scenario})`, from: was ? `v${was.version}` : '—', to: `v${ref.version}`, citation: ref.citation })
+      if (was?.releaseId !== ref.releaseId)
+        releases.push({
+          component: `${t(`document.components.${ref.component}`)} (${scenario})`,
+          from: was ? `v${was.version}` : '—',
+          to: `v${ref.version}`,
+          citation: ref.citation,
+        })
     }
   }
   return { chances, ranges, releases, horizons, shown: comparisons.length }
@@ -116,7 +162,12 @@ function describe(allComparisons: Comparison[], labels: Map<string, string>, lan
  * The site's headline under its planning scenario, named, before and after: the number lists and
  * the map show, so a reader never mistakes another scenario's chance for it.
  */
-function planningSentence(planningScenario: string, comparisons: Comparison[], labels: Map<string, string>, language: Language) {
+function planningSentence(
+  planningScenario: string,
+  comparisons: Comparison[],
+  labels: Map<string, string>,
+  language: Language,
+) {
   const t = translator(language)
   const named = t('emails.whatChanged.planningScenario', { scenario: planningScenario })
   const change = comparisons.find(c => c.scenario === planningScenario)
@@ -126,8 +177,12 @@ function planningSentence(planningScenario: string, comparisons: Comparison[], l
   const was = headlineOf(change.before.result!, labels, offset(change.before))
   if (!now) return t('emails.whatChanged.planningNoThreshold', { named })
   return t('emails.whatChanged.planningHeadline', {
-    named, threshold: now.thresholdLabel, height: formatHeight(now.height, 'm', language), year: now.year,
-    chance: formatChance(now.probability, language), chanceAfterDe: chanceAfterDe(now.probability),
+    named,
+    threshold: now.thresholdLabel,
+    height: formatHeight(now.height, 'm', language),
+    year: now.year,
+    chance: formatChance(now.probability, language),
+    chanceAfterDe: chanceAfterDe(now.probability),
     before: was ? formatChance(was.probability, language) : '—',
   })
 }
@@ -144,10 +199,15 @@ export async function mailWhatChanged(siteId: string, cause: StoredCause, compar
   const watchers = await activeWatches(siteId)
   if (!watchers.length || !comparisons.length) return
   const db = await useDb()
-  const [site] = await db.select({ name: sites.name, planningScenario: sites.planningScenario }).from(sites).where(eq(sites.id, siteId))
+  const [site] = await db
+    .select({ name: sites.name, planningScenario: sites.planningScenario })
+    .from(sites)
+    .where(eq(sites.id, siteId))
   if (!site) return
   // The planning scenario's rows come first in the tables, as its sentence does above them.
-  const ordered = [...comparisons].sort((a, b) => Number(b.scenario === site.planningScenario) - Number(a.scenario === site.planningScenario))
+  const ordered = [...comparisons].sort(
+    (a, b) => Number(b.scenario === site.planningScenario) - Number(a.scenario === site.planningScenario),
+  )
   const labels = new Map((await loadSiteThresholds(siteId)).map(t => [t.id, t.label]))
   const briefingUrl = await latestBriefingUrl(siteId)
   // The same recomputation mails each watcher once, even when its job runs again after a crash.
@@ -162,9 +222,23 @@ export async function mailWhatChanged(siteId: string, cause: StoredCause, compar
       // Nothing the watcher's briefing showed has changed: nothing to tell them.
       if (!shown) continue
       // A watch from a shared briefing hears only what that briefing showed, so not the planning headline.
-      const planning = scope === 'everything' ? planningSentence(site.planningScenario, ordered, labels, language) : undefined
-      const mail = whatChangedMail({ language, site: site.name, cause: causeSentence(cause, language), ...numbers, planning, briefingUrl: scope === 'everything' ? briefingUrl : scope.url, unsubscribeUrl: unsubscribeUrl(watch.unsubscribeToken) })
-      await queueMail(tx, { to: watch.email, ...mail, headers: unsubscribeHeaders(watch.unsubscribeToken), dedupeKey: `change:${event}:${watch.id}` })
+      const planning
+        = scope === 'everything' ? planningSentence(site.planningScenario, ordered, labels, language) : undefined
+      const mail = whatChangedMail({
+        language,
+        site: site.name,
+        cause: causeSentence(cause, language),
+        ...numbers,
+        planning,
+        briefingUrl: scope === 'everything' ? briefingUrl : scope.url,
+        unsubscribeUrl: unsubscribeUrl(watch.unsubscribeToken),
+      })
+      await queueMail(tx, {
+        to: watch.email,
+        ...mail,
+        headers: unsubscribeHeaders(watch.unsubscribeToken),
+        dedupeKey: `change:${event}:${watch.id}`,
+      })
     }
   })
 }
@@ -177,8 +251,11 @@ async function loadSiteThresholds(siteId: string) {
 /** Mails each watcher of the briefing's site that a new briefing was issued. */
 export async function mailBriefingIssued(briefingId: string) {
   const db = await useDb()
-  const [row] = await db.select({ siteId: briefings.siteId, title: briefings.title, token: briefings.shareToken, site: sites.name })
-    .from(briefings).innerJoin(sites, eq(sites.id, briefings.siteId)).where(eq(briefings.id, briefingId))
+  const [row] = await db
+    .select({ siteId: briefings.siteId, title: briefings.title, token: briefings.shareToken, site: sites.name })
+    .from(briefings)
+    .innerJoin(sites, eq(sites.id, briefings.siteId))
+    .where(eq(briefings.id, briefingId))
   if (!row) return
   const watchers = await activeWatches(row.siteId)
   const url = row.token ? `${appUrl()}/shared/${row.token}` : await latestBriefingUrl(row.siteId)
@@ -187,7 +264,12 @@ export async function mailBriefingIssued(briefingId: string) {
     for (const watch of watchers.filter(w => !w.briefingId)) {
       const language = languageOf(watch.language)
       const mail = briefingIssuedMail(language, row.site, row.title, url, unsubscribeUrl(watch.unsubscribeToken))
-      await queueMail(tx, { to: watch.email, ...mail, headers: unsubscribeHeaders(watch.unsubscribeToken), dedupeKey: `briefing:${briefingId}:${watch.id}` })
+      await queueMail(tx, {
+        to: watch.email,
+        ...mail,
+        headers: unsubscribeHeaders(watch.unsubscribeToken),
+        dedupeKey: `briefing:${briefingId}:${watch.id}`,
+      })
     }
   })
 }

@@ -23,18 +23,33 @@ export interface PublicationReach { sites: number, watchers: number, anchorYears
 
 export async function releaseReach(viewer: CurrentUser, id: string): Promise<PublicationReach> {
   const db = await useDb()
-  const [release] = await db.select({
-    organisationId: releases.organisationId, state: releases.state, scenario: series.scenario, seriesId: releases.seriesId, anchorYears: releases.anchorYears,
-  }).from(releases).innerJoin(series, eq(series.id, releases.seriesId)).where(eq(releases.id, id))
+  const [release] = await db
+    .select({
+      organisationId: releases.organisationId,
+      state: releases.state,
+      scenario: series.scenario,
+      seriesId: releases.seriesId,
+      anchorYears: releases.anchorYears,
+    })
+    .from(releases)
+    .innerJoin(series, eq(series.id, releases.seriesId))
+    .where(eq(releases.id, id))
   assertSameOrganisation(viewer, release?.organisationId, 'release')
   if (release!.state !== 'in-review' && release!.state !== 'draft') {
-    throw createError({ statusCode: 409, message: 'Only a draft or a release in review is still to be published; this one is not.' })
+    throw createError({
+      statusCode: 409,
+      message: 'Only a draft or a release in review is still to be published; this one is not.',
+    })
   }
   const affected = reachedSites(db, { scenario: release!.scenario, seriesId: release!.seriesId })
   const [siteCount] = await db.select({ n: sql<number>`count(*)::int` }).from(affected.as('affected'))
   const [watchers] = await db.select({ n: sql<number>`count(*)::int` }).from(watches)
     .where(and(eq(watches.state, 'active'), inArray(watches.siteId, affected)))
-  return { sites: siteCount?.n ?? 0, watchers: watchers?.n ?? 0, anchorYears: await anchorYearChange(id, release!.seriesId, release!.anchorYears) }
+  return {
+    sites: siteCount?.n ?? 0,
+    watchers: watchers?.n ?? 0,
+    anchorYears: await anchorYearChange(id, release!.seriesId, release!.anchorYears),
+  }
 }
 
 /** Compares a version's anchor years with the version published before it in the same series. */
@@ -51,10 +66,21 @@ async function anchorYearChange(id: string, seriesId: string, anchorYears: numbe
   if (!dropped.length) return { dropped, horizon, sitesRelying: 0 }
   // The latest finished outlook of each site (of an organisation that adopted the series) that used
   // this series; it relies on a dropped year when its output years reach it.
-  const adopters = db.select({ id: seriesAdoptions.organisationId }).from(seriesAdoptions).where(eq(seriesAdoptions.seriesId, seriesId))
-  const used = await db.select({ siteId: outlooks.siteId, lastYear: sql<number>`(${outlooks.input}->'years'->>-1)::int` }).from(outlooks)
+  const adopters = db
+    .select({ id: seriesAdoptions.organisationId })
+    .from(seriesAdoptions)
+    .where(eq(seriesAdoptions.seriesId, seriesId))
+  const used = await db
+    .select({ siteId: outlooks.siteId, lastYear: sql<number>`(${outlooks.input}->'years'->>-1)::int` })
+    .from(outlooks)
     .innerJoin(sites, eq(sites.id, outlooks.siteId))
-    .where(and(eq(outlooks.state, 'done'), inArray(sites.organisationId, adopters), sql`${outlooks.releaseRefs} @> ${JSON.stringify([{ seriesId }])}::jsonb`))
+    .where(
+      and(
+        eq(outlooks.state, 'done'),
+        inArray(sites.organisationId, adopters),
+        sql`${outlooks.releaseRefs} @> ${JSON.stringify([{ seriesId }])}::jsonb`,
+      ),
+    )
     .orderBy(desc(outlooks.finishedAt))
   const latest = new Map<string, number>()
   for (const row of used) if (!latest.has(row.siteId)) latest.set(row.siteId, Number(row.lastYear))

@@ -33,35 +33,85 @@ export function reachedSites(db: Pick<Tx, 'select' | 'selectDistinct'>, scope: R
   const conditions = [eq(outlooks.state, 'done')]
   if (scope.scenario) conditions.push(eq(outlooks.scenario, scope.scenario))
   if (scope.seriesId) {
-    conditions.push(inArray(sites.organisationId, db.select({ id: seriesAdoptions.organisationId }).from(seriesAdoptions).where(eq(seriesAdoptions.seriesId, scope.seriesId))))
+    conditions.push(
+      inArray(
+        sites.organisationId,
+        db
+          .select({ id: seriesAdoptions.organisationId })
+          .from(seriesAdoptions)
+          .where(eq(seriesAdoptions.seriesId, scope.seriesId)),
+      ),
+    )
   }
   if (scope.correlationSource && scope.scenario) {
-    conditions.push(inArray(sites.organisationId, db.select({ id: correlationAdoptions.organisationId }).from(correlationAdoptions)
-      .where(and(eq(correlationAdoptions.sourceOrganisationId, scope.correlationSource), eq(correlationAdoptions.scenario, scope.scenario)))))
+    conditions.push(
+      inArray(
+        sites.organisationId,
+        db
+          .select({ id: correlationAdoptions.organisationId })
+          .from(correlationAdoptions)
+          .where(
+            and(
+              eq(correlationAdoptions.sourceOrganisationId, scope.correlationSource),
+              eq(correlationAdoptions.scenario, scope.scenario),
+            ),
+          ),
+      ),
+    )
   }
-  return db.selectDistinct({ siteId: outlooks.siteId }).from(outlooks).innerJoin(sites, eq(sites.id, outlooks.siteId)).where(and(...conditions))
+  return db
+    .selectDistinct({ siteId: outlooks.siteId })
+    .from(outlooks)
+    .innerJoin(sites, eq(sites.id, outlooks.siteId))
+    .where(and(...conditions))
 }
 
 /** Queues one recompute-site job per site the change reaches (see reachedSites). */
-export async function startRecomputation(tx: Tx, options: RecomputationScope & { cause: ScienceChangePayload['cause'], requestedBy: string | null }) {
+export async function startRecomputation(
+  tx: Tx,
+  options: RecomputationScope & { cause: ScienceChangePayload['cause'], requestedBy: string | null },
+) {
   const siteIds = (await reachedSites(tx, options)).map(row => row.siteId)
-  const [batch] = await tx.insert(recomputations).values({ scenario: options.scenario, cause: options.cause, requestedBy: options.requestedBy, siteCount: siteIds.length })
+  const [batch] = await tx
+    .insert(recomputations)
+    .values({
+      scenario: options.scenario,
+      cause: options.cause,
+      requestedBy: options.requestedBy,
+      siteCount: siteIds.length,
+    })
     .returning({ id: recomputations.id })
   if (siteIds.length) {
-    await tx.insert(jobs).values(siteIds.map(siteId => ({
-      kind: 'recompute-site', recomputationId: batch!.id,
-      payload: { siteId, cause: options.cause, ...(options.scenario ? { scenarios: [options.scenario] } : {}) } satisfies RecomputeSitePayload,
-    })))
+    await tx.insert(jobs).values(
+      siteIds.map(siteId => ({
+        kind: 'recompute-site',
+        recomputationId: batch!.id,
+        payload: {
+          siteId,
+          cause: options.cause,
+          ...(options.scenario ? { scenarios: [options.scenario] } : {}),
+        } satisfies RecomputeSitePayload,
+      })),
+    )
   }
   return batch!.id
 }
 
 /** An operator's recomputation (after an engine upgrade, say), audited in the same transaction. */
-export async function requestRecomputation(operator: CurrentUser, options: { scenario: string | null, cause: RecomputationCause }) {
+export async function requestRecomputation(
+  operator: CurrentUser,
+  options: { scenario: string | null, cause: RecomputationCause },
+) {
   const db = await useDb()
   return db.transaction(async (tx) => {
     const batchId = await startRecomputation(tx, { ...options, requestedBy: operator.id })
-    await writeAudit(tx, operator, 'recomputation.started', { type: 'recomputation', id: batchId }, { scenario: options.scenario })
+    await writeAudit(
+      tx,
+      operator,
+      'recomputation.started',
+      { type: 'recomputation', id: batchId },
+      { scenario: options.scenario },
+    )
     return batchId
   })
 }
@@ -84,16 +134,25 @@ export async function recomputeSite(payload: RecomputeSitePayload): Promise<JobO
       const queued = await queueOutlook(site, before, null).catch(() => null)
       if (queued && queued.id !== before.id) pairs.push({ before: before.id, after: queued.id })
     }
-    return pairs.length ? { state: 'waiting', payload: { ...payload, pairs }, retryInMs: FIRST_WAIT_MS } : { state: 'done' }
+    return pairs.length
+      ? { state: 'waiting', payload: { ...payload, pairs }, retryInMs: FIRST_WAIT_MS }
+      : { state: 'done' }
   }
   const db = await useDb()
   // A light look first: while any new outlook is still being computed, wait longer each time, so a
   // batch of hundreds of sites does not keep the database busy asking.
   const afters = payload.pairs.map(pair => pair.after)
-  const states = await db.select({ id: outlooks.id, state: outlooks.state }).from(outlooks).where(inArray(outlooks.id, afters))
+  const states = await db
+    .select({ id: outlooks.id, state: outlooks.state })
+    .from(outlooks)
+    .where(inArray(outlooks.id, afters))
   if (states.some(row => row.state === 'running')) {
     const checks = (payload.checks ?? 0) + 1
-    return { state: 'waiting', payload: { ...payload, checks }, retryInMs: Math.min(MAX_WAIT_MS, FIRST_WAIT_MS * 2 ** (checks - 1)) }
+    return {
+      state: 'waiting',
+      payload: { ...payload, checks },
+      retryInMs: Math.min(MAX_WAIT_MS, FIRST_WAIT_MS * 2 ** (checks - 1)),
+    }
   }
   const ids = payload.pairs.flatMap(pair => [pair.before, pair.after])
   const rows = new Map((await db.select().from(outlooks).where(inArray(outlooks.id, ids))).map(row => [row.id, row]))

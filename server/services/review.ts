@@ -11,7 +11,12 @@ import type { CurrentUser } from '../utils/auth'
 type Tx = Parameters<Parameters<Database['transaction']>[0]>[0]
 export type ReviewedKind = 'release' | 'correlation-set' | 'scale-factor-grid' | 'storyline'
 
-const TABLES = { 'release': releases, 'correlation-set': correlationSets, 'scale-factor-grid': scaleFactorGrids, 'storyline': storylines } as const
+const TABLES = {
+  'release': releases,
+  'correlation-set': correlationSets,
+  'scale-factor-grid': scaleFactorGrids,
+  'storyline': storylines,
+} as const
 type ReviewedTable = typeof TABLES[ReviewedKind]
 
 export const KIND_LABEL: Record<ReviewedKind, string> = {
@@ -28,29 +33,62 @@ async function sameSeries(tx: Tx, kind: ReviewedKind, id: string): Promise<SQL> 
     return eq(releases.seriesId, row!.seriesId)
   }
   if (kind === 'storyline') {
-    const [row] = await tx.select({ org: storylines.organisationId, scenario: storylines.scenario, name: storylines.name }).from(storylines).where(eq(storylines.id, id))
-    return and(eq(storylines.organisationId, row!.org), eq(storylines.scenario, row!.scenario), eq(storylines.name, row!.name))!
+    const [row] = await tx
+      .select({ org: storylines.organisationId, scenario: storylines.scenario, name: storylines.name })
+      .from(storylines)
+      .where(eq(storylines.id, id))
+    return and(
+      eq(storylines.organisationId, row!.org),
+      eq(storylines.scenario, row!.scenario),
+      eq(storylines.name, row!.name),
+    )!
   }
   if (kind === 'correlation-set') {
-    const [row] = await tx.select({ org: correlationSets.organisationId, scenario: correlationSets.scenario }).from(correlationSets).where(eq(correlationSets.id, id))
+    const [row] = await tx
+      .select({ org: correlationSets.organisationId, scenario: correlationSets.scenario })
+      .from(correlationSets)
+      .where(eq(correlationSets.id, id))
     return and(eq(correlationSets.organisationId, row!.org), eq(correlationSets.scenario, row!.scenario))!
   }
-  const [row] = await tx.select({ org: scaleFactorGrids.organisationId, component: scaleFactorGrids.component }).from(scaleFactorGrids).where(eq(scaleFactorGrids.id, id))
+  const [row] = await tx
+    .select({ org: scaleFactorGrids.organisationId, component: scaleFactorGrids.component })
+    .from(scaleFactorGrids)
+    .where(eq(scaleFactorGrids.id, id))
   return and(eq(scaleFactorGrids.organisationId, row!.org), eq(scaleFactorGrids.component, row!.component))!
 }
 
-const AUDIT_VERB: Record<ReviewAction, string> = { submit: 'submitted', approve: 'published', return: 'returned', withdraw: 'withdrawn' }
+const AUDIT_VERB: Record<ReviewAction, string> = {
+  submit: 'submitted',
+  approve: 'published',
+  return: 'returned',
+  withdraw: 'withdrawn',
+}
 
 export interface ReviewPayload { note?: string, reason?: string }
 
-export async function applyReviewAction(kind: ReviewedKind, id: string, action: ReviewAction, actor: CurrentUser, payload: ReviewPayload = {}) {
+export async function applyReviewAction(
+  kind: ReviewedKind,
+  id: string,
+  action: ReviewAction,
+  actor: CurrentUser,
+  payload: ReviewPayload = {},
+) {
   const db = await useDb()
   const table: ReviewedTable = TABLES[kind]
   const updated = await db.transaction(async (tx) => {
     // Lock the row so two reviewers cannot both publish, or publish and withdraw, at once.
-    const [row] = await tx.select({
-      id: table.id, state: table.state, authorId: table.authorId, coauthorIds: table.coauthorIds, version: table.version, organisationId: table.organisationId,
-    }).from(table).where(eq(table.id, id)).for('update')
+    const [row] = await tx
+      .select({
+        id: table.id,
+        state: table.state,
+        authorId: table.authorId,
+        coauthorIds: table.coauthorIds,
+        version: table.version,
+        organisationId: table.organisationId,
+      })
+      .from(table)
+      .where(eq(table.id, id))
+      .for('update')
     if (!row || row.organisationId !== actor.organisationId) {
       throw createError({ statusCode: 404, message: `No such ${KIND_LABEL[kind]}.` })
     }
@@ -59,7 +97,9 @@ export async function applyReviewAction(kind: ReviewedKind, id: string, action: 
 
     const now = new Date()
     if (action === 'approve') {
-      const previous = await tx.update(table).set({ state: 'superseded', supersededAt: now, updatedAt: now })
+      const previous = await tx
+        .update(table)
+        .set({ state: 'superseded', supersededAt: now, updatedAt: now })
         .where(and(await sameSeries(tx, kind, id), eq(table.state, 'published')))
         .returning({ id: table.id, version: table.version })
       for (const old of previous) {
@@ -72,13 +112,22 @@ export async function applyReviewAction(kind: ReviewedKind, id: string, action: 
       return: { state: 'draft', reviewNote: payload.note ?? null },
       withdraw: { state: 'withdrawn', withdrawnAt: now, withdrawalReason: payload.reason ?? null },
     } as const
-    const [updated] = await tx.update(table).set({ ...changes[action], updatedAt: now }).where(eq(table.id, id))
+    const [updated] = await tx
+      .update(table)
+      .set({ ...changes[action], updatedAt: now })
+      .where(eq(table.id, id))
       .returning({ id: table.id, state: table.state, version: table.version })
-    await writeAudit(tx, actor, `${kind}.${AUDIT_VERB[action]}`, { type: kind, id }, { version: row.version, from: row.state, to: verdict.to, ...payload })
+    await writeAudit(
+      tx,
+      actor,
+      `${kind}.${AUDIT_VERB[action]}`,
+      { type: kind, id },
+      { version: row.version, from: row.state, to: verdict.to, ...payload },
+    )
     // A storyline is never sampled: publishing one changes no outlook, so nothing is recomputed or mailed.
     if ((action === 'approve' || action === 'withdraw') && kind !== 'storyline') {
       // The recomputation is queued in this transaction: it happens if and only if the change lands.
-      await enqueueJob(tx, 'science-change', { ...await scienceChange(tx, kind, id, action), requestedBy: actor.id })
+      await enqueueJob(tx, 'science-change', { ...(await scienceChange(tx, kind, id, action)), requestedBy: actor.id })
       faultPoint('release-publish')
     }
     return updated!
@@ -91,21 +140,51 @@ export async function applyReviewAction(kind: ReviewedKind, id: string, action: 
  * Published or withdrawn science changes outlooks: which scenario (null: every scenario, for a
  * scale-factor grid) and why, as facts the "what changed" e-mails word in each watcher's language.
  */
-async function scienceChange(tx: Tx, kind: Exclude<ReviewedKind, 'storyline'>, id: string, action: 'approve' | 'withdraw') {
+async function scienceChange(
+  tx: Tx,
+  kind: Exclude<ReviewedKind, 'storyline'>,
+  id: string,
+  action: 'approve' | 'withdraw',
+) {
   const done = action === 'approve' ? 'published' : 'withdrawn'
   if (kind === 'release') {
-    const [row] = await tx.select({ scenario: series.scenario, component: series.component, version: releases.version, seriesId: series.id })
-      .from(releases).innerJoin(series, eq(series.id, releases.seriesId)).where(eq(releases.id, id))
-    const cause: RecomputationCause = { kind: 'release', action: done, component: row!.component, version: row!.version, scenario: row!.scenario }
+    const [row] = await tx
+      .select({
+        scenario: series.scenario,
+        component: series.component,
+        version: releases.version,
+        seriesId: series.id,
+      })
+      .from(releases)
+      .innerJoin(series, eq(series.id, releases.seriesId))
+      .where(eq(releases.id, id))
+    const cause: RecomputationCause = {
+      kind: 'release',
+      action: done,
+      component: row!.component,
+      version: row!.version,
+      scenario: row!.scenario,
+    }
     // Only organisations that adopted this series are reached: another series is offered, not applied.
     return { scenario: row!.scenario, seriesId: row!.seriesId, cause }
   }
   if (kind === 'correlation-set') {
-    const [row] = await tx.select({ scenario: correlationSets.scenario, organisationId: correlationSets.organisationId }).from(correlationSets).where(eq(correlationSets.id, id))
+    const [row] = await tx
+      .select({ scenario: correlationSets.scenario, organisationId: correlationSets.organisationId })
+      .from(correlationSets)
+      .where(eq(correlationSets.id, id))
     const cause: RecomputationCause = { kind: 'correlation-set', action: done, scenario: row!.scenario }
     return { scenario: row!.scenario, correlationSource: row!.organisationId, cause }
   }
-  const [row] = await tx.select({ component: scaleFactorGrids.component, version: scaleFactorGrids.version }).from(scaleFactorGrids).where(eq(scaleFactorGrids.id, id))
-  const cause: RecomputationCause = { kind: 'scale-factor-grid', action: done, component: row!.component, version: row!.version }
+  const [row] = await tx
+    .select({ component: scaleFactorGrids.component, version: scaleFactorGrids.version })
+    .from(scaleFactorGrids)
+    .where(eq(scaleFactorGrids.id, id))
+  const cause: RecomputationCause = {
+    kind: 'scale-factor-grid',
+    action: done,
+    component: row!.component,
+    version: row!.version,
+  }
   return { scenario: null, cause }
 }

@@ -1,5 +1,12 @@
 import { and, desc, eq, inArray } from 'drizzle-orm'
-import { correlationAdoptions, correlationSets, releaseDraws, releases, scaleFactorGrids, series } from '~~/server/db/schema'
+import {
+  correlationAdoptions,
+  correlationSets,
+  releaseDraws,
+  releases,
+  scaleFactorGrids,
+  series,
+} from '~~/server/db/schema'
 import { interpolateFactor } from '#shared/releases/grid'
 import { COMPONENTS } from '#shared/types/science'
 import { decodeDraws } from './releases'
@@ -41,18 +48,43 @@ export async function scienceFor(organisationId: string, scenario: string): Prom
   const chosen = await adoptedReleases(organisationId, scenario)
   const db = await useDb()
   const ids = [...chosen.values()].map(row => row.releaseId)
-  const rows = new Map((await db.select({
-    id: releases.id, form: releases.form, baselineYear: releases.baselineYear, anchorYears: releases.anchorYears, parameters: releases.parameters, citation: releases.citation,
-  }).from(releases).where(inArray(releases.id, ids))).map(row => [row.id, row]))
+  const rows = new Map(
+    (
+      await db
+        .select({
+          id: releases.id,
+          form: releases.form,
+          baselineYear: releases.baselineYear,
+          anchorYears: releases.anchorYears,
+          parameters: releases.parameters,
+          citation: releases.citation,
+        })
+        .from(releases)
+        .where(inArray(releases.id, ids))
+    ).map(row => [row.id, row]),
+  )
   return Promise.all(COMPONENTS.map(async (component) => {
     const adopted = chosen.get(component)!
     const row = rows.get(adopted.releaseId)!
-    const release: Record<string, unknown> = { form: row.form, baselineYear: row.baselineYear, anchorYears: row.anchorYears, ...row.parameters }
+    const release: Record<string, unknown> = {
+      form: row.form,
+      baselineYear: row.baselineYear,
+      anchorYears: row.anchorYears,
+      ...row.parameters,
+    }
     if (row.form === 'samples') {
       const [stored] = await db.select().from(releaseDraws).where(eq(releaseDraws.releaseId, row.id))
       release.draws = decodeDraws(stored!.values, stored!.drawCount, stored!.anchorCount)
     }
-    return { component, releaseId: row.id, seriesId: adopted.seriesId, version: adopted.version, title: adopted.title, citation: row.citation, release }
+    return {
+      component,
+      releaseId: row.id,
+      seriesId: adopted.seriesId,
+      version: adopted.version,
+      title: adopted.title,
+      citation: row.citation,
+      release,
+    }
   }))
 }
 
@@ -62,21 +94,39 @@ export async function scienceFor(organisationId: string, scenario: string): Prom
  * those the set was made for: the set is still applied (leaving it out would narrow the tails) and
  * the outlook says so in a note.
  */
-export async function correlationFor(organisationId: string, scenario: string, components: string[], adoptedSeries: Record<string, string>) {
+export async function correlationFor(
+  organisationId: string,
+  scenario: string,
+  components: string[],
+  adoptedSeries: Record<string, string>,
+) {
   const db = await useDb()
-  const [choice] = await db.select({ source: correlationAdoptions.sourceOrganisationId }).from(correlationAdoptions)
+  const [choice] = await db
+    .select({ source: correlationAdoptions.sourceOrganisationId })
+    .from(correlationAdoptions)
     .where(and(eq(correlationAdoptions.organisationId, organisationId), eq(correlationAdoptions.scenario, scenario)))
   if (!choice?.source) return { set: null, matrix: null, otherSeries: [] }
-  const [set] = await db.select().from(correlationSets)
-    .where(and(eq(correlationSets.organisationId, choice.source), eq(correlationSets.scenario, scenario), eq(correlationSets.state, 'published')))
-    .orderBy(desc(correlationSets.publishedAt)).limit(1)
+  const [set] = await db
+    .select()
+    .from(correlationSets)
+    .where(
+      and(
+        eq(correlationSets.organisationId, choice.source),
+        eq(correlationSets.scenario, scenario),
+        eq(correlationSets.state, 'published'),
+      ),
+    )
+    .orderBy(desc(correlationSets.publishedAt))
+    .limit(1)
   if (!set) return { set: null, matrix: null, otherSeries: [] }
-  const matrix = components.map((a, i) => components.map((b, j) => {
-    if (i === j) return 1
-    const p = set.components.indexOf(a)
-    const q = set.components.indexOf(b)
-    return p >= 0 && q >= 0 ? set.matrix[p]![q]! : 0
-  }))
+  const matrix = components.map((a, i) =>
+    components.map((b, j) => {
+      if (i === j) return 1
+      const p = set.components.indexOf(a)
+      const q = set.components.indexOf(b)
+      return p >= 0 && q >= 0 ? set.matrix[p]![q]! : 0
+    }),
+  )
   return { set, matrix, otherSeries: otherSeries(set.madeForSeries, adoptedSeries) }
 }
 
@@ -85,13 +135,24 @@ export interface SiteScale { factor: number, gridId: string | null, note: string
 /** Each component's scale factor at a point: the latest published grid covering it, else 1. */
 export async function scaleFactorsAt(latitude: number, longitude: number): Promise<Map<string, SiteScale>> {
   const db = await useDb()
-  const grids = await db.select().from(scaleFactorGrids).where(eq(scaleFactorGrids.state, 'published')).orderBy(desc(scaleFactorGrids.publishedAt))
+  const grids = await db
+    .select()
+    .from(scaleFactorGrids)
+    .where(eq(scaleFactorGrids.state, 'published'))
+    .orderBy(desc(scaleFactorGrids.publishedAt))
   const factors = new Map<string, SiteScale>()
   for (const component of COMPONENTS) {
     const grid = grids.find(g => g.component === component && interpolateFactor(g, latitude, longitude) !== null)
-    factors.set(component, grid
-      ? { factor: Math.round(interpolateFactor(grid, latitude, longitude)! * 1000) / 1000, gridId: grid.id, note: `${grid.title}, version ${grid.version}` }
-      : { factor: 1, gridId: null, note: null })
+    factors.set(
+      component,
+      grid
+        ? {
+            factor: Math.round(interpolateFactor(grid, latitude, longitude)! * 1000) / 1000,
+            gridId: grid.id,
+            note: `${grid.title}, version ${grid.version}`,
+          }
+        : { factor: 1, gridId: null, note: null },
+    )
   }
   return factors
 }

@@ -7,8 +7,10 @@ import type { CurrentUser } from '../utils/auth'
 /** What signing in needs of the account an address names, if any. */
 export async function accountForSignIn(email: string) {
   const db = await useDb()
-  const [row] = await db.select({ id: users.id, hash: users.passwordHash, disabled: users.disabled, organisationId: users.organisationId })
-    .from(users).where(eq(users.email, email))
+  const [row] = await db
+    .select({ id: users.id, hash: users.passwordHash, disabled: users.disabled, organisationId: users.organisationId })
+    .from(users)
+    .where(eq(users.email, email))
   return row
 }
 
@@ -30,8 +32,24 @@ export async function recordSignInFailure(failure: SignInFailure) {
   const db = await useDb()
   const target = { type: 'user', id: userId }
   await writeAudit(db, null, 'session.sign-in-failed', target, { email, client, failuresForAddress }, organisationId)
-  if (lockedForMinutes !== null) await writeAudit(db, null, 'session.locked-out', target, { email, client, scope: 'address', minutes: lockedForMinutes }, organisationId)
-  if (slowedToSeconds !== null) await writeAudit(db, null, 'session.locked-out', { type: 'client' }, { email, client, scope: 'client', slowedToSeconds }, organisationId)
+  if (lockedForMinutes !== null)
+    await writeAudit(
+      db,
+      null,
+      'session.locked-out',
+      target,
+      { email, client, scope: 'address', minutes: lockedForMinutes },
+      organisationId,
+    )
+  if (slowedToSeconds !== null)
+    await writeAudit(
+      db,
+      null,
+      'session.locked-out',
+      { type: 'client' },
+      { email, client, scope: 'client', slowedToSeconds },
+      organisationId,
+    )
 }
 
 export async function recordSignIn(user: CurrentUser) {

@@ -14,13 +14,20 @@ export const HEADLINE_YEAR = 2100
  * the site's datum (`datumOffset`: mean sea level at the epoch above the datum). A flood level's
  * numbers mean something else and are never the headline.
  */
-export function headlineOf(result: OutlookResult, labels: Map<string, string>, datumOffset = 0): OutlookHeadline | null {
+export function headlineOf(
+  result: OutlookResult,
+  labels: Map<string, string>,
+  datumOffset = 0,
+): OutlookHeadline | null {
   const threshold = result.thresholds.find(t => t.kind !== 'flood-level')
   if (!threshold) return null
   let index = result.years.findLastIndex(year => year <= HEADLINE_YEAR)
   if (index < 0) index = 0
   return {
-    thresholdLabel: labels.get(threshold.key) ?? threshold.key, height: threshold.height + datumOffset, year: result.years[index]!, probability: threshold.byYear[index]!.value,
+    thresholdLabel: labels.get(threshold.key) ?? threshold.key,
+    height: threshold.height + datumOffset,
+    year: result.years[index]!,
+    probability: threshold.byYear[index]!.value,
     triggerYears: threshold.triggerYears.map(({ tolerance, year }) => ({ tolerance, year })),
   }
 }
@@ -31,13 +38,35 @@ export function headlineOf(result: OutlookResult, labels: Map<string, string>, d
  */
 export async function listSites(user: CurrentUser) {
   const db = await useDb()
-  const rows = await db.select().from(sites).where(eq(sites.organisationId, user.organisationId)).orderBy(asc(sites.name))
-  const planned = await db.selectDistinctOn([outlooks.siteId], { siteId: outlooks.siteId, id: outlooks.id, scenario: outlooks.scenario, headline: outlooks.headline, finishedAt: outlooks.finishedAt })
-    .from(outlooks).innerJoin(sites, eq(sites.id, outlooks.siteId))
-    .where(and(eq(sites.organisationId, user.organisationId), eq(outlooks.state, 'done'), eq(outlooks.scenario, sites.planningScenario)))
+  const rows = await db
+    .select()
+    .from(sites)
+    .where(eq(sites.organisationId, user.organisationId))
+    .orderBy(asc(sites.name))
+  const planned = await db
+    .selectDistinctOn([outlooks.siteId], {
+      siteId: outlooks.siteId,
+      id: outlooks.id,
+      scenario: outlooks.scenario,
+      headline: outlooks.headline,
+      finishedAt: outlooks.finishedAt,
+    })
+    .from(outlooks)
+    .innerJoin(sites, eq(sites.id, outlooks.siteId))
+    .where(
+      and(
+        eq(sites.organisationId, user.organisationId),
+        eq(outlooks.state, 'done'),
+        eq(outlooks.scenario, sites.planningScenario),
+      ),
+    )
     .orderBy(outlooks.siteId, desc(outlooks.finishedAt))
-  const counts = await db.select({ siteId: thresholds.siteId, n: count() }).from(thresholds)
-    .innerJoin(sites, eq(sites.id, thresholds.siteId)).where(eq(sites.organisationId, user.organisationId)).groupBy(thresholds.siteId)
+  const counts = await db
+    .select({ siteId: thresholds.siteId, n: count() })
+    .from(thresholds)
+    .innerJoin(sites, eq(sites.id, thresholds.siteId))
+    .where(eq(sites.organisationId, user.organisationId))
+    .groupBy(thresholds.siteId)
   return rows.map(site => ({
     id: site.id,
     name: site.name,

@@ -19,7 +19,8 @@ export async function siteWithThresholds(id: string) {
 /** A site of the caller's organisation, or 404 (another organisation's site looks missing). */
 export async function loadSite(user: CurrentUser, id: string) {
   const site = await siteWithThresholds(id)
-  if (!site || site.organisationId !== user.organisationId) throw createError({ statusCode: 404, message: 'No such site.' })
+  if (!site || site.organisationId !== user.organisationId)
+    throw createError({ statusCode: 404, message: 'No such site.' })
   return site
 }
 
@@ -37,11 +38,18 @@ function siteColumns(input: SiteInput) {
     landMotionSource: input.landMotion.source,
     landMotionReference: input.landMotion.reference,
     landMotionEpoch: input.landMotion.epoch,
-    ...(input.planning ? { planningScenario: input.planning.scenario, planningTolerance: input.planning.tolerance } : {}),
+    ...(input.planning
+      ? { planningScenario: input.planning.scenario, planningTolerance: input.planning.tolerance }
+      : {}),
     ...(input.gumbel !== undefined
       ? {
-          gumbelLocation: input.gumbel?.location ?? null, gumbelScale: input.gumbel?.scale ?? null, gumbelSource: input.gumbel ? 'entered' : null,
-          gumbelTrend: null, gumbelLocationSe: null, gumbelScaleSe: null, gumbelTrendSe: null,
+          gumbelLocation: input.gumbel?.location ?? null,
+          gumbelScale: input.gumbel?.scale ?? null,
+          gumbelSource: input.gumbel ? 'entered' : null,
+          gumbelTrend: null,
+          gumbelLocationSe: null,
+          gumbelScaleSe: null,
+          gumbelTrendSe: null,
         }
       : {}),
   }
@@ -52,9 +60,20 @@ function siteColumns(input: SiteInput) {
  * outlooks, briefings and e-mails) when its label or height is edited.
  */
 async function replaceThresholds(tx: Tx, siteId: string, list: SiteInput['thresholds']) {
-  const existing = await tx.select({ id: thresholds.id }).from(thresholds).where(eq(thresholds.siteId, siteId)).orderBy(asc(thresholds.position))
+  const existing = await tx
+    .select({ id: thresholds.id })
+    .from(thresholds)
+    .where(eq(thresholds.siteId, siteId))
+    .orderBy(asc(thresholds.position))
   for (const [position, t] of list.entries()) {
-    const values = { label: t.label, height: t.height, kind: t.kind, buildYear: t.buildYear ?? null, designLifeYears: t.designLifeYears ?? null, position }
+    const values = {
+      label: t.label,
+      height: t.height,
+      kind: t.kind,
+      buildYear: t.buildYear ?? null,
+      designLifeYears: t.designLifeYears ?? null,
+      position,
+    }
     const current = existing[position]
     if (current) await tx.update(thresholds).set(values).where(eq(thresholds.id, current.id))
     else await tx.insert(thresholds).values({ ...values, siteId })
@@ -70,17 +89,33 @@ async function replaceThresholds(tx: Tx, siteId: string, list: SiteInput['thresh
 function requireStatisticsForFloodLevels(input: SiteInput, stored: { gumbelLocation: number | null } | null) {
   const hasStatistics = input.gumbel !== undefined ? input.gumbel !== null : stored?.gumbelLocation != null
   if (hasStatistics) return
-  const issues = input.thresholds.flatMap((t, i) => t.kind === 'flood-level'
-    ? [{ field: `thresholds.${i}.kind`, message: 'A flood level is compared with the total water level and needs the site\'s extreme-water statistics; enter them or make this a mean-sea-level threshold.' }]
-    : [])
-  if (issues.length) throw createError({ statusCode: 400, message: issues.map(i => `${i.field}: ${i.message}`).join(' '), data: { issues } })
+  const issues = input.thresholds.flatMap((t, i) =>
+    t.kind === 'flood-level'
+      ? [
+          {
+            field: `thresholds.${i}.kind`,
+            message:
+              'A flood level is compared with the total water level and needs the site\'s extreme-water statistics; enter them or make this a mean-sea-level threshold.',
+          },
+        ]
+      : [],
+  )
+  if (issues.length)
+    throw createError({
+      statusCode: 400,
+      message: issues.map(i => `${i.field}: ${i.message}`).join(' '),
+      data: { issues },
+    })
 }
 
 export async function createSite(planner: CurrentUser, input: SiteInput) {
   requireStatisticsForFloodLevels(input, null)
   const db = await useDb()
   return db.transaction(async (tx) => {
-    const [site] = await tx.insert(sites).values({ ...siteColumns(input), organisationId: planner.organisationId, createdBy: planner.id }).returning()
+    const [site] = await tx
+      .insert(sites)
+      .values({ ...siteColumns(input), organisationId: planner.organisationId, createdBy: planner.id })
+      .returning()
     await replaceThresholds(tx, site!.id, input.thresholds)
     await writeAudit(tx, planner, 'site.created', { type: 'site', id: site!.id }, { name: input.name })
     return site!
@@ -95,14 +130,34 @@ export async function updateSite(planner: CurrentUser, id: string, input: SiteIn
     // The row lock makes check-then-write one step: of two saves from the same version, one wins.
     const [current] = await tx.select({ updatedAt: sites.updatedAt }).from(sites).where(eq(sites.id, id)).for('update')
     if (expectedVersion && current!.updatedAt.toISOString() !== new Date(expectedVersion).toISOString()) {
-      throw createError({ statusCode: 412, message: 'Someone saved changes to this site after you opened it. Reload the page to see them, then make your changes again.' })
+      throw createError({
+        statusCode: 412,
+        message:
+          'Someone saved changes to this site after you opened it. Reload the page to see them, then make your changes again.',
+      })
     }
-    const [site] = await tx.update(sites).set({ ...siteColumns(input), updatedAt: new Date() }).where(eq(sites.id, id)).returning()
+    const [site] = await tx
+      .update(sites)
+      .set({ ...siteColumns(input), updatedAt: new Date() })
+      .where(eq(sites.id, id))
+      .returning()
     await replaceThresholds(tx, id, input.thresholds)
-    await writeAudit(tx, planner, 'site.updated', { type: 'site', id }, {
-      landMotion: { before: [before.landMotionRate, before.landMotionSigma], after: [input.landMotion.rateMmPerYear, input.landMotion.sigmaMmPerYear] },
-      thresholds: { before: before.thresholds.map(t => [t.label, t.height]), after: input.thresholds.map(t => [t.label, t.height]) },
-    })
+    await writeAudit(
+      tx,
+      planner,
+      'site.updated',
+      { type: 'site', id },
+      {
+        landMotion: {
+          before: [before.landMotionRate, before.landMotionSigma],
+          after: [input.landMotion.rateMmPerYear, input.landMotion.sigmaMmPerYear],
+        },
+        thresholds: {
+          before: before.thresholds.map(t => [t.label, t.height]),
+          after: input.thresholds.map(t => [t.label, t.height]),
+        },
+      },
+    )
     // Its outlooks are recomputed and its watchers told, in the background (server/services/background.ts).
     await enqueueJob(tx, 'recompute-site', { siteId: id, cause: { kind: 'site-edited', site: input.name } })
     return site!
@@ -129,12 +184,26 @@ export async function replaceAnnualMaxima(planner: CurrentUser, id: string, csv:
   await db.transaction(async (tx) => {
     await tx.delete(annualMaxima).where(eq(annualMaxima.siteId, id))
     await tx.insert(annualMaxima).values(maxima.map(m => ({ siteId: id, ...m })))
-    await tx.update(sites).set({
-      gumbelLocation: fit.location, gumbelScale: fit.scale, gumbelSource: `fitted:${sampleSize}`,
-      gumbelTrend: fit.trendPerYear, gumbelLocationSe: fit.se.location, gumbelScaleSe: fit.se.scale, gumbelTrendSe: fit.se.trendPerYear,
-      updatedAt: new Date(),
-    }).where(eq(sites.id, id))
-    await writeAudit(tx, planner, 'site.annual-maxima', { type: 'site', id }, { years: sampleSize, location: fit.location, scale: fit.scale, trendPerYear: fit.trendPerYear })
+    await tx
+      .update(sites)
+      .set({
+        gumbelLocation: fit.location,
+        gumbelScale: fit.scale,
+        gumbelSource: `fitted:${sampleSize}`,
+        gumbelTrend: fit.trendPerYear,
+        gumbelLocationSe: fit.se.location,
+        gumbelScaleSe: fit.se.scale,
+        gumbelTrendSe: fit.se.trendPerYear,
+        updatedAt: new Date(),
+      })
+      .where(eq(sites.id, id))
+    await writeAudit(
+      tx,
+      planner,
+      'site.annual-maxima',
+      { type: 'site', id },
+      { years: sampleSize, location: fit.location, scale: fit.scale, trendPerYear: fit.trendPerYear },
+    )
     await enqueueJob(tx, 'recompute-site', { siteId: id, cause: { kind: 'annual-maxima', site: site.name } })
   })
   kickJobs()

@@ -15,7 +15,12 @@ export async function organisationForPeople(admin: CurrentUser, organisationId: 
   const [organisation] = scope && scope !== organisationId
     ? []
     : await db.select().from(organisations).where(eq(organisations.id, organisationId))
-  if (!organisation) throw createError({ statusCode: 400, message: MISSING_ORGANISATION, data: { issues: [{ field: 'organisationId', message: 'Choose an organisation from the list.' }] } })
+  if (!organisation)
+    throw createError({
+      statusCode: 400,
+      message: MISSING_ORGANISATION,
+      data: { issues: [{ field: 'organisationId', message: 'Choose an organisation from the list.' }] },
+    })
   return organisation
 }
 
@@ -23,7 +28,11 @@ export async function organisationForPeople(admin: CurrentUser, organisationId: 
 export async function organisationsForPeople(admin: CurrentUser) {
   const scope = administeredOrganisation(admin)
   const db = await useDb()
-  return db.select().from(organisations).where(scope ? eq(organisations.id, scope) : undefined).orderBy(asc(organisations.name))
+  return db
+    .select()
+    .from(organisations)
+    .where(scope ? eq(organisations.id, scope) : undefined)
+    .orderBy(asc(organisations.name))
 }
 
 export async function listUsers(admin: CurrentUser) {
@@ -47,10 +56,31 @@ export async function createUser(admin: CurrentUser, input: CreateUserInput) {
 
   const passwordHash = await hashPassword(input.password)
   return db.transaction(async (tx) => {
-    const [created] = await tx.insert(users).values({
-      email: input.email, name: input.name, role: input.role, organisationId: input.organisationId, passwordHash,
-    }).returning({ id: users.id, email: users.email, name: users.name, role: users.role, organisationId: users.organisationId, disabled: users.disabled })
-    await writeAudit(tx, admin, 'user.created', { type: 'user', id: created!.id }, { email: input.email, role: input.role }, input.organisationId)
+    const [created] = await tx
+      .insert(users)
+      .values({
+        email: input.email,
+        name: input.name,
+        role: input.role,
+        organisationId: input.organisationId,
+        passwordHash,
+      })
+      .returning({
+        id: users.id,
+        email: users.email,
+        name: users.name,
+        role: users.role,
+        organisationId: users.organisationId,
+        disabled: users.disabled,
+      })
+    await writeAudit(
+      tx,
+      admin,
+      'user.created',
+      { type: 'user', id: created!.id },
+      { email: input.email, role: input.role },
+      input.organisationId,
+    )
     return created!
   })
 }
@@ -60,17 +90,35 @@ export async function updateUser(admin: CurrentUser, id: string, patch: UpdateUs
   const db = await useDb()
   return db.transaction(async (tx) => {
     const [target] = await tx.select().from(users).where(eq(users.id, id)).for('update')
-    if (!target || (scope && target.organisationId !== scope)) throw createError({ statusCode: 404, message: 'No such user.' })
+    if (!target || (scope && target.organisationId !== scope))
+      throw createError({ statusCode: 404, message: 'No such user.' })
     // An admin may neither make nor unmake the operator: either would reach beyond their organisation.
     assertMayGrant(admin, patch.role)
     if (target.role === 'operator') assertMayGrant(admin, 'operator')
     await keepOneInCharge(tx, target, patch)
 
-    const [updated] = await tx.update(users).set({ ...patch, updatedAt: new Date() }).where(eq(users.id, id))
-      .returning({ id: users.id, email: users.email, name: users.name, role: users.role, organisationId: users.organisationId, disabled: users.disabled })
+    const [updated] = await tx
+      .update(users)
+      .set({ ...patch, updatedAt: new Date() })
+      .where(eq(users.id, id))
+      .returning({
+        id: users.id,
+        email: users.email,
+        name: users.name,
+        role: users.role,
+        organisationId: users.organisationId,
+        disabled: users.disabled,
+      })
     // Disabling ends the user's sessions for good: enabling them again later does not revive old cookies.
     if (patch.disabled === true && !target.disabled) await endSessions(tx, id)
-    await writeAudit(tx, admin, 'user.updated', { type: 'user', id }, { before: { role: target.role, disabled: target.disabled, name: target.name }, after: patch }, target.organisationId)
+    await writeAudit(
+      tx,
+      admin,
+      'user.updated',
+      { type: 'user', id },
+      { before: { role: target.role, disabled: target.disabled, name: target.name }, after: patch },
+      target.organisationId,
+    )
     return updated!
   })
 }

@@ -21,11 +21,17 @@ export async function requireUser(event: H3Event): Promise<CurrentUser> {
   const row = await loadSessionRow(id)
   if (!row) {
     await clearUserSession(event)
-    throw createError({ statusCode: 401, message: 'Your account is no longer active. Ask an administrator if this is unexpected.' })
+    throw createError({
+      statusCode: 401,
+      message: 'Your account is no longer active. Ask an administrator if this is unexpected.',
+    })
   }
   if (row.generation !== session.generation) {
     await clearUserSession(event)
-    throw createError({ statusCode: 401, message: 'This session has ended (signed out, or the password was changed). Sign in again.' })
+    throw createError({
+      statusCode: 401,
+      message: 'This session has ended (signed out, or the password was changed). Sign in again.',
+    })
   }
   event.context.user = row.user
   return row.user
@@ -59,7 +65,10 @@ export async function refreshSessionSnapshot(event: H3Event, user: CurrentUser) 
  * cookie that has already ended cannot sign its owner out of a newer session.
  */
 export async function endSessions(db: Pick<Database, 'update'>, userId: string, ifGeneration?: number) {
-  const which = ifGeneration === undefined ? eq(users.id, userId) : and(eq(users.id, userId), eq(users.sessionGeneration, ifGeneration))
+  const which
+    = ifGeneration === undefined
+      ? eq(users.id, userId)
+      : and(eq(users.id, userId), eq(users.sessionGeneration, ifGeneration))
   await db.update(users).set({ sessionGeneration: sql`${users.sessionGeneration} + 1` }).where(which)
 }
 
@@ -75,7 +84,8 @@ export async function requireRole(event: H3Event, ...roles: Role[]): Promise<Cur
 /** An organisation's administrator, or the operator (who administers every organisation). */
 export async function requireAdmin(event: H3Event): Promise<CurrentUser> {
   const user = await requireUser(event)
-  if (user.role !== 'admin' && user.role !== 'operator') throw createError({ statusCode: 403, message: 'This needs the admin role.' })
+  if (user.role !== 'admin' && user.role !== 'operator')
+    throw createError({ statusCode: 403, message: 'This needs the admin role.' })
   return user
 }
 /** The instance's operator: organisations, the demo mailbox, instance-wide work. */
@@ -85,12 +95,17 @@ export const requireOperator = (event: H3Event) => requireRole(event, 'operator'
  * Which organisation's people this administrator may act on: the operator every one (null), an
  * admin only their own.
  */
-export const administeredOrganisation = (admin: CurrentUser): string | null => admin.role === 'operator' ? null : admin.organisationId
+export const administeredOrganisation = (admin: CurrentUser): string | null =>
+  admin.role === 'operator' ? null : admin.organisationId
 
 /** Only the operator may make someone an operator: an admin who could would hold every organisation. */
 export function assertMayGrant(admin: CurrentUser, role: Role | undefined) {
   if (role === 'operator' && admin.role !== 'operator') {
-    throw createError({ statusCode: 403, message: 'role: Making someone an operator needs the operator role.', data: { issues: [{ field: 'role', message: 'Choose a role other than operator.' }] } })
+    throw createError({
+      statusCode: 403,
+      message: 'role: Making someone an operator needs the operator role.',
+      data: { issues: [{ field: 'role', message: 'Choose a role other than operator.' }] },
+    })
   }
 }
 
@@ -120,13 +135,17 @@ const sessionUserQuery = preparedQuery(db => db.select({
   .where(eq(users.id, sql.placeholder('id')))
   .prepare('session_user'))
 
-/** The signed-in user's row and session generation; undefined when missing or disabled (concurrent calls share a query). */
-const loadSessionRow = sharedReads(async (id: string): Promise<{ user: CurrentUser, generation: number } | undefined> => {
-  const [row] = await (await sessionUserQuery()).execute({ id })
-  if (!row || row.disabled) return undefined
-  const { disabled: _disabled, generation, ...user } = row
-  return { user: { ...user, locale: languageOf(user.locale) }, generation }
-})
+/**
+ * The signed-in user's row and session generation; undefined when missing or disabled (concurrent calls share a query).
+ */
+const loadSessionRow = sharedReads(
+  async (id: string): Promise<{ user: CurrentUser, generation: number } | undefined> => {
+    const [row] = await (await sessionUserQuery()).execute({ id })
+    if (!row || row.disabled) return undefined
+    const { disabled: _disabled, generation, ...user } = row
+    return { user: { ...user, locale: languageOf(user.locale) }, generation }
+  },
+)
 
 /** The user's row as routes see it; undefined when missing or disabled. */
 export const loadSessionUser = async (id: string) => (await loadSessionRow(id))?.user

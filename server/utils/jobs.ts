@@ -53,7 +53,12 @@ export type JobKind = keyof JobPayloads
  * Queues background work in the caller's transaction, so the work exists if and only if the
  * change that causes it was committed. Run by server/services/background.ts.
  */
-export async function enqueueJob<Kind extends JobKind>(executor: Pick<Database, 'insert'>, kind: Kind, payload: JobPayloads[Kind], recomputationId?: string) {
+export async function enqueueJob<Kind extends JobKind>(
+  executor: Pick<Database, 'insert'>,
+  kind: Kind,
+  payload: JobPayloads[Kind],
+  recomputationId?: string,
+) {
   await executor.insert(jobs).values({ kind, payload, recomputationId: recomputationId ?? null })
 }
 

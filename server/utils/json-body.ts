@@ -21,8 +21,13 @@ export function unstorableText(body: unknown): FieldIssue | undefined {
   const stack: Array<{ value: unknown, path: string[] }> = [{ value: body, path: [] }]
   const field = (path: string[]) => path.length ? path.join('.') : 'body'
   const textIssue = (text: string, path: string[]): FieldIssue | undefined => {
-    if (text.includes('\u0000')) return { field: field(path), message: 'Remove the NUL character (\\u0000): text cannot contain it.' }
-    if (!text.isWellFormed()) return { field: field(path), message: 'The text has a broken character (an unpaired UTF-16 surrogate); type or paste it again.' }
+    if (text.includes('\u0000'))
+      return { field: field(path), message: 'Remove the NUL character (\\u0000): text cannot contain it.' }
+    if (!text.isWellFormed())
+      return {
+        field: field(path),
+        message: 'The text has a broken character (an unpaired UTF-16 surrogate); type or paste it again.',
+      }
     return undefined
   }
   while (stack.length) {
@@ -33,17 +38,21 @@ export function unstorableText(body: unknown): FieldIssue | undefined {
       continue
     }
     if (value === null || typeof value !== 'object') continue
-    if (path.length >= MAX_JSON_DEPTH) return { field: field(path), message: `The JSON is nested more than ${MAX_JSON_DEPTH} levels deep; send the fields of this form only.` }
+    if (path.length >= MAX_JSON_DEPTH)
+      return {
+        field: field(path),
+        message: `The JSON is nested more than ${MAX_JSON_DEPTH} levels deep; send the fields of this form only.`,
+      }
     for (const [key, child] of Object.entries(value)) {
       const issue = textIssue(key, path)
       if (issue) return { ...issue, message: `A field name: ${issue.message}` }
       // Numbers, booleans and nulls need no look (a 100,000-draw upload is mostly numbers).
-      if (typeof child === 'string' || (child !== null && typeof child === 'object')) stack.push({ value: child, path: [...path, key] })
+      if (typeof child === 'string' || (child !== null && typeof child === 'object'))
+        stack.push({ value: child, path: [...path, key] })
     }
   }
   return undefined
 }
-
 
 /** A request body as an object, or the issue a person can act on: not JSON, not an object, unstorable. */
 export function parseJsonObject(raw: string | undefined): { body: Record<string, unknown> } | { issues: FieldIssue[] } {

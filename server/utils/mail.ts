@@ -8,7 +8,14 @@ import { startStandInSmtp } from '../mail/standin'
 // claims due messages under a lease (so two senders never send one message twice), marked sent
 // only once the server has accepted it, and retried with backoff while the server is away.
 
-export interface OutgoingMail { to: string, subject: string, text: string, html: string, headers?: Record<string, string>, dedupeKey?: string }
+export interface OutgoingMail {
+  to: string
+  subject: string
+  text: string
+  html: string
+  headers?: Record<string, string>
+  dedupeKey?: string
+}
 
 export const MAX_MAIL_ATTEMPTS = 12
 const BATCH = 20
@@ -32,8 +39,18 @@ export function mailTransport() {
     const { SMTP_URL, SMTP_STANDIN_PORT } = serverConfig()
     if (SMTP_URL) return { transporter: nodemailer.createTransport(SMTP_URL), describe: 'SMTP server (SMTP_URL)' }
     const standIn = await startStandInSmtp(await useDb(), SMTP_STANDIN_PORT)
-    console.info(`[brinkwater] No SMTP_URL: mail goes to the local stand-in on 127.0.0.1:${standIn.port} (read it on the admin mailbox page).`)
-    return { transporter: nodemailer.createTransport({ host: '127.0.0.1', port: standIn.port, secure: false, ignoreTLS: true }), describe: `local stand-in on port ${standIn.port}` }
+    console.info(
+      `[brinkwater] No SMTP_URL: mail goes to the local stand-in on 127.0.0.1:${standIn.port} (read it on the admin mailbox page).`,
+    )
+    return {
+      transporter: nodemailer.createTransport({
+        host: '127.0.0.1',
+        port: standIn.port,
+        secure: false,
+        ignoreTLS: true,
+      }),
+      describe: `local stand-in on port ${standIn.port}`,
+    }
   })()
   return transport
 }
@@ -60,9 +77,19 @@ export function kickMail() {
 async function claimDue(db: Database) {
   const now = new Date()
   return db.transaction(async (tx) => {
-    const due = await tx.select({ id: mailOutbox.id }).from(mailOutbox)
-      .where(and(eq(mailOutbox.state, 'queued'), lte(mailOutbox.nextAttemptAt, now), or(isNull(mailOutbox.lockedUntil), lt(mailOutbox.lockedUntil, now))))
-      .orderBy(mailOutbox.createdAt).limit(BATCH).for('update', { skipLocked: true })
+    const due = await tx
+      .select({ id: mailOutbox.id })
+      .from(mailOutbox)
+      .where(
+        and(
+          eq(mailOutbox.state, 'queued'),
+          lte(mailOutbox.nextAttemptAt, now),
+          or(isNull(mailOutbox.lockedUntil), lt(mailOutbox.lockedUntil, now)),
+        ),
+      )
+      .orderBy(mailOutbox.createdAt)
+      .limit(BATCH)
+      .for('update', { skipLocked: true })
     if (!due.length) return []
     return tx.update(mailOutbox).set({ lockedUntil: new Date(now.getTime() + LEASE_MS) })
       .where(inArray(mailOutbox.id, due.map(row => row.id))).returning()
@@ -75,8 +102,24 @@ export async function deliverDueMail() {
   for (let batch = await claimDue(db); batch.length; batch = await claimDue(db)) {
     for (const message of batch) {
       try {
-        const info = await transporter.sendMail({ from: mailFrom(), to: message.to, subject: message.subject, text: message.text, html: message.html, headers: message.headers })
-        await db.update(mailOutbox).set({ state: 'sent', sentAt: new Date(), messageId: info.messageId, lockedUntil: null, attempts: sql`${mailOutbox.attempts} + 1` }).where(eq(mailOutbox.id, message.id))
+        const info = await transporter.sendMail({
+          from: mailFrom(),
+          to: message.to,
+          subject: message.subject,
+          text: message.text,
+          html: message.html,
+          headers: message.headers,
+        })
+        await db
+          .update(mailOutbox)
+          .set({
+            state: 'sent',
+            sentAt: new Date(),
+            messageId: info.messageId,
+            lockedUntil: null,
+            attempts: sql`${mailOutbox.attempts} + 1`,
+          })
+          .where(eq(mailOutbox.id, message.id))
       }
       catch (error) {
         if (isPermanentRefusal(error)) {
@@ -106,11 +149,19 @@ function isPermanentRefusal(error: unknown) {
 
 async function refusedForGood(db: Database, message: typeof mailOutbox.$inferSelect, error: unknown) {
   await db.transaction(async (tx) => {
-    await tx.update(mailOutbox).set({
-      state: 'failed', attempts: message.attempts + 1, lockedUntil: null,
-      lastError: `The mail server refused this address for good: ${error instanceof Error ? error.message : String(error)}`,
-    }).where(eq(mailOutbox.id, message.id))
+    await tx
+      .update(mailOutbox)
+      .set({
+        state: 'failed',
+        attempts: message.attempts + 1,
+        lockedUntil: null,
+        lastError: `The mail server refused this address for good: ${error instanceof Error ? error.message : String(error)}`,
+      })
+      .where(eq(mailOutbox.id, message.id))
     // Watches of that address send nothing more until it asks again (server/services/notify.ts).
-    await tx.update(watches).set({ undeliverableAt: new Date() }).where(and(eq(watches.email, message.to), isNull(watches.undeliverableAt)))
+    await tx
+      .update(watches)
+      .set({ undeliverableAt: new Date() })
+      .where(and(eq(watches.email, message.to), isNull(watches.undeliverableAt)))
   })
 }

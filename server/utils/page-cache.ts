@@ -43,7 +43,9 @@ export function sharedPageKey(event: H3Event, token: string) {
   const cookies = parseCookies(event)
   return [
     token,
-    ...['host', 'x-forwarded-host', 'x-forwarded-proto', 'accept-language'].map(name => (getRequestHeader(event, name) ?? '').slice(0, 512)),
+    ...['host', 'x-forwarded-host', 'x-forwarded-proto', 'accept-language'].map(name =>
+      (getRequestHeader(event, name) ?? '').slice(0, 512),
+    ),
     ...RENDER_COOKIES.map(name => (cookies[name] ?? '').slice(0, 64)),
   ].join('\n')
 }

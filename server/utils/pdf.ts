@@ -23,7 +23,14 @@ async function setup(): Promise<PdfMake> {
   const file = (style: string) => join(folder, `atkinson-hyperlegible-latin-${style}.woff`)
   pdfmake.setLocalAccessPolicy(path => path.startsWith(folder))
   pdfmake.setUrlAccessPolicy(() => false)
-  pdfmake.setFonts({ [PDF_FONT]: { normal: file('400-normal'), bold: file('700-normal'), italics: file('400-italic'), bolditalics: file('700-italic') } })
+  pdfmake.setFonts({
+    [PDF_FONT]: {
+      normal: file('400-normal'),
+      bold: file('700-normal'),
+      italics: file('400-italic'),
+      bolditalics: file('700-italic'),
+    },
+  })
   return pdfmake
 }
 

@@ -10,7 +10,8 @@ interface Window { count: number, secondsLeft: number }
 type Row = { count: number, seconds_left: number }
 
 const rows = (result: unknown) => (result as { rows: Row[] }).rows
-const toWindow = (row: Row | undefined): Window | undefined => row && { count: Number(row.count), secondsLeft: Number(row.seconds_left) }
+const toWindow = (row: Row | undefined): Window | undefined =>
+  row && { count: Number(row.count), secondsLeft: Number(row.seconds_left) }
 
 /** Whole seconds until the window resets (at least 1), on the database's clock like the window itself. */
 const SECONDS_LEFT = sql.raw('greatest(1, ceil(extract(epoch from reset_at - now())))::int as seconds_left')

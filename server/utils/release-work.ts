@@ -31,7 +31,13 @@ function giveSlot() {
   else running--
 }
 
-interface Reply { release?: ParsedRelease, anchorYears?: number[], bands?: BandsAtYear[], issues?: { field: string, message: string }[], error?: string }
+interface Reply {
+  release?: ParsedRelease
+  anchorYears?: number[]
+  bands?: BandsAtYear[]
+  issues?: { field: string, message: string }[]
+  error?: string
+}
 
 function workerScript() {
   const configured = useRuntimeConfig().releaseWorkerPath as string | undefined
@@ -40,7 +46,9 @@ function workerScript() {
 }
 
 /** Builds and checks a release as entered and gives its bands; 400 naming the field, or 503. */
-export async function releaseWork(work: Extract<ReleaseWork, { input: unknown }>): Promise<{ release: ParsedRelease, bands: BandsAtYear[] }> {
+export async function releaseWork(
+  work: Extract<ReleaseWork, { input: unknown }>,
+): Promise<{ release: ParsedRelease, bands: BandsAtYear[] }> {
   const reply = await runReleaseWorker(work)
   if (!reply.release || !reply.bands) throw new Error(reply.error ?? 'The release worker gave no answer.')
   return { release: reply.release, bands: reply.bands }
@@ -50,7 +58,9 @@ export async function releaseWork(work: Extract<ReleaseWork, { input: unknown }>
  * The editor's preview of a body exactly as sent: parsed, checked against the shared schema and
  * turned into bands on the worker, so even the largest release leaves this thread free.
  */
-export async function previewReleaseBody(raw: string | undefined): Promise<{ anchorYears: number[], bands: BandsAtYear[] }> {
+export async function previewReleaseBody(
+  raw: string | undefined,
+): Promise<{ anchorYears: number[], bands: BandsAtYear[] }> {
   const reply = await runReleaseWorker({ raw, years: 'preview' })
   if (!reply.anchorYears || !reply.bands) throw new Error(reply.error ?? 'The release worker gave no answer.')
   return { anchorYears: reply.anchorYears, bands: reply.bands }
@@ -62,11 +72,24 @@ async function runReleaseWorker(work: ReleaseWork): Promise<Reply> {
   try {
     const reply = await new Promise<Reply>((resolve, reject) => {
       const budgetMs = serverConfig().RELEASE_WORK_MS
-      const timer = setTimeout(() => reject(busy(`Checking this release took longer than ${budgetMs / 1000} s, so it was stopped. Send fewer draws or anchor years, or try again when the server is less busy.`)), budgetMs)
+      const timer = setTimeout(
+        () =>
+          reject(
+            busy(
+              `Checking this release took longer than ${budgetMs / 1000} s, so it was stopped. Send fewer draws or anchor years, or try again when the server is less busy.`,
+            ),
+          ),
+        budgetMs,
+      )
       worker.once('message', (message: Reply) => { clearTimeout(timer); resolve(message) })
       worker.once('error', (error) => { clearTimeout(timer); reject(error) })
     })
-    if (reply.issues) throw createError({ statusCode: 400, message: reply.issues.map(issue => `${issue.field}: ${issue.message}`).join(' '), data: { issues: reply.issues } })
+    if (reply.issues)
+      throw createError({
+        statusCode: 400,
+        message: reply.issues.map(issue => `${issue.field}: ${issue.message}`).join(' '),
+        data: { issues: reply.issues },
+      })
     return reply
   }
   finally {

@@ -14,6 +14,10 @@ export function asBadRequest<T>(build: () => T): T {
         ? error.issues.map(issue => ({ field: issue.path || 'body', message: issue.message }))
         : undefined
     if (!issues) throw error
-    throw createError({ statusCode: 400, message: issues.map(issue => `${issue.field}: ${issue.message}`).join(' '), data: { issues } })
+    throw createError({
+      statusCode: 400,
+      message: issues.map(issue => `${issue.field}: ${issue.message}`).join(' '),
+      data: { issues },
+    })
   }
 }

@@ -24,7 +24,10 @@ function isJson(contentType: string | undefined) {
 }
 
 function tooLarge(): never {
-  throw createError({ statusCode: 413, message: `The request is larger than ${MAX_BODY_BYTES / 1024 / 1024} MB. Send a smaller file (uploads are limited to 8 MB).` })
+  throw createError({
+    statusCode: 413,
+    message: `The request is larger than ${MAX_BODY_BYTES / 1024 / 1024} MB. Send a smaller file (uploads are limited to 8 MB).`,
+  })
 }
 
 /** The body as text, once its size and type are right: 413 past MAX_BODY_BYTES, 415 when not JSON. */
@@ -34,7 +37,13 @@ export async function readJsonText(event: H3Event): Promise<string | undefined> 
   if (raw && raw.length > MAX_BODY_BYTES) tooLarge()
   // Only JSON is read: a form post or plain text is refused rather than guessed at.
   if (raw && !isJson(getRequestHeader(event, 'content-type'))) {
-    throw createError({ statusCode: 415, message: 'body: Send the body as JSON, with the header Content-Type: application/json.', data: { issues: [{ field: 'body', message: 'Send the body as JSON, with the header Content-Type: application/json.' }] } })
+    throw createError({
+      statusCode: 415,
+      message: 'body: Send the body as JSON, with the header Content-Type: application/json.',
+      data: {
+        issues: [{ field: 'body', message: 'Send the body as JSON, with the header Content-Type: application/json.' }],
+      },
+    })
   }
   return raw
 }

@@ -11,7 +11,8 @@ import { parseJsonObject, zodFieldIssues, type FieldIssue } from '../utils/json-
 
 // A preview sends the body as it came (`raw`): parsing and checking two million numbers would
 // otherwise hold the request thread for seconds, so that happens here too, and only the bands go back.
-export type ReleaseWork = { input: ReleaseContentInput, years: 'preview' | 'anchors' } | { raw: string | undefined, years: 'preview' }
+export type ReleaseWork
+  = { input: ReleaseContentInput, years: 'preview' | 'anchors' } | { raw: string | undefined, years: 'preview' }
 
 function contentOf(work: ReleaseWork): { input: ReleaseContentInput } | { issues: FieldIssue[] } {
   if ('input' in work) return { input: work.input }
@@ -34,8 +35,11 @@ try {
   }
 }
 catch (error) {
-  const issues = error instanceof ReleaseContentError || error instanceof CsvError
-    ? error.issues
-    : error instanceof EngineInputError ? error.issues.map(issue => ({ field: issue.path || 'body', message: issue.message })) : undefined
+  const issues
+    = error instanceof ReleaseContentError || error instanceof CsvError
+      ? error.issues
+      : error instanceof EngineInputError
+        ? error.issues.map(issue => ({ field: issue.path || 'body', message: issue.message }))
+        : undefined
   parentPort!.postMessage(issues ? { issues } : { error: error instanceof Error ? error.message : String(error) })
 }

@@ -27,14 +27,30 @@ export function exceedanceChartOption(doc: BriefingDocument, fontFamily = 'Atkin
     legend: { top: 0, textStyle: axisText },
     xAxis: {
       // The unit goes in the axis name, so the numbers stay short enough not to collide on a phone.
-      type: 'value', name: `${text.chartExceedanceAxis.x} (${unit})`, nameLocation: 'middle', nameGap: 30, nameTextStyle: axisText,
+      type: 'value',
+      name: `${text.chartExceedanceAxis.x} (${unit})`,
+      nameLocation: 'middle',
+      nameGap: 30,
+      nameTextStyle: axisText,
       axisLabel: { ...axisLabel, formatter: (v: number) => v.toLocaleString(doc.meta.language) },
       // Round ends and a round step, so the axis reads 0.2 … 1.4 rather than 0.1 … 1.3.
-      ...niceAxis(fromMetres(doc.charts.heights[0]!, unit), fromMetres(doc.charts.heights.at(-1)!, unit)), splitLine: { lineStyle: { color: GRID } },
+      ...niceAxis(fromMetres(doc.charts.heights[0]!, unit), fromMetres(doc.charts.heights.at(-1)!, unit)),
+      splitLine: { lineStyle: { color: GRID } },
     },
-    yAxis: { type: 'value', min: 0, max: 1, name: text.chartExceedanceAxis.y, nameTextStyle: axisText, axisLabel: { ...axisText, formatter: (v: number) => `${Math.round(v * 100)} %` }, splitLine: { lineStyle: { color: GRID } } },
+    yAxis: {
+      type: 'value',
+      min: 0,
+      max: 1,
+      name: text.chartExceedanceAxis.y,
+      nameTextStyle: axisText,
+      axisLabel: { ...axisText, formatter: (v: number) => `${Math.round(v * 100)} %` },
+      splitLine: { lineStyle: { color: GRID } },
+    },
     series: doc.charts.exceedance.map(curve => ({
-      type: 'line', name: String(curve.year), showSymbol: false, lineStyle: { width: 2.5 },
+      type: 'line',
+      name: String(curve.year),
+      showSymbol: false,
+      lineStyle: { width: 2.5 },
       data: curve.values.map((p, i) => [fromMetres(doc.charts.heights[i]!, unit), p]),
     })),
   }
@@ -49,22 +65,70 @@ export function fanChartOption(doc: BriefingDocument, fontFamily = 'Atkinson Hyp
   // Pairs of [year, value] on a value axis of years, so its ends can be round decades.
   const at = (values: number[]) => values.map((v, i) => [fan.years[i]!, v])
   const gap = (upper: number[], lower: number[]) => at(u(upper).map((v, i) => v - u(lower)[i]!))
-  const band = (name: string, data: number[][], color: string) => ({ type: 'line', name, stack: 'fan', data, symbol: 'none', lineStyle: { width: 0 }, itemStyle: { color }, areaStyle: { color, opacity: 1 } })
+  const band = (name: string, data: number[][], color: string) => ({
+    type: 'line',
+    name,
+    stack: 'fan',
+    data,
+    symbol: 'none',
+    lineStyle: { width: 0 },
+    itemStyle: { color },
+    areaStyle: { color, opacity: 1 },
+  })
   return {
     animation: false,
     textStyle: { fontFamily },
     grid: { left: 56, right: 24, top: 56, bottom: 32 },
-    legend: { top: 0, textStyle: axisText, icon: 'rect', data: [text.chartFanLegend.median, text.chartFanLegend.likely, text.chartFanLegend.veryLikely, text.chartFanLegend.extreme] },
-    xAxis: { type: 'value', ...niceYearAxis(fan.years[0]!, fan.years.at(-1)!), axisLabel: { ...axisLabel, formatter: (year: number) => String(year), alignMinLabel: 'left', alignMaxLabel: 'right' }, splitLine: { show: false } },
-    yAxis: { type: 'value', axisLabel: { ...axisLabel, formatter: (v: number) => `${v.toLocaleString(doc.meta.language)} ${unit}` }, splitLine: { lineStyle: { color: GRID } } },
+    legend: {
+      top: 0,
+      textStyle: axisText,
+      icon: 'rect',
+      data: [
+        text.chartFanLegend.median,
+        text.chartFanLegend.likely,
+        text.chartFanLegend.veryLikely,
+        text.chartFanLegend.extreme,
+      ],
+    },
+    xAxis: {
+      type: 'value',
+      ...niceYearAxis(fan.years[0]!, fan.years.at(-1)!),
+      axisLabel: {
+        ...axisLabel,
+        formatter: (year: number) => String(year),
+        alignMinLabel: 'left',
+        alignMaxLabel: 'right',
+      },
+      splitLine: { show: false },
+    },
+    yAxis: {
+      type: 'value',
+      axisLabel: { ...axisLabel, formatter: (v: number) => `${v.toLocaleString(doc.meta.language)} ${unit}` },
+      splitLine: { lineStyle: { color: GRID } },
+    },
     series: [
-      { type: 'line', name: 'base', stack: 'fan', data: at(u(fan.p1)), symbol: 'none', lineStyle: { width: 0 }, silent: true },
+      {
+        type: 'line',
+        name: 'base',
+        stack: 'fan',
+        data: at(u(fan.p1)),
+        symbol: 'none',
+        lineStyle: { width: 0 },
+        silent: true,
+      },
       band(text.chartFanLegend.extreme, gap(fan.p5, fan.p1), BANDS.extreme),
       band(text.chartFanLegend.veryLikely, gap(fan.p17, fan.p5), BANDS.veryLikely),
       band(text.chartFanLegend.likely, gap(fan.p83, fan.p17), BANDS.likely),
       band(`${text.chartFanLegend.veryLikely} `, gap(fan.p95, fan.p83), BANDS.veryLikely),
       band(`${text.chartFanLegend.extreme} `, gap(fan.p99, fan.p95), BANDS.extreme),
-      { type: 'line', name: text.chartFanLegend.median, data: at(u(fan.p50)), symbol: 'none', lineStyle: { width: 2.5, color: BANDS.median }, itemStyle: { color: BANDS.median } },
+      {
+        type: 'line',
+        name: text.chartFanLegend.median,
+        data: at(u(fan.p50)),
+        symbol: 'none',
+        lineStyle: { width: 2.5, color: BANDS.median },
+        itemStyle: { color: BANDS.median },
+      },
     ],
   }
 }

@@ -1,7 +1,13 @@
 import type { OutlookResult, ThresholdOutlook } from '../engine'
 import { formatHeight, type HeightUnit } from '../units'
 import { EXTRAPOLATED_MARK, extrapolatedNote, formatChance, type Language } from '../wording/chance'
-import { amplificationReturnPeriod, designLifeLevelSentence, floodYearSentence, lifeSentence, todaysLevelExpected } from '../wording/flood'
+import {
+  amplificationReturnPeriod,
+  designLifeLevelSentence,
+  floodYearSentence,
+  lifeSentence,
+  todaysLevelExpected,
+} from '../wording/flood'
 import type { DatumKind, ThresholdKind } from '../types/science'
 import { BRIEFING_TEXT, type BriefingText } from './text'
 import { headlineEstimate, keyThreshold, sayChance, spreadSentence } from './findings'
@@ -9,7 +15,14 @@ import { headlineEstimate, keyThreshold, sayChance, spreadSentence } from './fin
 // A briefing as a document: every sentence and number, in one language and one unit, built from
 // stored outlooks. Issuing freezes this object; the page and the PDF only lay it out.
 
-export interface BriefingReleaseRef { component: string, version: number, citation: string, state: string, scale: number, scaleSource: string | null }
+export interface BriefingReleaseRef {
+  component: string
+  version: number
+  citation: string
+  state: string
+  scale: number
+  scaleSource: string | null
+}
 export interface BriefingOutlook {
   scenario: string
   inputHash: string
@@ -21,7 +34,9 @@ export interface BriefingOutlook {
   result: OutlookResult
 }
 
-/** A published high-end storyline placed at the site (see shared/storylines/rise.ts): beside the chances, never in them. */
+/**
+ * A published high-end storyline placed at the site (see shared/storylines/rise.ts): beside the chances, never in them.
+ */
 export interface BriefingStoryline {
   name: string
   description: string
@@ -75,13 +90,23 @@ export interface BriefingSource {
 export interface ChanceCell { probability: number, text: string, extrapolated?: boolean }
 
 /** Thresholds × years under the briefing's own scenario: the summary's compact table. */
-export interface SummaryGrid { scenario: string, caption: string, years: number[], rows: { threshold: string, height: string, flood: boolean, chances: ChanceCell[] }[] }
+export interface SummaryGrid {
+  scenario: string
+  caption: string
+  years: number[]
+  rows: { threshold: string, height: string, flood: boolean, chances: ChanceCell[] }[]
+}
 
 export interface BriefingDocument {
   /** organisation, author and heights are absent from briefings issued before they were stated. */
   meta: Omit<BriefingSource, 'outlooks' | 'thresholds' | 'years' | 'site' | 'organisation' | 'author' | 'tolerance'> & {
-    siteName: string, referenceLevel: string, scenario: string, inputs: { scenario: string, inputHash: string }[]
-    organisation?: string, author?: string | null, heights?: string
+    siteName: string
+    referenceLevel: string
+    scenario: string
+    inputs: { scenario: string, inputHash: string }[]
+    organisation?: string
+    author?: string | null
+    heights?: string
   }
   /**
    * What a councillor reads first: two or three findings, one sentence each, and the compact table.
@@ -96,14 +121,37 @@ export interface BriefingDocument {
     years: number[]
     heights: number[]
     exceedance: { year: number, values: number[] }[]
-    fan: { years: number[], p1: number[], p5: number[], p17: number[], p50: number[], p83: number[], p95: number[], p99: number[], /** Per year: the 1 % or 99 % level is extrapolated. */ outerExtrapolated?: boolean[] }
+    fan: {
+      years: number[]
+      p1: number[]
+      p5: number[]
+      p17: number[]
+      p50: number[]
+      p83: number[]
+      p95: number[]
+      p99: number[]
+      /** Per year: the 1 % or 99 % level is extrapolated. */ outerExtrapolated?: boolean[]
+    }
   }
   /** What * means, where any number of the document is extrapolated (absent in documents issued before). */
   extrapolation?: string | null
-  table: { years: number[], rows: { scenario: string, threshold: string, height: string, measure: string, chances: ChanceCell[] }[] }
-  /** Allowance and amplification by year; amplification worded as expected floods of today's `today`-year level, with its annual chance. */
+  table: {
+    years: number[]
+    rows: { scenario: string, threshold: string, height: string, measure: string, chances: ChanceCell[] }[]
+  }
+  /**
+   * Allowance and amplification by year; amplification worded as expected floods of today's `today`-year level, with
+   * its annual chance.
+   */
   extremes: { today: number, rows: { year: number, allowance: string, expected: string, chance: string }[] } | null
-  basis: { releases: { component: string, scenario: string, version: number, citation: string, state: string, scale: string }[], datum: string, landMotion: string, sampling: string, notes: string[], method: string[] }
+  basis: {
+    releases: { component: string, scenario: string, version: number, citation: string, state: string, scale: string }[]
+    datum: string
+    landMotion: string
+    sampling: string
+    notes: string[]
+    method: string[]
+  }
   cautions: string[]
 }
 
@@ -112,7 +160,9 @@ export const DEFAULT_TOLERANCE = 0.1
 
 /** What a reader should know about how an outlook was put together, in the briefing's language. */
 function outlookNotes(outlook: BriefingOutlook, text: BriefingText): string[] {
-  const unscaled = outlook.releaseRefs.filter(ref => ref.scaleSource === null).map(ref => text.components[ref.component] ?? ref.component)
+  const unscaled = outlook.releaseRefs
+    .filter(ref => ref.scaleSource === null)
+    .map(ref => text.components[ref.component] ?? ref.component)
   return [
     ...(unscaled.length ? [text.notes.unscaled(outlook.scenario, unscaled.join(', '))] : []),
     outlook.correlated ? text.notes.correlated(outlook.scenario) : text.notes.uncorrelated(outlook.scenario),
@@ -151,18 +201,31 @@ function summaryGrid(rows: BriefingDocument['table']['rows'], source: BriefingSo
 
 /** Briefings issued before amplification was worded as expected floods froze this shape. */
 interface FrozenMultipleRow { year: number, allowance: string, amplification: string }
-const FROZEN_MULTIPLE_HEAD: Record<Language, string> = { en: 'Floods more often (×)', es: 'Inundaciones más frecuentes (×)' }
+const FROZEN_MULTIPLE_HEAD: Record<Language, string> = {
+  en: 'Floods more often (×)',
+  es: 'Inundaciones más frecuentes (×)',
+}
 
 /** The allowance table as laid out on the page and in the PDF, for a new or an already issued document. */
-export function extremesTable(doc: Pick<BriefingDocument, 'extremes' | 'meta'>): { head: string[], rows: string[][] } | null {
+export function extremesTable(
+  doc: Pick<BriefingDocument, 'extremes' | 'meta'>,
+): { head: string[], rows: string[][] } | null {
   const extremes = doc.extremes as BriefingDocument['extremes'] | FrozenMultipleRow[]
   if (!extremes) return null
   const text = BRIEFING_TEXT[doc.meta.language]
   if (Array.isArray(extremes)) {
-    return { head: [text.extremesHead.year, text.extremesHead.allowance, FROZEN_MULTIPLE_HEAD[doc.meta.language]], rows: extremes.map(row => [String(row.year), row.allowance, row.amplification]) }
+    return {
+      head: [text.extremesHead.year, text.extremesHead.allowance, FROZEN_MULTIPLE_HEAD[doc.meta.language]],
+      rows: extremes.map(row => [String(row.year), row.allowance, row.amplification]),
+    }
   }
   return {
-    head: [text.extremesHead.year, text.extremesHead.allowance, text.extremesHead.expected(extremes.today), text.extremesHead.chance],
+    head: [
+      text.extremesHead.year,
+      text.extremesHead.allowance,
+      text.extremesHead.expected(extremes.today),
+      text.extremesHead.chance,
+    ],
     rows: extremes.rows.map(row => [String(row.year), row.allowance, row.expected, row.chance]),
   }
 }
@@ -186,29 +249,72 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
   const aboveDatum = (metres: number) => metres + site.datumOffset
   const isFlood = (threshold: { kind?: ThresholdKind }) => threshold.kind === 'flood-level'
   // The height the outlook was computed with, which the site's current one may have moved from since.
-  const heightOf = (threshold: BriefingSource['thresholds'][number], found: ReturnType<typeof thresholdOf>) => height(found ? aboveDatum(found.height) : threshold.height)
+  const heightOf = (threshold: BriefingSource['thresholds'][number], found: ReturnType<typeof thresholdOf>) =>
+    height(found ? aboveDatum(found.height) : threshold.height)
 
   const language = source.language
   const floodLines = (threshold: BriefingSource['thresholds'][number], found: ThresholdOutlook) => {
     const flood = found.flood!
     // Every line names its level: a briefing may list several.
     const named = (sentence: string) => text.floodLine(threshold.label, heightOf(threshold, found), sentence)
-    const years = yearIndexes.map(t => named(floodYearSentence({
-      year: result.years[t]!, height: aboveDatum(found.height), annualChance: flood.annualChance[t]!.value, expectedPerYear: flood.expectedPerYear[t]!,
-    }, floodContext)))
-    const life = found.lifeExceedance && found.designLifeYears && found.lifeStartYear
-      ? [named(lifeSentence({ buildYear: found.lifeStartYear, lifeYears: found.designLifeYears, chance: found.lifeExceedance.value }, language))]
+    const years = yearIndexes.map(t =>
+      named(
+        floodYearSentence(
+          {
+            year: result.years[t]!,
+            height: aboveDatum(found.height),
+            annualChance: flood.annualChance[t]!.value,
+            expectedPerYear: flood.expectedPerYear[t]!,
+          },
+          floodContext,
+        ),
+      ),
+    )
+    const life
+      = found.lifeExceedance && found.designLifeYears && found.lifeStartYear
+        ? [
+            named(
+              lifeSentence(
+                {
+                  buildYear: found.lifeStartYear,
+                  lifeYears: found.designLifeYears,
+                  chance: found.lifeExceedance.value,
+                },
+                language,
+              ),
+            ),
+          ]
+        : []
+    const level = found.designLifeLevel
+      ? [
+          named(
+            designLifeLevelSentence(
+              { chance: found.designLifeLevel.chance, level: aboveDatum(found.designLifeLevel.level) },
+              floodContext,
+            ),
+          ),
+        ]
       : []
-    const level = found.designLifeLevel ? [named(designLifeLevelSentence({ chance: found.designLifeLevel.chance, level: aboveDatum(found.designLifeLevel.level) }, floodContext))] : []
     return [...years, ...life, ...level]
   }
   const detailLines = source.thresholds.flatMap((threshold) => {
     const found = thresholdOf(primary, threshold.id)
     if (isFlood(threshold)) return found?.flood ? floodLines(threshold, found) : []
-    const chances = yearIndexes.map(t => ({ chance: sayChance(found?.byYear[t] ?? { value: 0 }, language), year: result.years[t]! }))
+    const chances = yearIndexes.map(t => ({
+      chance: sayChance(found?.byYear[t] ?? { value: 0 }, language),
+      year: result.years[t]!,
+    }))
     return [text.detailLine(threshold.label, heightOf(threshold, found), chances)]
   })
-  const ranges = yearIndexes.map(t => text.rangeSentence(result.years[t]!, height(percentile(result, t, 0.5)), height(percentile(result, t, 0.17)), height(percentile(result, t, 0.83)), site.referenceEpoch))
+  const ranges = yearIndexes.map(t =>
+    text.rangeSentence(
+      result.years[t]!,
+      height(percentile(result, t, 0.5)),
+      height(percentile(result, t, 0.17)),
+      height(percentile(result, t, 0.83)),
+      site.referenceEpoch,
+    ),
+  )
 
   // The findings: the key threshold by the last chosen year, its trigger year, the spread over scenarios.
   const last = yearIndexes.reduce((a, b) => (result.years[b]! > result.years[a]! ? b : a))
@@ -218,20 +324,39 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
   if (key) {
     const found = thresholdOf(primary, key.id)!
     if (isFlood(key)) {
-      findings.push(text.keyFlood(primary.scenario, key.label, floodYearSentence({
-        year: lastYear, height: aboveDatum(found.height), annualChance: found.flood!.annualChance[last]!.value, expectedPerYear: found.flood!.expectedPerYear[last]!,
-      }, floodContext)))
+      findings.push(
+        text.keyFlood(
+          primary.scenario,
+          key.label,
+          floodYearSentence(
+            {
+              year: lastYear,
+              height: aboveDatum(found.height),
+              annualChance: found.flood!.annualChance[last]!.value,
+              expectedPerYear: found.flood!.expectedPerYear[last]!,
+            },
+            floodContext,
+          ),
+        ),
+      )
     }
     else {
       // From the first chosen year to the last: how the chance grows, in one sentence.
       const first = yearIndexes.reduce((a, b) => (result.years[b]! < result.years[a]! ? b : a))
-      const ends = (first === last ? [last] : [first, last]).map(t => ({ chance: sayChance(found.byYear[t]!, language), year: result.years[t]! }))
+      const ends = (first === last ? [last] : [first, last]).map(t => ({
+        chance: sayChance(found.byYear[t]!, language),
+        year: result.years[t]!,
+      }))
       findings.push(text.keyThreshold(primary.scenario, site.name, key.label, heightOf(key, found), ends))
       const tolerance = source.tolerance ?? DEFAULT_TOLERANCE
       const trigger = found.triggerYears.find(tr => Math.abs(tr.tolerance - tolerance) < 1e-9)
       if (trigger) {
         const said = formatChance(tolerance, language)
-        findings.push(trigger.year === null ? text.noTrigger(key.label, said, result.years.at(-1)!) : text.trigger(key.label, said, trigger.year))
+        findings.push(
+          trigger.year === null
+            ? text.noTrigger(key.label, said, result.years.at(-1)!)
+            : text.trigger(key.label, said, trigger.year),
+        )
       }
     }
     const chances = source.outlooks.flatMap((outlook) => {
@@ -271,21 +396,47 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
     }
   }))
 
-  const outerExtrapolated = result.byYear.map(y => y.percentiles.some(p => p.extrapolated === true && (Math.abs(p.level - 0.01) < 1e-9 || Math.abs(p.level - 0.99) < 1e-9)))
-  const anyExtrapolated = outerExtrapolated.some(Boolean) || rows.some(row => row.chances.some(cell => cell.extrapolated))
-    || source.thresholds.some(threshold => !isFlood(threshold) && yearIndexes.some(t => thresholdOf(primary, threshold.id)?.byYear[t]?.extrapolated === true))
+  const outerExtrapolated = result.byYear.map(y =>
+    y.percentiles.some(
+      p => p.extrapolated === true && (Math.abs(p.level - 0.01) < 1e-9 || Math.abs(p.level - 0.99) < 1e-9),
+    ),
+  )
+  const anyExtrapolated
+    = outerExtrapolated.some(Boolean)
+      || rows.some(row => row.chances.some(cell => cell.extrapolated))
+      || source.thresholds.some(
+        threshold =>
+          !isFlood(threshold)
+          && yearIndexes.some(t => thresholdOf(primary, threshold.id)?.byYear[t]?.extrapolated === true),
+      )
   const storylines = (source.storylines ?? []).map(storyline => ({
     // Demo storylines are labelled illustrative, once.
-    name: storyline.illustrative && !/illustrative|ilustrativ/i.test(storyline.name) ? `${storyline.name} (${text.storylines.illustrative})` : storyline.name,
+    name:
+      storyline.illustrative && !/illustrative|ilustrativ/i.test(storyline.name)
+        ? `${storyline.name} (${text.storylines.illustrative})`
+        : storyline.name,
     description: storyline.description,
     lines: yearIndexes.flatMap((t) => {
       const year = result.years[t]!
       const at = storyline.rises.find(r => r.year === year)
-      return at ? [text.storylines.line(height(aboveDatum(at.rise)), site.referenceLevel, year, height(at.rise), site.referenceEpoch, height(percentile(result, t, 0.95)))] : []
+      return at
+        ? [
+            text.storylines.line(
+              height(aboveDatum(at.rise)),
+              site.referenceLevel,
+              year,
+              height(at.rise),
+              site.referenceEpoch,
+              height(percentile(result, t, 0.95)),
+            ),
+          ]
+        : []
     }),
     source: text.storylines.source(storyline.organisationName, storyline.version, storyline.citation),
   }))
-  const wordedPeriod = result.gumbel ? amplificationReturnPeriod(result.byYear[yearIndexes[0] ?? 0]!.gumbel!.returnPeriods) : undefined
+  const wordedPeriod = result.gumbel
+    ? amplificationReturnPeriod(result.byYear[yearIndexes[0] ?? 0]!.gumbel!.returnPeriods)
+    : undefined
   const extremes = wordedPeriod
     ? {
         today: wordedPeriod.today,
@@ -306,30 +457,81 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
 
   return {
     meta: {
-      language: source.language, units: source.units, title: source.title, audience: source.audience, localContext: source.localContext,
-      version: source.version, previousVersion: source.previousVersion, issuedAt: source.issuedAt, livePath: source.livePath, illustrative: source.illustrative,
-      siteName: site.name, referenceLevel: site.referenceLevel, scenario: primary.scenario, inputs: source.outlooks.map(o => ({ scenario: o.scenario, inputHash: o.inputHash })),
-      organisation: source.organisation, author: source.author, heights: text.heights(text.unitNames[source.units] ?? source.units, site.referenceLevel),
+      language: source.language,
+      units: source.units,
+      title: source.title,
+      audience: source.audience,
+      localContext: source.localContext,
+      version: source.version,
+      previousVersion: source.previousVersion,
+      issuedAt: source.issuedAt,
+      livePath: source.livePath,
+      illustrative: source.illustrative,
+      siteName: site.name,
+      referenceLevel: site.referenceLevel,
+      scenario: primary.scenario,
+      inputs: source.outlooks.map(o => ({ scenario: o.scenario, inputHash: o.inputHash })),
+      organisation: source.organisation,
+      author: source.author,
+      heights: text.heights(text.unitNames[source.units] ?? source.units, site.referenceLevel),
     },
-    summary: { intro: text.summaryIntro(site.name, primary.scenario), findings, grid: summaryGrid(rows.filter(row => row.scenario === primary.scenario), source, text) },
+    summary: {
+      intro: text.summaryIntro(site.name, primary.scenario),
+      findings,
+      grid: summaryGrid(
+        rows.filter(row => row.scenario === primary.scenario),
+        source,
+        text,
+      ),
+    },
     detail: { lines: detailLines, ranges },
     storylines,
     charts: {
       years: result.years,
       heights: result.heights.slice(from, to + 1),
-      exceedance: yearIndexes.map(t => ({ year: result.years[t]!, values: result.byYear[t]!.exceedance.slice(from, to + 1).map(e => e.value) })),
-      fan: { years: result.years, p1: series(0.01), p5: series(0.05), p17: series(0.17), p50: series(0.5), p83: series(0.83), p95: series(0.95), p99: series(0.99), outerExtrapolated },
+      exceedance: yearIndexes.map(t => ({
+        year: result.years[t]!,
+        values: result.byYear[t]!.exceedance.slice(from, to + 1).map(e => e.value),
+      })),
+      fan: {
+        years: result.years,
+        p1: series(0.01),
+        p5: series(0.05),
+        p17: series(0.17),
+        p50: series(0.5),
+        p83: series(0.83),
+        p95: series(0.95),
+        p99: series(0.99),
+        outerExtrapolated,
+      },
     },
     extrapolation: anyExtrapolated ? extrapolatedNote(source.language) : null,
     table: { years: source.years, rows },
     extremes,
     basis: {
-      releases: source.outlooks.flatMap(outlook => outlook.releaseRefs.map(ref => ({
-        component: text.components[ref.component] ?? ref.component, scenario: outlook.scenario, version: ref.version,
-        citation: ref.citation, state: text.states[ref.state] ?? ref.state, scale: ref.scale.toLocaleString(source.language, { maximumFractionDigits: 3 }),
-      }))),
-      datum: text.datum(site.referenceLevel, text.datumKinds[site.datumKind] ?? site.datumKind, height(site.datumOffset), site.referenceEpoch),
-      landMotion: text.landMotion(`${site.landMotionRate.toLocaleString(source.language)} mm`, `${site.landMotionSigma.toLocaleString(source.language)} mm`, text.sources[site.landMotionSource] ?? site.landMotionSource, site.landMotionEpoch, site.landMotionReference),
+      releases: source.outlooks.flatMap(outlook =>
+        outlook.releaseRefs.map(ref => ({
+          component: text.components[ref.component] ?? ref.component,
+          scenario: outlook.scenario,
+          version: ref.version,
+          citation: ref.citation,
+          state: text.states[ref.state] ?? ref.state,
+          scale: ref.scale.toLocaleString(source.language, { maximumFractionDigits: 3 }),
+        })),
+      ),
+      datum: text.datum(
+        site.referenceLevel,
+        text.datumKinds[site.datumKind] ?? site.datumKind,
+        height(site.datumOffset),
+        site.referenceEpoch,
+      ),
+      landMotion: text.landMotion(
+        `${site.landMotionRate.toLocaleString(source.language)} mm`,
+        `${site.landMotionSigma.toLocaleString(source.language)} mm`,
+        text.sources[site.landMotionSource] ?? site.landMotionSource,
+        site.landMotionEpoch,
+        site.landMotionReference,
+      ),
       sampling: text.sampling(primary.samples.toLocaleString(source.language), primary.seed),
       notes: source.outlooks.flatMap(outlook => outlookNotes(outlook, text)),
       method: text.method,

@@ -23,20 +23,31 @@ export function sayChance(estimate: Pick<Estimate, 'value' | 'extrapolated'>, la
  * The threshold a councillor hears about first: the lowest mean-sea-level threshold, since the sea
  * passes it first; a briefing of flood levels only leads with its first flood level.
  */
-export function keyThreshold<T extends { id: string, kind?: string }>(thresholds: T[], found: (id: string) => ThresholdOutlook | undefined): T | undefined {
+export function keyThreshold<T extends { id: string, kind?: string }>(
+  thresholds: T[],
+  found: (id: string) => ThresholdOutlook | undefined,
+): T | undefined {
   const meanSea = thresholds.filter(t => t.kind !== 'flood-level' && found(t.id))
   if (meanSea.length) return meanSea.reduce((low, t) => (found(t.id)!.height < found(low.id)!.height ? t : low))
   return thresholds.find(t => found(t.id)?.flood)
 }
 
-/** The chance that matters for a threshold in a year: passing it (mean sea level) or reaching it that year (flood level). */
+/**
+ * The chance that matters for a threshold in a year: passing it (mean sea level) or reaching it that year (flood
+ * level).
+ */
 export function headlineEstimate(found: ThresholdOutlook | undefined, yearIndex: number): Estimate | undefined {
   if (!found || yearIndex < 0) return undefined
   return found.kind === 'flood-level' ? found.flood?.annualChance[yearIndex] : found.byYear[yearIndex]
 }
 
 /** "Across the 3 scenarios compared …": the lowest and highest of one chance over the scenarios. */
-export function spreadSentence(chances: { scenario: string, estimate: Estimate }[], year: number, text: BriefingText, language: Language): string | null {
+export function spreadSentence(
+  chances: { scenario: string, estimate: Estimate }[],
+  year: number,
+  text: BriefingText,
+  language: Language,
+): string | null {
   if (chances.length < 2) return null
   const sorted = [...chances].sort((a, b) => a.estimate.value - b.estimate.value)
   const low = sorted[0]!
@@ -44,5 +55,10 @@ export function spreadSentence(chances: { scenario: string, estimate: Estimate }
   const same = formatChance(low.estimate.value, language) === formatChance(high.estimate.value, language)
   return same
     ? text.spreadSame(chances.length, year, sayChance(low.estimate, language))
-    : text.spread(chances.length, year, { scenario: low.scenario, chance: sayChance(low.estimate, language) }, { scenario: high.scenario, chance: sayChance(high.estimate, language) })
+    : text.spread(
+        chances.length,
+        year,
+        { scenario: low.scenario, chance: sayChance(low.estimate, language) },
+        { scenario: high.scenario, chance: sayChance(high.estimate, language) },
+      )
 }

@@ -11,11 +11,25 @@ export interface ScenarioChance { scenario: string, chance: ChanceSaid }
 
 export interface BriefingText {
   documentKind: string
-  sections: { summary: string, charts: string, table: string, basis: string, cautions: string, provenance: string, context: string }
+  sections: {
+    summary: string
+    charts: string
+    table: string
+    basis: string
+    cautions: string
+    provenance: string
+    context: string
+  }
   summaryIntro: (site: string, scenario: string) => string
   rangeSentence: (year: number, median: string, low: string, high: string, epoch: number) => string
   /** The summary's findings, one sentence each: the key threshold, its trigger year, the spread over scenarios. */
-  keyThreshold: (scenario: string, site: string, threshold: string, height: string, chances: { chance: ChanceSaid, year: number }[]) => string
+  keyThreshold: (
+    scenario: string,
+    site: string,
+    threshold: string,
+    height: string,
+    chances: { chance: ChanceSaid, year: number }[],
+  ) => string
   keyFlood: (scenario: string, threshold: string, sentence: string) => string
   trigger: (threshold: string, tolerance: string, year: number) => string
   noTrigger: (threshold: string, tolerance: string, lastYear: number) => string
@@ -42,7 +56,13 @@ export interface BriefingText {
   extremesTitle: string
   extremesHead: { year: string, allowance: string, expected: (today: number) => string, chance: string }
   extremesNote: string
-  storylines: { title: string, intro: string, line: (level: string, reference: string, year: number, rise: string, epoch: number, p95: string) => string, source: (organisation: string, version: number, citation: string) => string, illustrative: string }
+  storylines: {
+    title: string
+    intro: string
+    line: (level: string, reference: string, year: number, rise: string, epoch: number, p95: string) => string
+    source: (organisation: string, version: number, citation: string) => string
+    illustrative: string
+  }
   /** Beside an allowance that a heavy-tailed release leaves unbounded. */
   unsettled: string
   basisHead: { component: string, scenario: string, version: string, citation: string, state: string, scale: string }
@@ -51,11 +71,25 @@ export interface BriefingText {
   method: string[]
   cautions: string[]
   highEnd: string
-  provenance: { issued: string, version: string, inputHash: string, link: string, audience: string, previous: string, organisation: string, author: string, signIn: (organisation: string) => string }
+  provenance: {
+    issued: string
+    version: string
+    inputHash: string
+    link: string
+    audience: string
+    previous: string
+    organisation: string
+    author: string
+    signIn: (organisation: string) => string
+  }
   draftMark: string
   illustrative: string
   page: (current: number, total: number) => string
-  notes: { unscaled: (scenario: string, components: string) => string, correlated: (scenario: string) => string, uncorrelated: (scenario: string) => string }
+  notes: {
+    unscaled: (scenario: string, components: string) => string
+    correlated: (scenario: string) => string
+    uncorrelated: (scenario: string) => string
+  }
   components: Record<string, string>
   states: Record<string, string>
   sources: Record<string, string>
@@ -66,29 +100,42 @@ function briefingText(language: Language): BriefingText {
   const t = translator(language)
   const words = <T>(key: string) => wordsAt<T>(language, `document.${key}`)
   const list = (items: string[]) => new Intl.ListFormat(languageTag(language)).format(items)
-  const byYear = (chances: { chance: ChanceSaid, year: number }[]) => list(chances.map(c => t('document.chanceByYear', { ...c.chance, year: c.year })))
+  const byYear = (chances: { chance: ChanceSaid, year: number }[]) =>
+    list(chances.map(c => t('document.chanceByYear', { ...c.chance, year: c.year })))
   return {
     documentKind: t('document.documentKind'),
     sections: words('sections'),
     summaryIntro: (site, scenario) => t('document.summaryIntro', { site, scenario }),
     rangeSentence: (year, median, low, high, epoch) => t('document.rangeSentence', { year, median, low, high, epoch }),
-    keyThreshold: (scenario, site, threshold, height, chances) => t('document.keyThreshold', { scenario, site, threshold, height, chances: byYear(chances) }),
+    keyThreshold: (scenario, site, threshold, height, chances) =>
+      t('document.keyThreshold', { scenario, site, threshold, height, chances: byYear(chances) }),
     keyFlood: (scenario, threshold, sentence) => t('document.keyFlood', { scenario, threshold, sentence }),
     trigger: (threshold, tolerance, year) => t('document.trigger', { threshold, tolerance, year }),
     noTrigger: (threshold, tolerance, lastYear) => t('document.noTrigger', { threshold, tolerance, lastYear }),
-    spread: (count, year, low, high) => t('document.spread', {
-      count, year, lowScenario: low.scenario, highScenario: high.scenario,
-      low: low.chance.plain, lowAfterDe: low.chance.afterDe, lowAfterA: low.chance.afterA,
-      high: high.chance.plain, highAfterDe: high.chance.afterDe, highAfterA: high.chance.afterA,
-    }),
+    spread: (count, year, low, high) =>
+      t('document.spread', {
+        count,
+        year,
+        lowScenario: low.scenario,
+        highScenario: high.scenario,
+        low: low.chance.plain,
+        lowAfterDe: low.chance.afterDe,
+        lowAfterA: low.chance.afterA,
+        high: high.chance.plain,
+        highAfterDe: high.chance.afterDe,
+        highAfterA: high.chance.afterA,
+      }),
     spreadSame: (count, year, chance) => t('document.spreadSame', { count, year, ...chance }),
-    gridCaption: (scenario, withFlood) => t(withFlood ? 'document.gridCaptionFlood' : 'document.gridCaption', { scenario }),
+    gridCaption: (scenario, withFlood) =>
+      t(withFlood ? 'document.gridCaptionFlood' : 'document.gridCaption', { scenario }),
     gridThreshold: t('document.gridThreshold'),
     detailTitle: t('document.detailTitle'),
-    detailLine: (threshold, height, chances) => t('document.detailLine', { threshold, height, chances: byYear(chances) }),
+    detailLine: (threshold, height, chances) =>
+      t('document.detailLine', { threshold, height, chances: byYear(chances) }),
     heights: (unit, datum) => t('document.heights', { unit, datum }),
     unitNames: words('unitNames'),
-    issuedBy: (organisation, author) => author ? t('document.issuedByAuthor', { organisation, author }) : t('document.issuedBy', { organisation }),
+    issuedBy: (organisation, author) =>
+      author ? t('document.issuedByAuthor', { organisation, author }) : t('document.issuedBy', { organisation }),
     floodLine: (threshold, height, sentence) => t('document.floodLine', { threshold, height, sentence }),
     datum: (name, kind, offset, epoch) => t('document.datum', { name, kind, offset, epoch }),
     datumKinds: words('datumKinds'),
@@ -101,19 +148,28 @@ function briefingText(language: Language): BriefingText {
     extremesTitle: t('document.extremesTitle'),
     storylines: {
       ...words<BriefingText['storylines']>('storylines'),
-      line: (level, reference, year, rise, epoch, p95) => t('document.storylines.line', { level, reference, year, rise, epoch, p95 }),
+      line: (level, reference, year, rise, epoch, p95) =>
+        t('document.storylines.line', { level, reference, year, rise, epoch, p95 }),
       source: (organisation, version, citation) => t('document.storylines.source', { organisation, version, citation }),
     },
-    extremesHead: { ...words<BriefingText['extremesHead']>('extremesHead'), expected: today => t('document.extremesHead.expected', { today }) },
+    extremesHead: {
+      ...words<BriefingText['extremesHead']>('extremesHead'),
+      expected: today => t('document.extremesHead.expected', { today }),
+    },
     extremesNote: t('document.extremesNote'),
     unsettled: t('document.unsettled'),
     basisHead: words('basisHead'),
-    landMotion: (rate, sigma, source, epoch, reference) => t('document.landMotion', { rate, sigma, source, epoch, reference }),
+    landMotion: (rate, sigma, source, epoch, reference) =>
+      t('document.landMotion', { rate, sigma, source, epoch, reference }),
     sampling: (samples, seed) => t('document.sampling', { samples, seed }),
     method: t.list('document.method'),
     cautions: t.list('document.cautions'),
     highEnd: t('document.highEnd'),
-    provenance: { ...words<BriefingText['provenance']>('provenance'), signIn: organisation => organisation ? t('document.provenance.signInWith', { organisation }) : t('document.provenance.signIn') },
+    provenance: {
+      ...words<BriefingText['provenance']>('provenance'),
+      signIn: organisation =>
+        organisation ? t('document.provenance.signInWith', { organisation }) : t('document.provenance.signIn'),
+    },
     draftMark: t('document.draftMark'),
     illustrative: t('document.illustrative'),
     page: (current, total) => t('document.page', { current, total }),
@@ -128,4 +184,6 @@ function briefingText(language: Language): BriefingText {
   }
 }
 
-export const BRIEFING_TEXT = Object.fromEntries(LANGUAGES.map(entry => [entry.code, briefingText(entry.code)])) as Record<Language, BriefingText>
+export const BRIEFING_TEXT = Object.fromEntries(
+  LANGUAGES.map(entry => [entry.code, briefingText(entry.code)]),
+) as Record<Language, BriefingText>

@@ -10,11 +10,17 @@ export function niceAxis(low: number, high: number, ticks = 5): NiceAxis {
   if (high <= low) high = low + (Math.abs(low) || 1) * 0.1
   const raw = (high - low) / ticks
   const power = 10 ** Math.floor(Math.log10(raw))
-  const interval = [1, 2, 5, 10].map(m => m * power).reduce((best, step) => (Math.abs(Math.log(step / raw)) < Math.abs(Math.log(best / raw)) ? step : best))
+  const interval = [1, 2, 5, 10]
+    .map(m => m * power)
+    .reduce((best, step) => (Math.abs(Math.log(step / raw)) < Math.abs(Math.log(best / raw)) ? step : best))
   // Steps like 0.1 carry binary noise (0.30000000000000004): round to the step's own decimals.
   const decimals = Math.max(0, -Math.floor(Math.log10(interval)) + 1)
   const clean = (value: number) => Number(value.toFixed(decimals)) + 0
-  return { min: clean(Math.floor(low / interval + 1e-9) * interval), max: clean(Math.ceil(high / interval - 1e-9) * interval), interval }
+  return {
+    min: clean(Math.floor(low / interval + 1e-9) * interval),
+    max: clean(Math.ceil(high / interval - 1e-9) * interval),
+    interval,
+  }
 }
 
 /**

@@ -16,18 +16,23 @@ export function correlationShapeIssues(matrix: number[][], size: number, path = 
     return issues
   }
   matrix.forEach((row, i) => {
-    if (row.length !== size) issues.push({ path: `${path}[${i}]`, message: `must have ${size} entries, got ${row.length}` })
+    if (row.length !== size)
+      issues.push({ path: `${path}[${i}]`, message: `must have ${size} entries, got ${row.length}` })
   })
   if (issues.length) return issues
   for (let i = 0; i < size; i++) {
     if (Math.abs(matrix[i]![i]! - 1) > SYMMETRY_TOLERANCE) {
-      issues.push({ path: `${path}[${i}][${i}]`, message: `diagonal must be 1 (a component is fully correlated with itself), got ${matrix[i]![i]}` })
+      issues.push({
+        path: `${path}[${i}][${i}]`,
+        message: `diagonal must be 1 (a component is fully correlated with itself), got ${matrix[i]![i]}`,
+      })
     }
     for (let j = 0; j < size; j++) {
       const value = matrix[i]![j]!
       if (value < -1 || value > 1) {
         issues.push({ path: `${path}[${i}][${j}]`, message: `must lie in [-1, 1], got ${value}` })
-      } else if (j > i && Math.abs(value - matrix[j]![i]!) > SYMMETRY_TOLERANCE) {
+      }
+      else if (j > i && Math.abs(value - matrix[j]![i]!) > SYMMETRY_TOLERANCE) {
         issues.push({
           path: `${path}[${i}][${j}]`,
           message: `not symmetric: [${i}][${j}] is ${value} but [${j}][${i}] is ${matrix[j]![i]}; make both the same`,

@@ -15,7 +15,7 @@ const MAX_STEPS = 200
 export function designLifeLevel(
   span: LifeSpan,
   counts: Uint32Array,
-  gumbel: { location: number; scale: number },
+  gumbel: { location: number, scale: number },
   chance: number,
 ): number {
   const values: number[] = []
@@ -26,7 +26,8 @@ export function designLifeLevel(
   for (let k = 0; k <= span.bins + 1; k++) {
     const count = counts[span.histogramOffset + k]!
     if (count === 0) continue
-    const bin = k === 0 ? span.firstBin - 0.5 : k === span.bins + 1 ? span.firstBin + span.bins - 0.5 : span.firstBin + k - 1
+    const bin
+      = k === 0 ? span.firstBin - 0.5 : k === span.bins + 1 ? span.firstBin + span.bins - 0.5 : span.firstBin + k - 1
     const value = span.origin + bin * span.width
     if (value < smallest) smallest = value
     if (value > largest) largest = value
@@ -70,7 +71,13 @@ export function designLifeLevel(
  * height (ln L − (h − μ)/λ plus the rise's term), so only the mixture's curvature between two grid
  * heights is approximated. Outside the grid the nearest end is returned.
  */
-export function gridDesignLifeLevel(grid: Float64Array, sums: Float64Array, at: number, n: number, chance: number): number {
+export function gridDesignLifeLevel(
+  grid: Float64Array,
+  sums: Float64Array,
+  at: number,
+  n: number,
+  chance: number,
+): number {
   const target = 1 - chance
   const reduced = (none: number) => Math.log(-Math.log(none))
   // The mean chance of none rises with the height.
@@ -79,9 +86,10 @@ export function gridDesignLifeLevel(grid: Float64Array, sums: Float64Array, at: 
     const upper = sums[at + g]! / n
     if (upper < target) continue
     const lower = sums[at + g - 1]! / n
-    const along = lower > 0 && upper < 1
-      ? (reduced(lower) - reduced(target)) / (reduced(lower) - reduced(upper))
-      : (target - lower) / (upper - lower)
+    const along
+      = lower > 0 && upper < 1
+        ? (reduced(lower) - reduced(target)) / (reduced(lower) - reduced(upper))
+        : (target - lower) / (upper - lower)
     return grid[g - 1]! + (grid[g]! - grid[g - 1]!) * along
   }
   return grid[grid.length - 1]!

@@ -9,7 +9,7 @@ export class EngineInputError extends Error {
   readonly issues: EngineInputIssue[]
 
   constructor(issues: EngineInputIssue[]) {
-    const listed = issues.slice(0, 5).map((issue) => `${issue.path || '(input)'}: ${issue.message}`)
+    const listed = issues.slice(0, 5).map(issue => `${issue.path || '(input)'}: ${issue.message}`)
     const more = issues.length > 5 ? ` (and ${issues.length - 5} more)` : ''
     super(listed.join('; ') + more)
     this.name = 'EngineInputError'

@@ -1,7 +1,14 @@
 import { designLifeLevel, gridDesignLifeLevel } from './design-life'
 import { LIFE_GRID_POINTS } from './gumbel-uncertainty'
 import { annualCounts } from './tile-triggers'
-import { cumulativeCounts, histogramQuantile, meanFromDeviations, percentileStandardError, proportionStandardError, type HistogramView } from './statistics'
+import {
+  cumulativeCounts,
+  histogramQuantile,
+  meanFromDeviations,
+  percentileStandardError,
+  proportionStandardError,
+  type HistogramView,
+} from './statistics'
 import type {
   Estimate,
   FloodLevelOutlook,
@@ -36,7 +43,11 @@ function extrapolated(plan: OutlookPlan, varianceShare: Record<string, number> |
     const low = plan.publishedLevels[2 * c]!
     const high = plan.publishedLevels[2 * c + 1]!
     // The tolerance keeps a level on the edge (0.05 against 1 − 0.95) inside.
-    if ((level < low - LEVEL_TOLERANCE || level > high + LEVEL_TOLERANCE) && varianceShare[plan.componentKeys[c]!]! >= EXTRAPOLATION_SHARE) return true
+    if (
+      (level < low - LEVEL_TOLERANCE || level > high + LEVEL_TOLERANCE)
+      && varianceShare[plan.componentKeys[c]!]! >= EXTRAPOLATION_SHARE
+    )
+      return true
   }
   return false
 }
@@ -86,7 +97,12 @@ function meanChance(reference: number, sums: Float64Array, at: number, n: number
  * a release's published levels in either output year around it (or in the last year, when the
  * tolerance is not reached: "not within the horizon" rests on the same tail).
  */
-function triggerExtrapolated(plan: OutlookPlan, byYear: YearOutlook[], tolerance: number, year: number | null): boolean {
+function triggerExtrapolated(
+  plan: OutlookPlan,
+  byYear: YearOutlook[],
+  tolerance: number,
+  year: number | null,
+): boolean {
   const level = 1 - tolerance
   const last = plan.years.length - 1
   const after = year === null ? last : plan.years.findIndex(y => y >= year)
@@ -156,7 +172,7 @@ export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): Outloo
       year,
       mean: { value: plan.center[t]! + meanDeviation, se: sd / Math.sqrt(n) },
       sd,
-      percentiles: PERCENTILE_LEVELS.map((level) => ({
+      percentiles: PERCENTILE_LEVELS.map(level => ({
         level,
         value: histogramQuantile(view, level),
         se: percentileStandardError(view, level),
@@ -193,13 +209,13 @@ export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): Outloo
         return estimate
       })
       const trigger = plan.trigger!
-      const annual = annualCounts(plan, merged.triggerCounts, countedIndex++, (t) => exceedanceCounts[t]![cut]!)
+      const annual = annualCounts(plan, merged.triggerCounts, countedIndex++, t => exceedanceCounts[t]![cut]!)
       return {
         ...about,
         byYear: probabilities,
         // The first calendar year whose chance (count / N, as in byYear) reaches the tolerance.
         triggerYears: plan.tolerances.map((tolerance) => {
-          const index = annual.findIndex((count) => count / n >= tolerance)
+          const index = annual.findIndex(count => count / n >= tolerance)
           const year = index < 0 ? null : trigger.firstYear + index
           return { tolerance, year, extrapolated: triggerExtrapolated(plan, byYear, tolerance, year) }
         }),
@@ -237,7 +253,12 @@ function yearGumbel(plan: OutlookPlan, sums: Float64Array, t: number, n: number)
   const allowance = plan.center[t]! + gumbel.scale * Math.log(meanGrowth)
   const amplification = Math.exp(allowance / gumbel.scale)
   // Delta method: the allowance is λ·ln of a mean, the amplification the mean times e^{center/λ}.
-  const growthSe = meanFromDeviations(1, sums[layout.gumbelGrowth + 2 * t]!, sums[layout.gumbelGrowth + 2 * t + 1]!, n).se
+  const growthSe = meanFromDeviations(
+    1,
+    sums[layout.gumbelGrowth + 2 * t]!,
+    sums[layout.gumbelGrowth + 2 * t + 1]!,
+    n,
+  ).se
   const settled = gumbel.heavy.unsettled[t] === 0
   const levelCount = gumbel.levels.length
   return {
@@ -276,7 +297,12 @@ function floodThreshold(
   const n = plan.samples
   const levelCount = gumbel.levels.length
   const shift = threshold.height - gumbel.location
-  const flood: FloodLevelOutlook = { annualChance: [], expectedPerYear: [], expectedPerYearSettled: [], returnPeriodYears: [] }
+  const flood: FloodLevelOutlook = {
+    annualChance: [],
+    expectedPerYear: [],
+    expectedPerYearSettled: [],
+    returnPeriodYears: [],
+  }
   plan.years.forEach((_, t) => {
     const at = t * levelCount + threshold.levelIndex!
     const chance = meanChance(gumbel.levelReference[at]!, sums, layout.annualChance + 2 * at, n)
@@ -298,7 +324,13 @@ function floodThreshold(
     designLifeLevel: {
       chance: threshold.designLifeChance,
       level: gumbel.uncertainty
-        ? gridDesignLifeLevel(gumbel.uncertainty.lifeGrid[threshold.lifeSpanIndex]!, sums, layout.lifeGrid + threshold.lifeSpanIndex * LIFE_GRID_POINTS, n, threshold.designLifeChance)
+        ? gridDesignLifeLevel(
+            gumbel.uncertainty.lifeGrid[threshold.lifeSpanIndex]!,
+            sums,
+            layout.lifeGrid + threshold.lifeSpanIndex * LIFE_GRID_POINTS,
+            n,
+            threshold.designLifeChance,
+          )
         : designLifeLevel(span, merged.lifeHistogram, gumbel, threshold.designLifeChance),
     },
   }

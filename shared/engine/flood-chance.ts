@@ -46,11 +46,18 @@ function geometricRun(a: number, d: number, steps: number): number {
 
 /**
  * ln Σ_years e^{rise/λ} over a life's annual steps, the rise read at knot k from rise[k·stride + i]
- * (a segment from knot −1 starts at the baseline, rise 0) and interpolated linearly between knots. The chance of no exceedance
+ * (a segment from knot −1 starts at the baseline, rise 0) and interpolated linearly between knots. The chance of no
+ * exceedance
  * of h in the life is then Π_years F(h − rise) = exp(−e^{−(h−μ)/λ} · e^{logSum}). Terms are scaled by
  * the largest one, so a large rise over a small λ does not overflow.
  */
-export function lifeLogSum(segments: LifeSegment[], rise: Float64Array, stride: number, i: number, inverseScale: number): number {
+export function lifeLogSum(
+  segments: LifeSegment[],
+  rise: Float64Array,
+  stride: number,
+  i: number,
+  inverseScale: number,
+): number {
   let peak = -Infinity
   for (let k = 0; k < segments.length; k++) {
     const segment = segments[k]!

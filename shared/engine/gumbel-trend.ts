@@ -67,7 +67,10 @@ function logLikelihood({ values, columns }: Problem, theta: readonly number[]): 
   return sum
 }
 
-function derivatives({ values, columns }: Problem, theta: readonly number[]): { gradient: number[], information: number[][] } {
+function derivatives(
+  { values, columns }: Problem,
+  theta: readonly number[],
+): { gradient: number[], information: number[][] } {
   const k = columns.length
   const lambda = Math.exp(theta[k]!)
   const gradient = new Array<number>(k + 1).fill(0)
@@ -134,7 +137,11 @@ function shifted(a: readonly number[][], tau: number): number[][] {
  * information is shifted towards the identity (Levenberg) so that each step still climbs, and a
  * backtracking line search keeps every accepted step an increase.
  */
-function maximise(problem: Problem, start: number[], maxIterations: number): { theta: number[], logLikelihood: number, covariance: number[][] } {
+function maximise(
+  problem: Problem,
+  start: number[],
+  maxIterations: number,
+): { theta: number[], logLikelihood: number, covariance: number[][] } {
   let theta = start
   let current = logLikelihood(problem, theta)
   if (!Number.isFinite(current)) throw notSettled('the starting values give no finite likelihood')
@@ -180,10 +187,14 @@ function maximise(problem: Problem, start: number[], maxIterations: number): { t
   throw notSettled(`no maximum was reached in ${maxIterations} steps`)
 }
 
-function finish(theta: number[], value: number, L: number[][]): { theta: number[], logLikelihood: number, covariance: number[][] } {
+function finish(
+  theta: number[],
+  value: number,
+  L: number[][],
+): { theta: number[], logLikelihood: number, covariance: number[][] } {
   const m = theta.length
   const identity = Array.from({ length: m }, (_, i) => Array.from({ length: m }, (_, j) => (i === j ? 1 : 0)))
-  const columns = identity.map((e) => solve(L, e))
+  const columns = identity.map(e => solve(L, e))
   // From ln λ to λ: dλ/d ln λ = λ (the gradient is zero at the maximum, so no other term enters).
   const lambda = Math.exp(theta[m - 1]!)
   const factor = theta.map((_, j) => (j === m - 1 ? lambda : 1))
@@ -192,19 +203,27 @@ function finish(theta: number[], value: number, L: number[][]): { theta: number[
 }
 
 function notSettled(detail: string): EngineInputError {
-  return new EngineInputError([{
-    path: 'annualMaxima',
-    message: `the maximum-likelihood fit did not settle (${detail}); look for a value in another unit, a mistyped year or an outlier`,
-  }])
+  return new EngineInputError([
+    {
+      path: 'annualMaxima',
+      message: `the maximum-likelihood fit did not settle (${detail}); look for a value in another unit, a mistyped year or an outlier`,
+    },
+  ])
 }
 
 function checkMaxima(maxima: ReadonlyArray<{ year: number, value: number }>, fewest: number, what: string): void {
   if (maxima.length < fewest) {
-    throw new EngineInputError([{ path: 'annualMaxima', message: `needs at least ${fewest} annual maxima to fit ${what}, got ${maxima.length}` }])
+    throw new EngineInputError([
+      { path: 'annualMaxima', message: `needs at least ${fewest} annual maxima to fit ${what}, got ${maxima.length}` },
+    ])
   }
   const issues = maxima.flatMap((m, i) => [
-    ...(Number.isFinite(m.year) ? [] : [{ path: `annualMaxima[${i}].year`, message: `must be a finite year, got ${m.year}` }]),
-    ...(Number.isFinite(m.value) ? [] : [{ path: `annualMaxima[${i}].value`, message: `must be a finite level in metres, got ${m.value}` }]),
+    ...(Number.isFinite(m.year)
+      ? []
+      : [{ path: `annualMaxima[${i}].year`, message: `must be a finite year, got ${m.year}` }]),
+    ...(Number.isFinite(m.value)
+      ? []
+      : [{ path: `annualMaxima[${i}].value`, message: `must be a finite level in metres, got ${m.value}` }]),
   ])
   if (issues.length) throw new EngineInputError(issues)
 }
@@ -219,14 +238,16 @@ export function fitGumbelWithTrend(
   if (!Number.isFinite(referenceEpoch)) {
     throw new EngineInputError([{ path: 'referenceEpoch', message: `must be a finite year, got ${referenceEpoch}` }])
   }
-  const values = maxima.map((m) => m.value)
+  const values = maxima.map(m => m.value)
   // Time counted from the epoch, so the fitted intercept and its standard error are those at the epoch.
-  const times = maxima.map((m) => m.year - referenceEpoch)
-  const years = maxima.map((m) => m.year)
+  const times = maxima.map(m => m.year - referenceEpoch)
+  const years = maxima.map(m => m.year)
   const firstYear = minOf(years)
   const lastYear = maxOf(years)
   if (firstYear === lastYear) {
-    throw new EngineInputError([{ path: 'annualMaxima', message: `all maxima are from ${firstYear}; a trend needs maxima from different years` }])
+    throw new EngineInputError([
+      { path: 'annualMaxima', message: `all maxima are from ${firstYear}; a trend needs maxima from different years` },
+    ])
   }
   // Start: least-squares slope, then L-moments of what is left about it (the slope alone is unbiased
   // for a Gumbel with a linear location, since the errors have a constant mean).
@@ -244,21 +265,32 @@ export function fitGumbelWithTrend(
   const spread = maxOf(residuals) - minOf(residuals)
   const size = Math.max(1, maxOf(values.map(Math.abs)))
   if (!(spread > 1e-9 * size)) {
-    throw new EngineInputError([{
-      path: 'annualMaxima',
-      message: 'the maxima lie on a straight line in time, which leaves no spread to fit a Gumbel scale to; check that these are each year\'s highest level, not a smoothed or fitted series',
-    }])
+    throw new EngineInputError([
+      {
+        path: 'annualMaxima',
+        message:
+          'the maxima lie on a straight line in time, which leaves no spread to fit a Gumbel scale to; check that these are each year\'s highest level, not a smoothed or fitted series',
+      },
+    ])
   }
   const start = fitGumbelByLMoments(residuals)
   const problem = { values, columns: [times.map(() => 1), times] }
-  const { theta, logLikelihood: value, covariance } = maximise(problem, [start.location, slope, Math.log(start.scale)], maxIterations)
+  const {
+    theta,
+    logLikelihood: value,
+    covariance,
+  } = maximise(problem, [start.location, slope, Math.log(start.scale)], maxIterations)
   const scale = Math.exp(theta[2]!)
   if (!(scale > 0) || !Number.isFinite(scale)) throw notSettled(`the scale came out as ${scale}`)
   return {
     location: theta[0]!,
     trendPerYear: theta[1]!,
     scale,
-    se: { location: Math.sqrt(covariance[0]![0]!), trendPerYear: Math.sqrt(covariance[1]![1]!), scale: Math.sqrt(covariance[2]![2]!) },
+    se: {
+      location: Math.sqrt(covariance[0]![0]!),
+      trendPerYear: Math.sqrt(covariance[1]![1]!),
+      scale: Math.sqrt(covariance[2]![2]!),
+    },
     covariance,
     logLikelihood: value,
     sampleSize: n,
@@ -268,11 +300,22 @@ export function fitGumbelWithTrend(
 }
 
 /** Maximum-likelihood fit of a Gumbel with a constant location, for comparison with the trend fit. */
-export function fitGumbelStationaryMle(values: readonly number[], { maxIterations = 100 }: FitOptions = {}): StationaryGumbelMle {
-  checkMaxima(values.map((value, i) => ({ year: i, value })), 2, 'a location and a scale')
+export function fitGumbelStationaryMle(
+  values: readonly number[],
+  { maxIterations = 100 }: FitOptions = {},
+): StationaryGumbelMle {
+  checkMaxima(
+    values.map((value, i) => ({ year: i, value })),
+    2,
+    'a location and a scale',
+  )
   const start = fitGumbelByLMoments(values)
   const problem = { values: [...values], columns: [values.map(() => 1)] }
-  const { theta, logLikelihood: value, covariance } = maximise(problem, [start.location, Math.log(start.scale)], maxIterations)
+  const {
+    theta,
+    logLikelihood: value,
+    covariance,
+  } = maximise(problem, [start.location, Math.log(start.scale)], maxIterations)
   return {
     location: theta[0]!,
     scale: Math.exp(theta[1]!),

@@ -14,7 +14,7 @@ export const LIFE_GRID_POINTS = 96
 const GRID_SPAN_SE = 6
 
 export function planUncertainty(
-  gumbel: { location: number; scale: number; locationSe?: number; scaleSe?: number; locationScaleCorrelation?: number },
+  gumbel: { location: number, scale: number, locationSe?: number, scaleSe?: number, locationScaleCorrelation?: number },
   lifeSpans: LifeSpan[],
 ): GumbelUncertainty | null {
   const locationSe = gumbel.locationSe ?? 0
@@ -28,8 +28,8 @@ export function planUncertainty(
     const highRise = (span.firstBin + span.bins - 1) * span.width * scale
     // A sample's chance of none, exp(−e^{S − (h − μ)/λ}), is below e^{−e³} at or under `low` and above
     // 1 − 10⁻⁶ at or over `high`, for every parameter pair within GRID_SPAN_SE errors.
-    const low = location - GRID_SPAN_SE * locationSe + Math.min(...scales.map((s) => s * (span.origin - 3))) + lowRise
-    const high = location + GRID_SPAN_SE * locationSe + Math.max(...scales.map((s) => s * (span.origin + 14))) + highRise
+    const low = location - GRID_SPAN_SE * locationSe + Math.min(...scales.map(s => s * (span.origin - 3))) + lowRise
+    const high = location + GRID_SPAN_SE * locationSe + Math.max(...scales.map(s => s * (span.origin + 14))) + highRise
     return Float64Array.from({ length: LIFE_GRID_POINTS }, (_, g) => low + ((high - low) * g) / (LIFE_GRID_POINTS - 1))
   })
   return { locationSe, scaleSe, correlation: gumbel.locationScaleCorrelation ?? 0, scaleFloor: SCALE_FLOOR, lifeGrid }

@@ -25,7 +25,9 @@ export function gumbelCdf(level: number, { location, scale }: GumbelParameters):
 export function gumbelReturnLevel({ location, scale }: GumbelParameters, returnPeriodYears: number): number {
   checkScale(scale)
   if (!(returnPeriodYears > 1)) {
-    throw new EngineInputError([{ path: 'returnPeriodYears', message: `must be above 1 year, got ${returnPeriodYears}` }])
+    throw new EngineInputError([
+      { path: 'returnPeriodYears', message: `must be above 1 year, got ${returnPeriodYears}` },
+    ])
   }
   return location - scale * Math.log(-Math.log1p(-1 / returnPeriodYears))
 }
@@ -33,7 +35,9 @@ export function gumbelReturnLevel({ location, scale }: GumbelParameters, returnP
 /** Chance that an event with a T-year return period happens at least once in `years` years: 1 − (1 − 1/T)ⁿ. */
 export function chanceOfAtLeastOne(returnPeriodYears: number, years: number): number {
   if (!(returnPeriodYears >= 1)) {
-    throw new EngineInputError([{ path: 'returnPeriodYears', message: `must be at least 1 year, got ${returnPeriodYears}` }])
+    throw new EngineInputError([
+      { path: 'returnPeriodYears', message: `must be at least 1 year, got ${returnPeriodYears}` },
+    ])
   }
   if (!(years >= 0) || !Number.isFinite(years)) {
     throw new EngineInputError([{ path: 'years', message: `must be zero or more years, got ${years}` }])
@@ -43,18 +47,24 @@ export function chanceOfAtLeastOne(returnPeriodYears: number, years: number): nu
 
 function checkMaxima(annualMaxima: readonly number[]): void {
   if (annualMaxima.length < 2) {
-    throw new EngineInputError([{ path: 'annualMaxima', message: `needs at least 2 annual maxima, got ${annualMaxima.length}` }])
+    throw new EngineInputError([
+      { path: 'annualMaxima', message: `needs at least 2 annual maxima, got ${annualMaxima.length}` },
+    ])
   }
-  const bad = annualMaxima.findIndex((value) => !Number.isFinite(value))
+  const bad = annualMaxima.findIndex(value => !Number.isFinite(value))
   if (bad >= 0) {
-    throw new EngineInputError([{ path: `annualMaxima[${bad}]`, message: `must be a finite level in metres, got ${annualMaxima[bad]}` }])
+    throw new EngineInputError([
+      { path: `annualMaxima[${bad}]`, message: `must be a finite level in metres, got ${annualMaxima[bad]}` },
+    ])
   }
 }
 
 /** Method of moments from a mean and standard deviation: λ = √6·s/π, μ = x̄ − γλ. */
 export function gumbelFromMoments(mean: number, sd: number): GumbelParameters {
   if (!(sd > 0) || !Number.isFinite(sd) || !Number.isFinite(mean)) {
-    throw new EngineInputError([{ path: 'sd', message: `needs a finite mean and a positive standard deviation, got ${mean}, ${sd}` }])
+    throw new EngineInputError([
+      { path: 'sd', message: `needs a finite mean and a positive standard deviation, got ${mean}, ${sd}` },
+    ])
   }
   const scale = (Math.sqrt(6) * sd) / Math.PI
   return { location: mean - EULER_GAMMA * scale, scale }
@@ -87,7 +97,9 @@ export function fitGumbelByLMoments(annualMaxima: readonly number[]): GumbelPara
   b1 /= n
   const l2 = 2 * b1 - b0
   if (!(l2 > 0)) {
-    throw new EngineInputError([{ path: 'annualMaxima', message: 'all annual maxima are equal; a Gumbel fit needs some spread' }])
+    throw new EngineInputError([
+      { path: 'annualMaxima', message: 'all annual maxima are equal; a Gumbel fit needs some spread' },
+    ])
   }
   const scale = l2 / Math.LN2
   return { location: b0 - EULER_GAMMA * scale, scale }

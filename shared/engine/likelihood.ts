@@ -5,19 +5,19 @@ import { EngineInputError } from './errors'
 // edge takes the more cautious (less confident) word. "More likely than not" (>50–100 %) is never the
 // narrowest band for any p — "likely" or "about as likely as not" always is — so it is never returned.
 
-export type LikelihoodKey =
-  | 'virtually-certain'
-  | 'extremely-likely'
-  | 'very-likely'
-  | 'likely'
-  | 'about-as-likely-as-not'
-  | 'unlikely'
-  | 'very-unlikely'
-  | 'extremely-unlikely'
-  | 'exceptionally-unlikely'
+export type LikelihoodKey
+  = | 'virtually-certain'
+    | 'extremely-likely'
+    | 'very-likely'
+    | 'likely'
+    | 'about-as-likely-as-not'
+    | 'unlikely'
+    | 'very-unlikely'
+    | 'extremely-unlikely'
+    | 'exceptionally-unlikely'
 
 /** The bands, for legends; probabilities as fractions. */
-export const LIKELIHOOD_BANDS: ReadonlyArray<{ key: LikelihoodKey; low: number; high: number }> = [
+export const LIKELIHOOD_BANDS: ReadonlyArray<{ key: LikelihoodKey, low: number, high: number }> = [
   { key: 'virtually-certain', low: 0.99, high: 1 },
   { key: 'extremely-likely', low: 0.95, high: 1 },
   { key: 'very-likely', low: 0.9, high: 1 },
@@ -32,7 +32,9 @@ export const LIKELIHOOD_BANDS: ReadonlyArray<{ key: LikelihoodKey; low: number; 
 /** The calibrated word (as a stable key the UI translates) for a probability in [0, 1]. */
 export function likelihoodWord(probability: number): LikelihoodKey {
   if (!(probability >= 0 && probability <= 1)) {
-    throw new EngineInputError([{ path: 'probability', message: `must be a probability in [0, 1], got ${probability}` }])
+    throw new EngineInputError([
+      { path: 'probability', message: `must be a probability in [0, 1], got ${probability}` },
+    ])
   }
   // Strict comparisons on the "likely" side and inclusive ones on the "unlikely" side put every edge
   // into the less confident band (0.99 → extremely likely, 0.33 → about as likely as not, 0.1 → unlikely).

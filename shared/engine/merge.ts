@@ -13,14 +13,16 @@ export function mergePartials(plan: OutlookPlan, partials: OutlookPartial[]): Ou
   for (const partial of partials) {
     for (let k = 0; k < partial.blocks.length; k++) {
       const block = partial.blocks[k]!
-      if (position[block] !== -1) throw new RangeError(`block ${block} comes in two partials: each block must be sampled once`)
+      if (position[block] !== -1)
+        throw new RangeError(`block ${block} comes in two partials: each block must be sampled once`)
       position[block] = 0
     }
   }
   let blockCount = 0
   for (let block = 0; block < plan.blockCount; block++) if (position[block] === 0) position[block] = blockCount++
   const merged = emptyPartial(plan, blockCount)
-  for (let block = 0; block < plan.blockCount; block++) if (position[block] !== -1) merged.blocks[position[block]!] = block
+  for (let block = 0; block < plan.blockCount; block++)
+    if (position[block] !== -1) merged.blocks[position[block]!] = block
   // The first partial is copied, the others added (this runs on the caller's thread after the last
   // worker answers, so it is on every pooled request's critical path).
   merged.cellCounts.set(partials[0]!.cellCounts)
@@ -36,7 +38,8 @@ export function mergePartials(plan: OutlookPlan, partials: OutlookPartial[]): Ou
       addCounts(merged.histogram, partial.histogram)
       addCounts(merged.lifeHistogram, partial.lifeHistogram)
       // Difference counts are signed; their sums stay within ±2³¹ (at most two million samples).
-      for (let i = 0; i < merged.triggerCounts.length; i++) merged.triggerCounts[i] = (merged.triggerCounts[i]! + partial.triggerCounts[i]!) | 0
+      for (let i = 0; i < merged.triggerCounts.length; i++)
+        merged.triggerCounts[i] = (merged.triggerCounts[i]! + partial.triggerCounts[i]!) | 0
     }
     for (let t = 0; t < merged.minimum.length; t++) {
       if (partial.minimum[t]! < merged.minimum[t]!) merged.minimum[t] = partial.minimum[t]!

@@ -24,7 +24,7 @@ const HISTOGRAM_RESOLUTIONS = [0.001, 0.002, 0.005, 0.01, 0.02, 0.05, 0.1, 0.2, 
 const MAX_HISTOGRAM_CELLS = 1 << 20
 const LOGNORMAL_BOUND_POINTS = 241
 
-function componentBounds(table: ComponentTable, yearCount: number): { low: Float64Array; high: Float64Array } {
+function componentBounds(table: ComponentTable, yearCount: number): { low: Float64Array, high: Float64Array } {
   const low = new Float64Array(yearCount).fill(Infinity)
   const high = new Float64Array(yearCount).fill(-Infinity)
   const take = (rise: ArrayLike<number>) => {
@@ -35,10 +35,13 @@ function componentBounds(table: ComponentTable, yearCount: number): { low: Float
   }
   if (table.kind === COMPONENT_KIND_DRAWS) {
     table.rows.forEach(take)
-  } else if (table.kind === COMPONENT_KIND_PIECEWISE) {
+  }
+  else if (table.kind === COMPONENT_KIND_PIECEWISE) {
     // Piecewise-linear in the score: extremes sit at the ends or at a breakpoint.
-    for (const z of [-HISTOGRAM_SCORE_SPAN, ...table.breakpoints, HISTOGRAM_SCORE_SPAN]) take(componentRiseAt(table, z, yearCount))
-  } else {
+    for (const z of [-HISTOGRAM_SCORE_SPAN, ...table.breakpoints, HISTOGRAM_SCORE_SPAN])
+      take(componentRiseAt(table, z, yearCount))
+  }
+  else {
     for (let i = 0; i < LOGNORMAL_BOUND_POINTS; i++) {
       const z = -HISTOGRAM_SCORE_SPAN + (2 * HISTOGRAM_SCORE_SPAN * i) / (LOGNORMAL_BOUND_POINTS - 1)
       take(componentRiseAt(table, z, yearCount))
@@ -47,7 +50,7 @@ function componentBounds(table: ComponentTable, yearCount: number): { low: Float
   return { low, high }
 }
 
-function bucketIndex(cuts: Float64Array): { start: Int32Array; origin: number; inverseWidth: number } {
+function bucketIndex(cuts: Float64Array): { start: Int32Array, origin: number, inverseWidth: number } {
   const bucketCount = Math.max(16, 4 * cuts.length)
   const origin = cuts[0]!
   const span = cuts[cuts.length - 1]! - origin
@@ -101,8 +104,12 @@ function heavyTail(
   })
   return {
     slots: Int32Array.from(slots),
-    cap: Float64Array.from(slots, (slot) => scale[slot]! * (shift[slot]! + Math.exp(mu[slot]! + sigma[slot]! * HEAVY_TAIL_CAP_SCORE)) - valueAtZero[slot]!),
-    sign: Float64Array.from(slots, (slot) => Math.sign(scale[slot]!)),
+    cap: Float64Array.from(
+      slots,
+      slot =>
+        scale[slot]! * (shift[slot]! + Math.exp(mu[slot]! + sigma[slot]! * HEAVY_TAIL_CAP_SCORE)) - valueAtZero[slot]!,
+    ),
+    sign: Float64Array.from(slots, slot => Math.sign(scale[slot]!)),
     weight,
     unsettled,
   }
@@ -118,7 +125,7 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
   const years = input.years
   const yearCount = years.length
   const componentCount = input.components.length
-  const tables = input.components.map((component) =>
+  const tables = input.components.map(component =>
     buildComponentTable(component.release, component.scale, input.baselineYear, years),
   )
 
@@ -155,12 +162,12 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
   // columns, so a sample's rise in every year comes from a handful of per-anchor sums.
   const groupWeights: Float64Array[][] = []
   const groupFirstColumn: number[] = []
-  const groupRelease: Array<{ baselineYear: number; anchorYears: number[] }> = []
+  const groupRelease: Array<{ baselineYear: number, anchorYears: number[] }> = []
   let basisCount = 0
   tables.forEach((table, c) => {
     const anchors = anchorCount[c]!
     // Compared number by number: turning the weights into a string key cost a sixth of the plan.
-    const group = groupWeights.findIndex((weights) => sameWeights(weights, table.relativeWeights))
+    const group = groupWeights.findIndex(weights => sameWeights(weights, table.relativeWeights))
     let first = groupFirstColumn[group]
     if (first === undefined) {
       first = basisCount
@@ -206,7 +213,8 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
   // The all-scores-zero trajectory, formed the way the sample loop forms a rise.
   const center = Float64Array.from(landIntercept)
   for (let t = 0; t < yearCount; t++) {
-    for (let slot = 0; slot < valueCount; slot++) center[t]! += basisWeight[t * basisCount + valueBasis[slot]!]! * valueAtZero[slot]!
+    for (let slot = 0; slot < valueCount; slot++)
+      center[t]! += basisWeight[t * basisCount + valueBasis[slot]!]! * valueAtZero[slot]!
   }
   const low = new Float64Array(yearCount)
   const high = new Float64Array(yearCount)
@@ -241,14 +249,31 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
   }
 
   // Flood levels are compared with the total water level, never counted against the rise.
-  const riseHeights = input.thresholds.filter((threshold) => threshold.kind === 'mean-sea-level').map((threshold) => threshold.height)
+  const riseHeights = input.thresholds
+    .filter(threshold => threshold.kind === 'mean-sea-level')
+    .map(threshold => threshold.height)
   const cuts = Float64Array.from(new Set([...input.heights, ...riseHeights])).sort()
   const cutPosition = (height: number) => cuts.indexOf(height)
   const buckets = bucketIndex(cuts)
-  const { thresholds, lifeSpans, lifeHistogramSize, gumbel: planned } = planThresholds(input, cutPosition, center, low, high)
+  const {
+    thresholds,
+    lifeSpans,
+    lifeHistogramSize,
+    gumbel: planned,
+  } = planThresholds(input, cutPosition, center, low, high)
   const gumbel = planned && {
     ...planned,
-    heavy: heavyTail(lognormalShift, lognormalMu, lognormalSigma, lognormalScale, valueAtZero, valueBasis, basisWeight, basisCount, yearCount),
+    heavy: heavyTail(
+      lognormalShift,
+      lognormalMu,
+      lognormalSigma,
+      lognormalScale,
+      valueAtZero,
+      valueBasis,
+      basisWeight,
+      basisCount,
+      yearCount,
+    ),
     uncertainty: input.gumbel ? planUncertainty(input.gumbel, lifeSpans) : null,
   }
 
@@ -260,7 +285,7 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
     valueBasis,
     valueAtZero,
     counted,
-    counted.map((k) => thresholds[k]!.height),
+    counted.map(k => thresholds[k]!.height),
   )
 
   const partCount = componentCount + 1
@@ -278,7 +303,7 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
     expectedCount: 0,
     lifeGrid: 0,
   }
-  const lifeThresholds = thresholds.filter((threshold) => threshold.lifeSumIndex !== null).length
+  const lifeThresholds = thresholds.filter(threshold => threshold.lifeSumIndex !== null).length
   sumLayout.gumbelGrowth = sumLayout.lifeNoExceedance + 2 * lifeThresholds
   sumLayout.expectedCount = sumLayout.gumbelGrowth + (gumbel ? 2 * yearCount : 0)
   const uncertain = gumbel?.uncertainty ?? null
@@ -287,7 +312,7 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
 
   const factor = input.choleskyFactor ?? identityFactor(componentCount)
   const identity = identityFactor(componentCount)
-  const componentKeys = input.components.map((component) => component.key)
+  const componentKeys = input.components.map(component => component.key)
 
   return {
     samples: input.samples,
@@ -350,4 +375,3 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
     sumLayout,
   }
 }
-

@@ -5,7 +5,12 @@ import { releaseSchema, type ParsedRelease } from './schema'
 // Checks a release on its own — what an analyst must fix before it can be published — apart from
 // the checks that relate it to one outlook (validate.ts).
 
-export function checkStrictlyIncreasing(values: number[], path: string, what: string, issues: EngineInputIssue[]): void {
+export function checkStrictlyIncreasing(
+  values: number[],
+  path: string,
+  what: string,
+  issues: EngineInputIssue[],
+): void {
   for (let i = 1; i < values.length; i++) {
     if (!(values[i]! > values[i - 1]!)) {
       issues.push({ path, message: `${what} must be strictly increasing: ${values[i]} follows ${values[i - 1]}` })
@@ -48,10 +53,14 @@ export function releaseIssues(release: ParsedRelease, path: string): EngineInput
       break
     case 'quantiles': {
       const levels = release.levels
-      const outside = levels.find((level) => !(level > 0 && level < 1))
+      const outside = levels.find(level => !(level > 0 && level < 1))
       if (outside !== undefined) {
-        issues.push({ path: at(path, 'levels'), message: `must be strictly increasing in (0,1): ${outside} is outside` })
-      } else {
+        issues.push({
+          path: at(path, 'levels'),
+          message: `must be strictly increasing in (0,1): ${outside} is outside`,
+        })
+      }
+      else {
         for (let k = 1; k < levels.length; k++) {
           if (!(levels[k]! > levels[k - 1]!)) {
             issues.push({

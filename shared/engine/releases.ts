@@ -20,7 +20,7 @@ export interface ComponentTable {
   rows: Float64Array[]
   slopes: Float64Array[]
   /** Lognormal: per anchor shift, mu, sigma and per-anchor weights per year. */
-  lognormal: { shift: number[]; mu: number[]; sigma: number[]; weights: Float64Array[] } | null
+  lognormal: { shift: number[], mu: number[], sigma: number[], weights: Float64Array[] } | null
   /** The scale factor (already inside `rows`, `slopes`, `anchorIntercept`, `anchorSlope` and `weights`). */
   scale: number
   /**
@@ -34,7 +34,7 @@ export interface ComponentTable {
 }
 
 /** Lines (intercept, slope) in the score per anchor and piece: lines[a][s]. */
-function anchorLines(release: ParsedRelease): { breakpoints: number[]; lines: Array<Array<[number, number]>> } {
+function anchorLines(release: ParsedRelease): { breakpoints: number[], lines: Array<Array<[number, number]>> } {
   if (release.form === 'normal') {
     return { breakpoints: [], lines: release.mean.map((mean, a) => [[mean, release.sd[a]!]]) }
   }
@@ -104,7 +104,7 @@ export function buildComponentTable(
   }
 
   if (release.form === 'lognormal') {
-    const scaled = weights.map((row) => row.map((w) => scale * w))
+    const scaled = weights.map(row => row.map(w => scale * w))
     return {
       kind: COMPONENT_KIND_LOGNORMAL,
       breakpoints: [],
@@ -182,7 +182,9 @@ export function componentRiseAt(table: ComponentTable, z: number, yearCount: num
   let row = 0
   while (row < table.breakpoints.length && z >= table.breakpoints[row]!) row++
   for (let t = 0; t < yearCount; t++) {
-    out[t] = table.kind === COMPONENT_KIND_PIECEWISE ? table.rows[row]![t]! + table.slopes[row]![t]! * z : table.rows[row]![t]!
+    out[t] = table.kind === COMPONENT_KIND_PIECEWISE
+      ? table.rows[row]![t]! + table.slopes[row]![t]! * z
+      : table.rows[row]![t]!
   }
   return out
 }

@@ -44,7 +44,9 @@ export function emptyPartial(plan: OutlookPlan, blockCount: number): OutlookPart
  */
 export type NextBlock = () => number
 
-/** Claims on a counter shared by threads (a SharedArrayBuffer): each call takes the next block, −1 when all are taken. */
+/**
+ * Claims on a counter shared by threads (a SharedArrayBuffer): each call takes the next block, −1 when all are taken.
+ */
 export function claimFromCounter(counter: Int32Array, blockCount: number): NextBlock {
   return () => {
     const block = Atomics.add(counter, 0, 1)
@@ -55,13 +57,15 @@ export function claimFromCounter(counter: Int32Array, blockCount: number): NextB
 /** Samples blocks firstBlock … firstBlock+blockCount−1 and returns their mergeable statistics. */
 export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: number): OutlookPartial {
   if (
-    !Number.isInteger(firstBlock) ||
-    !Number.isInteger(blockCount) ||
-    firstBlock < 0 ||
-    blockCount < 0 ||
-    firstBlock + blockCount > plan.blockCount
+    !Number.isInteger(firstBlock)
+    || !Number.isInteger(blockCount)
+    || firstBlock < 0
+    || blockCount < 0
+    || firstBlock + blockCount > plan.blockCount
   ) {
-    throw new RangeError(`blocks ${firstBlock}…${firstBlock + blockCount - 1} are outside this plan's ${plan.blockCount} blocks`)
+    throw new RangeError(
+      `blocks ${firstBlock}…${firstBlock + blockCount - 1} are outside this plan's ${plan.blockCount} blocks`,
+    )
   }
   let next = firstBlock
   const end = firstBlock + blockCount
@@ -73,7 +77,11 @@ export function runBlocks(plan: OutlookPlan, firstBlock: number, blockCount: num
  * one partial. Blocks must come in ascending order (a shared counter gives them so); each is sampled
  * from its own stream, so the merged statistics are the same bits however the blocks were shared out.
  */
-export function runClaimedBlocks(plan: OutlookPlan, nextBlock: NextBlock, capacity: number = plan.blockCount): OutlookPartial {
+export function runClaimedBlocks(
+  plan: OutlookPlan,
+  nextBlock: NextBlock,
+  capacity: number = plan.blockCount,
+): OutlookPartial {
   const partial = emptyPartial(plan, capacity)
   const tables = samplerTables(plan)
   const scratch = tileScratch(plan)
@@ -88,15 +96,23 @@ export function runClaimedBlocks(plan: OutlookPlan, nextBlock: NextBlock, capaci
   for (let b = 0; b < capacity; b++) {
     const blockIndex = nextBlock()
     if (blockIndex === -1) break
-    if (!Number.isInteger(blockIndex) || blockIndex < 0 || blockIndex >= plan.blockCount || (b > 0 && blockIndex <= partial.blocks[b - 1]!)) {
-      throw new RangeError(`block ${blockIndex} is not a next block of this plan's ${plan.blockCount}: blocks come once each, in ascending order`)
+    if (
+      !Number.isInteger(blockIndex)
+      || blockIndex < 0
+      || blockIndex >= plan.blockCount
+      || (b > 0 && blockIndex <= partial.blocks[b - 1]!)
+    ) {
+      throw new RangeError(
+        `block ${blockIndex} is not a next block of this plan's ${plan.blockCount}: blocks come once each, in ascending order`,
+      )
     }
     partial.blocks[b] = blockIndex
     done = b + 1
     const count = Math.min(plan.blockSize, plan.samples - blockIndex * plan.blockSize)
     const stream = blockStreamState(plan.seed, blockIndex)
     // One call per score row (the same stream, in the same order) so rows can be padded apart.
-    for (let k = 0; k < scoresPerSample; k++) fillNormalScores(stream, scratch.independent, k * (count + ROW_PADDING), count)
+    for (let k = 0; k < scoresPerSample; k++)
+      fillNormalScores(stream, scratch.independent, k * (count + ROW_PADDING), count)
     // Parameter scores come after every other row, so plans without them draw exactly as before.
     if (uncertain) drawParameterScores(stream, count)
     scratch.basisSum.fill(0)
@@ -121,7 +137,8 @@ export function runClaimedBlocks(plan: OutlookPlan, nextBlock: NextBlock, capaci
       }
       if (plan.trigger !== null) triggerTile(plan, scratch, tileCount, partial.triggerCounts)
       if (uncertain) tileParameters(plan, count, tileStart, tileCount)
-      if (plan.gumbel !== null) gumbelTile(plan, tables, scratch, tileCount, partial.blockSums, b * plan.sumsPerBlock, partial.lifeHistogram)
+      if (plan.gumbel !== null)
+        gumbelTile(plan, tables, scratch, tileCount, partial.blockSums, b * plan.sumsPerBlock, partial.lifeHistogram)
     }
     blockSumsByYear(plan, scratch, partial.blockSums, b * plan.sumsPerBlock)
     partial.samples += count

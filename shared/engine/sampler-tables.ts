@@ -94,8 +94,8 @@ function buildTables(plan: OutlookPlan): SamplerTables {
   for (let t = 0; t < plan.years.length; t++) {
     const used: number[] = []
     for (let j = 0; j < columnCount; j++) if (plan.basisWeight[t * columnCount + j] !== 0) used.push(j)
-    const columns = padded((n) => new Int32Array(n), used.length, columnCount)
-    const weights = padded((n) => new Float64Array(n), used.length, 0)
+    const columns = padded(n => new Int32Array(n), used.length, columnCount)
+    const weights = padded(n => new Float64Array(n), used.length, 0)
     used.forEach((j, k) => {
       columns[k] = j
       weights[k] = plan.basisWeight[t * columnCount + j]!
@@ -112,9 +112,11 @@ function buildTables(plan: OutlookPlan): SamplerTables {
   for (let c = 0; c <= componentCount; c++) {
     const used: Array<[number, number]> = []
     if (c === componentCount) used.push([c, 1])
-    else for (let k = 0; k <= c; k++) if (plan.cholesky[c * componentCount + k] !== 0) used.push([k, plan.cholesky[c * componentCount + k]!])
-    const columns = padded((n) => new Int32Array(n), used.length, componentCount + 1)
-    const weights = padded((n) => new Float64Array(n), used.length, 0)
+    else
+      for (let k = 0; k <= c; k++)
+        if (plan.cholesky[c * componentCount + k] !== 0) used.push([k, plan.cholesky[c * componentCount + k]!])
+    const columns = padded(n => new Int32Array(n), used.length, componentCount + 1)
+    const weights = padded(n => new Float64Array(n), used.length, 0)
     used.forEach(([k, weight], n) => {
       columns[n] = k
       weights[n] = weight
@@ -126,7 +128,7 @@ function buildTables(plan: OutlookPlan): SamplerTables {
 
   const paddedBreakpoints = Array.from(plan.kinds, (_, c) => {
     const count = plan.breakpointCount[c]!
-    const breakpoints = padded((n) => new Float64Array(n), count, Infinity)
+    const breakpoints = padded(n => new Float64Array(n), count, Infinity)
     breakpoints.set(plan.breakpoints.subarray(plan.breakpointStart[c]!, plan.breakpointStart[c]! + count))
     return breakpoints
   })
@@ -138,7 +140,9 @@ function buildTables(plan: OutlookPlan): SamplerTables {
   const columnSlots = Array.from({ length: columnCount - 1 }, (_, j) => {
     const used: number[] = []
     for (let slot = 0; slot < plan.valueCount; slot++) if (plan.valueBasis[slot] === j) used.push(slot)
-    const slots = new Int32Array(Math.max(1, Math.ceil(used.length / SLOTS_PER_PASS)) * SLOTS_PER_PASS).fill(plan.valueCount)
+    const slots = new Int32Array(Math.max(1, Math.ceil(used.length / SLOTS_PER_PASS)) * SLOTS_PER_PASS).fill(
+      plan.valueCount,
+    )
     slots.set(used)
     return slots
   })
@@ -159,10 +163,10 @@ function buildTables(plan: OutlookPlan): SamplerTables {
     inlinePiece,
     allColumns: Int32Array.from({ length: Math.ceil(columnCount / PASS) * PASS }, (_, k) => Math.min(k, columnCount)),
     columnSlots,
-    hasDraws: plan.kinds.some((kind) => kind === COMPONENT_KIND_DRAWS),
+    hasDraws: plan.kinds.some(kind => kind === COMPONENT_KIND_DRAWS),
     cellOfBin,
     cutCells: cutCellsOf(cellOfBin),
-    lifeSegments: plan.lifeSpans.map((span) => lifeSegments(plan.baselineYear, plan.years, span.startYear, span.years)),
+    lifeSegments: plan.lifeSpans.map(span => lifeSegments(plan.baselineYear, plan.years, span.startYear, span.years)),
     lifeThresholds: plan.lifeSpans.map((_, s) => {
       const indices: number[] = []
       plan.thresholds.forEach((threshold, k) => {
@@ -178,7 +182,12 @@ function buildTables(plan: OutlookPlan): SamplerTables {
  * no rise kept for the Gumbel sums) are paired while their columns together number three or fewer:
  * in W1, 2030 with 2040, 2050 with 2060, …, 2130 with 2140.
  */
-function pairYears(plan: OutlookPlan, yearColumns: Int32Array[], yearWeights: Float64Array[], constantYear: Uint8Array): YearPair[] {
+function pairYears(
+  plan: OutlookPlan,
+  yearColumns: Int32Array[],
+  yearWeights: Float64Array[],
+  constantYear: Uint8Array,
+): YearPair[] {
   const pairs: YearPair[] = []
   if (plan.gumbel !== null) return pairs
   const zeroRow = plan.basisCount
@@ -223,7 +232,12 @@ function cutCellsOf(cellOfBin: Int32Array): Int32Array {
  * year itself, which the first run includes. Every step must lie between the baseline and the last
  * output year (validation checks this).
  */
-export function lifeSegments(baselineYear: number, years: readonly number[], startYear: number, lifeYears: number): LifeSegment[] {
+export function lifeSegments(
+  baselineYear: number,
+  years: readonly number[],
+  startYear: number,
+  lifeYears: number,
+): LifeSegment[] {
   const segments: LifeSegment[] = []
   const end = startYear + lifeYears - 1
   let fromYear = baselineYear

@@ -9,10 +9,17 @@ export const MAX_SAMPLES = 2_000_000
 export const DEFAULT_TOLERANCES = [0.01, 0.05, 0.1, 0.33, 0.5] as const
 export const DEFAULT_RETURN_PERIODS = [10, 50, 100] as const
 
-const year = z.number().int('must be a whole year').min(1000, 'must be a year from 1000').max(9999, 'must be a year before 10000')
+const year = z
+  .number()
+  .int('must be a whole year')
+  .min(1000, 'must be a year from 1000')
+  .max(9999, 'must be a year before 10000')
 // Bounds keep every product and sum in the engine finite; no real rise, rate or scale comes near them.
 const MAX_METRES = 1000
-const finite = z.number().min(-MAX_METRES, `must be at least -${MAX_METRES}`).max(MAX_METRES, `must be at most ${MAX_METRES}`)
+const finite = z
+  .number()
+  .min(-MAX_METRES, `must be at least -${MAX_METRES}`)
+  .max(MAX_METRES, `must be at most ${MAX_METRES}`)
 const nonNegative = z.number().min(0, 'must be zero or more').max(MAX_METRES, `must be at most ${MAX_METRES}`)
 export const MAX_DRAWS = 200_000
 export const MAX_HEIGHTS = 10_000
@@ -35,7 +42,10 @@ export const lognormalReleaseSchema = z.object({
   form: z.literal('lognormal'),
   ...releaseBase,
   shift: perAnchor('shift'),
-  mu: perAnchor('mu', z.number().min(-50, 'must be at least -50').max(20, 'must be at most 20 (e^20 m is no sea level)')),
+  mu: perAnchor(
+    'mu',
+    z.number().min(-50, 'must be at least -50').max(20, 'must be at most 20 (e^20 m is no sea level)'),
+  ),
   sigma: perAnchor('sigma', z.number().min(0, 'must be zero or more').max(3, 'must be at most 3')),
 })
 

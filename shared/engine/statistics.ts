@@ -46,7 +46,12 @@ export interface HistogramView {
  * year holds at most 2,000,000 samples). Written into `into` when it has the right length (finishing
  * is synchronous, so a caller may reuse one array), otherwise into a new array.
  */
-export function cumulativeCounts(counts: Uint32Array, offsets: ArrayLike<number>, bins: ArrayLike<number>, into?: Uint32Array): Uint32Array {
+export function cumulativeCounts(
+  counts: Uint32Array,
+  offsets: ArrayLike<number>,
+  bins: ArrayLike<number>,
+  into?: Uint32Array,
+): Uint32Array {
   const cumulative = into?.length === counts.length ? into : new Uint32Array(counts.length)
   for (let t = 0; t < offsets.length; t++) {
     let total = 0
@@ -70,7 +75,8 @@ export function histogramQuantile(view: HistogramView, level: number): number {
   let value: number
   if (target <= below) {
     value = view.minimum
-  } else if (view.cumulative) {
+  }
+  else if (view.cumulative) {
     // First bin whose running total reaches the target: the same bin, and the same integers, as the scan.
     const cumulative = view.cumulative
     let lowK = 1
@@ -84,10 +90,12 @@ export function histogramQuantile(view: HistogramView, level: number): number {
       const count = counts[offset + lowK]!
       below = cumulative[offset + lowK]! - count
       value = low + (lowK - 1 + (target - below) / count) * resolution
-    } else {
+    }
+    else {
       value = view.maximum
     }
-  } else {
+  }
+  else {
     value = view.maximum
     for (let k = 1; k <= bins; k++) {
       const count = counts[offset + k]!

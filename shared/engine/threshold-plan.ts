@@ -33,7 +33,7 @@ export function planThresholds(
   high: Float64Array,
 ): PlannedThresholds {
   const gumbel = input.gumbel
-  const levels = gumbel ? gumbel.returnPeriods.map((period) => gumbelReturnLevel(gumbel, period)) : []
+  const levels = gumbel ? gumbel.returnPeriods.map(period => gumbelReturnLevel(gumbel, period)) : []
   const lifeSpans: LifeSpan[] = []
   let lifeHistogramSize = 0
   let lifeSums = 0
@@ -45,7 +45,7 @@ export function planThresholds(
     let lifeSpanIndex: number | null = null
     let lifeReference: number | null = null
     if (life && gumbel) {
-      lifeSpanIndex = lifeSpans.findIndex((span) => span.startYear === life.startYear && span.years === life.years)
+      lifeSpanIndex = lifeSpans.findIndex(span => span.startYear === life.startYear && span.years === life.years)
       if (lifeSpanIndex < 0) {
         const span = lifeSpan(input, life.startYear, life.years, gumbel.scale, center, low, high, lifeHistogramSize)
         lifeHistogramSize += span.bins + 2
@@ -78,14 +78,24 @@ export function planThresholds(
       const shift = levels[k]! - gumbel.location
       levelFactor[at] = annualFactor(center[t]!, shift, inverseScale)
       // The loop's arithmetic for a sample on the all-scores-zero trajectory, whose growth is e⁰ = 1.
-      levelReference[at] = levelFactor[at]! > 0 ? factoredExceedance(1, levelFactor[at]!) : annualExceedance(center[t]!, shift, inverseScale)
+      levelReference[at]
+        = levelFactor[at]! > 0
+          ? factoredExceedance(1, levelFactor[at]!)
+          : annualExceedance(center[t]!, shift, inverseScale)
     }
   }
   return {
     thresholds,
     lifeSpans,
     lifeHistogramSize,
-    gumbel: { location: gumbel.location, scale: gumbel.scale, returnPeriods: [...gumbel.returnPeriods], levels, levelFactor, levelReference },
+    gumbel: {
+      location: gumbel.location,
+      scale: gumbel.scale,
+      returnPeriods: [...gumbel.returnPeriods],
+      levels,
+      levelFactor,
+      levelReference,
+    },
   }
 }
 

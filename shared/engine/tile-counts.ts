@@ -23,7 +23,13 @@ function riseIntercept(plan: OutlookPlan, scratch: TileScratch, t: number): numb
  * rise(t) = intercept + Σ_j weight_j · level_j over the tile, a few columns per pass: every pass but the
  * last, which `countYear` adds as it reads the rise.
  */
-export function riseOfYear(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, t: number, tileCount: number): void {
+export function riseOfYear(
+  plan: OutlookPlan,
+  tables: SamplerTables,
+  scratch: TileScratch,
+  t: number,
+  tileCount: number,
+): void {
   const rise = scratch.rise
   const levels = scratch.rows
   const levelsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
@@ -42,7 +48,8 @@ export function riseOfYear(plan: OutlookPlan, tables: SamplerTables, scratch: Ti
     const w2 = weights[p + 2]!
     const w3 = weights[p + 3]!
     for (let i = 0; i < tileCount; i++) {
-      rise[out + i] = rise[out + i]! + w0 * levels[b0 + i]! + w1 * levels[b1 + i]! + w2 * levels[b2 + i]! + w3 * levels[b3 + i]!
+      rise[out + i]
+        = rise[out + i]! + w0 * levels[b0 + i]! + w1 * levels[b1 + i]! + w2 * levels[b2 + i]! + w3 * levels[b3 + i]!
     }
   }
 }
@@ -110,7 +117,9 @@ export function countYear(
   const inverseResolution = 1 / plan.histogramResolution
   const histogram = scratch.histogram
   const levels = scratch.rows
-  const { low, lastBin, histogramAt, riseAt, b0, b1, b2, b3, w0, w1, w2, w3, onePass, intercept, used } = yearCounting(plan, tables, scratch, t)
+  const {
+    low, lastBin, histogramAt, riseAt, b0, b1, b2, b3, w0, w1, w2, w3, onePass, intercept, used,
+  } = yearCounting(plan, tables, scratch, t)
   // The Gumbel statistics read each year's rise back.
   const keepRise = plan.gumbel !== null
   let minimum = partial.minimum[t]!
@@ -120,10 +129,31 @@ export function countYear(
   const listed = scratch.listed
   let listedCount = 0
   if (onePass && !keepRise && used < 4) {
-    listedCount = countOnePass(histogram, levels, listed, histogramAt, b0, b1, b2, w0, w1, w2, used === 3, intercept, low, inverseResolution, lastBin, tileCount, partial.minimum, partial.maximum, t)
+    listedCount = countOnePass(
+      histogram,
+      levels,
+      listed,
+      histogramAt,
+      b0,
+      b1,
+      b2,
+      w0,
+      w1,
+      w2,
+      used === 3,
+      intercept,
+      low,
+      inverseResolution,
+      lastBin,
+      tileCount,
+      partial.minimum,
+      partial.maximum,
+      t,
+    )
     minimum = partial.minimum[t]!
     maximum = partial.maximum[t]!
-  } else for (let i = 0; i < tileCount; i++) {
+  }
+  else for (let i = 0; i < tileCount; i++) {
     let value = (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]!
     if (used > 2) value += w2 * levels[b2 + i]!
     if (used > 3) value += w3 * levels[b3 + i]!
@@ -164,11 +194,18 @@ export function placeListed(
   const cellCounts = partial.cellCounts
   const cellAt = t * (cutCount + 1)
   const levels = scratch.rows
-  const { low, lastBin, histogramAt, riseAt, b0, b1, b2, b3, w0, w1, w2, w3, onePass, intercept, used } = yearCounting(plan, tables, scratch, t)
+  const { low, lastBin, histogramAt, riseAt, b0, b1, b2, b3, w0, w1, w2, w3, onePass, intercept, used } = yearCounting(
+    plan,
+    tables,
+    scratch,
+    t,
+  )
   const keepRise = plan.gumbel !== null
   for (let k = 0; k < listedCount; k++) {
     const i = listed[k]!
-    let value = keepRise ? rise[riseAt + i]! : (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]!
+    let value = keepRise
+      ? rise[riseAt + i]!
+      : (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]!
     if (!keepRise && used > 2) value += w2 * levels[b2 + i]!
     if (!keepRise && used > 3) value += w3 * levels[b3 + i]!
     let bin = (value - low) * inverseResolution + 1
@@ -218,7 +255,8 @@ function countOnePass(
       bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
       cells[i] = (histogramAt + bin) | 0
     }
-  } else {
+  }
+  else {
     for (let i = 0; i < tileCount; i = (i + 1) | 0) {
       const value = intercept + w0 * levels[(b0 + i) | 0]! + w1 * levels[(b1 + i) | 0]!
       if (value < minimum) minimum = value
@@ -238,7 +276,12 @@ function countOnePass(
  * A loop of its own: each cell index is ready long before its turn, so the processor runs the loads and
  * stores of many samples ahead instead of waiting on the arithmetic that found them.
  */
-export function addToHistogram(histogram: Int32Array, cells: Int32Array, listed: Int32Array, tileCount: number): number {
+export function addToHistogram(
+  histogram: Int32Array,
+  cells: Int32Array,
+  listed: Int32Array,
+  tileCount: number,
+): number {
   let listedCount = 0
   for (let i = 0; i < tileCount; i = (i + 1) | 0) {
     const at = cells[i]!
@@ -285,7 +328,12 @@ export function countConstantYear(
  * The partial's histogram from the working counts (sign bits cleared), and the samples of histogram
  * cells without a cut added to their exceedance cells.
  */
-export function finishCounts(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, partial: OutlookPartial): void {
+export function finishCounts(
+  plan: OutlookPlan,
+  tables: SamplerTables,
+  scratch: TileScratch,
+  partial: OutlookPartial,
+): void {
   const cellsPerYear = plan.cuts.length + 1
   const cellOfBin = tables.cellOfBin
   const working = scratch.histogram

@@ -22,7 +22,14 @@ const CONSTANTS = new Float64Array(13)
  * as `countOnePass` forms it (same terms, same order; a column the year does not use weighs zero and
  * adding a zero product leaves a sum unchanged), so a year counts the same in a pair or alone.
  */
-export function countYearPair(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, pair: YearPair, tileCount: number, partial: OutlookPartial): void {
+export function countYearPair(
+  plan: OutlookPlan,
+  tables: SamplerTables,
+  scratch: TileScratch,
+  pair: YearPair,
+  tileCount: number,
+  partial: OutlookPartial,
+): void {
   const levelsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
   const first = pair.first
   const second = pair.second
@@ -49,8 +56,24 @@ export function countYearPair(plan: OutlookPlan, tables: SamplerTables, scratch:
     second,
   )
   const listed = scratch.listed
-  placeListed(plan, tables, scratch, first, listed, addToHistogram(scratch.histogram, FIRST_CELLS, listed, tileCount), partial)
-  placeListed(plan, tables, scratch, second, listed, addToHistogram(scratch.histogram, SECOND_CELLS, listed, tileCount), partial)
+  placeListed(
+    plan,
+    tables,
+    scratch,
+    first,
+    listed,
+    addToHistogram(scratch.histogram, FIRST_CELLS, listed, tileCount),
+    partial,
+  )
+  placeListed(
+    plan,
+    tables,
+    scratch,
+    second,
+    listed,
+    addToHistogram(scratch.histogram, SECOND_CELLS, listed, tileCount),
+    partial,
+  )
 }
 
 function pairCells(

@@ -34,9 +34,15 @@ export interface TileScratch {
    * kinds of row read them all from this one.
    */
   rows: Float64Array
-  /** Scaled anchor value of slot v less its all-scores-zero value, at rows[valuesAt + v·ROW + i]; row V stays zero (padding). */
+  /**
+   * Scaled anchor value of slot v less its all-scores-zero value, at rows[valuesAt + v·ROW + i]; row V stays zero
+   * (padding).
+   */
   valuesAt: number
-  /** Per column, the sum of its slots' centred values (land motion: the score) at rows[basisAt + j·ROW + i]: the basis of the sums. Row J zero. */
+  /**
+   * Per column, the sum of its slots' centred values (land motion: the score) at rows[basisAt + j·ROW + i]: the basis
+   * of the sums. Row J zero.
+   */
   basisAt: number
   /**
    * Per basis column j, the sum of its slots' scaled anchor values at rows[levelsAt + j·ROW + i] (land
@@ -64,7 +70,7 @@ export interface TileScratch {
   valueCross: Float64Array
 }
 
-let kept: { key: string; scratch: TileScratch } | null = null
+let kept: { key: string, scratch: TileScratch } | null = null
 
 /**
  * Scratch for a plan's shape. The last one is kept for the next call of the same shape: a worker
@@ -73,7 +79,14 @@ let kept: { key: string; scratch: TileScratch } | null = null
  */
 export function tileScratch(plan: OutlookPlan): TileScratch {
   const scoreRows = plan.componentKeys.length + 1
-  const key = [plan.blockSize, scoreRows, plan.valueCount, plan.basisCount, plan.years.length, plan.histogramSize].join()
+  const key = [
+    plan.blockSize,
+    scoreRows,
+    plan.valueCount,
+    plan.basisCount,
+    plan.years.length,
+    plan.histogramSize,
+  ].join()
   if (kept?.key === key) return kept.scratch
   const columnCount = plan.basisCount
   const scratch: TileScratch = {

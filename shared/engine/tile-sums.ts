@@ -14,7 +14,12 @@ const GROWTH = new Float64Array(TILE)
  * The centred basis when the value loop summed levels: per column, the sum of its slots' centred values,
  * in slot order, three per pass (padding reads the zero row of `values`); land motion's is its score.
  */
-export function basisFromValues(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, tileCount: number): void {
+export function basisFromValues(
+  plan: OutlookPlan,
+  tables: SamplerTables,
+  scratch: TileScratch,
+  tileCount: number,
+): void {
   // Values and basis are rows of the same array (see `TileScratch.rows`).
   const values = scratch.rows
   const basis = values
@@ -26,8 +31,11 @@ export function basisFromValues(plan: OutlookPlan, tables: SamplerTables, scratc
       const v0 = scratch.valuesAt + slots[p]! * ROW
       const v1 = scratch.valuesAt + slots[p + 1]! * ROW
       const v2 = scratch.valuesAt + slots[p + 2]! * ROW
-      if (p === 0) for (let i = 0; i < tileCount; i++) basis[at + i] = values[v0 + i]! + values[v1 + i]! + values[v2 + i]!
-      else for (let i = 0; i < tileCount; i++) basis[at + i] = basis[at + i]! + values[v0 + i]! + values[v1 + i]! + values[v2 + i]!
+      if (p === 0)
+        for (let i = 0; i < tileCount; i++) basis[at + i] = values[v0 + i]! + values[v1 + i]! + values[v2 + i]!
+      else
+        for (let i = 0; i < tileCount; i++)
+          basis[at + i] = basis[at + i]! + values[v0 + i]! + values[v1 + i]! + values[v2 + i]!
     }
   }
 }
@@ -88,7 +96,8 @@ export function sumTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileS
           c2 += y * u2
           c3 += y * u3
         }
-      } else {
+      }
+      else {
         for (let i = 0; i < tileCount; i = (i + 1) | 0) {
           const x = sourceA[(atA + i) | 0]!
           const y = sourceB[(atB + i) | 0]!
@@ -214,7 +223,14 @@ export function blockSumsByYear(plan: OutlookPlan, scratch: TileScratch, sums: F
  * Annual chances and expected exceedances of every Gumbel level in year t with each sample's own
  * location and scale (`TILE_PARAMETERS`): chance −expm1(−e^e), expected e^e, e = (rise + μ_s − level)/λ_s.
  */
-function uncertainLevels(plan: OutlookPlan, t: number, tileCount: number, rise: Float64Array, sums: Float64Array, sumOffset: number): void {
+function uncertainLevels(
+  plan: OutlookPlan,
+  t: number,
+  tileCount: number,
+  rise: Float64Array,
+  sums: Float64Array,
+  sumOffset: number,
+): void {
   const gumbel = plan.gumbel!
   const levels = gumbel.levels
   const riseAt = t * ROW
@@ -383,7 +399,8 @@ export function gumbelTile(
           deviations += deviation
           squares += deviation * deviation
         }
-      } else {
+      }
+      else {
         const shift = levels[k]! - gumbel.location
         for (let i = 0; i < tileCount; i++) {
           const deviation = annualExceedance(rise[riseAt + i]!, shift, inverseScale) - reference
@@ -416,7 +433,8 @@ export function gumbelTile(
       lifeHistogram[span.histogramOffset + cell]!++
       for (let m = 0; m < members.length; m++) {
         const threshold = plan.thresholds[members[m]!]!
-        const deviation = lifeNoExceedance(logSum, threshold.height - gumbel.location, inverseScale) - threshold.lifeReference!
+        const deviation
+          = lifeNoExceedance(logSum, threshold.height - gumbel.location, inverseScale) - threshold.lifeReference!
         const at = lifeAt + 2 * threshold.lifeSumIndex!
         sums[at]! += deviation
         sums[at + 1]! += deviation * deviation

@@ -38,11 +38,22 @@ export function triggerTile(plan: OutlookPlan, scratch: TileScratch, tileCount: 
       const w3 = weights[c + 3]!
       if (c === trigger.knotColumnStart[k]) {
         for (let i = 0; i < tileCount; i = (i + 1) | 0) {
-          rise[(out + i) | 0] = intercept + w0 * rows[(b0 + i) | 0]! + w1 * rows[(b1 + i) | 0]! + w2 * rows[(b2 + i) | 0]! + w3 * rows[(b3 + i) | 0]!
+          rise[(out + i) | 0]
+            = intercept
+              + w0 * rows[(b0 + i) | 0]!
+              + w1 * rows[(b1 + i) | 0]!
+              + w2 * rows[(b2 + i) | 0]!
+              + w3 * rows[(b3 + i) | 0]!
         }
-      } else {
+      }
+      else {
         for (let i = 0; i < tileCount; i = (i + 1) | 0) {
-          rise[(out + i) | 0] = rise[(out + i) | 0]! + w0 * rows[(b0 + i) | 0]! + w1 * rows[(b1 + i) | 0]! + w2 * rows[(b2 + i) | 0]! + w3 * rows[(b3 + i) | 0]!
+          rise[(out + i) | 0]
+            = rise[(out + i) | 0]!
+              + w0 * rows[(b0 + i) | 0]!
+              + w1 * rows[(b1 + i) | 0]!
+              + w2 * rows[(b2 + i) | 0]!
+              + w3 * rows[(b3 + i) | 0]!
         }
       }
     }

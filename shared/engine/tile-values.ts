@@ -47,21 +47,35 @@ export function scoreTile(
       if (p === 0 && l2 === 0) {
         // Two entries or fewer (the padding weighs zero).
         for (let i = 0; i < tileCount; i++) scores[at + i] = l0 * independent[k0 + i]! + l1 * independent[k1 + i]!
-      } else if (p === 0 && l3 === 0) {
-        for (let i = 0; i < tileCount; i++) scores[at + i] = l0 * independent[k0 + i]! + l1 * independent[k1 + i]! + l2 * independent[k2 + i]!
-      } else if (p === 0) {
+      }
+      else if (p === 0 && l3 === 0) {
+        for (let i = 0; i < tileCount; i++)
+          scores[at + i] = l0 * independent[k0 + i]! + l1 * independent[k1 + i]! + l2 * independent[k2 + i]!
+      }
+      else if (p === 0) {
         for (let i = 0; i < tileCount; i++) {
-          scores[at + i] = l0 * independent[k0 + i]! + l1 * independent[k1 + i]! + l2 * independent[k2 + i]! + l3 * independent[k3 + i]!
+          scores[at + i]
+            = l0 * independent[k0 + i]!
+              + l1 * independent[k1 + i]!
+              + l2 * independent[k2 + i]!
+              + l3 * independent[k3 + i]!
         }
-      } else {
+      }
+      else {
         for (let i = 0; i < tileCount; i++) {
-          scores[at + i] = scores[at + i]! + l0 * independent[k0 + i]! + l1 * independent[k1 + i]! + l2 * independent[k2 + i]! + l3 * independent[k3 + i]!
+          scores[at + i]
+            = scores[at + i]!
+              + l0 * independent[k0 + i]!
+              + l1 * independent[k1 + i]!
+              + l2 * independent[k2 + i]!
+              + l3 * independent[k3 + i]!
         }
       }
     }
   }
   for (let c = 0; c < componentCount; c++) {
-    if (plan.kinds[c] === COMPONENT_KIND_PIECEWISE && !tables.inlinePiece[c]) piecewiseLines(plan, tables, scratch, c, tileCount)
+    if (plan.kinds[c] === COMPONENT_KIND_PIECEWISE && !tables.inlinePiece[c])
+      piecewiseLines(plan, tables, scratch, c, tileCount)
     else if (plan.kinds[c] === COMPONENT_KIND_DRAWS) drawLines(plan, scratch, c, tileCount)
   }
 }
@@ -70,7 +84,13 @@ export function scoreTile(
  * Piece = number of breakpoints at or below the score, counted four at a time (padded with +∞) as a
  * sum of comparisons: no data-dependent branch in the loop body.
  */
-function piecewiseLines(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, c: number, tileCount: number): void {
+function piecewiseLines(
+  plan: OutlookPlan,
+  tables: SamplerTables,
+  scratch: TileScratch,
+  c: number,
+  tileCount: number,
+): void {
   const scores = scratch.scoreFrom[c]!
   const from = scratch.scoreAt[c]!
   const lineAt = scratch.lineAt
@@ -133,10 +153,13 @@ export function valueTile(plan: OutlookPlan, tables: SamplerTables, scratch: Til
           if (tables.inlinePiece[c]) piecewiseThreeInline(plan, tables, scratch, c, a, tileCount)
           else piecewiseThree(plan, scratch, c, a, tileCount)
           a += 2
-        } else piecewiseOne(plan, tables, scratch, c, a, tileCount)
-      } else if (kind === COMPONENT_KIND_DRAWS) {
+        }
+        else piecewiseOne(plan, tables, scratch, c, a, tileCount)
+      }
+      else if (kind === COMPONENT_KIND_DRAWS) {
         drawOne(plan, scratch, c, a, tileCount)
-      } else {
+      }
+      else {
         lognormalOne(plan, scratch, c, a, tileCount)
       }
     }
@@ -148,7 +171,14 @@ export function valueTile(plan: OutlookPlan, tables: SamplerTables, scratch: Til
 }
 
 /** Anchors a, a+1, a+2 of piecewise component c; the piece is found here (at most four breakpoints). */
-function piecewiseThreeInline(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, c: number, a: number, tileCount: number): void {
+function piecewiseThreeInline(
+  plan: OutlookPlan,
+  tables: SamplerTables,
+  scratch: TileScratch,
+  c: number,
+  a: number,
+  tileCount: number,
+): void {
   // Values and sums are rows of the same array (see `TileScratch.rows`).
   const values = scratch.rows
   const sums = values
@@ -237,7 +267,14 @@ function piecewiseThree(plan: OutlookPlan, scratch: TileScratch, c: number, a: n
 }
 
 /** Anchor a of piecewise component c (the piece inline or from `lineAt`). */
-function piecewiseOne(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, c: number, a: number, tileCount: number): void {
+function piecewiseOne(
+  plan: OutlookPlan,
+  tables: SamplerTables,
+  scratch: TileScratch,
+  c: number,
+  a: number,
+  tileCount: number,
+): void {
   const values = scratch.rows
   const sums = values
   const lineAt = scratch.lineAt

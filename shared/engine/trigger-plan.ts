@@ -16,7 +16,7 @@ export const KNOT_PASS = 4
  */
 export function planTriggers(
   input: ValidatedOutlookInput,
-  groups: Array<{ firstColumn: number; release: { baselineYear: number; anchorYears: number[] } }>,
+  groups: Array<{ firstColumn: number, release: { baselineYear: number, anchorYears: number[] } }>,
   basisCount: number,
   valueBasis: Int32Array,
   valueAtZero: Float64Array,
@@ -49,7 +49,8 @@ export function planTriggers(
   }
   const center = Float64Array.from(landIntercept)
   for (let k = 0; k < knotCount; k++) {
-    for (let slot = 0; slot < valueBasis.length; slot++) center[k]! += knotWeight[k * basisCount + valueBasis[slot]!]! * valueAtZero[slot]!
+    for (let slot = 0; slot < valueBasis.length; slot++)
+      center[k]! += knotWeight[k * basisCount + valueBasis[slot]!]! * valueAtZero[slot]!
   }
   // Columns each knot reads (non-zero weights), flattened and padded to whole passes of four with the
   // zero row (column basisCount, weight 0): knot k's are columns[columnStart[k] … columnStart[k + 1]).
@@ -73,7 +74,7 @@ export function planTriggers(
     firstYear: baseline,
     yearCount: last - baseline + 1,
     knotYears,
-    knotIsOutput: Uint8Array.from(knotYears, (year) => (input.years.includes(year) ? 1 : 0)),
+    knotIsOutput: Uint8Array.from(knotYears, year => (input.years.includes(year) ? 1 : 0)),
     knotWeight,
     knotColumns: Int32Array.from(columns),
     knotColumnWeight: Float64Array.from(columnWeights),

@@ -5,7 +5,8 @@
 export const COMPONENT_KIND_PIECEWISE = 0
 export const COMPONENT_KIND_LOGNORMAL = 1
 export const COMPONENT_KIND_DRAWS = 2
-export type ComponentKind = typeof COMPONENT_KIND_PIECEWISE | typeof COMPONENT_KIND_LOGNORMAL | typeof COMPONENT_KIND_DRAWS
+export type ComponentKind
+  = typeof COMPONENT_KIND_PIECEWISE | typeof COMPONENT_KIND_LOGNORMAL | typeof COMPONENT_KIND_DRAWS
 
 export const LAND_MOTION_KEY = 'land-motion'
 
@@ -164,7 +165,9 @@ export interface OutlookPlan {
     location: number
     scale: number
     returnPeriods: number[]
-    /** Heights whose annual chance of being exceeded is summed per year: today's T-year levels, then the flood levels. */
+    /**
+     * Heights whose annual chance of being exceeded is summed per year: today's T-year levels, then the flood levels.
+     */
     levels: number[]
     /** Per year and level: e^{(center − (level − μ))/λ}, or 0 where the loop uses the direct form (`annualFactor`). */
     levelFactor: Float64Array
@@ -235,11 +238,17 @@ export interface SumLayout {
    * level less `gumbel.levelReference`'s (about a reference, so a rise without spread gives exactly zero spread).
    */
   annualChance: number
-  /** Per threshold with a design life: Σd and Σd², d its chance of no exceedance during the life less `lifeReference`. */
+  /**
+   * Per threshold with a design life: Σd and Σd², d its chance of no exceedance during the life less `lifeReference`.
+   */
   lifeNoExceedance: number
-  /** Per year: Σd and Σd², d = exp((rise − center)/λ) − 1 (capped where unsettled, as `gumbelExp`): the allowance's SE. */
+  /**
+   * Per year: Σd and Σd², d = exp((rise − center)/λ) − 1 (capped where unsettled, as `gumbelExp`): the allowance's SE.
+   */
   gumbelGrowth: number
-  /** With parameter uncertainty, per year and Gumbel level: Σ e^{(rise − (level − μ_s))/λ_s}, the expected exceedances. */
+  /**
+   * With parameter uncertainty, per year and Gumbel level: Σ e^{(rise − (level − μ_s))/λ_s}, the expected exceedances.
+   */
   expectedCount: number
   /** With parameter uncertainty, per life span and grid height: Σ of each sample's chance of no exceedance. */
   lifeGrid: number
@@ -316,7 +325,9 @@ export interface YearGumbel {
   settled: boolean
   /** Why not settled (absent when settled). */
   unsettledReason?: 'heavy-tail'
-  /** Monte Carlo standard error of `allowance` (delta method: λ·se(mean g)/mean g, g = exp(rise/λ)); 0 with no spread. */
+  /**
+   * Monte Carlo standard error of `allowance` (delta method: λ·se(mean g)/mean g, g = exp(rise/λ)); 0 with no spread.
+   */
   allowanceSe: number
   /** Monte Carlo standard error of `amplification`. */
   amplificationSe: number
@@ -335,9 +346,14 @@ export interface YearGumbel {
 export interface FloodLevelOutlook {
   /** Per output year: chance that year's annual maximum exceeds the height, mean over samples of 1 − F(h − rise). */
   annualChance: Estimate[]
-  /** Per output year: expected number of exceedances a year, e^{−(h−μ)/λ} · mean e^{rise/λ} (the Gumbel's Poisson rate). */
+  /**
+   * Per output year: expected number of exceedances a year, e^{−(h−μ)/λ} · mean e^{rise/λ} (the Gumbel's Poisson rate).
+   */
   expectedPerYear: number[]
-  /** Per output year: false where `expectedPerYear` uses the capped rise of an unsettled year (see `YearGumbel.settled`). */
+  /**
+   * Per output year: false where `expectedPerYear` uses the capped rise of an unsettled year (see
+   * `YearGumbel.settled`).
+   */
   expectedPerYearSettled: boolean[]
   /** Per output year: 1 / annualChance, years; null where the chance is 0. */
   returnPeriodYears: Array<number | null>
@@ -350,21 +366,33 @@ export interface ThresholdOutlook {
   kind: ThresholdKind
   designLifeYears: number | null
   lifeStartYear: number | null
-  /** mean-sea-level only: P(rise > height) per output year. Empty for a flood level: it is never worded from the mean-sea-level chance. */
+  /**
+   * mean-sea-level only: P(rise > height) per output year. Empty for a flood level: it is never worded from the
+   * mean-sea-level chance.
+   */
   byYear: Estimate[]
-  /** mean-sea-level only: first calendar year whose P reaches each tolerance (null = not within the horizon); empty for a flood level. */
+  /**
+   * mean-sea-level only: first calendar year whose P reaches each tolerance (null = not within the horizon); empty for
+   * a flood level.
+   */
   triggerYears: Array<{
     tolerance: number
     year: number | null
-    /** The year rests on the rise's level 1 − tolerance beyond a release's published levels (see `Estimate.extrapolated`). */
+    /**
+     * The year rests on the rise's level 1 − tolerance beyond a release's published levels (see
+     * `Estimate.extrapolated`).
+     */
     extrapolated?: boolean
   }>
   /** flood-level only (null otherwise). */
   flood: FloodLevelOutlook | null
   /** flood-level with a life: chance of at least one exceedance during years lifeStartYear … lifeStartYear+L−1. */
   lifeExceedance: Estimate | null
-  /** flood-level with a life: the height (same reference as `height`) with `chance` of at least one exceedance during the life (design-life level, Rootzén & Katz 2013, Water Resources Research). */
-  designLifeLevel: { chance: number; level: number } | null
+  /**
+   * flood-level with a life: the height (same reference as `height`) with `chance` of at least one exceedance during
+   * the life (design-life level, Rootzén & Katz 2013, Water Resources Research).
+   */
+  designLifeLevel: { chance: number, level: number } | null
 }
 
 export interface OutlookResult {
@@ -381,5 +409,5 @@ export interface OutlookResult {
   byYear: YearOutlook[]
   thresholds: ThresholdOutlook[]
   tolerances: number[]
-  gumbel: { location: number; scale: number } | null
+  gumbel: { location: number, scale: number } | null
 }

@@ -14,7 +14,7 @@ export interface ValidatedOutlookInput extends Omit<ParsedOutlookInput, 'heights
 const HEIGHT_DECIMALS = 1e9
 
 /** Grid heights from a range; rounded so 0.05·3 reads 0.15, not 0.15000000000000002. */
-export function expandHeightRange(range: { from: number; to: number; step: number }): number[] {
+export function expandHeightRange(range: { from: number, to: number, step: number }): number[] {
   const count = Math.floor((range.to - range.from) / range.step + 1e-9) + 1
   const heights: number[] = []
   for (let i = 0; i < count && i <= MAX_HEIGHTS; i++) {
@@ -63,20 +63,28 @@ function thresholdIssues(input: ParsedOutlookInput): EngineInputIssue[] {
     if (threshold.kind === 'flood-level' && !input.gumbel) {
       issues.push({
         path: `${path}.kind`,
-        message: "a flood level compares the total water level (annual maximum plus rise) with the height, so it needs the site's extreme-water statistics (gumbel location and scale); add them or make it a mean-sea-level threshold",
+        message:
+          'a flood level compares the total water level (annual maximum plus rise) with the height, so it needs the site\'s extreme-water statistics (gumbel location and scale); add them or make it a mean-sea-level threshold',
       })
     }
     if (life !== undefined && threshold.kind === 'mean-sea-level') {
       issues.push({
         path: `${path}.designLifeYears`,
-        message: 'a design life counts floods over an asset\'s life, which a mean-sea-level threshold does not have; make it a flood level (kind "flood-level") or remove the design life',
+        message:
+          'a design life counts floods over an asset\'s life, which a mean-sea-level threshold does not have; make it a flood level (kind "flood-level") or remove the design life',
       })
     }
     if (life !== undefined && start === undefined) {
-      issues.push({ path: `${path}.lifeStartYear`, message: 'is needed with designLifeYears: give the first year of the asset\'s life (its build year)' })
+      issues.push({
+        path: `${path}.lifeStartYear`,
+        message: 'is needed with designLifeYears: give the first year of the asset\'s life (its build year)',
+      })
     }
     if (start !== undefined && life === undefined) {
-      issues.push({ path: `${path}.designLifeYears`, message: 'is needed with lifeStartYear: give the asset\'s design life in years, or remove lifeStartYear' })
+      issues.push({
+        path: `${path}.designLifeYears`,
+        message: 'is needed with lifeStartYear: give the asset\'s design life in years, or remove lifeStartYear',
+      })
     }
     if (start !== undefined && start < input.baselineYear) {
       issues.push({
@@ -102,7 +110,7 @@ export function validateOutlookInput(raw: unknown): ValidatedOutlookInput {
   const parsed = outlookInputSchema.safeParse(raw)
   if (!parsed.success) {
     throw new EngineInputError(
-      parsed.error.issues.map((issue) => ({ path: formatPath(issue.path), message: issue.message })),
+      parsed.error.issues.map(issue => ({ path: formatPath(issue.path), message: issue.message })),
     )
   }
   const input = parsed.data
@@ -120,9 +128,11 @@ export function validateOutlookInput(raw: unknown): ValidatedOutlookInput {
   if (Array.isArray(input.heights)) {
     heights = input.heights
     checkStrictlyIncreasing(heights, 'heights', 'heights', issues)
-  } else {
+  }
+  else {
     const range = input.heights
-    if (range.to < range.from) issues.push({ path: 'heights.to', message: `must be at least heights.from (${range.from})` })
+    if (range.to < range.from)
+      issues.push({ path: 'heights.to', message: `must be at least heights.from (${range.from})` })
     heights = expandHeightRange(range)
   }
   if (heights.length > MAX_HEIGHTS) {
@@ -133,9 +143,16 @@ export function validateOutlookInput(raw: unknown): ValidatedOutlookInput {
   input.components.forEach((component, c) => {
     const label = `component ${c} (${component.key})`
     if (component.key === LAND_MOTION_KEY) {
-      issues.push({ path: `components[${c}].key`, message: `"${LAND_MOTION_KEY}" is reserved for the site's land motion` })
-    } else if (seen.has(component.key)) {
-      issues.push({ path: `components[${c}].key`, message: `duplicate component key "${component.key}"; each component appears once` })
+      issues.push({
+        path: `components[${c}].key`,
+        message: `"${LAND_MOTION_KEY}" is reserved for the site's land motion`,
+      })
+    }
+    else if (seen.has(component.key)) {
+      issues.push({
+        path: `components[${c}].key`,
+        message: `duplicate component key "${component.key}"; each component appears once`,
+      })
     }
     seen.add(component.key)
     checkRelease(component.release, `components[${c}].release`, label, input, issues)
@@ -153,7 +170,8 @@ export function validateOutlookInput(raw: unknown): ValidatedOutlookInput {
           path: 'correlation',
           message: `not positive semi-definite (no set of scores can have these correlations; the check fails at row ${result.failsAtRow}, ${key}); weaken the conflicting correlations`,
         })
-      } else {
+      }
+      else {
         choleskyFactor = result.factor
       }
     }

@@ -36,7 +36,10 @@ export function outlookCsv(meta: OutlookCsvMeta, result: OutlookResult): string 
     ['datum kind', meta.datum.kind],
     ['mean sea level at the reference epoch above the datum (m)', millimetres(offset)],
     ['reference epoch', meta.datum.referenceEpoch],
-    ['rise', 'metres above mean sea level at the reference epoch; add the datum offset above for heights above the datum'],
+    [
+      'rise',
+      'metres above mean sea level at the reference epoch; add the datum offset above for heights above the datum',
+    ],
     ['samples', meta.samples],
     ['seed', meta.seed],
     ['engine version', meta.engineVersion],
@@ -46,17 +49,35 @@ export function outlookCsv(meta: OutlookCsvMeta, result: OutlookResult): string 
     [],
     ['year', 'mean (m)', ...result.percentileLevels.map(level => `p${Math.round(level * 100)} (m)`)],
     ...result.byYear.map(y => [
-      y.year, millimetres(y.mean.value),
-      ...result.percentileLevels.map(level => millimetres(y.percentiles.find(p => Math.abs(p.level - level) < 1e-9)!.value)),
+      y.year,
+      millimetres(y.mean.value),
+      ...result.percentileLevels.map(level =>
+        millimetres(y.percentiles.find(p => Math.abs(p.level - level) < 1e-9)!.value),
+      ),
     ]),
     [],
     ['threshold', 'kind', 'height above the datum (m)', 'year', 'chance (0-1)', 'standard error', 'measure'],
-    ...result.thresholds.flatMap(t => result.years.flatMap((year, i) => {
-      const estimate = t.kind === 'flood-level' ? t.flood?.annualChance[i] : t.byYear[i]
-      if (!estimate) return []
-      const measure = t.kind === 'flood-level' ? 'chance the annual maximum water level reaches the height that year' : 'chance mean sea level is above the height'
-      return [[meta.labels[t.key] ?? t.key, t.kind, millimetres(t.height + offset), year, proportion(estimate.value), proportion(estimate.se), measure]]
-    })),
+    ...result.thresholds.flatMap(t =>
+      result.years.flatMap((year, i) => {
+        const estimate = t.kind === 'flood-level' ? t.flood?.annualChance[i] : t.byYear[i]
+        if (!estimate) return []
+        const measure
+          = t.kind === 'flood-level'
+            ? 'chance the annual maximum water level reaches the height that year'
+            : 'chance mean sea level is above the height'
+        return [
+          [
+            meta.labels[t.key] ?? t.key,
+            t.kind,
+            millimetres(t.height + offset),
+            year,
+            proportion(estimate.value),
+            proportion(estimate.se),
+            measure,
+          ],
+        ]
+      }),
+    ),
   ]
   return toCsv(rows)
 }

@@ -18,7 +18,13 @@ export interface GeoOutlook {
   id: string
   inputHash: string
   finishedAt: Date | null
-  headline: { thresholdLabel: string, height: number, year: number, probability: number, triggerYears?: Array<{ tolerance: number, year: number | null }> } | null
+  headline: {
+    thresholdLabel: string
+    height: number
+    year: number
+    probability: number
+    triggerYears?: Array<{ tolerance: number, year: number | null }>
+  } | null
 }
 
 /** RFC 7946 §11.2: six decimals (about 10 cm) are more than enough. */
@@ -44,7 +50,10 @@ export function sitesGeoJson(rows: { site: GeoSite, outlook: GeoOutlook | null }
           headlineHeightAboveDatumM: headline ? Math.round(headline.height * 1000) / 1000 : null,
           headlineYear: headline?.year ?? null,
           headlineChance: headline ? Math.round(headline.probability * 1e4) / 1e4 : null,
-          /** The first year the headline threshold's chance reaches the planning tolerance (null: not by the last year, or not stored). */
+          /**
+           * The first year the headline threshold's chance reaches the planning tolerance (null: not by the last year,
+           * or not stored).
+           */
           triggerYearAtTolerance: trigger?.year ?? null,
           outlookId: outlook?.id ?? null,
           inputHash: outlook?.inputHash ?? null,

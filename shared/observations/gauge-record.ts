@@ -34,7 +34,8 @@ function unitAdvice(heights: number[]): string {
   const sizes = heights.map(Math.abs).sort((a, b) => a - b)
   const typical = sizes[Math.floor(sizes.length / 2)] ?? 0
   if (typical > 2000) return 'these look like millimetres: divide by 1000.'
-  if (typical > 200) return 'these look like millimetres or centimetres: divide by 1000 if millimetres, by 100 if centimetres.'
+  if (typical > 200)
+    return 'these look like millimetres or centimetres: divide by 1000 if millimetres, by 100 if centimetres.'
   if (typical > 20) return 'these look like centimetres: divide by 100.'
   return 'enter the mean sea level in metres above the site\'s datum, and check this value for a typing error.'
 }
@@ -44,14 +45,19 @@ function readHeader(header: string[]): { resolution: GaugeResolution, hasFlag: b
   const expected = [['year', 'height'], ['year', 'month', 'height']]
   for (const columns of expected) {
     const same = columns.every((name, i) => names[i] === name)
-    if (same && (names.length === columns.length || (names.length === columns.length + 1 && names[columns.length] === 'flag'))) {
+    if (
+      same
+      && (names.length === columns.length || (names.length === columns.length + 1 && names[columns.length] === 'flag'))
+    ) {
       return { resolution: columns.length === 2 ? 'annual' : 'monthly', hasFlag: names.length > columns.length }
     }
   }
-  throw new CsvError([{
-    field: 'csv header',
-    message: `The header must be "year,height" (annual means) or "year,month,height" (monthly means), optionally followed by ",flag"; got "${header.join(',')}".`,
-  }])
+  throw new CsvError([
+    {
+      field: 'csv header',
+      message: `The header must be "year,height" (annual means) or "year,month,height" (monthly means), optionally followed by ",flag"; got "${header.join(',')}".`,
+    },
+  ])
 }
 
 function label(value: { year: number, month: number | null }): string {
@@ -69,8 +75,14 @@ function findGaps(values: GaugeValue[]): GaugeRecord['gaps'] {
     if (missing < 1) continue
     const before = values[i - 1]!
     const after = values[i]!
-    const first = before.month === null ? { year: before.year + 1, month: null } : { year: before.year + Math.floor(before.month / 12), month: (before.month % 12) + 1 }
-    const last = after.month === null ? { year: after.year - 1, month: null } : { year: after.month === 1 ? after.year - 1 : after.year, month: after.month === 1 ? 12 : after.month - 1 }
+    const first
+      = before.month === null
+        ? { year: before.year + 1, month: null }
+        : { year: before.year + Math.floor(before.month / 12), month: (before.month % 12) + 1 }
+    const last
+      = after.month === null
+        ? { year: after.year - 1, month: null }
+        : { year: after.month === 1 ? after.year - 1 : after.year, month: after.month === 1 ? 12 : after.month - 1 }
     gaps.push({ from: label(first), to: label(last), missing })
   }
   return gaps
@@ -82,7 +94,9 @@ export function parseGaugeRecordCsv(text: string): GaugeRecord {
   const columns = header!.map(cell => cell.toLowerCase())
   const issues: CsvIssue[] = []
   if (rows.length > MAX_GAUGE_VALUES) {
-    throw new CsvError([{ field: 'csv', message: `At most ${MAX_GAUGE_VALUES} values (300 years of monthly means), got ${rows.length}.` }])
+    throw new CsvError([
+      { field: 'csv', message: `At most ${MAX_GAUGE_VALUES} values (300 years of monthly means), got ${rows.length}.` },
+    ])
   }
   const values: GaugeValue[] = []
   rows.forEach((row, r) => {
@@ -98,13 +112,22 @@ export function parseGaugeRecordCsv(text: string): GaugeRecord {
     // Flags are text a person typed: the same rule as every text field (no control characters).
     const flag = hasFlag ? withoutControls(row[columns.length - 1] ?? '').slice(0, 40) || null : null
     if (!/^\d{4}$/.test(row[0]!) || year < FIRST_YEAR || year > LAST_YEAR) {
-      issues.push({ field: `${at}, column year`, message: `"${row[0]}" is not a year between ${FIRST_YEAR} and ${LAST_YEAR}; enter the whole year, like 1998.` })
+      issues.push({
+        field: `${at}, column year`,
+        message: `"${row[0]}" is not a year between ${FIRST_YEAR} and ${LAST_YEAR}; enter the whole year, like 1998.`,
+      })
     }
     if (month !== null && !(Number.isInteger(month) && month >= 1 && month <= 12)) {
       issues.push({ field: `${at}, column month`, message: `"${row[1]}" is not a month; enter 1 to 12.` })
     }
     if (!Number.isFinite(height)) {
-      issues.push({ field: `${at}, column height`, message: heightCell === '' ? 'Is empty; leave the row out for a missing value, or enter the height in metres.' : `"${heightCell.slice(0, 40)}" is not a number.` })
+      issues.push({
+        field: `${at}, column height`,
+        message:
+          heightCell === ''
+            ? 'Is empty; leave the row out for a missing value, or enter the height in metres.'
+            : `"${heightCell.slice(0, 40)}" is not a number.`,
+      })
     }
     values.push({ year, month, height, flag })
   })
@@ -116,12 +139,18 @@ export function parseGaugeRecordCsv(text: string): GaugeRecord {
     const at = `csv row ${r + 2}`
     const previous = seen.get(index(value))
     if (previous !== undefined) {
-      issues.push({ field: `${at}, column year`, message: `${label(value)} is also on row ${previous}; give one value per ${resolution === 'annual' ? 'year' : 'month'}.` })
+      issues.push({
+        field: `${at}, column year`,
+        message: `${label(value)} is also on row ${previous}; give one value per ${resolution === 'annual' ? 'year' : 'month'}.`,
+      })
     }
     seen.set(index(value), r + 2)
     const { min, max } = GAUGE_HEIGHT_BOUNDS
     if (!(value.height >= min && value.height <= max)) {
-      issues.push({ field: `${at}, column height`, message: `${value.height} is outside ${min} to ${max} m above the site's datum; ${advice}` })
+      issues.push({
+        field: `${at}, column height`,
+        message: `${value.height} is outside ${min} to ${max} m above the site's datum; ${advice}`,
+      })
     }
   })
   if (issues.length) throw new CsvError(issues.slice(0, MAX_ISSUES))
@@ -134,5 +163,8 @@ export function parseGaugeRecordCsv(text: string): GaugeRecord {
 export function gaugePoints(record: GaugeRecord): GaugePoint[] {
   return record.values
     .filter(value => value.flag === null)
-    .map(value => ({ time: value.month === null ? value.year + 0.5 : value.year + (value.month - 0.5) / 12, height: value.height }))
+    .map(value => ({
+      time: value.month === null ? value.year + 0.5 : value.year + (value.month - 0.5) / 12,
+      height: value.height,
+    }))
 }

@@ -156,7 +156,9 @@ export function fitGaugeTrend(points: readonly GaugePoint[], resolution: GaugeRe
   const n = sorted.length
   const span = n ? sorted[n - 1]!.time - sorted[0]!.time + interval : 0
   if (span < MIN_GAUGE_RECORD_YEARS) {
-    throw new GaugeFitError(`The record spans ${span.toFixed(1)} years; at least ${MIN_GAUGE_RECORD_YEARS} are needed to tell the 18.6-year nodal cycle from a trend.`)
+    throw new GaugeFitError(
+      `The record spans ${span.toFixed(1)} years; at least ${MIN_GAUGE_RECORD_YEARS} are needed to tell the 18.6-year nodal cycle from a trend.`,
+    )
   }
   const firstTime = sorted[0]!.time
   const lastTime = sorted[n - 1]!.time
@@ -166,11 +168,18 @@ export function fitGaugeTrend(points: readonly GaugePoint[], resolution: GaugeRe
   const steps = sorted.map((point, i) => (i === 0 ? 0 : Math.round((point.time - sorted[i - 1]!.time) / interval)))
   const p = rows[0]!.length
   if (n < p + 10) {
-    throw new GaugeFitError(`The record has ${n} values; at least ${p + 10} are needed for a trend, an acceleration and the cycles.`)
+    throw new GaugeFitError(
+      `The record has ${n} values; at least ${p + 10} are needed for a trend, an acceleration and the cycles.`,
+    )
   }
-  if (steps.some((step, i) => i > 0 && step < 1)) throw new GaugeFitError('Two values share one time; give one value per interval.')
+  if (steps.some((step, i) => i > 0 && step < 1))
+    throw new GaugeFitError('Two values share one time; give one value per interval.')
 
-  const phi = maximise(value => restrictedLogLikelihood(fitForPhi(rows, heights, steps, value), n, p), -PHI_LIMIT, PHI_LIMIT)
+  const phi = maximise(
+    value => restrictedLogLikelihood(fitForPhi(rows, heights, steps, value), n, p),
+    -PHI_LIMIT,
+    PHI_LIMIT,
+  )
   const fit = fitForPhi(rows, heights, steps, phi)
   const variance = fit.rss / (n - p)
   const covariance = invertSymmetric(fit.xtx).map(row => row.map(value => value * variance))

@@ -7,7 +7,8 @@ function cholesky(matrix: readonly (readonly number[])[]): number[][] {
   for (let j = 0; j < size; j++) {
     let diagonal = matrix[j]![j]!
     for (let k = 0; k < j; k++) diagonal -= factor[j]![k]! ** 2
-    if (!(diagonal > 0)) throw new RangeError(`The matrix is not positive definite at column ${j + 1}; the columns are not independent.`)
+    if (!(diagonal > 0))
+      throw new RangeError(`The matrix is not positive definite at column ${j + 1}; the columns are not independent.`)
     const root = Math.sqrt(diagonal)
     factor[j]![j] = root
     for (let i = j + 1; i < size; i++) {
@@ -37,7 +38,10 @@ function solveWithFactor(factor: number[][], rhs: readonly number[]): number[] {
 }
 
 /** Solves A·x = b, and returns ln det A alongside. */
-export function solveSymmetric(matrix: readonly (readonly number[])[], rhs: readonly number[]): { solution: number[], logDet: number } {
+export function solveSymmetric(
+  matrix: readonly (readonly number[])[],
+  rhs: readonly number[],
+): { solution: number[], logDet: number } {
   const factor = cholesky(matrix)
   let logDet = 0
   for (let i = 0; i < factor.length; i++) logDet += 2 * Math.log(factor[i]![i]!)
@@ -47,6 +51,11 @@ export function solveSymmetric(matrix: readonly (readonly number[])[], rhs: read
 export function invertSymmetric(matrix: readonly (readonly number[])[]): number[][] {
   const factor = cholesky(matrix)
   const size = matrix.length
-  const columns = Array.from({ length: size }, (_, j) => solveWithFactor(factor, Array.from({ length: size }, (__, i) => (i === j ? 1 : 0))))
+  const columns = Array.from({ length: size }, (_, j) =>
+    solveWithFactor(
+      factor,
+      Array.from({ length: size }, (__, i) => (i === j ? 1 : 0)),
+    ),
+  )
   return Array.from({ length: size }, (_, i) => columns.map(column => column[i]!))
 }

@@ -34,7 +34,9 @@ export interface Tracking {
 }
 
 function interpolate(fan: readonly FanYear[], epoch: number, time: number): { low: number, high: number } | null {
-  const points = [{ year: epoch, p17: 0, p83: 0 }, ...fan.filter(entry => entry.year > epoch)].sort((a, b) => a.year - b.year)
+  const points = [{ year: epoch, p17: 0, p83: 0 }, ...fan.filter(entry => entry.year > epoch)].sort(
+    (a, b) => a.year - b.year,
+  )
   for (let i = 1; i < points.length; i++) {
     const a = points[i - 1]!
     const b = points[i]!
@@ -52,7 +54,12 @@ function interpolate(fan: readonly FanYear[], epoch: number, time: number): { lo
  * the site's mean sea level at the epoch (its datum offset), shown with the fit's ± only and given the
  * status `epoch-unobserved`. Null when the record ends before the epoch or after the outlook's last year.
  */
-export function trackAgainstOutlook(fit: GaugeTrendFit, epoch: number, datumOffset: number, fan: readonly FanYear[]): Tracking | null {
+export function trackAgainstOutlook(
+  fit: GaugeTrendFit,
+  epoch: number,
+  datumOffset: number,
+  fan: readonly FanYear[],
+): Tracking | null {
   const time = fit.lastTime
   const range = interpolate(fan, epoch, time)
   if (!range || time < epoch) return null
@@ -61,7 +68,8 @@ export function trackAgainstOutlook(fit: GaugeTrendFit, epoch: number, datumOffs
   let observedSe: number
   if (insideRecord) {
     ;({ value: observed, se: observedSe } = fittedChange(fit, epoch, time))
-  } else {
+  }
+  else {
     const level = fittedChange(fit, fit.centreTime, time)
     observed = fit.coefficients[0]! + level.value - datumOffset
     const delta = time - fit.centreTime
@@ -70,7 +78,14 @@ export function trackAgainstOutlook(fit: GaugeTrendFit, epoch: number, datumOffs
     for (let j = 0; j < 3; j++) for (let k = 0; k < 3; k++) variance += g[j]! * g[k]! * fit.covariance[j]![k]!
     observedSe = Math.sqrt(Math.max(variance, 0))
   }
-  const base = { time, observed, observedSe, likelyLow: range.low, likelyHigh: range.high, epochFrom: insideRecord ? 'record' as const : 'datum-offset' as const }
+  const base = {
+    time,
+    observed,
+    observedSe,
+    likelyLow: range.low,
+    likelyHigh: range.high,
+    epochFrom: insideRecord ? ('record' as const) : ('datum-offset' as const),
+  }
   if (time - epoch < MIN_TRACKING_YEARS) return { ...base, status: 'too-soon' }
   if (!insideRecord) return { ...base, status: 'epoch-unobserved' }
   if (observed - CLEAR_Z * observedSe > range.high) return { ...base, status: 'above' }

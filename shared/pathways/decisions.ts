@@ -41,7 +41,12 @@ export function decisionYear(tippingYear: number | null, leadTimeYears: number, 
 }
 
 /** Every step's decision per scenario and tolerance. */
-export function pathwayDecisions(steps: PathwayStepInput[], scenarios: ScenarioTipping[], tolerances: number[], currentYear: number): StepDecision[] {
+export function pathwayDecisions(
+  steps: PathwayStepInput[],
+  scenarios: ScenarioTipping[],
+  tolerances: number[],
+  currentYear: number,
+): StepDecision[] {
   const out: StepDecision[] = []
   for (let i = 0; i + 1 < steps.length; i++) {
     const from = steps[i]!
@@ -51,9 +56,15 @@ export function pathwayDecisions(steps: PathwayStepInput[], scenarios: ScenarioT
         const tip = scenario.tipping[from.measureId]?.find(t => t.tolerance === tolerance)
         const tippingYear = tip?.year ?? null
         out.push({
-          scenario: scenario.scenario, tolerance, fromMeasureId: from.measureId, toMeasureId: to.measureId,
-          tippingYear, tippingEarliest: tip?.earliest ?? null, tippingLatest: tip?.latest ?? null,
-          leadTimeYears: to.leadTimeYears, horizon: scenario.horizon,
+          scenario: scenario.scenario,
+          tolerance,
+          fromMeasureId: from.measureId,
+          toMeasureId: to.measureId,
+          tippingYear,
+          tippingEarliest: tip?.earliest ?? null,
+          tippingLatest: tip?.latest ?? null,
+          leadTimeYears: to.leadTimeYears,
+          horizon: scenario.horizon,
           ...decisionYear(tippingYear, to.leadTimeYears, currentYear),
         })
       }
@@ -89,7 +100,9 @@ export function decisionSpread(decisions: StepDecision[]): DecisionSpread[] {
       tolerance: group[0]!.tolerance,
       earliest: first ? { year: first.decisionYear!, scenario: first.scenario } : null,
       latest: last ? { year: last.decisionYear!, scenario: last.scenario } : null,
-      notWithinHorizon: group.filter(d => d.decisionYear === null).map(d => ({ scenario: d.scenario, horizon: d.horizon })),
+      notWithinHorizon: group
+        .filter(d => d.decisionYear === null)
+        .map(d => ({ scenario: d.scenario, horizon: d.horizon })),
       alreadyLate: group.some(d => d.alreadyLate),
     }
   })

@@ -17,7 +17,11 @@ export interface MeasureHeight {
 
 export interface MeasureTipping { key: string, tipping: TippingYear[] }
 
-export function evaluateMeasures(outlookInput: Record<string, unknown>, measures: MeasureHeight[], tolerances: number[]): { horizon: number, measures: MeasureTipping[] } {
+export function evaluateMeasures(
+  outlookInput: Record<string, unknown>,
+  measures: MeasureHeight[],
+  tolerances: number[],
+): { horizon: number, measures: MeasureTipping[] } {
   const thresholds = measures.map(m => ({ key: m.key, height: m.height, kind: m.kind }))
   // The stored input's `datum` is provenance only; the engine ignores it.
   const plan = planOutlook({ ...outlookInput, thresholds, tolerances })
@@ -31,7 +35,10 @@ export function evaluateMeasures(outlookInput: Record<string, unknown>, measures
       return { key: threshold.key, tipping: tolerances.map(tol => tippingFromOutputYears(result.years, chances, tol)) }
     }
     const counts = annualCounts(plan, merged.triggerCounts, counted++, t => Math.round(threshold.byYear[t]!.value * n))
-    return { key: threshold.key, tipping: tolerances.map(tol => tippingFromCounts(counts, plan.trigger!.firstYear, n, tol)) }
+    return {
+      key: threshold.key,
+      tipping: tolerances.map(tol => tippingFromCounts(counts, plan.trigger!.firstYear, n, tol)),
+    }
   })
   return { horizon: result.years.at(-1)!, measures: out }
 }

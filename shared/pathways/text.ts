@@ -46,7 +46,8 @@ function pathwayText(language: Language): PathwayText {
     illustrative: say('illustrative'),
     intro: say('intro'),
     tolerance: percent => t('pathwaysDocument.tolerance', { percent }),
-    spreadBetween: (measure, from, fromScenario, to, toScenario) => t('pathwaysDocument.spreadBetween', { measure, from, fromScenario, to, toScenario }),
+    spreadBetween: (measure, from, fromScenario, to, toScenario) =>
+      t('pathwaysDocument.spreadBetween', { measure, from, fromScenario, to, toScenario }),
     spreadSingle: (measure, year, scenario) => t('pathwaysDocument.spreadSingle', { measure, year, scenario }),
     spreadNone: measure => t('pathwaysDocument.spreadNone', { measure }),
     notWithin: (scenarios, horizon) => t('pathwaysDocument.notWithin', { scenarios, horizon }),
@@ -72,4 +73,7 @@ function pathwayText(language: Language): PathwayText {
   }
 }
 
-export const PATHWAY_TEXT = Object.fromEntries(LANGUAGES.map(entry => [entry.code, pathwayText(entry.code)])) as Record<Language, PathwayText>
+export const PATHWAY_TEXT = Object.fromEntries(LANGUAGES.map(entry => [entry.code, pathwayText(entry.code)])) as Record<
+  Language,
+  PathwayText
+>

@@ -3,7 +3,10 @@
 // engine's trigger counts, shared/engine/tile-triggers.ts); a flood level's annual chance is known at
 // output years only and is interpolated between them.
 
-/** Two-sided 95 % normal score: the Monte Carlo interval of a tipping year is where the chance is within ±1.96 SE of the tolerance. */
+/**
+ * Two-sided 95 % normal score: the Monte Carlo interval of a tipping year is where the chance is within ±1.96 SE of the
+ * tolerance.
+ */
 export const INTERVAL_Z = 1.959963984540054
 
 export interface TippingYear {
@@ -22,7 +25,12 @@ export interface TippingYear {
 }
 
 /** From per-year exceedance counts over n trajectories, year index 0 = firstYear. */
-export function tippingFromCounts(counts: ArrayLike<number>, firstYear: number, n: number, tolerance: number): TippingYear {
+export function tippingFromCounts(
+  counts: ArrayLike<number>,
+  firstYear: number,
+  n: number,
+  tolerance: number,
+): TippingYear {
   let year: number | null = null
   let earliest: number | null = null
   let latest: number | null = null
@@ -43,7 +51,11 @@ export function tippingFromCounts(counts: ArrayLike<number>, firstYear: number, 
  * From chances known at output years (a flood level's annual chance): the crossing year between the
  * two output years that bracket the tolerance, rounded up to a whole year, linear in the chance.
  */
-export function tippingFromOutputYears(years: number[], chances: Array<{ value: number, se: number }>, tolerance: number): TippingYear {
+export function tippingFromOutputYears(
+  years: number[],
+  chances: Array<{ value: number, se: number }>,
+  tolerance: number,
+): TippingYear {
   const crossing = (value: (i: number) => number) => {
     for (let i = 0; i < years.length; i++) {
       const v = value(i)

@@ -46,13 +46,20 @@ function rowIssues(rows: number[][]): CsvIssue[] {
   rows.forEach(([year, value], r) => {
     const row = `csv row ${r + 2}`
     if (!Number.isInteger(year) || year! < FIRST_YEAR || year! > LAST_YEAR) {
-      issues.push({ field: `${row}, column year`, message: `"${year}" is not a year between ${FIRST_YEAR} and ${LAST_YEAR}; enter the whole year, like 1998.` })
-    } else if (seen.has(year!)) {
+      issues.push({
+        field: `${row}, column year`,
+        message: `"${year}" is not a year between ${FIRST_YEAR} and ${LAST_YEAR}; enter the whole year, like 1998.`,
+      })
+    }
+    else if (seen.has(year!)) {
       issues.push({ field: `${row}, column year`, message: `${year} appears twice; give one maximum per year.` })
     }
     seen.add(year!)
     if (!(value! >= min && value! <= max)) {
-      issues.push({ field: `${row}, column value`, message: `${value} is outside ${min} to ${max} m above the site's datum; ${advice}` })
+      issues.push({
+        field: `${row}, column value`,
+        message: `${value} is outside ${min} to ${max} m above the site's datum; ${advice}`,
+      })
     }
   })
   return issues
@@ -65,7 +72,9 @@ function rowIssues(rows: number[][]): CsvIssue[] {
 export function fitAnnualMaximaCsv(text: string, referenceEpoch: number): AnnualMaximaFit {
   const { header, rows } = parseNumberGrid(text)
   if (header.length !== 2 || header[0]!.toLowerCase() !== 'year' || header[1]!.toLowerCase() !== 'value') {
-    throw new CsvError([{ field: 'csv header', message: `The header must be "year,value", got "${header.join(',')}".` }])
+    throw new CsvError([
+      { field: 'csv header', message: `The header must be "year,value", got "${header.join(',')}".` },
+    ])
   }
   const issues = rowIssues(rows).slice(0, MAX_ROW_ISSUES)
   if (rows.length < MIN_ANNUAL_MAXIMA_YEARS) {
@@ -79,22 +88,39 @@ export function fitAnnualMaximaCsv(text: string, referenceEpoch: number): Annual
   const maxima = rows.map(([year, value]) => ({ year: year!, value: value! })).sort((a, b) => a.year - b.year)
   const firstYear = maxima[0]!.year
   const lastYear = maxima[maxima.length - 1]!.year
-  if (!Number.isFinite(referenceEpoch) || referenceEpoch < firstYear - MAX_EPOCH_DISTANCE_YEARS || referenceEpoch > lastYear + MAX_EPOCH_DISTANCE_YEARS) {
-    throw new CsvError([{
-      field: 'reference epoch',
-      message: `The site's reference epoch (${referenceEpoch}) must be within ${MAX_EPOCH_DISTANCE_YEARS} years of the record (${firstYear}–${lastYear}); a trend carried further than that is not a fit to plan with. Check the site's reference epoch and the years in the file.`,
-    }])
+  if (
+    !Number.isFinite(referenceEpoch)
+    || referenceEpoch < firstYear - MAX_EPOCH_DISTANCE_YEARS
+    || referenceEpoch > lastYear + MAX_EPOCH_DISTANCE_YEARS
+  ) {
+    throw new CsvError([
+      {
+        field: 'reference epoch',
+        message: `The site's reference epoch (${referenceEpoch}) must be within ${MAX_EPOCH_DISTANCE_YEARS} years of the record (${firstYear}–${lastYear}); a trend carried further than that is not a fit to plan with. Check the site's reference epoch and the years in the file.`,
+      },
+    ])
   }
 
   let fit: TrendGumbelFit
   try {
     fit = fitGumbelWithTrend(maxima, referenceEpoch)
-  } catch (error) {
+  }
+  catch (error) {
     if (!(error instanceof EngineInputError)) throw error
     throw new CsvError(error.issues.map(issue => ({ field: 'csv', message: `No Gumbel fit: ${issue.message}.` })))
   }
-  if (!(fit.scale > 0) || !Number.isFinite(fit.scale) || !Number.isFinite(fit.location) || !Number.isFinite(fit.trendPerYear)) {
-    throw new CsvError([{ field: 'csv', message: `No Gumbel fit: the fitted scale came out as ${fit.scale} m; check the values for a unit mix-up or an outlier.` }])
+  if (
+    !(fit.scale > 0)
+    || !Number.isFinite(fit.scale)
+    || !Number.isFinite(fit.location)
+    || !Number.isFinite(fit.trendPerYear)
+  ) {
+    throw new CsvError([
+      {
+        field: 'csv',
+        message: `No Gumbel fit: the fitted scale came out as ${fit.scale} m; check the values for a unit mix-up or an outlier.`,
+      },
+    ])
   }
   return { maxima, fit, sampleSize: maxima.length }
 }

@@ -13,7 +13,8 @@ export class ReleaseContentError extends Error {
   }
 }
 
-const convert = (values: number[] | undefined, unit: ReleaseContentInput['unit']) => values?.map(v => amountToMetres(v, unit))
+const convert = (values: number[] | undefined, unit: ReleaseContentInput['unit']) =>
+  values?.map(v => amountToMetres(v, unit))
 
 /**
  * Turns what an analyst entered (numbers in m, mm or Gt, or a CSV table) into a release in metres,
@@ -26,14 +27,25 @@ export function buildRelease(input: ReleaseContentInput): ParsedRelease {
   try {
     if (input.csv !== undefined && form === 'quantiles') ({ anchorYears, levels, values } = parseQuantileCsv(input.csv))
     else if (input.csv !== undefined && form === 'samples') ({ anchorYears, draws } = parseDrawsCsv(input.csv))
-    else if (input.csv !== undefined) throw new ReleaseContentError([{ field: 'csv', message: 'CSV upload is for quantile tables and draws; enter normal and lognormal parameters in the form.' }])
+    else if (input.csv !== undefined)
+      throw new ReleaseContentError([
+        {
+          field: 'csv',
+          message: 'CSV upload is for quantile tables and draws; enter normal and lognormal parameters in the form.',
+        },
+      ])
   }
   catch (error) {
     if (error instanceof CsvError) throw new ReleaseContentError(error.issues)
     throw error
   }
   if (form === 'lognormal' && unit !== 'm') {
-    throw new ReleaseContentError([{ field: 'unit', message: 'Enter lognormal parameters in metres: mu and sigma are on a log scale and do not convert.' }])
+    throw new ReleaseContentError([
+      {
+        field: 'unit',
+        message: 'Enter lognormal parameters in metres: mu and sigma are on a log scale and do not convert.',
+      },
+    ])
   }
 
   const candidate = {
@@ -54,7 +66,9 @@ export function buildRelease(input: ReleaseContentInput): ParsedRelease {
   }
   catch (error) {
     if (error instanceof EngineInputError) {
-      throw new ReleaseContentError(error.issues.map(issue => ({ field: issue.path || 'release', message: issue.message })))
+      throw new ReleaseContentError(
+        error.issues.map(issue => ({ field: issue.path || 'release', message: issue.message })),
+      )
     }
     throw error
   }

@@ -17,12 +17,21 @@ const MAX_ISSUES = 10
 
 export function readGrid(text: string): string[][] {
   if (new TextEncoder().encode(text).length > CSV_MAX_BYTES) {
-    throw new CsvError([{ field: 'csv', message: `The file is larger than ${CSV_MAX_BYTES / 1024 / 1024} MB. Split it or thin the draws.` }])
+    throw new CsvError([
+      {
+        field: 'csv',
+        message: `The file is larger than ${CSV_MAX_BYTES / 1024 / 1024} MB. Split it or thin the draws.`,
+      },
+    ])
   }
   const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ''), { skipEmptyLines: 'greedy' })
   const fatal = parsed.errors.find(error => error.type === 'Quotes')
-  if (fatal) throw new CsvError([{ field: `csv row ${(fatal.row ?? 0) + 1}`, message: `${fatal.message}. Check the quotes on this row.` }])
-  if (parsed.data.length < 2) throw new CsvError([{ field: 'csv', message: 'Needs a header row and at least one row of values.' }])
+  if (fatal)
+    throw new CsvError([
+      { field: `csv row ${(fatal.row ?? 0) + 1}`, message: `${fatal.message}. Check the quotes on this row.` },
+    ])
+  if (parsed.data.length < 2)
+    throw new CsvError([{ field: 'csv', message: 'Needs a header row and at least one row of values.' }])
   return parsed.data.map(row => row.map(cell => cell.trim()))
 }
 
@@ -30,13 +39,19 @@ function headerYears(cells: string[], field: string): number[] {
   const issues: CsvIssue[] = []
   const years = cells.map((cell, i) => {
     const year = Number(cell)
-    if (!/^\d{4}$/.test(cell)) issues.push({ field, message: `Column ${i + 1} is "${cell}"; every year column must be headed by a four-digit year, like 2100.` })
+    if (!/^\d{4}$/.test(cell))
+      issues.push({
+        field,
+        message: `Column ${i + 1} is "${cell}"; every year column must be headed by a four-digit year, like 2100.`,
+      })
     return year
   })
   for (let i = 1; i < years.length && !issues.length; i++) {
-    if (years[i]! <= years[i - 1]!) issues.push({ field, message: `Years must increase from left to right: ${years[i]} follows ${years[i - 1]}.` })
+    if (years[i]! <= years[i - 1]!)
+      issues.push({ field, message: `Years must increase from left to right: ${years[i]} follows ${years[i - 1]}.` })
   }
-  if (years.length > MAX_ANCHOR_YEARS) issues.push({ field, message: `At most ${MAX_ANCHOR_YEARS} anchor years, got ${years.length}.` })
+  if (years.length > MAX_ANCHOR_YEARS)
+    issues.push({ field, message: `At most ${MAX_ANCHOR_YEARS} anchor years, got ${years.length}.` })
   if (issues.length) throw new CsvError(issues)
   return years
 }
@@ -44,13 +59,19 @@ function headerYears(cells: string[], field: string): number[] {
 /** Numbers of one data row, or issues naming each bad cell. */
 function rowNumbers(row: string[], rowNumber: number, columns: string[], issues: CsvIssue[]): number[] {
   if (row.length !== columns.length) {
-    issues.push({ field: `csv row ${rowNumber}`, message: `Has ${row.length} cells but the header has ${columns.length}.` })
+    issues.push({
+      field: `csv row ${rowNumber}`,
+      message: `Has ${row.length} cells but the header has ${columns.length}.`,
+    })
     return []
   }
   return row.map((cell, c) => {
     const value = cell === '' ? Number.NaN : Number(cell)
     if (!Number.isFinite(value)) {
-      issues.push({ field: `csv row ${rowNumber}, column ${columns[c]}`, message: cell === '' ? 'Is empty; enter a number.' : `"${cell.slice(0, 40)}" is not a finite number.` })
+      issues.push({
+        field: `csv row ${rowNumber}, column ${columns[c]}`,
+        message: cell === '' ? 'Is empty; enter a number.' : `"${cell.slice(0, 40)}" is not a finite number.`,
+      })
     }
     return value
   })
@@ -74,10 +95,18 @@ export interface QuantileTable { anchorYears: number[], levels: number[], values
 export function parseQuantileCsv(text: string): QuantileTable {
   const [header, ...rows] = readGrid(text)
   if (header![0]!.toLowerCase() !== 'level') {
-    throw new CsvError([{ field: 'csv header', message: `The first column must be headed "level" (probability levels), got "${header![0]}".` }])
+    throw new CsvError([
+      {
+        field: 'csv header',
+        message: `The first column must be headed "level" (probability levels), got "${header![0]}".`,
+      },
+    ])
   }
   const anchorYears = headerYears(header!.slice(1), 'csv header')
-  if (rows.length > MAX_QUANTILE_LEVELS) throw new CsvError([{ field: 'csv', message: `At most ${MAX_QUANTILE_LEVELS} probability levels, got ${rows.length}.` }])
+  if (rows.length > MAX_QUANTILE_LEVELS)
+    throw new CsvError([
+      { field: 'csv', message: `At most ${MAX_QUANTILE_LEVELS} probability levels, got ${rows.length}.` },
+    ])
   const issues: CsvIssue[] = []
   const columns = header!
   const table = rows.map((row, r) => rowNumbers(row, r + 2, columns, issues))
@@ -94,11 +123,17 @@ export function parseDrawsCsv(text: string): DrawTable {
   const [header, ...rows] = readGrid(text)
   const anchorYears = headerYears(header!, 'csv header')
   if (rows.length > MAX_UPLOADED_DRAWS) {
-    throw new CsvError([{ field: 'csv', message: `At most ${MAX_UPLOADED_DRAWS.toLocaleString('en')} draws, got ${rows.length.toLocaleString('en')}. Thin the draws evenly.` }])
+    throw new CsvError([
+      {
+        field: 'csv',
+        message: `At most ${MAX_UPLOADED_DRAWS.toLocaleString('en')} draws, got ${rows.length.toLocaleString('en')}. Thin the draws evenly.`,
+      },
+    ])
   }
   const issues: CsvIssue[] = []
   const draws: number[][] = []
-  for (let r = 0; r < rows.length && issues.length < MAX_ISSUES; r++) draws.push(rowNumbers(rows[r]!, r + 2, header!, issues))
+  for (let r = 0; r < rows.length && issues.length < MAX_ISSUES; r++)
+    draws.push(rowNumbers(rows[r]!, r + 2, header!, issues))
   if (issues.length) throw new CsvError(issues.slice(0, MAX_ISSUES))
   return { anchorYears, draws }
 }

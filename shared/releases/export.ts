@@ -20,8 +20,19 @@ export function releaseCsv(distribution: Distribution): string {
     case 'samples':
       return toCsv([years, ...(distribution.draws as number[][])])
     case 'normal':
-      return toCsv([['year', 'mean', 'sd'], ...years.map((year, a) => [year, numbers(distribution.mean)[a]!, numbers(distribution.sd)[a]!])])
+      return toCsv([
+        ['year', 'mean', 'sd'],
+        ...years.map((year, a) => [year, numbers(distribution.mean)[a]!, numbers(distribution.sd)[a]!]),
+      ])
     default:
-      return toCsv([['year', 'shift', 'mu', 'sigma'], ...years.map((year, a) => [year, numbers(distribution.shift)[a]!, numbers(distribution.mu)[a]!, numbers(distribution.sigma)[a]!])])
+      return toCsv([
+        ['year', 'shift', 'mu', 'sigma'],
+        ...years.map((year, a) => [
+          year,
+          numbers(distribution.shift)[a]!,
+          numbers(distribution.mu)[a]!,
+          numbers(distribution.sigma)[a]!,
+        ]),
+      ])
   }
 }

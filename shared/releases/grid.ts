@@ -13,20 +13,31 @@ export interface GridIssue { field: string, message: string }
 
 function increasing(values: number[], field: string, lo: number, hi: number, issues: GridIssue[]) {
   values.forEach((value, i) => {
-    if (value < lo || value > hi) issues.push({ field: `${field}[${i}]`, message: `Must lie between ${lo} and ${hi}, got ${value}.` })
-    else if (i > 0 && !(value > values[i - 1]!)) issues.push({ field: `${field}[${i}]`, message: `Must increase: ${value} follows ${values[i - 1]}.` })
+    if (value < lo || value > hi)
+      issues.push({ field: `${field}[${i}]`, message: `Must lie between ${lo} and ${hi}, got ${value}.` })
+    else if (i > 0 && !(value > values[i - 1]!))
+      issues.push({ field: `${field}[${i}]`, message: `Must increase: ${value} follows ${values[i - 1]}.` })
   })
 }
 
 /** Problems that make a grid unusable (refused). */
 export function gridErrors(grid: ScaleFactorGrid): GridIssue[] {
   const issues: GridIssue[] = []
-  if (grid.latitudes.length < 2 || grid.longitudes.length < 2) issues.push({ field: 'latitudes', message: 'A grid needs at least two latitudes and two longitudes.' })
+  if (grid.latitudes.length < 2 || grid.longitudes.length < 2)
+    issues.push({ field: 'latitudes', message: 'A grid needs at least two latitudes and two longitudes.' })
   increasing(grid.latitudes, 'latitudes', -90, 90, issues)
   increasing(grid.longitudes, 'longitudes', -180, 360, issues)
-  if (grid.factors.length !== grid.latitudes.length) issues.push({ field: 'factors', message: `Needs one row per latitude (${grid.latitudes.length}), got ${grid.factors.length}.` })
+  if (grid.factors.length !== grid.latitudes.length)
+    issues.push({
+      field: 'factors',
+      message: `Needs one row per latitude (${grid.latitudes.length}), got ${grid.factors.length}.`,
+    })
   grid.factors.forEach((row, i) => {
-    if (row.length !== grid.longitudes.length) issues.push({ field: `factors[${i}]`, message: `Needs one value per longitude (${grid.longitudes.length}), got ${row.length}.` })
+    if (row.length !== grid.longitudes.length)
+      issues.push({
+        field: `factors[${i}]`,
+        message: `Needs one value per longitude (${grid.longitudes.length}), got ${row.length}.`,
+      })
   })
   return issues
 }
@@ -45,19 +56,34 @@ export function gridWarnings(grid: ScaleFactorGrid): string[] {
       weights += weight
     }
   })
-  if (outside) warnings.push(`${outside} factor(s) lie outside ${PLAUSIBLE_FACTOR.min}…${PLAUSIBLE_FACTOR.max}, beyond what ice-loss fingerprints usually give. Check the units and sign.`)
+  if (outside)
+    warnings.push(
+      `${outside} factor(s) lie outside ${PLAUSIBLE_FACTOR.min}…${PLAUSIBLE_FACTOR.max}, beyond what ice-loss fingerprints usually give. Check the units and sign.`,
+    )
   const mean = weights ? weighted / weights : 1
-  if (Math.abs(mean - 1) > MEAN_FACTOR_TOLERANCE) warnings.push(`The area-weighted mean factor is ${mean.toFixed(2)}; a global grid should average about 1 over the ocean.`)
+  if (Math.abs(mean - 1) > MEAN_FACTOR_TOLERANCE)
+    warnings.push(
+      `The area-weighted mean factor is ${mean.toFixed(2)}; a global grid should average about 1 over the ocean.`,
+    )
   return warnings
 }
 
 /** A grid from CSV: header `latitude,<lon>,…`, then `<lat>,<factor>,…` per row. */
 export function parseGridCsv(text: string): ScaleFactorGrid {
   const { header, rows } = parseNumberGrid(text)
-  if (header[0]!.toLowerCase() !== 'latitude') throw new CsvError([{ field: 'csv header', message: `The first column must be headed "latitude", got "${header[0]}".` }])
+  if (header[0]!.toLowerCase() !== 'latitude')
+    throw new CsvError([
+      { field: 'csv header', message: `The first column must be headed "latitude", got "${header[0]}".` },
+    ])
   const longitudes = header.slice(1).map((cell, i) => {
     const value = Number(cell)
-    if (cell === '' || !Number.isFinite(value)) throw new CsvError([{ field: 'csv header', message: `Column ${i + 2} is "${cell}"; head each column with its longitude in degrees.` }])
+    if (cell === '' || !Number.isFinite(value))
+      throw new CsvError([
+        {
+          field: 'csv header',
+          message: `Column ${i + 2} is "${cell}"; head each column with its longitude in degrees.`,
+        },
+      ])
     return value
   })
   return { latitudes: rows.map(row => row[0]!), longitudes, factors: rows.map(row => row.slice(1)) }
@@ -80,5 +106,10 @@ export function interpolateFactor(grid: ScaleFactorGrid, latitude: number, longi
   const t = (latitude - grid.latitudes[i]!) / (grid.latitudes[i + 1]! - grid.latitudes[i]!)
   const u = (lon - grid.longitudes[j]!) / (grid.longitudes[j + 1]! - grid.longitudes[j]!)
   const f = grid.factors
-  return (1 - t) * (1 - u) * f[i]![j]! + (1 - t) * u * f[i]![j + 1]! + t * (1 - u) * f[i + 1]![j]! + t * u * f[i + 1]![j + 1]!
+  return (
+    (1 - t) * (1 - u) * f[i]![j]!
+    + (1 - t) * u * f[i]![j + 1]!
+    + t * (1 - u) * f[i + 1]![j]!
+    + t * u * f[i + 1]![j + 1]!
+  )
 }

@@ -11,7 +11,9 @@ type Quantiles = z.output<typeof quantileReleaseSchema>
  * anchor years have columns of their own and draws a table of their own; which of these fields are
  * present follows the form.
  */
-export type ReleaseParameters = Partial<Pick<Normal, 'mean' | 'sd'> & Pick<Lognormal, 'shift' | 'mu' | 'sigma'> & Pick<Quantiles, 'levels' | 'values'>>
+export type ReleaseParameters = Partial<
+  Pick<Normal, 'mean' | 'sd'> & Pick<Lognormal, 'shift' | 'mu' | 'sigma'> & Pick<Quantiles, 'levels' | 'values'>
+>
 
 /** A release split into what `releases.parameters` stores and its draws (samples only, stored apart). */
 export function splitRelease(release: ParsedRelease): { parameters: ReleaseParameters, draws: number[][] | null } {

@@ -7,12 +7,17 @@ export const REVIEW_ACTIONS = ['submit', 'approve', 'return', 'withdraw'] as con
 export type ReviewAction = typeof REVIEW_ACTIONS[number]
 
 /** `coauthorIds`: everyone else who changed the version's content; like its author, none may approve it. */
-export interface ReviewSubject { state: ReviewState, authorId: string, coauthorIds?: readonly string[], version: number }
+export interface ReviewSubject {
+  state: ReviewState
+  authorId: string
+  coauthorIds?: readonly string[]
+  version: number
+}
 export interface ReviewActor { id: string, role: string }
 
-export type ReviewVerdict =
-  | { ok: true, to: ReviewState }
-  | { ok: false, status: 403 | 409, message: string }
+export type ReviewVerdict
+  = | { ok: true, to: ReviewState }
+    | { ok: false, status: 403 | 409, message: string }
 
 const FROM: Record<ReviewAction, { from: ReviewState[], to: ReviewState }> = {
   submit: { from: ['draft'], to: 'in-review' },
@@ -42,14 +47,23 @@ export function judgeReviewAction(action: ReviewAction, subject: ReviewSubject, 
   const rule = FROM[action]
   if (!rule.from.includes(subject.state)) {
     const allowed = rule.from.map(state => STATE_WORDS[state]).join(' or ')
-    return { ok: false, status: 409, message: `Version ${subject.version} is ${STATE_WORDS[subject.state]}; only a version that is ${allowed} can be ${ACTION_WORDS[action]}.` }
+    return {
+      ok: false,
+      status: 409,
+      message: `Version ${subject.version} is ${STATE_WORDS[subject.state]}; only a version that is ${allowed} can be ${ACTION_WORDS[action]}.`,
+    }
   }
   if (action === 'approve' && subject.authorId === actor.id) {
     return { ok: false, status: 403, message: 'You wrote this version; another analyst must review and approve it.' }
   }
   // Two people must have looked at the content: whoever edited a colleague's draft wrote part of it.
   if (action === 'approve' && subject.coauthorIds?.includes(actor.id)) {
-    return { ok: false, status: 403, message: 'You changed this version\'s content, so you are one of its authors; an analyst who did not write it must review and approve it.' }
+    return {
+      ok: false,
+      status: 403,
+      message:
+        'You changed this version\'s content, so you are one of its authors; an analyst who did not write it must review and approve it.',
+    }
   }
   return { ok: true, to: rule.to }
 }
@@ -58,7 +72,11 @@ export function judgeReviewAction(action: ReviewAction, subject: ReviewSubject, 
 export function judgeEdit(subject: ReviewSubject, actor: ReviewActor): ReviewVerdict {
   if (actor.role !== 'analyst') return { ok: false, status: 403, message: 'This needs the analyst role.' }
   if (subject.state !== 'draft') {
-    return { ok: false, status: 409, message: `Version ${subject.version} is ${STATE_WORDS[subject.state]} and can no longer be edited; start a new version instead.` }
+    return {
+      ok: false,
+      status: 409,
+      message: `Version ${subject.version} is ${STATE_WORDS[subject.state]} and can no longer be edited; start a new version instead.`,
+    }
   }
   return { ok: true, to: 'draft' }
 }

@@ -9,7 +9,9 @@ export const InvitationSchema = z.object({
   language: z.enum(['en', 'es'], { error: 'Choose English (en) or Spanish (es).' }).default('en'),
 })
 
-const token = z.string({ error: 'The link has no token.' }).regex(/^[\w-]{20,64}$/, { error: 'This link is not valid: copy the whole link from the e-mail.' })
+const token = z
+  .string({ error: 'The link has no token.' })
+  .regex(/^[\w-]{20,64}$/, { error: 'This link is not valid: copy the whole link from the e-mail.' })
 
 export const AcceptInvitationSchema = z.object({ token, password: passwordField })
 export const ResetRequestSchema = z.object({ email: emailField, language: z.enum(['en', 'es']).default('en') })

@@ -7,13 +7,32 @@ import { scenarioField } from './releases'
 
 const CHOOSE_COMPONENTS = `Choose components from: ${COMPONENTS.join(', ')}.`
 
-export const AdoptionSchema = z.strictObject({
-  scenario: scenarioField,
-  series: z.partialRecord(z.enum(COMPONENTS, { error: CHOOSE_COMPONENTS }), z.uuid({ error: 'Choose a published series from the list.' }), {
-    error: issue => (issue.code as string) === 'unrecognized_keys' ? CHOOSE_COMPONENTS : issue.code === 'invalid_type' ? 'Give the series to adopt per component, as { component: series id }.' : undefined,
-  }).optional(),
-  /** The organisation whose correlation sets to use for this scenario; null for none (independent sources). */
-  correlation: z.uuid({ error: 'Choose a published correlation set from the list, or none.' }).nullable().optional(),
-}, { error: issue => issue.code === 'unrecognized_keys' ? `Send only scenario, series and correlation (not ${issue.keys.join(', ')}).` : undefined })
+export const AdoptionSchema = z.strictObject(
+  {
+    scenario: scenarioField,
+    series: z
+      .partialRecord(
+        z.enum(COMPONENTS, { error: CHOOSE_COMPONENTS }),
+        z.uuid({ error: 'Choose a published series from the list.' }),
+        {
+          error: issue =>
+            (issue.code as string) === 'unrecognized_keys'
+              ? CHOOSE_COMPONENTS
+              : issue.code === 'invalid_type'
+                ? 'Give the series to adopt per component, as { component: series id }.'
+                : undefined,
+        },
+      )
+      .optional(),
+    /** The organisation whose correlation sets to use for this scenario; null for none (independent sources). */
+    correlation: z.uuid({ error: 'Choose a published correlation set from the list, or none.' }).nullable().optional(),
+  },
+  {
+    error: issue =>
+      issue.code === 'unrecognized_keys'
+        ? `Send only scenario, series and correlation (not ${issue.keys.join(', ')}).`
+        : undefined,
+  },
+)
 
 export type AdoptionInput = z.infer<typeof AdoptionSchema>

@@ -4,7 +4,8 @@ import { textField } from './text'
 
 // Issuing a briefing. Free text is stored as typed and always shown escaped.
 
-const plain = (what: string, max: number) => textField({ error: `Enter the ${what}.` }).max(max, { error: `Use at most ${max} characters.` })
+const plain = (what: string, max: number) =>
+  textField({ error: `Enter the ${what}.` }).max(max, { error: `Use at most ${max} characters.` })
 
 /** A briefing that lists a year or a threshold twice repeats its numbers: each is chosen once. */
 const unique = (list: unknown[]) => new Set(list).size === list.length
@@ -15,16 +16,35 @@ const BriefingFields = {
   localContext: plain('local context', 4000).default(''),
   language: z.enum(['en', 'es'], { error: 'Choose English (en) or Spanish (es).' }).default('en'),
   units: z.enum(HEIGHT_UNITS as ['m', 'ft'], { error: 'Choose metres (m) or feet (ft).' }).default('m'),
-  thresholdIds: z.array(z.uuid({ error: 'Choose thresholds of this site.' }), { error: 'Send the thresholds as a list of ids.' }).min(1, { error: 'Choose at least one threshold.' }).max(12)
+  thresholdIds: z
+    .array(z.uuid({ error: 'Choose thresholds of this site.' }), { error: 'Send the thresholds as a list of ids.' })
+    .min(1, { error: 'Choose at least one threshold.' })
+    .max(12)
     .refine(unique, { error: 'Choose each threshold once.' }),
-  years: z.array(z.number({ error: 'Choose whole years from the outlook.' }).int({ error: 'Choose whole years from the outlook.' }), { error: 'Send the years as a list.' }).min(1, { error: 'Choose at least one year.' }).max(8, { error: 'Choose at most 8 years.' })
+  years: z
+    .array(
+      z
+        .number({ error: 'Choose whole years from the outlook.' })
+        .int({ error: 'Choose whole years from the outlook.' }),
+      { error: 'Send the years as a list.' },
+    )
+    .min(1, { error: 'Choose at least one year.' })
+    .max(8, { error: 'Choose at most 8 years.' })
     .refine(unique, { error: 'Choose each year once.' }),
   /** Outlooks of other scenarios at the same site, compared in the table. */
-  comparisonOutlookIds: z.array(z.uuid({ error: 'Choose outlooks of this site to compare.' }), { error: 'Send the outlooks to compare as a list of ids.' }).max(4, { error: 'Compare at most 4 other scenarios.' })
-    .refine(unique, { error: 'Compare each outlook once.' }).default([]),
+  comparisonOutlookIds: z
+    .array(z.uuid({ error: 'Choose outlooks of this site to compare.' }), {
+      error: 'Send the outlooks to compare as a list of ids.',
+    })
+    .max(4, { error: 'Compare at most 4 other scenarios.' })
+    .refine(unique, { error: 'Compare each outlook once.' })
+    .default([]),
 }
 
-export const CreateBriefingSchema = z.object({ outlookId: z.uuid({ error: 'Choose the outlook to issue the briefing from.' }), ...BriefingFields })
+export const CreateBriefingSchema = z.object({
+  outlookId: z.uuid({ error: 'Choose the outlook to issue the briefing from.' }),
+  ...BriefingFields,
+})
 export const UpdateBriefingSchema = z.object(BriefingFields)
 
 export type CreateBriefingInput = z.infer<typeof CreateBriefingSchema>

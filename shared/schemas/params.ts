@@ -12,5 +12,7 @@ export const ShareTokenParams = z.object({ token: z.string().regex(/^[\w-]{20,64
 /** `?limit=`: how many of the newest lines a list shows, from 1 to `max`. */
 export function LimitQuery(max: number, fallback: number) {
   const error = `Use a whole number from 1 to ${max}.`
-  return z.object({ limit: z.coerce.number({ error }).int({ error }).min(1, { error }).max(max, { error }).default(fallback) })
+  return z.object({
+    limit: z.coerce.number({ error }).int({ error }).min(1, { error }).max(max, { error }).default(fallback),
+  })
 }

@@ -18,7 +18,8 @@ const COMMON_PASSWORDS = new Set([
   'dragon123456', 'superman1234', 'qazwsxedcrfv', 'asdfghjkl123', 'zxcvbnm12345', 'brinkwater123', 'brinkwater2026',
 ])
 
-const COMMON_PASSWORD = 'This password is on a list of very common passwords. Choose one that is harder to guess, such as three or four unrelated words.'
+const COMMON_PASSWORD
+  = 'This password is on a list of very common passwords. Choose one that is harder to guess, such as three or four unrelated words.'
 const CONTAINS_ADDRESS = 'Do not use your e-mail address (or its part before the @) in your password.'
 
 /** A new password that contains the address's part before the @ is refused; the API and forms share this. */

@@ -6,7 +6,12 @@ import { releaseSchema, type OutlookInput } from '../engine/schema'
 // of the outlook's own release), each times the site's scale factor, plus the site's mean land motion.
 // Nothing here touches the Monte Carlo, so the chances stay those of the releases alone.
 
-export interface StorylineValues { name: string, baselineYear: number, anchorYears: number[], values: Record<string, number[]> }
+export interface StorylineValues {
+  name: string
+  baselineYear: number
+  anchorYears: number[]
+  values: Record<string, number[]>
+}
 
 export interface StorylineRise {
   year: number
@@ -40,7 +45,9 @@ export interface StorylineBasis {
   components: { key: string, scale: number, middle: number[] }[]
 }
 
-export function storylineBasis(input: Pick<OutlookInput, 'baselineYear' | 'years' | 'components' | 'landMotion'>): StorylineBasis {
+export function storylineBasis(
+  input: Pick<OutlookInput, 'baselineYear' | 'years' | 'components' | 'landMotion'>,
+): StorylineBasis {
   const years = [...input.years]
   return {
     baselineYear: input.baselineYear,

@@ -4,14 +4,14 @@
 
 export type ScienceAction = 'published' | 'withdrawn'
 
-export type RecomputationCause =
-  | { kind: 'release', action: ScienceAction, component: string, version: number, scenario: string }
-  | { kind: 'correlation-set', action: ScienceAction, scenario: string }
-  | { kind: 'scale-factor-grid', action: ScienceAction, component: string, version: number }
-  | { kind: 'site-edited', site: string }
-  | { kind: 'annual-maxima', site: string }
+export type RecomputationCause
+  = | { kind: 'release', action: ScienceAction, component: string, version: number, scenario: string }
+    | { kind: 'correlation-set', action: ScienceAction, scenario: string }
+    | { kind: 'scale-factor-grid', action: ScienceAction, component: string, version: number }
+    | { kind: 'site-edited', site: string }
+    | { kind: 'annual-maxima', site: string }
   /** An operator asked (after an engine upgrade, say); scenario null is every scenario. */
-  | { kind: 'requested', scenario: string | null }
+    | { kind: 'requested', scenario: string | null }
 
 /**
  * What a recomputation row or a queued job holds: a cause, or, for those stored before causes were

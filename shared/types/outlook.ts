@@ -17,7 +17,16 @@ export interface OutlookDatum { name: string, kind: DatumKind, offset: number, r
 export type StoredOutlookInput = OutlookInput & { datum?: OutlookDatum }
 
 /** One release an outlook used, with where its scale factor came from. */
-export interface OutlookReleaseRef { component: string, releaseId: string, seriesId: string, version: number, citation: string, title: string, scale: number, scaleSource: string | null }
+export interface OutlookReleaseRef {
+  component: string
+  releaseId: string
+  seriesId: string
+  version: number
+  citation: string
+  title: string
+  scale: number
+  scaleSource: string | null
+}
 
 /** The first threshold's chance in the headline year, kept small for site lists. */
 export interface OutlookHeadline {
@@ -25,6 +34,9 @@ export interface OutlookHeadline {
   height: number
   year: number
   probability: number
-  /** The first year the chance reaches each tolerance (null: not by the last year); absent on outlooks stored before it was kept. */
+  /**
+   * The first year the chance reaches each tolerance (null: not by the last year); absent on outlooks stored before it
+   * was kept.
+   */
   triggerYears?: Array<{ tolerance: number, year: number | null }>
 }

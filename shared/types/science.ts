@@ -1,6 +1,14 @@
 // The product's vocabulary for published science (see DEVELOPERS.md).
 
-export const COMPONENTS = ['ocean-expansion', 'glaciers', 'greenland', 'antarctica', 'land-water', 'regional-ocean', 'other'] as const
+export const COMPONENTS = [
+  'ocean-expansion',
+  'glaciers',
+  'greenland',
+  'antarctica',
+  'land-water',
+  'regional-ocean',
+  'other',
+] as const
 export type ComponentKey = typeof COMPONENTS[number]
 
 /** IPCC scenario names offered first; analysts may also name a storyline of their own. */

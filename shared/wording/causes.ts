@@ -1,7 +1,14 @@
 import type { RecomputationCause, StoredCause } from '../types/causes'
 import { translator, type Language } from './translate'
 
-const KINDS = new Set<string>(['release', 'correlation-set', 'scale-factor-grid', 'site-edited', 'annual-maxima', 'requested'] satisfies RecomputationCause['kind'][])
+const KINDS = new Set<string>([
+  'release',
+  'correlation-set',
+  'scale-factor-grid',
+  'site-edited',
+  'annual-maxima',
+  'requested',
+] satisfies RecomputationCause['kind'][])
 
 function isCause(cause: StoredCause): cause is RecomputationCause {
   return typeof cause.kind === 'string' && KINDS.has(cause.kind)
@@ -14,11 +21,24 @@ export function causeSentence(cause: StoredCause, language: Language): string {
   const t = translator(language)
   const component = (key: string) => t(`document.components.${key}`)
   switch (cause.kind) {
-    case 'release': return t(`causes.release.${cause.action}`, { component: component(cause.component), version: cause.version, scenario: cause.scenario })
-    case 'correlation-set': return t(`causes.correlationSet.${cause.action}`, { scenario: cause.scenario })
-    case 'scale-factor-grid': return t(`causes.scaleFactorGrid.${cause.action}`, { component: component(cause.component), version: cause.version })
-    case 'site-edited': return t('causes.siteEdited', { site: cause.site })
-    case 'annual-maxima': return t('causes.annualMaxima', { site: cause.site })
-    case 'requested': return cause.scenario ? t('causes.requestedScenario', { scenario: cause.scenario }) : t('causes.requested')
+    case 'release':
+      return t(`causes.release.${cause.action}`, {
+        component: component(cause.component),
+        version: cause.version,
+        scenario: cause.scenario,
+      })
+    case 'correlation-set':
+      return t(`causes.correlationSet.${cause.action}`, { scenario: cause.scenario })
+    case 'scale-factor-grid':
+      return t(`causes.scaleFactorGrid.${cause.action}`, {
+        component: component(cause.component),
+        version: cause.version,
+      })
+    case 'site-edited':
+      return t('causes.siteEdited', { site: cause.site })
+    case 'annual-maxima':
+      return t('causes.annualMaxima', { site: cause.site })
+    case 'requested':
+      return cause.scenario ? t('causes.requestedScenario', { scenario: cause.scenario }) : t('causes.requested')
   }
 }

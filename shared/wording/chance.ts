@@ -7,7 +7,10 @@ import { translator, type Language } from './translate'
 
 export type { Language }
 
-/** The IPCC's calibrated likelihood terms, in the reader's language (chance.likelihood.* in locales/<language>/chance.json). */
+/**
+ * The IPCC's calibrated likelihood terms, in the reader's language (chance.likelihood.* in
+ * locales/<language>/chance.json).
+ */
 export function likelihoodTerm(key: LikelihoodKey, language: Language): string {
   return translator(language)(`chance.likelihood.${key}`)
 }
@@ -24,7 +27,10 @@ export function formatChance(probability: number, language: Language): string {
 /** A chance after Spanish "de": "del 23 %" (de + el), but "de menos del 1 %" where it has no article. */
 export function chanceAfterDe(probability: number): string {
   const chance = formatChance(probability, 'es')
-  return translator('es')(probability < EDGE || probability > 1 - EDGE ? 'chance.afterDe.edge' : 'chance.afterDe.plain', { chance })
+  return translator('es')(
+    probability < EDGE || probability > 1 - EDGE ? 'chance.afterDe.edge' : 'chance.afterDe.plain',
+    { chance },
+  )
 }
 
 const SIMPLE_FRACTIONS: Array<[number, number]> = [[1, 2], [3, 5], [2, 3], [3, 4], [4, 5], [9, 10], [19, 20], [99, 100]]
@@ -35,7 +41,9 @@ export function chanceAsOdds(probability: number, language: Language): string {
   if (probability < EDGE) return t('chance.odds.lessThan')
   if (probability > 1 - EDGE) return t('chance.odds.nearCertain')
   if (probability < 0.5) return t('chance.odds.oneIn', { n: Math.round(1 / probability) })
-  const [k, n] = SIMPLE_FRACTIONS.reduce((best, f) => Math.abs(f[0] / f[1] - probability) < Math.abs(best[0] / best[1] - probability) ? f : best)
+  const [k, n] = SIMPLE_FRACTIONS.reduce((best, f) =>
+    Math.abs(f[0] / f[1] - probability) < Math.abs(best[0] / best[1] - probability) ? f : best,
+  )
   return t('chance.odds.fraction', { k, n })
 }
 
@@ -102,8 +110,10 @@ const percentOf = (probability: number, language: Language) =>
  */
 export function samplingPrecision(estimate: SampledChance, language: Language): string {
   const t = translator(language)
-  if (estimate.upperBound95 !== undefined) return t('chance.precision.below', { bound: percentOf(estimate.upperBound95, language) })
-  if (estimate.lowerBound95 !== undefined) return t('chance.precision.above', { bound: percentOf(estimate.lowerBound95, language) })
+  if (estimate.upperBound95 !== undefined)
+    return t('chance.precision.below', { bound: percentOf(estimate.upperBound95, language) })
+  if (estimate.lowerBound95 !== undefined)
+    return t('chance.precision.above', { bound: percentOf(estimate.lowerBound95, language) })
   return t('chance.precision.se', { se: percentOf(estimate.se, language) })
 }
 
@@ -118,5 +128,9 @@ export function aChance(probability: number): string {
  * after Spanish "de" ("del 23 %"). Each language's words take the one their grammar asks for.
  */
 export function chanceForms(probability: number, language: Language) {
-  return { chance: formatChance(probability, language), aChance: aChance(probability), chanceAfterDe: chanceAfterDe(probability) }
+  return {
+    chance: formatChance(probability, language),
+    aChance: aChance(probability),
+    chanceAfterDe: chanceAfterDe(probability),
+  }
 }

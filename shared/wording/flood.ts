@@ -10,7 +10,8 @@ import { translator, type Language } from './translate'
 export interface FloodWordingContext { datum: string, unit: HeightUnit, language: Language }
 
 const height = (metres: number, context: FloodWordingContext) => formatHeight(metres, context.unit, context.language)
-const number = (value: number, language: Language, digits: number) => value.toLocaleString(language, { maximumSignificantDigits: digits })
+const number = (value: number, language: Language, digits: number) =>
+  value.toLocaleString(language, { maximumSignificantDigits: digits })
 
 /** "about once every 40 years" / "about 3 times a year": how often the water reaches a level. */
 export function howOften(expectedPerYear: number, language: Language): string {
@@ -25,10 +26,16 @@ export function howOften(expectedPerYear: number, language: Language): string {
  * "In 2070 the water is expected to reach 2.30 m above <datum> about once every 4 years: a 22 % chance
  * in any one year."
  */
-export function floodYearSentence(parts: { year: number, height: number, annualChance: number, expectedPerYear: number }, context: FloodWordingContext): string {
+export function floodYearSentence(
+  parts: { year: number, height: number, annualChance: number, expectedPerYear: number },
+  context: FloodWordingContext,
+): string {
   return translator(context.language)('chance.flood.year', {
-    year: parts.year, level: height(parts.height, context), datum: context.datum,
-    often: howOften(parts.expectedPerYear, context.language), ...chanceForms(parts.annualChance, context.language),
+    year: parts.year,
+    level: height(parts.height, context),
+    datum: context.datum,
+    often: howOften(parts.expectedPerYear, context.language),
+    ...chanceForms(parts.annualChance, context.language),
   })
 }
 
@@ -36,16 +43,32 @@ export function floodYearSentence(parts: { year: number, height: number, annualC
  * "Built in 2031 for 50 years (2031–2080): a 97 % chance (very likely) that the water reaches the
  * level at least once in that time."
  */
-export function lifeSentence(parts: { buildYear: number, lifeYears: number, chance: number }, language: Language): string {
+export function lifeSentence(
+  parts: { buildYear: number, lifeYears: number, chance: number },
+  language: Language,
+): string {
   return translator(language)('chance.flood.life', {
-    buildYear: parts.buildYear, lifeYears: parts.lifeYears, end: parts.buildYear + parts.lifeYears - 1,
-    word: likelihoodPhrase(parts.chance, language), ...chanceForms(parts.chance, language),
+    buildYear: parts.buildYear,
+    lifeYears: parts.lifeYears,
+    end: parts.buildYear + parts.lifeYears - 1,
+    word: likelihoodPhrase(parts.chance, language),
+    ...chanceForms(parts.chance, language),
   })
 }
 
-/** "For a 10 % chance of at least one overtopping in that life, the level would have to be 2.95 m above <datum>: its design-life level." */
-export function designLifeLevelSentence(parts: { chance: number, level: number }, context: FloodWordingContext): string {
-  return translator(context.language)('chance.flood.designLife', { level: height(parts.level, context), datum: context.datum, ...chanceForms(parts.chance, context.language) })
+/**
+ * "For a 10 % chance of at least one overtopping in that life, the level would have to be 2.95 m above <datum>: its
+ * design-life level."
+ */
+export function designLifeLevelSentence(
+  parts: { chance: number, level: number },
+  context: FloodWordingContext,
+): string {
+  return translator(context.language)('chance.flood.designLife', {
+    level: height(parts.level, context),
+    datum: context.datum,
+    ...chanceForms(parts.chance, context.language),
+  })
 }
 
 /**
@@ -68,11 +91,24 @@ export function todaysLevelExpected(parts: { today: number, amplification: numbe
  * "Without that raise, today's 100-year level would be reached about once every 5.5 years (18.3 times as
  * many expected floods as today): a 17 % chance in any one year." The chance beside the expected events.
  */
-export function amplificationSentence(parts: { today: number, amplification: number, annualChance: number }, language: Language): string {
-  return translator(language)('chance.flood.amplification', { today: parts.today, often: todaysLevelExpected(parts, language), ...chanceForms(parts.annualChance, language) })
+export function amplificationSentence(
+  parts: { today: number, amplification: number, annualChance: number },
+  language: Language,
+): string {
+  return translator(language)('chance.flood.amplification', {
+    today: parts.today,
+    often: todaysLevelExpected(parts, language),
+    ...chanceForms(parts.annualChance, language),
+  })
 }
 
 /** The return period amplification is worded for: today's 100-year level, or the rarest one computed. */
 export function amplificationReturnPeriod<T extends { today: number }>(periods: T[]): T | undefined {
-  return periods.find(period => period.today === 100) ?? periods.reduce<T | undefined>((rarest, period) => (!rarest || period.today > rarest.today ? period : rarest), undefined)
+  return (
+    periods.find(period => period.today === 100)
+    ?? periods.reduce<T | undefined>(
+      (rarest, period) => (!rarest || period.today > rarest.today ? period : rarest),
+      undefined,
+    )
+  )
 }

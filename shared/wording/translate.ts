@@ -40,12 +40,15 @@ export function formatMessage(message: string, params: WordParams): string {
   const count = typeof params.count === 'number' ? params.count : typeof params.n === 'number' ? params.n : undefined
   const forms = message.split(/\s\|\s/)
   const chosen = forms.length > 1 ? choose(forms, count) : message
-  return chosen.replace(/\{\s*(?:'([^']*)'|(\w+))\s*\}/g, (whole, literal: string | undefined, name: string | undefined) => {
-    if (literal !== undefined) return literal
-    const value = params[name!]
-    if (value === undefined) throw new Error(`The words "${message}" need a value for {${name}}.`)
-    return String(value)
-  })
+  return chosen.replace(
+    /\{\s*(?:'([^']*)'|(\w+))\s*\}/g,
+    (whole, literal: string | undefined, name: string | undefined) => {
+      if (literal !== undefined) return literal
+      const value = params[name!]
+      if (value === undefined) throw new Error(`The words "${message}" need a value for {${name}}.`)
+      return String(value)
+    },
+  )
 }
 
 const translators = new Map<Language, Translate>()
@@ -56,7 +59,8 @@ export function translator(language: Language): Translate {
   if (known) return known
   const find = (key: string) => {
     const found = lookUp(catalogue.get(language), key) ?? lookUp(catalogue.get('en'), key)
-    if (found === undefined || (typeof found === 'object' && !Array.isArray(found))) throw new Error(`No words for "${key}" in locales/${language}.`)
+    if (found === undefined || (typeof found === 'object' && !Array.isArray(found)))
+      throw new Error(`No words for "${key}" in locales/${language}.`)
     return found
   }
   const t = ((key: string, params: WordParams = {}) => {

@@ -8,7 +8,8 @@ let server: RunningServer
 let smtp: TestSmtp
 let admin: ApiClient
 
-const tokenFrom = (text: string, path: string) => new URL(linkIn({ text } as never, `${server.url}${path}?token=`)).searchParams.get('token')!
+const tokenFrom = (text: string, path: string) =>
+  new URL(linkIn({ text } as never, `${server.url}${path}?token=`)).searchParams.get('token')!
 
 beforeAll(async () => {
   smtp = await new TestSmtp().start()
@@ -24,14 +25,24 @@ afterAll(async () => {
 describe('invitations', () => {
   it('an admin invites by e-mail; the link sets a password once and signs the new user in', async () => {
     const council = (await admin.get('/api/organisations')).body.find((o: { kind: string }) => o.kind === 'council')
-    const sent = await admin.post('/api/admin/invitations', { email: 'engineer@skerrow.example', name: 'Bryn Oakes', role: 'planner', organisationId: council.id, language: 'es' })
+    const sent = await admin.post('/api/admin/invitations', {
+      email: 'engineer@skerrow.example',
+      name: 'Bryn Oakes',
+      role: 'planner',
+      organisationId: council.id,
+      language: 'es',
+    })
     expect(sent.status).toBe(202)
     const mail = await smtp.next(isTo('engineer@skerrow.example'))
     expect(mail.subject).toBe('Invitación a Brinkwater de Morwen Tallis')
     const token = tokenFrom(mail.text!, '/account/invitation')
 
     const preview = await new ApiClient(server.url).get(`/api/account/invitation?token=${token}`)
-    expect(preview.body).toMatchObject({ email: 'engineer@skerrow.example', role: 'planner', organisation: council.name })
+    expect(preview.body).toMatchObject({
+      email: 'engineer@skerrow.example',
+      role: 'planner',
+      organisation: council.name,
+    })
 
     const short = await new ApiClient(server.url).post('/api/account/invitation/accept', { token, password: 'short' })
     expect(short.status).toBe(400)
@@ -40,20 +51,41 @@ describe('invitations', () => {
     const invitee = new ApiClient(server.url)
     const accepted = await invitee.post('/api/account/invitation/accept', { token, password: 'a-fine-long-password' })
     expect(accepted.status).toBe(201)
-    expect((await invitee.get('/api/me')).body.user).toMatchObject({ email: 'engineer@skerrow.example', role: 'planner', organisationName: council.name })
+    expect((await invitee.get('/api/me')).body.user).toMatchObject({
+      email: 'engineer@skerrow.example',
+      role: 'planner',
+      organisationName: council.name,
+    })
 
-    const replay = await new ApiClient(server.url).post('/api/account/invitation/accept', { token, password: 'another-long-password' })
+    const replay = await new ApiClient(server.url).post('/api/account/invitation/accept', {
+      token,
+      password: 'another-long-password',
+    })
     expect(replay.status).toBe(404)
     expect(replay.body.message).toMatch(/already been used/)
   })
 
   it('refuses to invite an address that already has an account, and non-admins', async () => {
     const [org] = (await admin.get('/api/organisations')).body
-    const taken = await admin.post('/api/admin/invitations', { email: READER.email, name: 'Again', role: 'reader', organisationId: org.id })
+    const taken = await admin.post('/api/admin/invitations', {
+      email: READER.email,
+      name: 'Again',
+      role: 'reader',
+      organisationId: org.id,
+    })
     expect(taken.status).toBe(409)
     const reader = new ApiClient(server.url)
     await reader.signIn(READER.email, READER.password)
-    expect((await reader.post('/api/admin/invitations', { email: 'x@example.org', name: 'X', role: 'admin', organisationId: org.id })).status).toBe(403)
+    expect(
+      (
+        await reader.post('/api/admin/invitations', {
+          email: 'x@example.org',
+          name: 'X',
+          role: 'admin',
+          organisationId: org.id,
+        })
+      ).status,
+    ).toBe(403)
     expect((await new ApiClient(server.url).post('/api/admin/invitations', {})).status).toBe(401)
   })
 })
@@ -70,17 +102,40 @@ describe('password reset', () => {
     expect(smtp.to('nobody@example.org')).toHaveLength(0)
 
     const token = tokenFrom(mail.text!, '/account/reset')
-    const done = await new ApiClient(server.url).post('/api/account/password-reset/complete', { token, password: 'a-brand-new-password' })
+    const done = await new ApiClient(server.url).post('/api/account/password-reset/complete', {
+      token,
+      password: 'a-brand-new-password',
+    })
     expect(done.status).toBe(200)
-    expect((await new ApiClient(server.url).post('/api/auth/sign-in', { email: READER.email, password: READER.password })).status).toBe(401)
+    expect(
+      (await new ApiClient(server.url).post('/api/auth/sign-in', { email: READER.email, password: READER.password }))
+        .status,
+    ).toBe(401)
     await new ApiClient(server.url).signIn(READER.email, 'a-brand-new-password')
-    expect((await new ApiClient(server.url).post('/api/account/password-reset/complete', { token, password: 'yet-another-password' })).status).toBe(404)
+    expect(
+      (
+        await new ApiClient(server.url).post('/api/account/password-reset/complete', {
+          token,
+          password: 'yet-another-password',
+        })
+      ).status,
+    ).toBe(404)
   })
 
   it('refuses a malformed token and limits requests per address', async () => {
-    expect((await new ApiClient(server.url).post('/api/account/password-reset/complete', { token: 'bad', password: 'a-brand-new-password' })).status).toBe(400)
+    expect(
+      (
+        await new ApiClient(server.url).post('/api/account/password-reset/complete', {
+          token: 'bad',
+          password: 'a-brand-new-password',
+        })
+      ).status,
+    ).toBe(400)
     const statuses: number[] = []
-    for (let i = 0; i < 4; i++) statuses.push((await new ApiClient(server.url).post('/api/account/password-reset', { email: 'flood@example.org' })).status)
+    for (let i = 0; i < 4; i++)
+      statuses.push(
+        (await new ApiClient(server.url).post('/api/account/password-reset', { email: 'flood@example.org' })).status,
+      )
     expect(statuses).toEqual([202, 202, 202, 429])
   })
 })

@@ -10,17 +10,26 @@ beforeAll(async () => { server = await startServer() })
 afterAll(async () => { await server?.stop() })
 
 describe('signing in', () => {
-  it.each([OPERATOR, ADMIN, ANALYST, PLANNER, PORT_PLANNER, READER])('signs in $email with the seeded role', async (demo) => {
-    const api = client()
-    const user = await api.signIn(demo.email, demo.password)
-    expect(user).toMatchObject({ email: demo.email, role: demo.role, organisationIllustrative: true })
-    expect(user).not.toHaveProperty('passwordHash')
-    expect((await api.get('/api/me')).body.user.email).toBe(demo.email)
-  })
+  it.each([OPERATOR, ADMIN, ANALYST, PLANNER, PORT_PLANNER, READER])(
+    'signs in $email with the seeded role',
+    async (demo) => {
+      const api = client()
+      const user = await api.signIn(demo.email, demo.password)
+      expect(user).toMatchObject({ email: demo.email, role: demo.role, organisationIllustrative: true })
+      expect(user).not.toHaveProperty('passwordHash')
+      expect((await api.get('/api/me')).body.user.email).toBe(demo.email)
+    },
+  )
 
   it('gives one generic answer for a wrong password and an unknown address', async () => {
-    const wrongPassword = await client().post('/api/auth/sign-in', { email: PLANNER.email, password: 'not-the-password' })
-    const unknownAddress = await client().post('/api/auth/sign-in', { email: 'nobody@caldwyn.example', password: PLANNER.password })
+    const wrongPassword = await client().post('/api/auth/sign-in', {
+      email: PLANNER.email,
+      password: 'not-the-password',
+    })
+    const unknownAddress = await client().post('/api/auth/sign-in', {
+      email: 'nobody@caldwyn.example',
+      password: PLANNER.password,
+    })
     expect(wrongPassword.status).toBe(401)
     expect(unknownAddress.status).toBe(401)
     expect(wrongPassword.body.message).toBe(unknownAddress.body.message)
@@ -71,7 +80,13 @@ describe('who may ask', () => {
     await api.signIn(demo.email, demo.password)
     expect((await api.get('/api/admin/users')).status).toBe(403)
     expect((await api.get('/api/organisations')).status).toBe(403)
-    const create = await api.post('/api/admin/users', { email: 'x@y.example', name: 'X', role: 'admin', organisationId: '00000000-0000-4000-8000-000000000000', password: 'long-enough-password' })
+    const create = await api.post('/api/admin/users', {
+      email: 'x@y.example',
+      name: 'X',
+      role: 'admin',
+      organisationId: '00000000-0000-4000-8000-000000000000',
+      password: 'long-enough-password',
+    })
     expect(create.status).toBe(403)
     expect(create.body.message).toMatch(/admin role/)
   })
@@ -105,7 +120,11 @@ describe('administering users', () => {
     const organisations = (await api.get('/api/organisations')).body
     const port = organisations.find((org: { kind: string }) => org.kind === 'port')
     const created = await api.post('/api/admin/users', {
-      email: 'New.Engineer@Skerrow.example', name: 'Ada Quill', role: 'planner', organisationId: port.id, password: 'a-long-first-password',
+      email: 'New.Engineer@Skerrow.example',
+      name: 'Ada Quill',
+      role: 'planner',
+      organisationId: port.id,
+      password: 'a-long-first-password',
     })
     expect(created.status).toBe(201)
     expect(created.body).toMatchObject({ email: 'new.engineer@skerrow.example', role: 'planner', disabled: false })
@@ -114,25 +133,50 @@ describe('administering users', () => {
     expect(user.organisationName).toBe(port.name)
 
     const audit = (await api.get('/api/admin/audit')).body
-    expect(audit.some((entry: { action: string, targetId: string }) => entry.action === 'user.created' && entry.targetId === created.body.id)).toBe(true)
+    expect(
+      audit.some(
+        (entry: { action: string, targetId: string }) =>
+          entry.action === 'user.created' && entry.targetId === created.body.id,
+      ),
+    ).toBe(true)
   })
 
   it('refuses a duplicate address, a short password and an unknown organisation', async () => {
     const api = await admin()
     const [org] = (await api.get('/api/organisations')).body
-    const duplicate = await api.post('/api/admin/users', { email: READER.email, name: 'Copy', role: 'reader', organisationId: org.id, password: 'a-long-first-password' })
+    const duplicate = await api.post('/api/admin/users', {
+      email: READER.email,
+      name: 'Copy',
+      role: 'reader',
+      organisationId: org.id,
+      password: 'a-long-first-password',
+    })
     expect(duplicate.status).toBe(409)
     expect(duplicate.body.message).toMatch(/already has an account/)
 
-    const short = await api.post('/api/admin/users', { email: 'short@caldwyn.example', name: 'Short', role: 'reader', organisationId: org.id, password: 'short' })
+    const short = await api.post('/api/admin/users', {
+      email: 'short@caldwyn.example',
+      name: 'Short',
+      role: 'reader',
+      organisationId: org.id,
+      password: 'short',
+    })
     expect(short.status).toBe(400)
     expect(short.body.data.issues).toEqual([{ field: 'password', message: 'Use at least 12 characters.' }])
 
-    const orphan = await api.post('/api/admin/users', { email: 'orphan@caldwyn.example', name: 'Orphan', role: 'reader', organisationId: '00000000-0000-4000-8000-000000000000', password: 'a-long-first-password' })
+    const orphan = await api.post('/api/admin/users', {
+      email: 'orphan@caldwyn.example',
+      name: 'Orphan',
+      role: 'reader',
+      organisationId: '00000000-0000-4000-8000-000000000000',
+      password: 'a-long-first-password',
+    })
     expect(orphan.status).toBe(400)
     expect(orphan.body.message).toMatch(/^organisationId: /)
 
-    expect((await api.get('/api/admin/users')).body.some((row: { email: string }) => row.email === 'short@caldwyn.example')).toBe(false)
+    expect(
+      (await api.get('/api/admin/users')).body.some((row: { email: string }) => row.email === 'short@caldwyn.example'),
+    ).toBe(false)
   })
 
   it('disabling a user ends their session at once and refuses their sign-in', async () => {
@@ -143,7 +187,10 @@ describe('administering users', () => {
 
     expect((await api.patch(`/api/admin/users/${id}`, { disabled: true })).status).toBe(200)
     expect((await planner.get('/api/me')).status).toBe(401)
-    const again = await client().post('/api/auth/sign-in', { email: PORT_PLANNER.email, password: PORT_PLANNER.password })
+    const again = await client().post('/api/auth/sign-in', {
+      email: PORT_PLANNER.email,
+      password: PORT_PLANNER.password,
+    })
     expect(again.status).toBe(403)
 
     await api.patch(`/api/admin/users/${id}`, { disabled: false })
@@ -183,7 +230,9 @@ describe('administering users', () => {
     const role = await api.patch(`/api/admin/users/${id}`, { role: 'superuser' })
     expect(role.status).toBe(400)
     expect(role.body.message).toMatch(/^role: Choose one of: operator, admin, analyst, planner, reader/)
-    expect((await api.patch('/api/admin/users/00000000-0000-4000-8000-000000000000', { role: 'reader' })).status).toBe(404)
+    expect((await api.patch('/api/admin/users/00000000-0000-4000-8000-000000000000', { role: 'reader' })).status).toBe(
+      404,
+    )
     expect((await api.patch('/api/admin/users/../../etc', { role: 'reader' })).status).toBe(404)
   })
 })

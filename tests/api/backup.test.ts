@@ -7,7 +7,13 @@ import { runDbCli } from '../support/cli'
 import { ApiClient } from '../support/client'
 import { PLANNER } from '../support/demo-users'
 import { SITE_BODY } from '../support/matrix-fixtures'
-import { createTestDatabase, startServer, TEST_DATABASE_URL, type RunningServer, type TestDatabase } from '../support/server'
+import {
+  createTestDatabase,
+  startServer,
+  TEST_DATABASE_URL,
+  type RunningServer,
+  type TestDatabase,
+} from '../support/server'
 
 // Three server starts and four command runs, each opening the database: generous on a busy machine.
 const ROUND_TRIP_TIMEOUT = 240_000
@@ -94,14 +100,19 @@ describe('backup and restore', () => {
 
   it('refuses a file that is not a backup, and leaves the folder as it was', async () => {
     const dataDir = join(folder, 'untouched')
-    const result = await runDbCli('restore', [join(import.meta.dirname, 'backup.test.ts'), '--force'], { PGLITE_DATA_DIR: dataDir })
+    const result = await runDbCli('restore', [join(import.meta.dirname, 'backup.test.ts'), '--force'], {
+      PGLITE_DATA_DIR: dataDir,
+    })
     expect(result.code).toBe(1)
     expect(result.stderr).toContain('is not a PGlite backup')
     expect(existsSync(dataDir)).toBe(false)
   })
 
   it('says what to set when there is nothing to back up', async () => {
-    const result = await runDbCli('backup', [], { PGLITE_DATA_DIR: join(folder, 'missing'), BACKUP_DIR: join(folder, 'none') })
+    const result = await runDbCli('backup', [], {
+      PGLITE_DATA_DIR: join(folder, 'missing'),
+      BACKUP_DIR: join(folder, 'none'),
+    })
     expect(result.code).toBe(1)
     expect(result.stderr).toContain('Set PGLITE_DATA_DIR')
   })

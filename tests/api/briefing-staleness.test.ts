@@ -28,14 +28,31 @@ async function publishGlaciers(mean2100: number) {
   const analyst = await as(ANALYST.email, ANALYST.password)
   const reviewer = await as(REVIEWER.email, REVIEWER.password)
   const [current] = (await analyst.get('/api/releases?component=glaciers&scenario=SSP2-4.5&state=published')).body
-  const draft = await analyst.post('/api/releases', { seriesId: current.seriesId, form: 'normal', baselineYear: 2020, anchorYears: [2050, 2100, 2150], mean: [mean2100 / 3, mean2100, mean2100 * 1.4], sd: [0.01, 0.03, 0.04], method: 'm', citation: `Glaciers revised (${mean2100})`, licence: 'l' })
+  const draft = await analyst.post('/api/releases', {
+    seriesId: current.seriesId,
+    form: 'normal',
+    baselineYear: 2020,
+    anchorYears: [2050, 2100, 2150],
+    mean: [mean2100 / 3, mean2100, mean2100 * 1.4],
+    sd: [0.01, 0.03, 0.04],
+    method: 'm',
+    citation: `Glaciers revised (${mean2100})`,
+    licence: 'l',
+  })
   await analyst.post(`/api/releases/${draft.body.id}/submit`)
   expect((await reviewer.post(`/api/releases/${draft.body.id}/approve`)).status).toBe(200)
 }
 
 async function outboxSettled() {
   const operator = await as(OPERATOR.email, OPERATOR.password)
-  await expect.poll(async () => (await operator.get('/api/admin/outbox')).body.messages.filter((m: { state: string }) => m.state === 'queued').length, { timeout: 60_000 }).toBe(0)
+  await expect
+    .poll(
+      async () =>
+        (await operator.get('/api/admin/outbox')).body.messages.filter((m: { state: string }) => m.state === 'queued')
+          .length,
+      { timeout: 60_000 },
+    )
+    .toBe(0)
 }
 
 beforeAll(async () => {
@@ -44,13 +61,26 @@ beforeAll(async () => {
   // Two planners: one drafts the briefing, the other issues it; both are its planners.
   const admin = await as(ADMIN.email, ADMIN.password)
   const organisationId = (await admin.get('/api/me')).body.user.organisationId
-  expect((await admin.post('/api/admin/users', { email: SECOND_PLANNER.email, name: 'Second Planner', role: 'planner', organisationId, password: SECOND_PLANNER.password })).status).toBe(201)
+  expect(
+    (
+      await admin.post('/api/admin/users', {
+        email: SECOND_PLANNER.email,
+        name: 'Second Planner',
+        role: 'planner',
+        organisationId,
+        password: SECOND_PLANNER.password,
+      })
+    ).status,
+  ).toBe(201)
   author = await as(PLANNER.email, PLANNER.password)
   issuer = await as(SECOND_PLANNER.email, SECOND_PLANNER.password)
   siteId = (await author.get('/api/sites')).body.find((s: { name: string }) => s.name === 'Kelwick').id
   thresholdIds = (await author.get(`/api/sites/${siteId}`)).body.thresholds.map((t: { id: string }) => t.id)
-  outlookId = (await author.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 11 })).body.id
-  briefingId = (await author.post('/api/briefings', { outlookId, title: 'Kelwick to 2100', thresholdIds, years: [2050, 2100] })).body.id
+  outlookId = (await author.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 11 }))
+    .body.id
+  briefingId = (
+    await author.post('/api/briefings', { outlookId, title: 'Kelwick to 2100', thresholdIds, years: [2050, 2100] })
+  ).body.id
   expect((await issuer.post(`/api/briefings/${briefingId}/issue`)).status).toBe(200)
   shareToken = (await issuer.post(`/api/briefings/${briefingId}/share`)).body.shareToken
 }, 120_000)
@@ -73,7 +103,9 @@ describe('an issued briefing and newer science', () => {
   it('says on its internal and shared pages which figures changed, and stays as issued', async () => {
     await publishGlaciers(0.45)
     // The recomputation queues and finishes a new outlook for the site's SSP2-4.5.
-    await expect.poll(async () => (await author.get(`/api/briefings/${briefingId}`)).body.staleness, { timeout: 60_000 }).not.toBeNull()
+    await expect
+      .poll(async () => (await author.get(`/api/briefings/${briefingId}`)).body.staleness, { timeout: 60_000 })
+      .not.toBeNull()
     const view = (await author.get(`/api/briefings/${briefingId}`)).body
     expect(view.document).toEqual(frozen)
     const outlooks = (await author.get(`/api/sites/${siteId}/outlooks`)).body.filter((o: { scenario: string, seed: number, state: string }) => o.scenario === 'SSP2-4.5' && o.seed === 11 && o.state === 'done')
@@ -82,9 +114,20 @@ describe('an issued briefing and newer science', () => {
     const before = (await author.get(`/api/outlooks/${outlookId}`)).body.result
     const after = (await author.get(`/api/outlooks/${latestId}`)).body.result
     // Each listed figure is the two stored outlooks' own for that threshold and year.
-    const kelwick = (await author.get(`/api/sites/${siteId}`)).body.thresholds as { id: string, label: string, kind: string }[]
+    const kelwick = (await author.get(`/api/sites/${siteId}`)).body.thresholds as {
+      id: string
+      label: string
+      kind: string
+    }[]
     expect(view.staleness.changes.length).toBeGreaterThan(0)
-    const chanceOf = (result: { years: number[], thresholds: { key: string, byYear: { value: number }[], flood: { annualChance: { value: number }[] } | null }[] }, label: string, year: number) => {
+    const chanceOf = (
+      result: {
+        years: number[]
+        thresholds: { key: string, byYear: { value: number }[], flood: { annualChance: { value: number }[] } | null }[]
+      },
+      label: string,
+      year: number,
+    ) => {
       const threshold = result.thresholds.find(th => th.key === kelwick.find(k => k.label === label)!.id)!
       const t = result.years.indexOf(year)
       return threshold.flood ? threshold.flood.annualChance[t]!.value : threshold.byYear[t]!.value
@@ -95,16 +138,29 @@ describe('an issued briefing and newer science', () => {
       expect(c.now).toBe(chanceOf(after, c.threshold, c.year))
     }
     // Quay Street (a mean-sea-level threshold) by 2050 moves with the glaciers.
-    const change = view.staleness.changes.find((c: { threshold: string, year: number }) => c.threshold === 'High-tide flooding of Quay Street' && c.year === 2050)
+    const change = view.staleness.changes.find(
+      (c: { threshold: string, year: number }) =>
+        c.threshold === 'High-tide flooding of Quay Street' && c.year === 2050,
+    )
     expect(change).toMatchObject({ kind: 'mean-sea-level' })
     expect(formatChance(change.now, 'en')).not.toBe(formatChance(change.was, 'en'))
 
     // The shared page says the same, without ids of the site's records.
     const shared = (await new ApiClient(server.url).get(`/api/shared/${shareToken}`)).body
-    expect(shared.staleness.changes).toContainEqual({ scenario: 'SSP2-4.5', threshold: 'High-tide flooding of Quay Street', kind: 'mean-sea-level', year: 2050, was: change.was, now: change.now })
+    expect(shared.staleness.changes).toContainEqual({
+      scenario: 'SSP2-4.5',
+      threshold: 'High-tide flooding of Quay Street',
+      kind: 'mean-sea-level',
+      year: 2050,
+      was: change.was,
+      now: change.now,
+    })
     expect(JSON.stringify(shared.staleness)).not.toContain(thresholdIds[0])
     // Readers of the organisation see it too.
-    expect((await (await as(READER.email, READER.password)).get(`/api/briefings/${briefingId}`)).body.staleness.changes.length).toBeGreaterThan(0)
+    expect(
+      (await (await as(READER.email, READER.password)).get(`/api/briefings/${briefingId}`)).body.staleness.changes
+        .length,
+    ).toBeGreaterThan(0)
   })
 
   it('mails each of its planners exactly once, saying what changed', async () => {
@@ -115,16 +171,29 @@ describe('an issued briefing and newer science', () => {
     expect(smtp.to(SECOND_PLANNER.email).filter(stale)).toHaveLength(1)
     // Nobody else of the organisation is mailed about it.
     expect(smtp.messages.filter(stale)).toHaveLength(2)
-    const change = (await author.get(`/api/briefings/${briefingId}`)).body.staleness.changes.find((c: { threshold: string, year: number }) => c.threshold === 'High-tide flooding of Quay Street' && c.year === 2050)
+    const change = (await author.get(`/api/briefings/${briefingId}`)).body.staleness.changes.find(
+      (c: { threshold: string, year: number }) =>
+        c.threshold === 'High-tide flooding of Quay Street' && c.year === 2050,
+    )
     expect(first.subject).toBe('Briefing out of date: Kelwick to 2100 (version 1, Kelwick)')
-    expect(first.text).toContain(`SSP2-4.5, chance mean sea level is above "High-tide flooding of Quay Street" by 2050: ${formatChance(change.now, 'en')} now, ${formatChance(change.was, 'en')} in this briefing.`)
+    expect(first.text).toContain(
+      `SSP2-4.5, chance mean sea level is above "High-tide flooding of Quay Street" by 2050: ${formatChance(change.now, 'en')} now, ${formatChance(change.was, 'en')} in this briefing.`,
+    )
     expect(first.text).toContain(`${server.url}/briefings/${briefingId}`)
   })
 
   it('makes a new draft version from the latest outlooks in one request', async () => {
     const draft = await author.post(`/api/briefings/${briefingId}/versions`, { fromLatestOutlooks: true })
     expect(draft.status).toBe(201)
-    expect(draft.body).toMatchObject({ state: 'draft', version: 2, previousId: briefingId, outlookIds: [latestId], thresholdIds, years: [2050, 2100], title: 'Kelwick to 2100' })
+    expect(draft.body).toMatchObject({
+      state: 'draft',
+      version: 2,
+      previousId: briefingId,
+      outlookIds: [latestId],
+      thresholdIds,
+      years: [2050, 2100],
+      title: 'Kelwick to 2100',
+    })
     const view = (await author.get(`/api/briefings/${draft.body.id}`)).body
     expect(view.staleness).toBeNull()
     // The issued version is untouched, and still says it is out of date.
@@ -140,7 +209,13 @@ describe('an issued briefing and newer science', () => {
     const response = await author.post(`/api/briefings/${briefingId}/versions`, { fromLatestOutlooks: 'yes' })
     expect(response.status).toBe(400)
     expect(response.body.message).toMatch(/^fromLatestOutlooks: /)
-    expect((await (await as(READER.email, READER.password)).post(`/api/briefings/${briefingId}/versions`, { fromLatestOutlooks: true })).status).toBe(403)
+    expect(
+      (
+        await (
+          await as(READER.email, READER.password)
+        ).post(`/api/briefings/${briefingId}/versions`, { fromLatestOutlooks: true })
+      ).status,
+    ).toBe(403)
     expect(await count()).toBe(before)
   })
 
@@ -152,10 +227,25 @@ describe('an issued briefing and newer science', () => {
 
     await publishGlaciers(0.6)
     const update = await smtp.next(m => isTo('watcher@example.org')(m) && /has changed/.test(m.subject ?? ''))
-    const outlooks = (await author.get(`/api/sites/${siteId}/outlooks`)).body.filter((o: { scenario: string, seed: number, state: string }) => o.scenario === 'SSP2-4.5' && o.seed === 11 && o.state === 'done')
-    const [now, was] = await Promise.all([outlooks[0].id, outlooks[1].id].map(async id => (await author.get(`/api/outlooks/${id}`)).body.headline.probability))
-    expect(update.text).toContain(`Under SSP2-4.5, the planning scenario: the chance that mean sea level is above "High-tide flooding of Quay Street" (0.50 m) by 2100 is now ${formatChance(now, 'en')} (was ${formatChance(was, 'en')}).`)
-    await smtp.next(m => isTo(SECOND_PLANNER.email)(m) && stale(m) && m.text!.includes(formatChance(now, 'en')) && smtp.to(SECOND_PLANNER.email).filter(stale).length === 2)
+    const outlooks = (await author.get(`/api/sites/${siteId}/outlooks`)).body.filter(
+      (o: { scenario: string, seed: number, state: string }) =>
+        o.scenario === 'SSP2-4.5' && o.seed === 11 && o.state === 'done',
+    )
+    const [now, was] = await Promise.all(
+      [outlooks[0].id, outlooks[1].id].map(
+        async id => (await author.get(`/api/outlooks/${id}`)).body.headline.probability,
+      ),
+    )
+    expect(update.text).toContain(
+      `Under SSP2-4.5, the planning scenario: the chance that mean sea level is above "High-tide flooding of Quay Street" (0.50 m) by 2100 is now ${formatChance(now, 'en')} (was ${formatChance(was, 'en')}).`,
+    )
+    await smtp.next(
+      m =>
+        isTo(SECOND_PLANNER.email)(m)
+        && stale(m)
+        && m.text!.includes(formatChance(now, 'en'))
+        && smtp.to(SECOND_PLANNER.email).filter(stale).length === 2,
+    )
     await outboxSettled()
     expect(smtp.to(PLANNER.email).filter(stale)).toHaveLength(2)
     expect(smtp.to(SECOND_PLANNER.email).filter(stale)).toHaveLength(2)

@@ -15,8 +15,16 @@ let comparisonId: string
 const as = (email: string, password: string) => ApiClient.signedIn(server.url, email, password)
 
 const briefing = (overrides: Record<string, unknown> = {}) => ({
-  outlookId, comparisonOutlookIds: [comparisonId], title: 'Kelwick: sea level to 2100', audience: 'Harbour committee',
-  localContext: '<script>alert("x")</script> Quay Street floods at spring tides.', language: 'en', units: 'm', thresholdIds, years: [2050, 2100], ...overrides,
+  outlookId,
+  comparisonOutlookIds: [comparisonId],
+  title: 'Kelwick: sea level to 2100',
+  audience: 'Harbour committee',
+  localContext: '<script>alert("x")</script> Quay Street floods at spring tides.',
+  language: 'en',
+  units: 'm',
+  thresholdIds,
+  years: [2050, 2100],
+  ...overrides,
 })
 
 beforeAll(async () => {
@@ -27,7 +35,8 @@ beforeAll(async () => {
   siteId = (await planner.get('/api/sites')).body.find((s: { name: string }) => s.name === 'Kelwick').id
   thresholdIds = (await planner.get(`/api/sites/${siteId}`)).body.thresholds.map((t: { id: string }) => t.id)
   outlookId = (await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000 })).body.id
-  comparisonId = (await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP5-8.5', samples: 20_000 })).body.id
+  comparisonId = (await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP5-8.5', samples: 20_000 })).body
+    .id
 })
 afterAll(async () => { await server?.stop() })
 
@@ -46,27 +55,51 @@ describe('briefings', () => {
     expect(doc.meta.heights).toMatch(/^Heights in metres above .+\.$/)
     // The findings: the key (mean-sea-level) threshold by 2100, its trigger year, the spread over the two scenarios.
     expect(doc.summary.findings).toHaveLength(3)
-    expect(doc.summary.findings[0]).toMatch(/^Under SSP2-4\.5, the chance that the mean sea level at Kelwick rises above “High-tide flooding of Quay Street” \(0\.50 m\) is .+ \(.+\) by 2050 and .+ \(.+\) by 2100\.$/)
+    expect(doc.summary.findings[0]).toMatch(
+      /^Under SSP2-4\.5, the chance that the mean sea level at Kelwick rises above “High-tide flooding of Quay Street” \(0\.50 m\) is .+ \(.+\) by 2050 and .+ \(.+\) by 2100\.$/,
+    )
     expect(doc.summary.findings[2]).toMatch(/^Across the 2 scenarios compared, that chance by 2100 /)
-    expect(doc.summary.grid.rows.map((r: { threshold: string }) => r.threshold)).toEqual(['High-tide flooding of Quay Street', 'Sea wall crest'])
+    expect(doc.summary.grid.rows.map((r: { threshold: string }) => r.threshold)).toEqual([
+      'High-tide flooding of Quay Street',
+      'Sea wall crest',
+    ])
     // For the engineer (a chance beyond the releases' outermost level is marked extrapolated, with no
-    // calibrated word): one line for the mean-sea-level threshold; two years, the life and the design-life level of the flood level.
+    // calibrated word): one line for the mean-sea-level threshold; two years, the life and the design-life level of the
+    // flood level.
     expect(doc.detail.lines).toHaveLength(5)
-    expect(doc.detail.lines[0]).toMatch(/^“High-tide flooding of Quay Street” \(0\.50 m\): the chance that the mean sea level here is above it is (\d+|less than 1|more than 99)\u00A0% \((?:[a-z ]+|extrapolated: the releases do not describe this tail)\) by 2050 and .+ by 2100\.$/)
+    expect(doc.detail.lines[0]).toMatch(
+      /^“High-tide flooding of Quay Street” \(0\.50 m\): the chance that the mean sea level here is above it is (\d+|less than 1|more than 99)\u00A0% \((?:[a-z ]+|extrapolated: the releases do not describe this tail)\) by 2050 and .+ by 2100\.$/,
+    )
     const wall = doc.detail.lines.filter((line: string) => /^Sea wall crest \(flood level/.test(line))
     expect(wall).toHaveLength(4)
-    expect(wall[0]).toMatch(/^Sea wall crest \(flood level, 2\.30 m\): In 2050 the water is expected to reach 2\.30 m above .+: an? .+ chance in any one year\.$/)
-    expect(wall[2]).toMatch(/^Sea wall crest \(flood level, 2\.30 m\): Built in 2031 for 50 years \(2031–2080\): a .+ chance \(.+\) that the water reaches the level at least once in that time\.$/)
+    expect(wall[0]).toMatch(
+      /^Sea wall crest \(flood level, 2\.30 m\): In 2050 the water is expected to reach 2\.30 m above .+: an? .+ chance in any one year\.$/,
+    )
+    expect(wall[2]).toMatch(
+      /^Sea wall crest \(flood level, 2\.30 m\): Built in 2031 for 50 years \(2031–2080\): a .+ chance \(.+\) that the water reaches the level at least once in that time\.$/,
+    )
     expect(wall[3]).toMatch(/: its design-life level\.$/)
     expect(wall.join(' ')).not.toMatch(/exceptionally unlikely/)
-    expect(doc.table.rows.map((r: { measure: string }) => r.measure)).toContain('Flood level: the water reaches it in that year')
-    expect(doc.table.rows.map((r: { scenario: string }) => r.scenario)).toEqual(['SSP2-4.5', 'SSP2-4.5', 'SSP5-8.5', 'SSP5-8.5'])
+    expect(doc.table.rows.map((r: { measure: string }) => r.measure)).toContain(
+      'Flood level: the water reaches it in that year',
+    )
+    expect(doc.table.rows.map((r: { scenario: string }) => r.scenario)).toEqual([
+      'SSP2-4.5',
+      'SSP2-4.5',
+      'SSP5-8.5',
+      'SSP5-8.5',
+    ])
     expect(doc.extremes.rows).toHaveLength(2)
-    // Amplification is worded as expected floods of today's 100-year level, with the chance beside it, never a bare multiple.
-    expect(doc.extremes.rows[0].expected).toMatch(/^(about once every [\d.,]+ years \([\d.,]+ times as many expected floods as today\)|every year or more often)/)
+    // Amplification is worded as expected floods of today's 100-year level, with the chance beside it, never a bare
+    // multiple.
+    expect(doc.extremes.rows[0].expected).toMatch(
+      /^(about once every [\d.,]+ years \([\d.,]+ times as many expected floods as today\)|every year or more often)/,
+    )
     expect(doc.extremes.rows[0].chance).toMatch(/%$/)
     expect(doc.basis.releases.length).toBe(14)
-    expect(doc.cautions.join(' ')).toMatch(/Projections are not predictions.*ice sheets.*not engineering or legal advice/)
+    expect(doc.cautions.join(' ')).toMatch(
+      /Projections are not predictions.*ice sheets.*not engineering or legal advice/,
+    )
     expect(doc.meta.localContext).toBe('<script>alert("x")</script> Quay Street floods at spring tides.')
   })
 
@@ -91,18 +124,31 @@ describe('briefings', () => {
 
   it.each([
     ['a year twice', { years: [2050, 2050] }, /^years: Choose each year once\./],
-    ['a threshold twice', () => ({ thresholdIds: [thresholdIds[0], thresholdIds[0]] }), /^thresholdIds: Choose each threshold once\./],
-    ['a compared outlook twice', () => ({ comparisonOutlookIds: [comparisonId, comparisonId] }), /^comparisonOutlookIds: Compare each outlook once\./],
+    [
+      'a threshold twice',
+      () => ({ thresholdIds: [thresholdIds[0], thresholdIds[0]] }),
+      /^thresholdIds: Choose each threshold once\./,
+    ],
+    [
+      'a compared outlook twice',
+      () => ({ comparisonOutlookIds: [comparisonId, comparisonId] }),
+      /^comparisonOutlookIds: Compare each outlook once\./,
+    ],
   ])('refuses %s, saying so, and drafts nothing', async (_name, overrides, message) => {
     const before = (await planner.get('/api/briefings')).body.length
-    const response = await planner.post('/api/briefings', briefing(typeof overrides === 'function' ? overrides() : overrides))
+    const response = await planner.post(
+      '/api/briefings',
+      briefing(typeof overrides === 'function' ? overrides() : overrides),
+    )
     expect(response.status).toBe(400)
     expect(response.body.message).toMatch(message)
     expect((await planner.get('/api/briefings')).body.length).toBe(before)
   })
 
   it('issues once, then never changes: edits answer 409 and a new version links back', async () => {
-    expect((await planner.patch(`/api/briefings/${draftId}`, briefing({ title: 'Kelwick to 2100 (v1)' }))).status).toBe(200)
+    expect((await planner.patch(`/api/briefings/${draftId}`, briefing({ title: 'Kelwick to 2100 (v1)' }))).status).toBe(
+      200,
+    )
     const issued = await planner.post(`/api/briefings/${draftId}/issue`)
     expect(issued.body).toMatchObject({ state: 'issued', title: 'Kelwick to 2100 (v1)' })
     const frozen = (await planner.get(`/api/briefings/${draftId}`)).body.document
@@ -151,7 +197,9 @@ describe('briefings', () => {
   it('streams a PDF with a sensible name and the app font embedded', async () => {
     const response = await planner.fetchRaw(`/api/briefings/${draftId}/pdf`)
     expect(response.status).toBe(200)
-    expect(response.headers.get('content-disposition')).toMatch(/^attachment; filename="brinkwater-kelwick-ssp2-4.5-v1-\d{4}-\d{2}-\d{2}\.pdf"$/)
+    expect(response.headers.get('content-disposition')).toMatch(
+      /^attachment; filename="brinkwater-kelwick-ssp2-4.5-v1-\d{4}-\d{2}-\d{2}\.pdf"$/,
+    )
     const bytes = Buffer.from(await response.arrayBuffer())
     expect(bytes.subarray(0, 5).toString()).toBe('%PDF-')
     expect(bytes.includes(Buffer.from('AtkinsonHyperlegible'))).toBe(true)
@@ -167,4 +215,3 @@ describe('briefings', () => {
     expect(theirs[0]).not.toHaveProperty('shareToken')
   })
 })
-

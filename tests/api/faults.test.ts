@@ -34,7 +34,12 @@ describe('killed mid-write', () => {
     const crashing = await start({ BRINKWATER_FAULT: 'outlook-write' })
     const planner = await ApiClient.signedIn(crashing.url, PLANNER.email, PLANNER.password)
     const [site] = (await planner.get('/api/sites')).body
-    const queued = await planner.post(`/api/sites/${site.id}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 5, wait: false })
+    const queued = await planner.post(`/api/sites/${site.id}/outlooks`, {
+      scenario: 'SSP2-4.5',
+      samples: 20_000,
+      seed: 5,
+      wait: false,
+    })
     expect(queued.status).toBe(202)
     expect(await crashing.exited).toBeNull()
 
@@ -57,7 +62,17 @@ describe('killed mid-write', () => {
     const analyst = await ApiClient.signedIn(crashing.url, ANALYST.email, ANALYST.password)
     const reviewer = await ApiClient.signedIn(crashing.url, REVIEWER.email, REVIEWER.password)
     const [glaciers] = (await analyst.get('/api/releases?component=glaciers&scenario=SSP5-8.5&state=published')).body
-    const next = await analyst.post('/api/releases', { seriesId: glaciers.seriesId, form: 'normal', baselineYear: 2020, anchorYears: [2050, 2100, 2150], mean: [0.08, 0.16, 0.22], sd: [0.01, 0.03, 0.04], method: 'm', citation: 'c', licence: 'l' })
+    const next = await analyst.post('/api/releases', {
+      seriesId: glaciers.seriesId,
+      form: 'normal',
+      baselineYear: 2020,
+      anchorYears: [2050, 2100, 2150],
+      mean: [0.08, 0.16, 0.22],
+      sd: [0.01, 0.03, 0.04],
+      method: 'm',
+      citation: 'c',
+      licence: 'l',
+    })
     await analyst.post(`/api/releases/${next.body.id}/submit`)
     await expect(reviewer.post(`/api/releases/${next.body.id}/approve`)).rejects.toThrow()
     expect(await crashing.exited).toBeNull()
@@ -65,14 +80,17 @@ describe('killed mid-write', () => {
     const restarted = await start()
     const after = await ApiClient.signedIn(restarted.url, REVIEWER.email, REVIEWER.password)
     expect((await after.get(`/api/releases/${next.body.id}`)).body.state).toBe('in-review')
-    const published = (await after.get(`/api/releases?component=glaciers&scenario=SSP5-8.5&state=published`)).body as Array<{ id: string }>
+    const published = (await after.get(`/api/releases?component=glaciers&scenario=SSP5-8.5&state=published`))
+      .body as Array<{ id: string }>
     expect(published.map(r => r.id)).toEqual([glaciers.id])
     // Nothing of the cut-off transaction is left: the approval can be made again, and is audited once.
     expect((await after.post(`/api/releases/${next.body.id}/approve`)).body.state).toBe('published')
     expect((await after.get(`/api/releases/${glaciers.id}`)).body.state).toBe('superseded')
     const admin = await ApiClient.signedIn(restarted.url, OPERATOR.email, OPERATOR.password)
     const audit = (await admin.get('/api/admin/audit')).body as Array<{ action: string, targetId: string }>
-    expect(audit.filter(entry => entry.action === 'release.published' && entry.targetId === next.body.id)).toHaveLength(1)
+    expect(audit.filter(entry => entry.action === 'release.published' && entry.targetId === next.body.id)).toHaveLength(
+      1,
+    )
     await restarted.stop()
   })
 })

@@ -9,7 +9,10 @@ let reader: ApiClient
 let portPlanner: ApiClient
 let siteId: string
 
-/** Annual means 1981–2025 rising `rate` m/yr (6 mm/yr) through 1.20 m in 2020 above the datum, with a small alternating wobble. */
+/**
+ * Annual means 1981–2025 rising `rate` m/yr (6 mm/yr) through 1.20 m in 2020 above the datum, with a small alternating
+ * wobble.
+ */
 function rising(years = 45, from = 1981, skip: number[] = [], rate = 0.006) {
   const rows = Array.from({ length: years }, (_, i) => from + i)
     .filter(year => !skip.includes(year))
@@ -37,7 +40,10 @@ describe('tide-gauge records', () => {
     expect(second.body.version).toBe(2)
 
     const read = (await reader.get(`/api/sites/${siteId}/gauge-record`)).body
-    expect(read.versions.map((v: { version: number, values: number }) => [v.version, v.values])).toEqual([[2, 45], [1, 43]])
+    expect(read.versions.map((v: { version: number, values: number }) => [v.version, v.values])).toEqual([
+      [2, 45],
+      [1, 43],
+    ])
     expect(read.record.gaps).toEqual([])
     // The generating line rises 6 mm/yr with no curve [practice: the test's own model]; the fit recovers it
     // within two of its standard errors.
@@ -49,7 +55,9 @@ describe('tide-gauge records', () => {
 
   it('gives uploads sent at the same moment versions one after the other', async () => {
     const before = (await planner.get(`/api/sites/${siteId}/gauge-record`)).body.versions[0].version as number
-    const answers = await Promise.all([1, 2, 3].map(() => planner.post(`/api/sites/${siteId}/gauge-record`, { csv: rising() })))
+    const answers = await Promise.all(
+      [1, 2, 3].map(() => planner.post(`/api/sites/${siteId}/gauge-record`, { csv: rising() })),
+    )
     expect(answers.map(answer => answer.status)).toEqual([201, 201, 201])
     expect(answers.map(answer => answer.body.version as number).sort()).toEqual([before + 1, before + 2, before + 3])
   })

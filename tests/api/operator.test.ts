@@ -14,7 +14,8 @@ let operator: ApiClient
 beforeAll(async () => {
   server = await startServer()
   ;[admin, operator] = await Promise.all([
-    ApiClient.signedIn(server.url, ADMIN.email, ADMIN.password), ApiClient.signedIn(server.url, OPERATOR.email, OPERATOR.password),
+    ApiClient.signedIn(server.url, ADMIN.email, ADMIN.password),
+    ApiClient.signedIn(server.url, OPERATOR.email, OPERATOR.password),
   ])
 })
 afterAll(async () => { await server?.stop() })
@@ -23,12 +24,20 @@ const emails = (rows: { email: string }[]) => rows.map(row => row.email)
 
 describe('an organisation\'s admin', () => {
   it('cannot read the mailbox, so cannot take over another organisation\'s account with its reset link', async () => {
-    expect((await new ApiClient(server.url).post('/api/account/password-reset', { email: PORT_PLANNER.email })).status).toBe(202)
+    expect(
+      (await new ApiClient(server.url).post('/api/account/password-reset', { email: PORT_PLANNER.email })).status,
+    ).toBe(202)
     const refused = await admin.get('/api/admin/mailbox')
     expect(refused.status).toBe(403)
     expect(refused.body.message).toBe('This needs the operator role.')
     // The operator reads it on the demo, where it stands in for people's inboxes.
-    await expect.poll(async () => (await operator.get('/api/admin/mailbox')).body.some((m: { to: string[] }) => m.to.includes(PORT_PLANNER.email))).toBe(true)
+    await expect
+      .poll(async () =>
+        (await operator.get('/api/admin/mailbox')).body.some((m: { to: string[] }) =>
+          m.to.includes(PORT_PLANNER.email),
+        ),
+      )
+      .toBe(true)
   })
 
   it('sees and changes only their own organisation\'s people', async () => {
@@ -52,16 +61,35 @@ describe('an organisation\'s admin', () => {
     expect(promote.body.message).toMatch(/^role: Making someone an operator needs the operator role/)
     const theOperator = everyone.find(user => user.email === OPERATOR.email)!
     expect((await admin.patch(`/api/admin/users/${theOperator.id}`, { disabled: true })).status).toBe(403)
-    const invite = await admin.post('/api/admin/invitations', { email: 'second.operator@caldwyn.example', name: 'Second', role: 'operator', organisationId: (await admin.get('/api/me')).body.user.organisationId })
+    const invite = await admin.post('/api/admin/invitations', {
+      email: 'second.operator@caldwyn.example',
+      name: 'Second',
+      role: 'operator',
+      organisationId: (await admin.get('/api/me')).body.user.organisationId,
+    })
     expect(invite.status).toBe(403)
   })
 
   it('reads only their own organisation\'s audit lines', async () => {
-    const port = ((await operator.get('/api/organisations')).body as { id: string, kind: string }[]).find(org => org.kind === 'port')!
+    const port = ((await operator.get('/api/organisations')).body as { id: string, kind: string }[]).find(
+      org => org.kind === 'port',
+    )!
     const email = 'audited@skerrow.example'
-    expect((await operator.post('/api/admin/users', { email, name: 'Audited', role: 'reader', organisationId: port.id, password: 'harbour wall lichen' })).status).toBe(201)
-    const mentions = async (api: ApiClient) => ((await api.get('/api/admin/audit?limit=500')).body as { detail: { email?: string } }[])
-      .some(line => line.detail.email === email)
+    expect(
+      (
+        await operator.post('/api/admin/users', {
+          email,
+          name: 'Audited',
+          role: 'reader',
+          organisationId: port.id,
+          password: 'harbour wall lichen',
+        })
+      ).status,
+    ).toBe(201)
+    const mentions = async (api: ApiClient) =>
+      ((await api.get('/api/admin/audit?limit=500')).body as { detail: { email?: string } }[]).some(
+        line => line.detail.email === email,
+      )
     expect(await mentions(operator)).toBe(true)
     expect(await mentions(admin)).toBe(false)
   })

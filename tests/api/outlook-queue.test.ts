@@ -39,18 +39,35 @@ describe('the outlook queue', () => {
     // The council queues its whole quota of large outlooks, one after another without waiting.
     const backlog: string[] = []
     for (let seed = 1; seed <= QUOTA; seed++) {
-      const queued = await council.post(`/api/sites/${councilSite}/outlooks`, { scenario: 'SSP2-4.5', samples: 1_000_000, seed: 100 + seed, wait: false })
+      const queued = await council.post(`/api/sites/${councilSite}/outlooks`, {
+        scenario: 'SSP2-4.5',
+        samples: 1_000_000,
+        seed: 100 + seed,
+        wait: false,
+      })
       expect(queued.status).toBe(202)
       backlog.push(queued.body.id)
     }
     // One more is refused, saying why and what to do.
-    const refused = await council.post(`/api/sites/${councilSite}/outlooks`, { scenario: 'SSP2-4.5', samples: 1000, seed: 999, wait: false })
+    const refused = await council.post(`/api/sites/${councilSite}/outlooks`, {
+      scenario: 'SSP2-4.5',
+      samples: 1000,
+      seed: 999,
+      wait: false,
+    })
     expect(refused.status).toBe(429)
-    expect(refused.body.message).toBe(`Your organisation already has ${QUOTA} outlooks waiting or computing, the most it may queue at once (${QUOTA}). Wait for one of them to finish, then ask again; stored outlooks open at once.`)
+    expect(refused.body.message).toBe(
+      `Your organisation already has ${QUOTA} outlooks waiting or computing, the most it may queue at once (${QUOTA}). Wait for one of them to finish, then ask again; stored outlooks open at once.`,
+    )
     expect(refused.body.data).toEqual({ waiting: QUOTA, quota: QUOTA })
 
     // The harbour board's small outlook is not held to the council's quota, and goes next.
-    const small = await port.post(`/api/sites/${portSite}/outlooks`, { scenario: 'SSP2-4.5', samples: 2000, seed: 7, wait: false })
+    const small = await port.post(`/api/sites/${portSite}/outlooks`, {
+      scenario: 'SSP2-4.5',
+      samples: 2000,
+      seed: 7,
+      wait: false,
+    })
     expect(small.status).toBe(202)
     const [portRun] = await finished(port, portSite, [small.body.id])
     const councilRuns = await finished(council, councilSite, backlog)
@@ -61,6 +78,9 @@ describe('the outlook queue', () => {
     expect(councilRuns.filter(run => run.done > portRun!.done).length).toBeGreaterThan(0)
 
     // With the backlog done, the council may queue again.
-    expect((await council.post(`/api/sites/${councilSite}/outlooks`, { scenario: 'SSP2-4.5', samples: 1000, seed: 999 })).status).toBe(201)
+    expect(
+      (await council.post(`/api/sites/${councilSite}/outlooks`, { scenario: 'SSP2-4.5', samples: 1000, seed: 999 }))
+        .status,
+    ).toBe(201)
   }, 180_000)
 })

@@ -20,12 +20,17 @@ interface Raw { status: number, headers: IncomingHttpHeaders, body: Buffer }
 function raw(api: ApiClient, path: string, headers: Record<string, string> = {}): Promise<Raw> {
   const { hostname, port } = new URL(server.url)
   return new Promise((resolve, reject) => {
-    const outgoing = httpRequest({ host: hostname, port, path, headers: { accept: 'application/json', cookie: api.cookieHeader(), ...headers } }, (incoming) => {
-      const chunks: Buffer[] = []
-      incoming.on('data', (chunk: Buffer) => chunks.push(chunk))
-      incoming.on('end', () => resolve({ status: incoming.statusCode ?? 0, headers: incoming.headers, body: Buffer.concat(chunks) }))
-      incoming.on('error', reject)
-    })
+    const outgoing = httpRequest(
+      { host: hostname, port, path, headers: { accept: 'application/json', cookie: api.cookieHeader(), ...headers } },
+      (incoming) => {
+        const chunks: Buffer[] = []
+        incoming.on('data', (chunk: Buffer) => chunks.push(chunk))
+        incoming.on('end', () =>
+          resolve({ status: incoming.statusCode ?? 0, headers: incoming.headers, body: Buffer.concat(chunks) }),
+        )
+        incoming.on('error', reject)
+      },
+    )
     outgoing.on('error', reject)
     outgoing.end()
   })
@@ -46,7 +51,10 @@ afterAll(async () => { await server?.stop() })
 
 describe('a finished outlook', () => {
   it('carries the same strong ETag on every read, must be revalidated, and stays private', async () => {
-    const [first, second] = [await raw(reader, `/api/outlooks/${doneId}`), await raw(planner, `/api/outlooks/${doneId}`)]
+    const [first, second] = [
+      await raw(reader, `/api/outlooks/${doneId}`),
+      await raw(planner, `/api/outlooks/${doneId}`),
+    ]
     expect(first.status).toBe(200)
     expect(first.headers.etag).toMatch(/^"[\w-]+"$/)
     expect(second.headers.etag).toBe(first.headers.etag)
@@ -54,9 +62,17 @@ describe('a finished outlook', () => {
     expect(first.headers.vary).toMatch(/accept-encoding/i)
     expect(Number(first.headers['content-length'])).toBe(first.body.length)
     const outlook = JSON.parse(first.body.toString('utf8'))
-    expect(outlook).toMatchObject({ id: doneId, siteId, state: 'done', scenario: 'SSP2-4.5', samples: 20_000, seed: 31 })
+    expect(outlook).toMatchObject({
+      id: doneId,
+      siteId,
+      state: 'done',
+      scenario: 'SSP2-4.5',
+      samples: 20_000,
+      seed: 31,
+    })
     // The lease and the live fields are not part of the stored outlook.
-    for (const field of ['claimedBy', 'leaseUntil', 'attempts', 'progress', 'siteName', 'newerScience', 'storylines']) expect(outlook).not.toHaveProperty(field)
+    for (const field of ['claimedBy', 'leaseUntil', 'attempts', 'progress', 'siteName', 'newerScience', 'storylines'])
+      expect(outlook).not.toHaveProperty(field)
   })
 
   it('answers 304 with no body when the reader has it, and 200 when the ETag is another', async () => {
@@ -66,7 +82,9 @@ describe('a finished outlook', () => {
     expect(again.body.length).toBe(0)
     expect(again.headers.etag).toBe(headers.etag)
     // A list and a weak form of the same tag match too (If-None-Match compares weakly).
-    expect((await raw(planner, `/api/outlooks/${doneId}`, { 'if-none-match': `"other", W/${headers.etag}` })).status).toBe(304)
+    expect(
+      (await raw(planner, `/api/outlooks/${doneId}`, { 'if-none-match': `"other", W/${headers.etag}` })).status,
+    ).toBe(304)
     const changed = await raw(planner, `/api/outlooks/${doneId}`, { 'if-none-match': '"not-this-one"' })
     expect(changed.status).toBe(200)
     expect(changed.body.length).toBeGreaterThan(1000)
@@ -79,7 +97,9 @@ describe('a finished outlook', () => {
     expect(foreign.headers.etag).toBeUndefined()
     expect(JSON.parse(foreign.body.toString('utf8')).message).toBe('No such outlook.')
     expect((await raw(port, `/api/outlooks/${doneId}/status`)).status).toBe(404)
-    expect((await raw(new ApiClient(server.url), `/api/outlooks/${doneId}`, { 'if-none-match': headers.etag! })).status).toBe(401)
+    expect(
+      (await raw(new ApiClient(server.url), `/api/outlooks/${doneId}`, { 'if-none-match': headers.etag! })).status,
+    ).toBe(401)
   })
 
   it('is gzip-encoded for a reader that accepts it, the same JSON once decompressed, with its own ETag', async () => {
@@ -91,10 +111,17 @@ describe('a finished outlook', () => {
     expect(zipped.body.length).toBeLessThan(plain.body.length / 2)
     expect(gunzipSync(zipped.body).equals(plain.body)).toBe(true)
     expect(zipped.headers.etag).not.toBe(plain.headers.etag)
-    const revalidated = await raw(planner, `/api/outlooks/${doneId}`, { 'accept-encoding': 'gzip', 'if-none-match': zipped.headers.etag! })
+    const revalidated = await raw(planner, `/api/outlooks/${doneId}`, {
+      'accept-encoding': 'gzip',
+      'if-none-match': zipped.headers.etag!,
+    })
     expect(revalidated.status).toBe(304)
     // Refused gzip (q=0) is not sent gzip.
-    expect((await raw(planner, `/api/outlooks/${doneId}`, { 'accept-encoding': 'gzip;q=0, identity' })).headers['content-encoding']).toBeUndefined()
+    expect(
+      (await raw(planner, `/api/outlooks/${doneId}`, { 'accept-encoding': 'gzip;q=0, identity' })).headers[
+        'content-encoding'
+      ],
+    ).toBeUndefined()
   })
 
   it('has a status with its site, science and storylines, for any member of the organisation', async () => {
@@ -117,7 +144,12 @@ describe('a finished outlook', () => {
 
 describe('a running outlook', () => {
   it('has no ETag and is never kept, and its status reports progress until it is done', async () => {
-    const queued = await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 2_000_000, seed: 32, wait: false })
+    const queued = await planner.post(`/api/sites/${siteId}/outlooks`, {
+      scenario: 'SSP2-4.5',
+      samples: 2_000_000,
+      seed: 32,
+      wait: false,
+    })
     expect(queued.status).toBe(202)
     const running = await raw(planner, `/api/outlooks/${queued.body.id}`)
     expect(JSON.parse(running.body.toString('utf8'))).toMatchObject({ state: 'running', result: null })

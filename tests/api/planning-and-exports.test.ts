@@ -19,7 +19,12 @@ const SITE = {
   thresholds: [{ label: 'Quay edge', height: 2.0 }, { label: '=HYPERLINK("http://example.invalid")', height: 2.6 }],
 }
 
-interface Listed { id: string, name: string, planning: { scenario: string, tolerance: number }, planningOutlook: { id: string, scenario: string, headline: { probability: number } | null } | null }
+interface Listed {
+  id: string
+  name: string
+  planning: { scenario: string, tolerance: number }
+  planningOutlook: { id: string, scenario: string, headline: { probability: number } | null } | null
+}
 
 /** Parses the CSV the app writes (RFC 4180 quoting, CRLF rows). */
 function parseCsv(text: string): string[][] {
@@ -51,9 +56,11 @@ beforeAll(async () => {
   planner = await as(PLANNER.email, PLANNER.password)
   reader = await as(READER.email, READER.password)
   siteId = (await planner.post('/api/sites', SITE)).body.id
-  moderate = (await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 7 })).body.id
+  moderate = (await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 7 }))
+    .body.id
   // The higher scenario runs last: before planning scenarios, the list would have switched to it.
-  high = (await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP5-8.5', samples: 20_000, seed: 7 })).body.id
+  high = (await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP5-8.5', samples: 20_000, seed: 7 })).body
+    .id
 })
 afterAll(async () => { await server?.stop() })
 
@@ -68,11 +75,16 @@ describe('the planning scenario', () => {
     expect((await listed(reader)).planningOutlook?.id).toBe(moderate)
     // The demo port plans for the high scenario.
     const port = await as(PORT_PLANNER.email, PORT_PLANNER.password)
-    expect(((await port.get('/api/sites')).body as Listed[]).find(s => s.name === 'Skerrow Quay')!.planning.scenario).toBe('SSP5-8.5')
+    expect(
+      ((await port.get('/api/sites')).body as Listed[]).find(s => s.name === 'Skerrow Quay')!.planning.scenario,
+    ).toBe('SSP5-8.5')
   })
 
   it('is chosen by the planners in the site form and switches the headline to that scenario', async () => {
-    const saved = await planner.patch(`/api/sites/${siteId}`, { ...SITE, planning: { scenario: 'SSP5-8.5', tolerance: 0.05 } })
+    const saved = await planner.patch(`/api/sites/${siteId}`, {
+      ...SITE,
+      planning: { scenario: 'SSP5-8.5', tolerance: 0.05 },
+    })
     expect(saved.status).toBe(200)
     const site = await listed()
     expect(site.planning).toEqual({ scenario: 'SSP5-8.5', tolerance: 0.05 })
@@ -87,7 +99,11 @@ describe('the planning scenario', () => {
   })
 
   it.each([
-    ['a tolerance the engine gives no trigger year for', { scenario: 'SSP2-4.5', tolerance: 0.2 }, /^planning\.tolerance: Choose one of: 1 %, 5 %, 10 %, 33 %, 50 %\./],
+    [
+      'a tolerance the engine gives no trigger year for',
+      { scenario: 'SSP2-4.5', tolerance: 0.2 },
+      /^planning\.tolerance: Choose one of: 1 %, 5 %, 10 %, 33 %, 50 %\./,
+    ],
     ['a scenario name with markup', { scenario: '<b>x</b>', tolerance: 0.1 }, /^planning\.scenario: /],
   ])('refuses %s, naming the field, and changes nothing', async (_name, planning, message) => {
     const response = await planner.patch(`/api/sites/${siteId}`, { ...SITE, planning })
@@ -103,7 +119,9 @@ describe('exports', () => {
     const response = await reader.fetchRaw(`/api/outlooks/${moderate}/csv`)
     expect(response.status).toBe(200)
     expect(response.headers.get('content-type')).toMatch(/^text\/csv/)
-    expect(response.headers.get('content-disposition')).toMatch(/^attachment; filename="brinkwater-planning-point-ssp2-4.5-[0-9a-f]{8}\.csv"$/)
+    expect(response.headers.get('content-disposition')).toMatch(
+      /^attachment; filename="brinkwater-planning-point-ssp2-4.5-[0-9a-f]{8}\.csv"$/,
+    )
     const rows = parseCsv(await response.text())
     const value = (key: string) => rows.find(r => r[0] === key)?.[1]
     expect(value('scenario')).toBe('SSP2-4.5')
@@ -112,17 +130,28 @@ describe('exports', () => {
     expect(value('mean sea level at the reference epoch above the datum (m)')).toBe('1.500')
     expect(value('reference epoch')).toBe('2020')
     expect(value('input hash')).toBe(stored.inputHash)
-    for (const ref of stored.releaseRefs as { component: string, version: number }[]) expect(rows.find(r => r[0] === `release ${ref.component}`)?.[1]).toBe(`v${ref.version}`)
+    for (const ref of stored.releaseRefs as { component: string, version: number }[])
+      expect(rows.find(r => r[0] === `release ${ref.component}`)?.[1]).toBe(`v${ref.version}`)
 
     // Years × percentiles: each within half a millimetre of the stored value [practice: rounding to 0.001 m].
     const header = rows.findIndex(r => r[0] === 'year')
     const levels = stored.result.percentileLevels as number[]
     expect(rows[header]).toEqual(['year', 'mean (m)', ...levels.map(l => `p${Math.round(l * 100)} (m)`)])
-    for (const [i, year] of (stored.result.byYear as { year: number, mean: { value: number }, percentiles: { level: number, value: number }[] }[]).entries()) {
+    for (const [i, year] of (
+      stored.result.byYear as {
+        year: number
+        mean: { value: number }
+        percentiles: { level: number, value: number }[]
+      }[]
+    ).entries()) {
       const row = rows[header + 1 + i]!
       expect(Number(row[0])).toBe(year.year)
       expect(Math.abs(Number(row[1]) - year.mean.value)).toBeLessThanOrEqual(0.0005)
-      levels.forEach((level, j) => expect(Math.abs(Number(row[2 + j]) - year.percentiles.find(p => p.level === level)!.value)).toBeLessThanOrEqual(0.0005))
+      levels.forEach((level, j) =>
+        expect(Math.abs(Number(row[2 + j]) - year.percentiles.find(p => p.level === level)!.value)).toBeLessThanOrEqual(
+          0.0005,
+        ),
+      )
     }
     // Thresholds × chances: heights above the datum (2.0 m as entered), chances as stored.
     const quay = rows.filter(r => r[0] === 'Quay edge')
@@ -147,9 +176,19 @@ describe('exports', () => {
     const feature = collection.features.find((f: { id: string }) => f.id === siteId)
     expect(feature.geometry).toEqual({ type: 'Point', coordinates: [-34.61, 47.81] })
     const stored = (await planner.get(`/api/outlooks/${moderate}`)).body
-    expect(feature.properties).toMatchObject({ name: 'Planning Point', planningScenario: 'SSP2-4.5', planningTolerance: 0.1, outlookId: moderate, headlineThreshold: 'Quay edge', headlineHeightAboveDatumM: 2, headlineYear: 2100 })
+    expect(feature.properties).toMatchObject({
+      name: 'Planning Point',
+      planningScenario: 'SSP2-4.5',
+      planningTolerance: 0.1,
+      outlookId: moderate,
+      headlineThreshold: 'Quay edge',
+      headlineHeightAboveDatumM: 2,
+      headlineYear: 2100,
+    })
     expect(Math.abs(feature.properties.headlineChance - stored.headline.probability)).toBeLessThanOrEqual(0.00005)
-    const trigger = stored.result.thresholds[0].triggerYears.find((t: { tolerance: number }) => t.tolerance === 0.1).year
+    const trigger = stored.result.thresholds[0].triggerYears.find(
+      (t: { tolerance: number }) => t.tolerance === 0.1,
+    ).year
     expect(feature.properties.triggerYearAtTolerance).toBe(trigger)
     // Only the caller's organisation's sites.
     const names = collection.features.map((f: { properties: { name: string } }) => f.properties.name)

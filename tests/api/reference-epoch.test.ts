@@ -15,15 +15,26 @@ async function outlookComputedIn(year: number) {
   const server = await startServer({ BRINKWATER_FAKE_YEAR: String(year), NODE_OPTIONS: FAKE_CLOCK })
   servers.push(server)
   const planner = await ApiClient.signedIn(server.url, PLANNER.email, PLANNER.password)
-  const site = (await planner.post('/api/sites', {
-    ...SITE_BODY('Calendar Point'),
-    gumbel: { location: 1.5, scale: 0.12 },
-    thresholds: [{ label: 'Quay', height: 0.5 }, { label: 'Wall', height: 2.2, kind: 'flood-level', buildYear: 2030, designLifeYears: 40 }],
-  })).body
-  const started = await planner.post(`/api/sites/${site.id}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 11 })
+  const site = (
+    await planner.post('/api/sites', {
+      ...SITE_BODY('Calendar Point'),
+      gumbel: { location: 1.5, scale: 0.12 },
+      thresholds: [
+        { label: 'Quay', height: 0.5 },
+        { label: 'Wall', height: 2.2, kind: 'flood-level', buildYear: 2030, designLifeYears: 40 },
+      ],
+    })
+  ).body
+  const started = await planner.post(`/api/sites/${site.id}/outlooks`, {
+    scenario: 'SSP2-4.5',
+    samples: 20_000,
+    seed: 11,
+  })
   const outlook = (await planner.get(`/api/outlooks/${started.body.id}`)).body
   // Threshold ids are made by each server's database; name them by position to compare the two.
-  const ids: string[] = site.thresholds?.map((t: { id: string }) => t.id) ?? (await planner.get(`/api/sites/${site.id}`)).body.thresholds.map((t: { id: string }) => t.id)
+  const ids: string[]
+    = site.thresholds?.map((t: { id: string }) => t.id)
+      ?? (await planner.get(`/api/sites/${site.id}`)).body.thresholds.map((t: { id: string }) => t.id)
   const named = (json: string) => ids.reduce((text, id, i) => text.replaceAll(id, `threshold-${i}`), json)
   return { ...outlook, input: named(JSON.stringify(outlook.input)), result: named(JSON.stringify(outlook.result)) }
 }

@@ -6,7 +6,13 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient } from '../support/client'
 import { PLANNER } from '../support/demo-users'
 import { SITE_BODY } from '../support/matrix-fixtures'
-import { createTestDatabase, startServer, TEST_DATABASE_URL, type RunningServer, type TestDatabase } from '../support/server'
+import {
+  createTestDatabase,
+  startServer,
+  TEST_DATABASE_URL,
+  type RunningServer,
+  type TestDatabase,
+} from '../support/server'
 
 // Two server starts on a file database (PGlite's first open creates it): generous on a busy machine.
 const RESTART_TIMEOUT = 180_000

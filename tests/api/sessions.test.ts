@@ -60,9 +60,23 @@ describe('ending sessions', () => {
     const older = await resetLink(READER.email)
     const newer = await resetLink(READER.email)
     // Asking for a new link voided the older one.
-    expect((await new ApiClient(server.url).post('/api/account/password-reset/complete', { token: older, password: 'kelp rope harbour lantern' })).status).toBe(404)
+    expect(
+      (
+        await new ApiClient(server.url).post('/api/account/password-reset/complete', {
+          token: older,
+          password: 'kelp rope harbour lantern',
+        })
+      ).status,
+    ).toBe(404)
 
-    expect((await new ApiClient(server.url).post('/api/account/password-reset/complete', { token: newer, password: 'kelp rope harbour lantern' })).status).toBe(200)
+    expect(
+      (
+        await new ApiClient(server.url).post('/api/account/password-reset/complete', {
+          token: newer,
+          password: 'kelp rope harbour lantern',
+        })
+      ).status,
+    ).toBe(200)
     expect((await reader.get('/api/me')).status).toBe(401)
     expect((await stolen('GET', '/api/me')).status).toBe(401)
     await ApiClient.signedIn(server.url, READER.email, 'kelp rope harbour lantern')
@@ -72,7 +86,13 @@ describe('ending sessions', () => {
     const operator = await ApiClient.signedIn(server.url, OPERATOR.email, OPERATOR.password)
     const email = 'sessions.person@caldwyn.example'
     const organisationId = (await operator.get('/api/me')).body.user.organisationId
-    const created = await operator.post('/api/admin/users', { email, name: 'Session Person', role: 'reader', organisationId, password: 'harbour wall lichen' })
+    const created = await operator.post('/api/admin/users', {
+      email,
+      name: 'Session Person',
+      role: 'reader',
+      organisationId,
+      password: 'harbour wall lichen',
+    })
     expect(created.status).toBe(201)
     const person = await ApiClient.signedIn(server.url, email, 'harbour wall lichen')
     const stolen = copyOf(person)

@@ -14,7 +14,10 @@ let analyst: ApiClient
 let reviewer: ApiClient
 
 interface Storyline { id: string, name: string, illustrative: boolean, rises: { year: number, rise: number }[] }
-interface Outlook { inputHash: string, result: { years: number[], byYear: { year: number, percentiles: { level: number, value: number }[] }[] } }
+interface Outlook {
+  inputHash: string
+  result: { years: number[], byYear: { year: number, percentiles: { level: number, value: number }[] }[] }
+}
 
 beforeAll(async () => {
   server = await startServer()
@@ -57,11 +60,17 @@ describe('high-end storylines', () => {
   it('is reviewed like a release, and publishing one changes no outlook', async () => {
     const before = await kelwickOutlook('SSP2-4.5')
     const operator = await ApiClient.signedIn(server.url, OPERATOR.email, OPERATOR.password)
-    const recomputations = async () => ((await operator.get('/api/admin/recomputations')).body.recomputations as unknown[]).length
+    const recomputations = async () =>
+      ((await operator.get('/api/admin/recomputations')).body.recomputations as unknown[]).length
     const queuedBefore = await recomputations()
     const draft = await analyst.post('/api/storylines', {
-      scenario: 'SSP2-4.5', name: 'Fast Greenland melt (test)', description: 'Greenland outlet glaciers speed up.', baselineYear: 2020,
-      anchorYears: [2050, 2100], values: { greenland: [0.1, 0.6] }, ...PROVENANCE,
+      scenario: 'SSP2-4.5',
+      name: 'Fast Greenland melt (test)',
+      description: 'Greenland outlet glaciers speed up.',
+      baselineYear: 2020,
+      anchorYears: [2050, 2100],
+      values: { greenland: [0.1, 0.6] },
+      ...PROVENANCE,
     })
     expect(draft.status).toBe(201)
     expect((await analyst.post(`/api/storylines/${draft.body.id}/submit`)).status).toBe(200)
@@ -82,12 +91,24 @@ describe('high-end storylines', () => {
 
   it('refuses values that do not match the anchor years, naming the field', async () => {
     const response = await analyst.post('/api/storylines', {
-      scenario: 'SSP2-4.5', name: 'Broken', description: 'x', baselineYear: 2020, anchorYears: [2050, 2100], values: { antarctica: [0.5] }, ...PROVENANCE,
+      scenario: 'SSP2-4.5',
+      name: 'Broken',
+      description: 'x',
+      baselineYear: 2020,
+      anchorYears: [2050, 2100],
+      values: { antarctica: [0.5] },
+      ...PROVENANCE,
     })
     expect(response.status).toBe(400)
     expect(response.body.message).toMatch(/^values\.antarctica: Give one value per anchor year \(2\)\./)
     const none = await analyst.post('/api/storylines', {
-      scenario: 'SSP2-4.5', name: 'Empty', description: 'x', baselineYear: 2020, anchorYears: [2100], values: {}, ...PROVENANCE,
+      scenario: 'SSP2-4.5',
+      name: 'Empty',
+      description: 'x',
+      baselineYear: 2020,
+      anchorYears: [2100],
+      values: {},
+      ...PROVENANCE,
     })
     expect(none.status).toBe(400)
     expect(none.body.message).toMatch(/^values: Name at least one component/)

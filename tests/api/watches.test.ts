@@ -32,7 +32,17 @@ async function publishGlaciers(mean2100: number) {
   const analyst = await as(ANALYST.email, ANALYST.password)
   const reviewer = await as(REVIEWER.email, REVIEWER.password)
   const [current] = (await analyst.get('/api/releases?component=glaciers&scenario=SSP2-4.5&state=published')).body
-  const draft = await analyst.post('/api/releases', { seriesId: current.seriesId, form: 'normal', baselineYear: 2020, anchorYears: [2050, 2100, 2150], mean: [0.06, mean2100, mean2100 * 1.4], sd: [0.01, 0.03, 0.04], method: 'm', citation: `Glaciers revised (${mean2100})`, licence: 'l' })
+  const draft = await analyst.post('/api/releases', {
+    seriesId: current.seriesId,
+    form: 'normal',
+    baselineYear: 2020,
+    anchorYears: [2050, 2100, 2150],
+    mean: [0.06, mean2100, mean2100 * 1.4],
+    sd: [0.01, 0.03, 0.04],
+    method: 'm',
+    citation: `Glaciers revised (${mean2100})`,
+    licence: 'l',
+  })
   await analyst.post(`/api/releases/${draft.body.id}/submit`)
   await reviewer.post(`/api/releases/${draft.body.id}/approve`)
   return draft.body.id
@@ -44,8 +54,11 @@ beforeAll(async () => {
   planner = await as(PLANNER.email, PLANNER.password)
   siteId = (await planner.get('/api/sites')).body.find((s: { name: string }) => s.name === 'Fennmouth').id
   const thresholdIds = (await planner.get(`/api/sites/${siteId}`)).body.thresholds.map((t: { id: string }) => t.id)
-  outlookId = (await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 4 })).body.id
-  const briefing = (await planner.post('/api/briefings', { outlookId, title: 'Fennmouth to 2100', thresholdIds, years: [2050, 2100] })).body
+  outlookId = (await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 4 }))
+    .body.id
+  const briefing = (
+    await planner.post('/api/briefings', { outlookId, title: 'Fennmouth to 2100', thresholdIds, years: [2050, 2100] })
+  ).body
   await planner.post(`/api/briefings/${briefing.id}/issue`)
   shareToken = (await planner.post(`/api/briefings/${briefing.id}/share`)).body.shareToken
 })
@@ -58,7 +71,9 @@ describe('watching a site by e-mail', () => {
   it('confirms by e-mail (double opt-in), once, with an unsubscribe link and one-click headers', async () => {
     const mail = await watch('councillor@example.org')
     expect(mail.subject).toBe('Confirm that you want to watch Fennmouth')
-    expect(rawHeader(mail, 'List-Unsubscribe')).toMatch(new RegExp(`^<${server.url}/api/watches/unsubscribe\\?token=[\\w-]+>$`))
+    expect(rawHeader(mail, 'List-Unsubscribe')).toMatch(
+      new RegExp(`^<${server.url}/api/watches/unsubscribe\\?token=[\\w-]+>$`),
+    )
     expect(rawHeader(mail, 'List-Unsubscribe-Post')).toBe('List-Unsubscribe=One-Click')
     expect(mail.html).toContain('Confirm the watch')
 
@@ -88,18 +103,30 @@ describe('watching a site by e-mail', () => {
     expect(spanish.subject).toBe('Cambió la perspectiva del nivel del mar para Fennmouth')
 
     // The numbers are those of the stored outlooks before and after the new release.
-    const outlooks = (await planner.get(`/api/sites/${siteId}/outlooks`)).body.filter((o: { scenario: string, seed: number }) => o.scenario === 'SSP2-4.5' && o.seed === 4)
+    const outlooks = (await planner.get(`/api/sites/${siteId}/outlooks`)).body.filter(
+      (o: { scenario: string, seed: number }) => o.scenario === 'SSP2-4.5' && o.seed === 4,
+    )
     const after = (await planner.get(`/api/outlooks/${outlooks[0].id}`)).body
     expect(after.releaseRefs.find((r: { component: string }) => r.component === 'glaciers').releaseId).toBe(releaseId)
     const year = after.result.years.indexOf(2100)
     // The railway embankment is a flood level: its number is the chance the water reaches it in that year.
-    const chance = (o: { result: { thresholds: { flood: { annualChance: { value: number }[] } }[] } }) => formatChance(o.result.thresholds[1]!.flood.annualChance[year]!.value, 'en')
-    expect(english.text).toContain(`Railway embankment (1.90 m, flood level: chance the water reaches it that year, SSP2-4.5)  |  2100  |  ${chance(before)}  |  ${chance(after)}`)
+    const chance = (o: { result: { thresholds: { flood: { annualChance: { value: number }[] } }[] } }) =>
+      formatChance(o.result.thresholds[1]!.flood.annualChance[year]!.value, 'en')
+    expect(english.text).toContain(
+      `Railway embankment (1.90 m, flood level: chance the water reaches it that year, SSP2-4.5)  |  2100  |  ${chance(before)}  |  ${chance(after)}`,
+    )
     expect(english.text).toMatch(/Glaciers \(SSP2-4\.5\) {2}\| {2}v1 {2}\| {2}v2 {2}\| {2}Glaciers revised \(0\.16\)/)
     expect(english.text).toMatch(new RegExp(`Read the latest briefing: ${server.url}/shared/${shareToken}`))
     expect(spanish.text).toContain('La probabilidad para cada umbral')
 
-    await expect.poll(async () => (await (await as(OPERATOR.email, OPERATOR.password)).get('/api/admin/outbox')).body.messages.filter((m: { state: string }) => m.state === 'queued').length).toBe(0)
+    await expect
+      .poll(
+        async () =>
+          (await (await as(OPERATOR.email, OPERATOR.password)).get('/api/admin/outbox')).body.messages.filter(
+            (m: { state: string }) => m.state === 'queued',
+          ).length,
+      )
+      .toBe(0)
     expect(smtp.to('councillor@example.org').filter(m => /has changed/.test(m.subject ?? ''))).toHaveLength(1)
     expect(smtp.to('vecina@example.org').filter(m => /Cambió/.test(m.subject ?? ''))).toHaveLength(1)
   })
@@ -111,23 +138,43 @@ describe('watching a site by e-mail', () => {
     const described = async () => (await fetch(link)).json()
     expect(await described()).toEqual({ site: 'Fennmouth', email: 'councillor@example.org', stopped: false })
     expect(await described()).toEqual({ site: 'Fennmouth', email: 'councillor@example.org', stopped: false })
-    const response = await fetch(link, { method: 'POST', body: 'List-Unsubscribe=One-Click', headers: { 'content-type': 'application/x-www-form-urlencoded' } })
+    const response = await fetch(link, {
+      method: 'POST',
+      body: 'List-Unsubscribe=One-Click',
+      headers: { 'content-type': 'application/x-www-form-urlencoded' },
+    })
     expect(response.status).toBe(200)
     expect(await described()).toEqual({ site: 'Fennmouth', email: 'councillor@example.org', stopped: true })
 
     await publishGlaciers(0.17)
     await smtp.next(m => isTo('vecina@example.org')(m) && /Cambió/.test(m.subject ?? '') && /0\.17/.test(m.text ?? ''))
-    await expect.poll(async () => (await (await as(OPERATOR.email, OPERATOR.password)).get('/api/admin/outbox')).body.messages.filter((m: { state: string }) => m.state === 'queued').length).toBe(0)
+    await expect
+      .poll(
+        async () =>
+          (await (await as(OPERATOR.email, OPERATOR.password)).get('/api/admin/outbox')).body.messages.filter(
+            (m: { state: string }) => m.state === 'queued',
+          ).length,
+      )
+      .toBe(0)
     expect(smtp.to('councillor@example.org').filter(m => /has changed/.test(m.subject ?? ''))).toHaveLength(1)
   })
 
   it.each([
     ['a malformed address', { email: 'not-an-address' }, 400, /^email: Enter a valid e-mail address/],
     ['an unknown share link', { shareToken: 'x'.repeat(32) }, 404, /does not open a briefing/],
-    ['a site id without signing in', { siteId: '00000000-0000-4000-8000-000000000000', shareToken: undefined }, 401, /Sign in to watch a site/],
+    [
+      'a site id without signing in',
+      { siteId: '00000000-0000-4000-8000-000000000000', shareToken: undefined },
+      401,
+      /Sign in to watch a site/,
+    ],
   ])('refuses %s with a clear message and sends nothing', async (_name, overrides, status, message) => {
     const sent = smtp.messages.length
-    const response = await new ApiClient(server.url).post('/api/watches', { shareToken, email: 'someone@example.org', ...overrides })
+    const response = await new ApiClient(server.url).post('/api/watches', {
+      shareToken,
+      email: 'someone@example.org',
+      ...overrides,
+    })
     expect(response.status).toBe(status)
     expect(response.body.message).toMatch(message)
     expect(smtp.messages.length).toBe(sent)
@@ -141,7 +188,10 @@ describe('watching a site by e-mail', () => {
 
   it('limits watch requests per address', async () => {
     const statuses: number[] = []
-    for (let i = 0; i < 6; i++) statuses.push((await new ApiClient(server.url).post('/api/watches', { shareToken, email: 'eager@example.org' })).status)
+    for (let i = 0; i < 6; i++)
+      statuses.push(
+        (await new ApiClient(server.url).post('/api/watches', { shareToken, email: 'eager@example.org' })).status,
+      )
     expect(statuses).toEqual([202, 202, 202, 202, 202, 429])
   })
 })
@@ -150,22 +200,40 @@ describe('a watch made from a shared briefing\'s link', () => {
   async function shareBriefing(body: Record<string, unknown>) {
     const briefing = (await planner.post('/api/briefings', body)).body
     expect((await planner.post(`/api/briefings/${briefing.id}/issue`)).status).toBe(200)
-    return { id: briefing.id as string, token: (await planner.post(`/api/briefings/${briefing.id}/share`)).body.shareToken as string }
+    return {
+      id: briefing.id as string,
+      token: (await planner.post(`/api/briefings/${briefing.id}/share`)).body.shareToken as string,
+    }
   }
   async function watchThrough(token: string, email: string) {
     expect((await new ApiClient(server.url).post('/api/watches', { shareToken: token, email })).status).toBe(202)
     const mail = await smtp.next(m => isTo(email)(m) && /Confirm/.test(m.subject ?? ''))
     expect((await confirm(mail)).status).toBe(200)
   }
-  const queuedMail = async () => (await (await as(OPERATOR.email, OPERATOR.password)).get('/api/admin/outbox')).body.messages.filter((m: { state: string }) => m.state === 'queued').length
+  const queuedMail = async () =>
+    (await (await as(OPERATOR.email, OPERATOR.password)).get('/api/admin/outbox')).body.messages.filter(
+      (m: { state: string }) => m.state === 'queued',
+    ).length
 
   it('is told only what that briefing showed, and stops with one e-mail when the link is revoked', async () => {
     const [gateSill] = (await planner.get(`/api/sites/${siteId}`)).body.thresholds as { id: string, label: string }[]
     expect(gateSill!.label).toBe('Flood gate sill')
     // One briefing shows SSP2-4.5, the flood gate sill only, in 2050 only; another shows SSP5-8.5 only.
-    const narrow = await shareBriefing({ outlookId, title: 'Fennmouth gate sill by 2050', thresholdIds: [gateSill!.id], years: [2050] })
-    const highOutlook = (await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP5-8.5', samples: 20_000, seed: 4 })).body.id
-    const high = await shareBriefing({ outlookId: highOutlook, title: 'Fennmouth under SSP5-8.5', thresholdIds: [gateSill!.id], years: [2100] })
+    const narrow = await shareBriefing({
+      outlookId,
+      title: 'Fennmouth gate sill by 2050',
+      thresholdIds: [gateSill!.id],
+      years: [2050],
+    })
+    const highOutlook = (
+      await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP5-8.5', samples: 20_000, seed: 4 })
+    ).body.id
+    const high = await shareBriefing({
+      outlookId: highOutlook,
+      title: 'Fennmouth under SSP5-8.5',
+      thresholdIds: [gateSill!.id],
+      years: [2100],
+    })
     await watchThrough(narrow.token, 'narrow@example.org')
     await watchThrough(high.token, 'other-scenario@example.org')
 
@@ -204,11 +272,19 @@ describe('a watch made from a shared briefing\'s link', () => {
 describe('an address the mail server refuses for good', () => {
   it('fails at once (no retries for hours), leaves health ok, and its watch sends nothing more', async () => {
     smtp.refuse('nobody-here@example.org')
-    expect((await new ApiClient(server.url).post('/api/watches', { shareToken, email: 'nobody-here@example.org' })).status).toBe(202)
+    expect(
+      (await new ApiClient(server.url).post('/api/watches', { shareToken, email: 'nobody-here@example.org' })).status,
+    ).toBe(202)
     const operator = await as(OPERATOR.email, OPERATOR.password)
-    const message = async () => (await operator.get('/api/admin/outbox')).body.messages.find((m: { to: string }) => m.to === 'nobody-here@example.org')
+    const message = async () =>
+      (await operator.get('/api/admin/outbox')).body.messages.find(
+        (m: { to: string }) => m.to === 'nobody-here@example.org',
+      )
     await expect.poll(async () => (await message())?.state, { timeout: 20_000 }).toBe('failed')
-    expect(await message()).toMatchObject({ attempts: 1, lastError: expect.stringMatching(/^The mail server refused this address for good: .*550/) })
+    expect(await message()).toMatchObject({
+      attempts: 1,
+      lastError: expect.stringMatching(/^The mail server refused this address for good: .*550/),
+    })
     expect(smtp.triesOf('nobody-here@example.org')).toBe(1)
     const health = (await new ApiClient(server.url).get('/api/health')).body
     expect(health.status).toBe('ok')
@@ -222,7 +298,12 @@ describe('a mail server that is down loses nothing', () => {
 
   beforeAll(async () => {
     outage = await new TestSmtp().start()
-    faulty = await startServer({ SMTP_URL: outage.url, MAIL_POLL_MS: '100', MAIL_RETRY_BASE_MS: '100', WATCH_CONFIRM_HOURS: '0' })
+    faulty = await startServer({
+      SMTP_URL: outage.url,
+      MAIL_POLL_MS: '100',
+      MAIL_RETRY_BASE_MS: '100',
+      WATCH_CONFIRM_HOURS: '0',
+    })
   })
   afterAll(async () => {
     await faulty?.stop()
@@ -241,12 +322,22 @@ describe('a mail server that is down loses nothing', () => {
     }
     const admin = new ApiClient(faulty.url)
     await admin.signIn(OPERATOR.email, OPERATOR.password)
-    await expect.poll(async () => (await admin.get('/api/admin/outbox')).body.messages.every((m: { attempts: number, lastError: string | null, state: string }) => m.state === 'queued' && m.attempts >= 1 && m.lastError)).toBe(true)
+    await expect
+      .poll(async () =>
+        (await admin.get('/api/admin/outbox')).body.messages.every(
+          (m: { attempts: number, lastError: string | null, state: string }) =>
+            m.state === 'queued' && m.attempts >= 1 && m.lastError,
+        ),
+      )
+      .toBe(true)
 
     await outage.start(port)
     await Promise.all(['a@example.org', 'b@example.org', 'c@example.org'].map(address => outage.next(isTo(address))))
-    await expect.poll(async () => (await admin.get('/api/admin/outbox')).body.messages.map((m: { state: string }) => m.state)).toEqual(['sent', 'sent', 'sent'])
-    for (const address of ['a@example.org', 'b@example.org', 'c@example.org']) expect(outage.to(address)).toHaveLength(1)
+    await expect
+      .poll(async () => (await admin.get('/api/admin/outbox')).body.messages.map((m: { state: string }) => m.state))
+      .toEqual(['sent', 'sent', 'sent'])
+    for (const address of ['a@example.org', 'b@example.org', 'c@example.org'])
+      expect(outage.to(address)).toHaveLength(1)
   })
 
   it('refuses an expired confirmation link with 410', async () => {

@@ -4,7 +4,15 @@ import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { Worker } from 'node:worker_threads'
 import { buildSync } from 'esbuild'
-import { claimFromCounter, finishOutlook, mergePartials, runClaimedBlocks, type OutlookPartial, type OutlookPlan, type OutlookResult } from '../../shared/engine'
+import {
+  claimFromCounter,
+  finishOutlook,
+  mergePartials,
+  runClaimedBlocks,
+  type OutlookPartial,
+  type OutlookPlan,
+  type OutlookResult,
+} from '../../shared/engine'
 
 /**
  * A worker keeps its sampling scratch between requests; what it still allocates per request (the plan
@@ -18,11 +26,19 @@ const WORKER_OPTIONS = { resourceLimits: { maxYoungGenerationSizeMb: 16 } }
  * The worker script, bundled with the engine by esbuild as the server's is (`modules/outlook-worker.ts`).
  * Loading TypeScript through tsx in each thread instead cost about 50 MB of RSS per thread.
  */
-function bundleWorker(): { file: string; remove: () => void } {
+function bundleWorker(): { file: string, remove: () => void } {
   const folder = mkdtempSync(join(tmpdir(), 'brinkwater-bench-'))
   const file = join(folder, 'worker.mjs')
   const entry = fileURLToPath(new URL('./worker.ts', import.meta.url))
-  buildSync({ entryPoints: [entry], outfile: file, bundle: true, platform: 'node', format: 'esm', target: 'node20', logLevel: 'warning' })
+  buildSync({
+    entryPoints: [entry],
+    outfile: file,
+    bundle: true,
+    platform: 'node',
+    format: 'esm',
+    target: 'node20',
+    logLevel: 'warning',
+  })
   return { file, remove: () => rmSync(folder, { recursive: true, force: true }) }
 }
 
@@ -34,7 +50,7 @@ export interface PoolRequest {
   nextBlock: Int32Array
 }
 
-export type PoolReply = { partial: OutlookPartial; error?: undefined } | { error: string; partial?: undefined }
+export type PoolReply = { partial: OutlookPartial, error?: undefined } | { error: string, partial?: undefined }
 
 /**
  * A small persistent pool. Every thread of a run (the workers, and the calling thread when `mainShare`
@@ -89,7 +105,7 @@ export class OutlookPool {
   }
 
   async close(): Promise<void> {
-    await Promise.all(this.workers.map((worker) => worker.terminate()))
+    await Promise.all(this.workers.map(worker => worker.terminate()))
     this.script.remove()
   }
 }

@@ -30,9 +30,11 @@ function summary(times: number[]) {
 function headline(result: OutlookResult) {
   const t = result.years.indexOf(2100)
   const year = result.byYear[t]!
-  const metre = result.heights.findIndex((height) => Math.abs(height - 1) < 1e-9)
+  const metre = result.heights.findIndex(height => Math.abs(height - 1) < 1e-9)
   return {
-    percentiles2100: Object.fromEntries(year.percentiles.map((p) => [`p${Math.round(p.level * 100)}`, +p.value.toFixed(4)])),
+    percentiles2100: Object.fromEntries(
+      year.percentiles.map(p => [`p${Math.round(p.level * 100)}`, +p.value.toFixed(4)]),
+    ),
     mean2100: +year.mean.value.toFixed(4),
     sd2100: +year.sd.toFixed(4),
     exceed1m2100: { p: year.exceedance[metre]!.value, se: +year.exceedance[metre]!.se.toFixed(5) },
@@ -43,7 +45,12 @@ async function main() {
   const pool = new OutlookPool(WORKERS, MAIN_SHARE)
   const report: Record<string, unknown> = {
     workload: 'tests/bench/workload-w1.json',
-    machine: { cpus: os.cpus().length, model: os.cpus()[0]?.model, node: process.version, loadAverage: os.loadavg().map((x) => +x.toFixed(2)) },
+    machine: {
+      cpus: os.cpus().length,
+      model: os.cpus()[0]?.model,
+      node: process.version,
+      loadAverage: os.loadavg().map(x => +x.toFixed(2)),
+    },
     date: new Date().toISOString(),
     pool: { workers: WORKERS, mainThreadShare: MAIN_SHARE },
     timed: 'per run: validate + plan, plan sent to warm workers, sample, merge, finish',
@@ -54,7 +61,8 @@ async function main() {
     // The first run also waits for the workers to start; the warm-up time counts from its end.
     await pool.run(planOutlook(input))
     let warmUps = 1
-    for (const start = performance.now(); warmUps < WARM_UPS || performance.now() - start < WARM_UP_MS; warmUps++) await pool.run(planOutlook(input))
+    for (const start = performance.now(); warmUps < WARM_UPS || performance.now() - start < WARM_UP_MS; warmUps++)
+      await pool.run(planOutlook(input))
     const pooled: number[] = []
     let result: OutlookResult | null = null
     for (let i = 0; i < RUNS; i++) {
@@ -85,7 +93,7 @@ async function main() {
   }
   report.peakRssMB = +(process.resourceUsage().maxRSS / 1024).toFixed(1)
   // Other work on the machine shows here: figures taken beside builds or tests are not comparable.
-  report.loadAverageAtEnd = os.loadavg().map((x) => +x.toFixed(2))
+  report.loadAverageAtEnd = os.loadavg().map(x => +x.toFixed(2))
   await pool.close()
   console.log(JSON.stringify(report, null, 2))
 }

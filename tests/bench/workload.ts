@@ -7,10 +7,10 @@ interface Workload {
   samples: number
   seed: number
   quantileLevels: number[]
-  components: Array<{ key: string; scale: number; anchors: Record<string, number[]> }>
+  components: Array<{ key: string, scale: number, anchors: Record<string, number[]> }>
   correlation: number[][]
-  landMotion: { rateMmPerYear: number; sigmaMmPerYear: number; epoch: number }
-  heights: { from: number; to: number; step: number }
+  landMotion: { rateMmPerYear: number, sigmaMmPerYear: number, epoch: number }
+  heights: { from: number, to: number, step: number }
 }
 
 /** The W1 benchmark workload as an outlook request; its releases start from the workload's baseline year. */
@@ -31,7 +31,7 @@ export function loadWorkload(samples?: number): OutlookInput {
           baselineYear: workload.baselineYear,
           anchorYears,
           levels: workload.quantileLevels,
-          values: anchorYears.map((year) => component.anchors[String(year)]!),
+          values: anchorYears.map(year => component.anchors[String(year)]!),
         },
       }
     }),

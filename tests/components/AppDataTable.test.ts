@@ -5,11 +5,22 @@ import AppDataTable from '~/components/app/AppDataTable.vue'
 
 interface Harbour { id: string, name: string, berths: number }
 const HARBOURS: Harbour[] = [{ id: 'a', name: 'Kelwick', berths: 12 }, { id: 'b', name: 'Drumhaven', berths: 4 }]
-const COLUMNS = [{ key: 'name', header: 'Harbour', rowHeader: true }, { key: 'berths', header: 'Berths', sort: 'descending' as const }]
+const COLUMNS = [
+  { key: 'name', header: 'Harbour', rowHeader: true },
+  { key: 'berths', header: 'Berths', sort: 'descending' as const },
+]
 
 function mountTable(props: Partial<{ rows: Harbour[], empty: string, captionVisible: boolean }> = {}, slots = {}) {
   return mountSuspended(AppDataTable, {
-    props: { caption: 'Harbours of Caldwyn', columns: COLUMNS, rows: HARBOURS, rowKey: (row: unknown) => (row as Harbour).id, testid: 'harbours', rowAttrs: (row: unknown) => ({ 'data-testid': `harbour-${(row as Harbour).name}` }), ...props },
+    props: {
+      caption: 'Harbours of Caldwyn',
+      columns: COLUMNS,
+      rows: HARBOURS,
+      rowKey: (row: unknown) => (row as Harbour).id,
+      testid: 'harbours',
+      rowAttrs: (row: unknown) => ({ 'data-testid': `harbour-${(row as Harbour).name}` }),
+      ...props,
+    },
     slots,
   })
 }
@@ -19,9 +30,15 @@ describe('AppDataTable', () => {
     const table = await mountTable()
     expect(table.find('caption').text()).toBe('Harbours of Caldwyn')
     expect(table.find('caption').classes()).toContain('sr-only')
-    expect(table.findAll('thead th').map(th => [th.attributes('scope'), th.text()])).toEqual([['col', 'Harbour'], ['col', 'Berths']])
+    expect(table.findAll('thead th').map(th => [th.attributes('scope'), th.text()])).toEqual([
+      ['col', 'Harbour'],
+      ['col', 'Berths'],
+    ])
     expect(table.findAll('thead th')[1]!.attributes('aria-sort')).toBe('descending')
-    expect(table.findAll('tbody th').map(th => [th.attributes('scope'), th.text()])).toEqual([['row', 'Kelwick'], ['row', 'Drumhaven']])
+    expect(table.findAll('tbody th').map(th => [th.attributes('scope'), th.text()])).toEqual([
+      ['row', 'Kelwick'],
+      ['row', 'Drumhaven'],
+    ])
     expect(table.findAll('tbody td').map(td => td.text())).toEqual(['12', '4'])
   })
 

@@ -7,7 +7,11 @@ import { mountSuspended } from '@nuxt/test-utils/runtime'
 /** A refusal as $fetch throws it: the API's message and its field issues. */
 function refusal(message: string, issues: { field: string, message: string }[] = []) {
   const failure = new FetchError(message)
-  Object.assign(failure, { statusCode: 400, data: { message, data: { issues } }, response: new Response(null, { status: 400 }) })
+  Object.assign(failure, {
+    statusCode: 400,
+    data: { message, data: { issues } },
+    response: new Response(null, { status: 400 }),
+  })
   return failure
 }
 
@@ -25,18 +29,41 @@ const TitleForm = defineComponent({
     const title = ref('')
     const submission = useSubmit()
     const { error, working, done, run, fail } = submission
-    const { shown, summary } = useFieldIssues(submission, () => ({ title: title.value }), field => (field === 'title' ? 'Title' : ''))
+    const { shown, summary } = useFieldIssues(
+      submission,
+      () => ({ title: title.value }),
+      field => (field === 'title' ? 'Title' : ''),
+    )
     async function submit() {
       if (title.value === 'draft') return fail('Give the briefing a real title.')
       await run(() => props.send(title.value))
     }
-    return () => h('form', { onSubmit: (event: Event) => { event.preventDefault(); void submit() } }, [
-      summary.value || error.value ? h('p', { role: 'alert' }, summary.value || error.value) : null,
-      h('input', { value: title.value, onInput: (event: Event) => { title.value = (event.target as HTMLInputElement).value } }),
-      h('ul', { 'data-testid': 'field-messages' }, shown.value.map(issue => h('li', `${issue.label}: ${issue.message}`))),
-      done.value ? h('p', { role: 'status' }, 'Saved.') : null,
-      h('button', { type: 'submit', disabled: working.value }, working.value ? 'Saving…' : 'Save'),
-    ])
+    return () =>
+      h(
+        'form',
+        {
+          onSubmit: (event: Event) => {
+            event.preventDefault()
+            void submit()
+          },
+        },
+        [
+          summary.value || error.value ? h('p', { role: 'alert' }, summary.value || error.value) : null,
+          h('input', {
+            value: title.value,
+            onInput: (event: Event) => {
+              title.value = (event.target as HTMLInputElement).value
+            },
+          }),
+          h(
+            'ul',
+            { 'data-testid': 'field-messages' },
+            shown.value.map(issue => h('li', `${issue.label}: ${issue.message}`)),
+          ),
+          done.value ? h('p', { role: 'status' }, 'Saved.') : null,
+          h('button', { type: 'submit', disabled: working.value }, working.value ? 'Saving…' : 'Save'),
+        ],
+      )
   },
 })
 
@@ -55,11 +82,18 @@ describe('useSubmit with useFieldIssues', () => {
   })
 
   it('shows the API message, puts field issues beside their field, and drops them once the field changes', async () => {
-    const form = await mountSuspended(TitleForm, { props: { send: () => Promise.reject(refusal('title: Too long', [{ field: 'title', message: 'Use at most 160 characters.' }])) } })
+    const form = await mountSuspended(TitleForm, {
+      props: {
+        send: () =>
+          Promise.reject(refusal('title: Too long', [{ field: 'title', message: 'Use at most 160 characters.' }])),
+      },
+    })
     await form.find('input').setValue('x'.repeat(200))
     await form.find('form').trigger('submit')
     await flushPromises()
-    expect(form.findAll('[data-testid="field-messages"] li').map(li => li.text())).toEqual(['Title: Use at most 160 characters.'])
+    expect(form.findAll('[data-testid="field-messages"] li').map(li => li.text())).toEqual([
+      'Title: Use at most 160 characters.',
+    ])
     expect(form.find('[role="alert"]').exists()).toBe(true)
     expect(form.find('[role="status"]').exists()).toBe(false)
     await form.find('input').setValue('Quay Street defences')

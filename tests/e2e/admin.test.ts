@@ -16,7 +16,10 @@ describe('recomputations', () => {
     const planner = new ApiClient(server.url)
     await planner.signIn(PLANNER.email, PLANNER.password)
     for (const site of ((await planner.get('/api/sites')).body as Array<{ id: string }>).slice(0, 2)) {
-      expect((await planner.post(`/api/sites/${site.id}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 4 })).status).toBe(201)
+      expect(
+        (await planner.post(`/api/sites/${site.id}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 4 }))
+          .status,
+      ).toBe(201)
     }
 
     await signIn(page, OPERATOR.email, OPERATOR.password)
@@ -26,7 +29,9 @@ describe('recomputations', () => {
     await page.getByTestId('recomputation-start').click()
     await expect.poll(() => page.getByText('Recomputation queued').count()).toBe(1)
     const row = page.getByTestId('recomputation-table').locator('tbody tr').first()
-    await expect.poll(() => row.getByTestId('recomputation-sites').textContent(), { timeout: 20_000 }).toBe('2 of 2 sites')
+    await expect
+      .poll(() => row.getByTestId('recomputation-sites').textContent(), { timeout: 20_000 })
+      .toBe('2 of 2 sites')
     await expect.poll(() => row.textContent(), { timeout: 20_000 }).not.toContain('Running')
     expect(await row.textContent()).toContain('An administrator asked for the outlooks for SSP2-4.5 to be recomputed.')
     expect(await seriousAxeViolations(page)).toEqual([])

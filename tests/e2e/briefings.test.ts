@@ -4,7 +4,18 @@ import { tmpdir } from 'node:os'
 import { join, resolve } from 'node:path'
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import { PLANNER, READER } from '../support/demo-users'
-import { isolatedContext, open, launchBrowser, screenshot, seriousAxeViolations, signIn, SCREENSHOT_DIR, type Browser, type BrowserContext, type Page } from '../support/browser'
+import {
+  isolatedContext,
+  open,
+  launchBrowser,
+  screenshot,
+  seriousAxeViolations,
+  signIn,
+  SCREENSHOT_DIR,
+  type Browser,
+  type BrowserContext,
+  type Page,
+} from '../support/browser'
 import { startServer, type RunningServer } from '../support/server'
 
 let server: RunningServer
@@ -18,7 +29,14 @@ let outlookId: string
 let issuedId: string
 
 const UUID = /[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/
-const SECTIONS = ['1. Summary', '2. Charts', '3. Chances by year', '4. What this rests on', '5. What this is not', '6. About this document']
+const SECTIONS = [
+  '1. Summary',
+  '2. Charts',
+  '3. Chances by year',
+  '4. What this rests on',
+  '5. What this is not',
+  '6. About this document',
+]
 
 async function startSession(email: string, password: string) {
   await context.close()
@@ -38,14 +56,26 @@ beforeAll(async () => {
   const sites = await (await planner.request.get('/api/sites')).json() as { id: string, name: string }[]
   const kelwick = sites.find(site => site.name === 'Kelwick')!.id
   const run = async (scenario: string) => {
-    const response = await planner.request.post(`/api/sites/${kelwick}/outlooks`, { data: { scenario, samples: 20_000 } })
+    const response = await planner.request.post(`/api/sites/${kelwick}/outlooks`, {
+      data: { scenario, samples: 20_000 },
+    })
     expect(response.ok(), await response.text()).toBe(true)
     return (await response.json() as { id: string }).id
   }
   outlookId = await run('SSP2-4.5')
   await run('SSP5-8.5')
-  const thresholds = (await (await planner.request.get(`/api/sites/${kelwick}`)).json() as { thresholds: { id: string }[] }).thresholds.map(th => th.id)
-  const created = await planner.request.post('/api/briefings', { data: { outlookId, title: 'Kelwick: the sea to 2100', audience: 'Council', thresholdIds: thresholds, years: [2050, 2100] } })
+  const thresholds = (
+    (await (await planner.request.get(`/api/sites/${kelwick}`)).json()) as { thresholds: { id: string }[] }
+  ).thresholds.map(th => th.id)
+  const created = await planner.request.post('/api/briefings', {
+    data: {
+      outlookId,
+      title: 'Kelwick: the sea to 2100',
+      audience: 'Council',
+      thresholdIds: thresholds,
+      years: [2050, 2100],
+    },
+  })
   issuedId = (await created.json() as { id: string }).id
   expect((await planner.request.post(`/api/briefings/${issuedId}/issue`)).ok()).toBe(true)
   await setup.context.close()
@@ -62,14 +92,16 @@ beforeEach(async () => {
 })
 // Screenshots are kept for every failure (and for every test with BRINKWATER_SCREENSHOTS=all).
 afterEach(async (ctx) => {
-  if (ctx.task.result?.state === 'fail' || process.env.BRINKWATER_SCREENSHOTS === 'all') await screenshot(page, `briefings-${ctx.task.name}`)
+  if (ctx.task.result?.state === 'fail' || process.env.BRINKWATER_SCREENSHOTS === 'all')
+    await screenshot(page, `briefings-${ctx.task.name}`)
   await context.close()
   expect(external, 'requests that left the app').toEqual([])
   expect(cspViolations, 'content security policy violations').toEqual([])
 })
 
 // Steps worth looking at by eye, kept only when every screenshot is asked for.
-const snap = (on: Page, name: string) => (process.env.BRINKWATER_SCREENSHOTS === 'all' ? screenshot(on, `briefings-step-${name}`) : undefined)
+const snap = (on: Page, name: string) =>
+  process.env.BRINKWATER_SCREENSHOTS === 'all' ? screenshot(on, `briefings-step-${name}`) : undefined
 const noAxeFaults = async (on: Page, where: string) => expect(await seriousAxeViolations(on), where).toEqual([])
 /** Text as a reader sees it: no-break spaces and line breaks are just spaces. */
 const plain = (text: string) => text.replace(/[\s\u00A0\u202F]+/g, ' ').trim()
@@ -100,13 +132,25 @@ describe('issuing and sharing a briefing', () => {
     const briefingPath = new URL(page.url()).pathname
 
     // The planner's text shows as typed, never as markup.
-    expect(await page.getByTestId('local-context').textContent()).toBe('Quay Street floods at spring tides. <b>bold?</b>')
+    expect(await page.getByTestId('local-context').textContent()).toBe(
+      'Quay Street floods at spring tides. <b>bold?</b>',
+    )
     expect(await page.getByTestId('local-context').locator('b').count()).toBe(0)
     expect(await page.getByTestId('draft-banner').textContent()).toMatch(/DRAFT — not issued/)
     expect(await page.getByTestId('briefing-illustrative').textContent()).toMatch(/Illustrative demo data/)
-    expect(plain(await page.getByTestId('briefing-document').locator('h2').allTextContents().then(all => all.join('|')))).toBe(SECTIONS.join('|'))
+    expect(
+      plain(
+        await page
+          .getByTestId('briefing-document')
+          .locator('h2')
+          .allTextContents()
+          .then(all => all.join('|')),
+      ),
+    ).toBe(SECTIONS.join('|'))
     // The compared scenario has its own rows in the table of chances.
-    expect(await page.getByTestId('chances-table').locator('tbody tr', { hasText: 'SSP5-8.5' }).count()).toBeGreaterThan(0)
+    expect(
+      await page.getByTestId('chances-table').locator('tbody tr', { hasText: 'SSP5-8.5' }).count(),
+    ).toBeGreaterThan(0)
     await page.getByTestId('chart-exceedance').locator('svg').first().waitFor()
     await noAxeFaults(page, 'draft briefing')
     await snap(page, 'draft')
@@ -162,7 +206,9 @@ describe('issuing and sharing a briefing', () => {
 
     await open(page, '/briefings')
     const row = page.getByTestId(`briefing-row-${briefingPath.split('/').pop()}`)
-    expect(plain(await row.textContent() ?? '')).toMatch(/Kelwick harbour: sea level to 2100.*Kelwick.*Issued.*Organisation only/)
+    expect(plain((await row.textContent()) ?? '')).toMatch(
+      /Kelwick harbour: sea level to 2100.*Kelwick.*Issued.*Organisation only/,
+    )
     await noAxeFaults(page, 'briefing list')
   })
 
@@ -185,9 +231,11 @@ describe('the PDF', () => {
   it('says what the page says: every section, the thresholds, the chances, the cautions and the input hash, in the embedded font', async () => {
     await startSession(PLANNER.email, PLANNER.password)
     await open(page, `/briefings/${issuedId}`)
-    const cells = (await page.getByTestId('chances-table').locator('tbody td').allTextContents()).map(plain).filter(text => /%$/.test(text))
+    const cells = (await page.getByTestId('chances-table').locator('tbody td').allTextContents())
+      .map(plain)
+      .filter(text => /%$/.test(text))
     const thresholds = (await page.getByTestId('chances-table').locator('tbody th').allTextContents()).map(plain)
-    const hash = plain(await page.getByTestId('input-hash').first().textContent() ?? '').split(': ')[1]!
+    const hash = plain((await page.getByTestId('input-hash').first().textContent()) ?? '').split(': ')[1]!
     expect(cells.length).toBeGreaterThan(0)
     expect(hash).toMatch(/^\w{16,}$/)
 
@@ -201,7 +249,9 @@ describe('the PDF', () => {
       expect(text).toContain('not engineering or legal advice')
       expect(text).toContain(hash)
 
-      const fonts = execFileSync('pdffonts', [pdf.file], { encoding: 'utf8' }).split('\n').filter(line => line.includes('AtkinsonHyperlegible'))
+      const fonts = execFileSync('pdffonts', [pdf.file], { encoding: 'utf8' })
+        .split('\n')
+        .filter(line => line.includes('AtkinsonHyperlegible'))
       expect(fonts.length).toBeGreaterThan(0)
       // Columns after the name and type: encoding, emb, sub, uni, object, generation.
       for (const line of fonts) expect(line, line).toMatch(/\s(yes)\s+(yes|no)\s+(yes|no)\s+\d+\s+\d+\s*$/)
@@ -212,7 +262,8 @@ describe('the PDF', () => {
       const images = (await readdir(pdf.folder)).filter(name => name.endsWith('.png')).sort()
       expect(images).toHaveLength(pages)
       await mkdir(SCREENSHOT_DIR, { recursive: true })
-      for (const [i, name] of images.entries()) await copyFile(join(pdf.folder, name), resolve(SCREENSHOT_DIR, `briefing-pdf-page-${i + 1}.png`))
+      for (const [i, name] of images.entries())
+        await copyFile(join(pdf.folder, name), resolve(SCREENSHOT_DIR, `briefing-pdf-page-${i + 1}.png`))
     }
     finally {
       await rm(pdf.folder, { recursive: true, force: true })

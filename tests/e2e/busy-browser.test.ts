@@ -14,7 +14,14 @@ beforeEach(async () => {
 })
 
 const UUID = '[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}'
-const CSV = ['level,2050,2100', '0.05,0.031,0.062', '0.17,0.04,0.081', '0.5,0.052,0.108', '0.83,0.064,0.137', '0.95,0.074,0.158'].join('\n')
+const CSV = [
+  'level,2050,2100',
+  '0.05,0.031,0.062',
+  '0.17,0.04,0.081',
+  '0.5,0.052,0.108',
+  '0.83,0.064,0.137',
+  '0.95,0.074,0.158',
+].join('\n')
 
 describe('in a browser that never goes idle', () => {
   it('idle callbacks really are withheld on the test page', async () => {
@@ -72,7 +79,9 @@ describe('in a browser that never goes idle', () => {
     await editor.getByLabel('Scenario', { exact: true }).fill('SSP1-2.6')
     await editor.getByLabel('Title').fill('Glaciers, busy browser (illustrative)')
     await editor.getByTestId('form-quantiles').check()
-    await editor.getByLabel('Upload a quantile table (CSV)').setInputFiles({ name: 'glaciers.csv', mimeType: 'text/csv', buffer: Buffer.from(CSV) })
+    await editor
+      .getByLabel('Upload a quantile table (CSV)')
+      .setInputFiles({ name: 'glaciers.csv', mimeType: 'text/csv', buffer: Buffer.from(CSV) })
     // The preview chart is drawing (and animating) while the draft is saved.
     await page.getByTestId('release-preview').locator('svg').first().waitFor()
     await editor.getByLabel('Method').fill('Invented for the browser test.')

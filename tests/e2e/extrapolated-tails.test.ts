@@ -19,7 +19,8 @@ beforeEach(() => ({ page } = suite))
 
 const plain = (text: string) => text.replace(/[\s\u00A0\u202F]+/g, ' ').trim()
 /** Every IPCC calibrated likelihood word, English. */
-const IPCC_WORD = /virtually certain|extremely likely|very likely|\blikely\b|about as likely as not|unlikely|exceptionally/
+const IPCC_WORD
+  = /virtually certain|extremely likely|very likely|\blikely\b|about as likely as not|unlikely|exceptionally/
 const MARK = /extrapolated: the releases do not describe this tail/
 const OUTLOOK = { scenario: 'SSP2-4.5', samples: 20_000, seed: 11 }
 
@@ -33,7 +34,9 @@ async function outlookOf(siteId: string): Promise<{ id: string, result: OutlookR
 }
 
 async function newSite(name: string, height: number) {
-  const created = await page.request.post('/api/sites', { data: { ...SITE_BODY(name), thresholds: [{ label: 'Rare crest', height }] } })
+  const created = await page.request.post('/api/sites', {
+    data: { ...SITE_BODY(name), thresholds: [{ label: 'Rare crest', height }] },
+  })
   expect(created.ok(), await created.text()).toBe(true)
   return (await created.json() as { id: string }).id
 }
@@ -65,11 +68,17 @@ describe('a 1 % exceedance outside every release\'s outermost level', () => {
     expect(by2100).not.toMatch(IPCC_WORD)
     expect(await page.locator('[data-testid="headline-sentence"][data-extrapolated="true"]').count()).toBeGreaterThan(0)
     // The tables of the charts mark their extrapolated numbers with * and say what it means.
-    expect(plain(await page.getByTestId('extrapolated-note').first().textContent() ?? '')).toMatch(/^\* Extrapolated: beyond the outermost level a release publishes\. The release does not describe that tail/)
+    expect(plain((await page.getByTestId('extrapolated-note').first().textContent()) ?? '')).toMatch(
+      /^\* Extrapolated: beyond the outermost level a release publishes\. The release does not describe that tail/,
+    )
     expect(await seriousAxeViolations(page), 'outlook page').toEqual([])
 
-    const thresholdIds = (await (await page.request.get(`/api/sites/${siteId}`)).json() as { thresholds: { id: string }[] }).thresholds.map(th => th.id)
-    const created = await page.request.post('/api/briefings', { data: { outlookId, title: 'Tail Point crest', thresholdIds, years: [2050, 2100] } })
+    const thresholdIds = (
+      (await (await page.request.get(`/api/sites/${siteId}`)).json()) as { thresholds: { id: string }[] }
+    ).thresholds.map(th => th.id)
+    const created = await page.request.post('/api/briefings', {
+      data: { outlookId, title: 'Tail Point crest', thresholdIds, years: [2050, 2100] },
+    })
     expect(created.ok(), await created.text()).toBe(true)
     const briefingId = (await created.json() as { id: string }).id
     const pdf = await page.request.get(`/api/briefings/${briefingId}/pdf`)
@@ -77,11 +86,16 @@ describe('a 1 % exceedance outside every release\'s outermost level', () => {
     const file = join(mkdtempSync(join(tmpdir(), 'bw-tails-')), 'briefing.pdf')
     writeFileSync(file, await pdf.body())
     const text = plain(execFileSync('pdftotext', ['-enc', 'UTF-8', file, '-'], { encoding: 'utf8' }))
-    const line2100 = text.split(/(?=Rare crest \()/).map(part => part.slice(0, part.indexOf('by 2100.') + 8)).find(part => part.endsWith('by 2100.'))
+    const line2100 = text
+      .split(/(?=Rare crest \()/)
+      .map(part => part.slice(0, part.indexOf('by 2100.') + 8))
+      .find(part => part.endsWith('by 2100.'))
     expect(line2100, 'the summary line for 2100').toBeDefined()
     expect(line2100).toMatch(MARK)
     expect(line2100).not.toMatch(IPCC_WORD)
-    expect(text).toMatch(/\* Extrapolated: beyond the outermost level a release publishes\. The release does not describe that tail/)
+    expect(text).toMatch(
+      /\* Extrapolated: beyond the outermost level a release publishes\. The release does not describe that tail/,
+    )
     expect(text).toMatch(/%\s?\*/)
   })
 })

@@ -8,7 +8,15 @@ let page: Page
 beforeEach(() => ({ page } = suite))
 
 /** A new site complete but for the latitude, labelled in the page's language. */
-async function fillAllButLatitude(labels: { name: RegExp, longitude: RegExp, epoch: RegExp, datum: RegExp, landEpoch: RegExp, threshold: RegExp, height: RegExp }) {
+async function fillAllButLatitude(labels: {
+  name: RegExp
+  longitude: RegExp
+  epoch: RegExp
+  datum: RegExp
+  landEpoch: RegExp
+  threshold: RegExp
+  height: RegExp
+}) {
   await page.getByLabel(labels.name).fill('Issue Quay')
   await page.getByLabel(labels.longitude).fill('-33')
   await page.getByLabel(labels.epoch).fill('2020')
@@ -25,9 +33,19 @@ describe('a refused site, in the planner\'s words', () => {
   it('names the blank latitude by its label beside the field, and clears it once typed, in English and in Spanish', async () => {
     await signIn(page, PLANNER.email, PLANNER.password)
     await open(page, '/sites/new')
-    await fillAllButLatitude({ name: /^Site name/, longitude: /^Longitude/, epoch: /^Reference epoch/, datum: /^Datum name/, landEpoch: /^Epoch/, threshold: /^Threshold$/, height: /^Height/ })
+    await fillAllButLatitude({
+      name: /^Site name/,
+      longitude: /^Longitude/,
+      epoch: /^Reference epoch/,
+      datum: /^Datum name/,
+      landEpoch: /^Epoch/,
+      threshold: /^Threshold$/,
+      height: /^Height/,
+    })
     await page.getByTestId('save-site').click()
-    await expect.poll(() => beside('site-latitude').textContent()).toBe('Latitude (degrees, north positive): Fill this in.')
+    await expect
+      .poll(() => beside('site-latitude').textContent())
+      .toBe('Latitude (degrees, north positive): Fill this in.')
     expect(await alert().textContent()).toMatch(/^One field needs a change\./)
     expect(await alert().textContent()).not.toMatch(/latitude:/)
     // The field's description points at its message, so a screen reader hears it on the field.
@@ -39,13 +57,19 @@ describe('a refused site, in the planner\'s words', () => {
     await expect.poll(() => beside('site-latitude').textContent()).toBe('')
     expect(await alert().count()).toBe(0)
     await page.getByTestId('save-site').click()
-    await expect.poll(() => beside('site-latitude').textContent()).toBe('Latitude (degrees, north positive): Use 90° or less.')
+    await expect
+      .poll(() => beside('site-latitude').textContent())
+      .toBe('Latitude (degrees, north positive): Use 90° or less.')
 
     await page.getByTestId('language-switcher').selectOption('es')
-    await expect.poll(() => beside('site-latitude').textContent()).toBe('Latitud (grados, positiva al norte): Use un valor de 90° o menos.')
+    await expect
+      .poll(() => beside('site-latitude').textContent())
+      .toBe('Latitud (grados, positiva al norte): Use un valor de 90° o menos.')
     await page.getByLabel(/^Latitud/).fill('')
     await page.getByRole('button', { name: 'Guardar el sitio' }).click()
-    await expect.poll(() => beside('site-latitude').textContent()).toBe('Latitud (grados, positiva al norte): Rellene este campo.')
+    await expect
+      .poll(() => beside('site-latitude').textContent())
+      .toBe('Latitud (grados, positiva al norte): Rellene este campo.')
     expect(await alert().textContent()).toMatch(/^Hay que corregir un campo\./)
     await screenshot(page, 'form-issues-latitude-es')
     await page.getByLabel(/^Latitud/).fill('48.2')
@@ -58,11 +82,21 @@ describe('a refused site, in the planner\'s words', () => {
     await open(page, '/sites/new')
     // The language is remembered on the account, which the test before may have left in Spanish.
     await page.getByTestId('language-switcher').selectOption('en')
-    await fillAllButLatitude({ name: /^Site name/, longitude: /^Longitude/, epoch: /^Reference epoch/, datum: /^Datum name/, landEpoch: /^Epoch/, threshold: /^Threshold$/, height: /^Height/ })
+    await fillAllButLatitude({
+      name: /^Site name/,
+      longitude: /^Longitude/,
+      epoch: /^Reference epoch/,
+      datum: /^Datum name/,
+      landEpoch: /^Epoch/,
+      threshold: /^Threshold$/,
+      height: /^Height/,
+    })
     await page.getByLabel(/^Latitude/).fill('48')
     await page.getByLabel(/^Height/).fill('40')
     await page.getByTestId('save-site').click()
-    await expect.poll(() => page.locator('#threshold-height-msg-0').textContent()).toBe('Quay edge, Height (m): Use 20 m or less.')
+    await expect
+      .poll(() => page.locator('#threshold-height-msg-0').textContent())
+      .toBe('Quay edge, Height (m): Use 20 m or less.')
   })
 })
 
@@ -107,11 +141,21 @@ describe('the science forms, in the analyst\'s words', () => {
     await page.getByLabel('Method').fill('Illustrative')
     await page.getByLabel('Citation').fill('Illustrative (2026)')
     await page.getByLabel('Licence').fill('CC BY 4.0')
-    await page.locator('#grid-file').setInputFiles({ name: 'grid.csv', mimeType: 'text/csv', buffer: Buffer.from('latitude,-40,-30\n40,1,1.1\n50,1,1\n') })
+    await page
+      .locator('#grid-file')
+      .setInputFiles({
+        name: 'grid.csv',
+        mimeType: 'text/csv',
+        buffer: Buffer.from('latitude,-40,-30\n40,1,1.1\n50,1,1\n'),
+      })
     await page.getByRole('button', { name: 'Save draft' }).click()
-    await expect.poll(() => beside('grid-component').textContent()).toBe('Component: Choose one of the options offered.')
+    await expect
+      .poll(() => beside('grid-component').textContent())
+      .toBe('Component: Choose one of the options offered.')
     await speak('es')
-    await expect.poll(() => beside('grid-component').textContent()).toBe('Componente: Elija una de las opciones que se ofrecen.')
+    await expect
+      .poll(() => beside('grid-component').textContent())
+      .toBe('Componente: Elija una de las opciones que se ofrecen.')
     await screenshot(page, 'form-issues-grid-es')
     await page.getByLabel('Componente').selectOption('glaciers')
     await expect.poll(() => beside('grid-component').textContent()).toBe('')
@@ -123,10 +167,12 @@ describe('the science forms, in the analyst\'s words', () => {
 describe('the briefing form, in the planner\'s words', () => {
   it('names an empty choice of years beside it, in English and Spanish, and clears it once a year is ticked', async () => {
     await signIn(page, PLANNER.email, PLANNER.password)
-    const [site] = await (await page.request.get('/api/sites')).json() as { id: string }[]
-    const outlook = await page.request.post(`/api/sites/${site!.id}/outlooks`, { data: { scenario: 'SSP2-4.5', samples: 20_000 } })
+    const [site] = (await (await page.request.get('/api/sites')).json()) as { id: string }[]
+    const outlook = await page.request.post(`/api/sites/${site!.id}/outlooks`, {
+      data: { scenario: 'SSP2-4.5', samples: 20_000 },
+    })
     expect(outlook.ok(), await outlook.text()).toBe(true)
-    await open(page, `/briefings/new?outlookId=${(await outlook.json() as { id: string }).id}`)
+    await open(page, `/briefings/new?outlookId=${((await outlook.json()) as { id: string }).id}`)
     await speak('en')
     const years = page.locator('#form-years-msg').locator('..').getByRole('checkbox')
     for (const box of await years.all()) await box.uncheck()

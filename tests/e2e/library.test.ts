@@ -10,7 +10,14 @@ let page: Page
 beforeEach(() => ({ page } = suite))
 
 // Invented numbers for a glacier series, in metres: a quantile table as an analyst would export it.
-const QUANTILE_CSV = ['level,2050,2100', '0.05,0.031,0.062', '0.17,0.04,0.081', '0.5,0.052,0.108', '0.83,0.064,0.137', '0.95,0.074,0.158'].join('\n')
+const QUANTILE_CSV = [
+  'level,2050,2100',
+  '0.05,0.031,0.062',
+  '0.17,0.04,0.081',
+  '0.5,0.052,0.108',
+  '0.83,0.064,0.137',
+  '0.95,0.074,0.158',
+].join('\n')
 const TITLE = 'Glacier melt, browser test (illustrative)'
 
 async function startSession(email: string, password: string) {
@@ -20,7 +27,8 @@ async function startSession(email: string, password: string) {
 
 const nav = () => page.getByTestId('main-nav')
 // Steps worth looking at by eye, kept only when every screenshot is asked for.
-const snap = (name: string) => (process.env.BRINKWATER_SCREENSHOTS === 'all' ? screenshot(page, `library-step-${name}`) : undefined)
+const snap = (name: string) =>
+  process.env.BRINKWATER_SCREENSHOTS === 'all' ? screenshot(page, `library-step-${name}`) : undefined
 const noAxeFaults = async (where: string) => expect(await seriousAxeViolations(page), where).toEqual([])
 
 describe('publishing a release through the library', () => {
@@ -37,8 +45,12 @@ describe('publishing a release through the library', () => {
     await editor.getByLabel('Scenario', { exact: true }).fill('SSP2-4.5')
     await editor.getByLabel('Title').fill(TITLE)
     await editor.getByTestId('form-quantiles').check()
-    await editor.getByLabel('Upload a quantile table (CSV)').setInputFiles({ name: 'glaciers-ssp245.csv', mimeType: 'text/csv', buffer: Buffer.from(QUANTILE_CSV) })
-    await expect.poll(() => editor.getByTestId('csv-loaded').textContent()).toMatch(/glaciers-ssp245\.csv \(5 data rows\)/)
+    await editor
+      .getByLabel('Upload a quantile table (CSV)')
+      .setInputFiles({ name: 'glaciers-ssp245.csv', mimeType: 'text/csv', buffer: Buffer.from(QUANTILE_CSV) })
+    await expect
+      .poll(() => editor.getByTestId('csv-loaded').textContent())
+      .toMatch(/glaciers-ssp245\.csv \(5 data rows\)/)
 
     // The preview is the engine's answer for the uploaded table: a chart and no problems listed.
     const preview = page.getByTestId('release-preview')
@@ -47,7 +59,9 @@ describe('publishing a release through the library', () => {
     await preview.getByText('Show the numbers as a table').click()
     await expect.poll(() => preview.locator('tbody tr').last().textContent()).toMatch(/2100\s*0\.11 m/)
 
-    await editor.getByLabel('Method').fill('Invented for the browser test: a quantile table shaped like a glacier model ensemble.')
+    await editor
+      .getByLabel('Method')
+      .fill('Invented for the browser test: a quantile table shaped like a glacier model ensemble.')
     await editor.getByLabel('Citation').fill('Browser test (illustrative), 2026.')
     await editor.getByLabel('Licence').fill('CC BY 4.0')
     await noAxeFaults('editor with a preview')
@@ -74,7 +88,9 @@ describe('publishing a release through the library', () => {
     await noAxeFaults('release, as reviewer')
     // Publishing computes sites again and mails their watchers, so it is confirmed knowing how many.
     await page.getByRole('button', { name: 'Approve and publish' }).click()
-    await expect.poll(() => page.getByTestId('approve-reach').textContent()).toMatch(/^\s*Approving publishes it at once(; no site| and the outlooks of (one site|\d+ sites))/)
+    await expect
+      .poll(() => page.getByTestId('approve-reach').textContent())
+      .toMatch(/^\s*Approving publishes it at once(; no site| and the outlooks of (one site|\d+ sites))/)
     await noAxeFaults('approval confirmation')
     await snap('approve-confirm')
     await page.getByRole('button', { name: 'Publish now' }).click()
@@ -106,10 +122,13 @@ describe('publishing a release through the library', () => {
     // 2050 falls from the 17th to the 50th percentile: quantiles must not decrease.
     const columns = { 2050: ['0.05', '0.06', '0.04', '0.08', '0.09'], 2100: ['0.1', '0.12', '0.15', '0.18', '0.2'] }
     for (const [year, values] of Object.entries(columns)) {
-      for (const [k, level] of ['0.05', '0.17', '0.5', '0.83', '0.95'].entries()) await grid.getByLabel(`Value at level ${level}, ${year}`).fill(values[k]!)
+      for (const [k, level] of ['0.05', '0.17', '0.5', '0.83', '0.95'].entries())
+        await grid.getByLabel(`Value at level ${level}, ${year}`).fill(values[k]!)
     }
     // The engine's own check keeps its words, under the column's name rather than its code.
-    await expect.poll(() => page.getByTestId('preview-problems').textContent()).toMatch(/Values for 2050: Must be non-decreasing across levels/)
+    await expect
+      .poll(() => page.getByTestId('preview-problems').textContent())
+      .toMatch(/Values for 2050: Must be non-decreasing across levels/)
     await editor.getByTestId('save-draft').click()
     await expect.poll(() => editor.getByTestId('editor-error').textContent()).toMatch(/Nothing was saved/)
     expect(new URL(page.url()).pathname).toBe('/library/new')

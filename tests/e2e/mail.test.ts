@@ -1,7 +1,18 @@
 import { resolve } from 'node:path'
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import { OPERATOR, PLANNER, READER } from '../support/demo-users'
-import { isolatedContext, open, launchBrowser, screenshot, SCREENSHOT_DIR, seriousAxeViolations, signIn, type Browser, type BrowserContext, type Page } from '../support/browser'
+import {
+  isolatedContext,
+  open,
+  launchBrowser,
+  screenshot,
+  SCREENSHOT_DIR,
+  seriousAxeViolations,
+  signIn,
+  type Browser,
+  type BrowserContext,
+  type Page,
+} from '../support/browser'
 import { awaitMail, linkIn } from '../support/mailbox'
 import { startServer, type RunningServer } from '../support/server'
 
@@ -23,11 +34,13 @@ beforeEach(() => { people = [] })
 // Screenshots are kept for every failure (and for every test with BRINKWATER_SCREENSHOTS=all).
 afterEach(async (ctx) => {
   for (const person of people) {
-    if (ctx.task.result?.state === 'fail' || process.env.BRINKWATER_SCREENSHOTS === 'all') await screenshot(person.page, `mail-${ctx.task.name}-${person.name}`)
+    if (ctx.task.result?.state === 'fail' || process.env.BRINKWATER_SCREENSHOTS === 'all')
+      await screenshot(person.page, `mail-${ctx.task.name}-${person.name}`)
     await person.context.close()
   }
   for (const person of people) expect(person.external, `requests that left the app (${person.name})`).toEqual([])
-  for (const person of people) expect(person.cspViolations, `content security policy violations (${person.name})`).toEqual([])
+  for (const person of people)
+    expect(person.cspViolations, `content security policy violations (${person.name})`).toEqual([])
 })
 
 async function person(name: string) {
@@ -36,7 +49,8 @@ async function person(name: string) {
   people.push({ name, context, external, cspViolations, page })
   return page
 }
-const snap = (page: Page, name: string) => (process.env.BRINKWATER_SCREENSHOTS === 'all' ? screenshot(page, `mail-step-${name}`) : undefined)
+const snap = (page: Page, name: string) =>
+  process.env.BRINKWATER_SCREENSHOTS === 'all' ? screenshot(page, `mail-step-${name}`) : undefined
 const noAxeFaults = async (page: Page, where: string) => expect(await seriousAxeViolations(page), where).toEqual([])
 const heading = (page: Page) => page.getByRole('heading', { level: 1 }).textContent()
 
@@ -73,26 +87,39 @@ describe('watching a site by e-mail', () => {
     await awaitMail(desk, PLANNER.email, /watch Kelwick/)
     await desk.getByTestId('main-nav').getByRole('link', { name: 'Mailbox' }).click()
     await desk.waitForURL('**/admin/mailbox')
-    await desk.getByTestId('mailbox-list').getByRole('button', { name: /Confirm that you want to watch Kelwick/ }).click()
+    await desk
+      .getByTestId('mailbox-list')
+      .getByRole('button', { name: /Confirm that you want to watch Kelwick/ })
+      .click()
     const reader = desk.getByTestId('mailbox-reader')
-    await expect.poll(() => reader.getByRole('heading', { level: 2 }).textContent()).toBe('Confirm that you want to watch Kelwick')
+    await expect
+      .poll(() => reader.getByRole('heading', { level: 2 }).textContent())
+      .toBe('Confirm that you want to watch Kelwick')
     expect(await reader.getByTestId('mail-to').textContent()).toBe(PLANNER.email)
     const text = (await reader.getByTestId('mail-text').textContent())!
     const frame = reader.getByTestId('mail-html')
     expect(await frame.getAttribute('sandbox')).toBe('')
-    expect(await desk.frameLocator('[data-testid="mail-html"]').getByRole('link', { name: 'Confirm the watch' }).count()).toBe(1)
+    expect(
+      await desk.frameLocator('[data-testid="mail-html"]').getByRole('link', { name: 'Confirm the watch' }).count(),
+    ).toBe(1)
     const headers = (await reader.getByTestId('mail-headers').textContent())!
     expect(headers).toMatch(/list-unsubscribe.*\/api\/watches\/unsubscribe\?token=/)
     expect(headers).toMatch(/List-Unsubscribe=One-Click/)
     await noAxeFaults(desk, 'mailbox')
     await snap(desk, 'mailbox')
     // Headless Chromium leaves a sandboxed (out-of-process) frame blank in full-page shots: keep its own.
-    if (process.env.BRINKWATER_SCREENSHOTS === 'all') await frame.screenshot({ path: resolve(SCREENSHOT_DIR, 'mail-step-mailbox-html.png') })
+    if (process.env.BRINKWATER_SCREENSHOTS === 'all')
+      await frame.screenshot({ path: resolve(SCREENSHOT_DIR, 'mail-step-mailbox-html.png') })
 
     await desk.getByTestId('main-nav').getByRole('link', { name: 'Outbox' }).click()
     await desk.waitForURL('**/admin/outbox')
     expect(await desk.getByTestId('outbox-transport').textContent()).toMatch(/local stand-in/)
-    expect(await desk.getByTestId('outbox-table').getByRole('row', { name: /watch Kelwick/ }).textContent()).toMatch(/Sent/)
+    expect(
+      await desk
+        .getByTestId('outbox-table')
+        .getByRole('row', { name: /watch Kelwick/ })
+        .textContent(),
+    ).toMatch(/Sent/)
     await noAxeFaults(desk, 'outbox')
     await snap(desk, 'outbox')
 
@@ -101,7 +128,9 @@ describe('watching a site by e-mail', () => {
     const confirmPath = linkIn(text, '/watches/confirm?token=')
     await open(visitor, confirmPath)
     expect(await heading(visitor)).toBe('Confirm your watch')
-    expect(await visitor.getByTestId('watch-link-about').textContent()).toBe(`You asked for e-mails about Kelwick at ${PLANNER.email}.`)
+    expect(await visitor.getByTestId('watch-link-about').textContent()).toBe(
+      `You asked for e-mails about Kelwick at ${PLANNER.email}.`,
+    )
     await noAxeFaults(visitor, 'confirm a watch')
     await visitor.getByRole('button', { name: 'Confirm the watch' }).click()
     await expect.poll(() => heading(visitor)).toBe('You are watching Kelwick')
@@ -120,14 +149,18 @@ describe('watching a site by e-mail', () => {
     await open(visitor, linkIn(text, '/watches/unsubscribe?token='))
     await visitor.getByTestId('language-switcher').selectOption('es')
     await expect.poll(() => heading(visitor)).toBe('Detener un seguimiento')
-    expect(await visitor.getByTestId('watch-link-about').textContent()).toBe(`Los correos sobre Kelwick llegan a ${PLANNER.email}.`)
+    expect(await visitor.getByTestId('watch-link-about').textContent()).toBe(
+      `Los correos sobre Kelwick llegan a ${PLANNER.email}.`,
+    )
     await noAxeFaults(visitor, 'unsubscribe (es)')
     await visitor.getByRole('button', { name: 'Dejar de recibir estos correos' }).click()
     await expect.poll(() => heading(visitor)).toBe('Seguimiento detenido')
     await snap(visitor, 'unsubscribed')
     // Opened again, the stop link says the watch is already stopped, with nothing to press.
     await open(visitor, linkIn(text, '/watches/unsubscribe?token='))
-    await expect.poll(() => visitor.getByTestId('watch-link-about').textContent()).toBe(`Este seguimiento ya está detenido: ${PLANNER.email} no recibe correos sobre Kelwick.`)
+    await expect
+      .poll(() => visitor.getByTestId('watch-link-about').textContent())
+      .toBe(`Este seguimiento ya está detenido: ${PLANNER.email} no recibe correos sobre Kelwick.`)
     expect(await visitor.getByRole('button', { name: 'Dejar de recibir estos correos' }).count()).toBe(0)
 
     await planner.reload()
@@ -143,8 +176,13 @@ describe('watching a site by e-mail', () => {
     await planner.getByRole('button', { name: 'Watch this site' }).click()
     await expect.poll(() => planner.getByTestId('watch-sent').isVisible()).toBe(true)
     await open(planner, '/watches')
-    await planner.getByTestId(`watch-row-${site.name}`).getByRole('button', { name: `Stop watching ${site.name}` }).click()
-    await expect.poll(() => planner.getByTestId('watch-notice').textContent()).toBe(`You will get no more e-mail about ${site.name}.`)
+    await planner
+      .getByTestId(`watch-row-${site.name}`)
+      .getByRole('button', { name: `Stop watching ${site.name}` })
+      .click()
+    await expect
+      .poll(() => planner.getByTestId('watch-notice').textContent())
+      .toBe(`You will get no more e-mail about ${site.name}.`)
     await expect.poll(() => planner.getByTestId(`watch-row-${site.name}`).count()).toBe(0)
   })
 })
@@ -161,14 +199,18 @@ describe('accounts by e-mail', () => {
     await form.getByLabel('Organisation').selectOption({ label: 'Caldwyn Coast Regional Council' })
     await form.getByLabel('Role').selectOption('planner')
     await form.getByRole('button', { name: 'Send the invitation' }).click()
-    await expect.poll(() => desk.getByTestId('invite-notice').textContent()).toMatch(/Invitation to carys@caldwyn.example is queued/)
+    await expect
+      .poll(() => desk.getByTestId('invite-notice').textContent())
+      .toMatch(/Invitation to carys@caldwyn.example is queued/)
     await snap(desk, 'invited')
     const mail = await awaitMail(desk, 'carys@caldwyn.example', /invites you to Brinkwater/)
     const invitationPath = linkIn(mail.text, '/account/invitation?token=')
 
     const newcomer = await person('newcomer')
     await open(newcomer, invitationPath)
-    expect(await newcomer.getByTestId('invitation-offer').textContent()).toMatch(/Carys Penhallow, you are invited to join Caldwyn Coast Regional Council as Planner/)
+    expect(await newcomer.getByTestId('invitation-offer').textContent()).toMatch(
+      /Carys Penhallow, you are invited to join Caldwyn Coast Regional Council as Planner/,
+    )
     await noAxeFaults(newcomer, 'invitation')
     await newcomer.getByLabel('New password', { exact: true }).fill('too-short')
     await newcomer.getByLabel('Type the new password again').fill('too-short')
@@ -183,7 +225,9 @@ describe('accounts by e-mail', () => {
 
     // The link is spent: a second visit says so and where to turn.
     await open(newcomer, invitationPath)
-    await expect.poll(() => newcomer.getByTestId('link-problem').textContent()).toMatch(/already been used.*administrator/)
+    await expect
+      .poll(() => newcomer.getByTestId('link-problem').textContent())
+      .toMatch(/already been used.*administrator/)
   })
 
   it('a reader who forgot their password chooses a new one from the e-mailed link and signs in with it', async () => {

@@ -20,7 +20,9 @@ describe('adaptation pathways', () => {
     const sites = await (await page.request.get('/api/sites')).json() as { id: string, name: string }[]
     const kelwick = sites.find(site => site.name === 'Kelwick')!.id
     for (const scenario of ['SSP2-4.5', 'SSP5-8.5']) {
-      const started = await page.request.post(`/api/sites/${kelwick}/outlooks`, { data: { scenario, samples: 20_000, seed: 2 } })
+      const started = await page.request.post(`/api/sites/${kelwick}/outlooks`, {
+        data: { scenario, samples: 20_000, seed: 2 },
+      })
       expect(started.ok(), await started.text()).toBe(true)
     }
 
@@ -31,14 +33,18 @@ describe('adaptation pathways', () => {
     expect(await page.getByTestId('pathway-illustrative').textContent()).toMatch(/Illustrative/)
     // The main message: between which years, across scenarios, the raise must be decided.
     const spread = plain(await page.getByTestId('pathway-spread').first().textContent() ?? '')
-    expect(spread).toMatch(/Decide on Raise the quay wall by 0\.4 m (between \d{4} \(SSP\d-\d\.\d\) and \d{4} \(SSP\d-\d\.\d\)|by \d{4})/)
+    expect(spread).toMatch(
+      /Decide on Raise the quay wall by 0\.4 m (between \d{4} \(SSP\d-\d\.\d\) and \d{4} \(SSP\d-\d\.\d\)|by \d{4})/,
+    )
     // The table beside the chart holds a row per step and scenario.
     const rows = page.getByTestId('pathway-table').first().locator('tbody tr')
     expect(await rows.count()).toBe(3 * 2)
     expect(await page.getByTestId('pathway-chart').first().locator('svg rect').count()).toBeGreaterThan(3)
     // Focusing a lane reads it out.
     await page.getByTestId('pathway-chart').first().locator('g[tabindex="0"]').first().focus()
-    expect(await page.getByTestId('pathway-chart-reading').first().textContent()).toMatch(/Today's quay wall under SSP\d-\d\.\d: serves from/)
+    expect(await page.getByTestId('pathway-chart-reading').first().textContent()).toMatch(
+      /Today's quay wall under SSP\d-\d\.\d: serves from/,
+    )
     expect(await seriousAxeViolations(page), 'pathways page').toEqual([])
     await page.setViewportSize({ width: 1366, height: 900 })
     await screenshot(page, 'pathways-1366')
@@ -54,7 +60,9 @@ describe('adaptation pathways', () => {
     await form.getByTestId('record-submit').click()
     const record = page.getByTestId('decision-record').first()
     await record.waitFor()
-    expect(plain(await record.textContent() ?? '')).toMatch(/Raise the quay wall by 0\.4 m: SSP\d-\d\.\d, tolerance 10 %.*Council resolution 7\/2026/)
+    expect(plain((await record.textContent()) ?? '')).toMatch(
+      /Raise the quay wall by 0\.4 m: SSP\d-\d\.\d, tolerance 10 %.*Council resolution 7\/2026/,
+    )
 
     const pdf = await page.request.get(`/api/sites/${kelwick}/pathways.pdf?language=en`)
     expect(pdf.ok()).toBe(true)

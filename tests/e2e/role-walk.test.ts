@@ -48,7 +48,10 @@ describe('every role in both languages', () => {
         await page.waitForFunction(code => document.documentElement.lang.startsWith(code), language)
         await open(page, '/')
 
-        const nav = await page.getByTestId('main-nav').locator('a').evaluateAll(links => links.map(link => link.getAttribute('href')!))
+        const nav = await page
+          .getByTestId('main-nav')
+          .locator('a')
+          .evaluateAll(links => links.map(link => link.getAttribute('href')!))
         expect(nav.length).toBeGreaterThan(1)
         const pages = [...nav, ...await furtherPages(role, page)]
         for (const path of pages) {

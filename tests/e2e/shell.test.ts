@@ -15,18 +15,38 @@ const nav = () => page.getByTestId('main-nav')
 describe('the shell for each role', () => {
   // Sites and briefings belong to organisations that plan: their planners and readers see them.
   it.each([
-    { demo: OPERATOR, links: ['Overview', 'Library', 'Science adopted', 'Watches', 'Users', 'Invitations', 'Mailbox', 'Outbox', 'Recomputations', 'Audit log'] },
-    { demo: ADMIN, links: ['Overview', 'Library', 'Science adopted', 'Watches', 'Users', 'Invitations', 'Outbox', 'Audit log'] },
+    {
+      demo: OPERATOR,
+      links: [
+        'Overview',
+        'Library',
+        'Science adopted',
+        'Watches',
+        'Users',
+        'Invitations',
+        'Mailbox',
+        'Outbox',
+        'Recomputations',
+        'Audit log',
+      ],
+    },
+    {
+      demo: ADMIN,
+      links: ['Overview', 'Library', 'Science adopted', 'Watches', 'Users', 'Invitations', 'Outbox', 'Audit log'],
+    },
     { demo: ANALYST, links: ['Overview', 'Library', 'Watches'] },
     { demo: PLANNER, links: ['Overview', 'Sites', 'Briefings', 'Library', 'Science adopted', 'Watches'] },
     { demo: READER, links: ['Overview', 'Sites', 'Briefings', 'Library', 'Science adopted', 'Watches'] },
-  ])('$demo.role sees the navigation of the role, the demo label and no accessibility faults', async ({ demo, links }) => {
-    await signIn(page, demo.email, demo.password)
-    await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toContain(demo.name)
-    await expect.poll(() => nav().getByRole('link').allTextContents()).toEqual(links)
-    expect(await page.getByTestId('illustrative-banner').textContent()).toMatch(/Illustrative demo data/)
-    expect(await seriousAxeViolations(page)).toEqual([])
-  })
+  ])(
+    '$demo.role sees the navigation of the role, the demo label and no accessibility faults',
+    async ({ demo, links }) => {
+      await signIn(page, demo.email, demo.password)
+      await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toContain(demo.name)
+      await expect.poll(() => nav().getByRole('link').allTextContents()).toEqual(links)
+      expect(await page.getByTestId('illustrative-banner').textContent()).toMatch(/Illustrative demo data/)
+      expect(await seriousAxeViolations(page)).toEqual([])
+    },
+  )
 
   it('a non-admin who opens an admin page is told their role does not give access', async () => {
     await signIn(page, PLANNER.email, PLANNER.password)
@@ -70,7 +90,9 @@ describe('preferences', () => {
   it('switches to Spanish, and the choice follows the account to the next sign-in', async () => {
     await signIn(page, PLANNER.email, PLANNER.password)
     await page.getByTestId('language-switcher').selectOption('es')
-    await expect.poll(() => nav().getByRole('link').allTextContents()).toEqual(['Resumen', 'Sitios', 'Informes', 'Biblioteca', 'Ciencia adoptada', 'Seguimientos'])
+    await expect
+      .poll(() => nav().getByRole('link').allTextContents())
+      .toEqual(['Resumen', 'Sitios', 'Informes', 'Biblioteca', 'Ciencia adoptada', 'Seguimientos'])
     expect(await page.getAttribute('html', 'lang')).toMatch(/^es/)
     expect(await seriousAxeViolations(page)).toEqual([])
 
@@ -79,7 +101,9 @@ describe('preferences', () => {
     await signIn(elsewhere, PLANNER.email, PLANNER.password)
     await expect.poll(() => elsewhere.getByRole('heading', { level: 1 }).textContent()).toContain('Bienvenido/a')
     await Promise.all([
-      elsewhere.waitForResponse(response => response.url().endsWith('/api/me') && response.request().method() === 'PATCH'),
+      elsewhere.waitForResponse(
+        response => response.url().endsWith('/api/me') && response.request().method() === 'PATCH',
+      ),
       elsewhere.getByTestId('language-switcher').selectOption('en'),
     ])
     await second.close()
@@ -124,6 +148,8 @@ describe('administering users in the browser', () => {
     await row.getByLabel('Role of Rhiannon Vale').selectOption('reader')
     await expect.poll(() => page.getByTestId('admin-notice').textContent()).toMatch(/Saved changes to Rhiannon Vale/)
     await page.reload()
-    expect(await page.getByTestId('user-row-rhiannon@caldwyn.example').getByLabel('Role of Rhiannon Vale').inputValue()).toBe('reader')
+    expect(
+      await page.getByTestId('user-row-rhiannon@caldwyn.example').getByLabel('Role of Rhiannon Vale').inputValue(),
+    ).toBe('reader')
   })
 })

@@ -9,7 +9,8 @@ beforeEach(() => ({ page } = suite))
 
 const nav = () => page.getByTestId('main-nav')
 // Steps worth looking at by eye, kept only when every screenshot is asked for.
-const snap = (name: string) => (process.env.BRINKWATER_SCREENSHOTS === 'all' ? screenshot(page, `sites-step-${name}`) : undefined)
+const snap = (name: string) =>
+  process.env.BRINKWATER_SCREENSHOTS === 'all' ? screenshot(page, `sites-step-${name}`) : undefined
 const noAxeFaults = async (where: string) => expect(await seriousAxeViolations(page), where).toEqual([])
 /** The map has drawn its style (land, island, label font), so a click on it lands on a real map. */
 const mapReady = () => page.waitForSelector('[data-testid="site-map"][data-map-ready="true"]')
@@ -51,7 +52,9 @@ describe('a planner at work on the map and the outlook page', () => {
     await page.getByLabel('Reference epoch (year)').fill('2020')
     await page.getByLabel('Datum name').fill(REFERENCE)
     await page.getByLabel(/^Rate/).fill('-3')
-    await expect.poll(() => page.getByTestId('land-hint').textContent()).toMatch(/^Sinking 3\.0 mm\/yr adds about 0\.2\d m to the local rise between 20\d\d and 2100\.$/)
+    await expect
+      .poll(() => page.getByTestId('land-hint').textContent())
+      .toMatch(/^Sinking 3\.0 mm\/yr adds about 0\.2\d m to the local rise between 20\d\d and 2100\.$/)
     await page.getByLabel(/^Uncertainty/).fill('0.8')
     await page.getByLabel('Source of the estimate').selectOption('gps')
     await page.getByLabel(/^Epoch/).fill('2020')
@@ -74,10 +77,17 @@ describe('a planner at work on the map and the outlook page', () => {
 
     const english = await sentences()
     expect(english).toHaveLength(2)
-    expect(english[0]).toMatch(new RegExp(`^There is a (\\d+|less than 1|more than 99)\u00A0% chance \\((?:[a-z ;±.0-9\u00A0%]+|extrapolated: the releases do not describe this tail)\\) that the mean sea level here will be more than 0\\.50 m above ${REFERENCE.replace(/[()]/g, '\\$&')} by 2050\\.$`))
+    expect(english[0]).toMatch(
+      new RegExp(
+        `^There is a (\\d+|less than 1|more than 99)\u00A0% chance \\((?:[a-z ;±.0-9\u00A0%]+|extrapolated: the releases do not describe this tail)\\) that the mean sea level here will be more than 0\\.50 m above ${REFERENCE.replace(/[()]/g, '\\$&')} by 2050\\.$`,
+      ),
+    )
     expect(english[1]).toMatch(/more than 0\.50 m above .* by 2100\.$/)
     for (const chart of ['exceedance-chart', 'fan-chart', 'timeline-chart', 'variance-chart']) {
-      expect(await page.getByTestId(chart).getByTestId('chart-table').last().locator('tbody tr').count(), chart).toBeGreaterThan(3)
+      expect(
+        await page.getByTestId(chart).getByTestId('chart-table').last().locator('tbody tr').count(),
+        chart,
+      ).toBeGreaterThan(3)
     }
     await page.getByTestId('exceedance-chart').locator('svg').first().waitFor()
     expect(suite.cspViolations, 'content security policy violations on the outlook page').toEqual([])
@@ -85,7 +95,9 @@ describe('a planner at work on the map and the outlook page', () => {
     expect(await triggers.locator('tbody th').allTextContents()).toEqual(['Harbour wall crest (0.50 m)'])
     expect(await page.getByTestId('fan-chart').locator('svg').count()).toBeGreaterThan(0)
     expect(await page.getByTestId('outlook-inputs').textContent()).toMatch(/Input hash[0-9a-f]{64}/)
-    expect(await page.getByTestId('outlook-notes').textContent()).toContain('No correlation set is published for SSP2-4.5; the components were sampled as independent.')
+    expect(await page.getByTestId('outlook-notes').textContent()).toContain(
+      'No correlation set is published for SSP2-4.5; the components were sampled as independent.',
+    )
     expect(await page.getByTestId('cautions').textContent()).toContain('projections, not predictions')
     await noAxeFaults('outlook page')
     await snap('outlook')
@@ -94,10 +106,16 @@ describe('a planner at work on the map and the outlook page', () => {
     await expect.poll(async () => (await sentences())[0]).toContain('more than 1.6 ft above')
 
     await page.getByTestId('language-switcher').selectOption('es')
-    await expect.poll(async () => (await sentences())[0]).toMatch(/^Hay una probabilidad (del|de menos del|de más del) .* de que el nivel medio del mar aquí esté más de 1,6 ft por encima de .* en 2050\.$/)
+    await expect
+      .poll(async () => (await sentences())[0])
+      .toMatch(
+        /^Hay una probabilidad (del|de menos del|de más del) .* de que el nivel medio del mar aquí esté más de 1,6 ft por encima de .* en 2050\.$/,
+      )
     expect(await page.getByRole('heading', { level: 1 }).textContent()).toBe('Perspectiva para Test Harbour')
     // The notes on how it was put together are stored as facts and worded in the reader's language.
-    expect(await page.getByTestId('outlook-notes').textContent()).toContain('No hay ningún conjunto de correlaciones publicado para SSP2-4.5; los componentes se muestrearon como independientes.')
+    expect(await page.getByTestId('outlook-notes').textContent()).toContain(
+      'No hay ningún conjunto de correlaciones publicado para SSP2-4.5; los componentes se muestrearon como independientes.',
+    )
     await noAxeFaults('outlook page in Spanish')
     await snap('outlook-es-ft')
 
@@ -135,7 +153,7 @@ describe('who may see and change a site', () => {
     expect(response?.status()).toBe(403)
   })
 
-  it("the port's planner cannot open the council's site", async () => {
+  it('the port\'s planner cannot open the council\'s site', async () => {
     await signIn(page, PLANNER.email, PLANNER.password)
     const councilSites = await (await page.request.get('/api/sites')).json() as { id: string, name: string }[]
     const kelwick = councilSites.find(site => site.name === 'Kelwick')!

@@ -22,7 +22,9 @@ describe('high-end storylines in the library', () => {
     // One value for two anchor years: the issue sits beside that component's field, in words.
     await page.fill('#story-values-antarctica', '0,2')
     await page.getByRole('button', { name: 'Save draft' }).click()
-    await expect.poll(() => page.locator('#story-values-antarctica-msg').textContent()).toBe('Antarctic ice sheet: Give one value per anchor year (2).')
+    await expect
+      .poll(() => page.locator('#story-values-antarctica-msg').textContent())
+      .toBe('Antarctic ice sheet: Give one value per anchor year (2).')
     await page.fill('#story-values-antarctica', '0,2 1,1')
     await expect.poll(() => page.locator('#story-values-antarctica-msg').textContent()).toBe('')
     await page.fill('#prov-method', 'Expert judgement of an early loss (test).')

@@ -29,7 +29,13 @@ function site(i: number) {
     referenceLevel: 'Mean sea level 2020 (load test)',
     datum: { kind: 'mean-sea-level', offset: 0 },
     referenceEpoch: 2020,
-    landMotion: { rateMmPerYear: -3 + (i % 7), sigmaMmPerYear: 0.5, source: 'gps', reference: 'Load test', epoch: 2020 },
+    landMotion: {
+      rateMmPerYear: -3 + (i % 7),
+      sigmaMmPerYear: 0.5,
+      source: 'gps',
+      reference: 'Load test',
+      epoch: 2020,
+    },
     thresholds: [{ label: 'Quay', height: 0.6 + (i % 5) * 0.1 }],
   }
 }
@@ -51,7 +57,8 @@ async function main() {
     console.error(`created ${SITES} sites`)
     const waiting = async () => (await admin.get('/api/admin/recomputations')).body.outlooksWaiting as number
     let started = performance.now()
-    for (const id of ids) await planner.post(`/api/sites/${id}/outlooks`, { scenario: SCENARIO, samples: SAMPLES, seed: 1, wait: false })
+    for (const id of ids)
+      await planner.post(`/api/sites/${id}/outlooks`, { scenario: SCENARIO, samples: SAMPLES, seed: 1, wait: false })
     console.error(`queued ${SITES} outlooks after ${Math.round(performance.now() - started)} ms`)
     for (let left = await waiting(); left > 0; left = await waiting()) {
       console.error(`${left} outlooks still to compute`)
@@ -63,7 +70,17 @@ async function main() {
     const reviewerUser = demoUser('reviewer@saltglass.example')
     const reviewer = await ApiClient.signedIn(url, reviewerUser.email, reviewerUser.password)
     const [glaciers] = (await analyst.get(`/api/releases?component=glaciers&scenario=${SCENARIO}&state=published`)).body
-    const next = await analyst.post('/api/releases', { seriesId: glaciers.seriesId, form: 'normal', baselineYear: 2020, anchorYears: [2050, 2100, 2150], mean: [0.07, 0.13, 0.18], sd: [0.01, 0.03, 0.04], method: 'Load test', citation: 'Load test', licence: 'CC BY 4.0' })
+    const next = await analyst.post('/api/releases', {
+      seriesId: glaciers.seriesId,
+      form: 'normal',
+      baselineYear: 2020,
+      anchorYears: [2050, 2100, 2150],
+      mean: [0.07, 0.13, 0.18],
+      sd: [0.01, 0.03, 0.04],
+      method: 'Load test',
+      citation: 'Load test',
+      licence: 'CC BY 4.0',
+    })
     await analyst.post(`/api/releases/${next.body.id}/submit`)
     started = performance.now()
     await reviewer.post(`/api/releases/${next.body.id}/approve`)
@@ -71,20 +88,47 @@ async function main() {
     let batch: { siteCount: number, done: number, failed: number, finishedAt: string | null } | undefined
     do {
       await delay(POLL_MS)
-      batch = (await admin.get('/api/admin/recomputations')).body.recomputations.find((r: { scenario: string }) => r.scenario === SCENARIO)
-      if (batch) progress.push({ seconds: Math.round((performance.now() - started) / 100) / 10, sitesDone: batch.done + batch.failed, of: batch.siteCount })
+      batch = (await admin.get('/api/admin/recomputations')).body.recomputations.find(
+        (r: { scenario: string }) => r.scenario === SCENARIO,
+      )
+      if (batch)
+        progress.push({
+          seconds: Math.round((performance.now() - started) / 100) / 10,
+          sitesDone: batch.done + batch.failed,
+          of: batch.siteCount,
+        })
     } while (!batch?.finishedAt)
     const recomputeMs = performance.now() - started
 
-    console.log(JSON.stringify({
-      date: new Date().toISOString(),
-      machine: { cpus: cpus().length, model: cpus()[0]?.model, node: process.version, loadAverage: loadavg().map(x => +x.toFixed(2)) },
-      sites: SITES, samples: SAMPLES, scenario: SCENARIO,
-      firstOutlooks: { seconds: +(firstRunMs / 1000).toFixed(1), perSiteMs: Math.round(firstRunMs / SITES) },
-      recomputation: { seconds: +(recomputeMs / 1000).toFixed(1), perSiteMs: Math.round(recomputeMs / SITES), done: batch.done, failed: batch.failed },
-      progressSeen: progress.filter((_, i) => i % Math.max(1, Math.floor(progress.length / 10)) === 0 || i === progress.length - 1),
-      serverPeakRssMb: peakRssMb(server.pid),
-    }, null, 2))
+    console.log(
+      JSON.stringify(
+        {
+          date: new Date().toISOString(),
+          machine: {
+            cpus: cpus().length,
+            model: cpus()[0]?.model,
+            node: process.version,
+            loadAverage: loadavg().map(x => +x.toFixed(2)),
+          },
+          sites: SITES,
+          samples: SAMPLES,
+          scenario: SCENARIO,
+          firstOutlooks: { seconds: +(firstRunMs / 1000).toFixed(1), perSiteMs: Math.round(firstRunMs / SITES) },
+          recomputation: {
+            seconds: +(recomputeMs / 1000).toFixed(1),
+            perSiteMs: Math.round(recomputeMs / SITES),
+            done: batch.done,
+            failed: batch.failed,
+          },
+          progressSeen: progress.filter(
+            (_, i) => i % Math.max(1, Math.floor(progress.length / 10)) === 0 || i === progress.length - 1,
+          ),
+          serverPeakRssMb: peakRssMb(server.pid),
+        },
+        null,
+        2,
+      ),
+    )
   }
   finally {
     await server.stop()

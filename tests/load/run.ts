@@ -14,7 +14,14 @@ import { join } from 'node:path'
 import autocannon from 'autocannon'
 import { ApiClient } from '../support/client'
 import { PLANNER } from '../support/demo-users'
-import { SERVER_ENTRY, SERVER_NODE_OPTIONS, createTestDatabase, startServer, TEST_DATABASE_URL, type RunningServer } from '../support/server'
+import {
+  SERVER_ENTRY,
+  SERVER_NODE_OPTIONS,
+  createTestDatabase,
+  startServer,
+  TEST_DATABASE_URL,
+  type RunningServer,
+} from '../support/server'
 
 const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 200)
 const SECONDS = Number(process.env.LOAD_SECONDS ?? 10)
@@ -33,11 +40,22 @@ async function sharedBriefing(server: RunningServer) {
   await planner.signIn(PLANNER.email, PLANNER.password)
   const site = (await planner.get('/api/sites')).body.find((s: { name: string }) => s.name === 'Kelwick')
   const thresholdIds = (await planner.get(`/api/sites/${site.id}`)).body.thresholds.map((t: { id: string }) => t.id)
-  const outlook = await planner.post(`/api/sites/${site.id}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, wait: true })
+  const outlook = await planner.post(`/api/sites/${site.id}/outlooks`, {
+    scenario: 'SSP2-4.5',
+    samples: 20_000,
+    wait: true,
+  })
   if (outlook.status >= 300) throw new Error(`The outlook failed: ${outlook.status} ${JSON.stringify(outlook.body)}`)
   const draft = await planner.post('/api/briefings', {
-    outlookId: outlook.body.id, comparisonOutlookIds: [], title: 'Kelwick: sea level to 2100 (load test)', audience: 'Harbour committee',
-    localContext: 'Quay Street floods at spring tides.', language: 'en', units: 'm', thresholdIds, years: [2050, 2100],
+    outlookId: outlook.body.id,
+    comparisonOutlookIds: [],
+    title: 'Kelwick: sea level to 2100 (load test)',
+    audience: 'Harbour committee',
+    localContext: 'Quay Street floods at spring tides.',
+    language: 'en',
+    units: 'm',
+    thresholdIds,
+    years: [2050, 2100],
   })
   if (draft.status !== 201) throw new Error(`The briefing failed: ${draft.status} ${JSON.stringify(draft.body)}`)
   await planner.post(`/api/briefings/${draft.body.id}/issue`)
@@ -55,7 +73,8 @@ function run(name: string, url: string, headers: Record<string, string> = {}, ex
     const instance = autocannon({ url, connections: CONNECTIONS, duration: SECONDS, headers }, (error, result) => {
       if (error) return reject(error)
       times.sort((a, b) => a - b)
-      const at = (p: number) => Math.round((times[Math.min(times.length - 1, Math.ceil((p / 100) * times.length) - 1)] ?? NaN) * 10) / 10
+      const at = (p: number) =>
+        Math.round((times[Math.min(times.length - 1, Math.ceil((p / 100) * times.length) - 1)] ?? NaN) * 10) / 10
       resolve({
         name, url: url.replace(/\/shared\/[\w-]+/, '/shared/<token>'), connections: CONNECTIONS, seconds: SECONDS,
         latencyMs: { p50: at(50), p95: at(95), p99: at(99), max: at(100) },
@@ -94,37 +113,61 @@ try {
   const { shareToken, outlookId, cookie } = setup
   // One request first (with the same headers as the run, which pick the cached copy), so the run
   // measures the page as readers meet it after the first one.
-  const first = await fetch(`${server.url}/shared/${shareToken}`, { headers: { accept: 'text/html', 'accept-language': '' } })
+  const first = await fetch(`${server.url}/shared/${shareToken}`, {
+    headers: { 'accept': 'text/html', 'accept-language': '' },
+  })
   if (first.status !== 200) throw new Error(`The shared page answered ${first.status}`)
   await first.text()
-  const page = await run('shared briefing page (anonymous HTML)', `${server.url}/shared/${shareToken}`, { accept: 'text/html' })
+  const page = await run('shared briefing page (anonymous HTML)', `${server.url}/shared/${shareToken}`, {
+    accept: 'text/html',
+  })
   const pagePeakRssMb = peakRssMb(server.pid)
   const outlookUrl = `${server.url}/api/outlooks/${outlookId}`
-  const reader = { cookie, accept: 'application/json', 'accept-encoding': BROWSER_ENCODING }
+  const reader = { cookie, 'accept': 'application/json', 'accept-encoding': BROWSER_ENCODING }
   const firstRead = await fetch(outlookUrl, { headers: reader })
   const etag = firstRead.headers.get('etag')
   if (firstRead.status !== 200 || !etag) throw new Error(`The outlook answered ${firstRead.status} with ETag ${etag}`)
   await firstRead.arrayBuffer()
-  const revalidated = await run('stored outlook revalidated (signed-in planner, If-None-Match: 304)', outlookUrl, { ...reader, 'if-none-match': etag }, 304)
+  const revalidated = await run(
+    'stored outlook revalidated (signed-in planner, If-None-Match: 304)',
+    outlookUrl,
+    { ...reader, 'if-none-match': etag },
+    304,
+  )
   const status = await run('outlook status (signed-in planner)', `${outlookUrl}/status`, reader)
   const fullRead = await run('stored outlook read in full (signed-in planner, gzip, no ETag)', outlookUrl, reader)
   const peak = peakRssMb(server.pid)
   const p95 = (r: Record<string, unknown>) => (r.latencyMs as { p95: number }).p95
   const results = [page, revalidated, status, fullRead]
-  const errors = results.reduce((sum, r) => sum + (r.errors as number) + (r.timeouts as number) + (r.unexpected as number), 0)
-  console.log(JSON.stringify({
-    date: new Date().toISOString(), database: postgres ? 'postgresql' : 'pglite', node: process.version, serverNodeOptions: SERVER_NODE_OPTIONS.join(' '), cpus: cpus().length, cpu: cpus()[0]?.model,
-    memoryGb: Math.round(totalmem() / 2 ** 30), loadAverage: loadavg().map(v => Math.round(v * 100) / 100),
-    results,
-    serverPeakRssMb: { afterPage: pagePeakRssMb, afterOutlookReads: peak, setupProcess: setupPeakRssMb },
-    targets: TARGETS,
-    met: {
-      pageP95: p95(page) <= TARGETS.pageP95Ms,
-      outlookRevalidationP95: p95(revalidated) <= TARGETS.outlookRevalidationP95Ms,
-      errors: errors === TARGETS.errors,
-      peakRss: peak !== null && peak <= TARGETS.peakRssMb,
-    },
-  }, null, 2))
+  const errors = results.reduce(
+    (sum, r) => sum + (r.errors as number) + (r.timeouts as number) + (r.unexpected as number),
+    0,
+  )
+  console.log(
+    JSON.stringify(
+      {
+        date: new Date().toISOString(),
+        database: postgres ? 'postgresql' : 'pglite',
+        node: process.version,
+        serverNodeOptions: SERVER_NODE_OPTIONS.join(' '),
+        cpus: cpus().length,
+        cpu: cpus()[0]?.model,
+        memoryGb: Math.round(totalmem() / 2 ** 30),
+        loadAverage: loadavg().map(v => Math.round(v * 100) / 100),
+        results,
+        serverPeakRssMb: { afterPage: pagePeakRssMb, afterOutlookReads: peak, setupProcess: setupPeakRssMb },
+        targets: TARGETS,
+        met: {
+          pageP95: p95(page) <= TARGETS.pageP95Ms,
+          outlookRevalidationP95: p95(revalidated) <= TARGETS.outlookRevalidationP95Ms,
+          errors: errors === TARGETS.errors,
+          peakRss: peak !== null && peak <= TARGETS.peakRssMb,
+        },
+      },
+      null,
+      2,
+    ),
+  )
 }
 finally {
   await server.stop()

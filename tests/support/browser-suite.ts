@@ -26,7 +26,8 @@ export function useBrowserSuite(name: string): BrowserSuite {
     await suite.context.close()
     expect(suite.external, 'requests that left the app').toEqual([])
     expect(suite.cspViolations, 'content security policy violations').toEqual([])
-    ;({ context: suite.context, external: suite.external, cspViolations: suite.cspViolations } = await isolatedContext(suite.browser, suite.server.url))
+    const fresh = await isolatedContext(suite.browser, suite.server.url)
+    ;({ context: suite.context, external: suite.external, cspViolations: suite.cspViolations } = fresh)
     suite.page = await suite.context.newPage()
     return suite.page
   }
@@ -39,11 +40,16 @@ export function useBrowserSuite(name: string): BrowserSuite {
     await suite.server?.stop()
   })
   beforeEach(async () => {
-    ;({ context: suite.context, external: suite.external, cspViolations: suite.cspViolations } = await isolatedContext(suite.browser, suite.server.url))
+    ;({
+      context: suite.context,
+      external: suite.external,
+      cspViolations: suite.cspViolations,
+    } = await isolatedContext(suite.browser, suite.server.url))
     suite.page = await suite.context.newPage()
   })
   afterEach(async (ctx) => {
-    if (ctx.task.result?.state === 'fail' || process.env.BRINKWATER_SCREENSHOTS === 'all') await screenshot(suite.page, `${name}-${ctx.task.name}`)
+    if (ctx.task.result?.state === 'fail' || process.env.BRINKWATER_SCREENSHOTS === 'all')
+      await screenshot(suite.page, `${name}-${ctx.task.name}`)
     await suite.context.close()
     expect(suite.external, 'requests that left the app').toEqual([])
     expect(suite.cspViolations, 'content security policy violations').toEqual([])

@@ -42,13 +42,19 @@ async function watchContentSecurityPolicy(context: BrowserContext) {
   const violations: string[] = []
   await context.addInitScript(() => {
     document.addEventListener('securitypolicyviolation', (event) => {
-      console.error(`Content Security Policy violation: ${event.effectiveDirective} blocked ${event.blockedURI || 'inline code'} (${event.sourceFile}:${event.lineNumber})`)
+      console.error(
+        `Content Security Policy violation: ${event.effectiveDirective} blocked ${event.blockedURI || 'inline code'} (${event.sourceFile}:${event.lineNumber})`,
+      )
     })
   })
   context.on('console', (message) => {
-    if (/Content Security Policy/i.test(message.text())) violations.push(`${message.page()?.url() ?? 'a worker'}: ${message.text()}`)
+    if (/Content Security Policy/i.test(message.text()))
+      violations.push(`${message.page()?.url() ?? 'a worker'}: ${message.text()}`)
   })
-  context.on('weberror', error => /Content Security Policy/i.test(String(error.error())) && violations.push(String(error.error())))
+  context.on(
+    'weberror',
+    error => /Content Security Policy/i.test(String(error.error())) && violations.push(String(error.error())),
+  )
   return violations
 }
 
@@ -89,8 +95,9 @@ export async function seriousAxeViolations(page: Page): Promise<AxeViolation[]> 
   axeSource ??= await readFile(require.resolve('axe-core/axe.min.js'), 'utf8')
   await page.evaluate(axeSource)
   const violations = await page.evaluate(async () => {
-    const result = await (window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: AxeViolation[] }> } })
-      .axe.run(document, { resultTypes: ['violations'] })
+    const result = await (
+      window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: AxeViolation[] }> } }
+    ).axe.run(document, { resultTypes: ['violations'] })
     return result.violations
   })
   return violations.filter(v => v.impact === 'serious' || v.impact === 'critical')

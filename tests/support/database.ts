@@ -27,7 +27,8 @@ async function asAdmin<T>(adminUrl: string, work: (client: pg.Client) => Promise
 
 /** A fresh, empty database on the test server; the app migrates and seeds it when it starts. */
 export async function createTestDatabase(adminUrl = TEST_DATABASE_URL): Promise<TestDatabase> {
-  if (!adminUrl) throw new Error('Set BRINKWATER_TEST_DATABASE_URL to a PostgreSQL superuser URL to create test databases.')
+  if (!adminUrl)
+    throw new Error('Set BRINKWATER_TEST_DATABASE_URL to a PostgreSQL superuser URL to create test databases.')
   const name = `brinkwater_test_${randomBytes(6).toString('hex')}`
   await asAdmin(adminUrl, client => client.query(`create database ${name}`))
   const url = new URL(adminUrl)

@@ -1,7 +1,14 @@
 import { expect } from 'vitest'
 import type { Page } from 'playwright-core'
 
-export interface MailboxMessage { id: string, to: string[], subject: string, text: string, html: string, headers: Record<string, string> }
+export interface MailboxMessage {
+  id: string
+  to: string[]
+  subject: string
+  text: string
+  html: string
+  headers: Record<string, string>
+}
 
 /**
  * Waits until the stand-in mailbox holds a message to `address` whose subject matches, reading it

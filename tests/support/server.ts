@@ -10,7 +10,9 @@ export { createTestDatabase, TEST_DATABASE_URL, type TestDatabase } from './data
 export const ROOT = resolve(import.meta.dirname, '../..')
 export const SERVER_ENTRY = resolve(ROOT, '.output/server/index.mjs')
 /** The Node options `npm start` runs the built server with (package.json `config`), so tests run it the same way. */
-export const SERVER_NODE_OPTIONS: string[] = JSON.parse(readFileSync(resolve(ROOT, 'package.json'), 'utf8')).config.serverNodeOptions.split(' ')
+export const SERVER_NODE_OPTIONS: string[] = JSON.parse(
+  readFileSync(resolve(ROOT, 'package.json'), 'utf8'),
+).config.serverNodeOptions.split(' ')
 
 export interface RunningServer {
   url: string
@@ -45,10 +47,12 @@ async function freePort(): Promise<number> {
  * dropped by `stop()`. Pass `DATABASE_URL` (from `createTestDatabase()`) to start several servers
  * on one database, or `PGLITE_DATA_DIR` for a PGlite folder; then the caller owns that database.
  */
-export async function startServer(env: Record<string, string> = {}, options: StartOptions = {}): Promise<RunningServer> {
-  const ownDatabase: TestDatabase | undefined = TEST_DATABASE_URL && !env.DATABASE_URL && !env.PGLITE_DATA_DIR
-    ? await createTestDatabase()
-    : undefined
+export async function startServer(
+  env: Record<string, string> = {},
+  options: StartOptions = {},
+): Promise<RunningServer> {
+  const ownDatabase: TestDatabase | undefined
+    = TEST_DATABASE_URL && !env.DATABASE_URL && !env.PGLITE_DATA_DIR ? await createTestDatabase() : undefined
   try {
     return await launch(env, ownDatabase, options.requireHealthy ?? true)
   }
@@ -58,7 +62,11 @@ export async function startServer(env: Record<string, string> = {}, options: Sta
   }
 }
 
-async function launch(env: Record<string, string>, ownDatabase: TestDatabase | undefined, requireHealthy: boolean): Promise<RunningServer> {
+async function launch(
+  env: Record<string, string>,
+  ownDatabase: TestDatabase | undefined,
+  requireHealthy: boolean,
+): Promise<RunningServer> {
   const port = await freePort()
   const url = `http://127.0.0.1:${port}`
   const child: ChildProcess = spawn(process.execPath, [...SERVER_NODE_OPTIONS, SERVER_ENTRY], {
@@ -79,11 +87,17 @@ async function launch(env: Record<string, string>, ownDatabase: TestDatabase | u
   })
   const exited = new Promise<number | null>(resolveExit => child.once('exit', code => resolveExit(code)))
   let output = ''
-  child.stdout!.on('data', (chunk) => { output += chunk })
-  child.stderr!.on('data', (chunk) => { output += chunk })
+  child.stdout!.on('data', (chunk) => {
+    output += chunk
+  })
+  child.stderr!.on('data', (chunk) => {
+    output += chunk
+  })
 
   const listening = new Promise<void>((resolveListening, reject) => {
-    child.stdout!.on('data', () => { if (output.includes('Listening on')) resolveListening() })
+    child.stdout!.on('data', () => {
+      if (output.includes('Listening on')) resolveListening()
+    })
     child.once('exit', code => reject(new Error(`The server exited with code ${code} before listening:\n${output}`)))
   })
   await listening

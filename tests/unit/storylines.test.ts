@@ -7,7 +7,10 @@ describe('a storyline at a site', () => {
   const input = baseInput({
     baselineYear: 2020,
     years: [2020, 2050, 2100],
-    components: [normalComponent('ocean-expansion', { 2100: [0.4, 0.1] }, 2020), normalComponent('antarctica', { 2100: [0.2, 0.15] }, 2020)],
+    components: [
+      normalComponent('ocean-expansion', { 2100: [0.4, 0.1] }, 2020),
+      normalComponent('antarctica', { 2100: [0.2, 0.15] }, 2020),
+    ],
     landMotion: { rateMmPerYear: -2, sigmaMmPerYear: 0.5, epoch: 2020 },
   })
   const storyline = { name: 'Early collapse', baselineYear: 2020, anchorYears: [2100], values: { antarctica: [1] } }
@@ -22,7 +25,14 @@ describe('a storyline at a site', () => {
   })
 
   it('scales the storyline’s values by the site’s factor and stops at its last anchor year', () => {
-    const scaled = { ...input, years: [2020, 2100, 2150], components: [normalComponent('ocean-expansion', { 2150: [0.6, 0.1] }, 2020), { ...normalComponent('antarctica', { 2150: [0.3, 0.1] }, 2020), scale: 1.2 }] }
+    const scaled = {
+      ...input,
+      years: [2020, 2100, 2150],
+      components: [
+        normalComponent('ocean-expansion', { 2150: [0.6, 0.1] }, 2020),
+        { ...normalComponent('antarctica', { 2150: [0.3, 0.1] }, 2020), scale: 1.2 },
+      ],
+    }
     // [practice] 2100: ocean 0.6·80/130 + 1.2 × 1.0 + 0.16 m; 2150 is past the storyline's last anchor.
     const rises = storylineRise(storyline, storylineBasis(scaled))
     expect(rises).toHaveLength(1)

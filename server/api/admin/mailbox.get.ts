@@ -8,7 +8,8 @@ const Query = LimitQuery(200, 50)
 // with a real mail server (SMTP_URL) mail belongs in people's own inboxes.
 export default defineEventHandler(async (event) => {
   await requireOperator(event)
-  if (serverConfig().SMTP_URL) throw createError({ statusCode: 404, message: 'No such mailbox: mail goes to the mail server set in SMTP_URL.' })
+  if (serverConfig().SMTP_URL)
+    throw createError({ statusCode: 404, message: 'No such mailbox: mail goes to the mail server set in SMTP_URL.' })
   const { limit } = readValidQuery(event, Query)
   return readMailbox(limit)
 })

@@ -25,11 +25,23 @@ export default defineEventHandler(async (event) => {
   const forClient = await tryTakeAttempt(clientFailureKey(client), CLIENT_FAILURES, WINDOW_MS)
   if (forClient === null) {
     const seconds = slowSeconds()
-    await rateLimit(clientSlowKey(client), 1, seconds * 1000, `failed sign-ins from this connection, so it may try once every ${seconds} seconds for now`, event)
+    await rateLimit(
+      clientSlowKey(client),
+      1,
+      seconds * 1000,
+      `failed sign-ins from this connection, so it may try once every ${seconds} seconds for now`,
+      event,
+    )
   }
   let forAddress: number
   try {
-    forAddress = await takeAttempt(event, addressKey(email), ADDRESS_FAILURES, WINDOW_MS, 'Too many failed sign-ins for this address, so it is locked for now.')
+    forAddress = await takeAttempt(
+      event,
+      addressKey(email),
+      ADDRESS_FAILURES,
+      WINDOW_MS,
+      'Too many failed sign-ins for this address, so it is locked for now.',
+    )
   }
   catch (error) {
     if (forClient !== null) await returnAttempt(clientFailureKey(client))
@@ -41,7 +53,11 @@ export default defineEventHandler(async (event) => {
   const valid = await verifyPassword(row?.hash ?? await standInHash(), password)
   if (!row || !valid) {
     await recordSignInFailure({
-      email, userId: row?.id ?? null, organisationId: row?.organisationId ?? null, client, failuresForAddress: forAddress,
+      email,
+      userId: row?.id ?? null,
+      organisationId: row?.organisationId ?? null,
+      client,
+      failuresForAddress: forAddress,
       lockedForMinutes: forAddress === ADDRESS_FAILURES ? WINDOW_MS / 60_000 : null,
       slowedToSeconds: forClient === CLIENT_FAILURES ? slowSeconds() : null,
     })

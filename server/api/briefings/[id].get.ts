@@ -14,5 +14,14 @@ export default defineEventHandler(async (event) => {
   // Links are built on the configured address (APP_URL), never on the request's Host header.
   const live = liveLink(row, user)
   const staleness = await briefingStaleness(row)
-  return { ...briefing, shareToken: canEdit ? shareToken : null, shared: shareToken !== null, canEdit, document, staleness: staleness && { changes: staleness.changes }, appUrl: appUrl(), live: { url: `${appUrl()}${live.path}`, signIn: live.signIn } }
+  return {
+    ...briefing,
+    shareToken: canEdit ? shareToken : null,
+    shared: shareToken !== null,
+    canEdit,
+    document,
+    staleness: staleness && { changes: staleness.changes },
+    appUrl: appUrl(),
+    live: { url: `${appUrl()}${live.path}`, signIn: live.signIn },
+  }
 })

@@ -10,5 +10,13 @@ export default defineEventHandler(async (event) => {
   // The address printed on the page is the configured one (APP_URL), never the request's Host header.
   const staleness = await briefingStaleness(briefing)
   const changes = staleness?.changes.map(({ thresholdId: _id, ...change }) => change) ?? null
-  return { staleness: changes && { changes }, id: briefing.id, version: briefing.version, issuedAt: briefing.issuedAt, siteId: briefing.siteId, link: `${appUrl()}/shared/${token}`, document: await briefingDocument(briefing) }
+  return {
+    staleness: changes && { changes },
+    id: briefing.id,
+    version: briefing.version,
+    issuedAt: briefing.issuedAt,
+    siteId: briefing.siteId,
+    link: `${appUrl()}/shared/${token}`,
+    document: await briefingDocument(briefing),
+  }
 })

@@ -7,5 +7,10 @@ export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
   const { id } = readValidParams(event, IdParams)
   const site = await loadSite(user, id)
-  return { ...site, outlooks: await listSiteOutlooks(id), decisionAlerts: await openAlertCount(id), canEdit: user.role === 'planner' }
+  return {
+    ...site,
+    outlooks: await listSiteOutlooks(id),
+    decisionAlerts: await openAlertCount(id),
+    canEdit: user.role === 'planner',
+  }
 })

@@ -11,7 +11,10 @@ export default defineEventHandler(async (event) => {
   const input = await readValidBody(event, SiteSchema)
   const ifMatch = getRequestHeader(event, 'if-match')?.trim().replace(/^W\//, '').replace(/^"|"$/g, '')
   if (ifMatch && Number.isNaN(Date.parse(ifMatch))) {
-    throw createError({ statusCode: 400, message: 'If-Match must be the site\'s updatedAt as GET returned it, in quotes; or leave the header out.' })
+    throw createError({
+      statusCode: 400,
+      message: 'If-Match must be the site\'s updatedAt as GET returned it, in quotes; or leave the header out.',
+    })
   }
   return updateSite(planner, id, input, ifMatch || undefined)
 })

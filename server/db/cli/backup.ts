@@ -11,12 +11,18 @@ import { backupPath, parseArgs, runCli } from './backup-files'
 import { runPgTool } from './pg-tools'
 
 export async function backupPglite(dataDir: string, out?: string) {
-  if (dataDir === 'memory://') throw new Error('PGLITE_DATA_DIR is memory://: an in-memory database has nothing on disk to back up.')
+  if (dataDir === 'memory://')
+    throw new Error('PGLITE_DATA_DIR is memory://: an in-memory database has nothing on disk to back up.')
   if (!existsSync(dataDir) || !(await readdir(dataDir)).length) {
-    throw new Error(`Nothing to back up: the PGlite data folder ${dataDir} does not exist or is empty. Set PGLITE_DATA_DIR to the folder the app uses.`)
+    throw new Error(
+      `Nothing to back up: the PGlite data folder ${dataDir} does not exist or is empty. Set PGLITE_DATA_DIR to the folder the app uses.`,
+    )
   }
   const holder = await dataDirHolder(dataDir)
-  if (holder) throw new Error(`The app (process ${holder}) has ${dataDir} open. Stop the app first, then run npm run db:backup again.`)
+  if (holder)
+    throw new Error(
+      `The app (process ${holder}) has ${dataDir} open. Stop the app first, then run npm run db:backup again.`,
+    )
   const release = await claimDataDir(dataDir)
   try {
     const client = new PGlite(dataDir)
@@ -48,7 +54,9 @@ async function main() {
   const options = databaseOptions()
   const file = options.url ? await backupServer(options.url, args.out) : await backupPglite(options.dataDir, args.out)
   const size = (await stat(file)).size
-  console.log(`Backed up ${options.url ? `PostgreSQL (${describeUrl(options.url)})` : `PGlite (${options.dataDir})`} to ${file} (${(size / 1e6).toFixed(1)} MB).`)
+  console.log(
+    `Backed up ${options.url ? `PostgreSQL (${describeUrl(options.url)})` : `PGlite (${options.dataDir})`} to ${file} (${(size / 1e6).toFixed(1)} MB).`,
+  )
   console.log(`Restore it with: npm run db:restore -- ${file} --force`)
 }
 

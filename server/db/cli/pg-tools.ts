@@ -16,9 +16,15 @@ export async function runPgTool(tool: 'pg_dump' | 'pg_restore', args: string[], 
   let errors = ''
   child.stderr.on('data', (chunk) => { errors += chunk })
   const code = await new Promise<number | null>((resolve, reject) => {
-    child.once('error', (error: NodeJS.ErrnoException) => reject(error.code === 'ENOENT'
-      ? new Error(`${tool} was not found. Install PostgreSQL's client tools, the server's major version or newer (Debian: apt install postgresql-client).`)
-      : error))
+    child.once('error', (error: NodeJS.ErrnoException) =>
+      reject(
+        error.code === 'ENOENT'
+          ? new Error(
+              `${tool} was not found. Install PostgreSQL's client tools, the server's major version or newer (Debian: apt install postgresql-client).`,
+            )
+          : error,
+      ),
+    )
     child.once('close', resolve)
   })
   if (code !== 0) throw new Error(`${tool} failed (exit ${code}):\n${errors.trim()}`)

@@ -14,11 +14,16 @@ async function main() {
   const args = parseArgs()
   const options = databaseOptions()
   if (options.url && !args.force) {
-    throw new Error(`db:reset deletes every table in ${describeUrl(options.url)}. Back it up first (npm run db:backup) if it matters, then run: npm run db:reset -- --force`)
+    throw new Error(
+      `db:reset deletes every table in ${describeUrl(options.url)}. Back it up first (npm run db:backup) if it matters, then run: npm run db:reset -- --force`,
+    )
   }
   if (!options.url && options.dataDir !== 'memory://') {
     const holder = await dataDirHolder(options.dataDir)
-    if (holder) throw new Error(`The app (process ${holder}) has ${options.dataDir} open. Stop the app first, then run npm run db:reset again.`)
+    if (holder)
+      throw new Error(
+        `The app (process ${holder}) has ${options.dataDir} open. Stop the app first, then run npm run db:reset again.`,
+      )
     await rm(options.dataDir, { recursive: true, force: true })
   }
   const handle = await openDatabase(options)

@@ -18,15 +18,53 @@ export const DEMO_ORGANISATIONS = [
 
 type DemoOrgKey = typeof DEMO_ORGANISATIONS[number]['key']
 
-export const DEMO_USERS: ReadonlyArray<{ email: string, name: string, role: Role, org: DemoOrgKey, password: string, locale?: 'en' | 'es' }> = [
+export const DEMO_USERS: ReadonlyArray<{
+  email: string
+  name: string
+  role: Role
+  org: DemoOrgKey
+  password: string
+  locale?: 'en' | 'es'
+}> = [
   // Runs the demo instance (every organisation's people, the demo mailbox); belongs to the council only
   // because every account belongs to one.
-  { email: 'operator@caldwyn.example', name: 'Cadan Rowe', role: 'operator', org: 'council', password: 'demo-operator-tide' },
+  {
+    email: 'operator@caldwyn.example',
+    name: 'Cadan Rowe',
+    role: 'operator',
+    org: 'council',
+    password: 'demo-operator-tide',
+  },
   { email: 'admin@caldwyn.example', name: 'Morwen Tallis', role: 'admin', org: 'council', password: 'demo-admin-tide' },
-  { email: 'analyst@saltglass.example', name: 'Ivo Brannock', role: 'analyst', org: 'science', password: 'demo-analyst-tide' },
-  { email: 'reviewer@saltglass.example', name: 'Petra Lusk', role: 'analyst', org: 'science', password: 'demo-reviewer-tide' },
-  { email: 'planner@caldwyn.example', name: 'Noor Halloran', role: 'planner', org: 'council', password: 'demo-planner-tide' },
-  { email: 'planner@skerrow.example', name: 'Tomas Greer', role: 'planner', org: 'port', password: 'demo-port-tide', locale: 'es' },
+  {
+    email: 'analyst@saltglass.example',
+    name: 'Ivo Brannock',
+    role: 'analyst',
+    org: 'science',
+    password: 'demo-analyst-tide',
+  },
+  {
+    email: 'reviewer@saltglass.example',
+    name: 'Petra Lusk',
+    role: 'analyst',
+    org: 'science',
+    password: 'demo-reviewer-tide',
+  },
+  {
+    email: 'planner@caldwyn.example',
+    name: 'Noor Halloran',
+    role: 'planner',
+    org: 'council',
+    password: 'demo-planner-tide',
+  },
+  {
+    email: 'planner@skerrow.example',
+    name: 'Tomas Greer',
+    role: 'planner',
+    org: 'port',
+    password: 'demo-port-tide',
+    locale: 'es',
+  },
   { email: 'reader@caldwyn.example', name: 'Elin Marsh', role: 'reader', org: 'council', password: 'demo-reader-tide' },
 ]
 

@@ -14,7 +14,12 @@ import { languageOf } from '#shared/wording/translate'
 // recorded, or when its tipping year moved by more than the record's margin. The planners of the
 // organisation get one e-mail per recomputation naming every decision raised.
 
-function reasonFor(record: DecisionRecord, tippingYear: number | null, horizon: number, year: number): AlertReason['kinds'] {
+function reasonFor(
+  record: DecisionRecord,
+  tippingYear: number | null,
+  horizon: number,
+  year: number,
+): AlertReason['kinds'] {
   const kinds: AlertReason['kinds'] = []
   const decision = tippingYear === null ? null : tippingYear - record.leadTimeYears
   const wasLate = record.decisionYear !== null && record.decisionYear < year
@@ -22,14 +27,17 @@ function reasonFor(record: DecisionRecord, tippingYear: number | null, horizon: 
   if (decision !== null && decision < year && !wasLate && earlier) kinds.push('late')
   // A year beyond the horizon counts as the horizon's next year.
   const beyond = (y: number | null, h: number) => y ?? h + 1
-  if (Math.abs(beyond(tippingYear, horizon) - beyond(record.tippingYear, record.horizon)) > record.marginYears) kinds.push('moved')
+  if (Math.abs(beyond(tippingYear, horizon) - beyond(record.tippingYear, record.horizon)) > record.marginYears)
+    kinds.push('moved')
   return kinds
 }
 
 function releaseChanges(before: OutlookReleaseRef[], after: OutlookReleaseRef[]) {
   return after.flatMap((ref) => {
     const was = before.find(r => r.component === ref.component)
-    return was?.releaseId === ref.releaseId ? [] : [{ component: ref.component, from: was?.version ?? null, to: ref.version, citation: ref.citation }]
+    return was?.releaseId === ref.releaseId
+      ? []
+      : [{ component: ref.component, from: was?.version ?? null, to: ref.version, citation: ref.citation }]
   })
 }
 
@@ -45,7 +53,8 @@ export async function checkDecisionAlerts(siteId: string, comparisons: Compariso
     const pathway = pathways.find(p => p.id === record.pathwayId)
     if (!comparison || !pathway) continue
     const evaluated = evaluateOutlook(comparison.after, measures, pathway.tolerances)
-    const tippingYear = evaluated.tipping[record.fromMeasureId]?.find(t => t.tolerance === record.tolerance)?.year ?? null
+    const tippingYear
+      = evaluated.tipping[record.fromMeasureId]?.find(t => t.tolerance === record.tolerance)?.year ?? null
     const kinds = reasonFor(record, tippingYear, evaluated.horizon, year)
     if (!kinds.length) continue
     raised.push({
@@ -58,7 +67,10 @@ export async function checkDecisionAlerts(siteId: string, comparisons: Compariso
   }
   if (!raised.length) return
   const db = await useDb()
-  const [site] = await db.select({ name: sites.name, organisationId: sites.organisationId }).from(sites).where(eq(sites.id, siteId))
+  const [site] = await db
+    .select({ name: sites.name, organisationId: sites.organisationId })
+    .from(sites)
+    .where(eq(sites.id, siteId))
   if (!site) return
   const planners = await db.select({ id: users.id, email: users.email, locale: users.locale }).from(users)
     .where(and(eq(users.organisationId, site.organisationId), eq(users.role, 'planner'), eq(users.disabled, false)))
@@ -71,12 +83,26 @@ export async function checkDecisionAlerts(siteId: string, comparisons: Compariso
     if (!inserted.length) return
     const fresh = raised.filter(r => inserted.some(i => i.recordId === r.record.id))
     const decisions: AlertedDecision[] = fresh.map(({ record, reason }) => ({
-      measure: names.get(record.measureId) ?? '', inService: names.get(record.fromMeasureId) ?? '', scenario: record.scenario, tolerance: record.tolerance,
-      leadTimeYears: record.leadTimeYears, before: { tippingYear: record.tippingYear, decisionYear: record.decisionYear }, after: { tippingYear: reason.tippingYear, decisionYear: reason.decisionYear },
-      horizon: record.horizon, kinds: reason.kinds, marginYears: record.marginYears, releases: reason.releases,
+      measure: names.get(record.measureId) ?? '',
+      inService: names.get(record.fromMeasureId) ?? '',
+      scenario: record.scenario,
+      tolerance: record.tolerance,
+      leadTimeYears: record.leadTimeYears,
+      before: { tippingYear: record.tippingYear, decisionYear: record.decisionYear },
+      after: { tippingYear: reason.tippingYear, decisionYear: reason.decisionYear },
+      horizon: record.horizon,
+      kinds: reason.kinds,
+      marginYears: record.marginYears,
+      releases: reason.releases,
     }))
     for (const planner of planners) {
-      const mail = decisionAlertMail({ language: languageOf(planner.locale), site: site.name, url: `${appUrl()}/sites/${siteId}/pathways`, currentYear: year, decisions })
+      const mail = decisionAlertMail({
+        language: languageOf(planner.locale),
+        site: site.name,
+        url: `${appUrl()}/sites/${siteId}/pathways`,
+        currentYear: year,
+        decisions,
+      })
       // One e-mail per planner and recomputation, even when its job runs again after a crash.
       await queueMail(tx, { to: planner.email, ...mail, dedupeKey: `decision-alert:${siteId}:${event}:${planner.id}` })
     }

@@ -33,14 +33,20 @@ function engineHeights(outlook: Outlook, measures: Measure[]) {
 
 export function evaluateOutlook(outlook: Outlook, measures: Measure[], tolerances: number[]): ScenarioEvaluation {
   const heights = engineHeights(outlook, measures)
-  const key = createHash('sha256').update(JSON.stringify([ENGINE_VERSION, outlook.inputHash, heights, tolerances])).digest('hex')
+  const key = createHash('sha256')
+    .update(JSON.stringify([ENGINE_VERSION, outlook.inputHash, heights, tolerances]))
+    .digest('hex')
   let tipping = cache.get(key)
   if (!tipping) {
     const input = outlook.input
     const evaluated = heights.length
       ? evaluateMeasures(input, heights, tolerances)
       : { horizon: input.years.at(-1)!, measures: [] }
-    tipping = { scenario: outlook.scenario, horizon: evaluated.horizon, tipping: Object.fromEntries(evaluated.measures.map(m => [m.key, m.tipping])) }
+    tipping = {
+      scenario: outlook.scenario,
+      horizon: evaluated.horizon,
+      tipping: Object.fromEntries(evaluated.measures.map(m => [m.key, m.tipping])),
+    }
     if (cache.size >= CACHE_LIMIT) cache.delete(cache.keys().next().value!)
     cache.set(key, tipping)
   }
@@ -57,7 +63,10 @@ export async function evaluateSite(siteId: string, measures: Measure[], toleranc
     catch (error) {
       // An outlook stored under rules the engine no longer accepts is left out, not turned into a 500;
       // the next recomputation replaces it.
-      console.error(`[brinkwater] pathways: outlook ${outlook.id} could not be evaluated:`, error instanceof Error ? error.message : error)
+      console.error(
+        `[brinkwater] pathways: outlook ${outlook.id} could not be evaluated:`,
+        error instanceof Error ? error.message : error,
+      )
       return []
     }
   })

@@ -17,14 +17,23 @@ function checkAboveTodaysLevel(site: Site, input: MeasureInput) {
   if (input.height === null) return
   const m = (value: number) => `${value.toFixed(2)} m`
   if (input.kind === 'mean-sea-level' && input.height <= site.datumOffset) {
-    refuse('height', `${m(input.height)} is at or below mean sea level at the reference epoch ${site.referenceEpoch} (${m(site.datumOffset)} above ${site.referenceLevel}); enter the height the measure protects to, above that level.`)
+    refuse(
+      'height',
+      `${m(input.height)} is at or below mean sea level at the reference epoch ${site.referenceEpoch} (${m(site.datumOffset)} above ${site.referenceLevel}); enter the height the measure protects to, above that level.`,
+    )
   }
   if (input.kind === 'flood-level') {
     if (site.gumbelLocation === null || site.gumbelScale === null) {
-      refuse('kind', 'A flood level is compared with the total water level and needs the site\'s extreme-water statistics; enter them on the site or make this a mean-sea-level height.')
+      refuse(
+        'kind',
+        'A flood level is compared with the total water level and needs the site\'s extreme-water statistics; enter them on the site or make this a mean-sea-level height.',
+      )
     }
     if (input.height <= site.gumbelLocation) {
-      refuse('height', `${m(input.height)} is at or below the usual yearly highest water here (${m(site.gumbelLocation)} above ${site.referenceLevel}), which reaches it most years already; enter the crest or floor height the measure protects to.`)
+      refuse(
+        'height',
+        `${m(input.height)} is at or below the usual yearly highest water here (${m(site.gumbelLocation)} above ${site.referenceLevel}), which reaches it most years already; enter the crest or floor height the measure protects to.`,
+      )
     }
   }
 }
@@ -32,14 +41,21 @@ function checkAboveTodaysLevel(site: Site, input: MeasureInput) {
 export async function createMeasure(planner: CurrentUser, siteId: string, input: MeasureInput) {
   const site = await loadSite(planner, siteId)
   checkAboveTodaysLevel(site, input)
-  if ((await siteMeasures(siteId)).length >= MAX_MEASURES) refuse('name', `A site has at most ${MAX_MEASURES} measures.`)
+  if ((await siteMeasures(siteId)).length >= MAX_MEASURES)
+    refuse('name', `A site has at most ${MAX_MEASURES} measures.`)
   const db = await useDb()
   return db.transaction(async (tx) => {
     const [row] = await tx.insert(adaptationMeasures).values({
       siteId, name: input.name, height: input.height, kind: input.kind, leadTimeYears: input.leadTimeYears,
       designLifeYears: input.designLifeYears, costBand: input.costBand, createdBy: planner.id,
     }).returning()
-    await writeAudit(tx, planner, 'measure.created', { type: 'site', id: siteId }, { measure: row!.id, name: input.name, height: input.height, leadTimeYears: input.leadTimeYears })
+    await writeAudit(
+      tx,
+      planner,
+      'measure.created',
+      { type: 'site', id: siteId },
+      { measure: row!.id, name: input.name, height: input.height, leadTimeYears: input.leadTimeYears },
+    )
     return row!
   })
 }

@@ -10,17 +10,29 @@ export type DecisionAlert = typeof decisionAlerts.$inferSelect
 
 export async function siteMeasures(siteId: string) {
   const db = await useDb()
-  return db.select().from(adaptationMeasures).where(eq(adaptationMeasures.siteId, siteId)).orderBy(asc(adaptationMeasures.createdAt), asc(adaptationMeasures.id))
+  return db
+    .select()
+    .from(adaptationMeasures)
+    .where(eq(adaptationMeasures.siteId, siteId))
+    .orderBy(asc(adaptationMeasures.createdAt), asc(adaptationMeasures.id))
 }
 
 export async function sitePathways(siteId: string) {
   const db = await useDb()
-  return db.select().from(adaptationPathways).where(eq(adaptationPathways.siteId, siteId)).orderBy(asc(adaptationPathways.createdAt), asc(adaptationPathways.id))
+  return db
+    .select()
+    .from(adaptationPathways)
+    .where(eq(adaptationPathways.siteId, siteId))
+    .orderBy(asc(adaptationPathways.createdAt), asc(adaptationPathways.id))
 }
 
 export async function siteRecords(siteId: string) {
   const db = await useDb()
-  return db.select().from(decisionRecords).where(eq(decisionRecords.siteId, siteId)).orderBy(desc(decisionRecords.decidedAt), desc(decisionRecords.id))
+  return db
+    .select()
+    .from(decisionRecords)
+    .where(eq(decisionRecords.siteId, siteId))
+    .orderBy(desc(decisionRecords.decidedAt), desc(decisionRecords.id))
 }
 
 /** Records not yet reviewed by a later one: the decisions in force. */
@@ -34,7 +46,11 @@ export async function openAlerts(siteId: string, records: DecisionRecord[]) {
   const db = await useDb()
   const current = currentRecords(records).map(r => r.id)
   if (!current.length) return []
-  return db.select().from(decisionAlerts).where(and(eq(decisionAlerts.siteId, siteId), inArray(decisionAlerts.recordId, current))).orderBy(desc(decisionAlerts.createdAt))
+  return db
+    .select()
+    .from(decisionAlerts)
+    .where(and(eq(decisionAlerts.siteId, siteId), inArray(decisionAlerts.recordId, current)))
+    .orderBy(desc(decisionAlerts.createdAt))
 }
 
 /** How many decision alerts the site page flags. */

@@ -18,16 +18,32 @@ export function stepsOf(pathway: Pathway, measures: Measure[]) {
 /** Everything the site's pathways section shows: measures, pathways with their decisions, records, alerts. */
 export async function pathwaysView(user: CurrentUser, siteId: string) {
   const site = await loadSite(user, siteId)
-  const [measures, pathways, records] = await Promise.all([siteMeasures(siteId), sitePathways(siteId), siteRecords(siteId)])
-  const tolerances = [...new Set(pathways.length ? pathways.flatMap(p => p.tolerances) : DEFAULT_PATHWAY_TOLERANCES)].sort((a, b) => a - b)
+  const [measures, pathways, records] = await Promise.all([
+    siteMeasures(siteId),
+    sitePathways(siteId),
+    siteRecords(siteId),
+  ])
+  const tolerances = [
+    ...new Set(pathways.length ? pathways.flatMap(p => p.tolerances) : DEFAULT_PATHWAY_TOLERANCES),
+  ].sort((a, b) => a - b)
   const scenarios = await evaluateSite(siteId, measures, tolerances)
   const year = currentYear()
   return {
-    site: { id: site.id, name: site.name, referenceLevel: site.referenceLevel, datumOffset: site.datumOffset, referenceEpoch: site.referenceEpoch },
+    site: {
+      id: site.id,
+      name: site.name,
+      referenceLevel: site.referenceLevel,
+      datumOffset: site.datumOffset,
+      referenceEpoch: site.referenceEpoch,
+    },
     currentYear: year,
     measures,
     scenarios: scenarios.map(s => ({
-      scenario: s.scenario, horizon: s.horizon, outlookId: s.outlookId, inputHash: s.inputHash, tipping: s.tipping,
+      scenario: s.scenario,
+      horizon: s.horizon,
+      outlookId: s.outlookId,
+      inputHash: s.inputHash,
+      tipping: s.tipping,
       releases: s.releaseRefs.map(r => ({ component: r.component, version: r.version, citation: r.citation })),
     })),
     pathways: pathways.map((pathway) => {

@@ -1,13 +1,22 @@
 import { describe, expect, it } from 'vitest'
 import type { z } from 'zod'
 import { SiteSchema } from '../../../shared/schemas/sites'
-import { CreateCorrelationSetSchema, CreateReleaseSchema, CreateScaleFactorGridSchema } from '../../../shared/schemas/releases'
+import {
+  CreateCorrelationSetSchema,
+  CreateReleaseSchema,
+  CreateScaleFactorGridSchema,
+} from '../../../shared/schemas/releases'
 import { UpdateBriefingSchema } from '../../../shared/schemas/briefings'
 import { MAX_TEXT } from '../../../shared/releases/limits'
 import { issuePath, issueRule, valueAt } from '../../../utils/issueRules'
 
 const site = {
-  name: 'Quay', latitude: 48, longitude: -33, referenceLevel: 'chart datum', datum: { kind: 'chart', offset: 1.2 }, referenceEpoch: 2005,
+  name: 'Quay',
+  latitude: 48,
+  longitude: -33,
+  referenceLevel: 'chart datum',
+  datum: { kind: 'chart', offset: 1.2 },
+  referenceEpoch: 2005,
   landMotion: { rateMmPerYear: -2, sigmaMmPerYear: 0.5, source: 'gps', reference: '', epoch: 2010 },
   thresholds: [{ label: 'Wall', height: 0.5, kind: 'mean-sea-level' }],
 }
@@ -42,26 +51,67 @@ describe('the schemas\' rules, recognised from their messages', () => {
   })
 
   it('recognises the release editor\'s blanks, choices and lengths, and leaves the engine\'s own checks to the server\'s words', () => {
-    const body = { series: { component: 'sea-monsters', scenario: 'SSP2-4.5', title: 'x'.repeat(500) }, form: 'normal', unit: 'm', baselineYear: 2020, anchorYears: [2050], mean: [null], sd: [0.1], method: '', citation: 'c', licence: 'CC BY 4.0' }
+    const body = {
+      series: { component: 'sea-monsters', scenario: 'SSP2-4.5', title: 'x'.repeat(500) },
+      form: 'normal',
+      unit: 'm',
+      baselineYear: 2020,
+      anchorYears: [2050],
+      mean: [null],
+      sd: [0.1],
+      method: '',
+      citation: 'c',
+      licence: 'CC BY 4.0',
+    }
     expect(rulesFor(CreateReleaseSchema, body)).toEqual({
       'series.component': { rule: 'choose' },
       'series.title': { rule: 'tooLong', limit: MAX_TEXT.title },
       'mean.0': { rule: 'required' },
       'method': { rule: 'required' },
     })
-    expect(issueRule('must be non-decreasing across levels: 0.2 (level 0.5) follows 0.3 (level 0.17)', [0.3, 0.2])).toBeNull()
+    expect(
+      issueRule('must be non-decreasing across levels: 0.2 (level 0.5) follows 0.3 (level 0.17)', [0.3, 0.2]),
+    ).toBeNull()
   })
 
   it('recognises the correlation-set, scale-factor-grid and briefing forms\' blanks and empty choices', () => {
     const provenance = { method: '', citation: 'c', licence: 'CC BY 4.0' }
-    expect(rulesFor(CreateCorrelationSetSchema, { scenario: '', title: '', components: ['glaciers', 'greenland'], matrix: [[1, 0], [0, 1]], ...provenance })).toEqual({
-      scenario: { rule: 'required' }, title: { rule: 'required' }, method: { rule: 'required' },
+    expect(
+      rulesFor(CreateCorrelationSetSchema, {
+        scenario: '',
+        title: '',
+        components: ['glaciers', 'greenland'],
+        matrix: [
+          [1, 0],
+          [0, 1],
+        ],
+        ...provenance,
+      }),
+    ).toEqual({
+      scenario: { rule: 'required' },
+      title: { rule: 'required' },
+      method: { rule: 'required' },
     })
-    expect(rulesFor(CreateScaleFactorGridSchema, { component: '', title: 'Grid', csv: 'latitude,0\n0,1', ...provenance })).toEqual({
-      component: { rule: 'choose' }, method: { rule: 'required' },
+    expect(
+      rulesFor(CreateScaleFactorGridSchema, { component: '', title: 'Grid', csv: 'latitude,0\n0,1', ...provenance }),
+    ).toEqual({
+      component: { rule: 'choose' },
+      method: { rule: 'required' },
     })
-    const briefing = { title: 'Quay', audience: '', localContext: '', language: 'en', units: 'm', thresholdIds: [], years: [], comparisonOutlookIds: [] }
-    expect(rulesFor(UpdateBriefingSchema, briefing)).toEqual({ thresholdIds: { rule: 'chooseSome' }, years: { rule: 'chooseSome' } })
+    const briefing = {
+      title: 'Quay',
+      audience: '',
+      localContext: '',
+      language: 'en',
+      units: 'm',
+      thresholdIds: [],
+      years: [],
+      comparisonOutlookIds: [],
+    }
+    expect(rulesFor(UpdateBriefingSchema, briefing)).toEqual({
+      thresholdIds: { rule: 'chooseSome' },
+      years: { rule: 'chooseSome' },
+    })
   })
 
   it('finds the value an issue names, whatever way the field is written', () => {

@@ -12,7 +12,8 @@ describe('nice axis bounds', () => {
       expect(axis.min).toBeLessThanOrEqual(low)
       expect(axis.max).toBeGreaterThanOrEqual(high)
       // Whole steps from zero, and a step whose first digit is 1, 2 or 5.
-      for (const end of [axis.min, axis.max]) expect(Math.abs(end / axis.interval - Math.round(end / axis.interval))).toBeLessThan(1e-9)
+      for (const end of [axis.min, axis.max])
+        expect(Math.abs(end / axis.interval - Math.round(end / axis.interval))).toBeLessThan(1e-9)
       expect(Number(axis.interval.toExponential().charAt(0))).toSatisfy((d: number) => [1, 2, 5].includes(d))
     }
   })

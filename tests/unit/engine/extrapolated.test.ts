@@ -13,7 +13,7 @@ function quantileComponent(key: string, levels: number[], median: number, sd: nu
       baselineYear: 2000,
       anchorYears: [2100],
       levels,
-      values: [levels.map((p) => median + sd * standardNormalQuantile(p))],
+      values: [levels.map(p => median + sd * standardNormalQuantile(p))],
     },
   }
 }
@@ -24,37 +24,67 @@ describe('extrapolated percentiles and chances', () => {
   it('marks levels beyond a dominant quantile release’s outermost levels, and chances that need them', () => {
     // [practice] rise ~ N(0.5, 0.1): P(rise > 0.7) = 1 − Φ(2) = 0.023 sits at level 0.977 > 0.95;
     // P(rise > 0.55) = 1 − Φ(0.5) = 0.31 at level 0.69, inside.
-    const result = runOutlook(baseInput({ years: [2000, 2100], components: [quantileComponent('antarctica', levels, 0.5, 0.1)], thresholds: [{ height: 0.7 }, { height: 0.55 }] }))
+    const result = runOutlook(
+      baseInput({
+        years: [2000, 2100],
+        components: [quantileComponent('antarctica', levels, 0.5, 0.1)],
+        thresholds: [{ height: 0.7 }, { height: 0.55 }],
+      }),
+    )
     const year = result.byYear[1]!
-    expect(year.percentiles.map((p) => p.extrapolated)).toEqual([true, false, false, false, false, false, true])
+    expect(year.percentiles.map(p => p.extrapolated)).toEqual([true, false, false, false, false, false, true])
     expect(result.thresholds[0]!.byYear[1]!.extrapolated).toBe(true)
     expect(result.thresholds[1]!.byYear[1]!.extrapolated).toBe(false)
-    // The height grid (0, 0.1, … 1 m) carries the same mark where it is true: 0.7 m (level 0.977) yes, 0.5 m (level 0.5) no.
-    const at = (h: number) => year.exceedance[result.heights.findIndex((x) => Math.abs(x - h) < 1e-9)]!
+    // The height grid (0, 0.1, … 1 m) carries the same mark where it is true: 0.7 m (level 0.977) yes, 0.5 m (level
+    // 0.5) no.
+    const at = (h: number) => year.exceedance[result.heights.findIndex(x => Math.abs(x - h) < 1e-9)]!
     expect(at(0.7).extrapolated).toBe(true)
     expect(at(0.5).extrapolated).toBeUndefined()
     // The baseline year has no spread, so nothing rests on any release there.
-    expect(result.byYear[0]!.percentiles.every((p) => p.extrapolated === false)).toBe(true)
+    expect(result.byYear[0]!.percentiles.every(p => p.extrapolated === false)).toBe(true)
   })
 
   it('marks trigger years that rest on a level beyond the releases', () => {
     // [practice] rise ~ N(0.5·(t − 2000)/100, (0.1·(t − 2000)/100)²); the 1 % trigger rests on level 0.99,
     // beyond 0.95; the 50 % trigger on level 0.5, inside.
-    const result = runOutlook(baseInput({ years: [2000, 2050, 2100], components: [quantileComponent('antarctica', levels, 0.5, 0.1)], thresholds: [{ height: 0.3 }] }))
+    const result = runOutlook(
+      baseInput({
+        years: [2000, 2050, 2100],
+        components: [quantileComponent('antarctica', levels, 0.5, 0.1)],
+        thresholds: [{ height: 0.3 }],
+      }),
+    )
     const triggers = result.thresholds[0]!.triggerYears
-    expect(triggers.find((entry) => entry.tolerance === 0.01)!.extrapolated).toBe(true)
-    expect(triggers.find((entry) => entry.tolerance === 0.5)!.extrapolated).toBe(false)
+    expect(triggers.find(entry => entry.tolerance === 0.01)!.extrapolated).toBe(true)
+    expect(triggers.find(entry => entry.tolerance === 0.5)!.extrapolated).toBe(false)
   })
 
   it('folds one-sided tables so that both tails count, and ignores a release with a negligible share', () => {
-    // [practice] levels 17–95 %: with a negative scale its 95 % is the rise's 5 %, so only 17–83 % is covered both ways.
-    const oneSided = runOutlook(baseInput({ years: [2100], components: [quantileComponent('glaciers', [0.17, 0.5, 0.95], 0.5, 0.1)] }))
-    expect(oneSided.byYear[0]!.percentiles.map((p) => p.extrapolated)).toEqual([true, true, false, false, false, true, true])
+    // [practice] levels 17–95 %: with a negative scale its 95 % is the rise's 5 %, so only 17–83 % is covered both
+    // ways.
+    const oneSided = runOutlook(
+      baseInput({ years: [2100], components: [quantileComponent('glaciers', [0.17, 0.5, 0.95], 0.5, 0.1)] }),
+    )
+    expect(oneSided.byYear[0]!.percentiles.map(p => p.extrapolated)).toEqual([
+      true,
+      true,
+      false,
+      false,
+      false,
+      true,
+      true,
+    ])
     // A quantile release with variance share (0.01/1.01)² ≈ 1e-4 of the rise, far below 5 %.
     const small = runOutlook(
-      baseInput({ years: [2100], components: [normalComponent('ocean-expansion', { 2100: [0.5, 1] }), quantileComponent('land-water', levels, 0.03, 0.01)] }),
+      baseInput({
+        years: [2100],
+        components: [
+          normalComponent('ocean-expansion', { 2100: [0.5, 1] }),
+          quantileComponent('land-water', levels, 0.03, 0.01),
+        ],
+      }),
     )
     expect(small.byYear[0]!.varianceShare!['land-water']!).toBeLessThan(0.05)
-    expect(small.byYear[0]!.percentiles.every((p) => p.extrapolated === false)).toBe(true)
+    expect(small.byYear[0]!.percentiles.every(p => p.extrapolated === false)).toBe(true)
   })
 })

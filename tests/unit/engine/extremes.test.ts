@@ -90,7 +90,7 @@ describe('allowance and amplification in an outlook', () => {
     expect(gumbel.amplification).toBeCloseTo(20.09, 2)
     expect(gumbel.allowance).toBeCloseTo(0.3, 12)
     // exact Gumbel form for today's 100-year level: annual chance 1 − exp(−y·e^{Δ/λ}), y = −ln(0.99)
-    const hundred = gumbel.returnPeriods.find((r) => r.today === 100)!
+    const hundred = gumbel.returnPeriods.find(r => r.today === 100)!
     const chance = 1 - Math.exp(Math.log(1 / 0.99) * -Math.exp(3))
     expect(hundred.annualChance.value).toBeCloseTo(chance, 12)
     expect(hundred.newReturnPeriod).toBeCloseTo(1 / chance, 9)
@@ -128,7 +128,8 @@ describe('allowance and amplification in an outlook', () => {
     })
     const noneDuring = (first: number, last: number) => {
       let none = 1
-      for (let year = first; year <= last; year++) none *= Math.exp(-Math.exp(-(height - 0.004 * (year - 2000) - location) / scale))
+      for (let year = first; year <= last; year++)
+        none *= Math.exp(-Math.exp(-(height - 0.004 * (year - 2000) - location) / scale))
       return none
     }
     expect(result.thresholds[0]!.lifeExceedance!.value).toBeCloseTo(1 - noneDuring(2001, 2060), 10)

@@ -16,7 +16,11 @@ import { baseInput, normalComponent } from './helpers'
 const gumbel = { location: 1, scale: 0.1 }
 
 /** An outlook from 2000 with one normal component; `anchors` as in `normalComponent`. */
-function outlook(anchors: Record<number, [number, number]>, thresholds: ThresholdInput[], extra: Partial<OutlookInput> = {}) {
+function outlook(
+  anchors: Record<number, [number, number]>,
+  thresholds: ThresholdInput[],
+  extra: Partial<OutlookInput> = {},
+) {
   return runOutlook(
     baseInput({
       years: [2000, 2050, 2100],
@@ -32,7 +36,8 @@ function outlook(anchors: Record<number, [number, number]>, thresholds: Threshol
 /** Chance of no exceedance of h by the annual maxima in years first … last, with a known rise per year. */
 function noneDuring(height: number, rise: (year: number) => number, first: number, last: number): number {
   let none = 1
-  for (let year = first; year <= last; year++) none *= Math.exp(-Math.exp(-(height - rise(year) - gumbel.location) / gumbel.scale))
+  for (let year = first; year <= last; year++)
+    none *= Math.exp(-Math.exp(-(height - rise(year) - gumbel.location) / gumbel.scale))
   return none
 }
 
@@ -97,7 +102,12 @@ describe('flood levels over a design life', () => {
     const lives: Array<[number, number]> = [[2000, 1], [2000, 30], [2040, 20], [2050, 1], [2051, 50], [2100, 1]]
     const result = outlook(
       { 2050: [0.1, 0], 2100: [0.4, 0] },
-      lives.map(([lifeStartYear, designLifeYears]) => ({ kind: 'flood-level', height: level100, lifeStartYear, designLifeYears })),
+      lives.map(([lifeStartYear, designLifeYears]) => ({
+        kind: 'flood-level',
+        height: level100,
+        lifeStartYear,
+        designLifeYears,
+      })),
       { samples: 100 },
     )
     lives.forEach(([start, years], k) => {
@@ -113,7 +123,7 @@ describe('flood levels over a design life', () => {
       { key: 'early', kind: 'flood-level', height: level100, designLifeYears: 30, lifeStartYear: 2030 },
       { key: 'late', kind: 'flood-level', height: level100, designLifeYears: 30, lifeStartYear: 2060 },
     ])
-    const [early, late] = result.thresholds.map((threshold) => threshold.lifeExceedance!)
+    const [early, late] = result.thresholds.map(threshold => threshold.lifeExceedance!)
     // [practice] with no rise both would be 1 − 0.99^30 = 26.0 % (CHECKS.md); a higher sea only adds.
     expect(early!.value).toBeGreaterThan(0.26)
     expect(late!.value).toBeGreaterThan(early!.value + 4 * (early!.se + late!.se))
@@ -147,12 +157,12 @@ describe('a flood level against a mean-sea-level threshold at the same height', 
     expect(flood!.lifeExceedance).toBeNull()
     expect(flood!.designLifeLevel).toBeNull()
     expect(meanSea!.flood).toBeNull()
-    expect(meanSea!.byYear.every((estimate) => estimate.value === 0)).toBe(true)
+    expect(meanSea!.byYear.every(estimate => estimate.value === 0)).toBe(true)
   })
 
   it('gives the annual chance E[1 − F(h − rise)] over the rise’s distribution', () => {
     // [practice] numerical integration of 1 − exp(−exp(−(h − rise − μ)/λ)) over the normal rise
-    const expected = normalExpectation((rise) => -Math.expm1(-Math.exp(-(2.3 - rise - location) / scale)), 0.3, 0.1)
+    const expected = normalExpectation(rise => -Math.expm1(-Math.exp(-(2.3 - rise - location) / scale)), 0.3, 0.1)
     const chance = flood!.flood!.annualChance[1]!
     expect(expected).toBeGreaterThan(0.9)
     expect(Math.abs(chance.value - expected)).toBeLessThan(4 * chance.se + 1e-4)
@@ -174,7 +184,7 @@ describe('flood levels far from the sea', () => {
       { kind: 'flood-level', height: 100 },
       { kind: 'flood-level', height: -100 },
     ])
-    const [high, low] = result.thresholds.map((threshold) => threshold.flood!)
+    const [high, low] = result.thresholds.map(threshold => threshold.flood!)
     expect(high!.annualChance[2]!.value).toBe(0)
     expect(high!.returnPeriodYears[2]).toBeNull()
     expect(low!.annualChance[2]!.value).toBe(1)
@@ -188,7 +198,9 @@ describe('flood levels far from the sea', () => {
 
   it('bounds a life chance of 0 by the rule of three', () => {
     // [practice] 40 years of a level 99 m above the Gumbel location: no sample's chance differs from 0.
-    const result = outlook({ 2050: [0.2, 0.05], 2100: [0.5, 0.15] }, [{ kind: 'flood-level', height: 100, designLifeYears: 40, lifeStartYear: 2040 }])
+    const result = outlook({ 2050: [0.2, 0.05], 2100: [0.5, 0.15] }, [
+      { kind: 'flood-level', height: 100, designLifeYears: 40, lifeStartYear: 2040 },
+    ])
     const life = result.thresholds[0]!.lifeExceedance!
     expect(life.value).toBe(0)
     expect(life.upperBound95).toBe(3 / 20_000)
@@ -200,7 +212,7 @@ describe('standard errors of averaged chances', () => {
   const estimates = (result: ReturnType<typeof runOutlook>) => ({
     annual: result.thresholds[0]!.flood!.annualChance[2]!,
     life: result.thresholds[0]!.lifeExceedance!,
-    hundredYear: result.byYear[2]!.gumbel!.returnPeriods.find((period) => period.today === 100)!.annualChance,
+    hundredYear: result.byYear[2]!.gumbel!.returnPeriods.find(period => period.today === 100)!.annualChance,
   })
 
   it('are 0 when the rise is fixed', () => {
@@ -220,7 +232,7 @@ describe('standard errors of averaged chances', () => {
       estimates(outlook({ 2050: [0.2, 0.05], 2100: [0.5, 0.15] }, thresholds, { samples, seed: 1000 + seed })),
     )
     for (const which of ['annual', 'life'] as const) {
-      const values = runs.map((run) => run[which].value)
+      const values = runs.map(run => run[which].value)
       const mean = values.reduce((a, b) => a + b, 0) / values.length
       const sd = Math.sqrt(values.reduce((a, b) => a + (b - mean) ** 2, 0) / (values.length - 1))
       const reported = runs.reduce((a, run) => a + run[which].se, 0) / runs.length
@@ -237,7 +249,7 @@ describe('standard errors of averaged chances', () => {
       estimates(outlook({ 2050: [0.2, 0.05], 2100: [0.5, 0.15] }, thresholds, { samples, seed })),
     )
     for (const which of ['annual', 'life', 'hundredYear'] as const) {
-      const values = runs.map((run) => run[which].value)
+      const values = runs.map(run => run[which].value)
       const mean = values.reduce((a, b) => a + b, 0) / values.length
       const sd = Math.sqrt(values.reduce((a, b) => a + (b - mean) ** 2, 0) / (values.length - 1))
       const reported = runs.reduce((a, run) => a + run[which].se, 0) / runs.length
@@ -266,7 +278,6 @@ describe('inputs only', () => {
     expect(JSON.stringify(finishOutlook(plan, merged))).toBe(JSON.stringify(finishOutlook(plan, whole)))
   })
 
-
   afterEach(() => {
     vi.useRealTimers()
   })
@@ -293,6 +304,6 @@ describe('inputs only', () => {
 describe('normal expectation helper', () => {
   it('integrates the normal cdf', () => {
     // [practice] E[Φ(x)] for x ~ N(0, 1) is 1/2 by symmetry
-    expect(normalExpectation((x) => standardNormalCdf(x), 0, 1)).toBeCloseTo(0.5, 8)
+    expect(normalExpectation(x => standardNormalCdf(x), 0, 1)).toBeCloseTo(0.5, 8)
   })
 })

@@ -18,7 +18,12 @@ function input(gumbel: GumbelInput, rise: [number, number], samples = 20_000): O
 }
 
 /** E over the parameter pair of f(μ, λ): midpoint rule on ±7 SE, λ floored at λ/10 as the engine does. */
-function parameterExpectation(f: (location: number, scale: number) => number, locationSe: number, scaleSe: number, correlation: number): number {
+function parameterExpectation(
+  f: (location: number, scale: number) => number,
+  locationSe: number,
+  scaleSe: number,
+  correlation: number,
+): number {
   const steps = 200
   const width = 14 / steps
   let total = 0
@@ -26,7 +31,10 @@ function parameterExpectation(f: (location: number, scale: number) => number, lo
     const z1 = -7 + (a + 0.5) * width
     for (let b = 0; b < steps; b++) {
       const z2 = -7 + (b + 0.5) * width
-      const scale = Math.max(central.scale + scaleSe * (correlation * z1 + Math.sqrt(1 - correlation * correlation) * z2), central.scale / 10)
+      const scale = Math.max(
+        central.scale + scaleSe * (correlation * z1 + Math.sqrt(1 - correlation * correlation) * z2),
+        central.scale / 10,
+      )
       total += f(central.location + locationSe * z1, scale) * Math.exp(-(z1 * z1 + z2 * z2) / 2) * width * width
     }
   }
@@ -37,7 +45,9 @@ describe('Gumbel parameter uncertainty', () => {
   it('gives exactly the central outlook when the standard errors are zero', () => {
     // [practice] a parameter distribution with no spread is the central pair.
     const without = runOutlook(input(central, [0.4, 0.1], 4096))
-    const zero = runOutlook(input({ ...central, locationSe: 0, scaleSe: 0, locationScaleCorrelation: 0.5 }, [0.4, 0.1], 4096))
+    const zero = runOutlook(
+      input({ ...central, locationSe: 0, scaleSe: 0, locationScaleCorrelation: 0.5 }, [0.4, 0.1], 4096),
+    )
     expect(JSON.stringify({ ...zero, gumbel: null })).toBe(JSON.stringify({ ...without, gumbel: null }))
   })
 
@@ -57,14 +67,24 @@ describe('Gumbel parameter uncertainty', () => {
     const rise = 0.4
     const result = runOutlook(input(uncertain, [rise, 0], 100_000))
     const flood = result.thresholds[1]!.flood!
-    const chance = parameterExpectation((mu, lambda) => -Math.expm1(-Math.exp((rise - (2.2 - mu)) / lambda)), 0.05, 0.02, -0.3)
+    const chance = parameterExpectation(
+      (mu, lambda) => -Math.expm1(-Math.exp((rise - (2.2 - mu)) / lambda)),
+      0.05,
+      0.02,
+      -0.3,
+    )
     expect(Math.abs(flood.annualChance[1]!.value - chance)).toBeLessThan(3 * flood.annualChance[1]!.se)
     expect(flood.annualChance[1]!.se).toBeGreaterThan(0)
     const expected = parameterExpectation((mu, lambda) => Math.exp((rise - (2.2 - mu)) / lambda), 0.05, 0.02, -0.3)
     expect(Math.abs(flood.expectedPerYear[1]! / expected - 1)).toBeLessThan(0.03)
     // [practice] today's 100-year level's chance the same way (T-year levels use the trajectory's pair too).
-    const hundred = result.byYear[1]!.gumbel!.returnPeriods.find((entry) => entry.today === 100)!
-    const today = parameterExpectation((mu, lambda) => -Math.expm1(-Math.exp((rise - (hundred.level - mu)) / lambda)), 0.05, 0.02, -0.3)
+    const hundred = result.byYear[1]!.gumbel!.returnPeriods.find(entry => entry.today === 100)!
+    const today = parameterExpectation(
+      (mu, lambda) => -Math.expm1(-Math.exp((rise - (hundred.level - mu)) / lambda)),
+      0.05,
+      0.02,
+      -0.3,
+    )
     expect(Math.abs(hundred.annualChance.value - today)).toBeLessThan(3 * hundred.annualChance.se)
   })
 

@@ -1,7 +1,12 @@
 import type { ComponentInput, OutlookInput } from '../../../shared/engine'
 
 /** A normal release from its baseline year, with one mean and sd per anchor year. */
-export function normalComponent(key: string, anchors: Record<number, [number, number]>, baselineYear = 2000, scale = 1): ComponentInput {
+export function normalComponent(
+  key: string,
+  anchors: Record<number, [number, number]>,
+  baselineYear = 2000,
+  scale = 1,
+): ComponentInput {
   const anchorYears = Object.keys(anchors).map(Number)
   return {
     key,
@@ -10,8 +15,8 @@ export function normalComponent(key: string, anchors: Record<number, [number, nu
       form: 'normal',
       baselineYear,
       anchorYears,
-      mean: anchorYears.map((year) => anchors[year]![0]),
-      sd: anchorYears.map((year) => anchors[year]![1]),
+      mean: anchorYears.map(year => anchors[year]![0]),
+      sd: anchorYears.map(year => anchors[year]![1]),
     },
   }
 }
@@ -31,7 +36,7 @@ export function baseInput(overrides: Partial<OutlookInput> = {}): OutlookInput {
 /** Every number anywhere in a result, to check none is NaN. */
 export function allNumbers(value: unknown, out: number[] = []): number[] {
   if (typeof value === 'number') out.push(value)
-  else if (Array.isArray(value)) value.forEach((item) => allNumbers(item, out))
-  else if (value && typeof value === 'object') Object.values(value).forEach((item) => allNumbers(item, out))
+  else if (Array.isArray(value)) value.forEach(item => allNumbers(item, out))
+  else if (value && typeof value === 'object') Object.values(value).forEach(item => allNumbers(item, out))
   return out
 }

@@ -1,6 +1,15 @@
 import { describe, expect, it } from 'vitest'
 import jStatPkg from 'jstat'
-import { BLOCK_SIZE, claimFromCounter, finishOutlook, mergePartials, planOutlook, runBlocks, runClaimedBlocks, runOutlook } from '../../../shared/engine'
+import {
+  BLOCK_SIZE,
+  claimFromCounter,
+  finishOutlook,
+  mergePartials,
+  planOutlook,
+  runBlocks,
+  runClaimedBlocks,
+  runOutlook,
+} from '../../../shared/engine'
 import { samplerTables } from '../../../shared/engine/sampler-tables'
 import { allNumbers, baseInput, normalComponent } from './helpers'
 
@@ -41,7 +50,7 @@ describe('analytic normal case', () => {
         expect(Math.abs(year.exceedance[h]!.value - p)).toBeLessThanOrEqual(4 * se)
         checks++
       })
-      const median = year.percentiles.find((q) => q.level === 0.5)!
+      const median = year.percentiles.find(q => q.level === 0.5)!
       expect(Math.abs(median.value - mean)).toBeLessThan(4 * median.se + result.percentileResolution)
     }
     expect(checks).toBe(18)
@@ -72,7 +81,9 @@ describe('analytic normal case', () => {
     result.heights.forEach((height, h) => {
       // reference library: jstat normal CDF [practice: sum of independent normals is normal]
       const p = 1 - jStat.normal.cdf(height, mean, sd)
-      expect(Math.abs(year.exceedance[h]!.value - p)).toBeLessThanOrEqual(4 * Math.sqrt((p * (1 - p)) / input.samples) + 1e-12)
+      expect(Math.abs(year.exceedance[h]!.value - p)).toBeLessThanOrEqual(
+        4 * Math.sqrt((p * (1 - p)) / input.samples) + 1e-12,
+      )
     })
     // [memory] Hunter (2012), Climatic Change 113: allowance of a normal rise μ + σ²/(2λ)
     expect(Math.abs(year.gumbel!.allowance - (mean + sd ** 2 / 0.2))).toBeLessThan(0.01)
@@ -91,7 +102,14 @@ describe('analytic normal case', () => {
         {
           key: 'antarctica',
           scale: 2,
-          release: { form: 'lognormal', baselineYear: 2000, anchorYears: [2100], shift: [-0.05], mu: [-2], sigma: [0.5] },
+          release: {
+            form: 'lognormal',
+            baselineYear: 2000,
+            anchorYears: [2100],
+            shift: [-0.05],
+            mu: [-2],
+            sigma: [0.5],
+          },
         },
       ],
       heights: [0.1, 0.2, 0.3, 0.5],
@@ -101,7 +119,9 @@ describe('analytic normal case', () => {
     result.heights.forEach((height, h) => {
       // reference library: jstat lognormal CDF; rise = 2 · (−0.05 + X), X lognormal(−2, 0.5)
       const p = 1 - jStat.lognormal.cdf(height / 2 + 0.05, -2, 0.5)
-      expect(Math.abs(late.exceedance[h]!.value - p)).toBeLessThanOrEqual(4 * Math.sqrt((p * (1 - p)) / input.samples) + 1e-12)
+      expect(Math.abs(late.exceedance[h]!.value - p)).toBeLessThanOrEqual(
+        4 * Math.sqrt((p * (1 - p)) / input.samples) + 1e-12,
+      )
     })
     // [practice] lognormal mean exp(μ + σ²/2); 2050 is half way from zero at 2000
     const mean = 2 * (-0.05 + Math.exp(-2 + 0.125))
@@ -128,13 +148,23 @@ describe('published release check', () => {
       components: [
         {
           key: 'other',
-          release: { form: 'quantiles', baselineYear: 2005, anchorYears: [2100], levels: [0.17, 0.5, 0.83], values: [[0.63, 0.77, 1.01]] },
+          release: {
+            form: 'quantiles',
+            baselineYear: 2005,
+            anchorYears: [2100],
+            levels: [0.17, 0.5, 0.83],
+            values: [[0.63, 0.77, 1.01]],
+          },
         },
       ],
       heights: [0.5, 1],
     })
-    const percentiles = Object.fromEntries(result.byYear[0]!.percentiles.map((p) => [p.level, p]))
-    for (const [level, value] of [[0.17, 0.63], [0.5, 0.77], [0.83, 1.01]] as const) {
+    const percentiles = Object.fromEntries(result.byYear[0]!.percentiles.map(p => [p.level, p]))
+    for (const [level, value] of [
+      [0.17, 0.63],
+      [0.5, 0.77],
+      [0.83, 1.01],
+    ] as const) {
       // tolerance from CHECKS.md: Monte Carlo error plus 0.01 m for rounding
       expect(Math.abs(percentiles[level]!.value - value)).toBeLessThan(3 * percentiles[level]!.se + 0.01)
     }
@@ -144,8 +174,8 @@ describe('published release check', () => {
     // [pub] IPCC AR6 WG1 Table 9.9 components, SSP5-8.5 2100
     const published = {
       'ocean-expansion': [0.24, 0.3, 0.36],
-      greenland: [0.09, 0.13, 0.18],
-      antarctica: [0.03, 0.12, 0.34],
+      'greenland': [0.09, 0.13, 0.18],
+      'antarctica': [0.03, 0.12, 0.34],
       'land-water': [0.01, 0.03, 0.04],
     } as const
     for (const [key, values] of Object.entries(published)) {
@@ -154,10 +184,23 @@ describe('published release check', () => {
         years: [2100],
         samples: 20_000,
         seed: 3,
-        components: [{ key, release: { form: 'quantiles', baselineYear: 2005, anchorYears: [2100], levels: [0.17, 0.5, 0.83], values: [[...values]] } }],
+        components: [
+          {
+            key,
+            release: {
+              form: 'quantiles',
+              baselineYear: 2005,
+              anchorYears: [2100],
+              levels: [0.17, 0.5, 0.83],
+              values: [[...values]],
+            },
+          },
+        ],
         heights: [0],
       })
-      const [p17, p50, p83] = [0.17, 0.5, 0.83].map((level) => result.byYear[0]!.percentiles.find((p) => p.level === level)!)
+      const [p17, p50, p83] = [0.17, 0.5, 0.83].map(level =>
+        result.byYear[0]!.percentiles.find(p => p.level === level)!,
+      )
       expect(Math.abs(p17!.value - values[0])).toBeLessThan(3 * p17!.se + 0.01)
       expect(Math.abs(p50!.value - values[1])).toBeLessThan(3 * p50!.se + 0.01)
       expect(Math.abs(p83!.value - values[2])).toBeLessThan(3 * p83!.se + 0.01)
@@ -208,7 +251,11 @@ describe('release baselines', () => {
   it('expresses rise relative to the outlook baseline along the same trajectory', () => {
     // release from 2000: 0.2 m in 2050 (sd 0) → 0.08 m at 2020; outlook from 2020 → 2050 shows 0.12 m
     const result = runOutlook(
-      baseInput({ baselineYear: 2020, years: [2020, 2050], components: [normalComponent('glaciers', { 2050: [0.2, 0] })] }),
+      baseInput({
+        baselineYear: 2020,
+        years: [2020, 2050],
+        components: [normalComponent('glaciers', { 2050: [0.2, 0] })],
+      }),
     )
     expect(result.byYear[0]!.mean.value).toBe(0)
     expect(result.byYear[1]!.mean.value).toBeCloseTo(0.12, 12)
@@ -232,7 +279,7 @@ describe('correlation', () => {
   it('perfectly correlated components give the sum of their quantiles', () => {
     // [practice] comonotone sums: each quantile of the sum is the sum of quantiles
     const year = pair([[1, 1], [1, 1]])
-    const p95 = year.percentiles.find((p) => p.level === 0.95)!
+    const p95 = year.percentiles.find(p => p.level === 0.95)!
     expect(Math.abs(p95.value - (0.5 + 1.64485 * 0.15))).toBeLessThan(4 * p95.se + 0.001)
     expect(year.sd).toBeCloseTo(0.15, 2)
   })
@@ -293,7 +340,9 @@ describe('reproducible and chunkable', () => {
   it('refuses to finish without every block, and to merge overlapping runs', () => {
     const plan = planOutlook(input)
     expect(() => finishOutlook(plan, runBlocks(plan, 0, 2))).toThrow(/needs all 6 blocks/)
-    expect(() => mergePartials(plan, [runBlocks(plan, 0, 2), runBlocks(plan, 1, 2)])).toThrow(/block 1 comes in two partials/)
+    expect(() => mergePartials(plan, [runBlocks(plan, 0, 2), runBlocks(plan, 1, 2)])).toThrow(
+      /block 1 comes in two partials/,
+    )
     expect(() => runBlocks(plan, 5, 2)).toThrow(RangeError)
   })
 
@@ -322,12 +371,18 @@ describe('reproducible and chunkable', () => {
     const input = baseInput({
       years,
       samples: 3 * BLOCK_SIZE + 7,
-      components: [normalComponent('ocean-expansion', { 2050: [0.1, 0.03], 2100: [0.3, 0.08] }), normalComponent('glaciers', { 2050: [0.05, 0.02], 2100: [0.12, 0.04] })],
+      components: [
+        normalComponent('ocean-expansion', { 2050: [0.1, 0.03], 2100: [0.3, 0.08] }),
+        normalComponent('glaciers', { 2050: [0.05, 0.02], 2100: [0.12, 0.04] }),
+      ],
       landMotion: { rateMmPerYear: -2, sigmaMmPerYear: 0.5, epoch: 2000 },
       heights: { from: 0, to: 0.6, step: 0.02 },
     })
     // 2030 with 2040 and 2060 with 2080 are counted in pairs; 2100 alone.
-    expect(samplerTables(planOutlook(input)).yearPairs.map((pair) => [pair.first, pair.second])).toEqual([[0, 1], [2, 3]])
+    expect(samplerTables(planOutlook(input)).yearPairs.map(pair => [pair.first, pair.second])).toEqual([
+      [0, 1],
+      [2, 3],
+    ])
     const together = runOutlook(input)
     years.forEach((year, t) => {
       const alone = runOutlook({ ...input, years: [year] })
@@ -363,15 +418,15 @@ describe('outputs', () => {
     // Trigger years are calendar years: an output year reaching the tolerance bounds the trigger from above.
     const probability = (year: number) => road.byYear[result.years.indexOf(year)]!.value
     for (const { tolerance, year } of road.triggerYears) {
-      const decadal = result.years.find((y) => probability(y) >= tolerance)
+      const decadal = result.years.find(y => probability(y) >= tolerance)
       if (year === null) expect(decadal).toBeUndefined()
       else if (decadal !== undefined) expect(year).toBeLessThanOrEqual(decadal)
     }
-    expect(road.triggerYears.map((t) => t.tolerance)).toEqual([0.01, 0.05, 0.1, 0.33, 0.5])
+    expect(road.triggerYears.map(t => t.tolerance)).toEqual([0.01, 0.05, 0.1, 0.33, 0.5])
     // [practice] the median of the normal rise is its mean 0.1 + 0.004·(y − 2050) m, which passes 0.25 m
     // after 2087.5: 2088 (P ≈ 0.51, 3 SE above 50 % at 20k; 2087 is as far below).
-    expect(road.triggerYears.find((t) => t.tolerance === 0.5)!.year).toBe(2088)
-    expect(result.thresholds[1]!.triggerYears.every((t) => t.year === null)).toBe(true)
+    expect(road.triggerYears.find(t => t.tolerance === 0.5)!.year).toBe(2088)
+    expect(result.thresholds[1]!.triggerYears.every(t => t.year === null)).toBe(true)
   })
 
   it('states the percentile resolution and never returns NaN', () => {
@@ -384,7 +439,7 @@ describe('outputs', () => {
     )
     expect(result.percentileResolution).toBe(0.001)
     expect(result.byYear[0]!.varianceShare).toBeNull()
-    expect(result.byYear[0]!.percentiles.every((p) => p.value === 0)).toBe(true)
+    expect(result.byYear[0]!.percentiles.every(p => p.value === 0)).toBe(true)
     expect(result.thresholds[0]!.lifeExceedance).toBeNull()
     expect(result.thresholds[0]!.flood).toBeNull()
     expect(result.thresholds[1]!.lifeExceedance).not.toBeNull()
@@ -436,7 +491,7 @@ describe('numerical edge cases', () => {
         components: [
           {
             key: 'glaciers',
-            release: { form: 'samples', baselineYear: 2000, anchorYears: [2100], draws: values.map((v) => [v]) },
+            release: { form: 'samples', baselineYear: 2000, anchorYears: [2100], draws: values.map(v => [v]) },
           },
         ],
         heights: [0.1, 0.2, 0.3, 0.7, 0.75, 0.7500000001],
@@ -444,7 +499,7 @@ describe('numerical edge cases', () => {
     )
     const year = result.byYear[0]!
     // Each draw is picked with probability 1/5, so counts above successive draws step down by ~1/5.
-    const exceed = year.exceedance.map((e) => e.value)
+    const exceed = year.exceedance.map(e => e.value)
     expect(exceed[4]).toBe(0)
     expect(exceed[5]).toBe(0)
     for (let k = 0; k < 4; k++) expect(Math.abs(exceed[k]! - (4 - k) / 5)).toBeLessThan(4 * Math.sqrt(0.25 / 30_000))

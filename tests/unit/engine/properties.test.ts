@@ -16,7 +16,13 @@ const outlookArbitrary = fc
     thresholds: fc.array(fc.double({ min: -0.5, max: 2, noNaN: true }), { minLength: 2, maxLength: 4 }),
   })
   .map(({ seed, rho, medians, spreads, sd, rate, rateSigma, thresholds }): OutlookInput => {
-    const row = (median: number) => [median - spreads[0]! - spreads[1]!, median - spreads[1]!, median, median + spreads[2]!, median + spreads[2]! + spreads[3]!]
+    const row = (median: number) => [
+      median - spreads[0]! - spreads[1]!,
+      median - spreads[1]!,
+      median,
+      median + spreads[2]!,
+      median + spreads[2]! + spreads[3]!,
+    ]
     return {
       baselineYear: 2020,
       years: [2020, 2040, 2060, 2080, 2100],
@@ -25,14 +31,26 @@ const outlookArbitrary = fc
       components: [
         {
           key: 'antarctica',
-          release: { form: 'quantiles', baselineYear: 2020, anchorYears: [2060, 2100], levels: [0.05, 0.17, 0.5, 0.83, 0.95], values: [row(medians[0]! / 2), row(medians[0]!)] },
+          release: {
+            form: 'quantiles',
+            baselineYear: 2020,
+            anchorYears: [2060, 2100],
+            levels: [0.05, 0.17, 0.5, 0.83, 0.95],
+            values: [row(medians[0]! / 2), row(medians[0]!)],
+          },
         },
-        { key: 'ocean-expansion', release: { form: 'normal', baselineYear: 2020, anchorYears: [2100], mean: [medians[1]!], sd: [sd] } },
+        {
+          key: 'ocean-expansion',
+          release: { form: 'normal', baselineYear: 2020, anchorYears: [2100], mean: [medians[1]!], sd: [sd] },
+        },
       ],
-      correlation: [[1, rho], [rho, 1]],
+      correlation: [
+        [1, rho],
+        [rho, 1],
+      ],
       landMotion: { rateMmPerYear: rate, sigmaMmPerYear: rateSigma, epoch: 2020 },
       heights: { from: -0.5, to: 2.5, step: 0.1 },
-      thresholds: thresholds.map((height) => ({ height })),
+      thresholds: thresholds.map(height => ({ height })),
     }
   })
 
@@ -45,8 +63,10 @@ describe('outlook properties', () => {
         const result = runOutlook(input)
         expect(allNumbers(result).some(Number.isNaN)).toBe(false)
         for (const year of result.byYear) {
-          for (let h = 1; h < year.exceedance.length; h++) expect(year.exceedance[h]!.value).toBeLessThanOrEqual(year.exceedance[h - 1]!.value)
-          for (let q = 1; q < year.percentiles.length; q++) expect(year.percentiles[q]!.value).toBeGreaterThanOrEqual(year.percentiles[q - 1]!.value)
+          for (let h = 1; h < year.exceedance.length; h++)
+            expect(year.exceedance[h]!.value).toBeLessThanOrEqual(year.exceedance[h - 1]!.value)
+          for (let q = 1; q < year.percentiles.length; q++)
+            expect(year.percentiles[q]!.value).toBeGreaterThanOrEqual(year.percentiles[q - 1]!.value)
           for (const e of year.exceedance) expect(e.value >= 0 && e.value <= 1).toBe(true)
         }
       }),
@@ -87,7 +107,8 @@ describe('outlook properties', () => {
         const order = (year: number | null) => (year === null ? Infinity : year)
         for (const threshold of result.thresholds) {
           const byTolerance = [...threshold.triggerYears].sort((a, b) => a.tolerance - b.tolerance)
-          for (let k = 1; k < byTolerance.length; k++) expect(order(byTolerance[k - 1]!.year)).toBeLessThanOrEqual(order(byTolerance[k]!.year))
+          for (let k = 1; k < byTolerance.length; k++)
+            expect(order(byTolerance[k - 1]!.year)).toBeLessThanOrEqual(order(byTolerance[k]!.year))
         }
         const byHeight = [...result.thresholds].sort((a, b) => a.height - b.height)
         for (let k = 1; k < byHeight.length; k++) {
@@ -104,9 +125,14 @@ describe('outlook properties', () => {
     fc.assert(
       fc.property(outlookArbitrary, fc.double({ min: 0.1, max: 5, noNaN: true }), (input, extraSinking) => {
         const base = runOutlook(input)
-        const sinking = runOutlook({ ...input, landMotion: { ...input.landMotion!, rateMmPerYear: input.landMotion!.rateMmPerYear - extraSinking } })
+        const sinking = runOutlook({
+          ...input,
+          landMotion: { ...input.landMotion!, rateMmPerYear: input.landMotion!.rateMmPerYear - extraSinking },
+        })
         base.byYear.forEach((year, t) => {
-          year.exceedance.forEach((e, h) => expect(sinking.byYear[t]!.exceedance[h]!.value).toBeGreaterThanOrEqual(e.value))
+          year.exceedance.forEach((e, h) =>
+            expect(sinking.byYear[t]!.exceedance[h]!.value).toBeGreaterThanOrEqual(e.value),
+          )
         })
         expect(base.byYear[0]!.mean.value).toBe(0)
         expect(base.byYear[0]!.sd).toBe(0)
@@ -123,7 +149,19 @@ describe('outlook properties', () => {
           years: [2100],
           samples: 2000,
           seed,
-          components: [{ key: 'greenland', scale: s, release: { form: 'quantiles', baselineYear: 2020, anchorYears: [2100], levels: [0.05, 0.5, 0.95], values: [[0.01, 0.1, 0.3]] } }],
+          components: [
+            {
+              key: 'greenland',
+              scale: s,
+              release: {
+                form: 'quantiles',
+                baselineYear: 2020,
+                anchorYears: [2100],
+                levels: [0.05, 0.5, 0.95],
+                values: [[0.01, 0.1, 0.3]],
+              },
+            },
+          ],
           heights: { from: 0, to: 0.5, step: 0.05 },
         })
         const low = runOutlook(input(1)).byYear[0]!.exceedance

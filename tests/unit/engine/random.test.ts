@@ -11,7 +11,9 @@ describe('random streams', () => {
     // [pub] reference vector of the xoshiro128starstar.c v1.1 authors' code, as used in the Rust rand_xoshiro tests
     const state = Uint32Array.from([1, 2, 3, 4])
     const outputs = Array.from({ length: 10 }, () => nextUint32(state))
-    expect(outputs).toEqual([11520, 0, 5927040, 70819200, 2031721883, 1637235492, 1287239034, 3734860849, 3729100597, 4258142804])
+    expect(outputs).toEqual([
+      11520, 0, 5927040, 70819200, 2031721883, 1637235492, 1287239034, 3734860849, 3729100597, 4258142804,
+    ])
   })
 
   it('SplitMix64 reproduces its published first outputs from state 0', () => {
@@ -57,7 +59,8 @@ describe('normal scores', () => {
     for (const x of [-5, -2.5, -1, 0, 0.5, 1.96, 4]) {
       expect(standardNormalCdf(x)).toBeCloseTo(jStat.normal.cdf(x, 0, 1), 12)
     }
-    for (const p of [0.01, 0.2, 0.5, 0.83, 0.99]) expect(standardNormalCdf(standardNormalQuantile(p))).toBeCloseTo(p, 12)
+    for (const p of [0.01, 0.2, 0.5, 0.83, 0.99])
+      expect(standardNormalCdf(standardNormalQuantile(p))).toBeCloseTo(p, 12)
   })
 })
 
@@ -113,7 +116,7 @@ describe('ziggurat scores', () => {
     // [formula] Kolmogorov's asymptotic critical value at the 0.1 % level: 1.95 / √n
     expect(distance).toBeLessThan(1.95 / Math.sqrt(n))
     // The tail beyond r = 3.6542 (Marsaglia's exponential rejection): conditional CDF against jstat's.
-    const tail = Float64Array.from(scores.filter((x) => Math.abs(x) > 3.6541528853610088), Math.abs).sort()
+    const tail = Float64Array.from(scores.filter(x => Math.abs(x) > 3.6541528853610088), Math.abs).sort()
     const beyond = 1 - jStat.normal.cdf(3.6541528853610088, 0, 1)
     let tailDistance = 0
     for (let i = 0; i < tail.length; i++) {
@@ -142,7 +145,13 @@ describe('ziggurat scores', () => {
     fillNormalScores(blockStreamState(5, 11), whole, 0, whole.length)
     const parts = new Float64Array(10_000)
     const state = blockStreamState(5, 11)
-    for (const [at, count] of [[0, 1], [1, 2_499], [2_500, 7_000], [9_500, 500]] as const) fillNormalScores(state, parts, at, count)
+    for (const [at, count] of [
+      [0, 1],
+      [1, 2_499],
+      [2_500, 7_000],
+      [9_500, 500],
+    ] as const)
+      fillNormalScores(state, parts, at, count)
     expect(parts).toEqual(whole)
   })
 

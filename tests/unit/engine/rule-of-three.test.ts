@@ -3,7 +3,9 @@ import { runOutlook } from '../../../shared/engine'
 import { baseInput } from './helpers'
 
 describe('rule of three on proportions of 0 or N', () => {
-  const result = runOutlook(baseInput({ samples: 10_000, years: [2000, 2050, 2100], heights: [-0.5, 0.2, 3], thresholds: [{ height: 3 }] }))
+  const result = runOutlook(
+    baseInput({ samples: 10_000, years: [2000, 2050, 2100], heights: [-0.5, 0.2, 3], thresholds: [{ height: 3 }] }),
+  )
   const year = (y: number) => result.byYear[result.years.indexOf(y)]!
 
   it('bounds a chance counted as zero by 3/N', () => {
@@ -13,7 +15,7 @@ describe('rule of three on proportions of 0 or N', () => {
     expect(never.se).toBe(0)
     expect(never.upperBound95).toBeCloseTo(3 / 10_000, 15)
     expect(never.lowerBound95).toBeUndefined()
-    expect(result.thresholds[0]!.byYear.every((estimate) => estimate.upperBound95 === 3 / 10_000)).toBe(true)
+    expect(result.thresholds[0]!.byYear.every(estimate => estimate.upperBound95 === 3 / 10_000)).toBe(true)
   })
 
   it('bounds a chance counted as N by 1 − 3/N, and leaves other counts alone', () => {

@@ -6,7 +6,7 @@ import { baseInput, normalComponent } from './helpers'
 const decades = Array.from({ length: 14 }, (_, k) => 2020 + 10 * k)
 
 function trigger(result: ReturnType<typeof runOutlook>, tolerance: number): number | null {
-  return result.thresholds[0]!.triggerYears.find((entry) => entry.tolerance === tolerance)!.year
+  return result.thresholds[0]!.triggerYears.find(entry => entry.tolerance === tolerance)!.year
 }
 
 describe('trigger years at annual resolution', () => {
@@ -45,35 +45,53 @@ describe('trigger years at annual resolution', () => {
   const draws: ComponentInput = {
     key: 'antarctica',
     scale: 1.2,
-    release: { form: 'samples', baselineYear: 1995, anchorYears: [2050, 2100], draws: Array.from({ length: 40 }, (_, k) => [0.002 * k, 0.006 * k]) },
+    release: {
+      form: 'samples',
+      baselineYear: 1995,
+      anchorYears: [2050, 2100],
+      draws: Array.from({ length: 40 }, (_, k) => [0.002 * k, 0.006 * k]),
+    },
   }
   const lognormal: ComponentInput = {
     key: 'greenland',
     scale: 1,
-    release: { form: 'lognormal', baselineYear: 2000, anchorYears: [2070, 2100], shift: [0, 0], mu: [-3, -2.5], sigma: [0.4, 0.5] },
+    release: {
+      form: 'lognormal',
+      baselineYear: 2000,
+      anchorYears: [2070, 2100],
+      shift: [0, 0],
+      mu: [-3, -2.5],
+      sigma: [0.4, 0.5],
+    },
   }
   it.each([
     ['a normal release', []],
     ['uploaded draws and a lognormal release', [draws, lognormal]],
-  ])('is never later than the output year that reaches the tolerance, and agrees with annual output years (%s)', (_, extra) => {
-    const input = baseInput({
-      baselineYear: 2000,
-      years: [2030, 2060, 2100],
-      components: [normalComponent('ocean-expansion', { 2050: [0.1, 0.03], 2100: [0.3, 0.08] }), ...(extra as ComponentInput[])],
-      landMotion: { rateMmPerYear: -1, sigmaMmPerYear: 0.5, epoch: 2000 },
-      thresholds: [{ height: 0.1 }, { height: 0.25 }],
-    })
-    const coarse = runOutlook(input)
-    const annualYears = Array.from({ length: 100 }, (_, k) => 2001 + k)
-    const fine = runOutlook({ ...input, years: annualYears })
-    coarse.thresholds.forEach((threshold, m) => {
-      threshold.triggerYears.forEach(({ tolerance, year }, k) => {
-        // [practice] same samples: counting every calendar year between knots gives what annual output years give.
-        expect(year).toBe(fine.thresholds[m]!.triggerYears[k]!.year)
-        const decadal = coarse.years.find((y, t) => threshold.byYear[t]!.value >= tolerance) ?? null
-        if (decadal !== null) expect(year).not.toBeNull()
-        if (decadal !== null && year !== null) expect(year).toBeLessThanOrEqual(decadal)
+  ])(
+    'is never later than the output year that reaches the tolerance, and agrees with annual output years (%s)',
+    (_, extra) => {
+      const input = baseInput({
+        baselineYear: 2000,
+        years: [2030, 2060, 2100],
+        components: [
+          normalComponent('ocean-expansion', { 2050: [0.1, 0.03], 2100: [0.3, 0.08] }),
+          ...(extra as ComponentInput[]),
+        ],
+        landMotion: { rateMmPerYear: -1, sigmaMmPerYear: 0.5, epoch: 2000 },
+        thresholds: [{ height: 0.1 }, { height: 0.25 }],
       })
-    })
-  })
+      const coarse = runOutlook(input)
+      const annualYears = Array.from({ length: 100 }, (_, k) => 2001 + k)
+      const fine = runOutlook({ ...input, years: annualYears })
+      coarse.thresholds.forEach((threshold, m) => {
+        threshold.triggerYears.forEach(({ tolerance, year }, k) => {
+          // [practice] same samples: counting every calendar year between knots gives what annual output years give.
+          expect(year).toBe(fine.thresholds[m]!.triggerYears[k]!.year)
+          const decadal = coarse.years.find((y, t) => threshold.byYear[t]!.value >= tolerance) ?? null
+          if (decadal !== null) expect(year).not.toBeNull()
+          if (decadal !== null && year !== null) expect(year).toBeLessThanOrEqual(decadal)
+        })
+      })
+    },
+  )
 })

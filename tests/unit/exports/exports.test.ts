@@ -29,15 +29,31 @@ function parseCsv(text: string): string[][] {
 }
 
 const result = runOutlook({
-  baselineYear: 2020, years: [2020, 2050, 2100], samples: 4000, seed: 3,
-  components: [{ key: 'ocean-expansion', release: { form: 'normal', baselineYear: 2020, anchorYears: [2050, 2100], mean: [0.1, 0.4], sd: [0.02, 0.1] } }],
-  heights: [0, 0.5, 1], thresholds: [{ key: 't1', height: 0.3 }],
+  baselineYear: 2020,
+  years: [2020, 2050, 2100],
+  samples: 4000,
+  seed: 3,
+  components: [
+    {
+      key: 'ocean-expansion',
+      release: { form: 'normal', baselineYear: 2020, anchorYears: [2050, 2100], mean: [0.1, 0.4], sd: [0.02, 0.1] },
+    },
+  ],
+  heights: [0, 0.5, 1],
+  thresholds: [{ key: 't1', height: 0.3 }],
 } as never) as OutlookResult
 
 const META = {
-  siteName: 'Harbour', scenario: 'SSP2-4.5', datum: { name: 'Chart datum', kind: 'chart', offset: 1.2, referenceEpoch: 2020 },
-  samples: 4000, seed: 3, engineVersion: 'test', inputHash: 'abc123', finishedAt: null,
-  releases: [{ component: 'ocean-expansion', version: 2, citation: 'Test citation', scale: 1 }], labels: { t1: 'Quay' },
+  siteName: 'Harbour',
+  scenario: 'SSP2-4.5',
+  datum: { name: 'Chart datum', kind: 'chart', offset: 1.2, referenceEpoch: 2020 },
+  samples: 4000,
+  seed: 3,
+  engineVersion: 'test',
+  inputHash: 'abc123',
+  finishedAt: null,
+  releases: [{ component: 'ocean-expansion', version: 2, citation: 'Test citation', scale: 1 }],
+  labels: { t1: 'Quay' },
 }
 
 describe('outlook CSV', () => {
@@ -60,7 +76,12 @@ describe('outlook CSV', () => {
     expect(value('datum')).toBe('Chart datum')
     expect(value('reference epoch')).toBe('2020')
     expect(value('input hash')).toBe('abc123')
-    expect(rows.find(r => r[0] === 'release ocean-expansion')).toEqual(['release ocean-expansion', 'v2', 'scale 1', 'Test citation'])
+    expect(rows.find(r => r[0] === 'release ocean-expansion')).toEqual([
+      'release ocean-expansion',
+      'v2',
+      'scale 1',
+      'Test citation',
+    ])
     const header = rows.findIndex(r => r[0] === 'year')
     for (const [i, year] of result.byYear.entries()) {
       const row = rows[header + 1 + i]!
@@ -77,14 +98,40 @@ describe('outlook CSV', () => {
 
 describe('sites GeoJSON', () => {
   it('is a FeatureCollection of [longitude, latitude] points without a crs member [pub: RFC 7946 §3.1.1, §4]', () => {
-    const collection = sitesGeoJson([{
-      site: { id: 's1', name: 'Kelwick', latitude: 47.62, longitude: -34.93, referenceLevel: 'MSL', referenceEpoch: 2020, planningScenario: 'SSP2-4.5', planningTolerance: 0.1 },
-      outlook: { id: 'o1', inputHash: 'h', finishedAt: new Date('2026-01-01T00:00:00Z'), headline: { thresholdLabel: 'Quay', height: 0.5, year: 2100, probability: 0.1234, triggerYears: [{ tolerance: 0.1, year: 2090 }] } },
-    }])
+    const collection = sitesGeoJson([
+      {
+        site: {
+          id: 's1',
+          name: 'Kelwick',
+          latitude: 47.62,
+          longitude: -34.93,
+          referenceLevel: 'MSL',
+          referenceEpoch: 2020,
+          planningScenario: 'SSP2-4.5',
+          planningTolerance: 0.1,
+        },
+        outlook: {
+          id: 'o1',
+          inputHash: 'h',
+          finishedAt: new Date('2026-01-01T00:00:00Z'),
+          headline: {
+            thresholdLabel: 'Quay',
+            height: 0.5,
+            year: 2100,
+            probability: 0.1234,
+            triggerYears: [{ tolerance: 0.1, year: 2090 }],
+          },
+        },
+      },
+    ])
     expect(collection.type).toBe('FeatureCollection')
     expect(collection).not.toHaveProperty('crs')
     expect(collection.features[0]!.geometry).toEqual({ type: 'Point', coordinates: [-34.93, 47.62] })
-    expect(collection.features[0]!.properties).toMatchObject({ planningScenario: 'SSP2-4.5', headlineChance: 0.1234, triggerYearAtTolerance: 2090 })
+    expect(collection.features[0]!.properties).toMatchObject({
+      planningScenario: 'SSP2-4.5',
+      headlineChance: 0.1234,
+      triggerYearAtTolerance: 2090,
+    })
   })
 })
 
@@ -97,9 +144,12 @@ describe('scenario colours', () => {
 
   it('draw lines with at least 3:1 contrast against white [pub: WCAG 2.1 SC 1.4.11, relative luminance formula]', () => {
     const luminance = (hex: string) => {
-      const [r, g, b] = [1, 3, 5].map(i => Number.parseInt(hex.slice(i, i + 2), 16) / 255).map(c => (c <= 0.03928 ? c / 12.92 : ((c + 0.055) / 1.055) ** 2.4))
+      const [r, g, b] = [1, 3, 5]
+        .map(i => Number.parseInt(hex.slice(i, i + 2), 16) / 255)
+        .map(c => (c <= 0.03928 ? c / 12.92 : ((c + 0.055) / 1.055) ** 2.4))
       return 0.2126 * r! + 0.7152 * g! + 0.0722 * b!
     }
-    for (const colour of Object.values(SCENARIO_COLOURS)) expect((1.05) / (luminance(colour) + 0.05)).toBeGreaterThanOrEqual(3)
+    for (const colour of Object.values(SCENARIO_COLOURS))
+      expect(1.05 / (luminance(colour) + 0.05)).toBeGreaterThanOrEqual(3)
   })
 })

@@ -5,7 +5,8 @@ import { gaugePoints, parseGaugeRecordCsv } from '../../../shared/observations/g
 function issuesOf(text: string): string[] {
   try {
     parseGaugeRecordCsv(text)
-  } catch (error) {
+  }
+  catch (error) {
     if (error instanceof CsvError) return error.issues.map(issue => `${issue.field}: ${issue.message}`)
     throw error
   }
@@ -52,7 +53,9 @@ describe('parseGaugeRecordCsv', () => {
       'csv row 3, column height: Is empty; leave the row out for a missing value, or enter the height in metres.',
       'csv row 4, column height: "abc" is not a number.',
     ])
-    expect(issuesOf('year,month,height\n2000,13,1.1\n')).toEqual(['csv row 2, column month: "13" is not a month; enter 1 to 12.'])
+    expect(issuesOf('year,month,height\n2000,13,1.1\n')).toEqual([
+      'csv row 2, column month: "13" is not a month; enter 1 to 12.',
+    ])
     expect(issuesOf('date,level\n2000,1\n')[0]).toMatch(/header must be "year,height"/)
   })
 })

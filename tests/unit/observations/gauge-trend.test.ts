@@ -2,7 +2,13 @@ import jStatPackage from 'jstat'
 import { describe, expect, it } from 'vitest'
 import { blockStreamState } from '../../../shared/engine/rng'
 import { fillNormalScores } from '../../../shared/engine/ziggurat'
-import { fitGaugeTrend, fittedChange, GaugeFitError, NODAL_PERIOD_YEARS, type GaugePoint } from '../../../shared/observations/gauge-trend'
+import {
+  fitGaugeTrend,
+  fittedChange,
+  GaugeFitError,
+  NODAL_PERIOD_YEARS,
+  type GaugePoint,
+} from '../../../shared/observations/gauge-trend'
 
 const { jStat } = jStatPackage
 
@@ -84,7 +90,13 @@ describe('fitGaugeTrend', () => {
     const omegaInverse = jStat.inv(omega)
     const xt = jStat.transpose(x)
     const xtOmega = jStat.multiply(xt, omegaInverse)
-    const beta = jStat.multiply(jStat.inv(jStat.multiply(xtOmega, x)), jStat.multiply(xtOmega, points.map(p => [p.height])))
+    const beta = jStat.multiply(
+      jStat.inv(jStat.multiply(xtOmega, x)),
+      jStat.multiply(
+        xtOmega,
+        points.map(p => [p.height]),
+      ),
+    )
     beta.forEach(([value], j) => expect(fit.coefficients[j]).toBeCloseTo(value!, 9))
   })
 

@@ -5,7 +5,10 @@ import { trackAgainstOutlook } from '../../../shared/observations/tracking'
 // A noiseless record rising 4 mm/yr, 1990–2029, so the fitted rise since a 2000 epoch is exact:
 // 0.004 · (2029.5 − 2000) = 0.118 m at the last value [practice: arithmetic]. The tiny wobble keeps the
 // residual variance above zero.
-const record: GaugePoint[] = Array.from({ length: 40 }, (_, i) => ({ time: 1990.5 + i, height: 1 + 0.004 * (1990.5 + i - 2000) + (i % 2 ? 1e-6 : -1e-6) }))
+const record: GaugePoint[] = Array.from({ length: 40 }, (_, i) => ({
+  time: 1990.5 + i,
+  height: 1 + 0.004 * (1990.5 + i - 2000) + (i % 2 ? 1e-6 : -1e-6),
+}))
 const fit = fitGaugeTrend(record, 'annual')
 
 describe('trackAgainstOutlook', () => {
@@ -30,7 +33,9 @@ describe('trackAgainstOutlook', () => {
     // 0.118 m lies inside 0.1–0.3 scaled to 2029.5, but the offset's own uncertainty is not in the ±, so
     // the comparison must not say "within" (nor above or below).
     expect(tracking.status).toBe('epoch-unobserved')
-    expect(trackAgainstOutlook(lateFit, 2000, 1, [{ year: 2040, p17: 0.01, p83: 0.02 }])!.status).toBe('epoch-unobserved')
+    expect(trackAgainstOutlook(lateFit, 2000, 1, [{ year: 2040, p17: 0.01, p83: 0.02 }])!.status).toBe(
+      'epoch-unobserved',
+    )
   })
 
   it('is too soon to tell within five years of the epoch, and silent past the outlook', () => {

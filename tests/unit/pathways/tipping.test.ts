@@ -21,7 +21,11 @@ function linearRiseInput(samples: number) {
 }
 
 describe('tipping years from the trajectories', () => {
-  const evaluated = evaluateMeasures(linearRiseInput(200_000), [{ key: 'wall', height: 0.5, kind: 'mean-sea-level' }], [0.1, 0.5])
+  const evaluated = evaluateMeasures(
+    linearRiseInput(200_000),
+    [{ key: 'wall', height: 0.5, kind: 'mean-sea-level' }],
+    [0.1, 0.5],
+  )
   const tipping = evaluated.measures[0]!.tipping
 
   it('tips at tolerance 50 % at epoch + 100 years', () => {
@@ -52,7 +56,8 @@ describe('tipping years from the trajectories', () => {
 
 describe('the Monte Carlo interval of a tipping year', () => {
   it('spans the years whose chance is within 1.96 standard errors of the tolerance', () => {
-    // [practice] with n = 10,000 a chance of 0.492 has SE √(0.492 · 0.508 / 10⁴) = 0.0050, so 0.492 + 1.96 SE = 0.5018 ≥ 0.5
+    // [practice] with n = 10,000 a chance of 0.492 has SE √(0.492 · 0.508 / 10⁴) = 0.0050, so 0.492 + 1.96 SE = 0.5018
+    // ≥ 0.5
     // while 0.51 − 1.96 SE = 0.5002 ≥ 0.5.
     const counts = [0, 4800, 4920, 5000, 5100, 5300]
     const t = tippingFromCounts(counts, 2050, 10_000, 0.5)
@@ -61,7 +66,15 @@ describe('the Monte Carlo interval of a tipping year', () => {
 
   it('interpolates a flood level between output years, rounding up to a whole year', () => {
     // [practice] 0.02 → 0.06 between 2050 and 2060 reaches 0.05 three quarters of the way: 2057.5 → 2058.
-    const t = tippingFromOutputYears([2040, 2050, 2060], [{ value: 0, se: 0 }, { value: 0.02, se: 0 }, { value: 0.06, se: 0 }], 0.05)
+    const t = tippingFromOutputYears(
+      [2040, 2050, 2060],
+      [
+        { value: 0, se: 0 },
+        { value: 0.02, se: 0 },
+        { value: 0.06, se: 0 },
+      ],
+      0.05,
+    )
     expect(t.year).toBe(2058)
     expect(t.resolution).toBe('interpolated')
   })
@@ -76,18 +89,35 @@ describe('decision years', () => {
   })
 
   it('gives the spread across scenarios as earliest and latest decision year', () => {
-    const tip = (year: number | null) => [{ tolerance: 0.5, year, earliest: year, latest: year, resolution: 'annual' as const }]
+    const tip = (year: number | null) => [
+      { tolerance: 0.5, year, earliest: year, latest: year, resolution: 'annual' as const },
+    ]
     const scenarios = [
       { scenario: 'SSP1-2.6', horizon: 2150, tipping: { a: tip(2081), b: tip(null) } },
       { scenario: 'SSP5-8.5', horizon: 2150, tipping: { a: tip(2059), b: tip(2090) } },
       { scenario: 'SSP2-4.5', horizon: 2150, tipping: { a: tip(2070), b: tip(2120) } },
     ]
-    const steps = [{ measureId: 'a', leadTimeYears: 0 }, { measureId: 'b', leadTimeYears: 18 }, { measureId: 'c', leadTimeYears: 30 }]
+    const steps = [
+      { measureId: 'a', leadTimeYears: 0 },
+      { measureId: 'b', leadTimeYears: 18 },
+      { measureId: 'c', leadTimeYears: 30 },
+    ]
     const decisions = pathwayDecisions(steps, scenarios, [0.5], 2045)
     const spread = decisionSpread(decisions)
     // [practice] 2059 − 18 = 2041 (SSP5-8.5) to 2081 − 18 = 2063 (SSP1-2.6).
-    expect(spread[0]).toMatchObject({ toMeasureId: 'b', earliest: { year: 2041, scenario: 'SSP5-8.5' }, latest: { year: 2063, scenario: 'SSP1-2.6' }, alreadyLate: true })
+    expect(spread[0]).toMatchObject({
+      toMeasureId: 'b',
+      earliest: { year: 2041, scenario: 'SSP5-8.5' },
+      latest: { year: 2063, scenario: 'SSP1-2.6' },
+      alreadyLate: true,
+    })
     // [practice] 2090 − 30 = 2060, 2120 − 30 = 2090; SSP1-2.6 does not tip b by 2150.
-    expect(spread[1]).toMatchObject({ toMeasureId: 'c', earliest: { year: 2060, scenario: 'SSP5-8.5' }, latest: { year: 2090, scenario: 'SSP2-4.5' }, notWithinHorizon: [{ scenario: 'SSP1-2.6', horizon: 2150 }], alreadyLate: false })
+    expect(spread[1]).toMatchObject({
+      toMeasureId: 'c',
+      earliest: { year: 2060, scenario: 'SSP5-8.5' },
+      latest: { year: 2090, scenario: 'SSP2-4.5' },
+      notWithinHorizon: [{ scenario: 'SSP1-2.6', horizon: 2150 }],
+      alreadyLate: false,
+    })
   })
 })

@@ -27,28 +27,69 @@ describe('amounts', () => {
 
 describe('building a release from what an analyst entered', () => {
   it('converts a normal release entered in gigatonnes into metres, mean and sd alike', () => {
-    const release = buildRelease({ form: 'normal', unit: 'Gt', baselineYear: 2020, anchorYears: [2100], mean: [36200], sd: [3620] })
+    const release = buildRelease({
+      form: 'normal',
+      unit: 'Gt',
+      baselineYear: 2020,
+      anchorYears: [2100],
+      mean: [36200],
+      sd: [3620],
+    })
     expect(release).toMatchObject({ form: 'normal', anchorYears: [2100] })
     expect((release as { mean: number[] }).mean[0]).toBeCloseTo(0.1, 9)
     expect((release as { sd: number[] }).sd[0]).toBeCloseTo(0.01, 9)
   })
 
   it('reads a quantile CSV and checks it with the engine rules', () => {
-    const issues = issuesOf(() => buildRelease({ form: 'quantiles', unit: 'm', baselineYear: 2020, csv: 'level,2050\n0.17,0.3\n0.5,0.2\n0.83,0.4\n' }))
+    const issues = issuesOf(() =>
+      buildRelease({
+        form: 'quantiles',
+        unit: 'm',
+        baselineYear: 2020,
+        csv: 'level,2050\n0.17,0.3\n0.5,0.2\n0.83,0.4\n',
+      }),
+    )
     expect(issues[0]!.field).toBe('values[0]')
     expect(issues[0]!.message).toMatch(/non-decreasing across levels: 0.2 \(level 0.5\) follows 0.3/)
   })
 
   it('refuses lognormal parameters in another unit than metres, and CSV for a normal form', () => {
-    expect(issuesOf(() => buildRelease({ form: 'lognormal', unit: 'Gt', baselineYear: 2020, anchorYears: [2100], shift: [0], mu: [-2], sigma: [0.3] }))[0]!.field).toBe('unit')
-    expect(issuesOf(() => buildRelease({ form: 'normal', unit: 'm', baselineYear: 2020, csv: '2050\n0.1\n' }))[0]!.message).toMatch(/CSV upload is for quantile tables and draws/)
+    expect(
+      issuesOf(() =>
+        buildRelease({
+          form: 'lognormal',
+          unit: 'Gt',
+          baselineYear: 2020,
+          anchorYears: [2100],
+          shift: [0],
+          mu: [-2],
+          sigma: [0.3],
+        }),
+      )[0]!.field,
+    ).toBe('unit')
+    expect(
+      issuesOf(() => buildRelease({ form: 'normal', unit: 'm', baselineYear: 2020, csv: '2050\n0.1\n' }))[0]!.message,
+    ).toMatch(/CSV upload is for quantile tables and draws/)
   })
 
   it('refuses an anchor year at or before the baseline, and a missing value per anchor', () => {
-    expect(issuesOf(() => buildRelease({ form: 'normal', unit: 'm', baselineYear: 2050, anchorYears: [2050], mean: [0.1], sd: [0.01] }))[0]!.message)
-      .toMatch(/must come after the release's baseline year 2050/)
-    expect(issuesOf(() => buildRelease({ form: 'normal', unit: 'm', baselineYear: 2020, anchorYears: [2050, 2100], mean: [0.1], sd: [0.01, 0.02] }))[0])
-      .toEqual({ field: 'mean', message: 'needs one entry per anchor year (2), got 1' })
+    expect(
+      issuesOf(() =>
+        buildRelease({ form: 'normal', unit: 'm', baselineYear: 2050, anchorYears: [2050], mean: [0.1], sd: [0.01] }),
+      )[0]!.message,
+    ).toMatch(/must come after the release's baseline year 2050/)
+    expect(
+      issuesOf(() =>
+        buildRelease({
+          form: 'normal',
+          unit: 'm',
+          baselineYear: 2020,
+          anchorYears: [2050, 2100],
+          mean: [0.1],
+          sd: [0.01, 0.02],
+        }),
+      )[0],
+    ).toEqual({ field: 'mean', message: 'needs one entry per anchor year (2), got 1' })
   })
 })
 
@@ -70,8 +111,20 @@ describe('scale-factor grids', () => {
   })
 
   it('refuses latitudes out of range and ragged rows, and warns on implausible factors', () => {
-    expect(gridErrors({ latitudes: [0, 95], longitudes: [0, 1], factors: [[1, 1], [1]] }).map(e => e.field)).toEqual(['latitudes[1]', 'factors[1]'])
-    expect(gridWarnings({ latitudes: [0, 10], longitudes: [0, 10], factors: [[5, 5], [5, 5]] }).join(' ')).toMatch(/outside -1…2.*mean factor is 5.00/)
+    expect(gridErrors({ latitudes: [0, 95], longitudes: [0, 1], factors: [[1, 1], [1]] }).map(e => e.field)).toEqual([
+      'latitudes[1]',
+      'factors[1]',
+    ])
+    expect(
+      gridWarnings({
+        latitudes: [0, 10],
+        longitudes: [0, 10],
+        factors: [
+          [5, 5],
+          [5, 5],
+        ],
+      }).join(' '),
+    ).toMatch(/outside -1…2.*mean factor is 5.00/)
     expect(gridWarnings({ latitudes: [0, 10], longitudes: [0, 10], factors: [[1, 1.1], [0.9, 1]] })).toEqual([])
   })
 })

@@ -4,7 +4,11 @@ import { availableActions, judgeEdit, judgeReviewAction } from '../../../shared/
 const author = { id: 'author', role: 'analyst' }
 const colleague = { id: 'colleague', role: 'analyst' }
 const planner = { id: 'planner', role: 'planner' }
-const at = (state: 'draft' | 'in-review' | 'published' | 'superseded' | 'withdrawn') => ({ state, authorId: 'author', version: 2 })
+const at = (state: 'draft' | 'in-review' | 'published' | 'superseded' | 'withdrawn') => ({
+  state,
+  authorId: 'author',
+  version: 2,
+})
 
 describe('the review workflow', () => {
   it('moves draft → in review → published, and back to draft when returned', () => {
@@ -23,13 +27,24 @@ describe('the review workflow', () => {
 
   it('never lets a colleague who changed the content approve it either', () => {
     const edited = { ...at('in-review'), coauthorIds: ['colleague'] }
-    expect(judgeReviewAction('approve', edited, colleague)).toMatchObject({ ok: false, status: 403, message: expect.stringMatching(/one of its authors/) })
+    expect(judgeReviewAction('approve', edited, colleague)).toMatchObject({
+      ok: false,
+      status: 403,
+      message: expect.stringMatching(/one of its authors/),
+    })
     expect(availableActions(edited, colleague)).toEqual(['return'])
-    expect(judgeReviewAction('approve', edited, { id: 'third', role: 'analyst' })).toEqual({ ok: true, to: 'published' })
+    expect(judgeReviewAction('approve', edited, { id: 'third', role: 'analyst' })).toEqual({
+      ok: true,
+      to: 'published',
+    })
   })
 
   it('answers a step from the wrong state with 409 saying what state it is in', () => {
-    expect(judgeReviewAction('approve', at('draft'), colleague)).toEqual({ ok: false, status: 409, message: 'Version 2 is a draft; only a version that is in review can be approved.' })
+    expect(judgeReviewAction('approve', at('draft'), colleague)).toEqual({
+      ok: false,
+      status: 409,
+      message: 'Version 2 is a draft; only a version that is in review can be approved.',
+    })
     expect(judgeReviewAction('submit', at('withdrawn'), author)).toMatchObject({ ok: false, status: 409 })
   })
 

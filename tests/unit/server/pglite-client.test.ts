@@ -4,7 +4,12 @@ import { LeanPGlite } from '../../../server/db/pglite-client'
 
 // The lean client must answer exactly as PGlite does with the parsers drizzle sends (dates, timestamps,
 // intervals and numeric or date-time arrays as text), with or without those parsers on the query.
-const DRIZZLE_PARSERS = Object.fromEntries([types.TIMESTAMP, types.TIMESTAMPTZ, types.INTERVAL, types.DATE, 1231, 1115, 1185, 1187, 1182].map(type => [type, (value: string) => value]))
+const DRIZZLE_PARSERS = Object.fromEntries(
+  [types.TIMESTAMP, types.TIMESTAMPTZ, types.INTERVAL, types.DATE, 1231, 1115, 1185, 1187, 1182].map(type => [
+    type,
+    (value: string) => value,
+  ]),
+)
 const ROW = `select timestamptz '2026-12-02 03:04:05+00' as at, date '2026-12-02' as day, interval '90 minutes' as span,
   array[1.5, 2.25]::numeric[] as levels, array[timestamp '2026-01-01 00:00']::timestamp[] as stamps,
   42::int4 as whole, 0.5::float8 as half, '{"a":1}'::jsonb as doc, true as flag`
@@ -26,7 +31,9 @@ describe('LeanPGlite (drizzle\'s text parsers installed once)', () => {
   })
 
   it('keeps a query\'s own parser when it brings one the client has not installed', async () => {
-    const result = await client.query<{ whole: string }>('select 42::int4 as whole', [], { parsers: { [types.INT4]: (value: string) => `#${value}` } })
+    const result = await client.query<{ whole: string }>('select 42::int4 as whole', [], {
+      parsers: { [types.INT4]: (value: string) => `#${value}` },
+    })
     expect(result.rows[0]!.whole).toBe('#42')
   })
 
@@ -46,6 +53,9 @@ describe('LeanPGlite (drizzle\'s text parsers installed once)', () => {
 
   it('keeps the text parsers after PGlite rebuilds its array parsers', async () => {
     await client.refreshArrayTypes()
-    expect((await client.query(ROW)).rows[0]).toMatchObject({ stamps: '{"2026-01-01 00:00:00"}', at: '2026-12-02 03:04:05+00' })
+    expect((await client.query(ROW)).rows[0]).toMatchObject({
+      stamps: '{"2026-01-01 00:00:00"}',
+      at: '2026-12-02 03:04:05+00',
+    })
   })
 })

@@ -27,9 +27,17 @@ describe('the planning scenario backfill', () => {
       insert into organisations (id, name, kind) values ('00000000-0000-4000-8000-000000000001', 'Council', 'council');
       insert into users (id, email, name, password_hash, role, organisation_id) values ('00000000-0000-4000-8000-000000000002', 'p@example.org', 'P', 'x', 'planner', '00000000-0000-4000-8000-000000000001');
     `)
-    const site = (n: number, name: string) => `insert into sites (id, organisation_id, name, latitude, longitude, reference_level, datum_kind, datum_offset, reference_epoch, land_motion_rate, land_motion_sigma, land_motion_source, land_motion_epoch, created_by)
+    const site = (
+      n: number,
+      name: string,
+    ) => `insert into sites (id, organisation_id, name, latitude, longitude, reference_level, datum_kind, datum_offset, reference_epoch, land_motion_rate, land_motion_sigma, land_motion_source, land_motion_epoch, created_by)
       values ('00000000-0000-4000-8000-00000000010${n}', '00000000-0000-4000-8000-000000000001', '${name}', 47, -34, 'MSL', 'mean-sea-level', 0, 2020, 0, 0.5, 'gps', 2020, '00000000-0000-4000-8000-000000000002');`
-    const outlook = (n: number, scenario: string, hash: string, state = 'done') => `insert into outlooks (site_id, scenario, samples, seed, input_hash, engine_version, state, input, release_refs, finished_at)
+    const outlook = (
+      n: number,
+      scenario: string,
+      hash: string,
+      state = 'done',
+    ) => `insert into outlooks (site_id, scenario, samples, seed, input_hash, engine_version, state, input, release_refs, finished_at)
       values ('00000000-0000-4000-8000-00000000010${n}', '${scenario}', 1000, 1, '${hash}', 'test', '${state}', '{}', '[]', now());`
     await client.exec([
       site(1, 'High twice'), outlook(1, 'SSP5-8.5', 'a'), outlook(1, 'SSP5-8.5', 'b'), outlook(1, 'SSP2-4.5', 'c'),
@@ -39,7 +47,13 @@ describe('the planning scenario backfill', () => {
       site(5, 'Storyline'), outlook(5, 'high-end-ice', 'g'),
     ].join('\n'))
     await apply(client, files[planning]!)
-    const rows = (await client.query<{ name: string, planning_scenario: string, planning_tolerance: number }>('select name, planning_scenario, planning_tolerance from sites order by name', [], { rowMode: 'object' })).rows
+    const rows = (
+      await client.query<{ name: string, planning_scenario: string, planning_tolerance: number }>(
+        'select name, planning_scenario, planning_tolerance from sites order by name',
+        [],
+        { rowMode: 'object' },
+      )
+    ).rows
     expect(rows).toEqual([
       { name: 'High twice', planning_scenario: 'SSP5-8.5', planning_tolerance: 0.1 },
       { name: 'None yet', planning_scenario: 'SSP2-4.5', planning_tolerance: 0.1 },

@@ -11,7 +11,8 @@ import { describe, expect, it } from 'vitest'
 // the internal and the installed versions, when an upgrade changes what that file relies on.
 
 const version = (name: string) =>
-  JSON.parse(readFileSync(new URL(`../../../node_modules/${name}/package.json`, import.meta.url), 'utf8')).version as string
+  JSON.parse(readFileSync(new URL(`../../../node_modules/${name}/package.json`, import.meta.url), 'utf8'))
+    .version as string
 const INTERNAL = `h3 ${version('h3')} / nitropack ${version('nitropack')}: server/plugins/shared-page-cache.ts replaces nitroApp.h3App.handler`
 const RECHECK = 'Re-check that file against this version (measure with `npm run load`), then update this test.'
 
@@ -29,8 +30,14 @@ async function answer(app: ReturnType<typeof createApp>) {
 
 describe('the framework internal behind the shared-page cache', () => {
   it('Nitro\'s node server still serves nitroApp.h3App through h3\'s toNodeListener', () => {
-    const entry = readFileSync(new URL('../../../node_modules/nitropack/dist/presets/node/runtime/node-server.mjs', import.meta.url), 'utf8')
-    expect(entry.includes('toNodeListener(nitroApp.h3App)'), `${INTERNAL}, and Nitro's node-server entry no longer serves nitroApp.h3App with toNodeListener. ${RECHECK}`).toBe(true)
+    const entry = readFileSync(
+      new URL('../../../node_modules/nitropack/dist/presets/node/runtime/node-server.mjs', import.meta.url),
+      'utf8',
+    )
+    expect(
+      entry.includes('toNodeListener(nitroApp.h3App)'),
+      `${INTERNAL}, and Nitro's node-server entry no longer serves nitroApp.h3App with toNodeListener. ${RECHECK}`,
+    ).toBe(true)
   })
 
   it('a replaced app.handler answers before the app\'s request hook, and the original still runs it', async () => {
@@ -48,11 +55,17 @@ describe('the framework internal behind the shared-page cache', () => {
     })
 
     const first = await answer(app)
-    expect(first, `${INTERNAL}, and h3's node listener no longer calls app.handler for each request. ${RECHECK}`).toBe('cached')
-    expect(seen, `${INTERNAL} to answer before Nitro's request hooks, and h3 now runs them first. ${RECHECK}`).toEqual(['cache'])
+    expect(first, `${INTERNAL}, and h3's node listener no longer calls app.handler for each request. ${RECHECK}`).toBe(
+      'cached',
+    )
+    expect(seen, `${INTERNAL} to answer before Nitro's request hooks, and h3 now runs them first. ${RECHECK}`).toEqual([
+      'cache',
+    ])
 
     const second = await answer(app)
-    expect(second, `${INTERNAL} and falls back on the handler it replaced, which no longer renders. ${RECHECK}`).toBe('rendered')
+    expect(second, `${INTERNAL} and falls back on the handler it replaced, which no longer renders. ${RECHECK}`).toBe(
+      'rendered',
+    )
     expect(seen).toEqual(['cache', 'request hook'])
   })
 })

@@ -3,7 +3,11 @@ import { sharedReads } from '../../../server/utils/shared-reads'
 
 /** A read whose answers the test hands out one at a time, counting how many queries were made. */
 function controlledRead() {
-  const waiting: Array<{ key: string, answer: (value: { key: string, n: number }) => void, fail: (error: Error) => void }> = []
+  const waiting: Array<{
+    key: string
+    answer: (value: { key: string, n: number }) => void
+    fail: (error: Error) => void
+  }> = []
   let queries = 0
   const read = (key: string) => new Promise<{ key: string, n: number }>((answer, fail) => {
     queries++

@@ -12,8 +12,15 @@ const source = readFileSync(new URL('dist/runtime/internal/config.mjs', root), '
 
 describe('the framework internal behind the shared runtime config', () => {
   it('useRuntimeConfig(event) still returns event.context.nitro.runtimeConfig when set, before copying', () => {
-    const usesIt = source.includes('if (event.context.nitro.runtimeConfig) { return event.context.nitro.runtimeConfig; }')
-    const copyAfter = source.indexOf('return event.context.nitro.runtimeConfig;') < source.indexOf('const runtimeConfig = klona(_inlineRuntimeConfig);')
-    expect(usesIt && copyAfter, `nitropack ${NITRO}: useRuntimeConfig(event) no longer reads event.context.nitro.runtimeConfig first, which server/plugins/shared-runtime-config.ts relies on. Re-check that file against this version (measure with \`npm run load\`), then update this test.`).toBe(true)
+    const usesIt = source.includes(
+      'if (event.context.nitro.runtimeConfig) { return event.context.nitro.runtimeConfig; }',
+    )
+    const copyAfter
+      = source.indexOf('return event.context.nitro.runtimeConfig;')
+        < source.indexOf('const runtimeConfig = klona(_inlineRuntimeConfig);')
+    expect(
+      usesIt && copyAfter,
+      `nitropack ${NITRO}: useRuntimeConfig(event) no longer reads event.context.nitro.runtimeConfig first, which server/plugins/shared-runtime-config.ts relies on. Re-check that file against this version (measure with \`npm run load\`), then update this test.`,
+    ).toBe(true)
   })
 })

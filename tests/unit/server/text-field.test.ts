@@ -20,7 +20,15 @@ describe('text fields without control characters', () => {
 
   it('applies before the length and emptiness rules of a schema', () => {
     expect(textField().trim().min(1).safeParse('\u0007\u202E').success).toBe(false)
-    const parsed = SiteSchema.safeParse({ name: 'Bell\u0007 Quay', latitude: 0, longitude: 0, referenceLevel: 'Chart datum', datum: { kind: 'chart', offset: 0 }, referenceEpoch: 2020, landMotion: { rateMmPerYear: 0, sigmaMmPerYear: 0, source: 'gps', epoch: 2020 } })
+    const parsed = SiteSchema.safeParse({
+      name: 'Bell\u0007 Quay',
+      latitude: 0,
+      longitude: 0,
+      referenceLevel: 'Chart datum',
+      datum: { kind: 'chart', offset: 0 },
+      referenceEpoch: 2020,
+      landMotion: { rateMmPerYear: 0, sigmaMmPerYear: 0, source: 'gps', epoch: 2020 },
+    })
     expect(parsed.success && parsed.data.name).toBe('Bell Quay')
   })
 })

@@ -1,5 +1,13 @@
 import { describe, expect, it } from 'vitest'
-import { aChance, chanceAfterDe, chanceAsOdds, formatChance, headlineSentence, likelihoodPhrase, samplingNote } from '../../../shared/wording/chance'
+import {
+  aChance,
+  chanceAfterDe,
+  chanceAsOdds,
+  formatChance,
+  headlineSentence,
+  likelihoodPhrase,
+  samplingNote,
+} from '../../../shared/wording/chance'
 
 const nb = (text: string) => text.replace(/\u00A0/g, ' ')
 
@@ -42,24 +50,59 @@ describe('chances in words', () => {
   })
 
   it('builds the headline sentence in the chosen units and language', () => {
-    const parts = { probability: 0.234, standardError: 0.0013, height: 0.5, year: 2070, referenceLevel: 'mean sea level 2020', unit: 'm' as const, language: 'en' as const }
-    expect(nb(headlineSentence(parts))).toBe('There is a 23 % chance (unlikely) that the mean sea level here will be more than 0.50 m above mean sea level 2020 by 2070.')
+    const parts = {
+      probability: 0.234,
+      standardError: 0.0013,
+      height: 0.5,
+      year: 2070,
+      referenceLevel: 'mean sea level 2020',
+      unit: 'm' as const,
+      language: 'en' as const,
+    }
+    expect(nb(headlineSentence(parts))).toBe(
+      'There is a 23 % chance (unlikely) that the mean sea level here will be more than 0.50 m above mean sea level 2020 by 2070.',
+    )
     // [practice] 0.5 m is 1.64 ft (international foot, 0.3048 m).
     expect(nb(headlineSentence({ ...parts, unit: 'ft' }))).toContain('more than 1.6 ft above')
-    expect(nb(headlineSentence({ ...parts, language: 'es' }))).toBe('Hay una probabilidad del 23 % (improbable) de que el nivel medio del mar aquí esté más de 0,50 m por encima de mean sea level 2020 en 2070.')
+    expect(nb(headlineSentence({ ...parts, language: 'es' }))).toBe(
+      'Hay una probabilidad del 23 % (improbable) de que el nivel medio del mar aquí esté más de 0,50 m por encima de mean sea level 2020 en 2070.',
+    )
   })
 
   it('gives no calibrated word to a chance that lies beyond what the releases publish', () => {
-    const parts = { probability: 0.004, standardError: 0.0002, extrapolated: true, height: 1.2, year: 2100, referenceLevel: 'chart datum', unit: 'm' as const, language: 'en' as const }
+    const parts = {
+      probability: 0.004,
+      standardError: 0.0002,
+      extrapolated: true,
+      height: 1.2,
+      year: 2100,
+      referenceLevel: 'chart datum',
+      unit: 'm' as const,
+      language: 'en' as const,
+    }
     const sentence = nb(headlineSentence(parts))
-    expect(sentence).toBe('There is a less than 1 % chance (extrapolated: the releases do not describe this tail) that the mean sea level here will be more than 1.20 m above chart datum by 2100.')
+    expect(sentence).toBe(
+      'There is a less than 1 % chance (extrapolated: the releases do not describe this tail) that the mean sea level here will be more than 1.20 m above chart datum by 2100.',
+    )
     expect(sentence).not.toMatch(/unlikely/)
-    expect(nb(headlineSentence({ ...parts, language: 'es' }))).toMatch(/\(extrapolada: las versiones publicadas no describen esta cola\)/)
+    expect(nb(headlineSentence({ ...parts, language: 'es' }))).toMatch(
+      /\(extrapolada: las versiones publicadas no describen esta cola\)/,
+    )
   })
 
   it('reads as Spanish at the edges: "de menos del 1 %", never "del menos del 1 %", and a decimal comma in the sampling note', () => {
-    const parts = { probability: 0.002, standardError: 0.004, height: 0.5, year: 2070, referenceLevel: 'NMM 2020', unit: 'm' as const, language: 'es' as const }
-    expect(nb(headlineSentence(parts))).toBe('Hay una probabilidad de menos del 1 % (excepcionalmente improbable; ± 0,8 % por el muestreo) de que el nivel medio del mar aquí esté más de 0,50 m por encima de NMM 2020 en 2070.')
+    const parts = {
+      probability: 0.002,
+      standardError: 0.004,
+      height: 0.5,
+      year: 2070,
+      referenceLevel: 'NMM 2020',
+      unit: 'm' as const,
+      language: 'es' as const,
+    }
+    expect(nb(headlineSentence(parts))).toBe(
+      'Hay una probabilidad de menos del 1 % (excepcionalmente improbable; ± 0,8 % por el muestreo) de que el nivel medio del mar aquí esté más de 0,50 m por encima de NMM 2020 en 2070.',
+    )
     expect(nb(headlineSentence({ ...parts, probability: 0.999 }))).toMatch(/^Hay una probabilidad de más del 99 % /)
     expect(nb(chanceAfterDe(0.4))).toBe('del 40 %')
   })

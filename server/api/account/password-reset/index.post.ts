@@ -10,5 +10,8 @@ export default defineEventHandler(async (event) => {
   await rateLimit(`reset:email:${email}`, 3, HOUR, 'reset requests for this address', event)
   await requestPasswordReset(email, language)
   setResponseStatus(event, 202)
-  return { message: 'If that address has an account, a link to choose a new password is on its way. It works once, for one hour.' }
+  return {
+    message:
+      'If that address has an account, a link to choose a new password is on its way. It works once, for one hour.',
+  }
 })

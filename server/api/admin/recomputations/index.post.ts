@@ -8,7 +8,11 @@ export default defineEventHandler(async (event) => {
   const admin = await requireOperator(event)
   const { scenario } = await readValidBody(event, RecomputationRequestSchema)
   if (scenario && !(await scenarioCoverage()).some(s => s.scenario === scenario)) {
-    throw createError({ statusCode: 400, message: `scenario: There is no scenario called ${scenario}; choose one from the list.`, data: { issues: [{ field: 'scenario', message: 'Choose a scenario from the list.' }] } })
+    throw createError({
+      statusCode: 400,
+      message: `scenario: There is no scenario called ${scenario}; choose one from the list.`,
+      data: { issues: [{ field: 'scenario', message: 'Choose a scenario from the list.' }] },
+    })
   }
   const id = await requestRecomputation(admin, { scenario, cause: { kind: 'requested', scenario } })
   kickJobs()

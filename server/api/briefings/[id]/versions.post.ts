@@ -8,7 +8,9 @@ import { newBriefingVersion } from '~~/server/services/briefings'
 export default defineEventHandler(async (event) => {
   const planner = await requireRole(event, 'planner')
   const { id } = readValidParams(event, IdParams)
-  const sent = Number(getRequestHeader(event, 'content-length') ?? 0) > 0 || getRequestHeader(event, 'transfer-encoding') !== undefined
+  const sent
+    = Number(getRequestHeader(event, 'content-length') ?? 0) > 0
+      || getRequestHeader(event, 'transfer-encoding') !== undefined
   const options = sent ? await readValidBody(event, NewVersionSchema) : { fromLatestOutlooks: false }
   const draft = await newBriefingVersion(planner, id, options)
   setResponseStatus(event, 201)

@@ -8,7 +8,10 @@ import { adopt } from '~~/server/services/adoptions'
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
   if (user.role !== 'planner' && user.role !== 'admin' && user.role !== 'operator') {
-    throw createError({ statusCode: 403, message: 'This needs the planner role, or an administrator of the organisation.' })
+    throw createError({
+      statusCode: 403,
+      message: 'This needs the planner role, or an administrator of the organisation.',
+    })
   }
   const { id } = readValidParams(event, IdParams)
   const input = await readValidBody(event, AdoptionSchema)
