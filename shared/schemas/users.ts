@@ -72,8 +72,5 @@ export const PreferencesSchema = z.object({
   locale: z.enum(LOCALES, { error: `Choose one of: ${LOCALES.join(', ')}.` }),
 })
 
-// Route parameters live in ./params; outlook routes still import IdParams from here.
-export { IdParams } from './params'
-
 export type CreateUserInput = z.infer<typeof CreateUserSchema>
 export type UpdateUserInput = z.infer<typeof UpdateUserSchema>

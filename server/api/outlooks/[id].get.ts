@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { readOutlook, sendStoredOutlook } from '~~/server/outlooks/read'
 
 // One outlook as stored, with its provenance: immutable once done, so it carries an ETag (304 when the

@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { outlookCsvExport } from '~~/server/services/exports'
 
 // A finished outlook as CSV: years × percentiles and thresholds × chances, with its provenance in header rows.

@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { outlookStatus } from '~~/server/outlooks/status'
 
 // What changes about an outlook while it is read: progress while running, the site's name and datum

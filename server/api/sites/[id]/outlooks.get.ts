@@ -1,4 +1,4 @@
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { listSiteOutlooks } from '~~/server/outlooks/list'
 import { loadSite } from '~~/server/services/sites'
 

@@ -1,5 +1,5 @@
 import { OutlookRequestSchema } from '#shared/schemas/sites'
-import { IdParams } from '#shared/schemas/users'
+import { IdParams } from '#shared/schemas/params'
 import { requestOutlook } from '~~/server/outlooks/queue'
 
 // Compute (or find the stored) outlook for a scenario. 200 when served from the store, 201 when
