@@ -23,15 +23,7 @@ export function niceAxis(low: number, high: number, ticks = 5): NiceAxis {
   }
 }
 
-/**
- * Years: fewer, wider steps (10, 20, 50 years) so four-digit labels never touch on a phone, and ends on
- * the decades around the data rather than on whole steps: a 50-year step must not start an outlook
- * that begins in 2020 at 2000, drawing twenty empty years that read as missing data. The ticks between
- * fall on multiples of the step (ECharts adds the ends as their own labels).
- */
+/** Years: fewer, wider steps (10, 20, 50 years) so four-digit labels never touch on a phone. */
 export function niceYearAxis(first: number, last: number): NiceAxis {
-  const steps = niceAxis(first, last, 4)
-  if (!Number.isFinite(first) || !Number.isFinite(last)) return steps
-  const min = Math.floor(first / 10) * 10
-  return { min, max: Math.max(Math.ceil(last / 10) * 10, min + 10), interval: steps.interval }
+  return niceAxis(first, last, 4)
 }
