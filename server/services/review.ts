@@ -2,14 +2,15 @@ import { and, eq, type SQL } from 'drizzle-orm'
 import { correlationSets, releases, scaleFactorGrids, series, storylines } from '~~/server/db/schema'
 import type { Database } from '~~/server/db/client'
 import type { RecomputationCause } from '#shared/types/causes'
-import { judgeReviewAction, type ReviewAction } from '#shared/review/rules'
+import { judgeReviewAction, type ReviewAction, type ReviewedKind } from '#shared/review/rules'
 import type { CurrentUser } from '../utils/auth'
+
+export type { ReviewedKind }
 
 // One review workflow for the four kinds of reviewed records. Publishing a version supersedes
 // the previously published version of the same series in the same transaction.
 
 type Tx = Parameters<Parameters<Database['transaction']>[0]>[0]
-export type ReviewedKind = 'release' | 'correlation-set' | 'scale-factor-grid' | 'storyline'
 
 const TABLES = {
   'release': releases,

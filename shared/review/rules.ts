@@ -3,6 +3,9 @@ import type { ReviewState } from '../types/science'
 // The review workflow of releases, correlation sets and scale-factor grids, as pure rules so the
 // routes, the UI (which buttons to show) and the tests agree.
 
+/** The kinds of record that go through review. */
+export type ReviewedKind = 'release' | 'correlation-set' | 'scale-factor-grid' | 'storyline'
+
 export const REVIEW_ACTIONS = ['submit', 'approve', 'return', 'withdraw'] as const
 export type ReviewAction = typeof REVIEW_ACTIONS[number]
 

@@ -324,6 +324,9 @@ describe('decision alerts', () => {
     expect(v.alerts.map(a => a.recordId)).toContain(recordId)
     expect(v.alerts.find(a => a.recordId === recordId)!.reason.kinds).toEqual(['late'])
     expect((await planner.get(`/api/sites/${siteId}`)).body.decisionAlerts).toBeGreaterThan(0)
+    // The overview lists it first for everyone in the organisation.
+    const waiting = async () => (await planner.get('/api/attention')).body as Array<{ kind: string, siteName?: string }>
+    expect((await waiting())[0]).toMatchObject({ kind: 'decision-alert', siteName: 'Kelwick' })
 
     // A review is a new record naming the old one; the flag clears.
     const old = v.records.find(r => r.id === recordId)!
@@ -338,5 +341,6 @@ describe('decision alerts', () => {
     })
     expect(review.status).toBe(201)
     expect((await view()).alerts.filter(a => a.recordId === recordId)).toHaveLength(0)
+    expect((await waiting()).filter(item => item.kind === 'decision-alert')).toEqual([])
   })
 })

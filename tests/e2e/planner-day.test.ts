@@ -268,6 +268,24 @@ describe('refusals', () => {
   })
 })
 
+describe('the overview', () => {
+  it('opens on what is waiting: each site without a planning outlook, with a link that deals with it', async () => {
+    await signIn(page, PLANNER.email, PLANNER.password)
+    await open(page, '/')
+    const waiting = page.getByTestId('attention')
+    await waiting.getByRole('heading', { name: 'Waiting for you' }).waitFor()
+    const text = plain(await waiting.textContent())
+    expect(text).toMatch(/Drumhaven has no outlook under its planning scenario, SSP2-4\.5/)
+    expect(text).not.toMatch(/Kelwick has no outlook/)
+    expect(await seriousAxeViolations(page)).toEqual([])
+    await atBothWidths(page, 'overview')
+    await page.setViewportSize({ width: 1280, height: 860 })
+    await waiting.getByRole('listitem').filter({ hasText: 'Drumhaven' }).getByRole('link', { name: 'Run an outlook' }).click()
+    await page.waitForURL(/\/sites\/[\w-]+$/)
+    await page.getByRole('heading', { level: 1, name: 'Drumhaven' }).waitFor()
+  })
+})
+
 /** A site as the API returns it, back into the body PATCH takes. */
 function siteBody(site: Record<string, any>) {
   return {
