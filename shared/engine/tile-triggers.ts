@@ -212,7 +212,8 @@ export function annualFloodChances(
     firstYear: trigger.firstYear,
     chances: Array.from({ length: yearCount }, (_, y) => {
       const cell = m * yearCount + y
-      const estimate = meanFromDeviations(trigger.floodReference[cell]!, totals[2 * cell]!, totals[2 * cell + 1]!, merged.samples)
+      const reference = trigger.floodReference[cell]!
+      const estimate = meanFromDeviations(reference, totals[2 * cell]!, totals[2 * cell + 1]!, merged.samples)
       return { value: Math.min(1, Math.max(0, estimate.value)), se: estimate.se }
     }),
   }))

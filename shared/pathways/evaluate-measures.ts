@@ -26,7 +26,10 @@ export function measuresPlan(outlookInput: Record<string, unknown>, measures: Me
 }
 
 /** Each measure's chance in every year, from the merged partial of a `measuresPlan`. */
-export function measureChances(plan: OutlookPlan, merged: OutlookPartial): { horizon: number, measures: MeasureChances[] } {
+export function measureChances(
+  plan: OutlookPlan,
+  merged: OutlookPartial,
+): { horizon: number, measures: MeasureChances[] } {
   const result = finishOutlook(plan, merged)
   const n = result.samples
   const floods = annualFloodChances(plan, merged)
