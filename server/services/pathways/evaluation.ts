@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto'
-import { and, desc, eq, inArray, sql } from 'drizzle-orm'
+import { and, desc, eq, inArray, ne, sql } from 'drizzle-orm'
 import { adaptationMeasures, outlooks, tippingEvaluations } from '~~/server/db/schema'
 import type { Database } from '~~/server/db/client'
 import type { OutlookReleaseRef } from '#shared/types/outlook'
@@ -83,13 +83,18 @@ async function requestEvaluations(tx: Executor, siteId: string, outlookIds: stri
 
 /**
  * After a site's measures change (added, edited, removed): queues the new measures' chances under
- * each scenario's latest outlook, in the transaction of the change. Call `kickJobs()` after commit.
+ * each scenario's latest outlook, in the transaction of the change, and drops those of the measures
+ * as they were. Call `kickJobs()` after commit.
  */
 export async function queueTippingEvaluations(tx: Tx, siteId: string) {
   const measures = await tx
     .select()
     .from(adaptationMeasures)
     .where(eq(adaptationMeasures.siteId, siteId))
+  // Chances of measures as they were are never read again (records keep their own numbers).
+  await tx
+    .delete(tippingEvaluations)
+    .where(and(eq(tippingEvaluations.siteId, siteId), ne(tippingEvaluations.measuresKey, measuresKey(measures))))
   const latest = await latestOutlookHeads(tx, siteId)
   await requestEvaluations(tx, siteId, latest.map(o => o.id), measures)
 }
