@@ -11,7 +11,8 @@ import {
   uuid,
 } from 'drizzle-orm/pg-core'
 import type { ThresholdKind } from '../../shared/types/science'
-import { sites, users } from './schema'
+import type { MeasureChances, MeasureHeight } from '../../shared/pathways/evaluate-measures'
+import { outlooks, sites, users } from './schema'
 
 // Adaptation pathways: a site's measures, the sequences they form, the decisions a council records
 // and the alerts raised when new science moves one. Only lazy references to schema.ts (the two files
@@ -110,5 +111,39 @@ export const decisionAlerts = pgTable(
   table => [
     unique('decision_alerts_record_outlook').on(table.recordId, table.outlookId),
     index('decision_alerts_site_idx').on(table.siteId),
+  ],
+)
+
+export type TippingEvaluationState = 'running' | 'done' | 'failed'
+
+/**
+ * Each measure's chance of being exceeded in every year under one outlook's trajectories, computed
+ * on the outlook worker pool when the outlook finishes or the site's measures change
+ * (server/services/pathways/evaluation.ts); tipping years at any tolerance are read from it.
+ * `measuresKey` names the measures' heights (and the engine), so a changed measure asks for a new row.
+ */
+export const tippingEvaluations = pgTable(
+  'tipping_evaluations',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    outlookId: uuid('outlook_id')
+      .notNull()
+      .references(() => outlooks.id, { onDelete: 'cascade' }),
+    siteId: uuid('site_id')
+      .notNull()
+      .references(() => sites.id, { onDelete: 'cascade' }),
+    measuresKey: text('measures_key').notNull(),
+    /** The measures evaluated, heights in metres above mean sea level at the outlook's epoch. */
+    heights: jsonb('heights').$type<MeasureHeight[]>().notNull(),
+    state: text('state').$type<TippingEvaluationState>().notNull().default('running'),
+    horizon: integer('horizon'),
+    chances: jsonb('chances').$type<MeasureChances[]>(),
+    error: text('error'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    finishedAt: timestamp('finished_at', { withTimezone: true }),
+  },
+  table => [
+    unique('tipping_evaluations_outlook_measures').on(table.outlookId, table.measuresKey),
+    index('tipping_evaluations_site_idx').on(table.siteId),
   ],
 )

@@ -34,6 +34,7 @@ import type { GaugeResolution, GaugeTrendFit } from '../../shared/observations/g
 import type { BandsAtYear } from '../../shared/releases/summary'
 import type { ReleaseParameters } from '../../shared/releases/parameters'
 import type { BriefingDocument } from '../../shared/briefing/document'
+import type { Staleness } from '../../shared/types/staleness'
 import type { Language } from '../../shared/wording/chance'
 import type { HeightUnit } from '../../shared/units'
 
@@ -401,6 +402,13 @@ export const briefings = pgTable(
     years: jsonb('years').$type<number[]>().notNull(),
     /** The frozen document (shared/briefing/document.ts), written when issued. */
     document: jsonb('document').$type<BriefingDocument>(),
+    /**
+     * What newer outlooks of its site change in an issued briefing, worked out whenever one of them
+     * finishes (server/services/briefing-staleness.ts); null while it is current.
+     */
+    staleness: jsonb('staleness').$type<Staleness>(),
+    /** When `staleness` was last worked out: a shared page rendered before then is rendered again. */
+    stalenessCheckedAt: timestamp('staleness_checked_at', { withTimezone: true }),
     shareToken: text('share_token').unique(),
     createdBy: uuid('created_by')
       .notNull()

@@ -6,7 +6,6 @@ import {
   planOutlook,
   type OutlookPartial,
   type OutlookPlan,
-  type OutlookResult,
 } from '#shared/engine'
 
 // Outlooks run off the request thread on a small pool of worker threads. Every free thread joins the
@@ -28,7 +27,9 @@ interface Job {
   working: Set<Worker>
   sentTo: Set<Worker>
   onProgress: (fraction: number) => void
-  resolve: (result: OutlookResult) => void
+  /** What the caller wants from the merged partial (an outlook, or a measure's chances by year). */
+  finish: (plan: OutlookPlan, merged: OutlookPartial) => unknown
+  resolve: (result: unknown) => void
   reject: (error: Error) => void
 }
 
@@ -65,8 +66,12 @@ class OutlookPool {
     return worker
   }
 
-  run(plan: OutlookPlan, onProgress: (fraction: number) => void = () => {}): Promise<OutlookResult> {
-    return new Promise((resolve, reject) => {
+  run<T>(
+    plan: OutlookPlan,
+    finish: (plan: OutlookPlan, merged: OutlookPartial) => T,
+    onProgress: (fraction: number) => void,
+  ): Promise<T> {
+    return new Promise<T>((resolve, reject) => {
       const nextBlock = new Int32Array(new SharedArrayBuffer(Int32Array.BYTES_PER_ELEMENT))
       this.jobs.push({
         id: this.nextJobId++,
@@ -76,7 +81,8 @@ class OutlookPool {
         working: new Set(),
         sentTo: new Set(),
         onProgress,
-        resolve,
+        finish,
+        resolve: resolve as (result: unknown) => void,
         reject,
       })
       this.dispatch()
@@ -123,7 +129,7 @@ class OutlookPool {
     this.jobs.splice(this.jobs.indexOf(job), 1)
     try {
       job.onProgress(1)
-      job.resolve(finishOutlook(job.plan, mergePartials(job.plan, job.partials)))
+      job.resolve(job.finish(job.plan, mergePartials(job.plan, job.partials)))
     }
     catch (error) {
       job.reject(error as Error)
@@ -141,9 +147,17 @@ class OutlookPool {
 
 let pool: OutlookPool | undefined
 
-/** Plans on this thread (validation errors surface here), samples on the pool. */
-export function runOutlookOffThread(input: unknown, onProgress?: (fraction: number) => void): Promise<OutlookResult> {
-  const plan = planOutlook(input)
+/** Samples a plan's blocks on the pool and hands the merged partial to `finish`, on this thread. */
+export function runPlanOffThread<T>(
+  plan: OutlookPlan,
+  finish: (plan: OutlookPlan, merged: OutlookPartial) => T,
+  onProgress: (fraction: number) => void = () => {},
+): Promise<T> {
   pool ??= new OutlookPool(serverConfig().OUTLOOK_WORKERS)
-  return pool.run(plan, onProgress)
+  return pool.run(plan, finish, onProgress)
+}
+
+/** Plans on this thread (validation errors surface here), samples on the pool. */
+export function runOutlookOffThread(input: unknown, onProgress?: (fraction: number) => void) {
+  return runPlanOffThread(planOutlook(input), finishOutlook, onProgress)
 }

@@ -3,6 +3,7 @@ import { and, asc, eq, inArray, isNull, lt, or, sql } from 'drizzle-orm'
 import { outlooks, sites, thresholds } from '~~/server/db/schema'
 import { EngineInputError, type OutlookResult } from '#shared/engine'
 import { headlineOf } from '../services/site-list'
+import { queueOutlookTipping } from '../services/pathways/evaluation'
 import { runOutlookOffThread } from './pool'
 
 // A stored outlook in state `running` is its own job. Any app instance claims one by taking its
@@ -119,8 +120,8 @@ async function compute(row: ClaimedOutlook) {
       .select({ id: thresholds.id, label: thresholds.label })
       .from(thresholds)
       .where(eq(thresholds.siteId, row.siteId))
-    await db.transaction(async (tx) => {
-      await tx
+    const stored = await db.transaction(async (tx) => {
+      const [written] = await tx
         .update(outlooks)
         .set({
           state: 'done',
@@ -132,8 +133,17 @@ async function compute(row: ClaimedOutlook) {
           progress: null,
         })
         .where(stillMine(row.id))
+        .returning({ id: outlooks.id })
+      if (written) {
+        // What follows from a new outlook is computed now rather than when someone reads it: the
+        // site's measures' tipping years, and which issued briefings it makes out of date.
+        await queueOutlookTipping(tx, row.id, row.siteId)
+        await enqueueJob(tx, 'outlook-finished', { outlookId: row.id, siteId: row.siteId })
+      }
       faultPoint('outlook-write')
+      return written !== undefined
     })
+    if (stored) kickJobs()
   }
   catch (error) {
     const message

@@ -6,6 +6,8 @@ import type { JobPayloads } from '~~/server/utils/jobs'
 import { mailBriefingIssued } from './notify'
 import { kickOutlooks } from '../outlooks/run'
 import { recomputeSite, startRecomputation, type JobOutcome } from './recompute'
+import { runTippingEvaluation } from './pathways/evaluation'
+import { refreshSiteStaleness, refreshStaleness } from './briefing-staleness'
 
 // Runs the durable jobs (server/utils/jobs.ts) on any app instance: claimed one at a time under a
 // lease with SKIP LOCKED, so each runs once however many instances share the database. A job that
@@ -28,6 +30,16 @@ const HANDLERS: { [Kind in JobKind]: (payload: JobPayloads[Kind]) => Promise<Job
   },
   'briefing-issued': async (payload) => {
     await mailBriefingIssued(payload.briefingId)
+    // Issued from outlooks that a newer one may already have replaced.
+    await refreshStaleness(payload.briefingId)
+    return { state: 'done' }
+  },
+  'tipping-evaluation': async (payload) => {
+    await runTippingEvaluation(payload.evaluationId)
+    return { state: 'done' }
+  },
+  'outlook-finished': async (payload) => {
+    await refreshSiteStaleness(payload.siteId)
     return { state: 'done' }
   },
 }

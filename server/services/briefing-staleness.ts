@@ -3,32 +3,20 @@ import { briefings, outlooks, sites, thresholds, users } from '~~/server/db/sche
 import type { OutlookResult } from '#shared/engine'
 import { formatChance } from '#shared/wording/chance'
 import { languageOf, translator, type Language } from '#shared/wording/translate'
+import type { StaleFigure, Staleness } from '#shared/types/staleness'
 import { briefingStaleMail } from '../mail/templates'
 
 // An issued briefing never changes. When a newer outlook of its site and scenario gives different
 // numbers for the thresholds and years it states, the briefing is out of date: its pages say what
 // changed ("19 % now, 4 % in this briefing"), its planners get one e-mail, and a planner can start a
 // new version from the latest outlooks. A figure counts as changed when it reads differently in the
-// briefing's language (a Monte Carlo wobble below a rounded percent is not news).
+// briefing's language (a Monte Carlo wobble below a rounded percent is not news). It is worked out
+// when an outlook of the site finishes, when the briefing is issued and after a recomputation, and
+// stored on the briefing (`briefings.staleness`): its pages only read it.
 
 type Briefing = typeof briefings.$inferSelect
 
-export interface StaleFigure {
-  scenario: string
-  thresholdId: string
-  threshold: string
-  kind: 'mean-sea-level' | 'flood-level'
-  year: number
-  /** The chance the briefing states, and the latest outlook's. */
-  was: number
-  now: number
-}
-
-export interface Staleness {
-  /** The latest finished outlook of each of the briefing's scenarios, in the briefing's order. */
-  latestOutlookIds: string[]
-  changes: StaleFigure[]
-}
+export type { StaleFigure, Staleness }
 
 /** The chance a briefing states for a threshold in a year: above the mean sea, or the flood level's that year. */
 function chanceIn(result: OutlookResult, thresholdId: string, year: number) {
@@ -56,7 +44,7 @@ async function latestBySiteScenario(siteId: string, scenarios: string[]) {
 }
 
 /** What newer outlooks change in an issued briefing; null for a draft or one that is still current. */
-export async function briefingStaleness(row: Briefing): Promise<Staleness | null> {
+async function briefingStaleness(row: Briefing): Promise<Staleness | null> {
   if (row.state !== 'issued' || !row.outlookIds.length) return null
   const db = await useDb()
   const used = await db
@@ -132,24 +120,49 @@ export function staleLine(change: StaleFigure, language: Language) {
   })
 }
 
-/**
- * After a recomputation of a site: each issued briefing of it that has no issued newer version and
- * whose numbers changed mails its planners (author and issuer, if still active planners) once.
- * The key names the outlooks that made it stale, so a later change mails again and this one never twice.
- */
-export async function mailStaleBriefings(siteId: string) {
+/** Works out and stores the staleness of one briefing (an issued one; a draft is never stale). */
+async function storeStaleness(row: Briefing): Promise<Briefing> {
+  const staleness = await briefingStaleness(row)
+  const db = await useDb()
+  const stalenessCheckedAt = new Date()
+  await db.update(briefings).set({ staleness, stalenessCheckedAt }).where(eq(briefings.id, row.id))
+  return { ...row, staleness, stalenessCheckedAt }
+}
+
+/** After a briefing is issued: whether a newer outlook already changes what it says. */
+export async function refreshStaleness(briefingId: string) {
+  const db = await useDb()
+  const [row] = await db.select().from(briefings).where(and(eq(briefings.id, briefingId), eq(briefings.state, 'issued')))
+  if (row) await storeStaleness(row)
+}
+
+/** After an outlook of the site finished: every issued briefing of it, its staleness stored again. */
+export async function refreshSiteStaleness(siteId: string) {
   const db = await useDb()
   const issued = await db
     .select()
     .from(briefings)
     .where(and(eq(briefings.siteId, siteId), eq(briefings.state, 'issued')))
+  const refreshed: Briefing[] = []
+  for (const row of issued) refreshed.push(await storeStaleness(row))
+  return refreshed
+}
+
+/**
+ * After a recomputation of a site: stores every issued briefing's staleness, then each one that has
+ * no issued newer version and whose numbers changed mails its planners (author and issuer, if still
+ * active planners) once. The key names the outlooks that made it stale, so a later change mails again
+ * and this one never twice.
+ */
+export async function mailStaleBriefings(siteId: string) {
+  const db = await useDb()
+  const issued = await refreshSiteStaleness(siteId)
   const superseded = new Set(issued.map(b => b.previousId).filter(Boolean))
   const [site] = await db.select({ name: sites.name }).from(sites).where(eq(sites.id, siteId))
   if (!site) return
   for (const row of issued) {
-    if (superseded.has(row.id)) continue
-    const staleness = await briefingStaleness(row)
-    if (!staleness) continue
+    const staleness = row.staleness
+    if (superseded.has(row.id) || !staleness) continue
     const planners = await db
       .select({ id: users.id, email: users.email, locale: users.locale })
       .from(users)

@@ -44,6 +44,10 @@ export interface JobPayloads {
   'science-change': ScienceChangePayload
   'recompute-site': RecomputeSitePayload
   'briefing-issued': { briefingId: string }
+  /** A site's measures' chances under one outlook (server/services/pathways/evaluation.ts). */
+  'tipping-evaluation': { evaluationId: string }
+  /** An outlook finished: its site's issued briefings learn whether it makes them out of date. */
+  'outlook-finished': { outlookId: string, siteId: string }
   'password-reset': { email: string, language: Language }
 }
 

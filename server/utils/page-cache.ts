@@ -57,22 +57,26 @@ const LIVE_RECHECK_MS = 1000
 const liveUntil = new Map<string, { until: number, outlookAt: number }>()
 
 /**
- * Whether the link still opens an issued briefing, and when its site's latest outlook finished (ms;
- * 0 when none): a page stored before then is rendered again. False for a revoked link.
+ * Whether the link still opens an issued briefing, and when its site's latest outlook finished or its
+ * staleness was last stored, whichever is later (ms; 0 when neither): a page stored before then is
+ * rendered again. False for a revoked link.
  */
 export async function shareIsLive(token: string): Promise<false | { outlookAt: number }> {
   const now = Date.now()
   const known = liveUntil.get(token)
   if (known && known.until > now) return { outlookAt: known.outlookAt }
   const db = await useDb()
-  const [row] = await db.select({ id: briefings.id, outlookAt: max(outlooks.finishedAt) }).from(briefings)
+  const [row] = await db
+    .select({ id: briefings.id, outlookAt: max(outlooks.finishedAt), checkedAt: briefings.stalenessCheckedAt })
+    .from(briefings)
     .leftJoin(outlooks, and(eq(outlooks.siteId, briefings.siteId), eq(outlooks.state, 'done')))
     .where(and(eq(briefings.shareToken, token), eq(briefings.state, 'issued'))).groupBy(briefings.id).limit(1)
   if (!row) {
     liveUntil.delete(token)
     return false
   }
-  const outlookAt = row.outlookAt ? new Date(row.outlookAt).getTime() : 0
+  // The page says what newer outlooks changed, stored a little after they finish.
+  const outlookAt = Math.max(row.outlookAt ? new Date(row.outlookAt).getTime() : 0, row.checkedAt?.getTime() ?? 0)
   liveUntil.set(token, { until: now + LIVE_RECHECK_MS, outlookAt })
   return { outlookAt }
 }

@@ -115,13 +115,22 @@ function heavyTail(
   }
 }
 
-/** Validates an outlook request and precomputes everything the sample loop needs. */
-export function planOutlook(rawInput: unknown): OutlookPlan {
-  const input = validateOutlookInput(rawInput)
-  return planValidated(input)
+export interface PlanOptions {
+  /**
+   * Also sum every flood level's annual chance in every calendar year from the baseline to the last
+   * output year (read with `annualFloodChances`), for tipping years at annual resolution. Off for
+   * outlooks: it costs a Gumbel chance per sample, year and level.
+   */
+  annualFloodChances?: boolean
 }
 
-function planValidated(input: ValidatedOutlookInput): OutlookPlan {
+/** Validates an outlook request and precomputes everything the sample loop needs. */
+export function planOutlook(rawInput: unknown, options: PlanOptions = {}): OutlookPlan {
+  const input = validateOutlookInput(rawInput)
+  return planValidated(input, options)
+}
+
+function planValidated(input: ValidatedOutlookInput, options: PlanOptions): OutlookPlan {
   const years = input.years
   const yearCount = years.length
   const componentCount = input.components.length
@@ -278,6 +287,9 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
   }
 
   const counted = thresholds.flatMap((threshold, k) => (threshold.cutIndex === null ? [] : [k]))
+  const annualFloods = options.annualFloodChances && gumbel
+    ? thresholds.flatMap((threshold, k) => (threshold.levelIndex === null ? [] : [k]))
+    : []
   const trigger = planTriggers(
     input,
     groupRelease.map((release, g) => ({ firstColumn: groupFirstColumn[g]!, release })),
@@ -286,6 +298,7 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
     valueAtZero,
     counted,
     counted.map(k => thresholds[k]!.height),
+    annualFloods.map(k => ({ index: k, height: thresholds[k]!.height })),
   )
 
   const partCount = componentCount + 1
@@ -302,13 +315,15 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
     gumbelGrowth: 0,
     expectedCount: 0,
     lifeGrid: 0,
+    floodAnnual: 0,
   }
   const lifeThresholds = thresholds.filter(threshold => threshold.lifeSumIndex !== null).length
   sumLayout.gumbelGrowth = sumLayout.lifeNoExceedance + 2 * lifeThresholds
   sumLayout.expectedCount = sumLayout.gumbelGrowth + (gumbel ? 2 * yearCount : 0)
   const uncertain = gumbel?.uncertainty ?? null
   sumLayout.lifeGrid = sumLayout.expectedCount + (uncertain ? levelCount * yearCount : 0)
-  const sumsPerBlock = sumLayout.lifeGrid + (uncertain ? uncertain.lifeGrid.length * LIFE_GRID_POINTS : 0)
+  sumLayout.floodAnnual = sumLayout.lifeGrid + (uncertain ? uncertain.lifeGrid.length * LIFE_GRID_POINTS : 0)
+  const sumsPerBlock = sumLayout.floodAnnual + (trigger ? 2 * trigger.floodReference.length : 0)
 
   const factor = input.choleskyFactor ?? identityFactor(componentCount)
   const identity = identityFactor(componentCount)

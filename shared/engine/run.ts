@@ -6,7 +6,7 @@ import { scoreTile, valueTile } from './tile-values'
 import { basisFromValues, blockSumsByYear, gumbelTile, sumTile } from './tile-sums'
 import { countConstantYear, countYear, finishCounts, riseOfYear } from './tile-counts'
 import { countYearPair } from './tile-pairs'
-import { triggerTile } from './tile-triggers'
+import { floodAnnualTile, triggerTile } from './tile-triggers'
 import { drawParameterScores, tileParameters } from './gumbel-uncertainty'
 import type { OutlookPlan, OutlookPartial } from './types'
 
@@ -137,6 +137,8 @@ export function runClaimedBlocks(
       }
       if (plan.trigger !== null) triggerTile(plan, scratch, tileCount, partial.triggerCounts)
       if (uncertain) tileParameters(plan, count, tileStart, tileCount)
+      if (plan.trigger?.floodHeights.length)
+        floodAnnualTile(plan, tileCount, partial.blockSums, b * plan.sumsPerBlock)
       if (plan.gumbel !== null)
         gumbelTile(plan, tables, scratch, tileCount, partial.blockSums, b * plan.sumsPerBlock, partial.lifeHistogram)
     }

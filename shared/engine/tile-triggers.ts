@@ -1,6 +1,9 @@
+import { annualExceedance } from './flood-chance'
+import { TILE_PARAMETERS } from './gumbel-uncertainty'
+import { meanFromDeviations } from './statistics'
 import { ROW, TILE, type TileScratch } from './tile-scratch'
 import { KNOT_PASS } from './trigger-plan'
-import type { OutlookPlan } from './types'
+import type { Estimate, OutlookPartial, OutlookPlan } from './types'
 
 // Annual counts for trigger years (see `TriggerPlan`). Between two knots a sample's rise is a straight
 // line, so the years in which it exceeds a height form a run at one end of the interval: samples above
@@ -138,4 +141,80 @@ export function annualCounts(
     annual[year - trigger.firstYear] = outputCount(t)
   })
   return annual
+}
+
+/**
+ * Annual chances of the trigger plan's flood levels (`floodIndex`) in every year of the trigger range,
+ * from the knots' rises `triggerTile` left for this tile: between two knots a trajectory's rise is a
+ * straight line, so each year's rise is read off it, and the year's chance is the Gumbel exceedance at
+ * that rise, with the trajectory's own location and scale when the parameters are uncertain (call after
+ * `tileParameters`). Sums of deviations from `floodReference` and their squares go to the block's sums.
+ */
+export function floodAnnualTile(plan: OutlookPlan, tileCount: number, sums: Float64Array, sumOffset: number): void {
+  const trigger = plan.trigger!
+  const gumbel = plan.gumbel!
+  const rise = knotRise
+  const yearCount = trigger.yearCount
+  const uncertain = gumbel.uncertainty !== null
+  const parameters = TILE_PARAMETERS
+  const inverseScale = 1 / gumbel.scale
+  const at = sumOffset + plan.sumLayout.floodAnnual
+  for (let m = 0; m < trigger.floodHeights.length; m++) {
+    const height = trigger.floodHeights[m]!
+    const shift = height - gumbel.location
+    const row = m * yearCount
+    for (let k = 0; k < trigger.knotYears.length; k++) {
+      // Knot 0 (the baseline) is its own year; knot k ≥ 1 closes the interval from knot k − 1.
+      const span = k === 0 ? 1 : trigger.knotYears[k]! - trigger.knotYears[k - 1]!
+      const fromAt = k === 0 ? 0 : (k - 1) * TILE
+      const toAt = k * TILE
+      for (let o = k === 0 ? span : 1; o <= span; o++) {
+        const y = trigger.knotYears[k]! - trigger.firstYear - span + o
+        const fraction = o / span
+        const reference = trigger.floodReference[row + y]!
+        let deviations = 0
+        let squares = 0
+        for (let i = 0; i < tileCount; i++) {
+          const r0 = rise[fromAt + i]!
+          const r = r0 + (rise[toAt + i]! - r0) * fraction
+          const chance = uncertain
+            ? -Math.expm1(-Math.exp((r + parameters[i]! - height) * parameters[TILE + i]!))
+            : annualExceedance(r, shift, inverseScale)
+          const deviation = chance - reference
+          deviations += deviation
+          squares += deviation * deviation
+        }
+        sums[at + 2 * (row + y)]! += deviations
+        sums[at + 2 * (row + y) + 1]! += squares
+      }
+    }
+  }
+}
+
+/**
+ * Each flood level of `trigger.floodIndex` (by threshold key): its mean annual chance in each calendar
+ * year firstYear … last output year, with the standard error of that mean (per-sample chances).
+ */
+export function annualFloodChances(
+  plan: OutlookPlan,
+  merged: OutlookPartial,
+): Array<{ key: string, firstYear: number, chances: Estimate[] }> {
+  const trigger = plan.trigger
+  if (!trigger) return []
+  const yearCount = trigger.yearCount
+  const totals = new Float64Array(2 * trigger.floodReference.length)
+  for (let b = 0; b < merged.blocks.length; b++) {
+    const at = b * plan.sumsPerBlock + plan.sumLayout.floodAnnual
+    for (let j = 0; j < totals.length; j++) totals[j]! += merged.blockSums[at + j]!
+  }
+  return Array.from(trigger.floodIndex, (index, m) => ({
+    key: plan.thresholds[index]!.key,
+    firstYear: trigger.firstYear,
+    chances: Array.from({ length: yearCount }, (_, y) => {
+      const cell = m * yearCount + y
+      const reference = trigger.floodReference[cell]!
+      const estimate = meanFromDeviations(reference, totals[2 * cell]!, totals[2 * cell + 1]!, merged.samples)
+      return { value: Math.min(1, Math.max(0, estimate.value)), se: estimate.se }
+    }),
+  }))
 }

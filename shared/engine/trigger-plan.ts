@@ -1,3 +1,4 @@
+import { annualExceedance } from './flood-chance'
 import { relativeAnchorWeights } from './timeline'
 import type { TriggerPlan } from './types'
 import type { ValidatedOutlookInput } from './validate'
@@ -12,7 +13,8 @@ export const KNOT_PASS = 4
  * anchor years in between. Each knot's rise is a fixed mix of the basis columns, like an output year's.
  *
  * `groups` lists, per basis column group (components sharing time weights), its first column and a
- * release with those weights; `valueBasis` and `valueAtZero` are the plan's.
+ * release with those weights; `valueBasis` and `valueAtZero` are the plan's. `floods` are the flood
+ * levels whose annual chances are summed along the same knots (see `floodAnnualTile`).
  */
 export function planTriggers(
   input: ValidatedOutlookInput,
@@ -22,8 +24,9 @@ export function planTriggers(
   valueAtZero: Float64Array,
   thresholdIndex: number[],
   heights: number[],
+  floods: Array<{ index: number, height: number }> = [],
 ): TriggerPlan | null {
-  if (!thresholdIndex.length) return null
+  if (!thresholdIndex.length && !floods.length) return null
   const baseline = input.baselineYear
   const last = input.years[input.years.length - 1]!
   const knotSet = new Set<number>([baseline, ...input.years])
@@ -70,9 +73,10 @@ export function planTriggers(
     }
   }
   columnStart[knotCount] = columns.length
+  const yearCount = last - baseline + 1
   return {
     firstYear: baseline,
-    yearCount: last - baseline + 1,
+    yearCount,
     knotYears,
     knotIsOutput: Uint8Array.from(knotYears, year => (input.years.includes(year) ? 1 : 0)),
     knotWeight,
@@ -83,5 +87,32 @@ export function planTriggers(
     knotLandIntercept: landIntercept,
     thresholdIndex: Int32Array.from(thresholdIndex),
     heights: Float64Array.from(heights),
+    floodIndex: Int32Array.from(floods, flood => flood.index),
+    floodHeights: Float64Array.from(floods, flood => flood.height),
+    floodReference: floodReference(input, knotYears, center, floods, yearCount),
   }
+}
+
+/** Each flood level's annual chance in each year along the all-scores-zero trajectory (central Gumbel). */
+function floodReference(
+  input: ValidatedOutlookInput,
+  knotYears: Int32Array,
+  center: Float64Array,
+  floods: Array<{ height: number }>,
+  yearCount: number,
+): Float64Array {
+  const reference = new Float64Array(floods.length * yearCount)
+  const gumbel = input.gumbel
+  if (!gumbel) return reference
+  const centerRise = new Float64Array(yearCount)
+  for (let k = 1; k < knotYears.length; k++) {
+    const span = knotYears[k]! - knotYears[k - 1]!
+    const at = knotYears[k - 1]! - knotYears[0]!
+    for (let o = 1; o <= span; o++) centerRise[at + o] = center[k - 1]! + ((center[k]! - center[k - 1]!) * o) / span
+  }
+  floods.forEach((flood, m) => {
+    for (let y = 0; y < yearCount; y++)
+      reference[m * yearCount + y] = annualExceedance(centerRise[y]!, flood.height - gumbel.location, 1 / gumbel.scale)
+  })
+  return reference
 }

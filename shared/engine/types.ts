@@ -77,6 +77,14 @@ export interface TriggerPlan {
   /** Index in `thresholds` of each counted (mean-sea-level) threshold, and its height. */
   thresholdIndex: Int32Array
   heights: Float64Array
+  /**
+   * Flood levels whose annual chance is wanted for every year (`planOutlook`'s `annualFloodChances`):
+   * index in `thresholds`, height, and per level and year (row-major, levels × yearCount) the chance
+   * along the all-scores-zero trajectory, the reference of their sums (`SumLayout.floodAnnual`).
+   */
+  floodIndex: Int32Array
+  floodHeights: Float64Array
+  floodReference: Float64Array
 }
 
 /**
@@ -252,6 +260,11 @@ export interface SumLayout {
   expectedCount: number
   /** With parameter uncertainty, per life span and grid height: Σ of each sample's chance of no exceedance. */
   lifeGrid: number
+  /**
+   * Per `trigger.floodIndex` level and calendar year of the trigger range: Σd and Σd², d a sample's
+   * annual chance of exceeding the level less `trigger.floodReference`'s (none unless asked for).
+   */
+  floodAnnual: number
 }
 
 /** Mergeable statistics of some blocks of a plan (consecutive or not). */

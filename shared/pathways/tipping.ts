@@ -1,7 +1,7 @@
 // Tipping years: the first calendar year in which the chance of exceeding a measure's height reaches
-// a tolerance. A mean-sea-level height is counted from the trajectories at annual resolution (the
-// engine's trigger counts, shared/engine/tile-triggers.ts); a flood level's annual chance is known at
-// output years only and is interpolated between them.
+// a tolerance, at annual resolution. A mean-sea-level height's chance is counted from the trajectories
+// (the engine's trigger counts, shared/engine/tile-triggers.ts); a flood level's is the mean over the
+// trajectories of that year's Gumbel exceedance (the engine's annual flood chances, same file).
 
 /**
  * Two-sided 95 % normal score: the Monte Carlo interval of a tipping year is where the chance is within ±1.96 SE of the
@@ -20,8 +20,39 @@ export interface TippingYear {
    */
   earliest: number | null
   latest: number | null
-  /** 'annual' when counted year by year from the trajectories; 'interpolated' between output years. */
-  resolution: 'annual' | 'interpolated'
+  /** Counted year by year from the trajectories. */
+  resolution: 'annual'
+}
+
+/** A chance in each calendar year from firstYear, with its Monte Carlo standard error. */
+export interface AnnualChances {
+  firstYear: number
+  value: number[]
+  se: number[]
+}
+
+/** The tipping year at a tolerance from a chance known for every year. */
+export function tippingFromChances(chances: AnnualChances, tolerance: number): TippingYear {
+  let year: number | null = null
+  let earliest: number | null = null
+  let latest: number | null = null
+  for (let y = 0; y < chances.value.length; y++) {
+    const p = chances.value[y]!
+    const se = chances.se[y]!
+    if (earliest === null && p + INTERVAL_Z * se >= tolerance) earliest = chances.firstYear + y
+    if (year === null && p >= tolerance) year = chances.firstYear + y
+    if (latest === null && p - INTERVAL_Z * se >= tolerance) {
+      latest = chances.firstYear + y
+      break
+    }
+  }
+  return { tolerance, year, earliest, latest, resolution: 'annual' }
+}
+
+/** Chances from per-year exceedance counts over n trajectories (year index 0 = firstYear), binomial SEs. */
+export function chancesFromCounts(counts: ArrayLike<number>, firstYear: number, n: number): AnnualChances {
+  const value = Array.from(counts, count => count / n)
+  return { firstYear, value, se: value.map(p => Math.sqrt((p * (1 - p)) / n)) }
 }
 
 /** From per-year exceedance counts over n trajectories, year index 0 = firstYear. */
@@ -31,47 +62,5 @@ export function tippingFromCounts(
   n: number,
   tolerance: number,
 ): TippingYear {
-  let year: number | null = null
-  let earliest: number | null = null
-  let latest: number | null = null
-  for (let y = 0; y < counts.length; y++) {
-    const p = counts[y]! / n
-    const se = Math.sqrt((p * (1 - p)) / n)
-    if (earliest === null && p + INTERVAL_Z * se >= tolerance) earliest = firstYear + y
-    if (year === null && p >= tolerance) year = firstYear + y
-    if (latest === null && p - INTERVAL_Z * se >= tolerance) {
-      latest = firstYear + y
-      break
-    }
-  }
-  return { tolerance, year, earliest, latest, resolution: 'annual' }
-}
-
-/**
- * From chances known at output years (a flood level's annual chance): the crossing year between the
- * two output years that bracket the tolerance, rounded up to a whole year, linear in the chance.
- */
-export function tippingFromOutputYears(
-  years: number[],
-  chances: Array<{ value: number, se: number }>,
-  tolerance: number,
-): TippingYear {
-  const crossing = (value: (i: number) => number) => {
-    for (let i = 0; i < years.length; i++) {
-      const v = value(i)
-      if (v < tolerance) continue
-      if (i === 0) return years[0]!
-      const before = value(i - 1)
-      const fraction = (tolerance - before) / (v - before)
-      return Math.ceil(years[i - 1]! + fraction * (years[i]! - years[i - 1]!) - 1e-9)
-    }
-    return null
-  }
-  return {
-    tolerance,
-    year: crossing(i => chances[i]!.value),
-    earliest: crossing(i => chances[i]!.value + INTERVAL_Z * chances[i]!.se),
-    latest: crossing(i => chances[i]!.value - INTERVAL_Z * chances[i]!.se),
-    resolution: 'interpolated',
-  }
+  return tippingFromChances(chancesFromCounts(counts, firstYear, n), tolerance)
 }

@@ -1,3 +1,7 @@
+import { mkdtemp, rm } from 'node:fs/promises'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { PGlite } from '@electric-sql/pglite'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient } from '../support/client'
 import { ADMIN, ANALYST, OPERATOR, PLANNER, READER, demoUser } from '../support/demo-users'
@@ -7,7 +11,9 @@ import { formatChance } from '../../shared/wording/chance'
 
 // An issued briefing never changes; when newer science changes the numbers it states, its pages say
 // so figure by figure, each of its planners gets exactly one e-mail, and a planner can start a new
-// version from the latest outlooks in one request.
+// version from the latest outlooks in one request. What is out of date is worked out when the newer
+// outlooks finish and stored on the briefing: its pages only read it. The server keeps its database
+// in a PGlite folder, so the last test can look at what was stored.
 
 const REVIEWER = demoUser('reviewer@saltglass.example')
 const SECOND_PLANNER = { email: 'second.planner@caldwyn.example', password: 'harbour-lichen-tide-41' }
@@ -20,7 +26,14 @@ let shareToken: string
 let outlookId: string
 let siteId: string
 let thresholdIds: string[]
+let dataDir: string
 
+const serverEnv = () => ({
+  SMTP_URL: smtp.url,
+  MAIL_POLL_MS: '200',
+  MAIL_RETRY_BASE_MS: '200',
+  PGLITE_DATA_DIR: join(dataDir, 'pglite'),
+})
 const as = (email: string, password: string) => ApiClient.signedIn(server.url, email, password)
 const stale = (m: { subject?: string }) => /^Briefing out of date/.test(m.subject ?? '')
 
@@ -57,7 +70,8 @@ async function outboxSettled() {
 
 beforeAll(async () => {
   smtp = await new TestSmtp().start()
-  server = await startServer({ SMTP_URL: smtp.url, MAIL_POLL_MS: '200', MAIL_RETRY_BASE_MS: '200' })
+  dataDir = await mkdtemp(join(tmpdir(), 'brinkwater-staleness-'))
+  server = await startServer(serverEnv())
   // Two planners: one drafts the briefing, the other issues it; both are its planners.
   const admin = await as(ADMIN.email, ADMIN.password)
   const organisationId = (await admin.get('/api/me')).body.user.organisationId
@@ -87,6 +101,7 @@ beforeAll(async () => {
 afterAll(async () => {
   await server?.stop()
   await smtp?.stop()
+  if (dataDir) await rm(dataDir, { recursive: true, force: true })
 })
 
 describe('an issued briefing and newer science', () => {
@@ -249,5 +264,28 @@ describe('an issued briefing and newer science', () => {
     await outboxSettled()
     expect(smtp.to(PLANNER.email).filter(stale)).toHaveLength(2)
     expect(smtp.to(SECOND_PLANNER.email).filter(stale)).toHaveLength(2)
+  })
+
+  it('reads what was stored when the outlooks finished, without working it out again', async () => {
+    const read = (await author.get(`/api/briefings/${briefingId}`)).body.staleness
+    await server.stop()
+    const db = new PGlite(serverEnv().PGLITE_DATA_DIR)
+    const stored = await db.query<{ staleness: { changes: unknown[] } }>(
+      'select staleness from briefings where id = $1',
+      [briefingId],
+    )
+    expect({ changes: stored.rows[0]!.staleness.changes }).toEqual(read)
+    // A figure no outlook gives: a read that worked staleness out from the outlooks could not say it.
+    await db.query(
+      `update briefings set staleness = jsonb_set(staleness, '{changes,0,was}', '0.123456') where id = $1`,
+      [briefingId],
+    )
+    await db.close()
+    server = await startServer(serverEnv())
+    author = await as(PLANNER.email, PLANNER.password)
+    expect((await author.get(`/api/briefings/${briefingId}`)).body.staleness.changes[0].was).toBe(0.123456)
+    expect((await new ApiClient(server.url).get(`/api/shared/${shareToken}`)).body.staleness.changes[0].was).toBe(
+      0.123456,
+    )
   })
 })

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { ApiClient } from '../support/client'
-import { ADMIN, ANALYST, OPERATOR, PLANNER, READER, demoUser } from '../support/demo-users'
+import { ADMIN, ANALYST, OPERATOR, PLANNER, PORT_PLANNER, READER, demoUser } from '../support/demo-users'
 import { startServer, type RunningServer } from '../support/server'
 import { TestSmtp, isTo } from '../support/smtp'
 
@@ -28,6 +28,7 @@ interface Tipping {
 interface View {
   currentYear: number
   measures: Array<{ id: string, name: string, height: number | null, leadTimeYears: number }>
+  computing: string[]
   scenarios: Array<{
     scenario: string
     outlookId: string
@@ -47,7 +48,15 @@ interface View {
   records: Array<Record<string, any>>
   alerts: Array<{ recordId: string, reason: { kinds: string[], tippingYear: number | null } }>
 }
-const view = async () => (await planner.get(`/api/sites/${siteId}/pathways`)).body as View
+/** The pathways page once its tipping years are stored (they are computed in the background). */
+async function view() {
+  let body!: View
+  await vi.waitFor(async () => {
+    body = (await planner.get(`/api/sites/${siteId}/pathways`)).body as View
+    if (body.computing.length) throw new Error(`still computing ${body.computing.join(', ')}`)
+  }, { timeout: 60_000, interval: 100 })
+  return body
+}
 const tippingOf = (v: View, measureId: string, tolerance: number) =>
   v.scenarios.find(s => s.scenario === 'SSP2-4.5')!.tipping[measureId]!.find(t => t.tolerance === tolerance)!
 
@@ -347,5 +356,41 @@ describe('decision alerts', () => {
     expect((await waiting()).filter(item => item.kind === 'decision-alert')).toEqual(
       open ? [expect.objectContaining({ siteName: 'Kelwick', alerts: open })] : [],
     )
+  })
+})
+
+describe('stored tipping years', () => {
+  it('are read from what was stored for the outlook, and stored anew when a measure is added', async () => {
+    const before = await view()
+    const scenario = before.scenarios.find(s => s.scenario === 'SSP2-4.5')!
+    const site = (await planner.get(`/api/sites/${siteId}`)).body as { gumbelLocation: number }
+    const gate = await planner.post(`/api/sites/${siteId}/measures`, {
+      name: 'Harbour flood gate',
+      height: site.gumbelLocation + 0.9,
+      kind: 'flood-level',
+      leadTimeYears: 8,
+    })
+    expect(gate.status).toBe(201)
+    // A read never computes: until the new measure's tipping years are stored, it says they are coming.
+    const first = (await planner.get(`/api/sites/${siteId}/pathways`)).body as View
+    if (!first.computing.includes('SSP2-4.5'))
+      expect(first.scenarios.find(s => s.scenario === 'SSP2-4.5')!.tipping[gate.body.id]).toBeDefined()
+    const after = await view()
+    const now = after.scenarios.find(s => s.scenario === 'SSP2-4.5')!
+    expect(now.outlookId).toBe(scenario.outlookId)
+    // The same trajectories: the measures there before tip in the same years.
+    for (const measure of before.measures) expect(now.tipping[measure.id]).toEqual(scenario.tipping[measure.id])
+    // The flood level is followed year by year: its tipping years do not fall back as the tolerance rises.
+    const flood = now.tipping[gate.body.id]!
+    expect(flood.every(t => t.resolution === 'annual')).toBe(true)
+    const years = flood.map(t => t.year ?? now.horizon + 1)
+    expect(years).toEqual([...years].sort((a, b) => a - b))
+  })
+
+  it('answers 404 for another organisation\'s site, like a missing one', async () => {
+    const port = await ApiClient.signedIn(server.url, PORT_PLANNER.email, PORT_PLANNER.password)
+    const response = await port.get(`/api/sites/${siteId}/pathways`)
+    expect(response.status).toBe(404)
+    expect(JSON.stringify(response.body)).not.toContain('Quay Street')
   })
 })

@@ -30,6 +30,8 @@ describe('adaptation pathways', () => {
     await page.getByTestId('site-pathways').click()
     await page.waitForURL(`**/sites/${kelwick}/pathways`)
     await page.getByTestId('pathway').first().waitFor()
+    // Tipping years computed after the outlooks finished appear on the page without a reload.
+    await page.getByTestId('pathways-computing').waitFor({ state: 'detached', timeout: 60_000 })
     expect(await page.getByTestId('pathway-illustrative').textContent()).toMatch(/Illustrative/)
     // The main message: between which years, across scenarios, the raise must be decided.
     const spread = plain(await page.getByTestId('pathway-spread').first().textContent() ?? '')

@@ -1,19 +1,17 @@
 import { IdParams } from '#shared/schemas/params'
 import { briefingDocument, liveLink, loadBriefing } from '~~/server/services/briefings'
-import { briefingStaleness } from '~~/server/services/briefing-staleness'
 
 // A briefing and its document (live for drafts, frozen once issued), and what newer outlooks change
-// in an issued one. Only planners see the link.
+// in an issued one (stored when they finished). Only planners see the link.
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
   const { id } = readValidParams(event, IdParams)
   const row = await loadBriefing(user, id)
   const document = await briefingDocument(row)
-  const { document: _frozen, shareToken, ...briefing } = row
+  const { document: _frozen, shareToken, staleness, stalenessCheckedAt: _checked, ...briefing } = row
   const canEdit = user.role === 'planner'
   // Links are built on the configured address (APP_URL), never on the request's Host header.
   const live = liveLink(row, user)
-  const staleness = await briefingStaleness(row)
   return {
     ...briefing,
     shareToken: canEdit ? shareToken : null,

@@ -1,15 +1,14 @@
 import { ShareTokenParams } from '#shared/schemas/params'
 import { briefingDocument, sharedBriefing } from '~~/server/services/briefings'
-import { briefingStaleness } from '~~/server/services/briefing-staleness'
 
 // Public: an issued briefing by its share link, read-only, until the link is revoked, saying which of
-// its numbers newer outlooks have changed (the figures only: no outlook or threshold ids).
+// its numbers newer outlooks have changed (stored when they finished; the figures only: no outlook or
+// threshold ids).
 export default defineEventHandler(async (event) => {
   const { token } = readValidParams(event, ShareTokenParams)
   const briefing = await sharedBriefing(token)
   // The address printed on the page is the configured one (APP_URL), never the request's Host header.
-  const staleness = await briefingStaleness(briefing)
-  const changes = staleness?.changes.map(({ thresholdId: _id, ...change }) => change) ?? null
+  const changes = briefing.staleness?.changes.map(({ thresholdId: _id, ...change }) => change) ?? null
   return {
     staleness: changes && { changes },
     id: briefing.id,

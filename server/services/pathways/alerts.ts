@@ -2,7 +2,7 @@ import { and, eq } from 'drizzle-orm'
 import { decisionAlerts, sites, users, type AlertReason } from '~~/server/db/schema'
 import type { OutlookReleaseRef } from '#shared/types/outlook'
 import type { Comparison } from '../notify'
-import { evaluateOutlook } from './evaluation'
+import { ensureTipping } from './evaluation'
 import { decisionAlertMail, type AlertedDecision } from './alert-mail'
 import { currentRecords, siteMeasures, sitePathways, siteRecords, type DecisionRecord } from './store'
 import { currentYear } from './view'
@@ -52,7 +52,9 @@ export async function checkDecisionAlerts(siteId: string, comparisons: Compariso
     const comparison = comparisons.find(c => c.scenario === record.scenario)
     const pathway = pathways.find(p => p.id === record.pathwayId)
     if (!comparison || !pathway) continue
-    const evaluated = evaluateOutlook(comparison.after, measures, pathway.tolerances)
+    // Stored first if the outlook's tipping years are not yet: the alert rests on the numbers pages show.
+    const evaluated = await ensureTipping(comparison.after, measures, pathway.tolerances)
+    if (!evaluated) continue
     const tippingYear
       = evaluated.tipping[record.fromMeasureId]?.find(t => t.tolerance === record.tolerance)?.year ?? null
     const kinds = reasonFor(record, tippingYear, evaluated.horizon, year)

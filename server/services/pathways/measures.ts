@@ -5,6 +5,7 @@ import type { CurrentUser } from '../../utils/auth'
 import { loadSite } from '../sites'
 import { refuse } from './refuse'
 import { siteMeasures } from './store'
+import { queueTippingEvaluations } from './evaluation'
 
 type Site = Awaited<ReturnType<typeof loadSite>>
 
@@ -44,7 +45,7 @@ export async function createMeasure(planner: CurrentUser, siteId: string, input:
   if ((await siteMeasures(siteId)).length >= MAX_MEASURES)
     refuse('name', `A site has at most ${MAX_MEASURES} measures.`)
   const db = await useDb()
-  return db.transaction(async (tx) => {
+  const created = await db.transaction(async (tx) => {
     const [row] = await tx.insert(adaptationMeasures).values({
       siteId, name: input.name, height: input.height, kind: input.kind, leadTimeYears: input.leadTimeYears,
       designLifeYears: input.designLifeYears, costBand: input.costBand, createdBy: planner.id,
@@ -56,6 +57,9 @@ export async function createMeasure(planner: CurrentUser, siteId: string, input:
       { type: 'site', id: siteId },
       { measure: row!.id, name: input.name, height: input.height, leadTimeYears: input.leadTimeYears },
     )
+    await queueTippingEvaluations(tx, siteId)
     return row!
   })
+  kickJobs()
+  return created
 }

@@ -6,7 +6,7 @@ import type { DecisionRecordInput } from '#shared/pathways/schemas'
 import type { CurrentUser } from '../../utils/auth'
 import { latestOutlooks } from '../notify'
 import { loadSite } from '../sites'
-import { evaluateOutlook } from './evaluation'
+import { ensureTipping } from './evaluation'
 import { refuse } from './refuse'
 import { siteMeasures, sitePathways, siteRecords } from './store'
 import { currentYear } from './view'
@@ -46,7 +46,12 @@ export async function createRecord(planner: CurrentUser, siteId: string, input: 
       )
   const from = measures.find(m => m.id === pathway.measureIds[step - 1])!
   const to = measures.find(m => m.id === input.measureId)!
-  const evaluated = evaluateOutlook(outlook, measures, pathway.tolerances)
+  const evaluated
+    = (await ensureTipping(outlook, measures, pathway.tolerances))
+      ?? refuse(
+        'scenario',
+        `The ${input.scenario} outlook of this site cannot be evaluated by this version of the engine; compute it again on the site page, then record the decision.`,
+      )
   const tippingYear = evaluated.tipping[from.id]?.find(t => t.tolerance === input.tolerance)?.year ?? null
   const db = await useDb()
   const [person] = await db.select({ name: users.name }).from(users).where(eq(users.id, planner.id))

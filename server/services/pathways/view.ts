@@ -2,7 +2,7 @@ import { decisionSpread, pathwayDecisions } from '#shared/pathways/decisions'
 import { DEFAULT_PATHWAY_TOLERANCES } from '#shared/pathways/schemas'
 import type { CurrentUser } from '../../utils/auth'
 import { loadSite } from '../sites'
-import { evaluateSite } from './evaluation'
+import { siteTipping } from './evaluation'
 import { openAlerts, siteMeasures, sitePathways, siteRecords, type Measure, type Pathway } from './store'
 
 /** The calendar year "already late" is judged against; tipping years themselves never read the clock. */
@@ -26,7 +26,7 @@ export async function pathwaysView(user: CurrentUser, siteId: string) {
   const tolerances = [
     ...new Set(pathways.length ? pathways.flatMap(p => p.tolerances) : DEFAULT_PATHWAY_TOLERANCES),
   ].sort((a, b) => a - b)
-  const scenarios = await evaluateSite(siteId, measures, tolerances)
+  const { scenarios, computing } = await siteTipping(siteId, measures, tolerances)
   const year = currentYear()
   return {
     site: {
@@ -38,6 +38,8 @@ export async function pathwaysView(user: CurrentUser, siteId: string) {
     },
     currentYear: year,
     measures,
+    /** Scenarios whose tipping years for these measures are still being computed (left out of `scenarios`). */
+    computing,
     scenarios: scenarios.map(s => ({
       scenario: s.scenario,
       horizon: s.horizon,

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
-import { evaluateMeasures } from '../../../shared/pathways/evaluate-measures'
-import { tippingFromCounts, tippingFromOutputYears } from '../../../shared/pathways/tipping'
+import { finishOutlook, runBlocks } from '../../../shared/engine'
+import { evaluateMeasures, measureChances, measuresPlan } from '../../../shared/pathways/evaluate-measures'
+import { tippingFromCounts } from '../../../shared/pathways/tipping'
 import { decisionSpread, decisionYear, pathwayDecisions } from '../../../shared/pathways/decisions'
 
 // Linear rise from the epoch with a normal rate r ~ N(5, 1) mm/yr: one `normal` component whose mean
@@ -54,6 +55,55 @@ describe('tipping years from the trajectories', () => {
   })
 })
 
+describe('flood-level tipping years at annual resolution', () => {
+  // A deterministic rise r·t (a normal component with no spread) under Gumbel annual maxima with
+  // location μ and scale λ: the annual chance of exceeding h in year t is
+  // 1 − F(h − r·t) = 1 − exp(−exp(−(h − r·t − μ)/λ)), F the Gumbel CDF [pub: Gumbel 1958, Statistics of
+  // Extremes, eq. 1.2.1; Coles 2001, An Introduction to Statistical Modeling of Extreme Values, eq. 3.3].
+  // It reaches p once r·t ≥ h − μ + λ·ln(−ln(1 − p)): the tipping year is the first whole year past that.
+  const rate = 0.0073
+  const gumbel = { location: 1.1, scale: 0.13 }
+  const height = 1.65
+  function deterministicInput(extra: Record<string, unknown> = {}) {
+    const input = linearRiseInput(2_000) as Record<string, unknown> & ReturnType<typeof linearRiseInput>
+    input.components[0]!.release.mean = ANCHORS.map(a => rate * (a - EPOCH))
+    input.components[0]!.release.sd = ANCHORS.map(() => 0)
+    return { ...input, gumbel: { ...gumbel, returnPeriods: [100] }, ...extra }
+  }
+  const analytic = (p: number) =>
+    EPOCH + Math.ceil((height - gumbel.location + gumbel.scale * Math.log(-Math.log(1 - p))) / rate)
+
+  it('is the first year whose Gumbel exceedance reaches the tolerance, not an output year', () => {
+    const tolerances = [0.05, 0.1, 0.33, 0.5]
+    const evaluated = evaluateMeasures(deterministicInput(), [{ key: 'gate', height, kind: 'flood-level' }], tolerances)
+    const tipping = evaluated.measures[0]!.tipping
+    // [practice] (0.55 + 0.13·ln(−ln(1 − p))) / 0.0073 = 22.4, 35.3, 59.0, 68.8 years: none an output year.
+    expect(tolerances.map(analytic)).toEqual([2043, 2056, 2080, 2089])
+    for (const t of tipping) {
+      expect(t.year).toBe(analytic(t.tolerance))
+      // No spread, so no Monte Carlo interval either side.
+      expect(t.earliest).toBe(t.year)
+      expect(t.latest).toBe(t.year)
+      expect(t.resolution).toBe('annual')
+    }
+  })
+
+  it('agrees with the outlook\'s own annual chance at output years', () => {
+    const input = { ...deterministicInput(), thresholds: [{ key: 'gate', height, kind: 'flood-level' }] }
+    input.components[0]!.release.sd = ANCHORS.map(a => 0.001 * (a - EPOCH))
+    const plan = measuresPlan(input, [{ key: 'gate', height, kind: 'flood-level' }])
+    const merged = runBlocks(plan, 0, plan.blockCount)
+    const annual = measureChances(plan, merged).measures[0]!.chances
+    const outlook = finishOutlook(plan, merged).thresholds[0]!.flood!.annualChance
+    plan.years.forEach((year, t) => {
+      expect(annual.value[year - EPOCH]).toBeCloseTo(outlook[t]!.value, 12)
+      expect(annual.se[year - EPOCH]).toBeCloseTo(outlook[t]!.se, 12)
+    })
+    // Between output years the chance grows year by year.
+    for (let y = 1; y < annual.value.length; y++) expect(annual.value[y]!).toBeGreaterThanOrEqual(annual.value[y - 1]!)
+  })
+})
+
 describe('the Monte Carlo interval of a tipping year', () => {
   it('spans the years whose chance is within 1.96 standard errors of the tolerance', () => {
     // [practice] with n = 10,000 a chance of 0.492 has SE √(0.492 · 0.508 / 10⁴) = 0.0050, so 0.492 + 1.96 SE = 0.5018
@@ -62,21 +112,6 @@ describe('the Monte Carlo interval of a tipping year', () => {
     const counts = [0, 4800, 4920, 5000, 5100, 5300]
     const t = tippingFromCounts(counts, 2050, 10_000, 0.5)
     expect(t).toEqual({ tolerance: 0.5, year: 2053, earliest: 2052, latest: 2054, resolution: 'annual' })
-  })
-
-  it('interpolates a flood level between output years, rounding up to a whole year', () => {
-    // [practice] 0.02 → 0.06 between 2050 and 2060 reaches 0.05 three quarters of the way: 2057.5 → 2058.
-    const t = tippingFromOutputYears(
-      [2040, 2050, 2060],
-      [
-        { value: 0, se: 0 },
-        { value: 0.02, se: 0 },
-        { value: 0.06, se: 0 },
-      ],
-      0.05,
-    )
-    expect(t.year).toBe(2058)
-    expect(t.resolution).toBe('interpolated')
   })
 })
 
