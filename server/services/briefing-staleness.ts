@@ -1,4 +1,4 @@
-import { and, desc, eq, inArray } from 'drizzle-orm'
+import { and, desc, eq, inArray, isNull } from 'drizzle-orm'
 import { briefings, outlooks, sites, thresholds, users } from '~~/server/db/schema'
 import type { OutlookResult } from '#shared/engine'
 import { formatChance } from '#shared/wording/chance'
@@ -134,6 +134,20 @@ export async function refreshStaleness(briefingId: string) {
   const db = await useDb()
   const [row] = await db.select().from(briefings).where(and(eq(briefings.id, briefingId), eq(briefings.state, 'issued')))
   if (row) await storeStaleness(row)
+}
+
+/**
+ * Issued briefings whose staleness was never worked out (issued before it was stored): worked out
+ * once at start, so an overtaken briefing is not shown as current until its site's next outlook.
+ */
+export async function backfillStaleness() {
+  const db = await useDb()
+  const unchecked = await db
+    .select()
+    .from(briefings)
+    .where(and(eq(briefings.state, 'issued'), isNull(briefings.stalenessCheckedAt)))
+  for (const row of unchecked) await storeStaleness(row)
+  return unchecked.length
 }
 
 /** After an outlook of the site finished: every issued briefing of it, its staleness stored again. */

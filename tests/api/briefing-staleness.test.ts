@@ -288,4 +288,21 @@ describe('an issued briefing and newer science', () => {
       0.123456,
     )
   })
+
+  it('works out once at start the staleness of a briefing issued before it was stored', async () => {
+    const read = (await author.get(`/api/briefings/${briefingId}`)).body.staleness
+    await server.stop()
+    const db = new PGlite(serverEnv().PGLITE_DATA_DIR)
+    // As a briefing issued before the column existed: nothing stored, never checked.
+    await db.query('update briefings set staleness = null, staleness_checked_at = null where id = $1', [briefingId])
+    await db.close()
+    server = await startServer(serverEnv())
+    author = await as(PLANNER.email, PLANNER.password)
+    // Worked out in the background after start; the changes are the ones the outlooks give.
+    await expect
+      .poll(async () => (await author.get(`/api/briefings/${briefingId}`)).body.staleness?.changes.length ?? 0)
+      .toBeGreaterThan(0)
+    const again = (await author.get(`/api/briefings/${briefingId}`)).body.staleness
+    expect(again.changes.map((c: { now: number }) => c.now)).toEqual(read.changes.map((c: { now: number }) => c.now))
+  })
 })
