@@ -1,6 +1,7 @@
-import { and, asc, count, eq, inArray, lte, ne, not, notExists, sql } from 'drizzle-orm'
+import { and, asc, count, eq, inArray, isNotNull, lte, ne, not, notExists, sql } from 'drizzle-orm'
 import {
   adaptationMeasures,
+  briefings,
   correlationSets,
   decisionAlerts,
   decisionRecords,
@@ -15,8 +16,9 @@ import type { AttentionItem } from '#shared/types/attention'
 import type { CurrentUser } from '../utils/auth'
 
 // What is waiting for someone when they open Brinkwater, read from what is stored (no outlook is
-// computed here): decisions that new science has moved, decision reviews coming due, sites with no
-// outlook under their planning scenario, and, for analysts, colleagues' records awaiting review.
+// computed here): decisions that new science has moved, decision reviews coming due, issued briefings
+// newer outlooks have overtaken, sites with no outlook under their planning scenario, and, for
+// analysts, colleagues' records awaiting review.
 
 /** A decision's review shows this many days before its review date. */
 export const REVIEW_NOTICE_DAYS = 60
@@ -61,6 +63,28 @@ async function decisionReviewItems(organisationId: string, now: Date): Promise<A
     .where(and(eq(sites.organisationId, organisationId), lte(decisionRecords.reviewDate, noticeEnd), inForce()))
     .orderBy(asc(decisionRecords.reviewDate), asc(sites.name))
   return rows.map(row => ({ kind: 'decision-review', ...row, overdue: row.reviewDate < today }))
+}
+
+async function staleBriefingItems(organisationId: string): Promise<AttentionItem[]> {
+  const db = await useDb()
+  const newer = sql`newer`
+  // A briefing with an issued newer version has been renewed: only the latest issued one is listed.
+  const renewed = sql`exists (select 1 from ${briefings} as ${newer}
+    where ${newer}.previous_id = ${briefings.id} and ${newer}.state = 'issued')`
+  const rows = await db
+    .select({ briefingId: briefings.id, title: briefings.title, siteName: sites.name, staleness: briefings.staleness })
+    .from(briefings)
+    .innerJoin(sites, eq(sites.id, briefings.siteId))
+    .where(and(
+      eq(briefings.organisationId, organisationId),
+      eq(briefings.state, 'issued'),
+      isNotNull(briefings.staleness),
+      not(renewed),
+    ))
+    .orderBy(asc(sites.name), asc(briefings.title))
+  return rows.flatMap(({ staleness, ...row }) => staleness?.changes.length
+    ? [{ kind: 'stale-briefing' as const, ...row, changes: staleness.changes.length }]
+    : [])
 }
 
 async function noPlanningOutlookItems(organisationId: string): Promise<AttentionItem[]> {
@@ -126,16 +150,18 @@ async function awaitingReviewItems(user: CurrentUser): Promise<AttentionItem[]> 
 
 /**
  * Everything waiting for this person, most pressing first: decisions moved by new science, then
- * reviews overdue or due soon, then sites without a planning outlook; analysts see records to review.
+ * reviews overdue or due soon, briefings out of date, then sites without a planning outlook; analysts see
+ * records to review.
  * Anyone in an organisation sees its items (a reader is told too, though a planner acts on them).
  */
 export async function attentionFor(user: CurrentUser, now = new Date()): Promise<AttentionItem[]> {
   if (user.role === 'analyst') return awaitingReviewItems(user)
   if (user.role === 'operator') return []
-  const [alerts, reviews, missing] = await Promise.all([
+  const [alerts, reviews, stale, missing] = await Promise.all([
     decisionAlertItems(user.organisationId),
     decisionReviewItems(user.organisationId, now),
+    staleBriefingItems(user.organisationId),
     noPlanningOutlookItems(user.organisationId),
   ])
-  return [...alerts, ...reviews, ...missing]
+  return [...alerts, ...reviews, ...stale, ...missing]
 }

@@ -17,6 +17,8 @@ export type AttentionItem
       reviewDate: string
       overdue: boolean
     }
+  /** An issued briefing (the latest issued version) whose figures newer outlooks change. */
+    | { kind: 'stale-briefing', briefingId: string, title: string, siteName: string, changes: number }
   /** A site with no finished outlook under its planning scenario (and none being computed). */
     | { kind: 'no-planning-outlook', siteId: string, siteName: string, scenario: string }
   /** A reviewed science record submitted by a colleague that this analyst may approve or return. */

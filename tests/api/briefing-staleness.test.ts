@@ -123,6 +123,10 @@ describe('an issued briefing and newer science', () => {
       .not.toBeNull()
     const view = (await author.get(`/api/briefings/${briefingId}`)).body
     expect(view.document).toEqual(frozen)
+    // The overview lists it as waiting, with as many changed figures as its page shows.
+    expect((await author.get('/api/attention')).body).toContainEqual(
+      expect.objectContaining({ kind: 'stale-briefing', briefingId, changes: view.staleness.changes.length }),
+    )
     const outlooks = (await author.get(`/api/sites/${siteId}/outlooks`)).body.filter((o: { scenario: string, seed: number, state: string }) => o.scenario === 'SSP2-4.5' && o.seed === 11 && o.state === 'done')
     latestId = outlooks[0].id
     expect(latestId).not.toBe(outlookId)
