@@ -7,6 +7,7 @@ import { basisFromValues, blockSumsByYear, gumbelTile, sumTile } from './tile-su
 import { countConstantYear, countYear, finishCounts, riseOfYear } from './tile-counts'
 import { countYearPair } from './tile-pairs'
 import { triggerTile } from './tile-triggers'
+import { weightTile } from './tile-weights'
 import { drawParameterScores, tileParameters } from './gumbel-uncertainty'
 import type { OutlookPlan, OutlookPartial } from './types'
 
@@ -35,6 +36,8 @@ export function emptyPartial(plan: OutlookPlan, blockCount: number): OutlookPart
     minimum: new Float64Array(plan.years.length).fill(Infinity),
     maximum: new Float64Array(plan.years.length).fill(-Infinity),
     blockSums: new Float64Array(blockCount * plan.sumsPerBlock),
+    weighted: new Float64Array(plan.observations ? plan.observations.size : 0),
+    weightScale: -Infinity,
   }
 }
 
@@ -92,6 +95,7 @@ export function runClaimedBlocks(
   const yearCount = plan.years.length
   const scoresPerSample = plan.componentKeys.length + 1
   const uncertain = plan.gumbel?.uncertainty != null
+  const weighted = plan.observations !== null
   let done = 0
   for (let b = 0; b < capacity; b++) {
     const blockIndex = nextBlock()
@@ -139,6 +143,8 @@ export function runClaimedBlocks(
       if (uncertain) tileParameters(plan, count, tileStart, tileCount)
       if (plan.gumbel !== null)
         gumbelTile(plan, tables, scratch, tileCount, partial.blockSums, b * plan.sumsPerBlock, partial.lifeHistogram)
+      // After the trigger counts: the weighted ones read the knots' rises `triggerTile` formed.
+      if (weighted) weightTile(plan, tables, scratch, tileCount, partial)
     }
     blockSumsByYear(plan, scratch, partial.blockSums, b * plan.sumsPerBlock)
     partial.samples += count

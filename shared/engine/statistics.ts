@@ -27,7 +27,7 @@ export function meanFromDeviations(reference: number, sum: number, squares: numb
 }
 
 export interface HistogramView {
-  counts: Uint32Array
+  counts: ArrayLike<number>
   /** Cell of the underflow; bins follow, then the overflow cell. */
   offset: number
   bins: number

@@ -116,24 +116,85 @@ function countTriggers(plan: OutlookPlan, tileCount: number, counts: Int32Array)
 }
 
 /**
+ * `countTriggers` with each sample counted by its weight (observation-updated outlooks), into the
+ * Float64 difference arrays at `into[at …]`, from the knots' rises `triggerTile` just formed.
+ */
+export function countWeightedTriggers(
+  plan: OutlookPlan,
+  tileCount: number,
+  weights: Float64Array,
+  into: Float64Array,
+  at: number,
+): void {
+  const trigger = plan.trigger!
+  const knotCount = trigger.knotYears.length
+  const rise = knotRise
+  const stride = trigger.yearCount + 1
+  for (let m = 0; m < trigger.heights.length; m++) {
+    const height = trigger.heights[m]!
+    const base = at + m * stride
+    for (let k = 1; k < knotCount; k++) {
+      const span = trigger.knotYears[k]! - trigger.knotYears[k - 1]!
+      const start = base + trigger.knotYears[k - 1]! - trigger.firstYear
+      const fromAt = (k - 1) * TILE
+      const toAt = k * TILE
+      let through = 0
+      let ends = 0
+      for (let i = 0; i < tileCount; i++) {
+        const r0 = rise[fromAt + i]!
+        const r1 = rise[toAt + i]!
+        const w = weights[i]!
+        if (r1 > height) ends += w
+        if (r0 > height) {
+          if (r1 > height) {
+            through += w
+            continue
+          }
+        }
+        else if (!(r1 > height)) continue
+        const crossing = ((height - r0) * span) / (r1 - r0)
+        let first = 1
+        let last = span - 1
+        if (r1 > height) first = crossing >= 1 ? Math.floor(crossing) + 1 : 1
+        else last = crossing < span ? Math.ceil(crossing) - 1 : span - 1
+        if (first <= last) {
+          into[start + first]! += w
+          into[start + last + 1]! -= w
+        }
+      }
+      if (span > 1) {
+        into[start + 1]! += through
+        into[start + span]! -= through
+      }
+      if (trigger.knotIsOutput[k] === 0) {
+        into[start + span]! += ends
+        into[start + span + 1]! -= ends
+      }
+    }
+  }
+}
+
+/**
  * Samples above each counted threshold per calendar year, from the difference array; output years take
  * the exact count of the exceedance cells (`outputCount`), the baseline year its zero rise.
  */
 export function annualCounts(
   plan: OutlookPlan,
-  counts: Int32Array,
+  counts: ArrayLike<number>,
   m: number,
   outputCount: (t: number) => number,
+  total: number = plan.samples,
+  at = 0,
 ): Float64Array {
   const trigger = plan.trigger!
   const stride = trigger.yearCount + 1
   const annual = new Float64Array(trigger.yearCount)
   let running = 0
   for (let y = 0; y < trigger.yearCount; y++) {
-    running += counts[m * stride + y]!
+    running += counts[at + m * stride + y]!
     annual[y] = running
   }
-  annual[0] = 0 > trigger.heights[m]! ? plan.samples : 0
+  annual[0] = 0 > trigger.heights[m]! ? total : 0
   plan.years.forEach((year, t) => {
     annual[year - trigger.firstYear] = outputCount(t)
   })
