@@ -1,5 +1,6 @@
 import type { OutlookPartial, OutlookPlan } from './types'
 import { emptyPartial } from './run'
+import { rescaleWeighted } from './tile-weights'
 
 /**
  * Combines partials of any blocks, in any order and any split, as long as no block comes twice. Counts
@@ -68,10 +69,10 @@ function mergeWeighted(merged: OutlookPartial, partials: OutlookPartial[]): void
   merged.weightScale = scale
   if (scale === -Infinity) return
   const into = merged.weighted
+  const rescaled = new Float64Array(into.length)
   for (const partial of partials) {
-    if (partial.weightScale === -Infinity) continue
-    const factor = Math.exp(partial.weightScale - scale)
-    const from = partial.weighted
-    for (let k = 0; k < into.length; k++) into[k] = into[k]! + from[k]! * factor
+    rescaled.set(partial.weighted)
+    rescaleWeighted(rescaled, partial.weightScale, scale)
+    for (let k = 0; k < into.length; k++) into[k] = into[k]! + rescaled[k]!
   }
 }

@@ -83,11 +83,15 @@ function riseOfTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileScrat
   }
 }
 
-/** Multiplies every weighted sum by e^{from − to}, so they are kept relative to the larger scale `to`. */
-function rescaleWeighted(sums: Float64Array, from: number, to: number): void {
+/**
+ * Multiplies every weighted sum by e^{from − to} (Σw², at 1, by its square), so they are kept relative
+ * to the larger scale `to`.
+ */
+export function rescaleWeighted(sums: Float64Array, from: number, to: number): void {
   if (from === to) return
   const factor = from === -Infinity ? 0 : Math.exp(from - to)
   for (let k = 0; k < sums.length; k++) sums[k] = sums[k]! * factor
+  sums[1] = sums[1]! * factor
 }
 
 /** Weights the tile's samples by the observed record and adds them to the partial's weighted sums. */
