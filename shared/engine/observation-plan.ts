@@ -17,6 +17,7 @@ import type { ValidatedOutlookInput } from './validate'
 
 export interface ObservationShape {
   years: number
+  cuts: number
   histogramSize: number
   trigger: TriggerPlan | null
 }
@@ -98,8 +99,8 @@ export function planObservations(
 
   const counted = shape.trigger ? shape.trigger.heights.length : 0
   const momentsAt = 2
-  const exceedAt = momentsAt + 2 * shape.years
-  const triggerAt = exceedAt + shape.years * counted
+  const cellsAt = momentsAt + basisCount + basisCount * basisCount
+  const triggerAt = cellsAt + shape.years * (shape.cuts + 1)
   const histogramAt = triggerAt + (shape.trigger ? counted * (shape.trigger.yearCount + 1) : 0)
   return {
     count,
@@ -113,7 +114,7 @@ export function planObservations(
     termSecond: Int32Array.from(termSecond),
     termCoefficient: Float64Array.from(termCoefficient),
     momentsAt,
-    exceedAt,
+    cellsAt,
     triggerAt,
     histogramAt,
     size: histogramAt + shape.histogramSize,

@@ -295,7 +295,7 @@ function planValidated(input: ValidatedOutlookInput): OutlookPlan {
     basisCount,
     valueBasis,
     valueAtZero,
-    { years: yearCount, histogramSize, trigger },
+    { years: yearCount, cuts: cuts.length, histogramSize, trigger },
   )
 
   const partCount = componentCount + 1

@@ -38,7 +38,7 @@ export interface HistogramView {
   minimum: number
   maximum: number
   /** Optional running totals of `counts` within the year (inclusive, same offsets): rank look-ups by bisection. */
-  cumulative?: Uint32Array
+  cumulative?: ArrayLike<number>
 }
 
 /**

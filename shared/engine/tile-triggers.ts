@@ -11,7 +11,18 @@ import type { OutlookPlan } from './types'
 /** Each knot's rise for the tile's samples at [k·TILE + i]; grown to the largest plan seen. */
 let knotRise = new Float64Array(0)
 
-export function triggerTile(plan: OutlookPlan, scratch: TileScratch, tileCount: number, counts: Int32Array): void {
+/**
+ * The tile's trigger counts. With `weighted` (observation-updated outlooks), each sample is also
+ * counted by its weight in the same pass (`countTriggersWeighted`): the knots' rises and the side tests
+ * are shared, so the weighted counts cost only their additions.
+ */
+export function triggerTile(
+  plan: OutlookPlan,
+  scratch: TileScratch,
+  tileCount: number,
+  counts: Int32Array,
+  weighted: { weights: Float64Array, into: Float64Array, at: number } | null = null,
+): void {
   const trigger = plan.trigger!
   const knotCount = trigger.knotYears.length
   if (knotRise.length < knotCount * TILE) knotRise = new Float64Array(knotCount * TILE)
@@ -58,7 +69,8 @@ export function triggerTile(plan: OutlookPlan, scratch: TileScratch, tileCount: 
       }
     }
   }
-  countTriggers(plan, tileCount, counts)
+  if (weighted) countTriggersWeighted(plan, tileCount, counts, weighted.weights, weighted.into, weighted.at)
+  else countTriggers(plan, tileCount, counts)
 }
 
 /** The difference-array counts of every counted threshold from the knots' rises (see `triggerTile`). */
@@ -116,12 +128,13 @@ function countTriggers(plan: OutlookPlan, tileCount: number, counts: Int32Array)
 }
 
 /**
- * `countTriggers` with each sample counted by its weight (observation-updated outlooks), into the
- * Float64 difference arrays at `into[at …]`, from the knots' rises `triggerTile` just formed.
+ * `countTriggers` and, in the same pass, each sample counted by its weight into the Float64 difference
+ * arrays at `into[at …]` (observation-updated outlooks). The unweighted counts are the same integers.
  */
-export function countWeightedTriggers(
+function countTriggersWeighted(
   plan: OutlookPlan,
   tileCount: number,
+  counts: Int32Array,
   weights: Float64Array,
   into: Float64Array,
   at: number,
@@ -132,43 +145,51 @@ export function countWeightedTriggers(
   const stride = trigger.yearCount + 1
   for (let m = 0; m < trigger.heights.length; m++) {
     const height = trigger.heights[m]!
-    const base = at + m * stride
+    const base = m * stride
     for (let k = 1; k < knotCount; k++) {
       const span = trigger.knotYears[k]! - trigger.knotYears[k - 1]!
       const start = base + trigger.knotYears[k - 1]! - trigger.firstYear
+      const weightedStart = at + start
       const fromAt = (k - 1) * TILE
       const toAt = k * TILE
       let through = 0
       let ends = 0
+      let weightedThrough = 0
+      let weightedEnds = 0
       for (let i = 0; i < tileCount; i++) {
         const r0 = rise[fromAt + i]!
         const r1 = rise[toAt + i]!
         const w = weights[i]!
-        if (r1 > height) ends += w
-        if (r0 > height) {
-          if (r1 > height) {
-            through += w
-            continue
-          }
-        }
-        else if (!(r1 > height)) continue
+        const above0 = r0 > height ? 1 : 0
+        const above1 = r1 > height ? 1 : 0
+        through += above0 & above1
+        ends += above1
+        weightedThrough += (above0 & above1) * w
+        weightedEnds += above1 * w
+        if (above0 === above1) continue
         const crossing = ((height - r0) * span) / (r1 - r0)
         let first = 1
         let last = span - 1
-        if (r1 > height) first = crossing >= 1 ? Math.floor(crossing) + 1 : 1
+        if (above1 === 1) first = crossing >= 1 ? Math.floor(crossing) + 1 : 1
         else last = crossing < span ? Math.ceil(crossing) - 1 : span - 1
         if (first <= last) {
-          into[start + first]! += w
-          into[start + last + 1]! -= w
+          counts[start + first]!++
+          counts[start + last + 1]!--
+          into[weightedStart + first]! += w
+          into[weightedStart + last + 1]! -= w
         }
       }
       if (span > 1) {
-        into[start + 1]! += through
-        into[start + span]! -= through
+        counts[start + 1]! += through
+        counts[start + span]! -= through
+        into[weightedStart + 1]! += weightedThrough
+        into[weightedStart + span]! -= weightedThrough
       }
       if (trigger.knotIsOutput[k] === 0) {
-        into[start + span]! += ends
-        into[start + span + 1]! -= ends
+        counts[start + span]! += ends
+        counts[start + span + 1]! -= ends
+        into[weightedStart + span]! += weightedEnds
+        into[weightedStart + span + 1]! -= weightedEnds
       }
     }
   }

@@ -1,15 +1,17 @@
 import { PASS, type SamplerTables } from './sampler-tables'
+import { countedByCells } from './tile-counts'
 import { ROW, TILE, type TileScratch } from './tile-scratch'
-import { countWeightedTriggers } from './tile-triggers'
 import type { OutlookPartial, OutlookPlan } from './types'
 
 // Observation-updated statistics of a tile: each sample's log-likelihood under the observed record
-// (`observation-plan.ts`), its weight, and the weighted histogram, moments, threshold chances and
-// trigger counts. Runs once per tile after the unweighted counting, and only for plans with
-// observations, so outlooks without a record run exactly the loop they ran before.
+// (`observation-plan.ts`) and its weight (`weighTile`, before the counting), then what the counting
+// kernels do not add beside their counts (`addWeightedTile`). Both run only for plans with
+// observations; the kernels test for weights once per call, so outlooks without a record run the loop
+// they ran before.
 
 const LOG_WEIGHT = new Float64Array(TILE)
 const WEIGHT = new Float64Array(TILE)
+
 /** A year's rise for the tile's samples, formed as the counting kernels form it. */
 const RISE = new Float64Array(TILE)
 
@@ -88,21 +90,19 @@ function riseOfTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileScrat
  * to the larger scale `to`.
  */
 export function rescaleWeighted(sums: Float64Array, from: number, to: number): void {
-  if (from === to) return
-  const factor = from === -Infinity ? 0 : Math.exp(from - to)
+  // Before any sample (−∞) every sum is still zero.
+  if (from === to || from === -Infinity) return
+  const factor = Math.exp(from - to)
   for (let k = 0; k < sums.length; k++) sums[k] = sums[k]! * factor
   sums[1] = sums[1]! * factor
 }
 
-/** Weights the tile's samples by the observed record and adds them to the partial's weighted sums. */
-export function weightTile(
-  plan: OutlookPlan,
-  tables: SamplerTables,
-  scratch: TileScratch,
-  tileCount: number,
-  partial: OutlookPartial,
-): void {
-  const observations = plan.observations!
+/**
+ * Each tile sample's weight by the observed record, into the returned array (valid until the next
+ * tile), with Σw and Σw² added to the partial's weighted sums. Needs the tile's basis rows only, so it
+ * runs before the counting, which the trigger counts then share.
+ */
+export function weighTile(plan: OutlookPlan, scratch: TileScratch, tileCount: number, partial: OutlookPartial): Float64Array {
   const sums = partial.weighted
   const largest = logLikelihoods(plan, scratch, tileCount)
   // The scale only grows, a few times per partial: the sums so far are rescaled then.
@@ -122,38 +122,52 @@ export function weightTile(
   }
   sums[0]! += total
   sums[1]! += squares
+  return weights
+}
 
+/**
+ * What the counting kernels do not add for the tile's weights: the weighted sums of the basis rows and
+ * their products (each year's weighted mean and sd follow from them), and the weighted histogram of years
+ * whose cells the kernels do not list (`countedByCells`), their rise formed again.
+ */
+export function addWeightedTile(
+  plan: OutlookPlan,
+  tables: SamplerTables,
+  scratch: TileScratch,
+  tileCount: number,
+  partial: OutlookPartial,
+): void {
+  const observations = plan.observations!
+  const sums = partial.weighted
+  const weights = WEIGHT
+  const rows = scratch.rows
+  const rowsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
+  const columns = plan.basisCount
+  const crossAt = observations.momentsAt + columns
+  for (let j = 0; j < columns; j++) {
+    const a = rowsAt + j * ROW
+    let sum = 0
+    for (let i = 0; i < tileCount; i = (i + 1) | 0) sum += weights[i]! * rows[(a + i) | 0]!
+    sums[observations.momentsAt + j]! += sum
+    for (let k = 0; k <= j; k++) {
+      const b = rowsAt + k * ROW
+      let cross = 0
+      for (let i = 0; i < tileCount; i = (i + 1) | 0) cross += weights[i]! * rows[(a + i) | 0]! * rows[(b + i) | 0]!
+      sums[crossAt + j * columns + k]! += cross
+    }
+  }
   const inverseResolution = 1 / plan.histogramResolution
-  const trigger = plan.trigger
-  const counted = trigger ? trigger.heights.length : 0
   const rise = RISE
   for (let t = 0; t < plan.years.length; t++) {
-    if (tables.constantYear[t]) rise.fill(plan.landIntercept[t]!, 0, tileCount)
-    else riseOfTile(plan, tables, scratch, t, tileCount)
-    const center = plan.center[t]!
+    if (countedByCells(plan, tables, t)) continue
+    riseOfTile(plan, tables, scratch, t, tileCount)
     const low = plan.histogramLow[t]!
     const lastBin = plan.histogramBins[t]! + 1
     const histogramAt = observations.histogramAt + plan.histogramOffset[t]!
-    let moment = 0
-    let square = 0
     for (let i = 0; i < tileCount; i++) {
-      const value = rise[i]!
-      const w = weights[i]!
-      const deviation = value - center
-      moment += w * deviation
-      square += w * deviation * deviation
-      let bin = (value - low) * inverseResolution + 1
+      let bin = (rise[i]! - low) * inverseResolution + 1
       bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
-      sums[histogramAt + bin]! += w
-    }
-    sums[observations.momentsAt + 2 * t]! += moment
-    sums[observations.momentsAt + 2 * t + 1]! += square
-    for (let m = 0; m < counted; m++) {
-      const height = trigger!.heights[m]!
-      let above = 0
-      for (let i = 0; i < tileCount; i++) if (rise[i]! > height) above += weights[i]!
-      sums[observations.exceedAt + t * counted + m]! += above
+      sums[histogramAt + bin]! += weights[i]!
     }
   }
-  if (trigger) countWeightedTriggers(plan, tileCount, weights, sums, observations.triggerAt)
 }

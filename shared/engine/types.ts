@@ -99,9 +99,15 @@ export interface ObservationPlan {
   termFirst: Int32Array
   termSecond: Int32Array
   termCoefficient: Float64Array
-  /** Offsets in `OutlookPartial.weighted`: Σw and Σw² at 0 and 1, then these blocks. */
+  /**
+   * Offsets in `OutlookPartial.weighted`: Σw and Σw² at 0 and 1, then Σw·x_j per basis column and
+   * Σw·x_j·x_k (J × J, lower triangle used) at `momentsAt` (each year's weighted mean and sd follow), the
+   * weighted exceedance cells at `cellsAt` (as `cellCounts`, samples in histogram cells holding a cut; the
+   * others are added from the weighted histogram when finishing), the trigger difference arrays at
+   * `triggerAt` (as `triggerCounts`) and the weighted histogram at `histogramAt`.
+   */
   momentsAt: number
-  exceedAt: number
+  cellsAt: number
   triggerAt: number
   histogramAt: number
   size: number
