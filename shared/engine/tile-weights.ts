@@ -102,7 +102,12 @@ export function rescaleWeighted(sums: Float64Array, from: number, to: number): v
  * tile), with Σw and Σw² added to the partial's weighted sums. Needs the tile's basis rows only, so it
  * runs before the counting, which the trigger counts then share.
  */
-export function weighTile(plan: OutlookPlan, scratch: TileScratch, tileCount: number, partial: OutlookPartial): Float64Array {
+export function weighTile(
+  plan: OutlookPlan,
+  scratch: TileScratch,
+  tileCount: number,
+  partial: OutlookPartial,
+): Float64Array {
   const sums = partial.weighted
   const largest = logLikelihoods(plan, scratch, tileCount)
   // The scale only grows, a few times per partial: the sums so far are rescaled then.

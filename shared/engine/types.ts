@@ -448,7 +448,7 @@ export interface UpdatedYear {
   percentiles: PercentileEstimate[]
 }
 
-/** A mean-sea-level threshold's updated chances and trigger years (same order as the result's thresholds of that kind). */
+/** A mean-sea-level threshold's updated chances and trigger years (in the order of the result's thresholds). */
 export interface UpdatedThreshold {
   key: string
   height: number

@@ -1,12 +1,12 @@
 import { describe, expect, it } from 'vitest'
 import {
-  EngineInputError,
   finishOutlook,
   MIN_EFFECTIVE_SAMPLES,
   mergePartials,
   planOutlook,
   runBlocks,
   runOutlook,
+  type EngineInputError,
   type ObservationsInput,
   type OutlookInput,
   type OutlookResult,
