@@ -3,7 +3,7 @@ import type { OutlookResult, YearOutlook } from '#shared/engine'
 // Small readers of the engine's result, shared by the charts and their tables.
 
 /** The value at a percentile level (0.5 = median) in one year. */
-export function percentile(year: YearOutlook, level: number) {
+export function percentile(year: Pick<YearOutlook, 'percentiles'>, level: number) {
   return year.percentiles.find(p => Math.abs(p.level - level) < 1e-9)?.value ?? Number.NaN
 }
 

@@ -8,6 +8,8 @@ import type { OutlookNote } from '#shared/types/outlook-notes'
 import type { OutlookDatum, OutlookReleaseRef, StoredOutlookInput } from '#shared/types/outlook'
 import { correlationFor, scaleFactorsAt, scienceFor } from '../services/science-inputs'
 import type { loadSite } from '../services/sites'
+import { latestGaugeRecord } from '../services/gauge-records'
+import { observationsForOutlook } from '#shared/observations/outlook-record'
 
 export type Site = Awaited<ReturnType<typeof loadSite>>
 
@@ -63,14 +65,22 @@ function refuseFloodLevelsWithoutStatistics(site: Site, hasStatistics: boolean) 
     })
 }
 
+/** The latest gauge record as the engine's `observations`, when it has a fit and values since the epoch. */
+function observedSince(gauge: Awaited<ReturnType<typeof latestGaugeRecord>>, site: Site, lastYear: number) {
+  const observations
+    = gauge && observationsForOutlook(gauge, gauge.fit, site.datumOffset, site.referenceEpoch, lastYear)
+  return observations ? { observations } : {}
+}
+
 /** Everything that goes into one run, with the provenance stored beside it. */
 export async function assembleOutlook(site: Site, request: OutlookRequest) {
   const science = await scienceFor(site.organisationId, request.scenario)
   const components = science.map(s => s.component)
   const adoptedSeries = Object.fromEntries(science.map(s => [s.component, s.seriesId]))
-  const [{ set, matrix, otherSeries }, scales] = await Promise.all([
+  const [{ set, matrix, otherSeries }, scales, gauge] = await Promise.all([
     correlationFor(site.organisationId, request.scenario, components, adoptedSeries),
     scaleFactorsAt(site.latitude, site.longitude),
+    latestGaugeRecord(site.id),
   ])
   const horizon = minOf(science.map(s => (s.release.anchorYears as number[]).at(-1)!))
   const baselineYear = site.referenceEpoch
@@ -119,6 +129,8 @@ export async function assembleOutlook(site: Site, request: OutlookRequest) {
           gumbel: { location: aboveEpochMean(site.gumbelLocation!), scale: site.gumbelScale!, ...fitUncertainty(site) },
         }
       : {}),
+    // The site's gauge record since the epoch weighs the trajectories (observation-updated outlook).
+    ...observedSince(gauge, site, years.at(-1)!),
     // Not read by the engine: how to state its heights above the site's datum (part of the hash, so a
     // changed datum is a changed outlook).
     datum: {

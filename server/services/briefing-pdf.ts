@@ -4,6 +4,7 @@ import { dateLocale } from '#shared/wording/dates'
 import { exceedanceChartOption, fanChartOption } from '#shared/briefing/charts'
 import { BRIEFING_TEXT } from '#shared/briefing/text'
 import { pieceSizes } from '#shared/briefing/table-pieces'
+import { observationUpdatePdf } from './briefing-observation-pdf'
 
 // Lays a briefing document out as a PDF: the same sections, in the same order, as the page.
 
@@ -206,6 +207,7 @@ export function briefingPdfDefinition(
     { text: doc.basis.sampling, margin: [0, 0, 0, 2] },
     ...doc.basis.notes.map(note => ({ text: note, color: MUTED }) as Content),
     ...doc.basis.method.map(sentence => ({ text: sentence, margin: [0, 2, 0, 0] }) as Content),
+    ...observationUpdatePdf(doc, MUTED),
 
     // The cautions are read together or not at all.
     { stack: [heading(5, text.sections.cautions), { ul: doc.cautions, color: CAUTION }], unbreakable: true },

@@ -84,6 +84,18 @@ function trackingFor(
   }
 }
 
+/** The latest version of a site's gauge record, or null: what its outlooks are weighted by. */
+export async function latestGaugeRecord(siteId: string) {
+  const db = await useDb()
+  const [record] = await db
+    .select()
+    .from(gaugeRecords)
+    .where(eq(gaugeRecords.siteId, siteId))
+    .orderBy(desc(gaugeRecords.version))
+    .limit(1)
+  return record ?? null
+}
+
 /** The latest version of a site's gauge record, the versions before it, and tracking per scenario. */
 export async function readGaugeRecord(user: CurrentUser, siteId: string) {
   await loadSite(user, siteId)

@@ -11,6 +11,7 @@ import {
 import type { DatumKind, ThresholdKind } from '../types/science'
 import { BRIEFING_TEXT, type BriefingText } from './text'
 import { headlineEstimate, keyThreshold, sayChance, spreadSentence } from './findings'
+import { observationUpdateSection, type BriefingObservationUpdate } from './observation-update'
 
 // A briefing as a document: every sentence and number, in one language and one unit, built from
 // stored outlooks. Issuing freezes this object; the page and the PDF only lay it out.
@@ -153,6 +154,11 @@ export interface BriefingDocument {
     method: string[]
   }
   cautions: string[]
+  /**
+   * The briefing's outlook updated by the site's gauge record, with method, assumptions and limits;
+   * absent when it was not weighted by one (and in documents issued before).
+   */
+  observationUpdate?: BriefingObservationUpdate
 }
 
 /** The outlook page's tolerance for a trigger year, used when the briefing's source names none. */
@@ -537,5 +543,11 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
       method: text.method,
     },
     cautions: [...text.cautions, text.highEnd],
+    ...observed(source, result),
   }
+}
+
+function observed(source: BriefingSource, result: OutlookResult) {
+  const section = observationUpdateSection(source, result, source.tolerance ?? DEFAULT_TOLERANCE)
+  return section ? { observationUpdate: section } : {}
 }

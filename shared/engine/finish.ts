@@ -1,5 +1,6 @@
 import { designLifeLevel, gridDesignLifeLevel } from './design-life'
 import { LIFE_GRID_POINTS } from './gumbel-uncertainty'
+import { finishObservationUpdate } from './observation-finish'
 import { annualCounts } from './tile-triggers'
 import {
   cumulativeCounts,
@@ -227,6 +228,7 @@ export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): Outloo
     return { ...about, byYear: [], triggerYears: [], ...floodThreshold(plan, merged, sums, threshold) }
   })
 
+  const observationUpdate = finishObservationUpdate(plan, merged, PERCENTILE_LEVELS)
   return {
     samples: n,
     seed: plan.seed,
@@ -241,6 +243,7 @@ export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): Outloo
     thresholds,
     tolerances: [...plan.tolerances],
     gumbel: plan.gumbel ? { location: plan.gumbel.location, scale: plan.gumbel.scale } : null,
+    ...(observationUpdate ? { observationUpdate } : {}),
   }
 }
 

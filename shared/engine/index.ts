@@ -15,6 +15,7 @@ export {
   type LandMotionInput,
   type ThresholdInput,
   type GumbelInput,
+  type ObservationsInput,
 } from './schema'
 export { validateOutlookInput, expandHeightRange, type ValidatedOutlookInput } from './validate'
 export { validateRelease, validateCorrelationMatrix, releaseIssues } from './release-validation'
@@ -35,7 +36,11 @@ export type {
   FloodLevelOutlook,
   Estimate,
   PercentileEstimate,
+  ObservationUpdate,
+  UpdatedYear,
+  UpdatedThreshold,
 } from './types'
+export { MIN_EFFECTIVE_SAMPLES } from './observation-finish'
 export { LAND_MOTION_KEY } from './types'
 export {
   gumbelCdf,

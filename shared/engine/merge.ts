@@ -1,5 +1,6 @@
 import type { OutlookPartial, OutlookPlan } from './types'
 import { emptyPartial } from './run'
+import { rescaleWeighted } from './tile-weights'
 
 /**
  * Combines partials of any blocks, in any order and any split, as long as no block comes twice. Counts
@@ -29,6 +30,7 @@ export function mergePartials(plan: OutlookPlan, partials: OutlookPartial[]): Ou
   merged.histogram.set(partials[0]!.histogram)
   merged.lifeHistogram.set(partials[0]!.lifeHistogram)
   merged.triggerCounts.set(partials[0]!.triggerCounts)
+  mergeWeighted(merged, partials)
   const size = plan.sumsPerBlock
   for (let p = 0; p < partials.length; p++) {
     const partial = partials[p]!
@@ -54,4 +56,23 @@ export function mergePartials(plan: OutlookPlan, partials: OutlookPartial[]): Ou
 
 function addCounts(into: Uint32Array, from: Uint32Array): void {
   for (let i = 0; i < into.length; i++) into[i] = (into[i]! + from[i]!) >>> 0
+}
+
+/**
+ * Weighted sums of several partials, each kept relative to its own largest log-likelihood: all are
+ * brought to the largest of those scales and added, so the merge is associative up to rounding.
+ */
+function mergeWeighted(merged: OutlookPartial, partials: OutlookPartial[]): void {
+  if (!merged.weighted.length) return
+  let scale = -Infinity
+  for (const partial of partials) if (partial.weightScale > scale) scale = partial.weightScale
+  merged.weightScale = scale
+  if (scale === -Infinity) return
+  const into = merged.weighted
+  const rescaled = new Float64Array(into.length)
+  for (const partial of partials) {
+    rescaled.set(partial.weighted)
+    rescaleWeighted(rescaled, partial.weightScale, scale)
+    for (let k = 0; k < into.length; k++) into[k] = into[k]! + rescaled[k]!
+  }
 }

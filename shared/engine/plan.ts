@@ -11,6 +11,7 @@ import {
   type SumLayout,
 } from './types'
 import { planThresholds } from './threshold-plan'
+import { planObservations } from './observation-plan'
 import { planTriggers } from './trigger-plan'
 import { LIFE_GRID_POINTS, planUncertainty } from './gumbel-uncertainty'
 import { validateOutlookInput, type ValidatedOutlookInput } from './validate'
@@ -301,6 +302,15 @@ function planValidated(input: ValidatedOutlookInput, options: PlanOptions): Outl
     annualFloods.map(k => ({ index: k, height: thresholds[k]!.height })),
   )
 
+  const observations = planObservations(
+    input,
+    groupRelease.map((release, g) => ({ firstColumn: groupFirstColumn[g]!, release })),
+    basisCount,
+    valueBasis,
+    valueAtZero,
+    { years: yearCount, cuts: cuts.length, histogramSize, trigger },
+  )
+
   const partCount = componentCount + 1
   const levelCount = gumbel ? gumbel.levels.length : 0
   const gumbelExp = 2 * yearCount + 2 * partCount * yearCount
@@ -388,5 +398,6 @@ function planValidated(input: ValidatedOutlookInput, options: PlanOptions): Outl
     lifeHistogramSize,
     sumsPerBlock,
     sumLayout,
+    observations,
   }
 }

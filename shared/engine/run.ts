@@ -7,6 +7,7 @@ import { basisFromValues, blockSumsByYear, gumbelTile, sumTile } from './tile-su
 import { countConstantYear, countYear, finishCounts, riseOfYear } from './tile-counts'
 import { countYearPair } from './tile-pairs'
 import { floodAnnualTile, triggerTile } from './tile-triggers'
+import { addWeightedTile, weighTile } from './tile-weights'
 import { drawParameterScores, tileParameters } from './gumbel-uncertainty'
 import type { OutlookPlan, OutlookPartial } from './types'
 
@@ -23,6 +24,8 @@ import type { OutlookPlan, OutlookPartial } from './types'
 // land-motion score) before any year is formed: each year's rise is then a short weighted sum, and the
 // moments and variance-share sums of every year follow from dot products of the basis values per block.
 
+const NO_SUMS = new Float64Array(0)
+
 /** An empty partial for `blockCount` blocks (their indices and sums still to be filled in). */
 export function emptyPartial(plan: OutlookPlan, blockCount: number): OutlookPartial {
   return {
@@ -35,6 +38,8 @@ export function emptyPartial(plan: OutlookPlan, blockCount: number): OutlookPart
     minimum: new Float64Array(plan.years.length).fill(Infinity),
     maximum: new Float64Array(plan.years.length).fill(-Infinity),
     blockSums: new Float64Array(blockCount * plan.sumsPerBlock),
+    weighted: new Float64Array(plan.observations ? plan.observations.size : 0),
+    weightScale: -Infinity,
   }
 }
 
@@ -92,6 +97,11 @@ export function runClaimedBlocks(
   const yearCount = plan.years.length
   const scoresPerSample = plan.componentKeys.length + 1
   const uncertain = plan.gumbel?.uncertainty != null
+  const weighted = plan.observations !== null
+  scratch.weights = null
+  scratch.weighted = partial.weighted
+  scratch.weightedHistogramAt = plan.observations?.histogramAt ?? 0
+  scratch.weightedCellsAt = plan.observations?.cellsAt ?? 0
   let done = 0
   for (let b = 0; b < capacity; b++) {
     const blockIndex = nextBlock()
@@ -125,6 +135,8 @@ export function runClaimedBlocks(
       valueTile(plan, tables, scratch, tileCount)
       if (scratch.sumsAreLevels) basisFromValues(plan, tables, scratch, tileCount)
       sumTile(plan, tables, scratch, tileCount)
+      const weights = weighted ? weighTile(plan, scratch, tileCount, partial) : null
+      scratch.weights = weights
       for (const pair of tables.yearPairs) countYearPair(plan, tables, scratch, pair, tileCount, partial)
       for (let t = 0; t < yearCount; t++) {
         if (tables.pairedYear[t]) continue
@@ -135,17 +147,29 @@ export function runClaimedBlocks(
         riseOfYear(plan, tables, scratch, t, tileCount)
         countYear(plan, tables, scratch, t, tileCount, partial)
       }
-      if (plan.trigger !== null) triggerTile(plan, scratch, tileCount, partial.triggerCounts)
+      if (plan.trigger !== null) {
+        triggerTile(
+          plan,
+          scratch,
+          tileCount,
+          partial.triggerCounts,
+          weights && { weights, into: partial.weighted, at: plan.observations!.triggerAt },
+        )
+      }
       if (uncertain) tileParameters(plan, count, tileStart, tileCount)
       if (plan.trigger?.floodHeights.length)
         floodAnnualTile(plan, tileCount, partial.blockSums, b * plan.sumsPerBlock)
       if (plan.gumbel !== null)
         gumbelTile(plan, tables, scratch, tileCount, partial.blockSums, b * plan.sumsPerBlock, partial.lifeHistogram)
+      if (weighted) addWeightedTile(plan, tables, scratch, tileCount, partial)
     }
     blockSumsByYear(plan, scratch, partial.blockSums, b * plan.sumsPerBlock)
     partial.samples += count
   }
   finishCounts(plan, tables, scratch, partial)
+  // The scratch outlives the call; the partial's sums must not be written through it again.
+  scratch.weights = null
+  scratch.weighted = NO_SUMS
   // Views of what was used; the whole buffers still travel (transferred, not copied) between threads.
   partial.blocks = partial.blocks.subarray(0, done)
   partial.blockSums = partial.blockSums.subarray(0, done * plan.sumsPerBlock)

@@ -125,6 +125,21 @@ export const gumbelSchema = z.object({
   locationScaleCorrelation: z.number().min(-1, 'must be at least -1').max(1, 'must be at most 1').optional(),
 })
 
+/**
+ * An observed record of mean sea level since the baseline year, for likelihood weighting of the
+ * trajectories (`observation-plan.ts`): each value is metres of rise relative to mean sea level at the
+ * baseline year, with the tidal cycles (nodal, seasonal) already taken out, at a decimal time (the middle
+ * of its interval). Residuals about a trajectory follow AR(1) with lag-one correlation `phi` per step of
+ * `stepYears` and marginal standard deviation `residualSd`. An empty record gives no update.
+ */
+export const observationsSchema = z.object({
+  times: z.array(z.number().min(1000, 'must be a year from 1000').max(9999, 'must be a year before 10000')),
+  rise: z.array(finite),
+  residualSd: z.number().positive('must be a positive standard deviation in metres').max(MAX_METRES),
+  phi: z.number().gt(-1, 'must be above -1').lt(1, 'must be below 1'),
+  stepYears: z.number().positive('must be a positive step in years').max(1, 'must be at most one year').default(1),
+})
+
 export const outlookInputSchema = z.object({
   baselineYear: year,
   years: z.array(year).min(1, 'needs at least one output year'),
@@ -143,6 +158,7 @@ export const outlookInputSchema = z.object({
     .array(z.number().gt(0, 'must be above 0').lt(1, 'must be below 1'))
     .default([...DEFAULT_TOLERANCES]),
   gumbel: gumbelSchema.optional(),
+  observations: observationsSchema.optional(),
 })
 
 /** What a caller passes (defaults may be omitted). */
@@ -155,3 +171,4 @@ export type ComponentInput = z.input<typeof componentSchema>
 export type LandMotionInput = z.input<typeof landMotionSchema>
 export type ThresholdInput = z.input<typeof thresholdSchema>
 export type GumbelInput = z.input<typeof gumbelSchema>
+export type ObservationsInput = z.input<typeof observationsSchema>

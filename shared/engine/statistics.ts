@@ -27,7 +27,7 @@ export function meanFromDeviations(reference: number, sum: number, squares: numb
 }
 
 export interface HistogramView {
-  counts: Uint32Array
+  counts: ArrayLike<number>
   /** Cell of the underflow; bins follow, then the overflow cell. */
   offset: number
   bins: number
@@ -38,7 +38,7 @@ export interface HistogramView {
   minimum: number
   maximum: number
   /** Optional running totals of `counts` within the year (inclusive, same offsets): rank look-ups by bisection. */
-  cumulative?: Uint32Array
+  cumulative?: ArrayLike<number>
 }
 
 /**

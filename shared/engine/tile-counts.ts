@@ -152,6 +152,7 @@ export function countYear(
     )
     minimum = partial.minimum[t]!
     maximum = partial.maximum[t]!
+    if (scratch.weights !== null) addWeightedCells(scratch, CELLS, tileCount)
   }
   else for (let i = 0; i < tileCount; i++) {
     let value = (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]!
@@ -201,6 +202,9 @@ export function placeListed(
     t,
   )
   const keepRise = plan.gumbel !== null
+  const weights = scratch.weights
+  const weighted = scratch.weighted
+  const weightedCellAt = scratch.weightedCellsAt + cellAt
   for (let k = 0; k < listedCount; k++) {
     const i = listed[k]!
     let value = keepRise
@@ -213,7 +217,26 @@ export function placeListed(
     let cell = -1 - cellOfBin[histogramAt + bin]!
     while (cell < cutCount && cuts[cell]! < value) cell++
     cellCounts[cellAt + cell]!++
+    if (weights !== null) weighted[weightedCellAt + cell]! += weights[i]!
   }
+}
+
+/**
+ * Whether year t's samples get their histogram cells listed by the counting kernels (`countOnePass`
+ * and the pairs), the constant year included: their weights are added from those cells. Other years'
+ * weighted counts form the rise again (`addWeightedTile`).
+ */
+export function countedByCells(plan: OutlookPlan, tables: SamplerTables, t: number): boolean {
+  if (tables.constantYear[t] || tables.pairedYear[t]) return true
+  return tables.yearColumns[t]!.length === PASS && plan.gumbel === null && tables.yearWeights[t]![3] === 0
+}
+
+/** Adds each tile sample's weight to its histogram cell (cells as `countOnePass` lists them). */
+export function addWeightedCells(scratch: TileScratch, cells: Int32Array, tileCount: number): void {
+  const weights = scratch.weights!
+  const weighted = scratch.weighted
+  const at = scratch.weightedHistogramAt
+  for (let i = 0; i < tileCount; i = (i + 1) | 0) weighted[(at + cells[i]!) | 0]! += weights[i]!
 }
 
 /**
@@ -313,11 +336,18 @@ export function countConstantYear(
   bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
   const at = plan.histogramOffset[t]! + bin
   scratch.histogram[at]! += tileCount
+  const weights = scratch.weights
+  let weight = 0
+  if (weights !== null) {
+    for (let i = 0; i < tileCount; i++) weight += weights[i]!
+    scratch.weighted[scratch.weightedHistogramAt + at]! += weight
+  }
   const cellHint = tables.cellOfBin[at]!
   if (cellHint < 0) {
     let cell = -1 - cellHint
     while (cell < plan.cuts.length && plan.cuts[cell]! < value) cell++
     partial.cellCounts[t * (plan.cuts.length + 1) + cell]! += tileCount
+    if (weights !== null) scratch.weighted[scratch.weightedCellsAt + t * (plan.cuts.length + 1) + cell]! += weight
   }
   if (value < partial.minimum[t]!) partial.minimum[t] = value
   if (value > partial.maximum[t]!) partial.maximum[t] = value

@@ -1,6 +1,6 @@
 import type { SamplerTables, YearPair } from './sampler-tables'
 import { ROW, TILE, type TileScratch } from './tile-scratch'
-import { addToHistogram, placeListed } from './tile-counts'
+import { addToHistogram, addWeightedCells, placeListed } from './tile-counts'
 import type { OutlookPartial, OutlookPlan } from './types'
 
 // Two years counted in one pass over the tile. Most output years lie between the same two anchor
@@ -55,6 +55,10 @@ export function countYearPair(
     first,
     second,
   )
+  if (scratch.weights !== null) {
+    addWeightedCells(scratch, FIRST_CELLS, tileCount)
+    addWeightedCells(scratch, SECOND_CELLS, tileCount)
+  }
   const listed = scratch.listed
   placeListed(
     plan,

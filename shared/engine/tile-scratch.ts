@@ -68,6 +68,15 @@ export interface TileScratch {
   basisCross: Float64Array
   valueSum: Float64Array
   valueCross: Float64Array
+  /**
+   * Observation-updated outlooks: the tile's weights (`weighTile`), else null, and the partial's weighted
+   * sums, which the counting kernels add each sample's weight to beside its count (histogram cell at
+   * `weightedHistogramAt + cell`, exceedance cell at `weightedCellsAt + t·(cuts + 1) + cell`).
+   */
+  weights: Float64Array | null
+  weighted: Float64Array
+  weightedHistogramAt: number
+  weightedCellsAt: number
 }
 
 let kept: { key: string, scratch: TileScratch } | null = null
@@ -108,6 +117,10 @@ export function tileScratch(plan: OutlookPlan): TileScratch {
     basisCross: new Float64Array(columnCount * columnCount),
     valueSum: new Float64Array(plan.valueCount),
     valueCross: new Float64Array(plan.valueCount * columnCount),
+    weights: null,
+    weighted: new Float64Array(0),
+    weightedHistogramAt: 0,
+    weightedCellsAt: 0,
   }
   for (let c = 0; c < scoreRows; c++) scratch.scoreFrom.push(scratch.scores)
   kept = { key, scratch }

@@ -14,7 +14,18 @@ import type { Estimate, OutlookPartial, OutlookPlan } from './types'
 /** Each knot's rise for the tile's samples at [k·TILE + i]; grown to the largest plan seen. */
 let knotRise = new Float64Array(0)
 
-export function triggerTile(plan: OutlookPlan, scratch: TileScratch, tileCount: number, counts: Int32Array): void {
+/**
+ * The tile's trigger counts. With `weighted` (observation-updated outlooks), each sample is also
+ * counted by its weight in the same pass (`countTriggersWeighted`): the knots' rises and the side tests
+ * are shared, so the weighted counts cost only their additions.
+ */
+export function triggerTile(
+  plan: OutlookPlan,
+  scratch: TileScratch,
+  tileCount: number,
+  counts: Int32Array,
+  weighted: { weights: Float64Array, into: Float64Array, at: number } | null = null,
+): void {
   const trigger = plan.trigger!
   const knotCount = trigger.knotYears.length
   if (knotRise.length < knotCount * TILE) knotRise = new Float64Array(knotCount * TILE)
@@ -61,7 +72,8 @@ export function triggerTile(plan: OutlookPlan, scratch: TileScratch, tileCount: 
       }
     }
   }
-  countTriggers(plan, tileCount, counts)
+  if (weighted) countTriggersWeighted(plan, tileCount, counts, weighted.weights, weighted.into, weighted.at)
+  else countTriggers(plan, tileCount, counts)
 }
 
 /** The difference-array counts of every counted threshold from the knots' rises (see `triggerTile`). */
@@ -119,24 +131,94 @@ function countTriggers(plan: OutlookPlan, tileCount: number, counts: Int32Array)
 }
 
 /**
+ * `countTriggers` and, in the same pass, each sample counted by its weight into the Float64 difference
+ * arrays at `into[at …]` (observation-updated outlooks). The unweighted counts are the same integers.
+ */
+function countTriggersWeighted(
+  plan: OutlookPlan,
+  tileCount: number,
+  counts: Int32Array,
+  weights: Float64Array,
+  into: Float64Array,
+  at: number,
+): void {
+  const trigger = plan.trigger!
+  const knotCount = trigger.knotYears.length
+  const rise = knotRise
+  const stride = trigger.yearCount + 1
+  for (let m = 0; m < trigger.heights.length; m++) {
+    const height = trigger.heights[m]!
+    const base = m * stride
+    for (let k = 1; k < knotCount; k++) {
+      const span = trigger.knotYears[k]! - trigger.knotYears[k - 1]!
+      const start = base + trigger.knotYears[k - 1]! - trigger.firstYear
+      const weightedStart = at + start
+      const fromAt = (k - 1) * TILE
+      const toAt = k * TILE
+      let through = 0
+      let ends = 0
+      let weightedThrough = 0
+      let weightedEnds = 0
+      for (let i = 0; i < tileCount; i++) {
+        const r0 = rise[fromAt + i]!
+        const r1 = rise[toAt + i]!
+        const w = weights[i]!
+        const above0 = r0 > height ? 1 : 0
+        const above1 = r1 > height ? 1 : 0
+        through += above0 & above1
+        ends += above1
+        weightedThrough += (above0 & above1) * w
+        weightedEnds += above1 * w
+        if (above0 === above1) continue
+        const crossing = ((height - r0) * span) / (r1 - r0)
+        let first = 1
+        let last = span - 1
+        if (above1 === 1) first = crossing >= 1 ? Math.floor(crossing) + 1 : 1
+        else last = crossing < span ? Math.ceil(crossing) - 1 : span - 1
+        if (first <= last) {
+          counts[start + first]!++
+          counts[start + last + 1]!--
+          into[weightedStart + first]! += w
+          into[weightedStart + last + 1]! -= w
+        }
+      }
+      if (span > 1) {
+        counts[start + 1]! += through
+        counts[start + span]! -= through
+        into[weightedStart + 1]! += weightedThrough
+        into[weightedStart + span]! -= weightedThrough
+      }
+      if (trigger.knotIsOutput[k] === 0) {
+        counts[start + span]! += ends
+        counts[start + span + 1]! -= ends
+        into[weightedStart + span]! += weightedEnds
+        into[weightedStart + span + 1]! -= weightedEnds
+      }
+    }
+  }
+}
+
+/**
  * Samples above each counted threshold per calendar year, from the difference array; output years take
  * the exact count of the exceedance cells (`outputCount`), the baseline year its zero rise.
  */
 export function annualCounts(
   plan: OutlookPlan,
-  counts: Int32Array,
+  counts: ArrayLike<number>,
   m: number,
   outputCount: (t: number) => number,
+  total: number = plan.samples,
+  at = 0,
 ): Float64Array {
   const trigger = plan.trigger!
   const stride = trigger.yearCount + 1
   const annual = new Float64Array(trigger.yearCount)
   let running = 0
   for (let y = 0; y < trigger.yearCount; y++) {
-    running += counts[m * stride + y]!
+    running += counts[at + m * stride + y]!
     annual[y] = running
   }
-  annual[0] = 0 > trigger.heights[m]! ? plan.samples : 0
+  annual[0] = 0 > trigger.heights[m]! ? total : 0
   plan.years.forEach((year, t) => {
     annual[year - trigger.firstYear] = outputCount(t)
   })

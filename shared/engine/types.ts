@@ -88,6 +88,40 @@ export interface TriggerPlan {
 }
 
 /**
+ * Likelihood weighting by an observed record (`observation-plan.ts`). Each trajectory's log-likelihood,
+ * less a constant, is a quadratic form in the basis rows x the year counting reads:
+ * ℓ(x) = Σ_j linear_j·x_j + Σ_terms coefficient·x_j·x_k. Its weight exp(ℓ − scale) goes into the
+ * weighted sums of `OutlookPartial.weighted`, laid out as below.
+ */
+export interface ObservationPlan {
+  count: number
+  /** The record's first and last times, its residual model, for the result. */
+  firstTime: number
+  lastTime: number
+  residualSd: number
+  phi: number
+  /** Per basis column: the linear coefficient for the centred basis rows, and for the level rows (plans with draws). */
+  linearCentred: Float64Array
+  linearLevels: Float64Array
+  /** Quadratic terms with a non-zero coefficient: columns j ≥ k and the coefficient of x_j·x_k. */
+  termFirst: Int32Array
+  termSecond: Int32Array
+  termCoefficient: Float64Array
+  /**
+   * Offsets in `OutlookPartial.weighted`: Σw and Σw² at 0 and 1, then Σw·x_j per basis column and
+   * Σw·x_j·x_k (J × J, lower triangle used) at `momentsAt` (each year's weighted mean and sd follow), the
+   * weighted exceedance cells at `cellsAt` (as `cellCounts`, samples in histogram cells holding a cut; the
+   * others are added from the weighted histogram when finishing), the trigger difference arrays at
+   * `triggerAt` (as `triggerCounts`) and the weighted histogram at `histogramAt`.
+   */
+  momentsAt: number
+  cellsAt: number
+  triggerAt: number
+  histogramAt: number
+  size: number
+}
+
+/**
  * Everything a sampling thread needs, precomputed from a validated input. Rise tables already carry
  * the component's scale factor and are expressed relative to the outlook's baseline year.
  */
@@ -194,6 +228,8 @@ export interface OutlookPlan {
   /** Sums per block, in this order: see `sumLayout`. */
   sumsPerBlock: number
   sumLayout: SumLayout
+  /** Likelihood weighting by an observed record; null without observations (or with an empty record). */
+  observations: ObservationPlan | null
 }
 
 /**
@@ -288,6 +324,13 @@ export interface OutlookPartial {
   maximum: Float64Array
   /** blocks.length × plan.sumsPerBlock, in the order of `blocks`. */
   blockSums: Float64Array
+  /**
+   * With observations (`ObservationPlan`), the weighted sums, each weight stored as exp(ℓ − weightScale);
+   * weightScale is the largest log-likelihood seen (−∞ before any sample). Merging rescales to the
+   * largest scale, so any split adds up to the same sums up to rounding. Empty without observations.
+   */
+  weighted: Float64Array
+  weightScale: number
 }
 
 export interface Estimate {
@@ -408,6 +451,46 @@ export interface ThresholdOutlook {
   designLifeLevel: { chance: number, level: number } | null
 }
 
+/** One output year of an observation-updated outlook. */
+export interface UpdatedYear {
+  year: number
+  /** Weighted mean and sd of the rise; the mean's SE uses the effective sample size. */
+  mean: Estimate
+  sd: number
+  /** Weighted percentiles (levels as `percentileLevels`), SE from the effective sample size. */
+  percentiles: PercentileEstimate[]
+}
+
+/** A mean-sea-level threshold's updated chances and trigger years (in the order of the result's thresholds). */
+export interface UpdatedThreshold {
+  key: string
+  height: number
+  byYear: Estimate[]
+  triggerYears: Array<{ tolerance: number, year: number | null }>
+}
+
+interface ObservationUpdateBase {
+  /** Importance (likelihood) weighting of the trajectories by a Gaussian AR(1) likelihood of the record. */
+  method: 'likelihood-weighting'
+  observations: number
+  firstTime: number
+  lastTime: number
+  residualSd: number
+  phi: number
+  /** Kish's effective sample size (Σw)²/Σw², and the least the engine shows updated numbers for. */
+  ess: number
+  minimumEss: number
+}
+
+/**
+ * The outlook conditioned on the site's observed record (absent without a record). Refused, with no
+ * numbers, when the effective sample size is below `minimumEss`: a handful of trajectories carry all the
+ * weight and the updated numbers would be noise.
+ */
+export type ObservationUpdate
+  = | (ObservationUpdateBase & { refused: false, byYear: UpdatedYear[], thresholds: UpdatedThreshold[] })
+    | (ObservationUpdateBase & { refused: true, reason: 'too-few-effective-samples' })
+
 export interface OutlookResult {
   samples: number
   seed: number
@@ -423,4 +506,6 @@ export interface OutlookResult {
   thresholds: ThresholdOutlook[]
   tolerances: number[]
   gumbel: { location: number, scale: number } | null
+  /** Present only when the input carried a non-empty observed record. */
+  observationUpdate?: ObservationUpdate
 }

@@ -106,6 +106,44 @@ function thresholdIssues(input: ParsedOutlookInput): EngineInputIssue[] {
 }
 
 /** Parses and checks an outlook request; throws EngineInputError listing every problem. */
+/** Decimal times carry rounding: a step within this of a whole number of steps is that number. */
+const STEP_TOLERANCE = 1e-6
+
+/**
+ * Observed values pair up (one rise per time), come in time order on the record's steps, and lie
+ * between the baseline year and the last output year: the rise is known only there.
+ */
+function observationIssues(input: ParsedOutlookInput): EngineInputIssue[] {
+  const observed = input.observations
+  if (!observed) return []
+  const issues: EngineInputIssue[] = []
+  if (observed.rise.length !== observed.times.length) {
+    issues.push({
+      path: 'observations.rise',
+      message: `has ${observed.rise.length} values for ${observed.times.length} times; give one rise per time`,
+    })
+  }
+  const lastYear = input.years[input.years.length - 1]!
+  observed.times.forEach((time, i) => {
+    const path = `observations.times[${i}]`
+    if (time < input.baselineYear || time > lastYear) {
+      issues.push({
+        path,
+        message: `${time} is outside ${input.baselineYear}–${lastYear}; give only values from the baseline year to the last output year`,
+      })
+    }
+    if (i === 0) return
+    const steps = (time - observed.times[i - 1]!) / observed.stepYears
+    if (steps < 1 - STEP_TOLERANCE || Math.abs(steps - Math.round(steps)) > STEP_TOLERANCE) {
+      issues.push({
+        path,
+        message: `must come a whole number of steps (${observed.stepYears} years) after the time before it (${observed.times[i - 1]}), in increasing order`,
+      })
+    }
+  })
+  return issues
+}
+
 export function validateOutlookInput(raw: unknown): ValidatedOutlookInput {
   const parsed = outlookInputSchema.safeParse(raw)
   if (!parsed.success) {
@@ -178,6 +216,7 @@ export function validateOutlookInput(raw: unknown): ValidatedOutlookInput {
   }
 
   appendAll(issues, thresholdIssues(input))
+  appendAll(issues, observationIssues(input))
 
   if (issues.length) throw new EngineInputError(issues)
   return { ...input, heights, choleskyFactor }

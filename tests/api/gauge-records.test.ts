@@ -98,6 +98,29 @@ describe('tide-gauge records', () => {
     expect(entry.tracking.status).toBe(status)
   })
 
+  it('weighs the site\'s next outlook by the record since the epoch, beside the unweighted numbers', async () => {
+    await planner.post(`/api/sites/${siteId}/gauge-record`, { csv: rising(45, 1981, [], 0.004) })
+    const posted = await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000 })
+    expect(posted.status).toBe(201)
+    const outlook = (await reader.get(`/api/outlooks/${posted.body.id}`)).body
+    // Annual means 2020 … 2025 lie at or after the 2020 epoch: six values.
+    expect(outlook.input.observations.times).toEqual([2020.5, 2021.5, 2022.5, 2023.5, 2024.5, 2025.5])
+    const update = outlook.result.observationUpdate
+    expect(update).toMatchObject({ method: 'likelihood-weighting', observations: 6 })
+    expect(update.ess).toBeGreaterThan(0)
+    if (!update.refused) expect(update.byYear).toHaveLength(outlook.result.byYear.length)
+    expect(outlook.result.byYear[0].percentiles).toHaveLength(7)
+  })
+
+  it('refuses the update, with no numbers, when the record is far from every trajectory', async () => {
+    // 40 mm/yr since 2020 is 0.22 m by 2025, beyond any trajectory of a few centimetres [practice: arithmetic].
+    await planner.post(`/api/sites/${siteId}/gauge-record`, { csv: rising(45, 1981, [], 0.04) })
+    const posted = await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000 })
+    const update = (await planner.get(`/api/outlooks/${posted.body.id}`)).body.result.observationUpdate
+    expect(update).toMatchObject({ refused: true, reason: 'too-few-effective-samples' })
+    expect(update).not.toHaveProperty('byYear')
+  })
+
   it.each([
     ['a year given twice', 'year,height\n2000,1.1\n2000,1.2\n', /^csv row 3, column year: 2000 is also on row 2/],
     ['millimetres', 'year,height\n2000,1201\n2001,1205\n', /divide by 1000 if millimetres/],

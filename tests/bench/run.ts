@@ -1,5 +1,6 @@
 import os from 'node:os'
 import { planOutlook, runBlocks, finishOutlook, type OutlookResult } from '../../shared/engine'
+import { benchObservationWeighting } from './observations'
 import { OutlookPool } from './pool'
 import { loadWorkload } from './workload'
 
@@ -91,6 +92,7 @@ async function main() {
       ...headline(result!),
     }
   }
+  report.observationWeighting = benchObservationWeighting()
   report.peakRssMB = +(process.resourceUsage().maxRSS / 1024).toFixed(1)
   // Other work on the machine shows here: figures taken beside builds or tests are not comparable.
   report.loadAverageAtEnd = os.loadavg().map(x => +x.toFixed(2))

@@ -22,6 +22,7 @@ parentPort!.on('message', (request: PoolRequest) => {
     partial.minimum,
     partial.maximum,
     partial.blockSums,
+    partial.weighted,
   ].map(array => array.buffer as ArrayBuffer)
   parentPort!.postMessage({ partial } satisfies PoolReply, transfer)
 })

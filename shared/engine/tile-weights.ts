@@ -1,0 +1,178 @@
+import { PASS, type SamplerTables } from './sampler-tables'
+import { countedByCells } from './tile-counts'
+import { ROW, TILE, type TileScratch } from './tile-scratch'
+import type { OutlookPartial, OutlookPlan } from './types'
+
+// Observation-updated statistics of a tile: each sample's log-likelihood under the observed record
+// (`observation-plan.ts`) and its weight (`weighTile`, before the counting), then what the counting
+// kernels do not add beside their counts (`addWeightedTile`). Both run only for plans with
+// observations; the kernels test for weights once per call, so outlooks without a record run the loop
+// they ran before.
+
+const LOG_WEIGHT = new Float64Array(TILE)
+const WEIGHT = new Float64Array(TILE)
+
+/** A year's rise for the tile's samples, formed as the counting kernels form it. */
+const RISE = new Float64Array(TILE)
+
+/** Each sample's log-likelihood, less the plan's constant, into LOG_WEIGHT; returns the tile's largest. */
+function logLikelihoods(plan: OutlookPlan, scratch: TileScratch, tileCount: number): number {
+  const observations = plan.observations!
+  const rows = scratch.rows
+  const rowsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
+  const linear = scratch.sumsAreLevels ? observations.linearLevels : observations.linearCentred
+  const out = LOG_WEIGHT
+  out.fill(0, 0, tileCount)
+  for (let j = 0; j < linear.length; j++) {
+    const coefficient = linear[j]!
+    if (coefficient === 0) continue
+    const at = rowsAt + j * ROW
+    for (let i = 0; i < tileCount; i = (i + 1) | 0) out[i] = out[i]! + coefficient * rows[(at + i) | 0]!
+  }
+  const first = observations.termFirst
+  const second = observations.termSecond
+  const coefficients = observations.termCoefficient
+  for (let term = 0; term < coefficients.length; term++) {
+    const coefficient = coefficients[term]!
+    const a = rowsAt + first[term]! * ROW
+    const b = rowsAt + second[term]! * ROW
+    for (let i = 0; i < tileCount; i = (i + 1) | 0)
+      out[i] = out[i]! + coefficient * rows[(a + i) | 0]! * rows[(b + i) | 0]!
+  }
+  let largest = -Infinity
+  for (let i = 0; i < tileCount; i++) if (out[i]! > largest) largest = out[i]!
+  return largest
+}
+
+/**
+ * Year t's rise for the tile into RISE, with the same terms in the same order as `riseOfYear` and
+ * `countYear` (so a sample falls in the same histogram cell as when it was counted).
+ */
+function riseOfTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, t: number, tileCount: number) {
+  const rows = scratch.rows
+  const rowsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
+  const columns = tables.yearColumns[t]!
+  const weights = tables.yearWeights[t]!
+  const rise = RISE
+  rise.fill(scratch.sumsAreLevels ? plan.landIntercept[t]! : plan.center[t]!, 0, tileCount)
+  const last = columns.length - PASS
+  for (let p = 0; p < last; p += PASS) {
+    const b0 = rowsAt + columns[p]! * ROW
+    const b1 = rowsAt + columns[p + 1]! * ROW
+    const b2 = rowsAt + columns[p + 2]! * ROW
+    const b3 = rowsAt + columns[p + 3]! * ROW
+    const w0 = weights[p]!
+    const w1 = weights[p + 1]!
+    const w2 = weights[p + 2]!
+    const w3 = weights[p + 3]!
+    for (let i = 0; i < tileCount; i++)
+      rise[i] = rise[i]! + w0 * rows[b0 + i]! + w1 * rows[b1 + i]! + w2 * rows[b2 + i]! + w3 * rows[b3 + i]!
+  }
+  const b0 = rowsAt + columns[last]! * ROW
+  const b1 = rowsAt + columns[last + 1]! * ROW
+  const b2 = rowsAt + columns[last + 2]! * ROW
+  const b3 = rowsAt + columns[last + 3]! * ROW
+  const w0 = weights[last]!
+  const w1 = weights[last + 1]!
+  const w2 = weights[last + 2]!
+  const w3 = weights[last + 3]!
+  const used = w3 !== 0 ? 4 : w2 !== 0 ? 3 : 2
+  for (let i = 0; i < tileCount; i++) {
+    let value = rise[i]! + w0 * rows[b0 + i]! + w1 * rows[b1 + i]!
+    if (used > 2) value += w2 * rows[b2 + i]!
+    if (used > 3) value += w3 * rows[b3 + i]!
+    rise[i] = value
+  }
+}
+
+/**
+ * Multiplies every weighted sum by e^{from − to} (Σw², at 1, by its square), so they are kept relative
+ * to the larger scale `to`.
+ */
+export function rescaleWeighted(sums: Float64Array, from: number, to: number): void {
+  // Before any sample (−∞) every sum is still zero.
+  if (from === to || from === -Infinity) return
+  const factor = Math.exp(from - to)
+  for (let k = 0; k < sums.length; k++) sums[k] = sums[k]! * factor
+  sums[1] = sums[1]! * factor
+}
+
+/**
+ * Each tile sample's weight by the observed record, into the returned array (valid until the next
+ * tile), with Σw and Σw² added to the partial's weighted sums. Needs the tile's basis rows only, so it
+ * runs before the counting, which the trigger counts then share.
+ */
+export function weighTile(
+  plan: OutlookPlan,
+  scratch: TileScratch,
+  tileCount: number,
+  partial: OutlookPartial,
+): Float64Array {
+  const sums = partial.weighted
+  const largest = logLikelihoods(plan, scratch, tileCount)
+  // The scale only grows, a few times per partial: the sums so far are rescaled then.
+  if (largest > partial.weightScale) {
+    rescaleWeighted(sums, partial.weightScale, largest)
+    partial.weightScale = largest
+  }
+  const scale = partial.weightScale
+  const weights = WEIGHT
+  let total = 0
+  let squares = 0
+  for (let i = 0; i < tileCount; i++) {
+    const w = Math.exp(LOG_WEIGHT[i]! - scale)
+    weights[i] = w
+    total += w
+    squares += w * w
+  }
+  sums[0]! += total
+  sums[1]! += squares
+  return weights
+}
+
+/**
+ * What the counting kernels do not add for the tile's weights: the weighted sums of the basis rows and
+ * their products (each year's weighted mean and sd follow from them), and the weighted histogram of years
+ * whose cells the kernels do not list (`countedByCells`), their rise formed again.
+ */
+export function addWeightedTile(
+  plan: OutlookPlan,
+  tables: SamplerTables,
+  scratch: TileScratch,
+  tileCount: number,
+  partial: OutlookPartial,
+): void {
+  const observations = plan.observations!
+  const sums = partial.weighted
+  const weights = WEIGHT
+  const rows = scratch.rows
+  const rowsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
+  const columns = plan.basisCount
+  const crossAt = observations.momentsAt + columns
+  for (let j = 0; j < columns; j++) {
+    const a = rowsAt + j * ROW
+    let sum = 0
+    for (let i = 0; i < tileCount; i = (i + 1) | 0) sum += weights[i]! * rows[(a + i) | 0]!
+    sums[observations.momentsAt + j]! += sum
+    for (let k = 0; k <= j; k++) {
+      const b = rowsAt + k * ROW
+      let cross = 0
+      for (let i = 0; i < tileCount; i = (i + 1) | 0) cross += weights[i]! * rows[(a + i) | 0]! * rows[(b + i) | 0]!
+      sums[crossAt + j * columns + k]! += cross
+    }
+  }
+  const inverseResolution = 1 / plan.histogramResolution
+  const rise = RISE
+  for (let t = 0; t < plan.years.length; t++) {
+    if (countedByCells(plan, tables, t)) continue
+    riseOfTile(plan, tables, scratch, t, tileCount)
+    const low = plan.histogramLow[t]!
+    const lastBin = plan.histogramBins[t]! + 1
+    const histogramAt = observations.histogramAt + plan.histogramOffset[t]!
+    for (let i = 0; i < tileCount; i++) {
+      let bin = (rise[i]! - low) * inverseResolution + 1
+      bin = bin < 0 ? 0 : bin > lastBin ? lastBin : bin | 0
+      sums[histogramAt + bin]! += weights[i]!
+    }
+  }
+}

@@ -1,0 +1,86 @@
+import { describe, expect, it } from 'vitest'
+import { buildBriefingDocument, type BriefingSource } from '../../../shared/briefing/document'
+import { runOutlook, type ObservationsInput } from '../../../shared/engine'
+
+// A small outlook (rise 0.5 ± 0.1 m by 2100, linear from 2020) weighted by a record since 2020.
+function outlook(observations?: ObservationsInput) {
+  return runOutlook({
+    baselineYear: 2020,
+    years: [2020, 2050, 2100],
+    samples: 8192,
+    seed: 5,
+    components: [
+      { key: 'glaciers', scale: 1, release: { form: 'normal', baselineYear: 2020, anchorYears: [2100], mean: [0.5], sd: [0.1] } },
+    ],
+    heights: { from: 0, to: 1, step: 0.05 },
+    thresholds: [{ key: 't1', height: 0.5 }],
+    ...(observations ? { observations } : {}),
+  })
+}
+
+const times = Array.from({ length: 25 }, (_, i) => 2020.5 + i)
+const record = (rate: number): ObservationsInput => ({
+  times,
+  rise: times.map(t => rate * (t - 2020)),
+  residualSd: 0.01,
+  phi: 0.3,
+})
+
+function document(result: ReturnType<typeof outlook>, language: 'en' | 'es' = 'en') {
+  const source: BriefingSource = {
+    language,
+    units: 'm',
+    title: 'Test',
+    audience: '',
+    localContext: '',
+    version: 1,
+    previousVersion: null,
+    issuedAt: null,
+    livePath: '/briefings/x',
+    illustrative: false,
+    organisation: 'Testport Council',
+    author: null,
+    site: {
+      name: 'Testport',
+      referenceLevel: 'MSL 2020',
+      landMotionRate: 0,
+      landMotionSigma: 0,
+      landMotionSource: 'gps',
+      landMotionReference: 'Station T',
+      landMotionEpoch: 2020,
+      datumKind: 'mean-sea-level',
+      datumOffset: 0,
+      referenceEpoch: 2020,
+    },
+    thresholds: [{ id: 't1', label: 'Quay', height: 0.5, kind: 'mean-sea-level' }],
+    years: [2100],
+    outlooks: [
+      { scenario: 'SSP2-4.5', inputHash: 'abc', samples: 8192, seed: 5, correlated: false, result, releaseRefs: [] },
+    ],
+  }
+  return buildBriefingDocument(source)
+}
+
+describe('the briefing section on the outlook updated by a gauge record', () => {
+  it('is absent when the outlook was not weighted', () => {
+    expect(document(outlook()).observationUpdate).toBeUndefined()
+  })
+
+  it('sets the updated range and chances beside the outlook\'s, with method, assumptions and limits', () => {
+    // 4 mm/yr observed: slower than the outlook's median 6.25 mm/yr, so the updated range is lower.
+    const section = document(outlook(record(0.004))).observationUpdate!
+    expect(section.title).toMatch(/updated by the tide-gauge record/)
+    expect(section.lines[0]).toMatch(/recorded 25 values from 2020 to 2044/)
+    expect(section.lines[1]).toMatch(/^In 2100, the likely range of rise \(17–83 %\) is .* in the outlook and .* updated/)
+    expect(section.lines[2]).toMatch(/^Quay \(0\.50 m\): the chance .* in 2100 is .* in the outlook and .* updated/)
+    expect(section.lines[3]).toMatch(/^Quay: the first year its chance reaches 10\s%/)
+    expect(section.method.join(' ')).toMatch(/likelihood weighting.*Assumptions:.*Limits:/s)
+    expect(document(outlook(record(0.004)), 'es').observationUpdate!.title).toMatch(/mareógrafo/)
+  })
+
+  it('says the update was refused, with no updated numbers, when the record is far from every trajectory', () => {
+    const section = document(outlook(record(0.05))).observationUpdate!
+    expect(section.lines).toHaveLength(1)
+    expect(section.lines[0]).toMatch(/^No update is given/)
+  })
+})
