@@ -15,7 +15,7 @@ function refusal(statusCode: number, message: string) {
 
 async function mountForm(send: (password: string) => Promise<unknown>) {
   return mountSuspended(AccountPasswordForm, {
-    props: { intro: 'Choose a password.', submitLabel: 'Set password', workingLabel: 'Setting…', send },
+    props: { words: 'account.reset' as const, send },
   })
 }
 
@@ -32,7 +32,9 @@ describe('AccountPasswordForm', () => {
   it('sends a password that passes the checks, once, and says it is done', async () => {
     const send = vi.fn(async () => {})
     const form = await mountForm(send)
-    expect(form.text()).toContain('Choose a password.')
+    // The reset page's words (locales/en/mail.json, account.reset).
+    expect(form.find('button').text()).toBe('Save the new password')
+    expect(form.text()).toContain('The link works once.')
     await fill(form, GOOD)
     expect(send).toHaveBeenCalledExactlyOnceWith(GOOD)
     expect(form.emitted('done')).toHaveLength(1)
