@@ -1,12 +1,17 @@
+import { languageOf, translator } from '#shared/wording/translate'
+import { uploadIssueMessage } from '#shared/wording/uploads'
 import { issuePath, issueRule, valueAt, type IssueRule } from '~/utils/issueRules'
 import type { FieldIssue } from '~/utils/releaseDraft'
 
 /** The visible label of the field an issue names (its code and its path into the body), or '' for none. */
 export type FieldLabel = (field: string, path: string[]) => string
 
-/** The API's issue in the reader's words: the field's label, and the rule's message in their language. */
+/**
+ * The API's issue in the reader's words: the field's label, and the message in their language (an
+ * uploaded file's issue from its facts, a common rule from the field's value, else the API's text).
+ */
 export function useIssueWording(label: FieldLabel) {
-  const { t, n } = useI18n()
+  const { t, n, locale } = useI18n()
   const units: Record<string, () => string> = {
     'degrees': () => '°',
     'm': () => ' m',
@@ -28,10 +33,12 @@ export function useIssueWording(label: FieldLabel) {
 
   return (issue: FieldIssue, body: unknown): FieldIssue => {
     const path = issuePath(issue.field)
-    const rule = issueRule(issue.message, valueAt(body, path))
-    const message = rule
-      ? t(`issues.${rule.rule}`, { limit: shown(rule) })
-      : issue.message.charAt(0).toUpperCase() + issue.message.slice(1)
+    const rule = issue.code ? undefined : issueRule(issue.message, valueAt(body, path))
+    const message = issue.code
+      ? uploadIssueMessage(translator(languageOf(locale.value)), { code: issue.code, params: issue.params })
+      : rule
+        ? t(`issues.${rule.rule}`, { limit: shown(rule) })
+        : issue.message.charAt(0).toUpperCase() + issue.message.slice(1)
     return { field: issue.field, label: label(issue.field, path), message }
   }
 }

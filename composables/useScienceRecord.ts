@@ -10,12 +10,27 @@ const SCIENCE_RECORDS = {
 } as const
 export type ScienceRecordKind = keyof typeof SCIENCE_RECORDS
 
+/** What the header of every science record's page shows of it, besides its title and subject. */
+interface ReviewedRecord {
+  id: string
+  version: number
+  state: string
+  actions: ReviewAction[]
+  withdrawalReason?: string | null
+  reviewNote?: string | null
+}
+
 /**
  * A science record's detail page: the record (a missing or hidden one is the error page, as the API
- * answered), and what happens after a review action: a notice saying what was done, and the record
- * and its library list fetched again.
+ * answered), the props of its `<ScienceRecordHeader>` (`about` gives the title and subject line), and
+ * what happens after a review action: a notice in the header saying what was done, and the record and
+ * its library list fetched again.
  */
-export async function useScienceRecord<Item>(kind: ScienceRecordKind, id: MaybeRefOrGetter<string>) {
+export async function useScienceRecord<Item extends ReviewedRecord>(
+  kind: ScienceRecordKind,
+  id: MaybeRefOrGetter<string>,
+  about: (record: Item) => { title: string, subject: string },
+) {
   const { t } = useI18n()
   const refreshData = useRefreshData()
   const { api, list } = SCIENCE_RECORDS[kind]
@@ -29,5 +44,13 @@ export async function useScienceRecord<Item>(kind: ScienceRecordKind, id: MaybeR
     notice.value = t(`review.done.${action}`)
     await refreshData([key.value, list])
   }
-  return { record, notice, reviewed }
+  const header = computed(() => {
+    // useFetch types the data of a generic Item as a Pick of it.
+    const shown = record.value as Item | undefined
+    if (!shown) return null
+    const { version, state, actions, withdrawalReason, reviewNote } = shown
+    const base = `${api}/${shown.id}`
+    return { kind, ...about(shown), version, state, actions, withdrawalReason, reviewNote, base, notice: notice.value }
+  })
+  return { record, header, reviewed }
 }

@@ -1,4 +1,5 @@
 import type { AmountUnit, ReleaseForm } from '#shared/types/science'
+import type { WordParams } from '#shared/wording/translate'
 import { releaseCsv } from '#shared/releases/export'
 
 // The release editor's model. Numbers are kept as the text typed, so a half-typed value is never
@@ -29,8 +30,11 @@ export interface DraftModel {
   licence: string
 }
 
-/** An API issue; `label`, once the client has worded it, is the field's visible label ('' for none). */
-export interface FieldIssue { field: string, message: string, label?: string }
+/**
+ * An API issue; `label`, once the client has worded it, is the field's visible label ('' for none).
+ * An uploaded file's issues carry their facts too (`code`, `params`: shared/wording/uploads.ts).
+ */
+export interface FieldIssue { field: string, message: string, label?: string, code?: string, params?: WordParams }
 
 const PER_ANCHOR = ['mean', 'sd', 'shift', 'mu', 'sigma'] as const
 const DEFAULT_LEVELS = ['0.05', '0.17', '0.5', '0.83', '0.95']

@@ -5,7 +5,7 @@ import { outlooks, sites } from '~~/server/db/schema'
 import { storylineBasis, type StorylineBasis } from '#shared/storylines/rise'
 import type { CurrentUser } from '../utils/auth'
 import { preparedQuery } from '../utils/prepared-query'
-import { sharedReads } from '../utils/shared-reads'
+import { recentReads } from '../utils/recent-reads'
 import {
   acceptsGzip,
   gzipJsonBytes,
@@ -101,7 +101,10 @@ export function loadOutlook(id: string): Promise<ReadableOutlook | undefined> {
   return load
 }
 
-/** What a reader needs of an outlook's site: who owns it, and the fields shown beside the outlook. */
+/**
+ * What a reader needs of an outlook's site: who owns it, and the fields shown beside the outlook. Only
+ * GET routes read outlooks, so a read of the last moment will do (server/utils/recent-reads.ts).
+ */
 const siteQuery = preparedQuery(db =>
   db
     .select({ name: sites.name, organisationId: sites.organisationId, referenceLevel: sites.referenceLevel })
@@ -109,7 +112,7 @@ const siteQuery = preparedQuery(db =>
     .where(eq(sites.id, sql.placeholder('siteId')))
     .prepare('outlook_site'),
 )
-const siteOfOutlook = sharedReads(async (siteId: string) => {
+const siteOfOutlook = recentReads(async (siteId: string) => {
   const [site] = await (await siteQuery()).execute({ siteId })
   return site
 })

@@ -1,10 +1,13 @@
 import { storylineRise, type StorylineBasis } from '#shared/storylines/rise'
 import type { BriefingStoryline } from '#shared/briefing/document'
 import { publishedStorylines } from '../services/science-records'
-import { sharedReads } from '../utils/shared-reads'
+import { recentReads } from '../utils/recent-reads'
 
-/** A crowd reading outlooks of one scenario shares one query for its storylines. */
-const storylinesOfScenario = sharedReads(publishedStorylines)
+/**
+ * A crowd reading outlooks of one scenario shares one query for its storylines every RECENT_READ_MS;
+ * a storyline published through this instance is seen at once.
+ */
+const storylinesOfScenario = recentReads(publishedStorylines)
 
 /** A storyline as a briefing places it, with its id for the page's links. */
 export interface OutlookStoryline extends BriefingStoryline { id: string }

@@ -11,7 +11,7 @@ import {
 import type { AdoptionInput } from '#shared/schemas/adoptions'
 import { COMPONENTS } from '#shared/types/science'
 import type { CurrentUser } from '../utils/auth'
-import { sharedReads } from '../utils/shared-reads'
+import { forgetRecentReads, recentReads } from '../utils/recent-reads'
 
 // The science an organisation adopted for its outlooks: per scenario, one series of releases per
 // component and whose correlation sets (or none). New versions in an adopted series flow in; any
@@ -99,8 +99,12 @@ export async function adoptionOf(organisationId: string, scenario: string) {
   return { series: new Map(rows.map(row => [row.component, row])), correlation }
 }
 
-/** The same, shared between concurrent outlook reads (key: organisation id and scenario). */
-export const adoptedForReading = sharedReads(async (key: string) => {
+/**
+ * The same with the scenario's published series, for the outlook status that a crowd polls: read once
+ * every RECENT_READ_MS (key: organisation id and scenario); a publication or an adoption through this
+ * instance is seen at once (server/utils/recent-reads.ts).
+ */
+export const adoptedForReading = recentReads(async (key: string) => {
   const [organisationId, scenario] = key.split('\n') as [string, string]
   const [adoption, published] = await Promise.all([adoptionOf(organisationId, scenario), publishedSeries(scenario)])
   return {
@@ -159,6 +163,8 @@ export async function ensureAdoption(organisationId: string, scenario: string) {
       )
     }
   })
+  // Also runs in background recomputations, where no finished request drops what status reads keep.
+  forgetRecentReads()
 }
 
 const describeSeries = (row: Pick<PublishedSeries, 'title' | 'organisationName'>) =>

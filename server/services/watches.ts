@@ -146,10 +146,16 @@ async function siteName(siteId: string) {
   return site!.name
 }
 
-/** What a confirmation link would start, without starting it (the page shows it before the press). */
-export async function describeConfirmLink(token: string) {
+/**
+ * What an e-mailed watch link is about, before the reader presses: the site, the address, and whether
+ * the watch is already stopped. Both links answer this one shape, so their page reads either alike.
+ */
+export interface WatchLinkAbout { site: string, email: string, stopped: boolean }
+
+/** What a confirmation link would start, without starting it (a pending watch is never stopped). */
+export async function describeConfirmLink(token: string): Promise<WatchLinkAbout> {
   const watch = await pendingWatch(token)
-  return { site: await siteName(watch.siteId), email: watch.email }
+  return { site: await siteName(watch.siteId), email: watch.email, stopped: false }
 }
 
 export async function confirmWatch(token: string) {
@@ -163,7 +169,7 @@ export async function confirmWatch(token: string) {
 }
 
 /** What an unsubscribe link would stop, and whether it already is stopped, without stopping it. */
-export async function describeUnsubscribeLink(token: string) {
+export async function describeUnsubscribeLink(token: string): Promise<WatchLinkAbout> {
   const db = await useDb()
   const [watch] = await db.select().from(watches).where(eq(watches.unsubscribeToken, token))
   if (!watch) throw createError({ statusCode: 404, message: 'This unsubscribe link is not valid; copy the whole link from the e-mail.' })

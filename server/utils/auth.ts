@@ -5,20 +5,24 @@ import type { Database } from '~~/server/db/client'
 import type { Role } from '#shared/types/roles'
 import type { SessionUser } from '#shared/types/user'
 import { preparedQuery } from './prepared-query'
+import { recentReads } from './recent-reads'
 import { sharedReads } from './shared-reads'
 import { languageOf } from '#shared/wording/translate'
 
 export type CurrentUser = SessionUser
 
 /**
- * Who is asking, re-read from the database on every call: a user disabled or given another
- * role a moment ago is treated as they are now, not as their session cookie remembers.
+ * Who is asking, as the database has them now, not as their session cookie remembers: a user disabled
+ * or given another role a moment ago is treated as they are now. A request that may write reads the
+ * row afresh; a GET may take one read in the last RECENT_READ_MS, which any write through this
+ * instance drops at once (server/middleware/02.writes-forget-reads.ts), so only a change made through
+ * another instance can take that long to reach a GET here.
  */
 export async function requireUser(event: H3Event): Promise<CurrentUser> {
-  const session = await getUserSession(event)
-  const id = session.user?.id
+  const session = await sessionClaim(event)
+  const id = session.userId
   if (!id) throw createError({ statusCode: 401, message: 'Sign in to continue.' })
-  const row = await loadSessionRow(id)
+  const row = await sessionRowFor(event, id)
   if (!row) {
     await clearUserSession(event)
     throw createError({
@@ -39,9 +43,9 @@ export async function requireUser(event: H3Event): Promise<CurrentUser> {
 
 /** The signed-in user, or null for anyone else (public routes that show more to members). */
 export async function optionalUser(event: H3Event): Promise<CurrentUser | null> {
-  const session = await getUserSession(event)
-  const id = session.user?.id
-  const row = id ? await loadSessionRow(id) : undefined
+  const session = await sessionClaim(event)
+  const id = session.userId
+  const row = id ? await sessionRowFor(event, id) : undefined
   return row && row.generation === session.generation ? row.user : null
 }
 
@@ -135,17 +139,42 @@ const sessionUserQuery = preparedQuery(db => db.select({
   .where(eq(users.id, sql.placeholder('id')))
   .prepare('session_user'))
 
+/** Whom a request's session cookie names, and the session generation it was signed in under. */
+interface SessionClaim { userId?: string, generation?: number }
+
+async function unsealedClaim(event: H3Event): Promise<SessionClaim> {
+  const session = await getUserSession(event)
+  return { userId: session.user?.id, generation: session.generation }
+}
+
 /**
- * The signed-in user's row and session generation; undefined when missing or disabled (concurrent calls share a query).
+ * A GET request's session cookie, unsealed once every RECENT_READ_MS per cookie: unsealing (two key
+ * derivations, a MAC check and a decryption) cost a crowd's 304s more than the rest of the answer
+ * (`npm run load`). Kept by the whole sealed value, which only this server can make, so the claim is
+ * the one unsealing would give; a cookie may outlive its 12 hours by that moment at most, and a session
+ * ended meanwhile is still refused by its generation.
  */
-const loadSessionRow = sharedReads(
-  async (id: string): Promise<{ user: CurrentUser, generation: number } | undefined> => {
-    const [row] = await (await sessionUserQuery()).execute({ id })
-    if (!row || row.disabled) return undefined
-    const { disabled: _disabled, generation, ...user } = row
-    return { user: { ...user, locale: languageOf(user.locale) }, generation }
-  },
-)
+const recentClaim = recentReads((_sealed: string, event: H3Event) => unsealedClaim(event))
+
+const readOnly = (event: H3Event) => event.method === 'GET' || event.method === 'HEAD'
+
+function sessionClaim(event: H3Event): Promise<SessionClaim> {
+  const sealed = readOnly(event) ? getCookie(event, useRuntimeConfig(event).session.name!) : undefined
+  return sealed ? recentClaim(sealed, event) : unsealedClaim(event)
+}
+
+/** The signed-in user's row and session generation; undefined when missing or disabled. */
+async function readSessionRow(id: string): Promise<{ user: CurrentUser, generation: number } | undefined> {
+  const [row] = await (await sessionUserQuery()).execute({ id })
+  if (!row || row.disabled) return undefined
+  const { disabled: _disabled, generation, ...user } = row
+  return { user: { ...user, locale: languageOf(user.locale) }, generation }
+}
+/** For requests that may write: fresh, though concurrent calls share a query. */
+const loadSessionRow = sharedReads(readSessionRow)
+/** For GET requests: one read every RECENT_READ_MS for a crowd of readers. */
+const recentSessionRow = recentReads(readSessionRow)
+const sessionRowFor = (event: H3Event, id: string) => (readOnly(event) ? recentSessionRow(id) : loadSessionRow(id))
 
 /** The user's row as routes see it; undefined when missing or disabled. */
 export const loadSessionUser = async (id: string) => (await loadSessionRow(id))?.user

@@ -1,4 +1,5 @@
 import { CsvError, readGrid, type CsvIssue } from '../releases/csv'
+import { uploadIssue as issue } from '../wording/uploads'
 import { withoutControls } from '../schemas/text'
 import type { GaugePoint, GaugeResolution } from './gauge-trend'
 
@@ -33,11 +34,10 @@ export interface GaugeRecord {
 function unitAdvice(heights: number[]): string {
   const sizes = heights.map(Math.abs).sort((a, b) => a - b)
   const typical = sizes[Math.floor(sizes.length / 2)] ?? 0
-  if (typical > 2000) return 'these look like millimetres: divide by 1000.'
-  if (typical > 200)
-    return 'these look like millimetres or centimetres: divide by 1000 if millimetres, by 100 if centimetres.'
-  if (typical > 20) return 'these look like centimetres: divide by 100.'
-  return 'enter the mean sea level in metres above the site\'s datum, and check this value for a typing error.'
+  if (typical > 2000) return 'millimetres'
+  if (typical > 200) return 'millimetresOrCentimetres'
+  if (typical > 20) return 'centimetres'
+  return 'checkMean'
 }
 
 function readHeader(header: string[]): { resolution: GaugeResolution, hasFlag: boolean } {
@@ -52,12 +52,7 @@ function readHeader(header: string[]): { resolution: GaugeResolution, hasFlag: b
       return { resolution: columns.length === 2 ? 'annual' : 'monthly', hasFlag: names.length > columns.length }
     }
   }
-  throw new CsvError([
-    {
-      field: 'csv header',
-      message: `The header must be "year,height" (annual means) or "year,month,height" (monthly means), optionally followed by ",flag"; got "${header.join(',')}".`,
-    },
-  ])
+  throw new CsvError([issue('csv header', 'gaugeHeader', { header: header.join(',') })])
 }
 
 function label(value: { year: number, month: number | null }): string {
@@ -94,15 +89,13 @@ export function parseGaugeRecordCsv(text: string): GaugeRecord {
   const columns = header!.map(cell => cell.toLowerCase())
   const issues: CsvIssue[] = []
   if (rows.length > MAX_GAUGE_VALUES) {
-    throw new CsvError([
-      { field: 'csv', message: `At most ${MAX_GAUGE_VALUES} values (300 years of monthly means), got ${rows.length}.` },
-    ])
+    throw new CsvError([issue('csv', 'tooManyValues', { max: MAX_GAUGE_VALUES, count: rows.length })])
   }
   const values: GaugeValue[] = []
   rows.forEach((row, r) => {
     const at = `csv row ${r + 2}`
     if (row.length < columns.length - (hasFlag ? 1 : 0) || row.length > columns.length) {
-      issues.push({ field: at, message: `Has ${row.length} cells but the header has ${columns.length}.` })
+      issues.push(issue(at, 'cellCount', { cells: row.length, columns: columns.length }))
       return
     }
     const year = Number(row[0])
@@ -111,23 +104,15 @@ export function parseGaugeRecordCsv(text: string): GaugeRecord {
     const height = heightCell === '' ? Number.NaN : Number(heightCell)
     // Flags are text a person typed: the same rule as every text field (no control characters).
     const flag = hasFlag ? withoutControls(row[columns.length - 1] ?? '').slice(0, 40) || null : null
-    if (!/^\d{4}$/.test(row[0]!) || year < FIRST_YEAR || year > LAST_YEAR) {
-      issues.push({
-        field: `${at}, column year`,
-        message: `"${row[0]}" is not a year between ${FIRST_YEAR} and ${LAST_YEAR}; enter the whole year, like 1998.`,
-      })
-    }
-    if (month !== null && !(Number.isInteger(month) && month >= 1 && month <= 12)) {
-      issues.push({ field: `${at}, column month`, message: `"${row[1]}" is not a month; enter 1 to 12.` })
-    }
+    if (!/^\d{4}$/.test(row[0]!) || year < FIRST_YEAR || year > LAST_YEAR)
+      issues.push(issue(`${at}, column year`, 'notYear', { cell: row[0]!, first: FIRST_YEAR, last: LAST_YEAR }))
+    if (month !== null && !(Number.isInteger(month) && month >= 1 && month <= 12))
+      issues.push(issue(`${at}, column month`, 'notMonth', { cell: row[1]! }))
     if (!Number.isFinite(height)) {
-      issues.push({
-        field: `${at}, column height`,
-        message:
-          heightCell === ''
-            ? 'Is empty; leave the row out for a missing value, or enter the height in metres.'
-            : `"${heightCell.slice(0, 40)}" is not a number.`,
-      })
+      const field = `${at}, column height`
+      issues.push(
+        heightCell === '' ? issue(field, 'emptyHeight') : issue(field, 'notNumber', { cell: heightCell.slice(0, 40) }),
+      )
     }
     values.push({ year, month, height, flag })
   })
@@ -139,18 +124,13 @@ export function parseGaugeRecordCsv(text: string): GaugeRecord {
     const at = `csv row ${r + 2}`
     const previous = seen.get(index(value))
     if (previous !== undefined) {
-      issues.push({
-        field: `${at}, column year`,
-        message: `${label(value)} is also on row ${previous}; give one value per ${resolution === 'annual' ? 'year' : 'month'}.`,
-      })
+      const code = resolution === 'annual' ? 'yearAgain' : 'monthAgain'
+      issues.push(issue(`${at}, column year`, code, { time: label(value), row: previous }))
     }
     seen.set(index(value), r + 2)
     const { min, max } = GAUGE_HEIGHT_BOUNDS
     if (!(value.height >= min && value.height <= max)) {
-      issues.push({
-        field: `${at}, column height`,
-        message: `${value.height} is outside ${min} to ${max} m above the site's datum; ${advice}`,
-      })
+      issues.push(issue(`${at}, column height`, 'outside', { value: String(value.height), min, max, advice }))
     }
   })
   if (issues.length) throw new CsvError(issues.slice(0, MAX_ISSUES))

@@ -1,5 +1,6 @@
 import { EngineInputError } from '../engine/errors'
 import { fitGumbelWithTrend, type TrendGumbelFit } from '../engine/gumbel-trend'
+import { uploadIssue as issue } from '../wording/uploads'
 import { CsvError, parseNumberGrid, type CsvIssue } from './csv'
 
 /**
@@ -32,10 +33,10 @@ export interface AnnualMaximaFit { maxima: { year: number, value: number }[], fi
 function unitAdvice(values: number[]): string {
   const sizes = values.map(Math.abs).sort((a, b) => a - b)
   const typical = sizes[Math.floor(sizes.length / 2)]!
-  if (typical > 2000) return 'these look like millimetres: divide by 1000.'
-  if (typical > 200) return 'these look like centimetres: divide by 100 (or by 1000 if they are millimetres).'
-  if (typical > 20) return 'these look like centimetres: divide by 100.'
-  return 'enter the level in metres above the site\'s datum, and check this value for a typing error.'
+  if (typical > 2000) return 'millimetres'
+  if (typical > 200) return 'centimetresOrMillimetres'
+  if (typical > 20) return 'centimetres'
+  return 'checkMaximum'
 }
 
 function rowIssues(rows: number[][]): CsvIssue[] {
@@ -45,22 +46,12 @@ function rowIssues(rows: number[][]): CsvIssue[] {
   const advice = unitAdvice(rows.map(([, value]) => value!))
   rows.forEach(([year, value], r) => {
     const row = `csv row ${r + 2}`
-    if (!Number.isInteger(year) || year! < FIRST_YEAR || year! > LAST_YEAR) {
-      issues.push({
-        field: `${row}, column year`,
-        message: `"${year}" is not a year between ${FIRST_YEAR} and ${LAST_YEAR}; enter the whole year, like 1998.`,
-      })
-    }
-    else if (seen.has(year!)) {
-      issues.push({ field: `${row}, column year`, message: `${year} appears twice; give one maximum per year.` })
-    }
+    if (!Number.isInteger(year) || year! < FIRST_YEAR || year! > LAST_YEAR)
+      issues.push(issue(`${row}, column year`, 'notYear', { cell: String(year), first: FIRST_YEAR, last: LAST_YEAR }))
+    else if (seen.has(year!)) issues.push(issue(`${row}, column year`, 'maximumTwice', { year: year! }))
     seen.add(year!)
-    if (!(value! >= min && value! <= max)) {
-      issues.push({
-        field: `${row}, column value`,
-        message: `${value} is outside ${min} to ${max} m above the site's datum; ${advice}`,
-      })
-    }
+    if (!(value! >= min && value! <= max))
+      issues.push(issue(`${row}, column value`, 'outside', { value: String(value), min, max, advice }))
   })
   return issues
 }
@@ -72,16 +63,11 @@ function rowIssues(rows: number[][]): CsvIssue[] {
 export function fitAnnualMaximaCsv(text: string, referenceEpoch: number): AnnualMaximaFit {
   const { header, rows } = parseNumberGrid(text)
   if (header.length !== 2 || header[0]!.toLowerCase() !== 'year' || header[1]!.toLowerCase() !== 'value') {
-    throw new CsvError([
-      { field: 'csv header', message: `The header must be "year,value", got "${header.join(',')}".` },
-    ])
+    throw new CsvError([issue('csv header', 'maximaHeader', { header: header.join(',') })])
   }
   const issues = rowIssues(rows).slice(0, MAX_ROW_ISSUES)
   if (rows.length < MIN_ANNUAL_MAXIMA_YEARS) {
-    issues.push({
-      field: 'csv',
-      message: `At least ${MIN_ANNUAL_MAXIMA_YEARS} years of annual maxima are needed, got ${rows.length}: a trend and a scale from fewer years are too uncertain to plan with. Add earlier years from the gauge's archive, or enter the Gumbel location and scale by hand.`,
-    })
+    issues.push(issue('csv', 'tooFewYears', { min: MIN_ANNUAL_MAXIMA_YEARS, count: rows.length }))
   }
   if (issues.length) throw new CsvError(issues)
 
@@ -94,10 +80,12 @@ export function fitAnnualMaximaCsv(text: string, referenceEpoch: number): Annual
     || referenceEpoch > lastYear + MAX_EPOCH_DISTANCE_YEARS
   ) {
     throw new CsvError([
-      {
-        field: 'reference epoch',
-        message: `The site's reference epoch (${referenceEpoch}) must be within ${MAX_EPOCH_DISTANCE_YEARS} years of the record (${firstYear}–${lastYear}); a trend carried further than that is not a fit to plan with. Check the site's reference epoch and the years in the file.`,
-      },
+      issue('reference epoch', 'epochFar', {
+        epoch: referenceEpoch,
+        years: MAX_EPOCH_DISTANCE_YEARS,
+        first: firstYear,
+        last: lastYear,
+      }),
     ])
   }
 
@@ -107,7 +95,7 @@ export function fitAnnualMaximaCsv(text: string, referenceEpoch: number): Annual
   }
   catch (error) {
     if (!(error instanceof EngineInputError)) throw error
-    throw new CsvError(error.issues.map(issue => ({ field: 'csv', message: `No Gumbel fit: ${issue.message}.` })))
+    throw new CsvError(error.issues.map(problem => ({ field: 'csv', message: `No Gumbel fit: ${problem.message}.` })))
   }
   if (
     !(fit.scale > 0)
@@ -115,12 +103,7 @@ export function fitAnnualMaximaCsv(text: string, referenceEpoch: number): Annual
     || !Number.isFinite(fit.location)
     || !Number.isFinite(fit.trendPerYear)
   ) {
-    throw new CsvError([
-      {
-        field: 'csv',
-        message: `No Gumbel fit: the fitted scale came out as ${fit.scale} m; check the values for a unit mix-up or an outlier.`,
-      },
-    ])
+    throw new CsvError([issue('csv', 'scaleUnfit', { scale: fit.scale })])
   }
   return { maxima, fit, sampleSize: maxima.length }
 }

@@ -1,10 +1,13 @@
 import Papa from 'papaparse'
+import { uploadIssue as issue } from '../wording/uploads'
+import type { WordParams } from '../wording/translate'
 import { CSV_MAX_BYTES, MAX_ANCHOR_YEARS, MAX_QUANTILE_LEVELS, MAX_UPLOADED_DRAWS } from './limits'
 
 // Parsing of uploaded tables. Every refusal names the row and column to fix; rows are counted
-// as a spreadsheet shows them (the header is row 1).
+// as a spreadsheet shows them (the header is row 1). Each issue carries its facts (`code`, `params`:
+// shared/wording/uploads.ts) so a page words it in the reader's language, and English for the API.
 
-export interface CsvIssue { field: string, message: string }
+export interface CsvIssue { field: string, message: string, code?: string, params?: WordParams }
 
 export class CsvError extends Error {
   constructor(readonly issues: CsvIssue[]) {
@@ -17,21 +20,13 @@ const MAX_ISSUES = 10
 
 export function readGrid(text: string): string[][] {
   if (new TextEncoder().encode(text).length > CSV_MAX_BYTES) {
-    throw new CsvError([
-      {
-        field: 'csv',
-        message: `The file is larger than ${CSV_MAX_BYTES / 1024 / 1024} MB. Split it or thin the draws.`,
-      },
-    ])
+    throw new CsvError([issue('csv', 'tooLarge', { mb: CSV_MAX_BYTES / 1024 / 1024 })])
   }
   const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ''), { skipEmptyLines: 'greedy' })
   const fatal = parsed.errors.find(error => error.type === 'Quotes')
   if (fatal)
-    throw new CsvError([
-      { field: `csv row ${(fatal.row ?? 0) + 1}`, message: `${fatal.message}. Check the quotes on this row.` },
-    ])
-  if (parsed.data.length < 2)
-    throw new CsvError([{ field: 'csv', message: 'Needs a header row and at least one row of values.' }])
+    throw new CsvError([issue(`csv row ${(fatal.row ?? 0) + 1}`, 'quotes')])
+  if (parsed.data.length < 2) throw new CsvError([issue('csv', 'needsRows')])
   return parsed.data.map(row => row.map(cell => cell.trim()))
 }
 
@@ -39,19 +34,15 @@ function headerYears(cells: string[], field: string): number[] {
   const issues: CsvIssue[] = []
   const years = cells.map((cell, i) => {
     const year = Number(cell)
-    if (!/^\d{4}$/.test(cell))
-      issues.push({
-        field,
-        message: `Column ${i + 1} is "${cell}"; every year column must be headed by a four-digit year, like 2100.`,
-      })
+    if (!/^\d{4}$/.test(cell)) issues.push(issue(field, 'yearColumn', { column: i + 1, cell }))
     return year
   })
   for (let i = 1; i < years.length && !issues.length; i++) {
     if (years[i]! <= years[i - 1]!)
-      issues.push({ field, message: `Years must increase from left to right: ${years[i]} follows ${years[i - 1]}.` })
+      issues.push(issue(field, 'yearsIncrease', { year: years[i]!, previous: years[i - 1]! }))
   }
   if (years.length > MAX_ANCHOR_YEARS)
-    issues.push({ field, message: `At most ${MAX_ANCHOR_YEARS} anchor years, got ${years.length}.` })
+    issues.push(issue(field, 'tooManyYears', { max: MAX_ANCHOR_YEARS, count: years.length }))
   if (issues.length) throw new CsvError(issues)
   return years
 }
@@ -59,19 +50,14 @@ function headerYears(cells: string[], field: string): number[] {
 /** Numbers of one data row, or issues naming each bad cell. */
 function rowNumbers(row: string[], rowNumber: number, columns: string[], issues: CsvIssue[]): number[] {
   if (row.length !== columns.length) {
-    issues.push({
-      field: `csv row ${rowNumber}`,
-      message: `Has ${row.length} cells but the header has ${columns.length}.`,
-    })
+    issues.push(issue(`csv row ${rowNumber}`, 'cellCount', { cells: row.length, columns: columns.length }))
     return []
   }
   return row.map((cell, c) => {
     const value = cell === '' ? Number.NaN : Number(cell)
     if (!Number.isFinite(value)) {
-      issues.push({
-        field: `csv row ${rowNumber}, column ${columns[c]}`,
-        message: cell === '' ? 'Is empty; enter a number.' : `"${cell.slice(0, 40)}" is not a finite number.`,
-      })
+      const field = `csv row ${rowNumber}, column ${columns[c]}`
+      issues.push(cell === '' ? issue(field, 'emptyCell') : issue(field, 'notFinite', { cell: cell.slice(0, 40) }))
     }
     return value
   })
@@ -95,18 +81,11 @@ export interface QuantileTable { anchorYears: number[], levels: number[], values
 export function parseQuantileCsv(text: string): QuantileTable {
   const [header, ...rows] = readGrid(text)
   if (header![0]!.toLowerCase() !== 'level') {
-    throw new CsvError([
-      {
-        field: 'csv header',
-        message: `The first column must be headed "level" (probability levels), got "${header![0]}".`,
-      },
-    ])
+    throw new CsvError([issue('csv header', 'levelHeader', { cell: header![0]! })])
   }
   const anchorYears = headerYears(header!.slice(1), 'csv header')
   if (rows.length > MAX_QUANTILE_LEVELS)
-    throw new CsvError([
-      { field: 'csv', message: `At most ${MAX_QUANTILE_LEVELS} probability levels, got ${rows.length}.` },
-    ])
+    throw new CsvError([issue('csv', 'tooManyLevels', { max: MAX_QUANTILE_LEVELS, count: rows.length })])
   const issues: CsvIssue[] = []
   const columns = header!
   const table = rows.map((row, r) => rowNumbers(row, r + 2, columns, issues))
@@ -123,12 +102,7 @@ export function parseDrawsCsv(text: string): DrawTable {
   const [header, ...rows] = readGrid(text)
   const anchorYears = headerYears(header!, 'csv header')
   if (rows.length > MAX_UPLOADED_DRAWS) {
-    throw new CsvError([
-      {
-        field: 'csv',
-        message: `At most ${MAX_UPLOADED_DRAWS.toLocaleString('en')} draws, got ${rows.length.toLocaleString('en')}. Thin the draws evenly.`,
-      },
-    ])
+    throw new CsvError([issue('csv', 'tooManyDraws', { max: MAX_UPLOADED_DRAWS, count: rows.length })])
   }
   const issues: CsvIssue[] = []
   const draws: number[][] = []

@@ -1,3 +1,4 @@
+import { uploadIssue as issue } from '../wording/uploads'
 import { CsvError, parseNumberGrid } from './csv'
 
 // Scale-factor grids: how much of a component's global-mean rise is felt at each latitude and
@@ -72,18 +73,11 @@ export function gridWarnings(grid: ScaleFactorGrid): string[] {
 export function parseGridCsv(text: string): ScaleFactorGrid {
   const { header, rows } = parseNumberGrid(text)
   if (header[0]!.toLowerCase() !== 'latitude')
-    throw new CsvError([
-      { field: 'csv header', message: `The first column must be headed "latitude", got "${header[0]}".` },
-    ])
+    throw new CsvError([issue('csv header', 'latitudeHeader', { cell: header[0]! })])
   const longitudes = header.slice(1).map((cell, i) => {
     const value = Number(cell)
     if (cell === '' || !Number.isFinite(value))
-      throw new CsvError([
-        {
-          field: 'csv header',
-          message: `Column ${i + 2} is "${cell}"; head each column with its longitude in degrees.`,
-        },
-      ])
+      throw new CsvError([issue('csv header', 'longitudeColumn', { column: i + 2, cell })])
     return value
   })
   return { latitudes: rows.map(row => row[0]!), longitudes, factors: rows.map(row => row.slice(1)) }

@@ -80,7 +80,7 @@ describe('watching a site by e-mail', () => {
     // Looking the link up names the site and the address and changes nothing: the watch still waits.
     const token = new URL(linkIn(mail, `${server.url}/watches/confirm?token=`)).searchParams.get('token')!
     const lookUp = () => new ApiClient(server.url).get(`/api/watches/confirm?token=${token}`)
-    expect((await lookUp()).body).toEqual({ site: 'Fennmouth', email: 'councillor@example.org' })
+    expect((await lookUp()).body).toEqual({ site: 'Fennmouth', email: 'councillor@example.org', stopped: false })
     expect((await lookUp()).status).toBe(200)
 
     const confirmed = await confirm(mail)

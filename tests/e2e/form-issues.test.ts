@@ -161,6 +161,16 @@ describe('the science forms, in the analyst\'s words', () => {
     await expect.poll(() => beside('grid-component').textContent()).toBe('')
     expect(await page.getByTestId('grid-form-error').count()).toBe(0)
     await speak('en')
+
+    // A bad cell of the file is named by row and column, and said in the reader's language too.
+    await page
+      .locator('#grid-file')
+      .setInputFiles({ name: 'grid.csv', mimeType: 'text/csv', buffer: Buffer.from('latitude,-40,-30\n40,1,abc\n') })
+    await page.getByRole('button', { name: 'Save draft' }).click()
+    await expect.poll(() => beside('grid-csv').textContent()).toContain('"abc" is not a finite number.')
+    await speak('es')
+    await expect.poll(() => beside('grid-csv').textContent()).toContain('«abc» no es un número finito.')
+    await speak('en')
   })
 })
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { axisNumberFormat } from '../../../composables/useChartStyle'
+import { axisNumberFormat } from '../../../utils/chartStyle'
 
 describe('chart axis numbers', () => {
   it('write a Spanish axis with a decimal comma and an English one with a point, grouped as the tables are', () => {

@@ -30,7 +30,8 @@ function issuesOf(run: () => unknown): { field: string, message: string }[] {
     run()
   }
   catch (error) {
-    if (error instanceof CsvError) return error.issues
+    // The field and its English words; the facts behind them are checked in tests/unit/wording/uploads.test.ts.
+    if (error instanceof CsvError) return error.issues.map(({ field, message }) => ({ field, message }))
     throw error
   }
   throw new Error('expected a CsvError')

@@ -5,7 +5,7 @@ import { causeSentence } from '#shared/wording/causes'
 import { formatMessage, translator } from '#shared/wording/translate'
 
 const LOCALES = new URL('../../../locales/', import.meta.url)
-const WORD_DOMAINS = ['chance', 'document', 'emails']
+const WORD_DOMAINS = ['chance', 'document', 'emails', 'uploads']
 
 /** Every key path of a JSON file, with "[]" for a list and its length. */
 function keysOf(value: unknown, path = ''): string[] {

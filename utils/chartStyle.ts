@@ -48,12 +48,6 @@ export function axisNumberFormat(locale: string) {
   return (value: number) => format.format(value)
 }
 
-/** The axis formatter for the page's language; years are labelled with their own formatter. */
-export function useAxisNumber() {
-  const { locale } = useI18n()
-  return (value: number) => axisNumberFormat(locale.value)(value)
-}
-
 /** The frame every outlook chart shares: no animation, the app's font, the description for screen readers. */
 export function chartFrame(description: string, extra: Record<string, unknown>) {
   return {
