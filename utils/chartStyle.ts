@@ -1,5 +1,5 @@
 import { maxOf, minOf } from '#shared/engine/arrays'
-import { niceAxis, niceYearAxis } from '#shared/charts/nice-axis'
+import { niceAxis, niceYearAxis, yearAxisLabel } from '#shared/charts/nice-axis'
 
 // Shared look of the outlook charts, in the app's palette (tailwind.config.ts). Text colours are the
 // dark dune and abyss shades, which keep AA contrast on the white cards.
@@ -60,17 +60,20 @@ export function chartFrame(description: string, extra: Record<string, unknown>) 
 }
 
 /**
- * A time axis from the first to the last year on round decades (2000 … 2150 by 50, never 2005 … 2150),
- * with few enough labels that four digits never touch on a phone.
+ * A time axis from the decade of the first year to that of the last (2020 … 2150 for an outlook from
+ * 2020), labelled on round steps (2050, 2100, 2150) so four digits never touch on a phone.
  */
 export function yearAxis(years: number[]) {
   // The first year starts at the corner rather than centred on it, clear of the value axis's 0.
+  const axis = niceYearAxis(minOf(years), maxOf(years))
   return chartAxis({
     type: 'value',
-    ...niceYearAxis(minOf(years), maxOf(years)),
+    min: axis.min,
+    max: axis.max,
+    interval: axis.interval,
     axisLabel: {
       color: CHART_COLOURS.text,
-      formatter: (year: number) => String(year),
+      formatter: yearAxisLabel(axis),
       alignMinLabel: 'left',
       alignMaxLabel: 'right',
     },

@@ -1,7 +1,7 @@
 import { fromMetres, type HeightUnit } from '../units'
 import type { BriefingDocument } from './document'
 import { BRIEFING_TEXT } from './text'
-import { niceAxis, niceYearAxis } from '../charts/nice-axis'
+import { niceAxis, niceYearAxis, yearAxisLabel } from '../charts/nice-axis'
 
 // ECharts options for a briefing's two charts, shared by the page (vue-echarts) and the PDF
 // (server-side SVG), so both draw the same thing. Plain objects: no ECharts import here.
@@ -61,6 +61,7 @@ export function fanChartOption(doc: BriefingDocument, fontFamily = 'Atkinson Hyp
   const text = BRIEFING_TEXT[doc.meta.language]
   const unit: HeightUnit = doc.meta.units
   const fan = doc.charts.fan
+  const years = niceYearAxis(fan.years[0]!, fan.years.at(-1)!)
   const u = (values: number[]) => values.map(v => fromMetres(v, unit))
   // Pairs of [year, value] on a value axis of years, so its ends can be round decades.
   const at = (values: number[]) => values.map((v, i) => [fan.years[i]!, v])
@@ -92,10 +93,12 @@ export function fanChartOption(doc: BriefingDocument, fontFamily = 'Atkinson Hyp
     },
     xAxis: {
       type: 'value',
-      ...niceYearAxis(fan.years[0]!, fan.years.at(-1)!),
+      min: years.min,
+      max: years.max,
+      interval: years.interval,
       axisLabel: {
         ...axisLabel,
-        formatter: (year: number) => String(year),
+        formatter: yearAxisLabel(years),
         alignMinLabel: 'left',
         alignMaxLabel: 'right',
       },

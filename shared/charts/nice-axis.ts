@@ -23,7 +23,38 @@ export function niceAxis(low: number, high: number, ticks = 5): NiceAxis {
   }
 }
 
-/** Years: fewer, wider steps (10, 20, 50 years) so four-digit labels never touch on a phone. */
-export function niceYearAxis(first: number, last: number): NiceAxis {
-  return niceAxis(first, last, 4)
+export interface YearAxis extends NiceAxis {
+  /** Labels stand on whole multiples of this step (10, 20, 50 or 100 years), plus the first year. */
+  labelStep: number
+}
+
+/**
+ * Years: the axis starts and ends on the decade of the first and last year (an outlook from 2020 starts
+ * at 2020, not at 2000), with a tick every 10 years or so; labels stand on wider round steps (2050,
+ * 2100, 2150) so four-digit labels never touch on a phone. ECharts places ticks at min + k·interval, so
+ * round labels need a tick step that divides both the start and the label step.
+ */
+export function niceYearAxis(first: number, last: number): YearAxis {
+  const labelStep = niceAxis(first, last, 4).interval
+  const tick = labelStep >= 50 ? labelStep / 5 : labelStep >= 20 ? labelStep / 2 : labelStep
+  return {
+    min: Math.floor(first / tick + 1e-9) * tick,
+    max: Math.ceil(last / tick - 1e-9) * tick,
+    interval: tick,
+    labelStep,
+  }
+}
+
+/**
+ * The label of a year on such an axis: both ends, and each whole label step at least 0.6 of a step from
+ * either end (so 2020 and 2050 both show, but 2140 never crowds 2150); '' elsewhere.
+ */
+export function yearAxisLabel(axis: YearAxis) {
+  const clear = 0.6 * axis.labelStep
+  return (year: number) =>
+    year === axis.min
+    || year === axis.max
+    || (year % axis.labelStep === 0 && year - axis.min >= clear && axis.max - year >= clear)
+      ? String(year)
+      : ''
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { niceAxis, niceYearAxis } from '../../../shared/charts/nice-axis'
+import { niceAxis, niceYearAxis, yearAxisLabel } from '../../../shared/charts/nice-axis'
 
 describe('nice axis bounds', () => {
   it('puts both ends on whole steps of 1, 2 or 5 times a power of ten', () => {
@@ -18,10 +18,18 @@ describe('nice axis bounds', () => {
     }
   })
 
-  it('gives years round decades and few labels', () => {
-    // [practice] an outlook from a 2005 epoch to 2150.
-    expect(niceYearAxis(2005, 2150)).toEqual({ min: 2000, max: 2150, interval: 50 })
-    expect(niceYearAxis(2020, 2100)).toEqual({ min: 2020, max: 2100, interval: 20 })
+  it('starts years at the first year\'s decade, with few labels on round steps', () => {
+    // [practice] an outlook from a 2020 epoch to 2150: no empty 2000–2020 stretch, labels every 50 years.
+    const outlook = niceYearAxis(2020, 2150)
+    expect(outlook).toEqual({ min: 2020, max: 2150, interval: 10, labelStep: 50 })
+    const ticks = Array.from({ length: (outlook.max - outlook.min) / outlook.interval + 1 }, (_, i) => 2020 + i * 10)
+    expect(ticks.map(yearAxisLabel(outlook)).filter(Boolean)).toEqual(['2020', '2050', '2100', '2150'])
+    expect(niceYearAxis(2005, 2150)).toMatchObject({ min: 2000, max: 2150 })
+    // 2040 to 2150 is labelled every 20 years; 2140 would crowd the last year, so it goes unlabelled.
+    const late = niceYearAxis(2040, 2150)
+    expect(late).toEqual({ min: 2040, max: 2150, interval: 10, labelStep: 20 })
+    expect([2040, 2050, 2060, 2120, 2140, 2150].map(yearAxisLabel(late))).toEqual(['2040', '', '2060', '2120', '', '2150'])
+    expect(niceYearAxis(2020, 2100)).toEqual({ min: 2020, max: 2100, interval: 10, labelStep: 20 })
   })
 
   it('survives a flat or empty range', () => {
