@@ -4,6 +4,7 @@ import { dateLocale } from '#shared/wording/dates'
 import { exceedanceChartOption, fanChartOption } from '#shared/briefing/charts'
 import { BRIEFING_TEXT } from '#shared/briefing/text'
 import { pieceSizes } from '#shared/briefing/table-pieces'
+import { briefingPathwaysPdf } from './pathways/briefing-pdf'
 
 // Lays a briefing document out as a PDF: the same sections, in the same order, as the page.
 
@@ -188,6 +189,7 @@ export function briefingPdfDefinition(
         ]
       : []),
     ...detail(doc),
+    ...(doc.pathways ? briefingPathwaysPdf(doc.pathways, meta.language, chartWidth) : []),
 
     table(
       [
