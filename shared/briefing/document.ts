@@ -134,7 +134,7 @@ export interface BriefingDocument {
       /** Per year: the 1 % or 99 % level is extrapolated. */ outerExtrapolated?: boolean[]
     }
   }
-  /** The site's pathways and decision records, when the planner chose to include them (shared/briefing/pathway-section.ts). */
+  /** The site's pathways and decision records, when the planner chose them (shared/briefing/pathway-section.ts). */
   pathways?: BriefingPathwaySection
   /** What * means, where any number of the document is extrapolated (absent in documents issued before). */
   extrapolation?: string | null

@@ -10,7 +10,11 @@ import { pathwayCautions, pathwaysBody } from './pdf'
 
 const MUTED = '#5d5036'
 
-export function briefingPathwaysPdf(section: BriefingPathwaySection, language: Language, chartWidth: number): Content[] {
+export function briefingPathwaysPdf(
+  section: BriefingPathwaySection,
+  language: Language,
+  chartWidth: number,
+): Content[] {
   const text = PATHWAY_TEXT[language]
   const asOf = section.asOf
     ? text.briefing.frozen(

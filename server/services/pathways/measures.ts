@@ -68,7 +68,7 @@ export async function createMeasure(planner: CurrentUser, siteId: string, input:
   })
 }
 
-/** A new height, kind or lead time changes the pathways' tipping years at once; what records rest on does not change. */
+/** A new height, kind or lead time moves the pathways' tipping years at once; what records rest on cannot change. */
 export async function updateMeasure(planner: CurrentUser, siteId: string, measureId: string, input: MeasureInput) {
   const site = await loadSite(planner, siteId)
   checkAboveTodaysLevel(site, input)

@@ -67,7 +67,10 @@ export function refuseDeletingRecordedMeasure(measure: { name: string }, records
 }
 
 /** A pathway listing the measure: named, so the planner knows where to take it out. */
-export function refuseDeletingMeasureInPathway(measure: { id: string, name: string }, pathways: Array<{ name: string, measureIds: string[] }>) {
+export function refuseDeletingMeasureInPathway(
+  measure: { id: string, name: string },
+  pathways: Array<{ name: string, measureIds: string[] }>,
+) {
   const using = pathways.find(p => p.measureIds.includes(measure.id))
   if (!using) return
   throw conflict(
