@@ -10,14 +10,26 @@ export interface BriefingPathwaySection extends PathwaySnapshot {
   asOf: string | null
 }
 
-/** Only what the section shows, in plain JSON: nothing of the live rows (authors, outlook ids, raw tipping) is kept. */
+/** Local keys (m1, p1, r1) for the rows' ids: a shared briefing names no record of the database. */
+function localKeys(prefix: string, ids: string[]) {
+  const keys = new Map(ids.map((id, i) => [id, `${prefix}${i + 1}`]))
+  return (id: string) => keys.get(id) ?? `${prefix}?`
+}
+
+/**
+ * Only what the section shows, in plain JSON: nothing of the live rows (authors, outlook ids, raw
+ * tipping) is kept, and the rows are named by local keys.
+ */
 export function pathwaySection(snapshot: PathwaySnapshot, asOf: string | null): BriefingPathwaySection {
+  const measure = localKeys('m', snapshot.measures.map(m => m.id))
+  const pathway = localKeys('p', snapshot.pathways.map(p => p.id))
+  const record = localKeys('r', snapshot.records.map(r => r.id))
   return {
     asOf,
     site: { referenceLevel: snapshot.site.referenceLevel, referenceEpoch: snapshot.site.referenceEpoch },
     currentYear: snapshot.currentYear,
     measures: snapshot.measures.map(m => ({
-      id: m.id,
+      id: measure(m.id),
       name: m.name,
       height: m.height,
       kind: m.kind,
@@ -32,19 +44,23 @@ export function pathwaySection(snapshot: PathwaySnapshot, asOf: string | null): 
       releases: s.releases.map(r => ({ component: r.component, version: r.version, citation: r.citation })),
     })),
     pathways: snapshot.pathways.map(p => ({
-      id: p.id,
+      id: pathway(p.id),
       name: p.name,
       illustrative: p.illustrative,
-      measureIds: p.measureIds,
+      measureIds: p.measureIds.map(id => measure(id)),
       tolerances: p.tolerances,
-      decisions: p.decisions,
-      spread: p.spread,
+      decisions: p.decisions.map(d => ({
+        ...d,
+        fromMeasureId: measure(d.fromMeasureId),
+        toMeasureId: measure(d.toMeasureId),
+      })),
+      spread: p.spread.map(x => ({ ...x, toMeasureId: measure(x.toMeasureId) })),
     })),
     records: snapshot.records.map(r => ({
-      id: r.id,
-      pathwayId: r.pathwayId,
-      measureId: r.measureId,
-      fromMeasureId: r.fromMeasureId,
+      id: record(r.id),
+      pathwayId: pathway(r.pathwayId),
+      measureId: measure(r.measureId),
+      fromMeasureId: measure(r.fromMeasureId),
       scenario: r.scenario,
       tolerance: r.tolerance,
       tippingYear: r.tippingYear,
@@ -58,7 +74,7 @@ export function pathwaySection(snapshot: PathwaySnapshot, asOf: string | null): 
       decidedByName: r.decidedByName,
       decidedAt: new Date(r.decidedAt).toISOString(),
       reviewDate: r.reviewDate,
-      reviewsRecordId: r.reviewsRecordId,
+      reviewsRecordId: r.reviewsRecordId && record(r.reviewsRecordId),
     })),
   }
 }
