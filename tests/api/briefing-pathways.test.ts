@@ -88,7 +88,7 @@ describe('a briefing with the site\'s pathways', () => {
     const frozen = issued.pathways[0]
     expect(frozen.name).toBe(demo.name)
     expect(frozen.tolerances).toEqual([0.1, 0.5])
-    // The same tipping and decision years, "already late" flags and spread as the pathways page, per scenario and tolerance.
+    // The same tipping and decision years, "already late" flags and spread as the pathways page.
     expect(frozen.decisions.map((d: any) => [d.scenario, d.tolerance, d.tippingYear, d.decisionYear, d.alreadyLate]))
       .toEqual(demo.decisions.map((d: any) => [d.scenario, d.tolerance, d.tippingYear, d.decisionYear, d.alreadyLate]))
     expect(frozen.spread.map((s: any) => [s.tolerance, s.earliest, s.latest, s.alreadyLate]))
@@ -138,5 +138,4 @@ describe('a briefing with the site\'s pathways', () => {
     const nextDoc = (await planner.get(`/api/briefings/${next.body.id}`)).body.document.pathways
     expect(nextDoc.measures.map((m: { name: string }) => m.name)).toContain('Raise the quay wall (phase 1)')
   })
-
 })
