@@ -12,6 +12,8 @@ const suite = useBrowserSuite('pathways')
 let page: Page
 beforeEach(() => ({ page } = suite))
 
+/** A loaded machine may take seconds to refresh the page after a change. */
+const SLOW = { timeout: 15_000 }
 const plain = (text: string) => text.replace(/[\s\u00A0\u202F]+/g, ' ').trim()
 
 describe('adaptation pathways', () => {
@@ -96,11 +98,11 @@ describe('adaptation pathways', () => {
     // Change: the form takes the measure's values and its heading the focus.
     await row('Floodable park').getByRole('button', { name: 'Change “Floodable park”' }).click()
     const form = page.getByTestId('measure-form')
-    await expect.poll(() => page.evaluate(() => document.activeElement?.id)).toBe('measure-form-title')
+    await expect.poll(() => page.evaluate(() => document.activeElement?.id), SLOW).toBe('measure-form-title')
     expect(await form.getByLabel('Name').inputValue()).toBe('Floodable park')
     await form.getByLabel('Lead time (years)').fill('9')
     await form.getByRole('button', { name: 'Save the measure' }).click()
-    await expect.poll(async () => plain(await row('Floodable park').textContent() ?? '')).toContain('9 years')
+    await expect.poll(async () => plain(await row('Floodable park').textContent() ?? ''), SLOW).toContain('9 years')
 
     // Delete asks first; a measure a pathway lists is refused with the pathway's name.
     const made = await page.request.post(`/api/sites/${kelwick}/pathways`, {
@@ -121,10 +123,10 @@ describe('adaptation pathways', () => {
     const card = page.getByTestId('pathway').filter({ hasText: 'Soft defences' })
     await card.getByRole('button', { name: 'Delete the pathway “Soft defences”' }).click()
     await card.getByTestId('item-delete-yes').click()
-    await expect.poll(() => page.getByTestId('pathway').filter({ hasText: 'Soft defences' }).count()).toBe(0)
+    await expect.poll(() => page.getByTestId('pathway').filter({ hasText: 'Soft defences' }).count(), SLOW).toBe(0)
     await row('Set-back line').getByRole('button', { name: 'Delete “Set-back line”' }).click()
     await row('Set-back line').getByTestId('item-delete-yes').click()
-    await expect.poll(() => row('Set-back line').count()).toBe(0)
+    await expect.poll(() => row('Set-back line').count(), SLOW).toBe(0)
     await screenshot(page, 'pathways-after-edits')
     expect(await seriousAxeViolations(page), 'pathways page after edits').toEqual([])
   })
