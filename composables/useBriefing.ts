@@ -24,6 +24,7 @@ export interface BriefingFormModel {
   thresholdIds: string[]
   years: number[]
   comparisonOutlookIds: string[]
+  includePathways: boolean
 }
 
 /** The choices the form offers, all from the outlook and its site. */
@@ -32,4 +33,6 @@ export interface BriefingFormChoices {
   years: number[]
   /** Finished outlooks of the site under other scenarios, the latest of each. */
   comparisons: { id: string, scenario: string, samples: number }[]
+  /** The site's adaptation pathways and decision records: the section is offered only with a pathway. */
+  pathways: { pathways: number, records: number }
 }

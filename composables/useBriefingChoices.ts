@@ -35,7 +35,12 @@ export async function useBriefingChoices(outlookId: string) {
       seen.add(o.scenario)
       return true
     })
-    return { thresholds: site.value.thresholds, years: outlook.value.years, comparisons }
+    return {
+      thresholds: site.value.thresholds,
+      years: outlook.value.years,
+      comparisons,
+      pathways: site.value.pathwayCounts,
+    }
   })
   return { outlook, site, error, choices }
 }

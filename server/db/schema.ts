@@ -400,6 +400,8 @@ export const briefings = pgTable(
     units: text('units').$type<HeightUnit>().notNull(),
     thresholdIds: jsonb('threshold_ids').$type<string[]>().notNull(),
     years: jsonb('years').$type<number[]>().notNull(),
+    /** Whether the document has the site's adaptation pathways and decision records (frozen with it). */
+    includePathways: boolean('include_pathways').notNull().default(false),
     /** The frozen document (shared/briefing/document.ts), written when issued. */
     document: jsonb('document').$type<BriefingDocument>(),
     /**

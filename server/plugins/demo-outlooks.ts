@@ -63,6 +63,7 @@ async function issueDemoBriefing(
     units: 'm',
     thresholdIds: site.thresholds.map(t => t.id),
     years: [2050, 2100],
+    includePathways: false,
   })
   await issueBriefing(user, draft.id)
   // One demo briefing is shared, so the public link can be tried without signing in.

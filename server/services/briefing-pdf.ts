@@ -5,6 +5,7 @@ import { exceedanceChartOption, fanChartOption } from '#shared/briefing/charts'
 import { BRIEFING_TEXT } from '#shared/briefing/text'
 import { pieceSizes } from '#shared/briefing/table-pieces'
 import { observationUpdatePdf } from './briefing-observation-pdf'
+import { briefingPathwaysPdf } from './pathways/briefing-pdf'
 
 // Lays a briefing document out as a PDF: the same sections, in the same order, as the page.
 
@@ -189,6 +190,7 @@ export function briefingPdfDefinition(
         ]
       : []),
     ...detail(doc),
+    ...(doc.pathways ? briefingPathwaysPdf(doc.pathways, meta.language, chartWidth) : []),
 
     table(
       [

@@ -7,6 +7,7 @@ import { storylineBasis } from '#shared/storylines/rise'
 import { storylinesAt } from '../outlooks/storylines'
 import type { CreateBriefingInput, UpdateBriefingInput } from '#shared/schemas/briefings'
 import type { CurrentUser } from '../utils/auth'
+import { briefingPathwaySection, pathwayCounts } from './pathways/briefing-section'
 import { endShareWatches } from './watches'
 import { languageOf } from '#shared/wording/translate'
 
@@ -51,6 +52,11 @@ async function checkSelection(user: CurrentUser, input: UpdateBriefingInput & { 
   const missing = input.years.find(year => !years.includes(year))
   if (missing !== undefined)
     throw bad('years', `${missing} is not a year of the outlook; choose from ${years.join(', ')}.`)
+  if (input.includePathways && !(await pathwayCounts(siteId)).pathways)
+    throw bad(
+      'includePathways',
+      'This site has no adaptation pathway to include; add one on the site\'s pathways page, or leave this out.',
+    )
   return { siteId, outlookIds: list.map(o => o.id) }
 }
 
@@ -63,6 +69,7 @@ function fields(input: UpdateBriefingInput) {
     units: input.units,
     thresholdIds: input.thresholdIds,
     years: [...input.years].sort((a, b) => a - b),
+    includePathways: input.includePathways,
   }
 }
 
@@ -179,7 +186,7 @@ export async function briefingDocument(
       })),
     }
   })
-  return buildBriefingDocument({
+  const document = buildBriefingDocument({
     language: languageOf(row.language),
     units: row.units === 'ft' ? 'ft' : 'm',
     title: row.title,
@@ -198,6 +205,8 @@ export async function briefingDocument(
     outlooks: ordered,
     storylines: await storylinesOfOutlook(stored.find(o => o.id === row.outlookIds[0])),
   })
+  // Measures are heights above the site's datum as it is now, as on its pathways page.
+  return row.includePathways ? { ...document, pathways: await briefingPathwaySection(site!.site, issuedAt) } : document
 }
 
 export async function issueBriefing(planner: CurrentUser, id: string) {
@@ -304,6 +313,7 @@ export async function newBriefingVersion(
       units: row.units,
       thresholdIds: selection.thresholdIds,
       years: selection.years,
+      includePathways: row.includePathways,
       createdBy: planner.id,
     })
     .returning()

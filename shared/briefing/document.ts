@@ -12,6 +12,7 @@ import type { DatumKind, ThresholdKind } from '../types/science'
 import { BRIEFING_TEXT, type BriefingText } from './text'
 import { headlineEstimate, keyThreshold, sayChance, spreadSentence } from './findings'
 import { observationUpdateSection, type BriefingObservationUpdate } from './observation-update'
+import type { BriefingPathwaySection } from './pathway-section'
 
 // A briefing as a document: every sentence and number, in one language and one unit, built from
 // stored outlooks. Issuing freezes this object; the page and the PDF only lay it out.
@@ -134,6 +135,8 @@ export interface BriefingDocument {
       /** Per year: the 1 % or 99 % level is extrapolated. */ outerExtrapolated?: boolean[]
     }
   }
+  /** The site's pathways and decision records, when the planner chose them (shared/briefing/pathway-section.ts). */
+  pathways?: BriefingPathwaySection
   /** What * means, where any number of the document is extrapolated (absent in documents issued before). */
   extrapolation?: string | null
   table: {

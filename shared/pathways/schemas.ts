@@ -126,3 +126,7 @@ export const DecisionRecordSchema = z.object({
 export type MeasureInput = z.infer<typeof MeasureSchema>
 export type PathwayInput = z.infer<typeof PathwaySchema>
 export type DecisionRecordInput = z.infer<typeof DecisionRecordSchema>
+
+/** `/api/sites/[id]/measures/[measureId]` and `/api/sites/[id]/pathways/[pathwayId]`. */
+export const MeasureParams = z.object({ id: z.uuid(), measureId: z.uuid() })
+export const PathwayParams = z.object({ id: z.uuid(), pathwayId: z.uuid() })

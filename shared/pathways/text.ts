@@ -27,6 +27,14 @@ export interface PathwayText {
   recordsNone: string
   recordsHead: string[]
   basis: (scenario: string, hash: string, releases: string) => string
+  restsOn: (hash: string, releases: string, engine: string) => string
+  /** A briefing's pathways section: its title, and whether it is frozen (issued) or follows the site (draft). */
+  briefing: {
+    title: string
+    frozen: (date: string, year: number) => string
+    live: string
+    chartAlt: (title: string) => string
+  }
   method: string
   cautionsTitle: string
   cautions: string[]
@@ -64,6 +72,13 @@ function pathwayText(language: Language): PathwayText {
     recordsNone: say('recordsNone'),
     recordsHead: t.list('pathwaysDocument.recordsHead'),
     basis: (scenario, hash, releases) => t('pathwaysDocument.basis', { scenario, hash, releases }),
+    restsOn: (hash, releases, engine) => t('pathwaysDocument.restsOn', { hash, releases, engine }),
+    briefing: {
+      title: say('briefing.title'),
+      frozen: (date, year) => t('pathwaysDocument.briefing.frozen', { date, year }),
+      live: say('briefing.live'),
+      chartAlt: title => t('pathwaysDocument.briefing.chartAlt', { title }),
+    },
     method: say('method'),
     cautionsTitle: say('cautionsTitle'),
     cautions: t.list('pathwaysDocument.cautions'),

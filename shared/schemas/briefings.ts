@@ -31,6 +31,8 @@ const BriefingFields = {
     .min(1, { error: 'Choose at least one year.' })
     .max(8, { error: 'Choose at most 8 years.' })
     .refine(unique, { error: 'Choose each year once.' }),
+  /** The site's adaptation pathways and decision records as a section of their own, frozen when issued. */
+  includePathways: z.boolean({ error: 'includePathways must be true or false.' }).default(false),
   /** Outlooks of other scenarios at the same site, compared in the table. */
   comparisonOutlookIds: z
     .array(z.uuid({ error: 'Choose outlooks of this site to compare.' }), {

@@ -248,6 +248,33 @@ const ROUTES: Record<string, RouteCase> = {
     expect: only('planner', 201),
     body: fx => ({ name: 'Matrix pathway', measureIds: fx.home.measureIds.slice(0, 2) }),
   },
+  // Edited, then deleted, by the site's own planners: the spare ones, which no decision record names.
+  'sites/[id]/measures/[measureId].patch.ts': {
+    url: (fx, scope) => scope === 'own'
+      ? `/api/sites/${fx.home.siteId}/measures/${fx.home.spareMeasureId}`
+      : `/api/sites/${fx.foreign.siteId}/measures/${fx.foreign.measureId}`,
+    expect: only('planner', 200),
+    body: () => ({ name: 'Matrix spare measure, edited', height: 2.2, kind: 'mean-sea-level', leadTimeYears: 5 }),
+  },
+  'sites/[id]/measures/[measureId].delete.ts': {
+    url: (fx, scope) => scope === 'own'
+      ? `/api/sites/${fx.home.siteId}/measures/${fx.home.spareMeasureId}`
+      : `/api/sites/${fx.foreign.siteId}/measures/${fx.foreign.measureId}`,
+    expect: only('planner', 200),
+  },
+  'sites/[id]/pathways/[pathwayId].patch.ts': {
+    url: (fx, scope) => scope === 'own'
+      ? `/api/sites/${fx.home.siteId}/pathways/${fx.home.sparePathwayId}`
+      : `/api/sites/${fx.foreign.siteId}/pathways/${fx.foreign.pathwayId}`,
+    expect: only('planner', 200),
+    body: fx => ({ name: 'Matrix spare pathway, edited', measureIds: fx.home.measureIds.slice(0, 3) }),
+  },
+  'sites/[id]/pathways/[pathwayId].delete.ts': {
+    url: (fx, scope) => scope === 'own'
+      ? `/api/sites/${fx.home.siteId}/pathways/${fx.home.sparePathwayId}`
+      : `/api/sites/${fx.foreign.siteId}/pathways/${fx.foreign.pathwayId}`,
+    expect: only('planner', 200),
+  },
   'sites/[id]/decisions.post.ts': {
     url: (fx, scope) => `/api/sites/${pick(scope, fx.home.siteId, fx.foreign.siteId)}/decisions`,
     expect: only('planner', 201),

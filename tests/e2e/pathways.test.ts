@@ -12,6 +12,8 @@ const suite = useBrowserSuite('pathways')
 let page: Page
 beforeEach(() => ({ page } = suite))
 
+/** A loaded machine may take seconds to refresh the page after a change. */
+const SLOW = { timeout: 15_000 }
 const plain = (text: string) => text.replace(/[\s\u00A0\u202F]+/g, ' ').trim()
 
 describe('adaptation pathways', () => {
@@ -80,4 +82,61 @@ describe('adaptation pathways', () => {
     expect(text).toMatch(/projections, not predictions/)
     execFileSync('pdftoppm', ['-png', '-r', '60', file, resolve(SCREENSHOT_DIR, 'pathways-pdf')])
   })
+
+  it('changes and deletes measures and pathways, refusing what a pathway or record rests on', async () => {
+    await signIn(page, PLANNER.email, PLANNER.password)
+    const sites = await (await page.request.get('/api/sites')).json() as { id: string, name: string }[]
+    const kelwick = sites.find(site => site.name === 'Kelwick')!.id
+    for (const name of ['Floodable park', 'Set-back line']) {
+      const made = await page.request.post(`/api/sites/${kelwick}/measures`, {
+        data: { name, height: 0.9, kind: 'mean-sea-level', leadTimeYears: 6 },
+      })
+      expect(made.ok(), await made.text()).toBe(true)
+    }
+    await open(page, `/sites/${kelwick}/pathways`)
+    const table = page.getByTestId('measures-table')
+    const row = (name: string) => table.locator('tbody tr').filter({ hasText: name })
+
+    // Change: the form takes the measure's values and its heading the focus.
+    await row('Floodable park').getByRole('button', { name: 'Change “Floodable park”' }).click()
+    const form = page.getByTestId('measure-form')
+    await expect.poll(() => page.evaluate(() => document.activeElement?.id), SLOW).toBe('measure-form-title')
+    expect(await form.getByLabel('Name').inputValue()).toBe('Floodable park')
+    await form.getByLabel('Lead time (years)').fill('9')
+    await form.getByRole('button', { name: 'Save the measure' }).click()
+    await expect.poll(async () => plain(await row('Floodable park').textContent() ?? ''), SLOW).toContain('9 years')
+
+    // Delete asks first; a measure a pathway lists is refused with the pathway's name.
+    const made = await page.request.post(`/api/sites/${kelwick}/pathways`, {
+      data: { name: 'Soft defences', measureIds: await measureIds(page, kelwick, ['Floodable park', 'Set-back line']) },
+    })
+    expect(made.ok(), await made.text()).toBe(true)
+    await open(page, `/sites/${kelwick}/pathways`)
+    await row('Set-back line').getByRole('button', { name: 'Delete “Set-back line”' }).click()
+    const confirm = row('Set-back line').getByTestId('item-delete-confirm')
+    expect(plain(await confirm.textContent() ?? '')).toMatch(/Delete “Set-back line”\? This cannot be undone\./)
+    expect(await seriousAxeViolations(page), 'pathways page, confirming a deletion').toEqual([])
+    await confirm.getByTestId('item-delete-yes').click()
+    expect(plain(await row('Set-back line').getByTestId('item-error').textContent() ?? '')).toBe(
+      '"Set-back line" is step 2 of the pathway "Soft defences"; remove it from that pathway (or delete the pathway) first.',
+    )
+
+    // The pathway goes; then the measure can.
+    const card = page.getByTestId('pathway').filter({ hasText: 'Soft defences' })
+    await card.getByRole('button', { name: 'Delete the pathway “Soft defences”' }).click()
+    await card.getByTestId('item-delete-yes').click()
+    await expect.poll(() => page.getByTestId('pathway').filter({ hasText: 'Soft defences' }).count(), SLOW).toBe(0)
+    await row('Set-back line').getByRole('button', { name: 'Delete “Set-back line”' }).click()
+    await row('Set-back line').getByTestId('item-delete-yes').click()
+    await expect.poll(() => row('Set-back line').count(), SLOW).toBe(0)
+    await screenshot(page, 'pathways-after-edits')
+    expect(await seriousAxeViolations(page), 'pathways page after edits').toEqual([])
+  })
 })
+
+async function measureIds(on: Page, siteId: string, names: string[]) {
+  const view = await (await on.request.get(`/api/sites/${siteId}/pathways`)).json() as {
+    measures: Array<{ id: string, name: string }>
+  }
+  return names.map(name => view.measures.find(m => m.name === name)!.id)
+}

@@ -88,6 +88,9 @@ export interface MatrixFixtures {
     /** Kelwick's demo pathway and its measures in order. */
     pathwayId: string
     measureIds: string[]
+    /** A measure and a pathway of Kelwick that no record names, for the edit and delete routes. */
+    spareMeasureId: string
+    sparePathwayId: string
     briefingIssued: string
     briefingDraft: string
     briefingToIssue: string
@@ -113,6 +116,8 @@ export interface MatrixFixtures {
     storylineDraft: string
     userId: string
     watchId: string
+    measureId: string
+    pathwayId: string
   }
   owners: { port: ApiClient, science: ApiClient, admin: ApiClient }
 }
@@ -234,6 +239,17 @@ export async function createMatrixFixtures(url: string): Promise<MatrixFixtures>
     id: string
     measureIds: string[]
   }[]
+  const spareMeasureId = ok(
+    await planner.post(`/api/sites/${siteId}/measures`, { name: 'Matrix spare measure', height: 2, leadTimeYears: 5 }),
+    'spare measure',
+  ).id as string
+  const sparePathwayId = ok(
+    await planner.post(`/api/sites/${siteId}/pathways`, {
+      name: 'Matrix spare pathway',
+      measureIds: demoPathway!.measureIds.slice(0, 2),
+    }),
+    'spare pathway',
+  ).id as string
 
   const releases = await reviewedSet('releases', author, analyst, key => newRelease('matrix-scenario', `Matrix ${key}`))
   const correlationSets = await reviewedSet('correlation-sets', author, analyst, key =>
@@ -297,14 +313,31 @@ export async function createMatrixFixtures(url: string): Promise<MatrixFixtures>
     'foreign storyline',
   )
   const foreignWatch = await watchId(port, PORT_PLANNER.email, foreignSite.id)
-  ok(
-    await port.post(`/api/sites/${foreignSite.id}/measures`, {
-      name: `Measure ${FOREIGN_MARKER}`,
-      height: 2,
-      leadTimeYears: 5,
+  const foreignMeasureIds = [
+    ok(
+      await port.post(`/api/sites/${foreignSite.id}/measures`, {
+        name: `Measure ${FOREIGN_MARKER}`,
+        height: 2,
+        leadTimeYears: 5,
+      }),
+      'foreign measure',
+    ).id as string,
+    ok(
+      await port.post(`/api/sites/${foreignSite.id}/measures`, {
+        name: `Second measure ${FOREIGN_MARKER}`,
+        height: 3,
+        leadTimeYears: 5,
+      }),
+      'second foreign measure',
+    ).id as string,
+  ]
+  const foreignPathway = ok(
+    await port.post(`/api/sites/${foreignSite.id}/pathways`, {
+      name: `Pathway ${FOREIGN_MARKER}`,
+      measureIds: foreignMeasureIds,
     }),
-    'foreign measure',
-  )
+    'foreign pathway',
+  ).id as string
 
   return {
     clients,
@@ -316,6 +349,8 @@ export async function createMatrixFixtures(url: string): Promise<MatrixFixtures>
       outlookId,
       pathwayId: demoPathway!.id,
       measureIds: demoPathway!.measureIds,
+      spareMeasureId,
+      sparePathwayId,
       briefingIssued: issued.id,
       briefingDraft: draft.id,
       briefingToIssue: toIssue.id,
@@ -341,6 +376,8 @@ export async function createMatrixFixtures(url: string): Promise<MatrixFixtures>
       storylineDraft: storylineDraft.id,
       userId: foreignUser.id,
       watchId: foreignWatch,
+      measureId: foreignMeasureIds[0]!,
+      pathwayId: foreignPathway,
     },
     owners: { port, science, admin },
   }

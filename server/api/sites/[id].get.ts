@@ -1,5 +1,6 @@
 import { IdParams } from '#shared/schemas/params'
 import { listSiteOutlooks } from '~~/server/outlooks/list'
+import { pathwayCounts } from '~~/server/services/pathways/briefing-section'
 import { openAlertCount } from '~~/server/services/pathways/store'
 import { loadSite } from '~~/server/services/sites'
 
@@ -11,6 +12,7 @@ export default defineEventHandler(async (event) => {
     ...site,
     outlooks: await listSiteOutlooks(id),
     decisionAlerts: await openAlertCount(id),
+    pathwayCounts: await pathwayCounts(id),
     canEdit: user.role === 'planner',
   }
 })

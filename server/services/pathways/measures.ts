@@ -1,9 +1,17 @@
-import { adaptationMeasures } from '~~/server/db/schema'
+import { eq } from 'drizzle-orm'
+import { adaptationMeasures, adaptationPathways } from '~~/server/db/schema'
 import type { MeasureInput } from '#shared/pathways/schemas'
 import { MAX_MEASURES } from '#shared/pathways/schemas'
 import type { CurrentUser } from '../../utils/auth'
 import { loadSite } from '../sites'
 import { refuse } from './refuse'
+import {
+  lockMeasure,
+  recordsNamingMeasure,
+  refuseChangingRecordedMeasure,
+  refuseDeletingMeasureInPathway,
+  refuseDeletingRecordedMeasure,
+} from './references'
 import { siteMeasures } from './store'
 import { queueTippingEvaluations } from './evaluation'
 
@@ -62,4 +70,42 @@ export async function createMeasure(planner: CurrentUser, siteId: string, input:
   })
   kickJobs()
   return created
+}
+
+/** A new height, kind or lead time moves the pathways' tipping years at once; what records rest on cannot change. */
+export async function updateMeasure(planner: CurrentUser, siteId: string, measureId: string, input: MeasureInput) {
+  const site = await loadSite(planner, siteId)
+  checkAboveTodaysLevel(site, input)
+  const db = await useDb()
+  return db.transaction(async (tx) => {
+    const before = await lockMeasure(tx, siteId, measureId)
+    refuseChangingRecordedMeasure(before, input, await recordsNamingMeasure(tx, measureId))
+    const [row] = await tx.update(adaptationMeasures).set({
+      name: input.name, height: input.height, kind: input.kind, leadTimeYears: input.leadTimeYears,
+      designLifeYears: input.designLifeYears, costBand: input.costBand,
+    }).where(eq(adaptationMeasures.id, measureId)).returning()
+    await writeAudit(tx, planner, 'measure.updated', { type: 'site', id: siteId }, {
+      measure: measureId,
+      before: { name: before.name, height: before.height, kind: before.kind, leadTimeYears: before.leadTimeYears },
+      after: { name: input.name, height: input.height, kind: input.kind, leadTimeYears: input.leadTimeYears },
+    })
+    return row!
+  })
+}
+
+/** Only a measure that no pathway lists and no decision record names can go. */
+export async function deleteMeasure(planner: CurrentUser, siteId: string, measureId: string) {
+  await loadSite(planner, siteId)
+  const db = await useDb()
+  await db.transaction(async (tx) => {
+    const measure = await lockMeasure(tx, siteId, measureId)
+    refuseDeletingRecordedMeasure(measure, await recordsNamingMeasure(tx, measureId))
+    const pathways = await tx.select().from(adaptationPathways).where(eq(adaptationPathways.siteId, siteId))
+    refuseDeletingMeasureInPathway(measure, pathways)
+    await tx.delete(adaptationMeasures).where(eq(adaptationMeasures.id, measureId))
+    await writeAudit(tx, planner, 'measure.deleted', { type: 'site', id: siteId }, {
+      measure: measureId, name: measure.name, height: measure.height, leadTimeYears: measure.leadTimeYears,
+    })
+  })
+  return { deleted: measureId }
 }

@@ -1,6 +1,7 @@
 import type { Content, TDocumentDefinitions } from 'pdfmake/interfaces'
 import { pathwayChartLayout, pathwayChartSvg } from '#shared/pathways/chart'
 import type { DecisionSpread, StepDecision } from '#shared/pathways/decisions'
+import { chartYears, spreadSentence, type PathwaySnapshot } from '#shared/pathways/snapshot'
 import { PATHWAY_TEXT } from '#shared/pathways/text'
 import type { Language } from '#shared/wording/chance'
 import { dateLocale } from '#shared/wording/dates'
@@ -16,7 +17,7 @@ const ACCENT = '#1c5a6d'
 const CAUTION = '#9a3222'
 const CHART_WIDTH = 500
 
-function table(head: string[], rows: string[][], widths?: (string | number)[]): Content {
+function table(head: string[], rows: Array<Array<string | Content>>, widths?: (string | number)[]): Content {
   return {
     table: {
       headerRows: 1,
@@ -28,28 +29,32 @@ function table(head: string[], rows: string[][], widths?: (string | number)[]): 
   }
 }
 
-export function pathwaysPdfDefinition(view: PathwaysView, language: Language): TDocumentDefinitions {
+/** How the body's headings are drawn: the pathways PDF gives each pathway a page heading, a briefing a sub-heading. */
+interface BodyOptions { chartWidth: number, heading: (text: string) => Content }
+
+const pageHeading = (text: string): Content => ({ text, style: 'h2', margin: [0, 14, 0, 4], headlineLevel: 1 })
+
+/**
+ * Each pathway (the main message per tolerance, the chart drawn as SVG beside its table), then the
+ * measures, the decision records with what each rests on, the method and the outlooks used.
+ */
+export function pathwaysBody(
+  snapshot: PathwaySnapshot,
+  language: Language,
+  options: BodyOptions = { chartWidth: CHART_WIDTH, heading: pageHeading },
+): Content[] {
   const text = PATHWAY_TEXT[language]
-  const names = Object.fromEntries(view.measures.map(m => [m.id, m.name]))
+  const names = Object.fromEntries(snapshot.measures.map(m => [m.id, m.name]))
   const percent = (value: number) => `${Math.round(value * 100)} %`
   const year = (value: number | null, horizon: number) => value === null ? text.afterHorizon(horizon) : String(value)
-  const scenarios = view.scenarios.map(s => s.scenario)
-  const endYear = Math.max(view.currentYear + 10, ...view.scenarios.map(s => s.horizon))
-  const startYear = Math.min(view.site.referenceEpoch, view.currentYear)
+  const scenarios = snapshot.scenarios.map(s => s.scenario)
+  const { startYear, endYear } = chartYears(snapshot)
   const spreadLine = (s: DecisionSpread) => {
-    const measure = names[s.toMeasureId] ?? ''
-    const main = !s.earliest || !s.latest
-      ? text.spreadNone(measure)
-      : s.earliest.year === s.latest.year
-        ? text.spreadSingle(measure, s.earliest.year, s.earliest.scenario)
-        : text.spreadBetween(measure, s.earliest.year, s.earliest.scenario, s.latest.year, s.latest.scenario)
-    const extra = s.notWithinHorizon.length
-      ? ` ${text.notWithin(s.notWithinHorizon.map(n => n.scenario).join(', '), s.notWithinHorizon[0]!.horizon)}`
-      : ''
+    const { main, extra } = spreadSentence(s, names, text)
     return {
       text: [
         { text: main, bold: true },
-        extra,
+        extra ? ` ${extra}` : '',
         s.alreadyLate ? { text: ` (${text.alreadyLate})`, color: CAUTION, bold: true } : '',
       ],
     }
@@ -60,8 +65,8 @@ export function pathwaysPdfDefinition(view: PathwaysView, language: Language): T
     text.years(d.leadTimeYears), `${year(d.decisionYear, d.horizon)}${d.alreadyLate ? ` (${text.alreadyLate})` : ''}`,
   ])
 
-  const pathways: Content[] = view.pathways.flatMap(pathway => [
-    { text: pathway.name, style: 'h2', margin: [0, 14, 0, 4], headlineLevel: 1 } as Content,
+  const pathways: Content[] = snapshot.pathways.flatMap(pathway => [
+    options.heading(pathway.name),
     ...(pathway.illustrative
       ? [{ text: text.illustrative, bold: true, color: CAUTION, margin: [0, 0, 0, 4] } as Content]
       : []),
@@ -73,7 +78,7 @@ export function pathwaysPdfDefinition(view: PathwaysView, language: Language): T
         decisions,
         startYear,
         endYear,
-        currentYear: view.currentYear,
+        currentYear: snapshot.currentYear,
       })
       const title = `${pathway.name}: ${text.tolerance(percent(tolerance))}`
       const svg = pathwayChartSvg(layout, { title, ...text.chart, font: PDF_FONT })
@@ -82,7 +87,7 @@ export function pathwaysPdfDefinition(view: PathwaysView, language: Language): T
           stack: [
             { text: text.tolerance(percent(tolerance)), bold: true, margin: [0, 6, 0, 2] },
             { ul: pathway.spread.filter(s => s.tolerance === tolerance).map(spreadLine), margin: [0, 0, 0, 4] },
-            { svg, width: CHART_WIDTH },
+            { svg, width: options.chartWidth },
           ],
           unbreakable: true,
         },
@@ -91,16 +96,29 @@ export function pathwaysPdfDefinition(view: PathwaysView, language: Language): T
     }),
   ])
 
-  const records: Content[] = view.records.length
+  const records: Content[] = snapshot.records.length
     ? [
         table(
           text.recordsHead,
-          view.records.map(r => [
+          snapshot.records.map(r => [
             `${names[r.measureId] ?? ''} (← ${names[r.fromMeasureId] ?? ''})`,
             `${r.scenario}, ${percent(r.tolerance)}`,
             year(r.tippingYear, r.horizon),
             year(r.decisionYear, r.horizon),
-            r.rationale,
+            {
+              stack: [
+                r.rationale,
+                {
+                  text: text.restsOn(
+                    r.outlookInputHash,
+                    r.releases.map(x => `${x.component} v${x.version}`).join(', '),
+                    r.engineVersion,
+                  ),
+                  fontSize: 7,
+                  color: MUTED,
+                },
+              ],
+            } as Content,
             `${r.decidedByName}, ${new Date(r.decidedAt).toLocaleDateString(dateLocale(language), { dateStyle: 'medium' })}`,
             r.reviewDate,
           ]),
@@ -109,16 +127,13 @@ export function pathwaysPdfDefinition(view: PathwaysView, language: Language): T
       ]
     : [{ text: text.recordsNone, color: MUTED }]
 
-  const content: Content[] = [
-    { text: text.kind.toUpperCase(), style: 'kicker' },
-    { text: text.title(view.site.name), style: 'h1' },
-    { text: text.intro, margin: [0, 4, 0, 4] },
-    ...(view.scenarios.length ? [] : [{ text: text.noOutlooks, color: CAUTION } as Content]),
+  return [
+    ...(snapshot.scenarios.length ? [] : [{ text: text.noOutlooks, color: CAUTION } as Content]),
     ...pathways,
-    { text: text.measuresTitle, style: 'h2', margin: [0, 14, 0, 4], headlineLevel: 1 },
+    options.heading(text.measuresTitle),
     table(
-      text.measuresHead(view.site.referenceLevel),
-      view.measures.map(m => [
+      text.measuresHead(snapshot.site.referenceLevel),
+      snapshot.measures.map(m => [
         m.name,
         m.height === null ? text.noHeight : `${m.height.toFixed(2)} m`,
         m.height === null ? '—' : (text.kinds[m.kind] ?? m.kind),
@@ -128,10 +143,10 @@ export function pathwaysPdfDefinition(view: PathwaysView, language: Language): T
       ]),
       ['*', 'auto', 'auto', 'auto', 'auto', 'auto'],
     ),
-    { text: text.recordsTitle, style: 'h2', margin: [0, 14, 0, 4], headlineLevel: 1 },
+    options.heading(text.recordsTitle),
     ...records,
     { text: text.method, margin: [0, 10, 0, 2], fontSize: 9 },
-    ...view.scenarios.map(
+    ...snapshot.scenarios.map(
       s =>
         ({
           text: text.basis(s.scenario, s.inputHash, s.releases.map(r => `${r.component} v${r.version}`).join(', ')),
@@ -139,13 +154,23 @@ export function pathwaysPdfDefinition(view: PathwaysView, language: Language): T
           color: MUTED,
         }) as Content,
     ),
-    {
-      stack: [
-        { text: text.cautionsTitle, style: 'h2', margin: [0, 14, 0, 4] },
-        { ul: text.cautions, color: CAUTION },
-      ],
-      unbreakable: true,
-    },
+  ]
+}
+
+/** The pathway cautions, read together or not at all. */
+export function pathwayCautions(language: Language, heading: Content): Content {
+  const text = PATHWAY_TEXT[language]
+  return { stack: [heading, { ul: text.cautions, color: CAUTION }], unbreakable: true }
+}
+
+export function pathwaysPdfDefinition(view: PathwaysView, language: Language): TDocumentDefinitions {
+  const text = PATHWAY_TEXT[language]
+  const content: Content[] = [
+    { text: text.kind.toUpperCase(), style: 'kicker' },
+    { text: text.title(view.site.name), style: 'h1' },
+    { text: text.intro, margin: [0, 4, 0, 4] },
+    ...pathwaysBody(view, language),
+    pathwayCautions(language, { text: text.cautionsTitle, style: 'h2', margin: [0, 14, 0, 4] }),
   ]
 
   return {

@@ -15,9 +15,11 @@ export function stepsOf(pathway: Pathway, measures: Measure[]) {
   })
 }
 
-/** Everything the site's pathways section shows: measures, pathways with their decisions, records, alerts. */
-export async function pathwaysView(user: CurrentUser, siteId: string) {
-  const site = await loadSite(user, siteId)
+/**
+ * A site's measures, its pathways with their tipping and decision years under each scenario's latest
+ * outlook, and its decision records, as they stand now (the pathways page and a briefing's section).
+ */
+export async function siteDecisions(siteId: string) {
   const [measures, pathways, records] = await Promise.all([
     siteMeasures(siteId),
     sitePathways(siteId),
@@ -29,13 +31,6 @@ export async function pathwaysView(user: CurrentUser, siteId: string) {
   const { scenarios, computing } = await siteTipping(siteId, measures, tolerances)
   const year = currentYear()
   return {
-    site: {
-      id: site.id,
-      name: site.name,
-      referenceLevel: site.referenceLevel,
-      datumOffset: site.datumOffset,
-      referenceEpoch: site.referenceEpoch,
-    },
     currentYear: year,
     measures,
     /** Scenarios whose tipping years for these measures are still being computed (left out of `scenarios`). */
@@ -52,6 +47,23 @@ export async function pathwaysView(user: CurrentUser, siteId: string) {
       const decisions = pathwayDecisions(stepsOf(pathway, measures), scenarios, pathway.tolerances, year)
       return { ...pathway, decisions, spread: decisionSpread(decisions) }
     }),
+    records,
+  }
+}
+
+/** Everything the site's pathways section shows: measures, pathways with their decisions, records, alerts. */
+export async function pathwaysView(user: CurrentUser, siteId: string) {
+  const site = await loadSite(user, siteId)
+  const { records, ...decisions } = await siteDecisions(siteId)
+  return {
+    site: {
+      id: site.id,
+      name: site.name,
+      referenceLevel: site.referenceLevel,
+      datumOffset: site.datumOffset,
+      referenceEpoch: site.referenceEpoch,
+    },
+    ...decisions,
     records: records.map(({ decidedBy: _decidedBy, ...record }) => record),
     alerts: await openAlerts(siteId, records),
     canEdit: user.role === 'planner',

@@ -1,0 +1,1 @@
+ALTER TABLE "briefings" ADD COLUMN "include_pathways" boolean DEFAULT false NOT NULL;
