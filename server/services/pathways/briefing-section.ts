@@ -1,6 +1,8 @@
 import { count, eq } from 'drizzle-orm'
 import { adaptationPathways, decisionRecords } from '~~/server/db/schema'
 import { pathwaySection } from '#shared/briefing/pathway-section'
+import { latestOutlooks } from '../notify'
+import { ensureTipping } from './evaluation'
 import { siteDecisions } from './view'
 
 // The pathways section of a briefing, and whether a site has anything to put in one. Callers have
@@ -10,7 +12,14 @@ export async function briefingPathwaySection(
   site: { id: string, referenceLevel: string, referenceEpoch: number },
   asOf: Date | null,
 ) {
-  const decisions = await siteDecisions(site.id)
+  let decisions = await siteDecisions(site.id)
+  if (asOf && decisions.computing.length) {
+    // Issuing freezes the section: compute the scenarios still being worked out now, rather than
+    // freeze a section that silently lacks them.
+    const outlooks = (await latestOutlooks(site.id)).filter(o => decisions.computing.includes(o.scenario))
+    for (const outlook of outlooks) await ensureTipping(outlook, decisions.measures, [])
+    decisions = await siteDecisions(site.id)
+  }
   return pathwaySection({ site, ...decisions }, asOf?.toISOString() ?? null)
 }
 
