@@ -49,7 +49,8 @@ export function sampleTrajectories(plan: OutlookPlan, count: number): Trajectori
   const { yearCount, knotYears } = trigger
   const knotCount = knotYears.length
   const rise = new Float64Array(count * yearCount)
-  const knotRise = new Float64Array(knotCount)
+  // Each knot's rise for the tile's samples at [k·TILE + i]; knot 0 (the baseline year) stays zero.
+  const knotRise = new Float64Array(knotCount * TILE)
   const tables = samplerTables(plan)
   const scratch = tileScratch(plan)
   scratch.sumsAreLevels = tables.hasDraws
@@ -67,33 +68,39 @@ export function sampleTrajectories(plan: OutlookPlan, count: number): Trajectori
     for (let tileStart = 0; tileStart < blockCount; tileStart += TILE) {
       const first = block * plan.blockSize + tileStart
       if (first >= count) break
-      const tileCount = Math.min(TILE, blockCount - tileStart)
+      const tileCount = Math.min(TILE, blockCount - tileStart, count - first)
       scoreTile(plan, tables, scratch, blockCount, tileStart, tileCount)
       valueTile(plan, tables, scratch, tileCount)
       if (scratch.sumsAreLevels) basisFromValues(plan, tables, scratch, tileCount)
-      for (let i = 0; i < tileCount && first + i < count; i++) {
-        for (let k = 1; k < knotCount; k++) {
-          let value = intercepts[k]!
-          for (let c = trigger.knotColumnStart[k]!; c < trigger.knotColumnStart[k + 1]!; c++)
-            value += trigger.knotColumnWeight[c]! * rows[scratch.sumsAt + trigger.knotColumns[c]! * ROW + i]!
-          knotRise[k] = value
+      for (let k = 1; k < knotCount; k++) {
+        const out = k * TILE
+        knotRise.fill(intercepts[k]!, out, out + tileCount)
+        for (let c = trigger.knotColumnStart[k]!; c < trigger.knotColumnStart[k + 1]!; c++) {
+          const weight = trigger.knotColumnWeight[c]!
+          if (weight === 0) continue
+          const at = scratch.sumsAt + trigger.knotColumns[c]! * ROW
+          for (let i = 0; i < tileCount; i++) knotRise[out + i]! += weight * rows[at + i]!
         }
-        fillYears(rise, (first + i) * yearCount, knotYears, knotRise)
       }
+      for (let i = 0; i < tileCount; i++) fillYears(rise, (first + i) * yearCount, knotYears, knotRise, i)
     }
   }
   return { firstYear: trigger.firstYear, yearCount, count, rise }
 }
 
-/** Linear between knots; knot 0 is the baseline year, where the rise is zero (`knotRise[0]` stays 0). */
-function fillYears(out: Float64Array, at: number, knotYears: Int32Array, knotRise: Float64Array): void {
+/** Linear between knots, for tile sample i; knot 0 is the baseline year, where the rise is zero. */
+function fillYears(out: Float64Array, at: number, knotYears: Int32Array, knotRise: Float64Array, i: number): void {
   const firstYear = knotYears[0]!
   out[at] = 0
+  let r0 = 0
   for (let k = 1; k < knotYears.length; k++) {
     const from = knotYears[k - 1]!
     const span = knotYears[k]! - from
-    const r0 = knotRise[k - 1]!
-    const step = (knotRise[k]! - r0) / span
-    for (let o = 1; o <= span; o++) out[at + from - firstYear + o] = r0 + step * o
+    const r1 = knotRise[k * TILE + i]!
+    const step = (r1 - r0) / span
+    const base = at + from - firstYear
+    for (let o = 1; o < span; o++) out[base + o] = r0 + step * o
+    out[base + span] = r1
+    r0 = r1
   }
 }

@@ -1,6 +1,7 @@
 import { blockStreamState } from '../engine/rng'
 import type { Trajectories } from '../engine'
 import { fillNormalScores } from '../engine/ziggurat'
+import type { GaugeTrendFit } from './gauge-trend'
 import { MIN_TRACKING_YEARS } from './tracking'
 
 // Signposts (Haasnoot et al. 2018, "Signposts in the sand", on monitoring for adaptive pathways): would
@@ -69,6 +70,23 @@ export interface Signposts {
   curves: SignpostCurve[]
 }
 
+/**
+ * The noise of annual means from a record's fit. A monthly record's AR(1) is per month: the mean of 12
+ * months has variance σ²/144 · Σᵢⱼ φ^|i−j| and consecutive annual means the covariance
+ * σ²/144 · Σ_{i<12≤j<24} φ^(j−i), from which the annual sd and lag-one autocorrelation follow.
+ */
+export function noiseFromFit(fit: Pick<GaugeTrendFit, 'resolution' | 'residualSd' | 'phi'>): SignpostNoise {
+  if (fit.resolution === 'annual') return { sd: fit.residualSd, phi: fit.phi, source: 'gauge-record' }
+  let within = 0
+  let across = 0
+  for (let i = 0; i < 12; i++) {
+    for (let j = 0; j < 12; j++) within += fit.phi ** Math.abs(i - j)
+    for (let j = 12; j < 24; j++) across += fit.phi ** (j - i)
+  }
+  const variance = (fit.residualSd ** 2 * within) / 144
+  return { sd: Math.sqrt(variance), phi: across / within, source: 'gauge-record' }
+}
+
 /** Per trajectory, the first year its rise exceeds `height`, or −1 when it does not by the horizon. */
 export function trajectoryTipping(trajectories: Trajectories, height: number): Int32Array {
   const { count, yearCount, firstYear, rise } = trajectories
@@ -85,38 +103,35 @@ export function trajectoryTipping(trajectories: Trajectories, height: number): I
   return out
 }
 
-/** Simulated gauge noise, metres, trajectory i's year y (from the epoch) at [i·years + y]. */
+/**
+ * Simulated gauge noise, metres, for years epoch … epoch + years − 1: year y of trajectory i at
+ * [y·count + i]. Year by year from one stream, so a trajectory's noise in a year does not depend on how
+ * many later years are drawn.
+ */
 export function gaugeNoise(count: number, years: number, noise: SignpostNoise, seed: number): Float64Array {
   const out = new Float64Array(count * years)
   fillNormalScores(blockStreamState(seed, NOISE_BLOCK), out, 0, out.length)
   const innovation = noise.sd * Math.sqrt(1 - noise.phi * noise.phi)
-  for (let i = 0; i < count; i++) {
-    const at = i * years
-    out[at] = noise.sd * out[at]!
-    for (let y = 1; y < years; y++) out[at + y] = noise.phi * out[at + y - 1]! + innovation * out[at + y]!
+  for (let i = 0; i < count; i++) out[i] = noise.sd * out[i]!
+  for (let y = 1; y < years; y++) {
+    const at = y * count
+    for (let i = 0; i < count; i++) out[at + i] = noise.phi * out[at - count + i]! + innovation * out[at + i]!
   }
   return out
 }
 
-/** OLS slope, mm/yr, of rise + noise over years epoch … signal year, per trajectory. */
-export function fittedRates(
-  trajectories: Trajectories,
-  noise: Float64Array,
-  noiseYears: number,
-  signalYear: number,
-): Float64Array {
+/** OLS slope, mm/yr, of rise + noise (`gaugeNoise`'s layout) over years epoch … signal year, per trajectory. */
+export function fittedRates(trajectories: Trajectories, noise: Float64Array, signalYear: number): Float64Array {
   const { count, yearCount, firstYear, rise } = trajectories
   const n = signalYear - firstYear + 1
   const mean = (n - 1) / 2
-  const weights = Float64Array.from({ length: n }, (_, x) => x - mean)
-  const sxx = weights.reduce((sum, w) => sum + w * w, 0)
+  let sxx = 0
+  for (let x = 0; x < n; x++) sxx += (x - mean) ** 2
   const out = new Float64Array(count)
-  for (let i = 0; i < count; i++) {
-    const riseAt = i * yearCount
-    const noiseAt = i * noiseYears
-    let sxy = 0
-    for (let x = 0; x < n; x++) sxy += weights[x]! * (rise[riseAt + x]! + noise[noiseAt + x]!)
-    out[i] = (1000 * sxy) / sxx
+  for (let x = 0; x < n; x++) {
+    const weight = (1000 * (x - mean)) / sxx
+    const at = x * count
+    for (let i = 0; i < count; i++) out[i]! += weight * (rise[i * yearCount + x]! + noise[at + i]!)
   }
   return out
 }
@@ -151,7 +166,9 @@ export function signpostPoint(
 
 /** Thresholds from the 1st to the 99th percentile of the fitted rates, at a round step, about 30 of them. */
 export function thresholdGrid(rates: Float64Array[]): number[] {
-  const all = rates.flatMap(r => Array.from(r)).sort((a, b) => a - b)
+  const all = new Float64Array(rates.reduce((n, r) => n + r.length, 0))
+  rates.reduce((at, r) => (all.set(r, at), at + r.length), 0)
+  all.sort()
   const at = (p: number) => all[Math.min(all.length - 1, Math.floor(p * all.length))]!
   const low = at(0.01)
   const high = at(0.99)
@@ -180,10 +197,8 @@ export function signposts(
       throw new RangeError(`A signal year must be a whole year from ${epoch + MIN_SIGNAL_YEARS} to ${horizon}.`)
   }
   const tipping = trajectoryTipping(trajectories, decision.height)
-  // Noise for every year to the horizon, so a trajectory's simulated gauge is the same whichever years are asked.
-  const noiseYears = trajectories.yearCount
-  const simulated = gaugeNoise(trajectories.count, noiseYears, noise, seed)
-  const rates = signalYears.map(year => fittedRates(trajectories, simulated, noiseYears, year))
+  const simulated = gaugeNoise(trajectories.count, Math.max(...signalYears) - epoch + 1, noise, seed)
+  const rates = signalYears.map(year => fittedRates(trajectories, simulated, year))
   const grid = thresholds ?? thresholdGrid(rates)
   let tipped = 0
   for (const year of tipping) if (year >= 0) tipped++

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import jStatPackage from 'jstat'
 import { planTrajectories, sampleTrajectories } from '../../../shared/engine/trajectories'
-import { gaugeNoise, signposts, thresholdGrid } from '../../../shared/observations/signposts'
+import { gaugeNoise, noiseFromFit, signposts, thresholdGrid } from '../../../shared/observations/signposts'
 
 const { jStat } = jStatPackage
 
@@ -137,13 +137,34 @@ describe('simulated gauge noise', () => {
     let pairs = 0
     for (let i = 0; i < 2000; i++) {
       for (let y = 0; y < years; y++) {
-        sq += noise[i * years + y]! ** 2
-        if (y > 0) { lag += noise[i * years + y]! * noise[i * years + y - 1]!; pairs++ }
+        sq += noise[y * 2000 + i]! ** 2
+        if (y > 0) { lag += noise[y * 2000 + i]! * noise[(y - 1) * 2000 + i]!; pairs++ }
       }
     }
     // [practice] 200,000 values (effective size about a quarter of that at φ = 0.6): sd within 1 %, φ within 0.02.
     const variance = sq / (2000 * years)
     expect(Math.sqrt(variance)).toBeCloseTo(0.03, 3)
     expect(Math.abs(lag / pairs / variance - 0.6)).toBeLessThan(0.02)
+  })
+})
+
+describe('noise of annual means from a record\'s fit', () => {
+  it('keeps an annual fit as it is', () => {
+    expect(noiseFromFit({ resolution: 'annual', residualSd: 0.04, phi: 0.3 }))
+      .toEqual({ sd: 0.04, phi: 0.3, source: 'gauge-record' })
+  })
+
+  it('averages white monthly noise to sd/√12 and no autocorrelation', () => {
+    // [practice] the mean of 12 independent values has sd σ/√12.
+    const noise = noiseFromFit({ resolution: 'monthly', residualSd: 0.06, phi: 0 })
+    expect(noise.sd).toBeCloseTo(0.06 / Math.sqrt(12), 12)
+    expect(noise.phi).toBe(0)
+  })
+
+  it('keeps monthly autocorrelation in the annual means', () => {
+    const noise = noiseFromFit({ resolution: 'monthly', residualSd: 0.06, phi: 0.8 })
+    expect(noise.sd).toBeGreaterThan(0.06 / Math.sqrt(12))
+    expect(noise.phi).toBeGreaterThan(0)
+    expect(noise.phi).toBeLessThan(0.8)
   })
 })
