@@ -19,8 +19,9 @@ import { siteMeasures, sitePathways } from './store'
 
 // Signposts for a decision in a pathway: how a signal read off the site's tide gauge would have fared
 // across the trajectories of the scenario's latest outlook (shared/observations/signposts.ts). The
-// trajectories are the outlook's own first samples, redrawn (about 40 ms for 20,000 on this machine),
-// so results are kept in memory by outlook input hash, decision, signal years and noise.
+// trajectories are the outlook's own first samples, redrawn; with W1 at 20,000 redrawing and the
+// signposts took 0.2–0.6 s on this machine at load 9–10, so results are kept in memory by outlook
+// input hash, decision, signal years and noise, and the page asks for them after it has loaded.
 
 const CACHE_LIMIT = 100
 const cache = new Map<string, Signposts>()
