@@ -25,6 +25,7 @@ export { claimFromCounter, runBlocks, runClaimedBlocks, type NextBlock } from '.
 export { mergePartials } from './merge'
 export { finishOutlook, PERCENTILE_LEVELS } from './finish'
 export { runOutlook } from './outlook'
+export { planTrajectories, sampleTrajectories, MAX_TRAJECTORIES, type Trajectories } from './trajectories'
 export type {
   OutlookPlan,
   OutlookPartial,

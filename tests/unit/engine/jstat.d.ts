@@ -3,6 +3,7 @@ declare module 'jstat' {
   interface JStatNormal {
     cdf(x: number, mean: number, sd: number): number
     inv(p: number, mean: number, sd: number): number
+    pdf(x: number, mean: number, sd: number): number
   }
   interface JStatLognormal {
     cdf(x: number, mu: number, sigma: number): number
