@@ -175,6 +175,8 @@ const ROUTES: Record<string, RouteCase> = {
   'health.get.ts': { unscoped: true, url: () => '/api/health', expect: anyone(200) },
   'scenarios/index.get.ts': { unscoped: true, url: () => '/api/scenarios', expect: anyone(200) },
   'me.get.ts': { unscoped: true, url: () => '/api/me', expect: { ...anyone(200), anonymous: 401 } },
+  // What is waiting in the caller's own organisation, so it names no record of another.
+  'attention.get.ts': { unscoped: true, url: () => '/api/attention', expect: { ...anyone(200), anonymous: 401 } },
   'me.patch.ts': {
     unscoped: true,
     url: () => '/api/me',
@@ -232,6 +234,12 @@ const ROUTES: Record<string, RouteCase> = {
   // Adaptation pathways: members read them; planners add measures and pathways and record decisions.
   'sites/[id]/pathways.get.ts': {
     url: (fx, scope) => `/api/sites/${pick(scope, fx.home.siteId, fx.foreign.siteId)}/pathways`,
+    expect: members,
+  },
+  'sites/[id]/signposts.get.ts': {
+    url: (fx, scope) =>
+      `/api/sites/${pick(scope, fx.home.siteId, fx.foreign.siteId)}/signposts?pathway=${fx.home.pathwayId}`
+      + `&measure=${fx.home.measureIds[0]}&scenario=${OUTLOOK_REQUEST.scenario}`,
     expect: members,
   },
   'sites/[id]/pathways.pdf.get.ts': {
