@@ -229,6 +229,17 @@ export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): Outloo
   })
 
   const observationUpdate = finishObservationUpdate(plan, merged, PERCENTILE_LEVELS)
+  if (observationUpdate && !observationUpdate.refused) {
+    // Whether the releases describe a height's tail depends on the height and the year, not on the
+    // weights: an updated chance at a height the releases do not reach is as extrapolated as the
+    // outlook's own, and gets no likelihood word either.
+    for (const updated of observationUpdate.thresholds) {
+      const plain = thresholds.find(threshold => threshold.key === updated.key)
+      updated.byYear.forEach((estimate, t) => {
+        if (plain?.byYear[t]?.extrapolated) estimate.extrapolated = true
+      })
+    }
+  }
   return {
     samples: n,
     seed: plan.seed,

@@ -87,4 +87,24 @@ describe('extrapolated percentiles and chances', () => {
     expect(small.byYear[0]!.varianceShare!['land-water']!).toBeLessThan(0.05)
     expect(small.byYear[0]!.percentiles.every(p => p.extrapolated === false)).toBe(true)
   })
+
+  it('marks an observation-updated chance at a height beyond the releases as the outlook\'s own', () => {
+    // [practice] the tail a height sits in is a property of the height and the year, not of the weights:
+    // 0.7 m in 2100 is at level 0.977 of the outlook, beyond 0.95, however a gauge record shifts the chance.
+    const times = [2000, 2005, 2010, 2015, 2020]
+    const result = runOutlook(
+      baseInput({
+        years: [2000, 2100],
+        samples: 20_000,
+        components: [quantileComponent('antarctica', levels, 0.5, 0.1)],
+        thresholds: [{ key: 'high', height: 0.7 }, { key: 'mid', height: 0.55 }],
+        observations: { times, rise: times.map(t => 0.006 * (t - 2000)), residualSd: 0.02, phi: 0 },
+      }),
+    )
+    const update = result.observationUpdate!
+    if (update.refused) throw new Error('update refused')
+    const flag = (key: string) => update.thresholds.find(th => th.key === key)!.byYear[1]!.extrapolated ?? false
+    expect(flag('high')).toBe(true)
+    expect(flag('mid')).toBe(false)
+  })
 })
