@@ -33,6 +33,15 @@ describe('signposts', () => {
       `^A signal of [\\d.]+ mm/yr by 2030 would have fired too late to decide on Raise the quay wall by 0\\.4 m in ${share} `
       + `of the outlook's futures, not fired at all in ${share} that needed it, and fired needlessly in ${share}\\.$`,
     ))
+    // Nearly every future of this demo passes the quay wall by 2150, so no signal can fire needlessly:
+    // the page says so and the chart shows lateness by threshold instead of a needless axis stuck at 0.
+    const [pathway] = (await (await page.request.get(`/api/sites/${kelwick}/pathways`)).json()).pathways
+    const query = new URLSearchParams({ pathway: pathway.id, measure: pathway.measureIds[0], scenario: 'SSP2-4.5' })
+    const needless = await (await page.request.get(`/api/sites/${kelwick}/signposts?${query}`)).json() as {
+      curves: { points: { needless: number }[] }[]
+    }
+    const lateOnly = needless.curves.every(c => c.points.every(p => p.needless < 0.01))
+    expect(await page.getByTestId('signposts-late-only').isVisible()).toBe(lateOnly)
     expect(plain(await page.getByTestId('signposts-method').textContent()))
       .toMatch(/year-to-year noise of the site's gauge record as fitted/)
     // Another threshold, another sentence; the table lists every threshold of the signal year.
