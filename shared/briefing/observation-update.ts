@@ -1,6 +1,6 @@
 import type { ObservationUpdate, OutlookResult } from '../engine'
 import { formatHeight } from '../units'
-import { formatChance } from '../wording/chance'
+import { beyondRange, formatChance } from '../wording/chance'
 import { translator } from '../wording/translate'
 import type { BriefingSource } from './document'
 import { sayChance } from './findings'
@@ -86,8 +86,14 @@ export function observationUpdateSection(
         updated: sayChance(updated.byYear[t2100]!, language).plain,
       }),
     )
+    // A trigger year resting on a level beyond the releases says so, and so does its updated year: the
+    // weights do not make the releases describe that tail.
+    const beyond = plain.triggerYears.some(entry =>
+      Math.abs(entry.tolerance - tolerance) < 1e-9 && entry.extrapolated === true)
     const say = (found: number | null) =>
-      found === null ? t('observationDocument.notWithin', { year: lastYear }) : String(found)
+      found === null
+        ? t('observationDocument.notWithin', { year: lastYear })
+        : beyond ? `${found} (${beyondRange(language)})` : String(found)
     lines.push(
       t('observationDocument.trigger', {
         threshold: threshold.label,
