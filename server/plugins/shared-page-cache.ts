@@ -65,7 +65,7 @@ async function serveStoredPage(event: H3Event) {
     return false
   }
   // The same nonce format as nuxt-security's: 16 random bytes, base64.
-  const { chunks, length, headers } = withFreshNonce(page, randomBytes(16).toString('base64'))
+  const { chunks, length, headers } = withFreshNonce(page, randomBytes(16).toString('base64'), acceptsGzip(event))
   setResponseHeaders(event, headers)
   setResponseHeader(event, 'x-page-cache', 'hit')
   setResponseHeader(event, 'content-length', length)

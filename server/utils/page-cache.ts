@@ -1,6 +1,7 @@
 import type { H3Event } from 'h3'
 import { and, eq, max } from 'drizzle-orm'
 import { briefings, outlooks } from '~~/server/db/schema'
+import { deflatePieces, gzipWithInsert, type DeflatedPieces } from './spliced-gzip'
 
 // The HTML of shared briefing pages, kept in memory so a link passed round a council meeting is
 // rendered once, not for every reader. An issued briefing never changes, so its page only changes
@@ -12,11 +13,19 @@ import { briefings, outlooks } from '~~/server/db/schema'
 //   newer science changed the briefing's numbers), checked with the same once-a-second look;
 // - each response gets a fresh CSP nonce: the page is stored with the nonce it was rendered with,
 //   and on the way out that value is replaced in the header and the tags by this response's nonce.
-//   Markup injected into the page could not have known the render-time nonce, so it stays blocked.
+//   Markup injected into the page could not have known the render-time nonce, so it stays blocked;
+// - a reader whose browser accepts gzip (every browser) gets the page compressed, about a quarter of
+//   its bytes: compressed once when stored, with the fresh nonce between the pieces (spliced-gzip.ts).
 
 // The page is kept as bytes split where the render-time nonce stood, so a hit joins bytes with its
 // own nonce instead of searching and re-encoding the whole page.
-interface CachedPage { parts: Buffer[], headers: Record<string, string>, nonce: string, storedAt: number }
+interface CachedPage {
+  parts: Buffer[]
+  gzip?: DeflatedPieces
+  headers: Record<string, string>
+  nonce: string
+  storedAt: number
+}
 
 const MAX_PAGES = 100
 const MAX_AGE_MS = 10 * 60_000
@@ -93,9 +102,10 @@ export function cachedSharedPage(key: string): CachedPage | undefined {
 
 export function storeSharedPage(key: string, body: string, headers: Record<string, string>, nonce: string) {
   const kept = Object.fromEntries(Object.entries(headers).filter(([name]) => !NOT_REPLAYED.has(name.toLowerCase())))
-  const parts = nonce ? body.split(`nonce="${nonce}"`) : [body]
+  const parts = (nonce ? body.split(`nonce="${nonce}"`) : [body]).map(part => Buffer.from(part))
+  const gzip = deflatePieces(parts, nonce ? nonceAttribute(nonce).length : 0)
   pages.delete(key)
-  pages.set(key, { parts: parts.map(part => Buffer.from(part)), headers: kept, nonce, storedAt: Date.now() })
+  pages.set(key, { parts, gzip, headers: kept, nonce, storedAt: Date.now() })
   // A Map keeps insertion order: the first key is the oldest page.
   while (pages.size > MAX_PAGES) pages.delete(pages.keys().next().value!)
 }
@@ -106,17 +116,24 @@ export function forgetSharedPages(token: string) {
   for (const key of pages.keys()) if (key.startsWith(`${token}\n`)) pages.delete(key)
 }
 
+const nonceAttribute = (nonce: string) => Buffer.from(`nonce="${nonce}"`)
+
 /**
  * The stored page with its render-time nonce replaced by a fresh one, in the tags and the header, as
  * the stored pieces with the new attribute between them: written one after another, so no request
- * copies the whole page (the copies were most of the garbage under `npm run load`).
+ * copies the whole page (the copies were most of the garbage under `npm run load`). Gzip-encoded when
+ * the reader accepts it; a fresh nonce of another length than the stored one's is sent unencoded.
  */
-export function withFreshNonce(page: CachedPage, nonce: string) {
-  if (!page.nonce) return { chunks: page.parts, length: byteLength(page.parts), headers: page.headers }
-  const headers = { ...page.headers }
+export function withFreshNonce(page: CachedPage, nonce: string, acceptsGzip: boolean) {
+  const vary = page.headers.vary ? `${page.headers.vary}, accept-encoding` : 'accept-encoding'
+  const headers: Record<string, string> = { ...page.headers, vary }
   const csp = headers['content-security-policy']
-  if (csp) headers['content-security-policy'] = csp.replaceAll(`'nonce-${page.nonce}'`, `'nonce-${nonce}'`)
-  const attribute = Buffer.from(`nonce="${nonce}"`)
+  if (page.nonce && csp) headers['content-security-policy'] = csp.replaceAll(`'nonce-${page.nonce}'`, `'nonce-${nonce}'`)
+  const attribute = page.nonce ? nonceAttribute(nonce) : Buffer.alloc(0)
+  if (acceptsGzip && page.gzip?.insertLength === attribute.length) {
+    const chunks = gzipWithInsert(page.gzip, attribute)
+    return { chunks, length: byteLength(chunks), headers: { ...headers, 'content-encoding': 'gzip' } }
+  }
   const chunks = page.parts.flatMap((part, i) => (i ? [attribute, part] : [part]))
   return { chunks, length: byteLength(chunks), headers }
 }

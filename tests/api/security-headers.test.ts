@@ -150,6 +150,32 @@ describe('the shared briefing page cache', () => {
     expect(pdf.headers.get('content-disposition')).toMatch(/^attachment; filename=".+\.pdf"$/)
   })
 
+  it('sends a cached page gzip-encoded to readers that accept it and plain to those that do not', async () => {
+    const { token } = await sharedBriefing()
+    await page(`/shared/${token}`)
+    const read = async (encoding: string) => {
+      const response = await fetch(`${server.url}/shared/${token}`, {
+        headers: { 'accept': 'text/html', 'accept-encoding': encoding },
+      })
+      // fetch inflates the body and checks the gzip trailer (CRC-32 and length) as it does.
+      const html = await response.text()
+      return { response, withoutNonce: html.replaceAll(nonceOf(response.headers.get('content-security-policy'))!, '') }
+    }
+    const gzip = await read('gzip, deflate, br')
+    const plain = await read('identity')
+    const refused = await read('gzip;q=0')
+    for (const { response } of [gzip, plain, refused]) {
+      expect(response.headers.get('x-page-cache')).toBe('hit')
+      expect(response.headers.get('vary')).toMatch(/accept-encoding/i)
+    }
+    expect(gzip.response.headers.get('content-encoding')).toBe('gzip')
+    expect(Number(gzip.response.headers.get('content-length'))).toBeLessThan(plain.withoutNonce.length / 2)
+    expect(plain.response.headers.get('content-encoding')).toBeNull()
+    expect(refused.response.headers.get('content-encoding')).toBeNull()
+    expect(gzip.withoutNonce).toBe(plain.withoutNonce)
+    expect(gzip.withoutNonce).toContain('Kelwick to 2100')
+  })
+
   it('never serves a signed-in reader from the cache', async () => {
     const { token } = await sharedBriefing()
     await page(`/shared/${token}`)

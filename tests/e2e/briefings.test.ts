@@ -185,11 +185,13 @@ describe('issuing and sharing a briefing', () => {
     expect(await reader.getByTestId('briefing-toolbar').count()).toBe(0)
     await noAxeFaults(reader, 'shared page')
     await snap(reader, 'shared')
-    // Later visits are served from the page cache with a fresh nonce: the page still hydrates and the
+    // Later visits are served from the page cache with a fresh nonce, gzip-encoded: the page still hydrates and the
     // policy blocks nothing. (The first visit set the language cookie, so the second renders once more.)
     await open(reader, shareUrl)
     const cached = await open(reader, shareUrl)
     expect(cached?.headers()['x-page-cache']).toBe('hit')
+    // Compressed once when stored, with the fresh nonce spliced in: the browser inflates it as any page.
+    expect(cached?.headers()['content-encoding']).toBe('gzip')
     expect(await reader.getByTestId('briefing-title').textContent()).toBe('Kelwick harbour: sea level to 2100')
     expect(visitor.cspViolations, 'content security policy violations on the shared page').toEqual([])
 

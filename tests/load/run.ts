@@ -1,8 +1,9 @@
 // `npm run load`: the built server on loopback with a database in a temporary folder, a shared
 // briefing set up through the API as the demo planner, then autocannon against (a) the public shared
-// briefing page, (b) a stored outlook revalidated by signed-in planners as a browser does (gzip accepted,
-// If-None-Match with the ETag of a first read: 304), (c) the outlook's status and (d) the stored outlook
-// read in full (gzip, no ETag: a reader's first visit). Prints JSON with `met` per target; build first.
+// briefing page as a browser asks for it (gzip accepted), (b) a stored outlook revalidated by signed-in
+// planners as a browser does (gzip accepted, If-None-Match with the ETag of a first read: 304), (c) the
+// outlook's status and (d) the stored outlook read in full (gzip, no ETag: a reader's first visit).
+// Prints JSON with `met` per target; build first.
 //
 // Set-up runs in a first server process (creating the database, computing the outlook); the load
 // runs against a second process opened on the same folder, as a deployed server is: PGlite's
@@ -26,7 +27,7 @@ import {
 const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 200)
 const SECONDS = Number(process.env.LOAD_SECONDS ?? 10)
 const TARGETS = { pageP95Ms: 100, outlookRevalidationP95Ms: 150, errors: 0, peakRssMb: 400 }
-/** What a browser sends: it accepts gzip (so the outlook's gzip copy and its ETag are the ones measured). */
+/** What a browser sends: it accepts gzip (so the gzip copies of the page and the outlook are the ones measured). */
 const BROWSER_ENCODING = 'gzip, deflate, br'
 
 /** Peak resident memory of a process so far (VmHWM), in MB. */
@@ -118,8 +119,9 @@ try {
   })
   if (first.status !== 200) throw new Error(`The shared page answered ${first.status}`)
   await first.text()
-  const page = await run('shared briefing page (anonymous HTML)', `${server.url}/shared/${shareToken}`, {
-    accept: 'text/html',
+  const page = await run('shared briefing page (anonymous HTML, gzip)', `${server.url}/shared/${shareToken}`, {
+    'accept': 'text/html',
+    'accept-encoding': BROWSER_ENCODING,
   })
   const pagePeakRssMb = peakRssMb(server.pid)
   const outlookUrl = `${server.url}/api/outlooks/${outlookId}`
