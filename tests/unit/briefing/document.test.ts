@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { buildBriefingDocument, type BriefingSource } from '../../../shared/briefing/document'
 import { exceedanceChartOption, fanChartOption } from '../../../shared/briefing/charts'
 import { runOutlook } from '../../../shared/engine'
+import { testportSource } from '../../support/briefing-source'
 
 // A real (small) outlook from the engine: one normal source, rise 0.5 ± 0.1 m by 2100.
 const result = runOutlook({
@@ -24,55 +25,7 @@ const result = runOutlook({
 function source(probability: number, overrides: Partial<BriefingSource> = {}): BriefingSource {
   const patched = structuredClone(result)
   patched.thresholds[0]!.byYear[2] = { value: probability, se: 0 }
-  return {
-    language: 'en',
-    units: 'm',
-    title: 'Test',
-    audience: '',
-    localContext: '',
-    version: 1,
-    previousVersion: null,
-    issuedAt: null,
-    livePath: '/briefings/x',
-    illustrative: false,
-    organisation: 'Testport Council',
-    author: 'Ada Planner',
-    site: {
-      name: 'Testport',
-      referenceLevel: 'MSL 2020',
-      landMotionRate: -2,
-      landMotionSigma: 0.5,
-      landMotionSource: 'gps',
-      landMotionReference: 'Station T',
-      landMotionEpoch: 2020,
-      datumKind: 'mean-sea-level',
-      datumOffset: 0,
-      referenceEpoch: 2020,
-    },
-    thresholds: [{ id: 't1', label: 'Quay', height: 0.5, kind: 'mean-sea-level' }],
-    years: [2100],
-    outlooks: [
-      {
-        scenario: 'SSP2-4.5',
-        inputHash: 'abc',
-        samples: 4000,
-        seed: 5,
-        correlated: false,
-        result: patched,
-        releaseRefs: [
-          {
-            component: 'glaciers',
-            version: 3,
-            citation: 'Cite (2026)',
-            state: 'published',
-            scale: 1,
-            scaleSource: null,
-          },
-        ],
-      },
-    ],
-    ...overrides,
-  }
+  return testportSource(patched, 4000, overrides)
 }
 
 const detail = (p: number, overrides: Partial<BriefingSource> = {}) =>

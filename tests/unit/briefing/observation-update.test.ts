@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
-import { buildBriefingDocument, type BriefingSource } from '../../../shared/briefing/document'
+import { buildBriefingDocument } from '../../../shared/briefing/document'
 import { runOutlook, type ObservationsInput } from '../../../shared/engine'
+import { testportSource } from '../../support/briefing-source'
 
 // A small outlook (rise 0.5 ± 0.1 m by 2100, linear from 2020) weighted by a record since 2020.
 function outlook(observations?: ObservationsInput) {
@@ -27,37 +28,7 @@ const record = (rate: number): ObservationsInput => ({
 })
 
 function document(result: ReturnType<typeof outlook>, language: 'en' | 'es' = 'en') {
-  const source: BriefingSource = {
-    language,
-    units: 'm',
-    title: 'Test',
-    audience: '',
-    localContext: '',
-    version: 1,
-    previousVersion: null,
-    issuedAt: null,
-    livePath: '/briefings/x',
-    illustrative: false,
-    organisation: 'Testport Council',
-    author: null,
-    site: {
-      name: 'Testport',
-      referenceLevel: 'MSL 2020',
-      landMotionRate: 0,
-      landMotionSigma: 0,
-      landMotionSource: 'gps',
-      landMotionReference: 'Station T',
-      landMotionEpoch: 2020,
-      datumKind: 'mean-sea-level',
-      datumOffset: 0,
-      referenceEpoch: 2020,
-    },
-    thresholds: [{ id: 't1', label: 'Quay', height: 0.5, kind: 'mean-sea-level' }],
-    years: [2100],
-    outlooks: [
-      { scenario: 'SSP2-4.5', inputHash: 'abc', samples: 8192, seed: 5, correlated: false, result, releaseRefs: [] },
-    ],
-  }
+  const source = testportSource(result, 8192, { language, author: null })
   return buildBriefingDocument(source)
 }
 
