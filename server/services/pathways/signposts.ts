@@ -8,6 +8,7 @@ import {
   MIN_SIGNAL_YEARS,
   noiseFromFit,
   signposts,
+  type SignpostDecision,
   type SignpostNoise,
   type Signposts,
 } from '#shared/observations/signposts'
@@ -26,7 +27,13 @@ import { siteMeasures, sitePathways } from './store'
 const CACHE_LIMIT = 100
 const cache = new Map<string, Signposts>()
 
-export interface SignpostsRequest { pathway: string, measure: string, scenario?: string, years?: number[] }
+export interface SignpostsRequest {
+  pathway: string
+  measure: string
+  scenario?: string
+  years?: number[]
+  tolerance?: number
+}
 
 const notFound = (message: string): never => {
   throw createError({ statusCode: 404, message })
@@ -62,8 +69,6 @@ export async function siteSignposts(user: CurrentUser, siteId: string, request: 
   const next = measures.find(m => m.id === pathway.measureIds[step + 1])!
   if (measure.height === null)
     refuse('measure', 'This measure has no height, so it never tips; choose one with a height.')
-  if (measure.kind !== 'mean-sea-level')
-    refuse('measure', 'Signposts are worked out for mean-sea-level heights; choose a measure compared with mean sea level.')
   const scenario = request.scenario ?? site.planningScenario
   const outlook = (await latestOutlooks(siteId)).find(o => o.scenario === scenario)
     ?? notFound(`No finished outlook of this site under ${scenario}: request one on the site's page first.`)
@@ -75,7 +80,15 @@ export async function siteSignposts(user: CurrentUser, siteId: string, request: 
   if (outside !== undefined || !years.length)
     refuse('years', `Give signal years from ${epoch + MIN_SIGNAL_YEARS} (${MIN_SIGNAL_YEARS} years of record after the epoch) to ${horizon}.`)
   const noise = await siteNoise(siteId)
-  const decision = { height: measure.height! - (input.datum?.offset ?? 0), leadTimeYears: next.leadTimeYears }
+  const tolerance = measure.kind === 'flood-level' ? (request.tolerance ?? pathway.tolerances[0]!) : null
+  const gumbel = input.gumbel
+  if (tolerance !== null && !gumbel)
+    refuse('measure', `The ${scenario} outlook has no extreme-water statistics to tell when a flood level tips; add them to the site and request the outlook again.`)
+  const decision: SignpostDecision = {
+    height: measure.height! - (input.datum?.offset ?? 0),
+    leadTimeYears: next.leadTimeYears,
+    ...(tolerance !== null ? { flood: { location: gumbel!.location, scale: gumbel!.scale, tolerance } } : {}),
+  }
   const key = createHash('sha256')
     .update(JSON.stringify([ENGINE_VERSION, outlook.inputHash, decision, years, noise]))
     .digest('hex')
@@ -90,7 +103,7 @@ export async function siteSignposts(user: CurrentUser, siteId: string, request: 
     scenario,
     outlookId: outlook.id,
     inputHash: outlook.inputHash,
-    measure: { id: measure.id, name: measure.name, height: measure.height },
+    measure: { id: measure.id, name: measure.name, height: measure.height, kind: measure.kind, tolerance },
     next: { id: next.id, name: next.name, leadTimeYears: next.leadTimeYears },
     ...result,
   }
