@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { ApiClient } from '../support/client'
 import { ANALYST, OPERATOR, PLANNER, PORT_PLANNER, READER } from '../support/demo-users'
 import { startServer, type RunningServer } from '../support/server'
+import { workSettled } from '../support/work'
 
 // A new gauge record reaches the site's outlooks: the upload queues the latest finished outlook of
 // each scenario again, watchers are told what the record changed, and an identical upload changes
@@ -27,14 +28,6 @@ const outlooksOfSite = async () => (await planner.get(`/api/sites/${siteId}/outl
 const mailbox = async () => (await operator.get('/api/admin/mailbox')).body as MailboxMessage[]
 const changeMails = async () => (await mailbox()).filter(m => m.to.includes(WATCHER) && /has changed/.test(m.subject))
 
-/** Every queued job and outlook on the server has finished. */
-function settled() {
-  return vi.waitFor(async () => {
-    const { work } = (await new ApiClient(server.url).get('/api/health')).body
-    if (work.jobsPending || work.outlooksRunning) throw new Error('still working')
-  }, { timeout: 60_000, interval: 100 })
-}
-
 beforeAll(async () => {
   server = await startServer({ JOBS_POLL_MS: '100', MAIL_POLL_MS: '100' })
   operator = await ApiClient.signedIn(server.url, OPERATOR.email, OPERATOR.password)
@@ -51,7 +44,7 @@ beforeAll(async () => {
   }, { timeout: 20_000, interval: 100 })
   const token = confirmation.text.match(/\/watches\/confirm\?token=([\w-]+)/)![1]
   expect((await new ApiClient(server.url).post('/api/watches/confirm', { token })).status).toBe(200)
-  await settled()
+  await workSettled(server.url)
 })
 
 afterAll(async () => {
@@ -91,12 +84,12 @@ describe('a gauge record upload brings the site\'s outlooks up to date', () => {
   })
 
   it('leaves the outlooks alone, and mails no one, when the same record is uploaded again', async () => {
-    await settled()
+    await workSettled(server.url)
     const before = await outlooksOfSite()
     const mailsBefore = (await changeMails()).length
     const again = await planner.post(`/api/sites/${siteId}/gauge-record`, { csv: RECORD })
     expect(again.body).toMatchObject({ version: 2, updatingScenarios: ['SSP2-4.5'] })
-    await settled()
+    await workSettled(server.url)
     // The same input hashes the same: the stored outlook is found and nothing is computed or mailed.
     expect(await outlooksOfSite()).toEqual(before)
     expect(await changeMails()).toHaveLength(mailsBefore)
@@ -111,7 +104,7 @@ describe('a gauge record upload brings the site\'s outlooks up to date', () => {
     const refused = await reader.post(`/api/sites/${siteId}/gauge-record`, { csv: RECORD })
     expect(refused.status).toBe(403)
     expect(refused.body.message).toBe('This needs the planner role.')
-    await settled()
+    await workSettled(server.url)
     expect(await outlooksOfSite()).toEqual(before)
     expect((await planner.get(`/api/sites/${siteId}/gauge-record`)).body.versions).toHaveLength(2)
   })

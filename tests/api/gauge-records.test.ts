@@ -1,7 +1,8 @@
-import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient } from '../support/client'
 import { PLANNER, PORT_PLANNER, READER } from '../support/demo-users'
 import { startServer, type RunningServer } from '../support/server'
+import { workSettled } from '../support/work'
 
 let server: RunningServer
 let planner: ApiClient
@@ -18,14 +19,6 @@ function rising(years = 45, from = 1981, skip: number[] = [], rate = 0.006) {
     .filter(year => !skip.includes(year))
     .map(year => `${year},${(1.2 + rate * (year + 0.5 - 2020) + (year % 2 ? 0.004 : -0.004)).toFixed(4)}`)
   return `year,height\n${rows.join('\n')}\n`
-}
-
-/** Every queued job and outlook has finished (an upload queues the site's outlooks again). */
-function settled() {
-  return vi.waitFor(async () => {
-    const { work } = (await new ApiClient(server.url).get('/api/health')).body
-    if (work.jobsPending || work.outlooksRunning) throw new Error('still working')
-  }, { timeout: 60_000, interval: 100 })
 }
 
 beforeAll(async () => {
@@ -84,7 +77,7 @@ describe('tide-gauge records', () => {
     expect(outlook.status).toBe(201)
     await planner.post(`/api/sites/${siteId}/gauge-record`, { csv: rising() })
     // The upload computes that outlook again, weighted by the record: tracking reads the newest.
-    await settled()
+    await workSettled(server.url)
     const [latest] = (await planner.get(`/api/sites/${siteId}/outlooks`)).body as Array<{ id: string }>
     const read = (await planner.get(`/api/sites/${siteId}/gauge-record`)).body
     expect(read.tracking.map((entry: { scenario: string }) => entry.scenario)).toEqual(['SSP2-4.5'])
