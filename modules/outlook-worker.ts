@@ -3,17 +3,19 @@ import { join } from 'node:path'
 import { build } from 'esbuild'
 import { defineNuxtModule } from 'nuxt/kit'
 
-// Outlooks and a release's checks run on worker threads, which need script files of their own. This
-// bundles the outlook thread (server/outlooks/worker.ts, beside the rest of the outlook feature) and
-// server/workers/release-worker.ts, with the engine they import, using esbuild: into .nuxt for `nuxt dev`,
-// and beside the built server (.output/server/workers) for production. It stays in modules/ because Nuxt
-// loads build-time modules from there; the code it bundles lives with its feature.
+// Outlooks, a release's checks and signposts run on worker threads, which need script files of their
+// own. This bundles the outlook thread (server/outlooks/worker.ts, beside the rest of the outlook
+// feature), server/workers/release-worker.ts and server/workers/signposts-worker.ts, with the engine
+// they import, using esbuild: into .nuxt for `nuxt dev`, and beside the built server
+// (.output/server/workers) for production. It stays in modules/ because Nuxt loads build-time modules
+// from there; the code it bundles lives with its feature.
 export default defineNuxtModule({
   meta: { name: 'outlook-worker' },
   setup(_options, nuxt) {
     const entries = {
       'outlook-worker': 'server/outlooks/worker.ts',
       'release-worker': 'server/workers/release-worker.ts',
+      'signposts-worker': 'server/workers/signposts-worker.ts',
     }
     const entry = (name: keyof typeof entries) => join(nuxt.options.rootDir, entries[name])
     const bundleOne = (name: keyof typeof entries, dir: string) =>
@@ -26,12 +28,14 @@ export default defineNuxtModule({
         target: 'node20',
         logLevel: 'warning',
       })
-    const bundle = (dir: string) => Promise.all([bundleOne('outlook-worker', dir), bundleOne('release-worker', dir)])
+    const bundle = (dir: string) =>
+      Promise.all((Object.keys(entries) as Array<keyof typeof entries>).map(name => bundleOne(name, dir)))
 
     if (nuxt.options.dev) {
       const dir = join(nuxt.options.buildDir, 'workers')
       nuxt.options.runtimeConfig.outlookWorkerPath = join(dir, 'outlook-worker.mjs')
       nuxt.options.runtimeConfig.releaseWorkerPath = join(dir, 'release-worker.mjs')
+      nuxt.options.runtimeConfig.signpostsWorkerPath = join(dir, 'signposts-worker.mjs')
       nuxt.hook('nitro:build:before', async () => {
         await mkdir(dir, { recursive: true })
         await bundle(dir)
@@ -40,6 +44,7 @@ export default defineNuxtModule({
     }
     nuxt.options.runtimeConfig.outlookWorkerPath = ''
     nuxt.options.runtimeConfig.releaseWorkerPath = ''
+    nuxt.options.runtimeConfig.signpostsWorkerPath = ''
     nuxt.hook('nitro:init', (nitro) => {
       nitro.hooks.hook('compiled', async () => {
         await bundle(join(nitro.options.output.serverDir, 'workers'))

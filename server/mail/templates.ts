@@ -87,6 +87,8 @@ export interface WhatChanged {
   cause: string
   chances: ChangeRow[]
   ranges: RangeRow[]
+  /** The rise updated by the gauge record, where either outlook was weighted by one. */
+  updatedRanges?: RangeRow[]
   releases: ReleaseChange[]
   horizons?: HorizonChange[]
   /**
@@ -120,6 +122,15 @@ export function whatChangedMail(m: WhatChanged): MailBody {
       ],
     },
   ]
+  if (m.updatedRanges?.length) {
+    blocks.push({
+      heading: t('emails.whatChanged.updatedRanges'),
+      rows: [
+        t.list('emails.whatChanged.rangeColumns'),
+        ...m.updatedRanges.map(r => [r.scenario, String(r.year), r.before, r.after]),
+      ],
+    })
+  }
   if (m.releases.length) {
     blocks.push({
       heading: t('emails.whatChanged.releases'),

@@ -1,5 +1,5 @@
-import { desc, eq, sql } from 'drizzle-orm'
-import { gaugeRecords, sites } from '~~/server/db/schema'
+import { and, desc, eq, sql } from 'drizzle-orm'
+import { gaugeRecords, outlooks, sites } from '~~/server/db/schema'
 import { gaugePoints, parseGaugeRecordCsv } from '#shared/observations/gauge-record'
 import { fitGaugeTrend, GaugeFitError, type GaugeTrendFit } from '#shared/observations/gauge-trend'
 import { trackAgainstOutlook, type Tracking } from '#shared/observations/tracking'
@@ -9,7 +9,9 @@ import { loadSite } from './sites'
 
 // A site's tide-gauge record: uploads are versions (the latest is shown, earlier ones are kept), the
 // fit is made once at upload, and tracking against the site's outlooks is worked out on read, so a
-// new outlook is compared without a new upload.
+// new outlook is compared without a new upload. An upload queues the site's latest outlooks again, so
+// their observation-updated numbers rest on the new version (an unchanged input hashes the same and
+// is left alone).
 
 function fitOrIssue(
   points: ReturnType<typeof gaugePoints>,
@@ -24,12 +26,17 @@ function fitOrIssue(
   }
 }
 
+/**
+ * Stores a new version and queues the recomputation of the site's latest finished outlook of each
+ * scenario; `updatingScenarios` names those scenarios, for the answer to say they are being brought up
+ * to date.
+ */
 export async function uploadGaugeRecord(planner: CurrentUser, siteId: string, csv: string) {
   const site = await loadSite(planner, siteId)
   const record = asBadRequest(() => parseGaugeRecordCsv(csv))
   const { fit, fitIssue } = fitOrIssue(gaugePoints(record), record.resolution)
   const db = await useDb()
-  return db.transaction(async (tx) => {
+  const stored = await db.transaction(async (tx) => {
     // Two uploads at once take their versions in turn instead of colliding on the unique version.
     await tx.select({ id: sites.id }).from(sites).where(eq(sites.id, siteId)).for('update')
     const [latest] = await tx.select({ version: gaugeRecords.version }).from(gaugeRecords)
@@ -55,8 +62,14 @@ export async function uploadGaugeRecord(planner: CurrentUser, siteId: string, cs
       { type: 'site', id: siteId },
       { site: site.name, version, values: record.values.length, resolution: record.resolution },
     )
-    return row!
+    const finished = await tx.selectDistinct({ scenario: outlooks.scenario }).from(outlooks)
+      .where(and(eq(outlooks.siteId, siteId), eq(outlooks.state, 'done'))).orderBy(outlooks.scenario)
+    if (finished.length)
+      await enqueueJob(tx, 'recompute-site', { siteId, cause: { kind: 'gauge-record', site: site.name, version } })
+    return { ...row!, updatingScenarios: finished.map(outlook => outlook.scenario) }
   })
+  kickJobs()
+  return stored
 }
 
 export interface ScenarioTracking { scenario: string, outlookId: string, epoch: number, tracking: Tracking | null }

@@ -58,8 +58,8 @@ export interface Comparison {
   after: typeof outlooks.$inferSelect
 }
 
-function median(result: OutlookResult, t: number, level: number) {
-  return result.byYear[t]!.percentiles.find(p => Math.abs(p.level - level) < 1e-9)!.value
+function median(byYear: Pick<OutlookResult['byYear'][number], 'percentiles'>[], t: number, level: number) {
+  return byYear[t]!.percentiles.find(p => Math.abs(p.level - level) < 1e-9)!.value
 }
 
 /**
@@ -96,6 +96,7 @@ function describe(
   const t = translator(language)
   const chances: ChangeRow[] = []
   const ranges: RangeRow[] = []
+  const updatedRanges: RangeRow[] = []
   const releases: ReleaseChange[] = []
   const horizons: HorizonChange[] = []
   for (const { scenario, before, after } of comparisons) {
@@ -139,11 +140,20 @@ function describe(
         ? 2100
         : a.years.at(-1)!
     if (year === undefined) continue
-    const range = (r: OutlookResult) => {
-      const t = r.years.indexOf(year)
-      return t < 0 ? '—' : `${height(median(r, t, 0.5))} (${height(median(r, t, 0.17))}–${height(median(r, t, 0.83))})`
+    const range = (r: OutlookResult, byYear: Parameters<typeof median>[0] = r.byYear) => {
+      const i = r.years.indexOf(year)
+      return i < 0 ? '—' : `${height(median(byYear, i, 0.5))} (${height(median(byYear, i, 0.17))}–${height(median(byYear, i, 0.83))})`
     }
     ranges.push({ scenario, year, before: range(b), after: range(a) })
+    // A new gauge record leaves the projections as they were; what moves is the range the record updates.
+    if (b.observationUpdate || a.observationUpdate) {
+      const updated = (r: OutlookResult) => {
+        const update = r.observationUpdate
+        if (!update) return t('emails.whatChanged.updateNone')
+        return update.refused ? t('emails.whatChanged.updateRefused') : range(r, update.byYear)
+      }
+      updatedRanges.push({ scenario, year, before: updated(b), after: updated(a) })
+    }
     for (const ref of after.releaseRefs) {
       const was = before.releaseRefs.find(r => r.component === ref.component)
       if (was?.releaseId !== ref.releaseId)
@@ -155,7 +165,7 @@ function describe(
         })
     }
   }
-  return { chances, ranges, releases, horizons, shown: comparisons.length }
+  return { chances, ranges, updatedRanges, releases, horizons, shown: comparisons.length }
 }
 
 /**

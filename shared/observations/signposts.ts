@@ -15,6 +15,10 @@ import { MIN_TRACKING_YEARS } from './tracking'
 //   missed   tips but never fires
 //   needless fires but does not tip by the horizon
 //   quiet    neither
+// For a flood-level measure a trajectory tips in the first year its annual chance of the water reaching
+// the level (Gumbel annual maxima with the site's statistics, shifted by the trajectory's rise, as the
+// engine's annual flood chances) passes the chosen tolerance. That chance grows with the rise, so it is
+// the first year the rise exceeds one height (`floodTippingHeight`); the signal is the same gauge rate.
 // Over thresholds x this is the trade-off a planner chooses on: a lower x misses less and fires more
 // often for nothing. Rates are fractions of all trajectories.
 //
@@ -42,6 +46,26 @@ export interface SignpostDecision {
   height: number
   /** Lead time of the next measure: its decision is due this many years before the tipping year. */
   leadTimeYears: number
+  /**
+   * A flood level: the site's Gumbel statistics (metres above mean sea level at the epoch) and the
+   * annual chance of reaching the level past which it tips. Absent: a mean-sea-level height.
+   */
+  flood?: { location: number, scale: number, tolerance: number }
+}
+
+/**
+ * The rise past which a flood level's annual chance exceeds the tolerance p. With Gumbel annual maxima
+ * F(z) = exp(−e^{−(z − μ)/λ}) shifted by a rise r, the chance of reaching h is 1 − F(h − r) (Coles 2001,
+ * "An Introduction to Statistical Modeling of Extreme Values", §3.1.3; `annualExceedance` in
+ * shared/engine/flood-chance.ts), increasing in r, and 1 − F(h − r) > p ⟺ r > h − μ + λ·ln(−ln(1 − p)).
+ */
+export function floodTippingHeight(height: number, flood: NonNullable<SignpostDecision['flood']>): number {
+  return height - flood.location + flood.scale * Math.log(-Math.log1p(-flood.tolerance))
+}
+
+/** The rise a trajectory tips past: the height itself, or a flood level's (see `floodTippingHeight`). */
+export function tippingRise(decision: SignpostDecision): number {
+  return decision.flood ? floodTippingHeight(decision.height, decision.flood) : decision.height
 }
 
 export interface SignpostPoint {
@@ -196,7 +220,7 @@ export function signposts(
     if (!Number.isInteger(year) || year < epoch + MIN_SIGNAL_YEARS || year > horizon)
       throw new RangeError(`A signal year must be a whole year from ${epoch + MIN_SIGNAL_YEARS} to ${horizon}.`)
   }
-  const tipping = trajectoryTipping(trajectories, decision.height)
+  const tipping = trajectoryTipping(trajectories, tippingRise(decision))
   const simulated = gaugeNoise(trajectories.count, Math.max(...signalYears) - epoch + 1, noise, seed)
   const rates = signalYears.map(year => fittedRates(trajectories, simulated, year))
   const grid = thresholds ?? thresholdGrid(rates)

@@ -39,4 +39,10 @@ export const SignpostsQuery = z.object({
     .regex(SCENARIO_PATTERN, { error: 'Name a scenario with an outlook of this site, like SSP2-4.5.' })
     .optional(),
   years: signalYears.optional(),
+  /** A flood-level measure tips when its chance in a year passes this (the pathway's first tolerance when left out). */
+  tolerance: z.coerce
+    .number({ error: 'Give the tolerance as a chance between 0.01 and 0.99, like 0.1 for 10 %.' })
+    .min(0.01, { error: 'A tolerance is at least 0.01 (1 %).' })
+    .max(0.99, { error: 'A tolerance is at most 0.99 (99 %).' })
+    .optional(),
 })

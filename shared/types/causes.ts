@@ -10,6 +10,8 @@ export type RecomputationCause
     | { kind: 'scale-factor-grid', action: ScienceAction, component: string, version: number }
     | { kind: 'site-edited', site: string }
     | { kind: 'annual-maxima', site: string }
+  /** A new version of the site's tide-gauge record: what the observation-updated numbers rest on. */
+    | { kind: 'gauge-record', site: string, version: number }
   /** An operator asked (after an engine upgrade, say); scenario null is every scenario. */
     | { kind: 'requested', scenario: string | null }
 

@@ -7,6 +7,7 @@ const KINDS = new Set<string>([
   'scale-factor-grid',
   'site-edited',
   'annual-maxima',
+  'gauge-record',
   'requested',
 ] satisfies RecomputationCause['kind'][])
 
@@ -38,6 +39,8 @@ export function causeSentence(cause: StoredCause, language: Language): string {
       return t('causes.siteEdited', { site: cause.site })
     case 'annual-maxima':
       return t('causes.annualMaxima', { site: cause.site })
+    case 'gauge-record':
+      return t('causes.gaugeRecord', { site: cause.site, version: cause.version })
     case 'requested':
       return cause.scenario ? t('causes.requestedScenario', { scenario: cause.scenario }) : t('causes.requested')
   }

@@ -11,7 +11,7 @@ interface Point { threshold: number, fired: number, timely: number, late: number
 interface Signposts {
   scenario: string
   outlookId: string
-  measure: { id: string, height: number }
+  measure: { id: string, height: number, kind: string, tolerance: number | null }
   next: { id: string, leadTimeYears: number }
   trajectories: number
   epoch: number
@@ -104,6 +104,74 @@ describe('signposts', () => {
     const r = await planner.get(path(query()))
     expect(r.status).toBe(400)
     expect(r.body.message).toMatch(message)
+  })
+
+  describe('for a flood-level measure', () => {
+    let flood: { id: string, measureIds: string[] }
+    let outlookInput: { gumbel: { location: number, scale: number }, datum?: { offset: number } }
+
+    beforeAll(async () => {
+      const measure = async (body: Record<string, unknown>) =>
+        (await planner.post(`/api/sites/${siteId}/measures`, body)).body.id as string
+      const wall = await measure({ name: 'Sea wall crest at 2.3 m', height: 2.3, kind: 'flood-level', leadTimeYears: 0 })
+      const retreat = await measure({ name: 'Move the quay inland', height: null, leadTimeYears: 15 })
+      const made = await planner.post(`/api/sites/${siteId}/pathways`, {
+        name: 'Hold the wall, then retreat', measureIds: [wall, retreat], tolerances: [0.1, 0.5],
+      })
+      expect(made.status).toBe(201)
+      flood = { id: made.body.id, measureIds: [wall, retreat] }
+      const outlookId = (await planner.get(path(`pathway=${pathway.id}&measure=${pathway.measureIds[0]}`))).body.outlookId
+      outlookInput = (await planner.get(`/api/outlooks/${outlookId}`)).body.input
+    })
+
+    const floodQuery = (extra = '') => `pathway=${flood.id}&measure=${flood.measureIds[0]}${extra}`
+
+    it('tips where the Gumbel chance passes the tolerance: as a mean-sea-level height at the rise that passes it', async () => {
+      const r = await planner.get(path(floodQuery()))
+      expect(r.status).toBe(200)
+      const body = r.body as Signposts
+      // The pathway's first tolerance unless another is asked for.
+      expect(body.measure).toMatchObject({ kind: 'flood-level', tolerance: 0.1 })
+      // [textbook: Coles 2001, §3.1.3] 1 − F(H − r) > p ⟺ r > H − μ + λ·ln(−ln(1 − p)), with the outlook's own
+      // Gumbel statistics (above mean sea level at the epoch) and the level less the datum offset.
+      const offset = outlookInput.datum?.offset ?? 0
+      const { location, scale } = outlookInput.gumbel
+      const passing = 2.3 - offset - location + scale * Math.log(-Math.log(1 - 0.1))
+      const height = await planner.post(`/api/sites/${siteId}/measures`, {
+        name: 'The same, as mean sea level', height: passing + offset, leadTimeYears: 0,
+      })
+      const retreat = (await planner.post(`/api/sites/${siteId}/measures`, {
+        name: 'Retreat after it', height: null, leadTimeYears: 15,
+      })).body.id
+      const twin = await planner.post(`/api/sites/${siteId}/pathways`, {
+        name: 'Mean-sea-level twin', measureIds: [height.body.id, retreat],
+      })
+      const same = (await planner.get(path(`pathway=${twin.body.id}&measure=${height.body.id}`))).body as Signposts
+      expect(same.measure.tolerance).toBeNull()
+      expect(body.tipped).toBeGreaterThan(0)
+      expect(body.tipped).toBe(same.tipped)
+      expect(body.curves).toEqual(same.curves)
+    })
+
+    it('tips no earlier at a higher tolerance, so the same signal is too late less often', async () => {
+      const years = '&years=2030,2040'
+      const low = (await planner.get(path(floodQuery(`${years}&tolerance=0.1`)))).body as Signposts
+      const high = (await planner.get(path(floodQuery(`${years}&tolerance=0.5`)))).body as Signposts
+      expect(high.measure.tolerance).toBe(0.5)
+      expect(high.tipped).toBeLessThanOrEqual(low.tipped)
+      const lateness = (s: Signposts) => s.curves.flatMap(c => c.points.map(p => p.late + p.missed))
+      const thresholds = (s: Signposts) => s.curves.map(c => c.points.map(p => p.threshold))
+      // The same gauge, so the same thresholds and firing; only the tipping years move.
+      expect(thresholds(high)).toEqual(thresholds(low))
+      lateness(high).forEach((share, k) => expect(share).toBeLessThanOrEqual(lateness(low)[k]! + 1e-12))
+      expect(lateness(high).reduce((a, b) => a + b)).toBeLessThan(lateness(low).reduce((a, b) => a + b))
+    })
+
+    it('refuses a tolerance that is not a chance', async () => {
+      const r = await planner.get(path(floodQuery('&tolerance=10')))
+      expect(r.status).toBe(400)
+      expect(r.body.message).toMatch(/^tolerance: A tolerance is at most 0\.99/)
+    })
   })
 
   it('answers 404 for a scenario the site has no outlook of', async () => {

@@ -1,13 +1,13 @@
 import { createHash } from 'node:crypto'
 import { desc, eq } from 'drizzle-orm'
 import { gaugeRecords } from '~~/server/db/schema'
-import { MAX_TRAJECTORIES, planTrajectories, sampleTrajectories } from '#shared/engine'
+import { MAX_TRAJECTORIES } from '#shared/engine'
 import { ENGINE_VERSION } from '#shared/engine/version'
 import {
   DEFAULT_NOISE_SD_M,
   MIN_SIGNAL_YEARS,
   noiseFromFit,
-  signposts,
+  type SignpostDecision,
   type SignpostNoise,
   type Signposts,
 } from '#shared/observations/signposts'
@@ -15,18 +15,27 @@ import type { CurrentUser } from '../../utils/auth'
 import { latestOutlooks } from '../notify'
 import { loadSite } from '../sites'
 import { refuse } from './refuse'
+import { signpostsOffThread } from './signposts-thread'
 import { siteMeasures, sitePathways } from './store'
 
 // Signposts for a decision in a pathway: how a signal read off the site's tide gauge would have fared
 // across the trajectories of the scenario's latest outlook (shared/observations/signposts.ts). The
 // trajectories are the outlook's own first samples, redrawn; with W1 at 20,000 redrawing and the
-// signposts took 0.2–0.6 s on this machine at load 9–10, so results are kept in memory by outlook
-// input hash, decision, signal years and noise, and the page asks for them after it has loaded.
+// signposts took 0.2–0.6 s on this machine at load 9–10, so they run on a worker thread
+// (signposts-thread.ts), results are kept in memory by outlook input hash, decision, signal years and
+// noise (the pending answer too, so a second reader waits for the first), and the page asks for them
+// after it has loaded.
 
 const CACHE_LIMIT = 100
-const cache = new Map<string, Signposts>()
+const cache = new Map<string, Promise<Signposts>>()
 
-export interface SignpostsRequest { pathway: string, measure: string, scenario?: string, years?: number[] }
+export interface SignpostsRequest {
+  pathway: string
+  measure: string
+  scenario?: string
+  years?: number[]
+  tolerance?: number
+}
 
 const notFound = (message: string): never => {
   throw createError({ statusCode: 404, message })
@@ -62,8 +71,6 @@ export async function siteSignposts(user: CurrentUser, siteId: string, request: 
   const next = measures.find(m => m.id === pathway.measureIds[step + 1])!
   if (measure.height === null)
     refuse('measure', 'This measure has no height, so it never tips; choose one with a height.')
-  if (measure.kind !== 'mean-sea-level')
-    refuse('measure', 'Signposts are worked out for mean-sea-level heights; choose a measure compared with mean sea level.')
   const scenario = request.scenario ?? site.planningScenario
   const outlook = (await latestOutlooks(siteId)).find(o => o.scenario === scenario)
     ?? notFound(`No finished outlook of this site under ${scenario}: request one on the site's page first.`)
@@ -75,22 +82,34 @@ export async function siteSignposts(user: CurrentUser, siteId: string, request: 
   if (outside !== undefined || !years.length)
     refuse('years', `Give signal years from ${epoch + MIN_SIGNAL_YEARS} (${MIN_SIGNAL_YEARS} years of record after the epoch) to ${horizon}.`)
   const noise = await siteNoise(siteId)
-  const decision = { height: measure.height! - (input.datum?.offset ?? 0), leadTimeYears: next.leadTimeYears }
+  const tolerance = measure.kind === 'flood-level' ? (request.tolerance ?? pathway.tolerances[0]!) : null
+  const gumbel = input.gumbel
+  if (tolerance !== null && !gumbel)
+    refuse('measure', `The ${scenario} outlook has no extreme-water statistics to tell when a flood level tips; add them to the site and request the outlook again.`)
+  const decision: SignpostDecision = {
+    height: measure.height! - (input.datum?.offset ?? 0),
+    leadTimeYears: next.leadTimeYears,
+    ...(tolerance !== null ? { flood: { location: gumbel!.location, scale: gumbel!.scale, tolerance } } : {}),
+  }
   const key = createHash('sha256')
     .update(JSON.stringify([ENGINE_VERSION, outlook.inputHash, decision, years, noise]))
     .digest('hex')
-  let result = cache.get(key)
-  if (!result) {
-    const trajectories = sampleTrajectories(planTrajectories(input), Math.min(input.samples, MAX_TRAJECTORIES))
-    result = signposts(trajectories, decision, years, noise, input.seed)
+  let pending = cache.get(key)
+  if (!pending) {
+    pending = signpostsOffThread({
+      input, trajectories: Math.min(input.samples, MAX_TRAJECTORIES), decision, years, noise, seed: input.seed,
+    })
     if (cache.size >= CACHE_LIMIT) cache.delete(cache.keys().next().value!)
-    cache.set(key, result)
+    cache.set(key, pending)
+    // A failed run is not kept: the next request tries again.
+    pending.catch(() => cache.get(key) === pending && cache.delete(key))
   }
+  const result = await pending
   return {
     scenario,
     outlookId: outlook.id,
     inputHash: outlook.inputHash,
-    measure: { id: measure.id, name: measure.name, height: measure.height },
+    measure: { id: measure.id, name: measure.name, height: measure.height, kind: measure.kind, tolerance },
     next: { id: next.id, name: next.name, leadTimeYears: next.leadTimeYears },
     ...result,
   }

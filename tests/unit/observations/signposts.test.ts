@@ -1,7 +1,14 @@
 import { describe, expect, it } from 'vitest'
 import jStatPackage from 'jstat'
 import { planTrajectories, sampleTrajectories } from '../../../shared/engine/trajectories'
-import { gaugeNoise, noiseFromFit, signposts, thresholdGrid } from '../../../shared/observations/signposts'
+import { annualExceedance } from '../../../shared/engine/flood-chance'
+import {
+  gaugeNoise,
+  noiseFromFit,
+  signposts,
+  thresholdGrid,
+  trajectoryTipping,
+} from '../../../shared/observations/signposts'
 
 const { jStat } = jStatPackage
 
@@ -48,11 +55,11 @@ function simpson(f: (r: number) => number, a: number, b: number, intervals = 400
   return (sum * h) / 3
 }
 
-function closedForm(threshold: number, signalYear: number) {
+function closedForm(threshold: number, signalYear: number, height = HEIGHT) {
   const n = signalYear - EPOCH + 1
   const sigmaE = (1000 * NOISE_SD) / Math.sqrt((n * (n * n - 1)) / 12)
-  const rT = (1000 * HEIGHT) / (HORIZON - EPOCH)
-  const rL = (1000 * HEIGHT) / (signalYear + LEAD - 1 - EPOCH)
+  const rT = (1000 * height) / (HORIZON - EPOCH)
+  const rL = (1000 * height) / (signalYear + LEAD - 1 - EPOCH)
   const density = (r: number) => jStat.normal.pdf(r, MU, SIGMA)
   const fires = (r: number) => 1 - jStat.normal.cdf(threshold, r, sigmaE)
   const low = MU - 9 * SIGMA
@@ -114,6 +121,50 @@ describe('signposts against the closed form for linear rise and white noise', ()
     const decision = { height: HEIGHT, leadTimeYears: LEAD }
     expect(() => signposts(trajectories, decision, [2022], noise, 3)).toThrow(/from 2025 to 2120/)
     expect(() => signposts(trajectories, decision, [2121], noise, 3)).toThrow(/from 2025 to 2120/)
+  })
+})
+
+// A flood level H with Gumbel annual maxima (location μ, scale λ above mean sea level at the epoch) tips
+// when its annual chance 1 − F(H − r) passes the tolerance p. [textbook: Coles 2001, "An Introduction to
+// Statistical Modeling of Extreme Values", §3.1.3, the Gumbel distribution F(z) = exp(−e^{−(z − μ)/λ})]
+// 1 − F(H − r) > p ⟺ r > h* = H − μ + λ·ln(−ln(1 − p)), so under linear rise the miss, needless and late
+// rates are the mean-sea-level closed form above with h* for h.
+describe('signposts for a flood level against the closed form', () => {
+  const flood = { location: 0.9, scale: 0.1, tolerance: 0.1 }
+  const level = 1.4
+  const effective = level - flood.location + flood.scale * Math.log(-Math.log(1 - flood.tolerance))
+  const trajectories = sampleTrajectories(planTrajectories(linearRiseInput()), N)
+  const noise = { sd: NOISE_SD, phi: 0, source: 'default' as const }
+  const decision = { height: level, leadTimeYears: LEAD, flood }
+  const result = signposts(trajectories, decision, [2050], noise, 3, [3, 5, 7])
+
+  it('tips each trajectory in the first year its Gumbel annual chance passes the tolerance', () => {
+    const tipping = trajectoryTipping(trajectories, effective)
+    const { count, yearCount, firstYear, rise } = trajectories
+    for (let i = 0; i < count; i += 97) {
+      let year = -1
+      for (let y = 0; y < yearCount && year < 0; y++) {
+        if (annualExceedance(rise[i * yearCount + y]!, level - flood.location, 1 / flood.scale) > flood.tolerance)
+          year = firstYear + y
+      }
+      expect(tipping[i]).toBe(year)
+    }
+  })
+
+  it('matches the miss, needless and late rates of h* = H − μ + λ·ln(−ln(1 − p)) within 4 Monte Carlo SE', () => {
+    // h* ≈ 0.275 m: most trajectories (5 ± 1.5 mm/yr over a century) tip by the horizon, some do not.
+    const expectedTipped = 1 - jStat.normal.cdf((1000 * effective) / (HORIZON - EPOCH), MU, SIGMA)
+    const tippedSe = Math.sqrt((expectedTipped * (1 - expectedTipped)) / N)
+    expect(Math.abs(result.tipped - expectedTipped)).toBeLessThan(4 * tippedSe)
+    for (const [j, x] of [3, 5, 7].entries()) {
+      const expected = closedForm(x, 2050, effective)
+      for (const rate of ['missed', 'needless', 'late'] as const) {
+        const p = expected[rate]
+        // [practice] a proportion of N independent trajectories has SE √(p(1 − p)/N); 1/N covers p near 0.
+        const se = Math.sqrt((p * (1 - p)) / N) + 1 / N
+        expect(Math.abs(result.curves[0]!.points[j]![rate] - p), `${rate} at ${x}`).toBeLessThan(4 * se)
+      }
+    }
   })
 })
 

@@ -1,0 +1,111 @@
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
+import { ApiClient } from '../support/client'
+import { ANALYST, OPERATOR, PLANNER, PORT_PLANNER, READER } from '../support/demo-users'
+import { startServer, type RunningServer } from '../support/server'
+import { workSettled } from '../support/work'
+
+// A new gauge record reaches the site's outlooks: the upload queues the latest finished outlook of
+// each scenario again, watchers are told what the record changed, and an identical upload changes
+// nothing.
+
+let server: RunningServer
+let operator: ApiClient
+let planner: ApiClient
+let siteId: string
+let firstOutlookId: string
+
+interface Listed { id: string, scenario: string, state: string, seed: number, samples: number }
+interface MailboxMessage { to: string[], subject: string, text: string }
+
+const WATCHER = 'harbour-watcher@example.org'
+
+/** Annual means 1981–2025 rising 4 mm/yr through 1.20 m in 2020 above the datum, with a small wobble. */
+const RECORD = `year,height\n${Array.from({ length: 45 }, (_, i) => 1981 + i)
+  .map(year => `${year},${(1.2 + 0.004 * (year + 0.5 - 2020) + (year % 2 ? 0.004 : -0.004)).toFixed(4)}`)
+  .join('\n')}\n`
+
+const outlooksOfSite = async () => (await planner.get(`/api/sites/${siteId}/outlooks`)).body as Listed[]
+const mailbox = async () => (await operator.get('/api/admin/mailbox')).body as MailboxMessage[]
+const changeMails = async () => (await mailbox()).filter(m => m.to.includes(WATCHER) && /has changed/.test(m.subject))
+
+beforeAll(async () => {
+  server = await startServer({ JOBS_POLL_MS: '100', MAIL_POLL_MS: '100' })
+  operator = await ApiClient.signedIn(server.url, OPERATOR.email, OPERATOR.password)
+  planner = await ApiClient.signedIn(server.url, PLANNER.email, PLANNER.password)
+  siteId = (await planner.get('/api/sites')).body.find((s: { name: string }) => s.name === 'Lowmere').id
+  const outlook = await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 7 })
+  expect(outlook.status).toBe(201)
+  firstOutlookId = outlook.body.id
+  expect((await planner.post('/api/watches', { email: WATCHER, siteId })).status).toBeLessThan(300)
+  const confirmation = await vi.waitFor(async () => {
+    const found = (await mailbox()).find(m => m.to.includes(WATCHER))
+    if (!found) throw new Error('not sent yet')
+    return found
+  }, { timeout: 20_000, interval: 100 })
+  const token = confirmation.text.match(/\/watches\/confirm\?token=([\w-]+)/)![1]
+  expect((await new ApiClient(server.url).post('/api/watches/confirm', { token })).status).toBe(200)
+  await workSettled(server.url)
+})
+
+afterAll(async () => {
+  await server?.stop()
+})
+
+describe('a gauge record upload brings the site\'s outlooks up to date', () => {
+  it('queues the scenario\'s latest outlook again, weighted by the record, and tells the watchers why', async () => {
+    const upload = await planner.post(`/api/sites/${siteId}/gauge-record`, { csv: RECORD })
+    expect(upload.status).toBe(201)
+    expect(upload.body).toMatchObject({ version: 1, updatingScenarios: ['SSP2-4.5'] })
+
+    const updated = await vi.waitFor(async () => {
+      const found = (await outlooksOfSite()).find(o => o.scenario === 'SSP2-4.5' && o.id !== firstOutlookId)
+      if (found?.state !== 'done') throw new Error('not computed yet')
+      return found
+    }, { timeout: 60_000, interval: 100 })
+    // Computed again with the outlook's own seed and samples, now weighted by the record since the 2020 epoch.
+    expect(updated).toMatchObject({ seed: 7, samples: 20_000 })
+    const outlook = (await planner.get(`/api/outlooks/${updated.id}`)).body
+    expect(outlook.input.observations.times).toEqual([2020.5, 2021.5, 2022.5, 2023.5, 2024.5, 2025.5])
+    expect(outlook.result.observationUpdate).toMatchObject({ method: 'likelihood-weighting', observations: 6 })
+
+    const [mail] = await vi.waitFor(async () => {
+      const found = await changeMails()
+      if (!found.length) throw new Error('not sent yet')
+      return found
+    }, { timeout: 20_000, interval: 100 })
+    expect(mail!.text).toContain(
+      'Version 1 of the tide-gauge record of Lowmere was uploaded. The projections themselves are unchanged; '
+      + 'the outlooks updated by the observed record now rest on this version.',
+    )
+    // The updated range is new: the outlook before had no record to be weighted by.
+    expect(mail!.text).toContain('Rise updated by the tide-gauge record: middle estimate (likely range)')
+    const now = outlook.result.observationUpdate.refused ? 'not given \\(too few effective samples\\)' : '-?\\d'
+    expect(mail!.text).toMatch(new RegExp(`SSP2-4\\.5 {2}\\| {2}2\\d{3} {2}\\| {2}no update {2}\\| {2}${now}`))
+  })
+
+  it('leaves the outlooks alone, and mails no one, when the same record is uploaded again', async () => {
+    await workSettled(server.url)
+    const before = await outlooksOfSite()
+    const mailsBefore = (await changeMails()).length
+    const again = await planner.post(`/api/sites/${siteId}/gauge-record`, { csv: RECORD })
+    expect(again.body).toMatchObject({ version: 2, updatingScenarios: ['SSP2-4.5'] })
+    await workSettled(server.url)
+    // The same input hashes the same: the stored outlook is found and nothing is computed or mailed.
+    expect(await outlooksOfSite()).toEqual(before)
+    expect(await changeMails()).toHaveLength(mailsBefore)
+  })
+
+  it('answers another organisation\'s planner as if the site did not exist, and refuses analysts and readers', async () => {
+    const before = await outlooksOfSite()
+    const as = (user: { email: string, password: string }) => ApiClient.signedIn(server.url, user.email, user.password)
+    const [portPlanner, analyst, reader] = await Promise.all([as(PORT_PLANNER), as(ANALYST), as(READER)])
+    expect((await portPlanner.post(`/api/sites/${siteId}/gauge-record`, { csv: RECORD })).status).toBe(404)
+    expect((await analyst.post(`/api/sites/${siteId}/gauge-record`, { csv: RECORD })).status).toBe(403)
+    const refused = await reader.post(`/api/sites/${siteId}/gauge-record`, { csv: RECORD })
+    expect(refused.status).toBe(403)
+    expect(refused.body.message).toBe('This needs the planner role.')
+    await workSettled(server.url)
+    expect(await outlooksOfSite()).toEqual(before)
+    expect((await planner.get(`/api/sites/${siteId}/gauge-record`)).body.versions).toHaveLength(2)
+  })
+})
