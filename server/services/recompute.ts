@@ -162,7 +162,7 @@ export async function recomputeSite(payload: RecomputeSitePayload): Promise<JobO
     return old && now?.state === 'done' ? [{ scenario: now.scenario, before: old, after: now }] : []
   })
   await mailWhatChanged(payload.siteId, payload.cause, comparisons)
-  await checkDecisionAlerts(payload.siteId, comparisons)
+  await checkDecisionAlerts(payload.siteId, payload.cause, comparisons)
   // Issued briefings that the new numbers make out of date tell their planners (once per change).
   if (comparisons.length) await mailStaleBriefings(payload.siteId)
   return { state: 'done' }

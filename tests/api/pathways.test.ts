@@ -324,7 +324,11 @@ describe('decision alerts', () => {
     expect(mails.filter(isTo(PLANNER.email))).toHaveLength(1)
     expect(mails.filter(isTo(SECOND_PLANNER.email))).toHaveLength(1)
     expect(mails).toHaveLength(2)
-    expect(mails[0]!.subject).toBe('New science moves a recorded decision at Kelwick')
+    expect(mails[0]!.subject).toBe('A recomputed outlook moves a recorded decision at Kelwick')
+    // The mail opens with what made the outlook be computed again: here a glaciers release.
+    expect(mails[0]!.text).toMatch(
+      /A new release for .*glaciers.*The outlook behind decisions recorded for Kelwick was computed again and moves them/is,
+    )
     expect(mails[0]!.text).toMatch(/Quay Street barrier \(← Quay Street edge\)/)
     expect(mails[0]!.text).toMatch(/already late/)
     expect(mails[0]!.text).toMatch(/Glaciers, large revision/)

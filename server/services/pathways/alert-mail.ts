@@ -1,8 +1,8 @@
 import { compose, type Block, type MailBody } from '~~/server/mail/templates'
 import { translator, type Language } from '#shared/wording/translate'
 
-// The decision alert e-mail in the reader's language (emails.decisionAlert): which decision, by how
-// much, and which releases.
+// The decision alert e-mail in the reader's language (emails.decisionAlert): what made the outlooks be
+// computed again, which decision, by how much, and which releases.
 
 export interface AlertedDecision {
   measure: string
@@ -20,6 +20,8 @@ export interface AlertedDecision {
 
 export function decisionAlertMail(m: {
   language: Language
+  /** What made the outlooks be computed again, as a sentence (shared/wording/causes.ts). */
+  cause: string
   site: string
   url: string
   currentYear: number
@@ -32,7 +34,7 @@ export function decisionAlertMail(m: {
   for (const d of m.decisions)
     for (const r of d.releases) releases.set(`${d.scenario}|${r.component}`, { ...r, scenario: d.scenario })
   const blocks: Block[] = [
-    { paragraphs: [t('emails.decisionAlert.intro', { site: m.site })] },
+    { paragraphs: [t('emails.decisionAlert.intro', { site: m.site, cause: m.cause })] },
     {
       heading: t('emails.decisionAlert.heading'),
       rows: [

@@ -1,6 +1,8 @@
 import { and, eq } from 'drizzle-orm'
 import { decisionAlerts, sites, users, type AlertReason } from '~~/server/db/schema'
 import type { OutlookReleaseRef } from '#shared/types/outlook'
+import type { StoredCause } from '#shared/types/causes'
+import { causeSentence } from '#shared/wording/causes'
 import type { Comparison } from '../notify'
 import { ensureTipping } from './evaluation'
 import { decisionAlertMail, type AlertedDecision } from './alert-mail'
@@ -8,11 +10,12 @@ import { currentRecords, siteMeasures, sitePathways, siteRecords, type DecisionR
 import { currentYear } from './view'
 import { languageOf } from '#shared/wording/translate'
 
-// After a site's outlooks are computed again on new science, each decision in force is checked
-// against the new outlook of its scenario. It is raised when the measure in service now tips before
-// today + the lead time of the next measure (its decision year has passed) where it did not when
-// recorded, or when its tipping year moved by more than the record's margin. The planners of the
-// organisation get one e-mail per recomputation naming every decision raised.
+// After a site's outlooks are computed again (new science, a site edit, a new record), each
+// decision in force is checked against the new outlook of its scenario. It is raised when the measure
+// in service now tips before today + the lead time of the next measure (its decision year has passed)
+// where it did not when recorded, or when its tipping year moved by more than the record's margin.
+// The planners of the organisation get one e-mail per recomputation naming every decision raised,
+// opening with what made the outlooks be computed again.
 
 function reasonFor(
   record: DecisionRecord,
@@ -41,7 +44,7 @@ function releaseChanges(before: OutlookReleaseRef[], after: OutlookReleaseRef[])
   })
 }
 
-export async function checkDecisionAlerts(siteId: string, comparisons: Comparison[]) {
+export async function checkDecisionAlerts(siteId: string, cause: StoredCause, comparisons: Comparison[]) {
   if (!comparisons.length) return
   const records = currentRecords(await siteRecords(siteId))
   if (!records.length) return
@@ -98,8 +101,10 @@ export async function checkDecisionAlerts(siteId: string, comparisons: Compariso
       releases: reason.releases,
     }))
     for (const planner of planners) {
+      const language = languageOf(planner.locale)
       const mail = decisionAlertMail({
-        language: languageOf(planner.locale),
+        language,
+        cause: causeSentence(cause, language),
         site: site.name,
         url: `${appUrl()}/sites/${siteId}/pathways`,
         currentYear: year,
