@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient } from '../support/client'
-import { PLANNER, READER } from '../support/demo-users'
+import { ANALYST, PLANNER, READER, demoUser } from '../support/demo-users'
 import { startServer, type RunningServer } from '../support/server'
 
 // A site's land motion as posterior draws: versions, refusals that say what to fix, the outlook that
@@ -10,6 +10,8 @@ let server: RunningServer
 let planner: ApiClient
 let reader: ApiClient
 let siteId: string
+let analyst: ApiClient
+let reviewer: ApiClient
 
 /** n draws with a long sinking tail: −2 − 6·(i/n)³ mm/yr, i = 1…n, listed last to first. */
 function skewed(n = 200) {
@@ -22,6 +24,9 @@ beforeAll(async () => {
   server = await startServer()
   planner = await ApiClient.signedIn(server.url, PLANNER.email, PLANNER.password)
   reader = await ApiClient.signedIn(server.url, READER.email, READER.password)
+  const REVIEWER = demoUser('reviewer@saltglass.example')
+  analyst = await ApiClient.signedIn(server.url, ANALYST.email, ANALYST.password)
+  reviewer = await ApiClient.signedIn(server.url, REVIEWER.email, REVIEWER.password)
   siteId = (await planner.get('/api/sites')).body.find((s: { name: string }) => s.name === 'Lowmere').id
 })
 
@@ -101,5 +106,57 @@ describe('land-motion draws', () => {
   it('lets only the site\'s planners upload', async () => {
     const refused = await reader.post(`/api/sites/${siteId}/land-motion-draws`, { csv: skewed(), source: 'gps' })
     expect(refused.status).toBe(403)
+  })
+  it('links the draws to a release of draws the site\'s outlooks use, draw j with draw j', async () => {
+    // A new version of the glaciers series the site's outlooks adopted, given as 200 draws.
+    const run = async (seed: number) => {
+      const id = (await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 4_000, seed })).body.id
+      return (await planner.get(`/api/outlooks/${id}`)).body
+    }
+    const before = await run(5)
+    const glaciers = before.releaseRefs.find((ref: { component: string }) => ref.component === 'glaciers')
+    const current = (await analyst.get(`/api/releases/${glaciers.releaseId}`)).body
+    const anchors: number[] = current.anchorYears
+    const rows = Array.from({ length: 200 }, (_, j) =>
+      anchors.map((_, a) => (0.01 * (a + 1) * (1 + j / 200)).toFixed(4)))
+    const csv = `${anchors.join(',')}\n${rows.map(row => row.join(',')).join('\n')}\n`
+    const draft = await analyst.post('/api/releases', {
+      seriesId: glaciers.seriesId,
+      form: 'samples',
+      baselineYear: current.baselineYear,
+      csv,
+      method: 'Joint fit test.',
+      citation: 'Joint fit (2026).',
+      licence: 'CC BY 4.0',
+    })
+    expect(draft.status, JSON.stringify(draft.body)).toBe(201)
+    expect((await analyst.post(`/api/releases/${draft.body.id}/submit`)).status).toBe(200)
+    expect((await reviewer.post(`/api/releases/${draft.body.id}/approve`)).status).toBe(200)
+    expect((await run(6)).releaseRefs.find((ref: { component: string }) => ref.component === 'glaciers').releaseId)
+      .toBe(draft.body.id)
+
+    const offered = (await planner.get(`/api/sites/${siteId}/land-motion-draws`)).body.linkable
+    expect(offered).toContainEqual(expect.objectContaining({ releaseId: draft.body.id, component: 'glaciers', draws: 200 }))
+    const mismatch = await planner.post(`/api/sites/${siteId}/land-motion-draws`, {
+      csv: skewed(150),
+      source: 'gps',
+      linkedReleaseId: draft.body.id,
+    })
+    expect(mismatch.status).toBe(400)
+    expect(mismatch.body.data.issues[0].message).toContain('has 200 draws and the file 150')
+    const linked = await planner.post(`/api/sites/${siteId}/land-motion-draws`, {
+      csv: skewed(),
+      source: 'model',
+      linkedReleaseId: draft.body.id,
+    })
+    expect(linked.status).toBe(201)
+
+    const joint = await run(7)
+    expect(joint.input.landMotion.jointWith).toBe('glaciers')
+    expect(joint.input.landMotionDraws.joint).toMatchObject({ component: 'glaciers', releaseId: draft.body.id })
+    const thresholdIds = (await planner.get(`/api/sites/${siteId}`)).body.thresholds.map((t: { id: string }) => t.id)
+    const drafted = await planner.post('/api/briefings', { outlookId: joint.id, title: 'Lowmere', thresholdIds, years: [2050] })
+    const basis = (await planner.get(`/api/briefings/${drafted.body.id}`)).body.document.basis
+    expect(basis.landMotion).toContain('is taken together with the draw of the same number of the')
   })
 })
