@@ -31,6 +31,7 @@ import type { OutlookHeadline, OutlookReleaseRef, StoredOutlookInput } from '../
 import type { OutlookResult } from '../../shared/engine/types'
 import type { GaugeRecord, GaugeValue } from '../../shared/observations/gauge-record'
 import type { GaugeResolution, GaugeTrendFit } from '../../shared/observations/gauge-trend'
+import type { LandDrawsSummary } from '../../shared/observations/land-motion-draws'
 import type { BandsAtYear } from '../../shared/releases/summary'
 import type { ReleaseParameters } from '../../shared/releases/parameters'
 import type { BriefingDocument } from '../../shared/briefing/document'
@@ -334,6 +335,24 @@ export const gaugeRecords = pgTable('gauge_records', {
   uploadedBy: uuid('uploaded_by').references(() => users.id),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 }, table => [unique('gauge_records_site_version').on(table.siteId, table.version)])
+
+/**
+ * A site's land motion as posterior draws of its rate (mm/yr, in draw order), versioned like the gauge
+ * record: an upload is a new row, the latest is what outlooks use. `linkedReleaseId`: a release of draws
+ * (same count) that the land draws are joint with, draw j with draw j.
+ */
+export const landMotionDraws = pgTable('land_motion_draws', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  siteId: uuid('site_id').notNull().references(() => sites.id, { onDelete: 'cascade' }),
+  version: integer('version').notNull(),
+  draws: jsonb('draws').$type<number[]>().notNull(),
+  summary: jsonb('summary').$type<LandDrawsSummary>().notNull(),
+  source: landMotionSourceEnum('source').notNull(),
+  reference: text('reference').notNull().default(''),
+  linkedReleaseId: uuid('linked_release_id').references(() => releases.id),
+  uploadedBy: uuid('uploaded_by').references(() => users.id),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+}, table => [unique('land_motion_draws_site_version').on(table.siteId, table.version)])
 
 export const outlooks = pgTable('outlooks', {
   id: uuid('id').primaryKey().defaultRandom(),

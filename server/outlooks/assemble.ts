@@ -5,10 +5,11 @@ import { minOf } from '#shared/engine/arrays'
 import { ENGINE_VERSION } from '#shared/engine/version'
 import type { OutlookRequest } from '#shared/schemas/sites'
 import type { OutlookNote } from '#shared/types/outlook-notes'
-import type { OutlookDatum, OutlookReleaseRef, StoredOutlookInput } from '#shared/types/outlook'
+import type { OutlookDatum, OutlookLandDraws, OutlookReleaseRef, StoredOutlookInput } from '#shared/types/outlook'
 import { correlationFor, scaleFactorsAt, scienceFor } from '../services/science-inputs'
 import type { loadSite } from '../services/sites'
 import { latestGaugeRecord } from '../services/gauge-records'
+import { latestLandMotionDraws } from '../services/land-motion-draws'
 import { observationsForOutlook } from '#shared/observations/outlook-record'
 
 export type Site = Awaited<ReturnType<typeof loadSite>>
@@ -72,15 +73,41 @@ function observedSince(gauge: Awaited<ReturnType<typeof latestGaugeRecord>>, sit
   return observations ? { observations } : {}
 }
 
+type Science = Awaited<ReturnType<typeof scienceFor>>
+
+/**
+ * The site's land motion for the engine: its latest uploaded draws when it has any (joint with their
+ * linked release when this outlook uses that release, independent otherwise), else its rate and sigma.
+ */
+function landMotionOf(site: Site, draws: Awaited<ReturnType<typeof latestLandMotionDraws>>, science: Science) {
+  const epoch = site.landMotionEpoch
+  if (!draws) return { landMotion: { rateMmPerYear: site.landMotionRate, sigmaMmPerYear: site.landMotionSigma, epoch } }
+  const linked = science.find(s => s.releaseId === draws.linkedReleaseId)
+  const provenance: OutlookLandDraws = {
+    version: draws.version,
+    source: draws.source,
+    reference: draws.reference,
+    summary: draws.summary,
+    joint: linked
+      ? { component: linked.component, releaseId: linked.releaseId, title: linked.title, version: linked.version }
+      : null,
+  }
+  return {
+    landMotion: { draws: draws.draws, epoch, ...(linked ? { jointWith: linked.component } : {}) },
+    landMotionDraws: provenance,
+  }
+}
+
 /** Everything that goes into one run, with the provenance stored beside it. */
 export async function assembleOutlook(site: Site, request: OutlookRequest) {
   const science = await scienceFor(site.organisationId, request.scenario)
   const components = science.map(s => s.component)
   const adoptedSeries = Object.fromEntries(science.map(s => [s.component, s.seriesId]))
-  const [{ set, matrix, otherSeries }, scales, gauge] = await Promise.all([
+  const [{ set, matrix, otherSeries }, scales, gauge, landDraws] = await Promise.all([
     correlationFor(site.organisationId, request.scenario, components, adoptedSeries),
     scaleFactorsAt(site.latitude, site.longitude),
     latestGaugeRecord(site.id),
+    latestLandMotionDraws(site.id),
   ])
   const horizon = minOf(science.map(s => (s.release.anchorYears as number[]).at(-1)!))
   const baselineYear = site.referenceEpoch
@@ -108,11 +135,7 @@ export async function assembleOutlook(site: Site, request: OutlookRequest) {
       release: s.release as ReleaseInput,
     })),
     ...(matrix ? { correlation: matrix } : {}),
-    landMotion: {
-      rateMmPerYear: site.landMotionRate,
-      sigmaMmPerYear: site.landMotionSigma,
-      epoch: site.landMotionEpoch,
-    },
+    ...landMotionOf(site, landDraws, science),
     heights: HEIGHT_GRID,
     thresholds: site.thresholds.flatMap((t) => {
       const base = { key: t.id, height: aboveEpochMean(t.height), kind: t.kind }

@@ -125,16 +125,21 @@ export async function updateBriefing(
 }
 
 /** The datum an outlook's heights were computed with (outlooks stored before datums have none: the site's then). */
-function datumOf(outlook: { input: StoredOutlookInput } | undefined) {
+function primaryAssumptions(outlook: { input: StoredOutlookInput } | undefined) {
   const datum = outlook?.input.datum
-  return datum
-    ? {
-        referenceLevel: datum.name,
-        datumKind: datum.kind,
-        datumOffset: datum.offset,
-        referenceEpoch: datum.referenceEpoch,
-      }
-    : {}
+  const draws = outlook?.input.landMotionDraws
+  return {
+    ...(datum
+      ? {
+          referenceLevel: datum.name,
+          datumKind: datum.kind,
+          datumOffset: datum.offset,
+          referenceEpoch: datum.referenceEpoch,
+        }
+      : {}),
+    // The land motion the primary outlook assumed, when it came from the site's draws.
+    ...(draws ? { landMotionDraws: draws } : {}),
+  }
 }
 
 /** The published storylines of the primary outlook's scenario, placed at its site. */
@@ -199,7 +204,7 @@ export async function briefingDocument(
     illustrative: site!.illustrative,
     organisation: site!.organisation,
     author: author?.name ?? null,
-    site: { ...site!.site, ...datumOf(stored.find(o => o.id === row.outlookIds[0])) },
+    site: { ...site!.site, ...primaryAssumptions(stored.find(o => o.id === row.outlookIds[0])) },
     thresholds: row.thresholdIds.map(id => chosen.find(t => t.id === id)!).filter(Boolean),
     years: row.years,
     outlooks: ordered,

@@ -9,6 +9,7 @@ import {
   todaysLevelExpected,
 } from '../wording/flood'
 import type { DatumKind, ThresholdKind } from '../types/science'
+import type { OutlookLandDraws } from '../types/outlook'
 import { BRIEFING_TEXT, type BriefingText } from './text'
 import { headlineEstimate, keyThreshold, sayChance, spreadSentence } from './findings'
 import { observationUpdateSection, type BriefingObservationUpdate } from './observation-update'
@@ -74,6 +75,8 @@ export interface BriefingSource {
     landMotionSource: string
     landMotionReference: string
     landMotionEpoch: number
+    /** The primary outlook's land-motion draws, when its land motion came from draws. */
+    landMotionDraws?: OutlookLandDraws
     datumKind: DatumKind
     /** Mean sea level at the reference epoch, metres above the datum. */
     datumOffset: number
@@ -534,13 +537,7 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
         height(site.datumOffset),
         site.referenceEpoch,
       ),
-      landMotion: text.landMotion(
-        `${site.landMotionRate.toLocaleString(source.language)} mm`,
-        `${site.landMotionSigma.toLocaleString(source.language)} mm`,
-        text.sources[site.landMotionSource] ?? site.landMotionSource,
-        site.landMotionEpoch,
-        site.landMotionReference,
-      ),
+      landMotion: landMotionBasis(site, source.language, text),
       sampling: text.sampling(primary.samples.toLocaleString(source.language), primary.seed),
       notes: source.outlooks.flatMap(outlook => outlookNotes(outlook, text)),
       method: text.method,
@@ -548,6 +545,37 @@ export function buildBriefingDocument(source: BriefingSource): BriefingDocument 
     cautions: [...text.cautions, text.highEnd],
     ...observed(source, result),
   }
+}
+
+/** The land motion the outlooks assumed: the site's rate and sigma, or its draws (and what they were joint with). */
+function landMotionBasis(site: BriefingSource['site'], language: Language, text: BriefingText): string {
+  const draws = site.landMotionDraws
+  if (!draws) {
+    return text.landMotion(
+      `${site.landMotionRate.toLocaleString(language)} mm`,
+      `${site.landMotionSigma.toLocaleString(language)} mm`,
+      text.sources[site.landMotionSource] ?? site.landMotionSource,
+      site.landMotionEpoch,
+      site.landMotionReference,
+    )
+  }
+  const mm = (rate: number) => `${rate.toLocaleString(language, { maximumFractionDigits: 2 })} mm`
+  const { summary, joint } = draws
+  const sentence = text.landMotionDraws(
+    {
+      count: summary.count.toLocaleString(language),
+      median: mm(summary.median),
+      p5: mm(summary.p5),
+      p95: mm(summary.p95),
+    },
+    text.sources[draws.source] ?? draws.source,
+    site.landMotionEpoch,
+    draws.reference,
+  )
+  const link = joint
+    ? text.landMotionJoint(text.components[joint.component] ?? joint.component, joint.title, joint.version)
+    : text.landMotionIndependent
+  return `${sentence.trim()} ${link}`
 }
 
 function observed(source: BriefingSource, result: OutlookResult) {

@@ -67,6 +67,14 @@ export interface BriefingText {
   unsettled: string
   basisHead: { component: string, scenario: string, version: string, citation: string, state: string, scale: string }
   landMotion: (rate: string, sigma: string, source: string, epoch: number, reference: string) => string
+  landMotionDraws: (
+    draws: { count: string, median: string, p5: string, p95: string },
+    source: string,
+    epoch: number,
+    reference: string,
+  ) => string
+  landMotionJoint: (component: string, title: string, version: number) => string
+  landMotionIndependent: string
   sampling: (samples: string, seed: number) => string
   method: string[]
   cautions: string[]
@@ -161,6 +169,10 @@ function briefingText(language: Language): BriefingText {
     basisHead: words('basisHead'),
     landMotion: (rate, sigma, source, epoch, reference) =>
       t('document.landMotion', { rate, sigma, source, epoch, reference }),
+    landMotionDraws: (draws, source, epoch, reference) =>
+      t('document.landMotionDraws', { ...draws, source, epoch, reference }),
+    landMotionJoint: (component, title, version) => t('document.landMotionJoint', { component, title, version }),
+    landMotionIndependent: t('document.landMotionIndependent'),
     sampling: (samples, seed) => t('document.sampling', { samples, seed }),
     method: t.list('document.method'),
     cautions: t.list('document.cautions'),

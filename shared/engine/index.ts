@@ -43,6 +43,7 @@ export type {
 } from './types'
 export { MIN_EFFECTIVE_SAMPLES } from './observation-finish'
 export { LAND_MOTION_KEY } from './types'
+export { meanLandRate } from './land-motion'
 export {
   gumbelCdf,
   gumbelReturnLevel,

@@ -1,3 +1,4 @@
+import { landRiseLine, type LandMotionLine } from './land-motion'
 import { relativeAnchorWeights } from './timeline'
 import type { ObservationPlan, TriggerPlan } from './types'
 import type { ValidatedOutlookInput } from './validate'
@@ -28,6 +29,7 @@ export interface ObservationShape {
  */
 export function planObservations(
   input: ValidatedOutlookInput,
+  land: LandMotionLine,
   groups: Array<{ firstColumn: number, release: { baselineYear: number, anchorYears: number[] } }>,
   basisCount: number,
   valueBasis: Int32Array,
@@ -50,8 +52,9 @@ export function planObservations(
   const center = new Float64Array(count)
   for (let i = 0; i < count; i++) {
     const elapsed = times[i]! - baseline
-    landIntercept[i] = input.landMotion ? (-input.landMotion.rateMmPerYear / 1000) * elapsed : 0
-    weight[i * basisCount + landColumn] = input.landMotion ? (-input.landMotion.sigmaMmPerYear / 1000) * elapsed : 0
+    const rise = landRiseLine(land, elapsed)
+    landIntercept[i] = input.landMotion ? rise.intercept : 0
+    weight[i * basisCount + landColumn] = input.landMotion ? rise.slope : 0
     center[i] = landIntercept[i]!
     for (let slot = 0; slot < valueBasis.length; slot++)
       center[i]! += weight[i * basisCount + valueBasis[slot]!]! * valueAtZero[slot]!

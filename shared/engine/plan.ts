@@ -1,4 +1,4 @@
-import { appendAll } from './arrays'
+import { appendAll, maxOf, minOf } from './arrays'
 import { identityFactor } from './correlation'
 import { standardNormalQuantile } from './normal'
 import { anchorValuesAt, buildComponentTable, componentRiseAt, type ComponentTable } from './releases'
@@ -14,6 +14,7 @@ import { planThresholds } from './threshold-plan'
 import { planObservations } from './observation-plan'
 import { planTriggers } from './trigger-plan'
 import { LIFE_GRID_POINTS, planUncertainty } from './gumbel-uncertainty'
+import { landRiseLine, planLandMotion } from './land-motion'
 import { validateOutlookInput, type ValidatedOutlookInput } from './validate'
 
 /** Samples per block: the unit of reproducibility (each block has its own random stream). */
@@ -201,14 +202,16 @@ function planValidated(input: ValidatedOutlookInput, options: PlanOptions): Outl
   const landColumn = basisCount++
 
   // Land motion enters relative to the outlook baseline, like every component: −(rate + σz)/1000 ·
-  // (t − baseline). The epoch of the rate cancels for a constant rate, so it is kept for provenance only.
+  // (t − baseline), or −(draw at score zero + u)/1000 · (t − baseline) for draws (see land-motion.ts).
+  // The epoch of the rate cancels for a constant rate, so it is kept for provenance only.
+  const land = planLandMotion(input.landMotion, input.components.map(component => component.key), tables)
   const landIntercept = new Float64Array(yearCount)
   const landSlope = new Float64Array(yearCount)
   if (input.landMotion) {
     for (let t = 0; t < yearCount; t++) {
-      const elapsed = years[t]! - input.baselineYear
-      landIntercept[t] = (-input.landMotion.rateMmPerYear / 1000) * elapsed
-      landSlope[t] = (-input.landMotion.sigmaMmPerYear / 1000) * elapsed
+      const rise = landRiseLine(land.line, years[t]! - input.baselineYear)
+      landIntercept[t] = rise.intercept
+      landSlope[t] = rise.slope
     }
   }
 
@@ -228,7 +231,16 @@ function planValidated(input: ValidatedOutlookInput, options: PlanOptions): Outl
   }
   const low = new Float64Array(yearCount)
   const high = new Float64Array(yearCount)
+  // Land draws are bounded: their column spans the lowest to the highest draw, not ±6 scores.
+  const landValues = land.draws?.valueByRank
+  const landLow = landValues ? minOf(landValues) : -HISTOGRAM_SCORE_SPAN
+  const landHigh = landValues ? maxOf(landValues) : HISTOGRAM_SCORE_SPAN
   for (let t = 0; t < yearCount; t++) {
+    if (landValues) {
+      low[t] = landIntercept[t]! + Math.min(landSlope[t]! * landLow, landSlope[t]! * landHigh)
+      high[t] = landIntercept[t]! + Math.max(landSlope[t]! * landLow, landSlope[t]! * landHigh)
+      continue
+    }
     low[t] = landIntercept[t]! - HISTOGRAM_SCORE_SPAN * Math.abs(landSlope[t]!)
     high[t] = landIntercept[t]! + HISTOGRAM_SCORE_SPAN * Math.abs(landSlope[t]!)
   }
@@ -293,6 +305,7 @@ function planValidated(input: ValidatedOutlookInput, options: PlanOptions): Outl
     : []
   const trigger = planTriggers(
     input,
+    land.line,
     groupRelease.map((release, g) => ({ firstColumn: groupFirstColumn[g]!, release })),
     basisCount,
     valueBasis,
@@ -304,6 +317,7 @@ function planValidated(input: ValidatedOutlookInput, options: PlanOptions): Outl
 
   const observations = planObservations(
     input,
+    land.line,
     groupRelease.map((release, g) => ({ firstColumn: groupFirstColumn[g]!, release })),
     basisCount,
     valueBasis,
@@ -371,6 +385,7 @@ function planValidated(input: ValidatedOutlookInput, options: PlanOptions): Outl
     basisWeight,
     landIntercept,
     landSlope,
+    landDraws: land.draws,
     publishedLevels: Float64Array.from(
       input.components.flatMap(({ release }) => {
         if (release.form !== 'quantiles') return [0, 1]

@@ -31,6 +31,35 @@ export interface ComponentTable {
   /** Scaled anchor values as lines in the score, at [row·anchors + a]: pieces, or ranked draws (slope 0). */
   anchorIntercept: Float64Array
   anchorSlope: Float64Array
+  /** Draws: the upload index of the draw at each rank (a joint land-motion link follows it). */
+  drawOrder: Int32Array | null
+}
+
+/** Draw indices ascending by value, ties in upload order. */
+export function rankedIndices(count: number, valueOf: (index: number) => number): Int32Array {
+  return Int32Array.from({ length: count }, (_, i) => i).sort((a, b) => valueOf(a) - valueOf(b) || a - b)
+}
+
+/** Φ⁻¹(j/n), j = 1…n−1: the scores at which the rank of n draws steps up. */
+export function drawBreakpoints(n: number): number[] {
+  const breakpoints: number[] = []
+  for (let j = 1; j < n; j++) breakpoints.push(standardNormalQuantile(j / n))
+  return breakpoints
+}
+
+/**
+ * Rank ⌊Φ(z)·n⌋ (clamped to n − 1) of a draw picked by score z: the number of breakpoints in
+ * breakpoints[first … last) at or below z, plus `first`, by bisection. Used in the sample loop.
+ */
+export function drawRank(breakpoints: Float64Array, first: number, last: number, z: number): number {
+  let low = first
+  let high = last
+  while (low < high) {
+    const middle = (low + high) >>> 1
+    if (breakpoints[middle]! <= z) low = middle + 1
+    else high = middle
+  }
+  return low
 }
 
 /** Lines (intercept, slope) in the score per anchor and piece: lines[a][s]. */
@@ -100,6 +129,7 @@ export function buildComponentTable(
       relativeWeights: weights,
       anchorIntercept,
       anchorSlope,
+      drawOrder: null,
     }
   }
 
@@ -115,15 +145,15 @@ export function buildComponentTable(
       relativeWeights: weights,
       anchorIntercept: new Float64Array(0),
       anchorSlope: new Float64Array(0),
+      drawOrder: null,
     }
   }
 
   // Draws are ranked by their last anchor value (ties keep upload order) and picked at rank ⌊Φ(z)·n⌋,
   // i.e. the number of breakpoints Φ⁻¹(j/n), j = 1…n−1, at or below the score.
-  const draws = release.draws
-    .map((draw, index) => ({ draw, index }))
-    .sort((a, b) => a.draw[anchorCount - 1]! - b.draw[anchorCount - 1]! || a.index - b.index)
-  const rows = draws.map(({ draw }) => {
+  const drawOrder = rankedIndices(release.draws.length, index => release.draws[index]![anchorCount - 1]!)
+  const draws = Array.from(drawOrder, index => release.draws[index]!)
+  const rows = draws.map((draw) => {
     const rise = new Float64Array(yearCount)
     for (let t = 0; t < yearCount; t++) {
       let sum = 0
@@ -133,10 +163,9 @@ export function buildComponentTable(
     return rise
   })
   const n = rows.length
-  const breakpoints: number[] = []
-  for (let j = 1; j < n; j++) breakpoints.push(standardNormalQuantile(j / n))
+  const breakpoints = drawBreakpoints(n)
   const anchorIntercept = new Float64Array(n * anchorCount)
-  draws.forEach(({ draw }, r) => {
+  draws.forEach((draw, r) => {
     for (let a = 0; a < anchorCount; a++) anchorIntercept[r * anchorCount + a] = scale * draw[a]!
   })
   return {
@@ -149,6 +178,7 @@ export function buildComponentTable(
     relativeWeights: weights,
     anchorIntercept,
     anchorSlope: new Float64Array(n * anchorCount),
+    drawOrder,
   }
 }
 

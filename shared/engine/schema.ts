@@ -78,10 +78,22 @@ export const componentSchema = z.object({
   release: releaseSchema,
 })
 
+/**
+ * Vertical land motion in mm/yr (positive: the land rises). A normal (rate, sigma), or posterior `draws`
+ * of the rate, which then take the normal's place: picked by the land-motion score like a release's
+ * draws, or, with `jointWith` naming a component whose release is draws of the same count, the draw with
+ * the index of the release draw each sample picked (validate.ts checks the link).
+ */
 export const landMotionSchema = z.object({
-  rateMmPerYear: finite,
+  rateMmPerYear: finite.optional(),
   sigmaMmPerYear: nonNegative.default(0),
   epoch: year,
+  draws: z
+    .array(finite)
+    .min(1, 'needs at least one land-motion draw (mm/yr)')
+    .max(MAX_DRAWS, `must have at most ${MAX_DRAWS} draws`)
+    .optional(),
+  jointWith: z.string().min(1, 'must name a component key').optional(),
 })
 
 export const heightRangeSchema = z.object({

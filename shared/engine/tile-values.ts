@@ -1,3 +1,5 @@
+import type { LandDrawPlan } from './land-motion'
+import { drawRank } from './releases'
 import { PASS, type SamplerTables } from './sampler-tables'
 import { ROW, ROW_PADDING, type TileScratch } from './tile-scratch'
 import { COMPONENT_KIND_DRAWS, COMPONENT_KIND_PIECEWISE, type OutlookPlan } from './types'
@@ -111,7 +113,7 @@ function piecewiseLines(
   }
 }
 
-/** Rank = number of breakpoints Φ⁻¹(j/n) at or below the score, by bisection. */
+/** Rank = number of breakpoints Φ⁻¹(j/n) at or below the score (`drawRank`). */
 function drawLines(plan: OutlookPlan, scratch: TileScratch, c: number, tileCount: number): void {
   const scores = scratch.scoreFrom[c]!
   const from = scratch.scoreAt[c]!
@@ -122,22 +124,47 @@ function drawLines(plan: OutlookPlan, scratch: TileScratch, c: number, tileCount
   const lineBase = plan.lineStart[c]! - first * anchors
   const at = c * ROW
   for (let i = 0; i < tileCount; i++) {
-    const z = scores[from + i]!
-    let low = first
-    let high = last
-    while (low < high) {
-      const middle = (low + high) >>> 1
-      if (breakpoints[middle]! <= z) low = middle + 1
-      else high = middle
+    scratch.lineAt[at + i] = lineBase + drawRank(breakpoints, first, last, scores[from + i]!) * anchors
+  }
+}
+
+/**
+ * The land-motion column of land draws: the value of the sample's rank, picked by the land-motion score
+ * or, joint with a release, at the rank of the release draw the sample picked (its line, from `drawLines`).
+ */
+function landDrawColumn(plan: OutlookPlan, scratch: TileScratch, land: LandDrawPlan, tileCount: number): void {
+  const componentCount = plan.componentKeys.length
+  const rows = scratch.rows
+  const levels = scratch.levelsAt + (plan.basisCount - 1) * ROW
+  const basis = scratch.basisAt + (plan.basisCount - 1) * ROW
+  const valueByRank = land.valueByRank
+  const c = land.linkedComponent
+  if (c >= 0) {
+    const lineAt = scratch.lineAt
+    const at = c * ROW
+    const base = plan.lineStart[c]!
+    const anchors = plan.anchorCount[c]!
+    for (let i = 0; i < tileCount; i++) {
+      const value = valueByRank[((lineAt[at + i]! - base) / anchors) | 0]!
+      rows[levels + i] = value
+      rows[basis + i] = value
     }
-    scratch.lineAt[at + i] = lineBase + low * anchors
+    return
+  }
+  const scores = scratch.scoreFrom[componentCount]!
+  const from = scratch.scoreAt[componentCount]!
+  const breakpoints = land.breakpoints
+  for (let i = 0; i < tileCount; i++) {
+    const value = valueByRank[drawRank(breakpoints, 0, breakpoints.length, scores[from + i]!)]!
+    rows[levels + i] = value
+    rows[basis + i] = value
   }
 }
 
 /**
  * Each component's scaled anchor values less their all-scores-zero values (for the variance shares),
  * and per basis column the sum of its slots' values into the rows at `sumsAt`: the centred basis, or the plain
- * levels when the plan has draws. The land-motion column is its score in both.
+ * levels when the plan has draws. The land-motion column is its score in both (land draws: the draw's value).
  */
 export function valueTile(plan: OutlookPlan, tables: SamplerTables, scratch: TileScratch, tileCount: number): void {
   const componentCount = plan.componentKeys.length
@@ -163,6 +190,10 @@ export function valueTile(plan: OutlookPlan, tables: SamplerTables, scratch: Til
         lognormalOne(plan, scratch, c, a, tileCount)
       }
     }
+  }
+  if (plan.landDraws) {
+    landDrawColumn(plan, scratch, plan.landDraws, tileCount)
+    return
   }
   const landScores = scratch.scoreFrom[componentCount]!
   const landAt = scratch.scoreAt[componentCount]!

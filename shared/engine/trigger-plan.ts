@@ -1,4 +1,5 @@
 import { annualExceedance } from './flood-chance'
+import { landRiseLine, type LandMotionLine } from './land-motion'
 import { relativeAnchorWeights } from './timeline'
 import type { TriggerPlan } from './types'
 import type { ValidatedOutlookInput } from './validate'
@@ -18,6 +19,7 @@ export const KNOT_PASS = 4
  */
 export function planTriggers(
   input: ValidatedOutlookInput,
+  land: LandMotionLine,
   groups: Array<{ firstColumn: number, release: { baselineYear: number, anchorYears: number[] } }>,
   basisCount: number,
   valueBasis: Int32Array,
@@ -47,8 +49,9 @@ export function planTriggers(
   const landColumn = basisCount - 1
   for (let k = 0; k < knotCount; k++) {
     const elapsed = knotYears[k]! - baseline
-    landIntercept[k] = input.landMotion ? (-input.landMotion.rateMmPerYear / 1000) * elapsed : 0
-    knotWeight[k * basisCount + landColumn] = input.landMotion ? (-input.landMotion.sigmaMmPerYear / 1000) * elapsed : 0
+    const rise = landRiseLine(land, elapsed)
+    landIntercept[k] = input.landMotion ? rise.intercept : 0
+    knotWeight[k * basisCount + landColumn] = input.landMotion ? rise.slope : 0
   }
   const center = Float64Array.from(landIntercept)
   for (let k = 0; k < knotCount; k++) {

@@ -2,6 +2,8 @@
 // strings and typed arrays, so both cross a worker boundary by structured clone (partials' buffers
 // can be transferred).
 
+import type { LandDrawPlan } from './land-motion'
+
 export const COMPONENT_KIND_PIECEWISE = 0
 export const COMPONENT_KIND_LOGNORMAL = 1
 export const COMPONENT_KIND_DRAWS = 2
@@ -173,9 +175,14 @@ export interface OutlookPlan {
   basisCount: number
   basisWeight: Float64Array
 
-  /** Land motion rise: landIntercept[t] + landSlope[t] · score. */
+  /**
+   * Land motion rise: landIntercept[t] + landSlope[t] · u, u the land-motion column: the score, or for
+   * draws the sample's draw less the draw at score zero (mm/yr, see land-motion.ts).
+   */
   landIntercept: Float64Array
   landSlope: Float64Array
+  /** Land-motion draws (the column value per rank, and how a sample's rank is found), or null. */
+  landDraws: LandDrawPlan | null
 
   /**
    * Per component, the probability levels inside which its values are published (quantile forms: the

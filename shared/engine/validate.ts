@@ -105,7 +105,42 @@ function thresholdIssues(input: ParsedOutlookInput): EngineInputIssue[] {
   return issues
 }
 
-/** Parses and checks an outlook request; throws EngineInputError listing every problem. */
+/**
+ * Land motion is a rate or draws; a joint link ties draw j to release draw j, so it needs draws on both
+ * sides and as many of each.
+ */
+function landMotionIssues(input: ParsedOutlookInput): EngineInputIssue[] {
+  const land = input.landMotion
+  if (!land) return []
+  if (land.rateMmPerYear === undefined && !land.draws) {
+    return [{ path: 'landMotion.rateMmPerYear', message: 'is needed: give a rate in mm/yr (with its sigma) or draws of the rate' }]
+  }
+  const joint = land.jointWith
+  if (joint === undefined) return []
+  if (!land.draws) {
+    return [{ path: 'landMotion.jointWith', message: 'links land-motion draws to a release\'s draws; give draws or remove jointWith' }]
+  }
+  const component = input.components.find(candidate => candidate.key === joint)
+  if (!component) {
+    const keys = input.components.map(candidate => `"${candidate.key}"`).join(', ')
+    return [{ path: 'landMotion.jointWith', message: `names no component of this outlook ("${joint}"); use one of ${keys}, or remove jointWith` }]
+  }
+  const release = component.release
+  if (release.form !== 'samples') {
+    return [{
+      path: 'landMotion.jointWith',
+      message: `component "${joint}" has a ${release.form} release, not draws; a joint link needs a release given as draws (form "samples"), or remove jointWith`,
+    }]
+  }
+  if (release.draws.length !== land.draws.length) {
+    return [{
+      path: 'landMotion.draws',
+      message: `has ${land.draws.length} draws but the release of "${joint}" has ${release.draws.length}; give one land-motion draw per release draw (same draw index), or remove jointWith`,
+    }]
+  }
+  return []
+}
+
 /** Decimal times carry rounding: a step within this of a whole number of steps is that number. */
 const STEP_TOLERANCE = 1e-6
 
@@ -144,6 +179,7 @@ function observationIssues(input: ParsedOutlookInput): EngineInputIssue[] {
   return issues
 }
 
+/** Parses and checks an outlook request; throws EngineInputError listing every problem. */
 export function validateOutlookInput(raw: unknown): ValidatedOutlookInput {
   const parsed = outlookInputSchema.safeParse(raw)
   if (!parsed.success) {
@@ -217,6 +253,7 @@ export function validateOutlookInput(raw: unknown): ValidatedOutlookInput {
 
   appendAll(issues, thresholdIssues(input))
   appendAll(issues, observationIssues(input))
+  appendAll(issues, landMotionIssues(input))
 
   if (issues.length) throw new EngineInputError(issues)
   return { ...input, heights, choleskyFactor }

@@ -2,6 +2,7 @@ import { z } from 'zod'
 import { DEFAULT_TOLERANCES, MAX_SAMPLES } from '../engine'
 import { DATUM_KINDS, LAND_MOTION_SOURCES, THRESHOLD_KINDS } from '../types/science'
 import { scenarioField } from './releases'
+import { CSV_MAX_BYTES } from '../releases/limits'
 import { textField } from './text'
 
 // Coastal sites as a planner enters them. Heights are metres above the site's datum; rise is counted
@@ -179,6 +180,20 @@ export const GaugeRecordSchema = z.object({
     .string({ error: 'Upload a CSV of mean sea level with the columns year,height (or year,month,height).' })
     .max(1_000_000, { error: 'The file is larger than 1 MB.' }),
 })
+
+/** Land-motion draws as uploaded: the CSV, where the estimate comes from, and an optional joint release. */
+export const LandMotionDrawsSchema = z.object({
+  csv: z
+    .string({ error: 'Upload a CSV of land-motion draws with the columns draw,rate_mm_per_year.' })
+    .max(CSV_MAX_BYTES, { error: `The file is larger than ${CSV_MAX_BYTES / 1024 / 1024} MB.` }),
+  source: z.enum(LAND_MOTION_SOURCES, { error: `Choose one of: ${LAND_MOTION_SOURCES.join(', ')}.` }),
+  reference: textField({ error: 'Enter the source of the estimate as text, or leave it empty.' })
+    .trim()
+    .max(500, { error: 'Use at most 500 characters.' })
+    .default(''),
+  linkedReleaseId: z.uuid({ error: 'Choose a release from the list, or none.' }).nullable().default(null),
+})
+export type LandMotionDrawsUpload = z.output<typeof LandMotionDrawsSchema>
 
 export const OutlookRequestSchema = z.object({
   scenario: scenarioField,

@@ -1,3 +1,4 @@
+import { meanLandRate } from '../engine/land-motion'
 import { buildComponentTable, componentRiseAt } from '../engine/releases'
 import { releaseSchema, type OutlookInput } from '../engine/schema'
 
@@ -52,7 +53,7 @@ export function storylineBasis(
   return {
     baselineYear: input.baselineYear,
     years,
-    landRateMmPerYear: input.landMotion?.rateMmPerYear ?? 0,
+    landRateMmPerYear: meanLandRate(input.landMotion),
     components: input.components.map((c) => {
       const scale = c.scale ?? 1
       const table = buildComponentTable(releaseSchema.parse(c.release), scale, input.baselineYear, years)

@@ -1,5 +1,6 @@
 import type { OutlookInput } from '../engine/schema'
-import type { DatumKind } from './science'
+import type { LandDrawsSummary } from '../observations/land-motion-draws'
+import type { DatumKind, LandMotionSource } from './science'
 
 // What the `outlooks` table keeps in its jsonb columns, for the server that writes them and the pages
 // that read them alike.
@@ -11,10 +12,23 @@ import type { DatumKind } from './science'
 export interface OutlookDatum { name: string, kind: DatumKind, offset: number, referenceEpoch: number }
 
 /**
- * The engine input as sent, plus `datum` (not read by the engine, part of the hash, so a changed datum is
- * a changed outlook). Outlooks stored before datums have none.
+ * Where an outlook's land-motion draws came from (the site's upload version and source, their summary)
+ * and the release they were joint with in this outlook (null: independent of every release).
  */
-export type StoredOutlookInput = OutlookInput & { datum?: OutlookDatum }
+export interface OutlookLandDraws {
+  version: number
+  source: LandMotionSource
+  reference: string
+  summary: LandDrawsSummary
+  joint: { component: string, releaseId: string, title: string, version: number } | null
+}
+
+/**
+ * The engine input as sent, plus `datum` and `landMotionDraws` (not read by the engine, part of the hash,
+ * so a changed datum is a changed outlook). Outlooks stored before datums have none; outlooks whose land
+ * motion is the site's rate and sigma have no `landMotionDraws`.
+ */
+export type StoredOutlookInput = OutlookInput & { datum?: OutlookDatum, landMotionDraws?: OutlookLandDraws }
 
 /** One release an outlook used, with where its scale factor came from. */
 export interface OutlookReleaseRef {

@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import {
   ANNUAL_MAXIMA_CSV,
   GAUGE_RECORD_CSV,
+  LAND_DRAWS_CSV,
   OUTLOOK_REQUEST,
   PERSONAS,
   RELEASE_CONTENT,
@@ -219,6 +220,15 @@ const ROUTES: Record<string, RouteCase> = {
   'sites/[id]/gauge-record.post.ts': {
     url: (fx, scope) => `/api/sites/${pick(scope, fx.home.editSiteId, fx.foreign.siteId)}/gauge-record`,
     body: () => ({ csv: GAUGE_RECORD_CSV }),
+    expect: only('planner', 201),
+  },
+  'sites/[id]/land-motion-draws.get.ts': {
+    url: (fx, scope) => `/api/sites/${pick(scope, fx.home.siteId, fx.foreign.siteId)}/land-motion-draws`,
+    expect: members,
+  },
+  'sites/[id]/land-motion-draws.post.ts': {
+    url: (fx, scope) => `/api/sites/${pick(scope, fx.home.editSiteId, fx.foreign.siteId)}/land-motion-draws`,
+    body: () => ({ csv: LAND_DRAWS_CSV, source: 'gps' }),
     expect: only('planner', 201),
   },
   'sites/[id]/outlooks.get.ts': {

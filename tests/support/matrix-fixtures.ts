@@ -72,6 +72,8 @@ export const newGrid = (component: string, title: string) => ({
 })
 export const OUTLOOK_REQUEST = { scenario: 'SSP2-4.5', samples: 2000, seed: 5 }
 export const GAUGE_RECORD_CSV = `year,height\n${Array.from({ length: 25 }, (_, i) => `${2000 + i},${(1.2 + i * 0.004).toFixed(3)}`).join('\n')}\n`
+/** 100 draws of a land-motion rate (mm/yr), the fewest an upload takes. */
+export const LAND_DRAWS_CSV = `draw,rate_mm_per_year\n${Array.from({ length: 100 }, (_, i) => `${i + 1},${(-2 + (i % 10) * 0.1).toFixed(1)}`).join('\n')}\n`
 export const ANNUAL_MAXIMA_CSV = `year,value\n${Array.from({ length: 24 }, (_, i) => `${2000 + i},${(1.4 + (i % 5) * 0.05).toFixed(2)}`).join('\n')}\n`
 
 type Kind = 'releases' | 'correlation-sets' | 'scale-factor-grids' | 'storylines'

@@ -127,7 +127,7 @@ describe('outlook properties', () => {
         const base = runOutlook(input)
         const sinking = runOutlook({
           ...input,
-          landMotion: { ...input.landMotion!, rateMmPerYear: input.landMotion!.rateMmPerYear - extraSinking },
+          landMotion: { ...input.landMotion!, rateMmPerYear: input.landMotion!.rateMmPerYear! - extraSinking },
         })
         base.byYear.forEach((year, t) => {
           year.exceedance.forEach((e, h) =>

@@ -1,0 +1,117 @@
+import { and, desc, eq, inArray } from 'drizzle-orm'
+import { landMotionDraws, outlooks, releaseDraws, releases, series, sites } from '~~/server/db/schema'
+import { parseLandMotionDrawsCsv, summariseLandDraws } from '#shared/observations/land-motion-draws'
+import type { LandMotionDrawsUpload } from '#shared/schemas/sites'
+import type { CurrentUser } from '../utils/auth'
+import { loadSite } from './sites'
+
+// A site's land motion as posterior draws: uploads are versions (the latest is what outlooks use,
+// earlier ones are kept), each optionally joint with one release of draws from the site's outlooks.
+
+/**
+ * Releases a site's draws may be joint with: releases of draws that the site's outlooks used, with their
+ * draw counts (the page offers those with as many draws as the file).
+ */
+export async function linkableReleases(siteId: string) {
+  const db = await useDb()
+  const used = await db.selectDistinct({ refs: outlooks.releaseRefs }).from(outlooks).where(eq(outlooks.siteId, siteId))
+  const ids = [...new Set(used.flatMap(row => row.refs.map(ref => ref.releaseId)))]
+  if (!ids.length) return []
+  return db
+    .select({
+      releaseId: releases.id,
+      component: series.component,
+      scenario: series.scenario,
+      title: series.title,
+      version: releases.version,
+      draws: releaseDraws.drawCount,
+    })
+    .from(releases)
+    .innerJoin(series, eq(series.id, releases.seriesId))
+    .innerJoin(releaseDraws, eq(releaseDraws.releaseId, releases.id))
+    .where(and(inArray(releases.id, ids), eq(releases.form, 'samples')))
+    .orderBy(series.component, series.scenario, desc(releases.version))
+}
+
+export async function uploadLandMotionDraws(
+  planner: CurrentUser,
+  siteId: string,
+  upload: LandMotionDrawsUpload,
+) {
+  const site = await loadSite(planner, siteId)
+  const draws = asBadRequest(() => parseLandMotionDrawsCsv(upload.csv))
+  if (upload.linkedReleaseId) {
+    const linked = (await linkableReleases(siteId)).find(release => release.releaseId === upload.linkedReleaseId)
+    const issue = !linked
+      ? 'is not a release of draws used by this site\'s outlooks; choose one from the list, or none'
+      : linked.draws !== draws.length
+        ? `has ${linked.draws} draws and the file ${draws.length}; a joint link pairs draw j with draw j, so upload one rate per release draw, or choose none`
+        : null
+    if (issue) {
+      const message = `linkedReleaseId: the release ${issue}.`
+      throw createError({ statusCode: 400, message, data: { issues: [{ field: 'linkedReleaseId', message }] } })
+    }
+  }
+  const summary = summariseLandDraws(draws)
+  const db = await useDb()
+  return db.transaction(async (tx) => {
+    // Two uploads at once take their versions in turn instead of colliding on the unique version.
+    await tx.select({ id: sites.id }).from(sites).where(eq(sites.id, siteId)).for('update')
+    const [latest] = await tx.select({ version: landMotionDraws.version }).from(landMotionDraws)
+      .where(eq(landMotionDraws.siteId, siteId)).orderBy(desc(landMotionDraws.version)).limit(1)
+    const version = (latest?.version ?? 0) + 1
+    const [row] = await tx
+      .insert(landMotionDraws)
+      .values({
+        siteId,
+        version,
+        draws,
+        summary,
+        source: upload.source,
+        reference: upload.reference,
+        linkedReleaseId: upload.linkedReleaseId,
+        uploadedBy: planner.id,
+      })
+      .returning({ id: landMotionDraws.id, version: landMotionDraws.version })
+    await writeAudit(
+      tx,
+      planner,
+      'site.land-motion-draws',
+      { type: 'site', id: siteId },
+      { site: site.name, version, draws: draws.length, linkedRelease: upload.linkedReleaseId },
+    )
+    return { ...row!, summary }
+  })
+}
+
+/** The latest draws of a site with their linked release, or null: what its outlooks use. */
+export async function latestLandMotionDraws(siteId: string) {
+  const db = await useDb()
+  const [row] = await db.select().from(landMotionDraws).where(eq(landMotionDraws.siteId, siteId))
+    .orderBy(desc(landMotionDraws.version)).limit(1)
+  return row ?? null
+}
+
+/** The latest version's summary (not the draws), the versions before it, and the releases it may link to. */
+export async function readLandMotionDraws(user: CurrentUser, siteId: string) {
+  await loadSite(user, siteId)
+  const db = await useDb()
+  const versions = await db
+    .select({
+      version: landMotionDraws.version,
+      createdAt: landMotionDraws.createdAt,
+      summary: landMotionDraws.summary,
+      source: landMotionDraws.source,
+      reference: landMotionDraws.reference,
+      linkedReleaseId: landMotionDraws.linkedReleaseId,
+    })
+    .from(landMotionDraws)
+    .where(eq(landMotionDraws.siteId, siteId))
+    .orderBy(desc(landMotionDraws.version))
+  const linkable = await linkableReleases(siteId)
+  const latest = versions[0]
+  const linked = latest?.linkedReleaseId
+    ? linkable.find(release => release.releaseId === latest.linkedReleaseId)
+    : undefined
+  return { latest: latest ? { ...latest, linkedRelease: linked ?? null } : null, versions, linkable }
+}

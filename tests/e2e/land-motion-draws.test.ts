@@ -1,0 +1,35 @@
+import { beforeEach, describe, expect, it } from 'vitest'
+import { PLANNER } from '../support/demo-users'
+import { open, seriousAxeViolations, signIn, type Page } from '../support/browser'
+import { useBrowserSuite } from '../support/browser-suite'
+
+const suite = useBrowserSuite('land-motion-draws')
+let page: Page
+beforeEach(() => ({ page } = suite))
+
+/** 120 draws of −3 ± 1 mm/yr, evenly spaced. */
+const DRAWS = `draw,rate_mm_per_year\n${Array.from({ length: 120 }, (_, i) => `${i + 1},${(-4 + (2 * i) / 119).toFixed(3)}`).join('\n')}\n`
+
+describe('land-motion draws on the site page', () => {
+  it('a planner uploads draws, is told what to fix first, and reads their summary', async () => {
+    await signIn(page, PLANNER.email, PLANNER.password)
+    const sites = await (await page.request.get('/api/sites')).json() as { id: string, name: string }[]
+    await open(page, `/sites/${sites.find(site => site.name === 'Kelwick')!.id}`)
+    const section = page.getByTestId('land-draws')
+    await section.getByTestId('land-draws-none').waitFor()
+
+    await section.getByLabel('Or paste the CSV').fill(DRAWS.replace('\n7,', '\n6,'))
+    await section.getByRole('button', { name: 'Upload draws' }).click()
+    await expect.poll(() => section.locator('#land-draws-msg').textContent())
+      .toContain('CSV file, row 8, column draw: Draw 6 is also on row 7; give one rate per draw.')
+
+    await section.getByLabel('Or paste the CSV').fill(DRAWS)
+    await section.getByLabel('Source of the estimate').selectOption('insar')
+    await section.getByRole('button', { name: 'Upload draws' }).click()
+    await section.getByTestId('land-draws-stored').waitFor()
+    expect(await section.getByTestId('land-draws-summary').textContent()).toContain(
+      'Version 1: 120 draws, median -3.00 mm/yr',
+    )
+    expect(await seriousAxeViolations(page)).toEqual([])
+  })
+})
