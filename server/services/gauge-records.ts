@@ -1,11 +1,12 @@
-import { and, desc, eq, sql } from 'drizzle-orm'
-import { gaugeRecords, outlooks, sites } from '~~/server/db/schema'
+import { desc, eq, sql } from 'drizzle-orm'
+import { gaugeRecords, sites } from '~~/server/db/schema'
 import { gaugePoints, parseGaugeRecordCsv } from '#shared/observations/gauge-record'
 import { fitGaugeTrend, GaugeFitError, type GaugeTrendFit } from '#shared/observations/gauge-trend'
 import { trackAgainstOutlook, type Tracking } from '#shared/observations/tracking'
 import type { CurrentUser } from '../utils/auth'
 import { latestOutlooks } from './notify'
 import { loadSite } from './sites'
+import { queueSiteRecomputation } from './site-recompute'
 
 // A site's tide-gauge record: uploads are versions (the latest is shown, earlier ones are kept), the
 // fit is made once at upload, and tracking against the site's outlooks is worked out on read, so a
@@ -62,11 +63,8 @@ export async function uploadGaugeRecord(planner: CurrentUser, siteId: string, cs
       { type: 'site', id: siteId },
       { site: site.name, version, values: record.values.length, resolution: record.resolution },
     )
-    const finished = await tx.selectDistinct({ scenario: outlooks.scenario }).from(outlooks)
-      .where(and(eq(outlooks.siteId, siteId), eq(outlooks.state, 'done'))).orderBy(outlooks.scenario)
-    if (finished.length)
-      await enqueueJob(tx, 'recompute-site', { siteId, cause: { kind: 'gauge-record', site: site.name, version } })
-    return { ...row!, updatingScenarios: finished.map(outlook => outlook.scenario) }
+    const cause = { kind: 'gauge-record', site: site.name, version } as const
+    return { ...row!, updatingScenarios: await queueSiteRecomputation(tx, siteId, cause) }
   })
   kickJobs()
   return stored

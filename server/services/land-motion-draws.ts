@@ -4,6 +4,7 @@ import { parseLandMotionDrawsCsv, summariseLandDraws } from '#shared/observation
 import type { LandMotionDrawsUpload } from '#shared/schemas/sites'
 import type { CurrentUser } from '../utils/auth'
 import { loadSite } from './sites'
+import { queueSiteRecomputation } from './site-recompute'
 
 // A site's land motion as posterior draws: uploads are versions (the latest is what outlooks use,
 // earlier ones are kept), each optionally joint with one release of draws from the site's outlooks.
@@ -54,7 +55,7 @@ export async function uploadLandMotionDraws(
   }
   const summary = summariseLandDraws(draws)
   const db = await useDb()
-  return db.transaction(async (tx) => {
+  const stored = await db.transaction(async (tx) => {
     // Two uploads at once take their versions in turn instead of colliding on the unique version.
     await tx.select({ id: sites.id }).from(sites).where(eq(sites.id, siteId)).for('update')
     const [latest] = await tx.select({ version: landMotionDraws.version }).from(landMotionDraws)
@@ -80,8 +81,11 @@ export async function uploadLandMotionDraws(
       { type: 'site', id: siteId },
       { site: site.name, version, draws: draws.length, linkedRelease: upload.linkedReleaseId },
     )
-    return { ...row!, summary }
+    const cause = { kind: 'land-motion-draws', site: site.name, version } as const
+    return { ...row!, summary, updatingScenarios: await queueSiteRecomputation(tx, siteId, cause) }
   })
+  kickJobs()
+  return stored
 }
 
 /** The latest draws of a site with their linked release, or null: what its outlooks use. */

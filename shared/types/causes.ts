@@ -12,6 +12,8 @@ export type RecomputationCause
     | { kind: 'annual-maxima', site: string }
   /** A new version of the site's tide-gauge record: what the observation-updated numbers rest on. */
     | { kind: 'gauge-record', site: string, version: number }
+  /** A new version of the site's land motion as posterior draws: what the outlooks now sample. */
+    | { kind: 'land-motion-draws', site: string, version: number }
   /** An operator asked (after an engine upgrade, say); scenario null is every scenario. */
     | { kind: 'requested', scenario: string | null }
 

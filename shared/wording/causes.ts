@@ -8,6 +8,7 @@ const KINDS = new Set<string>([
   'site-edited',
   'annual-maxima',
   'gauge-record',
+  'land-motion-draws',
   'requested',
 ] satisfies RecomputationCause['kind'][])
 
@@ -41,6 +42,8 @@ export function causeSentence(cause: StoredCause, language: Language): string {
       return t('causes.annualMaxima', { site: cause.site })
     case 'gauge-record':
       return t('causes.gaugeRecord', { site: cause.site, version: cause.version })
+    case 'land-motion-draws':
+      return t('causes.landMotionDraws', { site: cause.site, version: cause.version })
     case 'requested':
       return cause.scenario ? t('causes.requestedScenario', { scenario: cause.scenario }) : t('causes.requested')
   }

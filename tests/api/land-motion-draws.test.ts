@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient } from '../support/client'
 import { ANALYST, PLANNER, READER, demoUser } from '../support/demo-users'
 import { startServer, type RunningServer } from '../support/server'
+import { workSettled } from '../support/work'
 
 // A site's land motion as posterior draws: versions, refusals that say what to fix, the outlook that
 // samples them in place of the site's rate, and the briefing that says so.
@@ -107,6 +108,7 @@ describe('land-motion draws', () => {
     const refused = await reader.post(`/api/sites/${siteId}/land-motion-draws`, { csv: skewed(), source: 'gps' })
     expect(refused.status).toBe(403)
   })
+
   it('links the draws to a release of draws the site\'s outlooks use, draw j with draw j', async () => {
     // A new version of the glaciers series the site's outlooks adopted, given as 200 draws.
     const run = async (seed: number) => {
@@ -158,5 +160,16 @@ describe('land-motion draws', () => {
     const drafted = await planner.post('/api/briefings', { outlookId: joint.id, title: 'Lowmere', thresholdIds, years: [2050] })
     const basis = (await planner.get(`/api/briefings/${drafted.body.id}`)).body.document.basis
     expect(basis.landMotion).toContain('is taken together with the draw of the same number of the')
+  })
+
+  it('brings the site\'s outlooks up to date with a new upload', async () => {
+    const upload = await planner.post(`/api/sites/${siteId}/land-motion-draws`, { csv: skewed(300), source: 'gps' })
+    expect(upload.status).toBe(201)
+    expect(upload.body.updatingScenarios).toEqual(['SSP2-4.5'])
+    await workSettled(server.url)
+    const listed = (await planner.get(`/api/sites/${siteId}/outlooks`)).body as Array<{ id: string, scenario: string }>
+    const newest = (await planner.get(`/api/outlooks/${listed.find(o => o.scenario === 'SSP2-4.5')!.id}`)).body
+    expect(newest.input.landMotionDraws.version).toBe(upload.body.version)
+    expect(newest.input.landMotion.draws).toHaveLength(300)
   })
 })
