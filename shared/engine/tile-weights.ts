@@ -18,30 +18,116 @@ const RISE = new Float64Array(TILE)
 /** Each sample's log-likelihood, less the plan's constant, into LOG_WEIGHT; returns the tile's largest. */
 function logLikelihoods(plan: OutlookPlan, scratch: TileScratch, tileCount: number): number {
   const observations = plan.observations!
-  const rows = scratch.rows
   const rowsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
   const linear = scratch.sumsAreLevels ? observations.linearLevels : observations.linearCentred
-  const out = LOG_WEIGHT
-  out.fill(0, 0, tileCount)
+  // Terms three at a time, in the order of one pass per term (a padding term adds zero to a sum that
+  // is never −0, which leaves it as it was): each sample's sum is the same bits with a third of the
+  // passes over it.
+  const zeroRow = rowsAt + plan.basisCount * ROW
+  const needed = linear.length + observations.termCoefficient.length
+  if (likelihoodTerms.coefficient.length < needed) likelihoodTerms = newTermList(needed)
+  const terms = likelihoodTerms
+  let termCount = 0
   for (let j = 0; j < linear.length; j++) {
-    const coefficient = linear[j]!
-    if (coefficient === 0) continue
-    const at = rowsAt + j * ROW
-    for (let i = 0; i < tileCount; i = (i + 1) | 0) out[i] = out[i]! + coefficient * rows[(at + i) | 0]!
+    if (linear[j] === 0) continue
+    terms.coefficient[termCount] = linear[j]!
+    terms.first[termCount] = rowsAt + j * ROW
+    terms.second[termCount] = -1
+    termCount++
   }
   const first = observations.termFirst
   const second = observations.termSecond
   const coefficients = observations.termCoefficient
   for (let term = 0; term < coefficients.length; term++) {
-    const coefficient = coefficients[term]!
-    const a = rowsAt + first[term]! * ROW
-    const b = rowsAt + second[term]! * ROW
-    for (let i = 0; i < tileCount; i = (i + 1) | 0)
-      out[i] = out[i]! + coefficient * rows[(a + i) | 0]! * rows[(b + i) | 0]!
+    terms.coefficient[termCount] = coefficients[term]!
+    terms.first[termCount] = rowsAt + first[term]! * ROW
+    terms.second[termCount] = rowsAt + second[term]! * ROW
+    termCount++
+  }
+  const out = LOG_WEIGHT
+  out.fill(0, 0, tileCount)
+  let linearEnd = 0
+  while (linearEnd < termCount && terms.second[linearEnd] === -1) linearEnd++
+  for (let t = 0; t < linearEnd; t += 3) {
+    addLinearTerms(
+      out,
+      scratch.rows,
+      terms.first[t]!,
+      terms.coefficient[t]!,
+      t + 1 < linearEnd ? terms.first[t + 1]! : zeroRow,
+      t + 1 < linearEnd ? terms.coefficient[t + 1]! : 0,
+      t + 2 < linearEnd ? terms.first[t + 2]! : zeroRow,
+      t + 2 < linearEnd ? terms.coefficient[t + 2]! : 0,
+      tileCount,
+    )
+  }
+  for (let t = linearEnd; t < termCount; t += 3) {
+    addQuadraticTerms(
+      out,
+      scratch.rows,
+      terms.first[t]!,
+      terms.second[t]!,
+      terms.coefficient[t]!,
+      t + 1 < termCount ? terms.first[t + 1]! : zeroRow,
+      t + 1 < termCount ? terms.second[t + 1]! : zeroRow,
+      t + 1 < termCount ? terms.coefficient[t + 1]! : 0,
+      t + 2 < termCount ? terms.first[t + 2]! : zeroRow,
+      t + 2 < termCount ? terms.second[t + 2]! : zeroRow,
+      t + 2 < termCount ? terms.coefficient[t + 2]! : 0,
+      tileCount,
+    )
   }
   let largest = -Infinity
   for (let i = 0; i < tileCount; i++) if (out[i]! > largest) largest = out[i]!
   return largest
+}
+
+/**
+ * Where each term of the log-likelihood reads its rows (second −1: a linear term), and its coefficient;
+ * grown to the largest plan seen.
+ */
+let likelihoodTerms = newTermList(0)
+
+function newTermList(size: number) {
+  return { first: new Int32Array(size), second: new Int32Array(size), coefficient: new Float64Array(size) }
+}
+
+function addLinearTerms(
+  out: Float64Array,
+  rows: Float64Array,
+  a0: number,
+  c0: number,
+  a1: number,
+  c1: number,
+  a2: number,
+  c2: number,
+  tileCount: number,
+): void {
+  for (let i = 0; i < tileCount; i = (i + 1) | 0)
+    out[i] = out[i]! + c0 * rows[(a0 + i) | 0]! + c1 * rows[(a1 + i) | 0]! + c2 * rows[(a2 + i) | 0]!
+}
+
+function addQuadraticTerms(
+  out: Float64Array,
+  rows: Float64Array,
+  a0: number,
+  b0: number,
+  c0: number,
+  a1: number,
+  b1: number,
+  c1: number,
+  a2: number,
+  b2: number,
+  c2: number,
+  tileCount: number,
+): void {
+  for (let i = 0; i < tileCount; i = (i + 1) | 0) {
+    out[i]
+      = out[i]!
+        + c0 * rows[(a0 + i) | 0]! * rows[(b0 + i) | 0]!
+        + c1 * rows[(a1 + i) | 0]! * rows[(b1 + i) | 0]!
+        + c2 * rows[(a2 + i) | 0]! * rows[(b2 + i) | 0]!
+  }
 }
 
 /**
@@ -149,16 +235,35 @@ export function addWeightedTile(
   const rowsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
   const columns = plan.basisCount
   const crossAt = observations.momentsAt + columns
+  // Column j's sum and its products with columns k ≤ j, four k per pass (padding reads the zero row
+  // and is dropped): independent sums in one loop instead of one latency-bound loop each. Every sum
+  // still adds its samples in order, so the bits are those of one loop per sum.
   for (let j = 0; j < columns; j++) {
     const a = rowsAt + j * ROW
-    let sum = 0
-    for (let i = 0; i < tileCount; i = (i + 1) | 0) sum += weights[i]! * rows[(a + i) | 0]!
-    sums[observations.momentsAt + j]! += sum
-    for (let k = 0; k <= j; k++) {
-      const b = rowsAt + k * ROW
-      let cross = 0
-      for (let i = 0; i < tileCount; i = (i + 1) | 0) cross += weights[i]! * rows[(a + i) | 0]! * rows[(b + i) | 0]!
-      sums[crossAt + j * columns + k]! += cross
+    for (let k0 = 0; k0 <= j; k0 += 4) {
+      const b0 = rowsAt + k0 * ROW
+      const b1 = rowsAt + (k0 + 1 <= j ? k0 + 1 : columns) * ROW
+      const b2 = rowsAt + (k0 + 2 <= j ? k0 + 2 : columns) * ROW
+      const b3 = rowsAt + (k0 + 3 <= j ? k0 + 3 : columns) * ROW
+      let sum = 0
+      let cross0 = 0
+      let cross1 = 0
+      let cross2 = 0
+      let cross3 = 0
+      for (let i = 0; i < tileCount; i = (i + 1) | 0) {
+        const weighted = weights[i]! * rows[(a + i) | 0]!
+        sum += weighted
+        cross0 += weighted * rows[(b0 + i) | 0]!
+        cross1 += weighted * rows[(b1 + i) | 0]!
+        cross2 += weighted * rows[(b2 + i) | 0]!
+        cross3 += weighted * rows[(b3 + i) | 0]!
+      }
+      if (k0 === 0) sums[observations.momentsAt + j]! += sum
+      const at = crossAt + j * columns + k0
+      sums[at]! += cross0
+      if (k0 + 1 <= j) sums[at + 1]! += cross1
+      if (k0 + 2 <= j) sums[at + 2]! += cross2
+      if (k0 + 3 <= j) sums[at + 3]! += cross3
     }
   }
   const inverseResolution = 1 / plan.histogramResolution
