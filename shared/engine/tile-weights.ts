@@ -184,6 +184,18 @@ export function rescaleWeighted(sums: Float64Array, from: number, to: number): v
 }
 
 /**
+ * The log of the weight, relative to the largest, below which a sample is weighed zero: the weights so
+ * left out add up to less than 2⁻⁵³ of the largest weight, itself at most Σw, so every weighted sum moves
+ * by less than one rounding of Σw and every weighted chance by less than half an ulp of 1. The largest
+ * only grows during a run and on merging, so a weight left out against a smaller one is smaller still
+ * against the last. With a few decades of record about a third of the trajectories fall below it
+ * (≈ −48 at 100,000 samples), and their weights cost no exponential.
+ */
+export function negligibleLogWeight(samples: number): number {
+  return -53 * Math.LN2 - Math.log(samples)
+}
+
+/**
  * Each tile sample's weight by the observed record, into the returned array (valid until the next
  * tile), with Σw and Σw² added to the partial's weighted sums. Needs the tile's basis rows only, so it
  * runs before the counting, which the trigger counts then share.
@@ -202,11 +214,13 @@ export function weighTile(
     partial.weightScale = largest
   }
   const scale = partial.weightScale
+  const negligible = negligibleLogWeight(plan.samples)
   const weights = WEIGHT
   let total = 0
   let squares = 0
   for (let i = 0; i < tileCount; i++) {
-    const w = Math.exp(LOG_WEIGHT[i]! - scale)
+    const logWeight = LOG_WEIGHT[i]! - scale
+    const w = logWeight < negligible ? 0 : Math.exp(logWeight)
     weights[i] = w
     total += w
     squares += w * w
