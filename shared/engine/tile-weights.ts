@@ -215,6 +215,10 @@ export function weighTile(
   }
   const scale = partial.weightScale
   const negligible = negligibleLogWeight(plan.samples)
+  if (plan.basisCount <= FUSED_COLUMNS) {
+    weighWithMoments(plan, scratch, tileCount, scale, negligible, sums)
+    return WEIGHT
+  }
   const weights = WEIGHT
   let total = 0
   let squares = 0
@@ -230,28 +234,122 @@ export function weighTile(
   return weights
 }
 
+/** Plans of at most this many basis columns get their weighted moments as the weights are formed. */
+const FUSED_COLUMNS = 4
+
 /**
- * What the counting kernels do not add for the tile's weights: the weighted sums of the basis rows and
- * their products (each year's weighted mean and sd follow from them), and the weighted histogram of years
- * whose cells the kernels do not list (`countedByCells`), their rise formed again.
+ * `weighTile`'s weights and, in the same pass, `addMoments`'s sums for a plan of at most four basis
+ * columns (the others read the zero row and are dropped): the sample's rows are read once, while its
+ * weight is at hand. A sample of weight zero adds nothing to any sum (zero products leave a sum that
+ * is never −0 as it was), so it is passed over; every sum adds its samples in order, as there.
  */
-export function addWeightedTile(
+function weighWithMoments(
   plan: OutlookPlan,
-  tables: SamplerTables,
   scratch: TileScratch,
   tileCount: number,
-  partial: OutlookPartial,
+  scale: number,
+  negligible: number,
+  sums: Float64Array,
 ): void {
+  const columns = plan.basisCount
+  const rows = scratch.rows
+  const rowsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
+  const a0 = rowsAt
+  const a1 = rowsAt + (columns > 1 ? 1 : columns) * ROW
+  const a2 = rowsAt + (columns > 2 ? 2 : columns) * ROW
+  const a3 = rowsAt + (columns > 3 ? 3 : columns) * ROW
+  const weights = WEIGHT
+  const logWeights = LOG_WEIGHT
+  let total = 0
+  let squares = 0
+  let s0 = 0
+  let s1 = 0
+  let s2 = 0
+  let s3 = 0
+  let c00 = 0
+  let c10 = 0
+  let c11 = 0
+  let c20 = 0
+  let c21 = 0
+  let c22 = 0
+  let c30 = 0
+  let c31 = 0
+  let c32 = 0
+  let c33 = 0
+  for (let i = 0; i < tileCount; i = (i + 1) | 0) {
+    const logWeight = logWeights[i]! - scale
+    if (logWeight < negligible) {
+      weights[i] = 0
+      continue
+    }
+    const w = Math.exp(logWeight)
+    weights[i] = w
+    total += w
+    squares += w * w
+    const x0 = rows[(a0 + i) | 0]!
+    const x1 = rows[(a1 + i) | 0]!
+    const x2 = rows[(a2 + i) | 0]!
+    const x3 = rows[(a3 + i) | 0]!
+    const u0 = w * x0
+    const u1 = w * x1
+    const u2 = w * x2
+    const u3 = w * x3
+    s0 += u0
+    s1 += u1
+    s2 += u2
+    s3 += u3
+    c00 += u0 * x0
+    c10 += u1 * x0
+    c11 += u1 * x1
+    c20 += u2 * x0
+    c21 += u2 * x1
+    c22 += u2 * x2
+    c30 += u3 * x0
+    c31 += u3 * x1
+    c32 += u3 * x2
+    c33 += u3 * x3
+  }
+  sums[0]! += total
+  sums[1]! += squares
+  // Sums then products by row (k ≤ j), as `addMoments` lays them out.
+  const tile = TILE_MOMENTS
+  tile[0] = s0
+  tile[1] = s1
+  tile[2] = s2
+  tile[3] = s3
+  tile[4] = c00
+  tile[5] = c10
+  tile[6] = c11
+  tile[7] = c20
+  tile[8] = c21
+  tile[9] = c22
+  tile[10] = c30
+  tile[11] = c31
+  tile[12] = c32
+  tile[13] = c33
+  const momentsAt = plan.observations!.momentsAt
+  let next = FUSED_COLUMNS
+  for (let j = 0; j < FUSED_COLUMNS; j++) {
+    if (j < columns) sums[momentsAt + j]! += tile[j]!
+    for (let k = 0; k <= j; k++, next++) if (j < columns) sums[momentsAt + columns + j * columns + k]! += tile[next]!
+  }
+}
+
+const TILE_MOMENTS = new Float64Array(FUSED_COLUMNS + (FUSED_COLUMNS * (FUSED_COLUMNS + 1)) / 2)
+
+/**
+ * The weighted sums of the basis rows and their products (each year's weighted mean and sd follow from
+ * them): column j's sum and its products with columns k ≤ j, four k per pass (padding reads the zero
+ * row and is dropped), independent sums in one loop instead of one latency-bound loop each. Every sum
+ * adds its samples in order.
+ */
+function addMoments(plan: OutlookPlan, scratch: TileScratch, tileCount: number, sums: Float64Array): void {
   const observations = plan.observations!
-  const sums = partial.weighted
   const weights = WEIGHT
   const rows = scratch.rows
   const rowsAt = scratch.sumsAreLevels ? scratch.levelsAt : scratch.basisAt
   const columns = plan.basisCount
   const crossAt = observations.momentsAt + columns
-  // Column j's sum and its products with columns k ≤ j, four k per pass (padding reads the zero row
-  // and is dropped): independent sums in one loop instead of one latency-bound loop each. Every sum
-  // still adds its samples in order, so the bits are those of one loop per sum.
   for (let j = 0; j < columns; j++) {
     const a = rowsAt + j * ROW
     for (let k0 = 0; k0 <= j; k0 += 4) {
@@ -280,6 +378,24 @@ export function addWeightedTile(
       if (k0 + 3 <= j) sums[at + 3]! += cross3
     }
   }
+}
+
+/**
+ * What the counting kernels do not add for the tile's weights: the weighted sums of the basis rows and
+ * their products (each year's weighted mean and sd follow from them), and the weighted histogram of years
+ * whose cells the kernels do not list (`countedByCells`), their rise formed again.
+ */
+export function addWeightedTile(
+  plan: OutlookPlan,
+  tables: SamplerTables,
+  scratch: TileScratch,
+  tileCount: number,
+  partial: OutlookPartial,
+): void {
+  const observations = plan.observations!
+  const sums = partial.weighted
+  const weights = WEIGHT
+  if (plan.basisCount > FUSED_COLUMNS) addMoments(plan, scratch, tileCount, sums)
   const inverseResolution = 1 / plan.histogramResolution
   const rise = RISE
   for (let t = 0; t < plan.years.length; t++) {
