@@ -237,6 +237,9 @@ export function weighTile(
 /** Plans of at most this many basis columns get their weighted moments as the weights are formed. */
 const FUSED_COLUMNS = 4
 
+/** A tile's sums of `weighWithMoments`: the four columns', then their products by row (k ≤ j). */
+const TILE_MOMENTS = new Float64Array(FUSED_COLUMNS + (FUSED_COLUMNS * (FUSED_COLUMNS + 1)) / 2)
+
 /**
  * `weighTile`'s weights and, in the same pass, `addMoments`'s sums for a plan of at most four basis
  * columns (the others read the zero row and are dropped): the sample's rows are read once, while its
@@ -311,7 +314,6 @@ function weighWithMoments(
   }
   sums[0]! += total
   sums[1]! += squares
-  // Sums then products by row (k ≤ j), as `addMoments` lays them out.
   const tile = TILE_MOMENTS
   tile[0] = s0
   tile[1] = s1
@@ -328,14 +330,12 @@ function weighWithMoments(
   tile[12] = c32
   tile[13] = c33
   const momentsAt = plan.observations!.momentsAt
-  let next = FUSED_COLUMNS
-  for (let j = 0; j < FUSED_COLUMNS; j++) {
-    if (j < columns) sums[momentsAt + j]! += tile[j]!
-    for (let k = 0; k <= j; k++, next++) if (j < columns) sums[momentsAt + columns + j * columns + k]! += tile[next]!
+  for (let j = 0; j < columns; j++) {
+    sums[momentsAt + j]! += tile[j]!
+    const products = FUSED_COLUMNS + (j * (j + 1)) / 2
+    for (let k = 0; k <= j; k++) sums[momentsAt + columns + j * columns + k]! += tile[products + k]!
   }
 }
-
-const TILE_MOMENTS = new Float64Array(FUSED_COLUMNS + (FUSED_COLUMNS * (FUSED_COLUMNS + 1)) / 2)
 
 /**
  * The weighted sums of the basis rows and their products (each year's weighted mean and sd follow from
@@ -382,7 +382,7 @@ function addMoments(plan: OutlookPlan, scratch: TileScratch, tileCount: number, 
 
 /**
  * What the counting kernels do not add for the tile's weights: the weighted sums of the basis rows and
- * their products (each year's weighted mean and sd follow from them), and the weighted histogram of years
+ * their products for plans wider than `weighWithMoments` takes, and the weighted histogram of years
  * whose cells the kernels do not list (`countedByCells`), their rise formed again.
  */
 export function addWeightedTile(
