@@ -129,10 +129,8 @@ export function countYear(
   const listed = scratch.listed
   let listedCount = 0
   if (onePass && !keepRise && used < 4) {
-    listedCount = countOnePass(
-      histogram,
+    countOnePass(
       levels,
-      listed,
       histogramAt,
       b0,
       b1,
@@ -152,7 +150,7 @@ export function countYear(
     )
     minimum = partial.minimum[t]!
     maximum = partial.maximum[t]!
-    if (scratch.weights !== null) addWeightedCells(scratch, CELLS, tileCount)
+    listedCount = addCells(scratch, CELLS, tileCount)
   }
   else for (let i = 0; i < tileCount; i++) {
     let value = (onePass ? intercept : rise[riseAt + i]!) + w0 * levels[b0 + i]! + w1 * levels[b1 + i]!
@@ -231,24 +229,32 @@ export function countedByCells(plan: OutlookPlan, tables: SamplerTables, t: numb
   return tables.yearColumns[t]!.length === PASS && plan.gumbel === null && tables.yearWeights[t]![3] === 0
 }
 
-/** Adds each tile sample's weight to its histogram cell (cells as `countOnePass` lists them). */
-export function addWeightedCells(scratch: TileScratch, cells: Int32Array, tileCount: number): void {
-  const weights = scratch.weights!
-  const weighted = scratch.weighted
-  const at = scratch.weightedHistogramAt
-  for (let i = 0; i < tileCount; i = (i + 1) | 0) weighted[(at + cells[i]!) | 0]! += weights[i]!
+/**
+ * Adds each tile sample to its histogram cell (`cells`, as `countOnePass` and the pairs list them) and,
+ * for an observation-updated outlook, its weight beside it; lists the samples whose cell holds a cut and
+ * returns how many.
+ */
+export function addCells(scratch: TileScratch, cells: Int32Array, tileCount: number): number {
+  if (scratch.weights === null) return addToHistogram(scratch.histogram, cells, scratch.listed, tileCount)
+  return addToHistogramWeighted(
+    scratch.histogram,
+    cells,
+    scratch.listed,
+    tileCount,
+    scratch.weights,
+    scratch.weighted,
+    scratch.weightedHistogramAt,
+  )
 }
 
 /**
  * `countYear`'s loop for the usual year: one pass of two or three columns and no rise kept. The
  * optimizing compiler neither hoists loop-invariant tests nor drops overflow checks on index sums, so
  * this copy has no such tests inside (one loop per column count) and its index sums are `| 0`. Same
- * arithmetic, in the same order, as the general loop. Returns how many samples it listed.
+ * arithmetic, in the same order, as the general loop. Leaves each sample's histogram cell in CELLS.
  */
 function countOnePass(
-  histogram: Int32Array,
   levels: Float64Array,
-  listed: Int32Array,
   histogramAt: number,
   b0: number,
   b1: number,
@@ -265,7 +271,7 @@ function countOnePass(
   minima: Float64Array,
   maxima: Float64Array,
   t: number,
-): number {
+): void {
   let minimum = minima[t]!
   let maximum = maxima[t]!
   const cells = CELLS
@@ -291,7 +297,6 @@ function countOnePass(
   }
   minima[t] = minimum
   maxima[t] = maximum
-  return addToHistogram(histogram, cells, listed, tileCount)
 }
 
 /**
@@ -299,7 +304,7 @@ function countOnePass(
  * A loop of its own: each cell index is ready long before its turn, so the processor runs the loads and
  * stores of many samples ahead instead of waiting on the arithmetic that found them.
  */
-export function addToHistogram(
+function addToHistogram(
   histogram: Int32Array,
   cells: Int32Array,
   listed: Int32Array,
@@ -384,4 +389,32 @@ export function finishCounts(
       if (cell >= 0) cellCounts[cellAt + cell]! += count
     }
   }
+}
+
+/**
+ * `addToHistogram` with each sample's weight added to its cell of the weighted histogram (at
+ * `weightedAt + cell`) in the same loop: the cell index is read once for both, and each sum still adds
+ * its samples in order.
+ */
+function addToHistogramWeighted(
+  histogram: Int32Array,
+  cells: Int32Array,
+  listed: Int32Array,
+  tileCount: number,
+  weights: Float64Array,
+  weighted: Float64Array,
+  weightedAt: number,
+): number {
+  let listedCount = 0
+  for (let i = 0; i < tileCount; i = (i + 1) | 0) {
+    const at = cells[i]!
+    const count = (histogram[at]! + 1) | 0
+    histogram[at] = count
+    weighted[(weightedAt + at) | 0]! += weights[i]!
+    if (count < 0) {
+      listed[listedCount] = i
+      listedCount = (listedCount + 1) | 0
+    }
+  }
+  return listedCount
 }

@@ -1,6 +1,6 @@
 import type { SamplerTables, YearPair } from './sampler-tables'
 import { ROW, TILE, type TileScratch } from './tile-scratch'
-import { addToHistogram, addWeightedCells, placeListed } from './tile-counts'
+import { addCells, placeListed } from './tile-counts'
 import type { OutlookPartial, OutlookPlan } from './types'
 
 // Two years counted in one pass over the tile. Most output years lie between the same two anchor
@@ -55,29 +55,9 @@ export function countYearPair(
     first,
     second,
   )
-  if (scratch.weights !== null) {
-    addWeightedCells(scratch, FIRST_CELLS, tileCount)
-    addWeightedCells(scratch, SECOND_CELLS, tileCount)
-  }
   const listed = scratch.listed
-  placeListed(
-    plan,
-    tables,
-    scratch,
-    first,
-    listed,
-    addToHistogram(scratch.histogram, FIRST_CELLS, listed, tileCount),
-    partial,
-  )
-  placeListed(
-    plan,
-    tables,
-    scratch,
-    second,
-    listed,
-    addToHistogram(scratch.histogram, SECOND_CELLS, listed, tileCount),
-    partial,
-  )
+  placeListed(plan, tables, scratch, first, listed, addCells(scratch, FIRST_CELLS, tileCount), partial)
+  placeListed(plan, tables, scratch, second, listed, addCells(scratch, SECOND_CELLS, tileCount), partial)
 }
 
 function pairCells(

@@ -158,7 +158,6 @@ function countTriggersWeighted(
       let through = 0
       let ends = 0
       let weightedThrough = 0
-      let weightedEnds = 0
       for (let i = 0; i < tileCount; i++) {
         const r0 = rise[fromAt + i]!
         const r1 = rise[toAt + i]!
@@ -168,7 +167,6 @@ function countTriggersWeighted(
         through += above0 & above1
         ends += above1
         weightedThrough += (above0 & above1) * w
-        weightedEnds += above1 * w
         if (above0 === above1) continue
         const crossing = ((height - r0) * span) / (r1 - r0)
         let first = 1
@@ -189,6 +187,10 @@ function countTriggersWeighted(
         into[weightedStart + span]! -= weightedThrough
       }
       if (trigger.knotIsOutput[k] === 0) {
+        // Only knots that are not output years need the weight above at the end: a pass of their own
+        // keeps a second chain of additions out of the loop above.
+        let weightedEnds = 0
+        for (let i = 0; i < tileCount; i++) weightedEnds += (rise[toAt + i]! > height ? 1 : 0) * weights[i]!
         counts[start + span]! += ends
         counts[start + span + 1]! -= ends
         into[weightedStart + span]! += weightedEnds

@@ -205,6 +205,40 @@ describe('observation-updated outlooks', () => {
     expect(Math.abs(covered / (worlds - refused) - 0.66)).toBeLessThanOrEqual(0.03)
   }, 30_000)
 
+  it('gives the unweighted numbers for a record that says nothing, with many basis columns', () => {
+    // Two releases with anchor years of their own: six basis columns (more than the weights form their
+    // moments beside), and anchor years that are no output year (trigger knots of their own).
+    const input = (observations?: ObservationsInput) =>
+      baseInput({
+        years: [2000, 2030, 2080, 2120],
+        samples: 20_000,
+        components: [
+          normalComponent('ocean', { 2050: [0.15, 0.03], 2100: [0.4, 0.1], 2150: [0.7, 0.2] }),
+          normalComponent('ice', { 2060: [0.05, 0.02], 2150: [0.5, 0.3] }),
+        ],
+        thresholds: [{ key: 'low', height: 0.2 }, { key: 'half-metre', height: 0.5 }],
+        ...(observations ? { observations } : {}),
+      })
+    const times = Array.from({ length: 30 }, (_, i) => 2000.5 + i)
+    const record = { times, rise: times.map(() => 0), residualSd: 1000, phi: 0 }
+    expect(planOutlook(input(record)).basisCount).toBeGreaterThan(4)
+    const plain = runOutlook(input())
+    const update = updated(runOutlook(input(record)))
+    plain.byYear.forEach((year, t) => {
+      year.percentiles.forEach((p, k) => expect(update.byYear[t]!.percentiles[k]!.value).toBeCloseTo(p.value, 7))
+      expect(update.byYear[t]!.mean.value).toBeCloseTo(year.mean.value, 7)
+      expect(update.byYear[t]!.sd).toBeCloseTo(year.sd, 7)
+    })
+    plain.thresholds.forEach((threshold, m) => {
+      expect(update.thresholds[m]!.byYear.map(e => e.value)).toEqual(
+        threshold.byYear.map(e => expect.closeTo(e.value, 7)),
+      )
+      expect(update.thresholds[m]!.triggerYears).toEqual(
+        threshold.triggerYears.map(({ tolerance, year }) => ({ tolerance, year })),
+      )
+    })
+  })
+
   it('refuses the update when the record is far from every trajectory', () => {
     const times = Array.from({ length: 30 }, (_, i) => 2000.5 + i)
     const result = runOutlook(
