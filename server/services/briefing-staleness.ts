@@ -4,6 +4,7 @@ import type { OutlookResult } from '#shared/engine'
 import { formatChance } from '#shared/wording/chance'
 import { languageOf, translator, type Language } from '#shared/wording/translate'
 import type { StaleFigure, Staleness } from '#shared/types/staleness'
+import { gaugeUpdateChanges } from '#shared/briefing/gauge-staleness'
 import { briefingStaleMail } from '../mail/templates'
 
 // An issued briefing never changes. When a newer outlook of its site and scenario gives different
@@ -98,6 +99,15 @@ async function briefingStaleness(row: Briefing): Promise<Staleness | null> {
       }
     }
   }
+  const own = replaced.find(o => o.id === row.outlookIds[0])
+  const ownWas = own && results.get(own.id)
+  const ownNow = own && results.get(latest.get(own.scenario)!.id)
+  if (own && ownWas && ownNow) {
+    for (const change of gaugeUpdateChanges(ownWas, ownNow, language)) {
+      const threshold = labels.get(change.thresholdId) ?? change.thresholdId
+      changes.push({ ...change, scenario: own.scenario, threshold })
+    }
+  }
   if (!changes.length) return null
   return {
     latestOutlookIds: row.outlookIds.map(id => latest.get(used.find(o => o.id === id)?.scenario ?? '')?.id ?? id),
@@ -105,17 +115,21 @@ async function briefingStaleness(row: Briefing): Promise<Staleness | null> {
   }
 }
 
+const STALE_WHAT = {
+  'mean-sea-level': 'meanSeaLevel',
+  'flood-level': 'flood',
+  'gauge-updated': 'gaugeUpdated',
+  'gauge-update-gone': 'gaugeUpdated',
+} as const satisfies Record<StaleFigure['kind'], string>
+
 /** One line per changed figure, in the briefing's language: "19 % now, 4 % in this briefing". */
 export function staleLine(change: StaleFigure, language: Language) {
   const t = translator(language)
-  const what = t(change.kind === 'flood-level' ? 'emails.briefingStale.flood' : 'emails.briefingStale.meanSeaLevel', {
-    threshold: change.threshold,
-    year: change.year,
-  })
-  return t('emails.briefingStale.line', {
+  const what = t(`emails.briefingStale.${STALE_WHAT[change.kind]}`, { threshold: change.threshold, year: change.year })
+  return t(change.now === null ? 'emails.briefingStale.lineGone' : 'emails.briefingStale.line', {
     scenario: change.scenario,
     what,
-    now: formatChance(change.now, language),
+    now: change.now === null ? '' : formatChance(change.now, language),
     was: formatChance(change.was, language),
   })
 }

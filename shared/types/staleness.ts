@@ -5,11 +5,17 @@ export interface StaleFigure {
   scenario: string
   thresholdId: string
   threshold: string
-  kind: 'mean-sea-level' | 'flood-level'
+  /**
+   * Which chance: above the mean sea level or the flood level's in a year, both as the outlook states
+   * them; `gauge-updated`, the chance above the mean sea level updated by the site's gauge record, as the
+   * briefing's gauge section states it; `gauge-update-gone`, that section's chance where the latest
+   * outlook gives no update any more (no record, or one too unlike the trajectories: `now` is null).
+   */
+  kind: 'mean-sea-level' | 'flood-level' | 'gauge-updated' | 'gauge-update-gone'
   year: number
   /** The chance the briefing states, and the latest outlook's. */
   was: number
-  now: number
+  now: number | null
 }
 
 export interface Staleness {

@@ -108,4 +108,43 @@ describe('a gauge record upload brings the site\'s outlooks up to date', () => {
     expect(await outlooksOfSite()).toEqual(before)
     expect((await planner.get(`/api/sites/${siteId}/gauge-record`)).body.versions).toHaveLength(2)
   })
+
+  it('marks an issued briefing out of date when a new record changes its gauge section', async () => {
+    // A record on the site's datum (mean sea level 2020) with weather-sized noise (about a centimetre),
+    // so the trajectories' weights are spread enough for an update; then one rising far faster.
+    const noisy = (extra: number) => `year,height\n${Array.from({ length: 45 }, (_, i) => 1981 + i).map((year) => {
+      const t = year + 0.5 - 2020
+      const wobble = 0.01 * Math.sin(year * 2.39996) + 0.006 * Math.sin(year * 0.91)
+      return `${year},${(0.006 * t + wobble + (t > 0 ? extra * t : 0)).toFixed(4)}`
+    }).join('\n')}\n`
+    expect((await planner.post(`/api/sites/${siteId}/gauge-record`, { csv: noisy(0) })).status).toBe(201)
+    await workSettled(server.url)
+    // Newest first: the outlook weighted by that record.
+    const weighted = (await outlooksOfSite()).find(o => o.scenario === 'SSP2-4.5' && o.state === 'done')!
+    expect((await planner.get(`/api/outlooks/${weighted.id}`)).body.result.observationUpdate.refused).toBe(false)
+    const thresholdIds = (await planner.get(`/api/sites/${siteId}`)).body.thresholds.map((t: { id: string }) => t.id)
+    const draft = await planner.post('/api/briefings', {
+      outlookId: weighted.id, title: 'Lowmere and its gauge', thresholdIds, years: [2050, 2100],
+    })
+    expect(draft.status).toBe(201)
+    expect((await planner.post(`/api/briefings/${draft.body.id}/issue`)).status).toBe(200)
+    expect((await planner.get(`/api/briefings/${draft.body.id}`)).body.staleness).toBeNull()
+
+    // 5 cm a year more since 2020: the weight moves to the fastest trajectories and the updated chance of
+    // passing the inlet in 2100 rises from less than 1 % (the refused and gone cases: unit tests).
+    expect((await planner.post(`/api/sites/${siteId}/gauge-record`, { csv: noisy(0.05) })).status).toBe(201)
+    await workSettled(server.url)
+    const { staleness } = (await planner.get(`/api/briefings/${draft.body.id}`)).body
+    // Only the gauge section's chance changed (in 2100, the section's year): the unweighted numbers did not.
+    expect(staleness?.changes).toEqual([expect.objectContaining({
+      kind: 'gauge-updated', threshold: 'Wastewater works inlet', year: 2100, scenario: 'SSP2-4.5',
+    })])
+    expect(staleness.changes[0].now).toBeGreaterThan(staleness.changes[0].was)
+    const stale = await vi.waitFor(async () => {
+      const found = (await mailbox()).find(m => m.to.includes(PLANNER.email) && /Briefing out of date/.test(m.subject))
+      if (!found) throw new Error('not sent yet')
+      return found
+    }, { timeout: 20_000, interval: 100 })
+    expect(stale.text).toMatch(/by 2100 updated by the tide-gauge record: [\d.]+\s% now, less than 1\s% in this briefing\./)
+  })
 })
