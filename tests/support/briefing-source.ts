@@ -1,5 +1,5 @@
 import type { BriefingSource } from '../../shared/briefing/document'
-import type { OutlookResult } from '../../shared/engine'
+import { runOutlook, type ObservationsInput, type OutlookResult } from '../../shared/engine'
 
 /**
  * The briefing source the document tests word: an invented site (Testport, land sinking 2 ± 0.5 mm/yr),
@@ -53,4 +53,26 @@ export function testportSource(
     ],
     ...overrides,
   }
+}
+
+/** A small outlook: rise 0.5 ± 0.1 m by 2100 (normal, linear from 2020), threshold t1 at 0.5 m. */
+export function smallOutlook(observations?: ObservationsInput) {
+  return runOutlook({
+    baselineYear: 2020,
+    years: [2020, 2050, 2100],
+    samples: 8192,
+    seed: 5,
+    components: [
+      { key: 'glaciers', scale: 1, release: { form: 'normal', baselineYear: 2020, anchorYears: [2100], mean: [0.5], sd: [0.1] } },
+    ],
+    heights: { from: 0, to: 1, step: 0.05 },
+    thresholds: [{ key: 't1', height: 0.5 }],
+    ...(observations ? { observations } : {}),
+  })
+}
+
+/** 25 annual values since 2020 rising at `rate` m/yr, with 1 cm residuals correlated 0.3 year to year. */
+export function recordSince2020(rate: number): ObservationsInput {
+  const times = Array.from({ length: 25 }, (_, i) => 2020.5 + i)
+  return { times, rise: times.map(t => rate * (t - 2020)), residualSd: 0.01, phi: 0.3 }
 }

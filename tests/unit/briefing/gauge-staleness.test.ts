@@ -1,27 +1,10 @@
 import { describe, expect, it } from 'vitest'
 import { gaugeUpdateChanges } from '../../../shared/briefing/gauge-staleness'
-import { runOutlook, type ObservationsInput } from '../../../shared/engine'
+import { recordSince2020, smallOutlook } from '../../support/briefing-source'
 
 // A small outlook (rise 0.5 ± 0.1 m by 2100, linear from 2020; threshold 0.5 m, so an even chance in
 // 2100 before any record) weighted by 25 annual values since 2020 rising at `rate`.
-function outlook(rate?: number) {
-  const times = Array.from({ length: 25 }, (_, i) => 2020.5 + i)
-  const observations: ObservationsInput | undefined = rate === undefined
-    ? undefined
-    : { times, rise: times.map(t => rate * (t - 2020)), residualSd: 0.01, phi: 0.3 }
-  return runOutlook({
-    baselineYear: 2020,
-    years: [2020, 2050, 2100],
-    samples: 8192,
-    seed: 5,
-    components: [
-      { key: 'glaciers', scale: 1, release: { form: 'normal', baselineYear: 2020, anchorYears: [2100], mean: [0.5], sd: [0.1] } },
-    ],
-    heights: { from: 0, to: 1, step: 0.05 },
-    thresholds: [{ key: 't1', height: 0.5 }],
-    ...(observations ? { observations } : {}),
-  })
-}
+const outlook = (rate?: number) => smallOutlook(rate === undefined ? undefined : recordSince2020(rate))
 
 describe('what a new gauge record changes in a briefing\'s gauge section', () => {
   it('is nothing when the briefing\'s outlook had no update, or the new one reads the same', () => {

@@ -1,31 +1,10 @@
 import { describe, expect, it } from 'vitest'
 import { buildBriefingDocument } from '../../../shared/briefing/document'
-import { runOutlook, type ObservationsInput } from '../../../shared/engine'
-import { testportSource } from '../../support/briefing-source'
+import { recordSince2020, smallOutlook, testportSource } from '../../support/briefing-source'
 
 // A small outlook (rise 0.5 ± 0.1 m by 2100, linear from 2020) weighted by a record since 2020.
-function outlook(observations?: ObservationsInput) {
-  return runOutlook({
-    baselineYear: 2020,
-    years: [2020, 2050, 2100],
-    samples: 8192,
-    seed: 5,
-    components: [
-      { key: 'glaciers', scale: 1, release: { form: 'normal', baselineYear: 2020, anchorYears: [2100], mean: [0.5], sd: [0.1] } },
-    ],
-    heights: { from: 0, to: 1, step: 0.05 },
-    thresholds: [{ key: 't1', height: 0.5 }],
-    ...(observations ? { observations } : {}),
-  })
-}
-
-const times = Array.from({ length: 25 }, (_, i) => 2020.5 + i)
-const record = (rate: number): ObservationsInput => ({
-  times,
-  rise: times.map(t => rate * (t - 2020)),
-  residualSd: 0.01,
-  phi: 0.3,
-})
+const outlook = smallOutlook
+const record = recordSince2020
 
 function document(result: ReturnType<typeof outlook>, language: 'en' | 'es' = 'en') {
   const source = testportSource(result, 8192, { language, author: null })
