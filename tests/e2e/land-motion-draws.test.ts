@@ -1,6 +1,6 @@
 import { beforeEach, describe, expect, it } from 'vitest'
 import { PLANNER } from '../support/demo-users'
-import { open, seriousAxeViolations, signIn, type Page } from '../support/browser'
+import { open, screenshot, seriousAxeViolations, signIn, type Page } from '../support/browser'
 import { useBrowserSuite } from '../support/browser-suite'
 
 const suite = useBrowserSuite('land-motion-draws')
@@ -30,6 +30,13 @@ describe('land-motion draws on the site page', () => {
     expect(await section.getByTestId('land-draws-summary').textContent()).toContain(
       'Version 1: 120 draws, median -3.00 mm/yr',
     )
+    // The site's own card says its stated rate is no longer what outlooks sample.
+    const used = page.getByTestId('site-land-motion-draws-used')
+    await used.waitFor()
+    expect(await used.textContent()).toContain('Outlooks use the land-motion draws below (version 1) in place of this rate.')
+    expect(await section.getByTestId('land-draws-stored').textContent()).toContain('the next outlook uses it')
     expect(await seriousAxeViolations(page)).toEqual([])
+    await section.scrollIntoViewIfNeeded()
+    await screenshot(page, 'land-motion-draws-stored')
   })
 })
