@@ -1,12 +1,12 @@
 import { desc, eq, sql } from 'drizzle-orm'
-import { gaugeRecords, sites } from '~~/server/db/schema'
+import { gaugeRecords } from '~~/server/db/schema'
 import { gaugePoints, parseGaugeRecordCsv } from '#shared/observations/gauge-record'
 import { fitGaugeTrend, GaugeFitError, type GaugeTrendFit } from '#shared/observations/gauge-trend'
 import { trackAgainstOutlook, type Tracking } from '#shared/observations/tracking'
 import type { CurrentUser } from '../utils/auth'
 import { latestOutlooks } from './notify'
 import { loadSite } from './sites'
-import { queueSiteRecomputation } from './site-recompute'
+import { nextUploadVersion, queueSiteRecomputation } from './site-uploads'
 
 // A site's tide-gauge record: uploads are versions (the latest is shown, earlier ones are kept), the
 // fit is made once at upload, and tracking against the site's outlooks is worked out on read, so a
@@ -38,11 +38,7 @@ export async function uploadGaugeRecord(planner: CurrentUser, siteId: string, cs
   const { fit, fitIssue } = fitOrIssue(gaugePoints(record), record.resolution)
   const db = await useDb()
   const stored = await db.transaction(async (tx) => {
-    // Two uploads at once take their versions in turn instead of colliding on the unique version.
-    await tx.select({ id: sites.id }).from(sites).where(eq(sites.id, siteId)).for('update')
-    const [latest] = await tx.select({ version: gaugeRecords.version }).from(gaugeRecords)
-      .where(eq(gaugeRecords.siteId, siteId)).orderBy(desc(gaugeRecords.version)).limit(1)
-    const version = (latest?.version ?? 0) + 1
+    const version = await nextUploadVersion(tx, siteId, gaugeRecords)
     const [row] = await tx
       .insert(gaugeRecords)
       .values({

@@ -1,10 +1,10 @@
 import { and, desc, eq, inArray } from 'drizzle-orm'
-import { landMotionDraws, outlooks, releaseDraws, releases, series, sites } from '~~/server/db/schema'
+import { landMotionDraws, outlooks, releaseDraws, releases, series } from '~~/server/db/schema'
 import { parseLandMotionDrawsCsv, summariseLandDraws } from '#shared/observations/land-motion-draws'
 import type { LandMotionDrawsUpload } from '#shared/schemas/sites'
 import type { CurrentUser } from '../utils/auth'
 import { loadSite } from './sites'
-import { queueSiteRecomputation } from './site-recompute'
+import { nextUploadVersion, queueSiteRecomputation } from './site-uploads'
 
 // A site's land motion as posterior draws: uploads are versions (the latest is what outlooks use,
 // earlier ones are kept), each optionally joint with one release of draws from the site's outlooks.
@@ -56,11 +56,7 @@ export async function uploadLandMotionDraws(
   const summary = summariseLandDraws(draws)
   const db = await useDb()
   const stored = await db.transaction(async (tx) => {
-    // Two uploads at once take their versions in turn instead of colliding on the unique version.
-    await tx.select({ id: sites.id }).from(sites).where(eq(sites.id, siteId)).for('update')
-    const [latest] = await tx.select({ version: landMotionDraws.version }).from(landMotionDraws)
-      .where(eq(landMotionDraws.siteId, siteId)).orderBy(desc(landMotionDraws.version)).limit(1)
-    const version = (latest?.version ?? 0) + 1
+    const version = await nextUploadVersion(tx, siteId, landMotionDraws)
     const [row] = await tx
       .insert(landMotionDraws)
       .values({
