@@ -1,5 +1,5 @@
 import { samplerTables } from './sampler-tables'
-import { annualCounts } from './tile-triggers'
+import { addWeightAboveAtKnots, annualCounts } from './tile-triggers'
 import { histogramQuantile, proportionStandardError, type HistogramView } from './statistics'
 import { COMPONENT_KIND_DRAWS } from './types'
 import type {
@@ -106,15 +106,20 @@ export function finishObservationUpdate(
   const trigger = plan.trigger
   const counted = trigger ? trigger.heights.length : 0
   const thresholds: UpdatedThreshold[] = []
+  const weightAbove = (m: number, t: number) => {
+    const cut = plan.thresholds[trigger!.thresholdIndex[m]!]!.cutIndex!
+    let weight = 0
+    for (let cell = cut + 1; cell < cellsPerYear; cell++) weight += cells[t * cellsPerYear + cell]!
+    return weight
+  }
+  // A copy: the merged sums stay as the run left them, so finishing twice gives the same numbers.
+  const triggerLength = counted * (trigger ? trigger.yearCount + 1 : 0)
+  const triggerCounts = sums.slice(observations.triggerAt, observations.triggerAt + triggerLength)
+  if (trigger) addWeightAboveAtKnots(plan, triggerCounts, 0, weightAbove)
   for (let m = 0; m < counted; m++) {
     const threshold = plan.thresholds[trigger!.thresholdIndex[m]!]!
-    const cut = threshold.cutIndex!
-    const above = (t: number) => {
-      let weight = 0
-      for (let cell = cut + 1; cell < cellsPerYear; cell++) weight += cells[t * cellsPerYear + cell]!
-      return weight
-    }
-    const annual = annualCounts(plan, sums, m, above, total, observations.triggerAt)
+    const above = (t: number) => weightAbove(m, t)
+    const annual = annualCounts(plan, triggerCounts, m, above, total)
     thresholds.push({
       key: threshold.key,
       height: threshold.height,

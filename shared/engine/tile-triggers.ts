@@ -133,6 +133,13 @@ function countTriggers(plan: OutlookPlan, tileCount: number, counts: Int32Array)
 /**
  * `countTriggers` and, in the same pass, each sample counted by its weight into the Float64 difference
  * arrays at `into[at …]` (observation-updated outlooks). The unweighted counts are the same integers.
+ *
+ * The weight above a height at both ends of an interval is not summed sample by sample when the
+ * interval ends on an output year: it is the weight above at that year (the year's weighted exceedance,
+ * which the counting kernels sum anyway) less the weight of the samples that rise through the height
+ * inside the interval, and only those, a tenth of the samples or fewer, are added here.
+ * `addWeightAboveAtKnots` adds the year's weight once the run is merged. A sum over every sample was a
+ * chain of floating-point additions as long as the tile, the largest part of weighting's cost here.
  */
 function countTriggersWeighted(
   plan: OutlookPlan,
@@ -155,19 +162,23 @@ function countTriggersWeighted(
       const weightedStart = at + start
       const fromAt = (k - 1) * TILE
       const toAt = k * TILE
+      const endsOnOutput = trigger.knotIsOutput[k] === 1
       let through = 0
       let ends = 0
-      let weightedThrough = 0
+      // Weight of the samples below at the start and above at the end (output-year knots), or above
+      // at both ends (other knots).
+      let weightedRun = 0
       for (let i = 0; i < tileCount; i++) {
         const r0 = rise[fromAt + i]!
         const r1 = rise[toAt + i]!
-        const w = weights[i]!
         const above0 = r0 > height ? 1 : 0
         const above1 = r1 > height ? 1 : 0
         through += above0 & above1
         ends += above1
-        weightedThrough += (above0 & above1) * w
+        if (!endsOnOutput) weightedRun += (above0 & above1) * weights[i]!
         if (above0 === above1) continue
+        const w = weights[i]!
+        if (above1 === 1 && endsOnOutput) weightedRun += w
         const crossing = ((height - r0) * span) / (r1 - r0)
         let first = 1
         let last = span - 1
@@ -183,12 +194,13 @@ function countTriggersWeighted(
       if (span > 1) {
         counts[start + 1]! += through
         counts[start + span]! -= through
+        const weightedThrough = endsOnOutput ? -weightedRun : weightedRun
         into[weightedStart + 1]! += weightedThrough
         into[weightedStart + span]! -= weightedThrough
       }
-      if (trigger.knotIsOutput[k] === 0) {
-        // Only knots that are not output years need the weight above at the end: a pass of their own
-        // keeps a second chain of additions out of the loop above.
+      if (!endsOnOutput) {
+        // The weight above at the end, for knots that are not output years: a pass of its own keeps a
+        // second chain of additions out of the loop above.
         let weightedEnds = 0
         for (let i = 0; i < tileCount; i++) weightedEnds += (rise[toAt + i]! > height ? 1 : 0) * weights[i]!
         counts[start + span]! += ends
@@ -196,6 +208,32 @@ function countTriggersWeighted(
         into[weightedStart + span]! += weightedEnds
         into[weightedStart + span + 1]! -= weightedEnds
       }
+    }
+  }
+}
+
+/**
+ * Completes the weighted difference arrays of `countTriggersWeighted` once the run is merged: for each
+ * interval that ends on an output year, the weight above the height in that year (`weightAbove(m, t)`)
+ * is added to the years strictly inside the interval (the samples that crossed inside it were taken
+ * off there tile by tile).
+ */
+export function addWeightAboveAtKnots(
+  plan: OutlookPlan,
+  into: Float64Array,
+  at: number,
+  weightAbove: (m: number, t: number) => number,
+): void {
+  const trigger = plan.trigger!
+  const stride = trigger.yearCount + 1
+  for (let m = 0; m < trigger.heights.length; m++) {
+    for (let k = 1; k < trigger.knotYears.length; k++) {
+      const span = trigger.knotYears[k]! - trigger.knotYears[k - 1]!
+      if (trigger.knotIsOutput[k] !== 1 || span <= 1) continue
+      const start = at + m * stride + trigger.knotYears[k - 1]! - trigger.firstYear
+      const weight = weightAbove(m, plan.years.indexOf(trigger.knotYears[k]!))
+      into[start + 1]! += weight
+      into[start + span]! -= weight
     }
   }
 }

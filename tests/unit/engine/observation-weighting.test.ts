@@ -11,7 +11,15 @@ import {
   type OutlookInput,
   type OutlookResult,
 } from '../../../shared/engine'
+import jStatPkg from 'jstat'
 import { baseInput, normalComponent } from './helpers'
+
+const { jStat } = jStatPkg
+
+/** Binomial standard error of a proportion p at an effective sample size n. */
+function proportionSe(p: number, n: number): number {
+  return Math.sqrt((p * (1 - p)) / n)
+}
 
 // Likelihood weighting of the trajectories by an observed record (shared/engine/observation-plan.ts).
 
@@ -124,6 +132,48 @@ describe('observation-updated outlooks', () => {
     expect(Math.abs(year2100.sd / (100 * sd) - 1)).toBeLessThan(0.04)
     // The median of a normal posterior is its mean.
     expect(Math.abs(year2100.percentiles[3]!.value - 100 * mean)).toBeLessThan(4 * year2100.percentiles[3]!.se + 0.001)
+  })
+
+  it('puts updated trigger years where the conjugate posterior\'s chance first reaches each tolerance', () => {
+    // [practice: conjugate normal–normal posterior as above] rise = rate·(year − 2000), so the chance of
+    // passing 0.3 m in year 2000 + n is 1 − Φ((0.3/n − mean)/sd) under the posterior; the height is
+    // crossed between the output years 2030 and 2100, so the updated trigger years come from the annual
+    // counts inside that interval.
+    const sigma = 0.02
+    const normal = normals(23)
+    const times = Array.from({ length: 30 }, (_, i) => 2000.5 + i)
+    const rise = times.map(t => 0.0036 * (t - 2000) + sigma * normal())
+    let xx = 0
+    let xy = 0
+    times.forEach((t, i) => {
+      xx += (t - 2000) ** 2
+      xy += (t - 2000) * rise[i]!
+    })
+    const precision = 1 / PRIOR_RATE_SD ** 2 + xx / sigma ** 2
+    const mean = (PRIOR_RATE / PRIOR_RATE_SD ** 2 + xy / sigma ** 2) / precision
+    const sd = 1 / Math.sqrt(precision)
+    const chance = (n: number) => 1 - jStat.normal.cdf((0.3 / n - mean) / sd, 0, 1)
+    const result = runOutlook({
+      ...linearInput(100_000, { times, rise, residualSd: sigma, phi: 0 }),
+      thresholds: [{ key: 'thirty-centimetres', height: 0.3 }],
+    })
+    const update = updated(result)
+    const margin = 4 * proportionSe(0.5, update.ess)
+    let checked = 0
+    for (const { tolerance, year } of update.thresholds[0]!.triggerYears) {
+      let n = 1
+      while (n <= 100 && chance(n) < tolerance) n++
+      expect(n).toBeGreaterThan(30)
+      expect(n).toBeLessThan(100)
+      // A year whose chance is within Monte Carlo error of the tolerance may go either way.
+      const clear = chance(n - 1) < tolerance - margin && chance(n) > tolerance + margin
+      if (clear) {
+        expect(year).toBe(2000 + n)
+        checked++
+      }
+      else expect([2000 + n - 1, 2000 + n]).toContain(year)
+    }
+    expect(checked).toBeGreaterThan(0)
   })
 
   it('matches the posterior under AR(1) residuals (tridiagonal precision of the record)', () => {
