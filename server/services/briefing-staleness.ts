@@ -2,9 +2,10 @@ import { and, desc, eq, inArray, isNull } from 'drizzle-orm'
 import { briefings, outlooks, sites, thresholds, users } from '~~/server/db/schema'
 import type { OutlookResult } from '#shared/engine'
 import { formatChance } from '#shared/wording/chance'
-import { languageOf, translator, type Language } from '#shared/wording/translate'
+import { languageOf } from '#shared/wording/translate'
 import type { StaleFigure, Staleness } from '#shared/types/staleness'
 import { gaugeUpdateChanges } from '#shared/briefing/gauge-staleness'
+import { staleLine } from '#shared/briefing/stale-line'
 import { briefingStaleMail } from '../mail/templates'
 
 // An issued briefing never changes. When a newer outlook of its site and scenario gives different
@@ -113,25 +114,6 @@ async function briefingStaleness(row: Briefing): Promise<Staleness | null> {
     latestOutlookIds: row.outlookIds.map(id => latest.get(used.find(o => o.id === id)?.scenario ?? '')?.id ?? id),
     changes,
   }
-}
-
-const STALE_WHAT = {
-  'mean-sea-level': 'meanSeaLevel',
-  'flood-level': 'flood',
-  'gauge-updated': 'gaugeUpdated',
-  'gauge-update-gone': 'gaugeUpdated',
-} as const satisfies Record<StaleFigure['kind'], string>
-
-/** One line per changed figure, in the briefing's language: "19 % now, 4 % in this briefing". */
-export function staleLine(change: StaleFigure, language: Language) {
-  const t = translator(language)
-  const what = t(`emails.briefingStale.${STALE_WHAT[change.kind]}`, { threshold: change.threshold, year: change.year })
-  return t(change.now === null ? 'emails.briefingStale.lineGone' : 'emails.briefingStale.line', {
-    scenario: change.scenario,
-    what,
-    now: change.now === null ? '' : formatChance(change.now, language),
-    was: formatChance(change.was, language),
-  })
 }
 
 /** Works out and stores the staleness of one briefing (an issued one; a draft is never stale). */

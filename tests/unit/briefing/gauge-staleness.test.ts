@@ -7,9 +7,24 @@ import { recordSince2020, smallOutlook } from '../../support/briefing-source'
 const outlook = (rate?: number) => smallOutlook(rate === undefined ? undefined : recordSince2020(rate))
 
 describe('what a new gauge record changes in a briefing\'s gauge section', () => {
-  it('is nothing when the briefing\'s outlook had no update, or the new one reads the same', () => {
-    expect(gaugeUpdateChanges(outlook(), outlook(0.008), 'en')).toEqual([])
+  it('is nothing when the new outlook reads the same, or neither gives an update', () => {
     expect(gaugeUpdateChanges(outlook(0.006), outlook(0.006), 'en')).toEqual([])
+    expect(gaugeUpdateChanges(outlook(), outlook(), 'en')).toEqual([])
+    expect(gaugeUpdateChanges(outlook(0.1), outlook(), 'en')).toEqual([])
+  })
+
+  it('is each updated chance as new when the briefing gave no update and the latest outlook does', () => {
+    // No record at issue, then one at 8 mm/yr (faster than the median 6.25 mm/yr): the 2100 chance of
+    // passing 0.5 m is pulled above one half, and the briefing's readers have not been told.
+    const [fromNone] = gaugeUpdateChanges(outlook(), outlook(0.008), 'en')
+    expect(fromNone).toMatchObject({ thresholdId: 't1', kind: 'gauge-update-new', year: 2100, was: null })
+    expect(fromNone!.now).toBeGreaterThan(0.5)
+    // A record too unlike the trajectories at issue (refused), then one they can follow.
+    const refused = outlook(0.1)
+    expect(refused.observationUpdate!.refused).toBe(true)
+    const [fromRefused] = gaugeUpdateChanges(refused, outlook(0.004), 'en')
+    expect(fromRefused).toMatchObject({ kind: 'gauge-update-new', was: null })
+    expect(fromRefused!.now).toBeLessThan(0.5)
   })
 
   it('is the 2100 chance updated by the record when it reads differently', () => {
