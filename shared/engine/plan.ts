@@ -23,7 +23,8 @@ export const BLOCK_SIZE = 2048
 /** Percentile histograms span each year's rise for every score within ±6; beyond goes to overflow cells. */
 const HISTOGRAM_SCORE_SPAN = 6
 const HISTOGRAM_RESOLUTIONS = [0.001, 0.002, 0.005, 0.01, 0.02, 0.05, 0.1, 0.2, 0.5, 1, 2, 5, 10]
-const MAX_HISTOGRAM_CELLS = 1 << 20
+/** The most cells a plan's histogram has (all years); the resolution is coarsened to stay within it. */
+export const MAX_HISTOGRAM_CELLS = 1 << 20
 const LOGNORMAL_BOUND_POINTS = 241
 
 function componentBounds(table: ComponentTable, yearCount: number): { low: Float64Array, high: Float64Array } {

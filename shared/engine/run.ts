@@ -4,7 +4,7 @@ import { HOLDS_CUT, samplerTables } from './sampler-tables'
 import { ROW_PADDING, TILE, tileScratch } from './tile-scratch'
 import { scoreTile, valueTile } from './tile-values'
 import { basisFromValues, blockSumsByYear, gumbelTile, sumTile } from './tile-sums'
-import { countConstantYear, countYear, finishCounts, riseOfYear } from './tile-counts'
+import { countConstantYear, countYear, finishCounts, finishWeightedCells, riseOfYear, startWeightedCells } from './tile-counts'
 import { countYearPair } from './tile-pairs'
 import { floodAnnualTile, triggerTile } from './tile-triggers'
 import { addWeightedTile, weighTile } from './tile-weights'
@@ -102,6 +102,7 @@ export function runClaimedBlocks(
   scratch.weighted = partial.weighted
   scratch.weightedHistogramAt = plan.observations?.histogramAt ?? 0
   scratch.weightedCellsAt = plan.observations?.cellsAt ?? 0
+  if (weighted) startWeightedCells(plan)
   let done = 0
   for (let b = 0; b < capacity; b++) {
     const blockIndex = nextBlock()
@@ -167,6 +168,7 @@ export function runClaimedBlocks(
     partial.samples += count
   }
   finishCounts(plan, tables, scratch, partial)
+  if (weighted) finishWeightedCells(plan, partial)
   // The scratch outlives the call; the partial's sums must not be written through it again.
   scratch.weights = null
   scratch.weighted = NO_SUMS

@@ -1,5 +1,5 @@
 import { PASS, type SamplerTables } from './sampler-tables'
-import { countedByCells } from './tile-counts'
+import { countedByCells, rescaleWeightedCells } from './tile-counts'
 import { ROW, TILE, type TileScratch } from './tile-scratch'
 import type { OutlookPartial, OutlookPlan } from './types'
 
@@ -210,6 +210,7 @@ export function weighTile(
   const largest = logLikelihoods(plan, scratch, tileCount)
   // The scale only grows, a few times per partial: the sums so far are rescaled then.
   if (largest > partial.weightScale) {
+    if (partial.weightScale !== -Infinity) rescaleWeightedCells(plan, Math.exp(partial.weightScale - largest))
     rescaleWeighted(sums, partial.weightScale, largest)
     partial.weightScale = largest
   }
