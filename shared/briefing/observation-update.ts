@@ -1,9 +1,10 @@
 import type { ObservationUpdate, OutlookResult } from '../engine'
 import { formatHeight } from '../units'
 import { beyondRange, formatChance } from '../wording/chance'
-import { translator } from '../wording/translate'
+import { translator, type Language } from '../wording/translate'
 import type { BriefingSource } from './document'
 import { sayChance } from './findings'
+import { updateSectionYear } from '../observations/update-year'
 
 // The briefing's section on the outlook updated by the site's gauge record (when the outlook was
 // weighted by one): what changed for the likely range, the chances and the trigger years, then the
@@ -22,6 +23,17 @@ function percentile(year: { percentiles: { level: number, value: number }[] }, l
   return year.percentiles.find(p => Math.abs(p.level - level) < 1e-9)!.value
 }
 
+/**
+ * How far ahead the record is read: in full to its last value, then less each year, none from the end of
+ * its reach (or, for an update read to every year, that it is).
+ */
+function readAhead(update: ObservationUpdate & { refused: false }, language: Language): string {
+  const t = translator(language)
+  const { fullUntil, noneFrom } = update.reach
+  if (noneFrom === null) return t('observationDocument.reachWhole', { last: Math.floor(fullUntil) })
+  return t('observationDocument.reach', { last: Math.floor(fullUntil), none: Math.ceil(noneFrom) })
+}
+
 /** The section for the briefing's own outlook, or null when it was not weighted by a record. */
 export function observationUpdateSection(
   source: BriefingSource,
@@ -34,8 +46,6 @@ export function observationUpdateSection(
   const t = translator(language)
   const height = (metres: number) => formatHeight(metres, source.units, language)
   const count = (value: number) => Math.round(value).toLocaleString(language)
-  const year = result.years.includes(2100) ? 2100 : result.years.at(-1)!
-  const t2100 = result.years.indexOf(year)
   const lastYear = result.years.at(-1)!
   const method = [
     t('observationDocument.method', {
@@ -55,16 +65,23 @@ export function observationUpdateSection(
     })
     return { title, lines: [refused], method }
   }
-  const plainYear = result.byYear[t2100]!
-  const updatedYear = update.byYear[t2100]!
+  const intro = t('observationDocument.intro', {
+    count: update.observations,
+    first: Math.floor(update.firstTime),
+    last: Math.floor(update.lastTime),
+    ess: count(update.ess),
+    samples: count(result.samples),
+  })
+  const reach = readAhead(update, language)
+  const year = updateSectionYear(update, result.baselineYear)
+  if (year === null)
+    return { title, lines: [intro, reach, t('observationDocument.outOfReach')], method }
+  const at = result.years.indexOf(year)
+  const plainYear = result.byYear[at]!
+  const updatedYear = update.byYear[at]!
   const lines = [
-    t('observationDocument.intro', {
-      count: update.observations,
-      first: Math.floor(update.firstTime),
-      last: Math.floor(update.lastTime),
-      ess: count(update.ess),
-      samples: count(result.samples),
-    }),
+    intro,
+    reach,
     t('observationDocument.range', {
       year,
       low: height(percentile(plainYear, 0.17)),
@@ -82,8 +99,8 @@ export function observationUpdateSection(
         threshold: threshold.label,
         height: height(threshold.height),
         year,
-        chance: sayChance(plain.byYear[t2100]!, language).plain,
-        updated: sayChance(updated.byYear[t2100]!, language).plain,
+        chance: sayChance(plain.byYear[at]!, language).plain,
+        updated: sayChance(updated.byYear[at]!, language).plain,
       }),
     )
     // A trigger year resting on a level beyond the releases says so, and so does its updated year: the

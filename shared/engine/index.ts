@@ -24,6 +24,7 @@ export { planOutlook, BLOCK_SIZE } from './plan'
 export { claimFromCounter, runBlocks, runClaimedBlocks, type NextBlock } from './run'
 export { mergePartials } from './merge'
 export { finishOutlook, PERCENTILE_LEVELS } from './finish'
+export { carriedShare, recordReach, type RecordReach, type RecordReachMode } from './observation-reach'
 export { runOutlook } from './outlook'
 export { planTrajectories, sampleTrajectories, MAX_TRAJECTORIES, type Trajectories } from './trajectories'
 export type {

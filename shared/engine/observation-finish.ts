@@ -1,6 +1,7 @@
 import { samplerTables } from './sampler-tables'
 import { addWeightAboveAtKnots, annualCounts } from './tile-triggers'
-import { histogramQuantile, proportionStandardError, type HistogramView } from './statistics'
+import { blendedEffectiveSize, carriedShare, recordReach } from './observation-reach'
+import { cumulativeCounts, histogramQuantile, proportionStandardError, type HistogramView } from './statistics'
 import { COMPONENT_KIND_DRAWS } from './types'
 import type {
   Estimate,
@@ -9,6 +10,7 @@ import type {
   OutlookPlan,
   UpdatedThreshold,
   UpdatedYear,
+  YearOutlook,
 } from './types'
 
 /**
@@ -23,19 +25,23 @@ export const MIN_EFFECTIVE_SAMPLES = 200
 /**
  * The outlook conditioned on the observed record, from the merged weighted sums (see
  * `ObservationPlan`): weighted mean, sd and percentiles per output year, and per mean-sea-level threshold
- * the weighted chances and trigger years. Monte Carlo SEs use the effective sample size in place of N
- * (the usual approximation for self-normalised importance sampling).
+ * the weighted chances and trigger years, each read as far ahead as the record reaches
+ * (`observation-reach.ts`: beyond it, blended with the outlook's own `plainByYear` and counts). Monte
+ * Carlo SEs use the effective sample size in place of N (the usual approximation for self-normalised
+ * importance sampling).
  */
 export function finishObservationUpdate(
   plan: OutlookPlan,
   merged: OutlookPartial,
   percentileLevels: readonly number[],
+  plainByYear: readonly Pick<YearOutlook, 'mean' | 'sd'>[],
 ): ObservationUpdate | undefined {
   const observations = plan.observations
   if (!observations) return undefined
   const sums = merged.weighted
   const total = sums[0]!
   const ess = total > 0 ? (total * total) / sums[1]! : 0
+  const reach = recordReach(observations)
   const about = {
     method: 'likelihood-weighting' as const,
     observations: observations.count,
@@ -45,12 +51,15 @@ export function finishObservationUpdate(
     phi: observations.phi,
     ess,
     minimumEss: MIN_EFFECTIVE_SAMPLES,
+    reach,
   }
   if (!(ess >= MIN_EFFECTIVE_SAMPLES))
     return { ...about, refused: true, reason: 'too-few-effective-samples' }
 
+  const n = plan.samples
   const counts = sums.subarray(observations.histogramAt)
   const cumulative = runningTotals(plan, counts)
+  const plainCumulative = cumulativeCounts(merged.histogram, plan.histogramOffset, plan.histogramBins)
   const columns = plan.basisCount
   const mean = (j: number) => sums[observations.momentsAt + j]! / total
   const cross = (j: number, k: number) =>
@@ -60,6 +69,8 @@ export function finishObservationUpdate(
   const cells = weightedCells(plan, merged.weighted, observations.cellsAt, observations.histogramAt)
   const cellsPerYear = plan.cuts.length + 1
   const byYear: UpdatedYear[] = plan.years.map((year, t) => {
+    const carried = carriedShare(reach, year)
+    const size = blendedEffectiveSize(ess, n, carried)
     // rise − center = δ + Σ_j W_j·x_j, so its weighted mean and mean square follow from the row sums.
     const offset = (levels ? plan.landIntercept[t]! : plan.center[t]!) - plan.center[t]!
     let linear = 0
@@ -73,31 +84,27 @@ export function finishObservationUpdate(
         if (wk !== 0) quadratic += wj * wk * cross(j, k)
       }
     }
-    const meanDeviation = offset + linear
+    const weightedMean = plan.center[t]! + (offset + linear)
     const meanSquare = offset * offset + 2 * offset * linear + quadratic
-    const variance = Math.max(0, meanSquare - meanDeviation * meanDeviation)
-    const sd = Math.sqrt((variance * ess) / (ess - 1))
-    const view: HistogramView = {
-      counts,
-      offset: plan.histogramOffset[t]!,
-      bins: plan.histogramBins[t]!,
-      low: plan.histogramLow[t]!,
-      resolution: plan.histogramResolution,
-      total,
-      minimum: merged.minimum[t]!,
-      maximum: merged.maximum[t]!,
-      cumulative,
-    }
+    const weightedVariance = Math.max(0, meanSquare - (offset + linear) ** 2)
+    const view = yearView(plan, merged, t, counts, total, cumulative)
+    const plainView = yearView(plan, merged, t, merged.histogram, n, plainCumulative)
+    const blended = carried === 1 ? view : carried === 0 ? plainView : blendedView(view, plainView, carried)
+    const { mean: blendedMean, variance } = carried === 1
+      ? { mean: weightedMean, variance: weightedVariance }
+      : blendedMoments(weightedMean, weightedVariance, plainByYear[t]!, n, carried)
+    const sd = Math.sqrt((variance * size) / (size - 1))
     return {
       year,
-      mean: { value: plan.center[t]! + meanDeviation, se: sd / Math.sqrt(ess) },
+      carried,
+      mean: { value: blendedMean, se: sd / Math.sqrt(size) },
       sd,
       percentiles: percentileLevels.map((level) => {
-        const spread = proportionStandardError(level, ess)
+        const spread = proportionStandardError(level, size)
         return {
           level,
-          value: histogramQuantile(view, level),
-          se: (histogramQuantile(view, level + spread) - histogramQuantile(view, level - spread)) / 2,
+          value: histogramQuantile(blended, level),
+          se: (histogramQuantile(blended, level + spread) - histogramQuantile(blended, level - spread)) / 2,
         }
       }),
     }
@@ -112,28 +119,92 @@ export function finishObservationUpdate(
     for (let cell = cut + 1; cell < cellsPerYear; cell++) weight += cells[t * cellsPerYear + cell]!
     return weight
   }
+  const countAbove = (m: number, t: number) => {
+    const cut = plan.thresholds[trigger!.thresholdIndex[m]!]!.cutIndex!
+    let count = 0
+    for (let cell = cut + 1; cell < cellsPerYear; cell++) count += merged.cellCounts[t * cellsPerYear + cell]!
+    return count
+  }
   // A copy: the merged sums stay as the run left them, so finishing twice gives the same numbers.
   const triggerLength = counted * (trigger ? trigger.yearCount + 1 : 0)
   const triggerCounts = sums.slice(observations.triggerAt, observations.triggerAt + triggerLength)
   if (trigger) addWeightAboveAtKnots(plan, triggerCounts, 0, weightAbove)
+  const blend = (year: number, weight: number, count: number) => {
+    const carried = carriedShare(reach, year)
+    return carried * (weight / total) + (1 - carried) * (count / n)
+  }
   for (let m = 0; m < counted; m++) {
     const threshold = plan.thresholds[trigger!.thresholdIndex[m]!]!
-    const above = (t: number) => weightAbove(m, t)
-    const annual = annualCounts(plan, triggerCounts, m, above, total)
+    const weighted = annualCounts(plan, triggerCounts, m, t => weightAbove(m, t), total)
+    const plain = annualCounts(plan, merged.triggerCounts, m, t => countAbove(m, t))
     thresholds.push({
       key: threshold.key,
       height: threshold.height,
-      byYear: plan.years.map((_, t): Estimate => {
-        const value = Math.min(1, Math.max(0, above(t) / total))
-        return { value, se: proportionStandardError(value, ess) }
+      byYear: plan.years.map((year, t): Estimate => {
+        const value = Math.min(1, Math.max(0, blend(year, weightAbove(m, t), countAbove(m, t))))
+        return { value, se: proportionStandardError(value, blendedEffectiveSize(ess, n, carriedShare(reach, year))) }
       }),
       triggerYears: plan.tolerances.map((tolerance) => {
-        const index = annual.findIndex(weight => weight / total >= tolerance)
+        const index = weighted.findIndex((weight, y) => blend(trigger!.firstYear + y, weight, plain[y]!) >= tolerance)
         return { tolerance, year: index < 0 ? null : trigger!.firstYear + index }
       }),
     })
   }
   return { ...about, refused: false, byYear, thresholds }
+}
+
+/**
+ * Mean and variance of the blend: E[x] and E[x²] are the shares' mixtures (the plain sd taken back to
+ * the variance of the samples, without its N − 1).
+ */
+function blendedMoments(
+  weightedMean: number,
+  weightedVariance: number,
+  plain: Pick<YearOutlook, 'mean' | 'sd'>,
+  n: number,
+  carried: number,
+): { mean: number, variance: number } {
+  const plainVariance = (plain.sd * plain.sd * (n - 1)) / n
+  const mean = carried * weightedMean + (1 - carried) * plain.mean.value
+  const meanSquare
+    = carried * (weightedVariance + weightedMean ** 2) + (1 - carried) * (plainVariance + plain.mean.value ** 2)
+  return { mean, variance: Math.max(0, meanSquare - mean ** 2) }
+}
+
+/** Year t's cells of a histogram (counts or weights) with their running totals, for percentile look-ups. */
+function yearView(
+  plan: OutlookPlan,
+  merged: OutlookPartial,
+  t: number,
+  counts: ArrayLike<number>,
+  total: number,
+  cumulative: ArrayLike<number>,
+): HistogramView {
+  return {
+    counts,
+    offset: plan.histogramOffset[t]!,
+    bins: plan.histogramBins[t]!,
+    low: plan.histogramLow[t]!,
+    resolution: plan.histogramResolution,
+    total,
+    minimum: merged.minimum[t]!,
+    maximum: merged.maximum[t]!,
+    cumulative,
+  }
+}
+
+/**
+ * The blend of a year's weighted and plain histograms (same cells): each cell's share of the weight,
+ * times `carried`, plus its share of the samples, times 1 − `carried`.
+ */
+function blendedView(weighted: HistogramView, plain: HistogramView, carried: number): HistogramView {
+  const cells = weighted.bins + 2
+  const counts = new Float64Array(cells)
+  for (let k = 0; k < cells; k++) {
+    counts[k] = (carried * weighted.counts[weighted.offset + k]!) / weighted.total
+      + ((1 - carried) * plain.counts[plain.offset + k]!) / plain.total
+  }
+  return { ...weighted, counts, offset: 0, total: 1, cumulative: undefined }
 }
 
 /**

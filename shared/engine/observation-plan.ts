@@ -111,6 +111,7 @@ export function planObservations(
     lastTime: times[count - 1]!,
     residualSd: observed.residualSd,
     phi: observed.phi,
+    reach: observed.reach,
     linearCentred,
     linearLevels,
     termFirst: Int32Array.from(termFirst),

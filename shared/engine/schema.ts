@@ -150,6 +150,11 @@ export const observationsSchema = z.object({
   residualSd: z.number().positive('must be a positive standard deviation in metres').max(MAX_METRES),
   phi: z.number().gt(-1, 'must be above -1').lt(1, 'must be below 1'),
   stepYears: z.number().positive('must be a positive step in years').max(1, 'must be at most one year').default(1),
+  /**
+   * How far ahead the record is read: `record-length` (the default) tapers the update to the outlook's own
+   * numbers over as many years after the record as it spans; `whole-outlook` carries it to every year.
+   */
+  reach: z.enum(['record-length', 'whole-outlook']).default('record-length'),
 })
 
 export const outlookInputSchema = z.object({

@@ -3,6 +3,7 @@
 // can be transferred).
 
 import type { LandDrawPlan } from './land-motion'
+import type { RecordReach, RecordReachMode } from './observation-reach'
 
 export const COMPONENT_KIND_PIECEWISE = 0
 export const COMPONENT_KIND_LOGNORMAL = 1
@@ -102,6 +103,8 @@ export interface ObservationPlan {
   lastTime: number
   residualSd: number
   phi: number
+  /** How far ahead the record is read (`observation-reach.ts`). */
+  reach: RecordReachMode
   /** Per basis column: the linear coefficient for the centred basis rows, and for the level rows (plans with draws). */
   linearCentred: Float64Array
   linearLevels: Float64Array
@@ -461,6 +464,11 @@ export interface ThresholdOutlook {
 /** One output year of an observation-updated outlook. */
 export interface UpdatedYear {
   year: number
+  /**
+   * The share of the record's information this year's numbers carry (`RecordReach`): 1 up to the
+   * record's last value, 0 once the record is out of reach (the numbers are then the outlook's own).
+   */
+  carried: number
   /** Weighted mean and sd of the rise; the mean's SE uses the effective sample size. */
   mean: Estimate
   sd: number
@@ -487,6 +495,8 @@ interface ObservationUpdateBase {
   /** Kish's effective sample size (Σw)²/Σw², and the least the engine shows updated numbers for. */
   ess: number
   minimumEss: number
+  /** How far ahead the record is read (`observation-reach.ts`). */
+  reach: RecordReach
 }
 
 /**

@@ -14,6 +14,7 @@ const percentiles = (low: number, middle: number, high: number) =>
 
 const RESULT = {
   samples: 20_000,
+  baselineYear: 2020,
   years: [2020, 2050, 2100],
   byYear: [
     { year: 2020, percentiles: percentiles(0, 0, 0) },
@@ -30,18 +31,21 @@ const RESULT = {
   }],
 } as unknown as OutlookResult
 
+// Read to every year here, so the section states 2100; reading only as far ahead as the record spans
+// is the last two tests.
 const BASE = {
   method: 'likelihood-weighting', observations: 6, firstTime: 2020.5, lastTime: 2025.5,
   residualSd: 0.012, phi: 0.3, ess: 4321.4, minimumEss: 200,
+  reach: { mode: 'whole-outlook', fullUntil: 2025.5, noneFrom: null },
 } as const
 
 const UPDATED: ObservationUpdate = {
   ...BASE,
   refused: false,
   byYear: [
-    { year: 2020, mean: estimate(0), sd: 0, percentiles: percentiles(0, 0, 0) },
-    { year: 2050, mean: estimate(0.16), sd: 0.03, percentiles: percentiles(0.13, 0.16, 0.19) },
-    { year: 2100, mean: estimate(0.7), sd: 0.1, percentiles: percentiles(0.55, 0.7, 0.85) },
+    { year: 2020, carried: 1, mean: estimate(0), sd: 0, percentiles: percentiles(0, 0, 0) },
+    { year: 2050, carried: 1, mean: estimate(0.16), sd: 0.03, percentiles: percentiles(0.13, 0.16, 0.19) },
+    { year: 2100, carried: 1, mean: estimate(0.7), sd: 0.1, percentiles: percentiles(0.55, 0.7, 0.85) },
   ],
   thresholds: [{
     key: 'quay',
@@ -81,6 +85,34 @@ describe('OutlookObservationUpdate', () => {
     const [plainYear, updatedYear] = rowCells(wrapper, /^First year the chance of passing Quay Street/)
     expect([plainYear, updatedYear]).toEqual(['2071 *', '2064 *'])
     expect(wrapper.text()).toContain('* Extrapolated: beyond the outermost level a release publishes.')
+  })
+
+  it('states the last year the record reaches, and says how far ahead it is read', async () => {
+    // 2020.5–2040.5 reaches 2060.5: 2050 carries a quarter of the record, 2100 none of it.
+    const reach = { mode: 'record-length', fullUntil: 2040.5, noneFrom: 2060.5 } as const
+    const carried = [1, 0.525, 0]
+    const wrapper = await mount({
+      ...UPDATED, reach, byYear: UPDATED.byYear.map((year, t) => ({ ...year, carried: carried[t]! })),
+    })
+    expect(wrapper.find('[data-testid="observation-update-reach"]').text()).toBe(
+      'The record is read in full to 2040, less each year after, and not at all from 2061: a record is not read '
+      + 'further ahead than it spans. From 2061 on, the updated numbers are the outlook\'s own.',
+    )
+    expect(wrapper.find('thead').text()).toContain('In 2050')
+    const [unweighted, updated] = rowCells(wrapper, /^Likely range of rise/)
+    expect([unweighted, updated]).toEqual(['0.10 m to 0.20 m', '0.13 m to 0.19 m'])
+  })
+
+  it('shows no numbers when every year after the baseline is out of the record\'s reach', async () => {
+    const reach = { mode: 'record-length', fullUntil: 2025.5, noneFrom: 2030.5 } as const
+    const carried = [1, 0, 0]
+    const wrapper = await mount({
+      ...UPDATED, reach, byYear: UPDATED.byYear.map((year, t) => ({ ...year, carried: carried[t]! })),
+    })
+    expect(wrapper.find('table').exists()).toBe(false)
+    expect(wrapper.find('[data-testid="observation-update-out-of-reach"]').text()).toBe(
+      'Every year of this outlook after 2020 is beyond the record\'s reach, so the update changes none of its numbers.',
+    )
   })
 
   it('gives no numbers when the update is refused, and says why', async () => {

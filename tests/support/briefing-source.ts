@@ -56,7 +56,7 @@ export function testportSource(
 }
 
 /** A small outlook: rise 0.5 ± 0.1 m by 2100 (normal, linear from 2020), threshold t1 at 0.5 m. */
-export function smallOutlook(observations?: ObservationsInput) {
+export function smallOutlook(observations?: ObservationsInput, thresholdHeight = 0.5) {
   return runOutlook({
     baselineYear: 2020,
     years: [2020, 2050, 2100],
@@ -66,7 +66,7 @@ export function smallOutlook(observations?: ObservationsInput) {
       { key: 'glaciers', scale: 1, release: { form: 'normal', baselineYear: 2020, anchorYears: [2100], mean: [0.5], sd: [0.1] } },
     ],
     heights: { from: 0, to: 1, step: 0.05 },
-    thresholds: [{ key: 't1', height: 0.5 }],
+    thresholds: [{ key: 't1', height: thresholdHeight }],
     ...(observations ? { observations } : {}),
   })
 }

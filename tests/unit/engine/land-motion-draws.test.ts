@@ -161,7 +161,8 @@ describe('land-motion draws and an observed record', () => {
       samples: N,
       components: [fixedComponent],
       landMotion: { draws, epoch: 2000 },
-      observations: { times, rise: times.map(() => 0), residualSd: 0.05, phi: 0 },
+      // Read to 2100 (the default reach ends in 2099, as long after the record as it spans).
+      observations: { times, rise: times.map(() => 0), residualSd: 0.05, phi: 0, reach: 'whole-outlook' },
     }))
     const update = result.observationUpdate!
     if (update.refused) throw new Error(`update refused, ESS ${update.ess}`)

@@ -69,6 +69,8 @@ function linearInput(samples: number, observations?: ObservationsInput): Outlook
   })
 }
 
+// The weighting's own checks read the record to every year (`reach: 'whole-outlook'`): the posterior
+// they compare with is the weighting's. How far ahead the product reads it is checked further down.
 describe('observation-updated outlooks', () => {
   it('leaves an outlook without a record, or with an empty one, exactly as it was', () => {
     const plain = runOutlook(linearInput(5000))
@@ -123,7 +125,7 @@ describe('observation-updated outlooks', () => {
     const precision = 1 / PRIOR_RATE_SD ** 2 + xx / sigma ** 2
     const mean = (PRIOR_RATE / PRIOR_RATE_SD ** 2 + xy / sigma ** 2) / precision
     const sd = 1 / Math.sqrt(precision)
-    const update = updated(runOutlook(linearInput(100_000, { times, rise, residualSd: sigma, phi: 0 })))
+    const update = updated(runOutlook(linearInput(100_000, { times, rise, residualSd: sigma, phi: 0, reach: 'whole-outlook' })))
     const year2100 = update.byYear[2]!
     // Within four Monte Carlo SEs (the weighted mean's SE uses the effective sample size).
     expect(Math.abs(year2100.mean.value - 100 * mean)).toBeLessThan(4 * year2100.mean.se)
@@ -154,7 +156,7 @@ describe('observation-updated outlooks', () => {
     const sd = 1 / Math.sqrt(precision)
     const chance = (n: number) => 1 - jStat.normal.cdf((0.3 / n - mean) / sd, 0, 1)
     const result = runOutlook({
-      ...linearInput(100_000, { times, rise, residualSd: sigma, phi: 0 }),
+      ...linearInput(100_000, { times, rise, residualSd: sigma, phi: 0, reach: 'whole-outlook' }),
       thresholds: [{ key: 'thirty-centimetres', height: 0.3 }],
     })
     const update = updated(result)
@@ -198,7 +200,7 @@ describe('observation-updated outlooks', () => {
     }
     const precision = 1 / PRIOR_RATE_SD ** 2 + quadratic(x, x)
     const mean = (PRIOR_RATE / PRIOR_RATE_SD ** 2 + quadratic(x, y)) / precision
-    const update = updated(runOutlook(linearInput(100_000, { times, rise: y, residualSd: sd, phi })))
+    const update = updated(runOutlook(linearInput(100_000, { times, rise: y, residualSd: sd, phi, reach: 'whole-outlook' })))
     const year2100 = update.byYear[2]!
     expect(Math.abs(year2100.mean.value - 100 * mean)).toBeLessThan(4 * year2100.mean.se)
     expect(Math.abs(year2100.sd / (100 / Math.sqrt(precision)) - 1)).toBeLessThan(0.04)
@@ -237,7 +239,9 @@ describe('observation-updated outlooks', () => {
           components: [normalComponent('ocean', ocean)],
           landMotion: land,
           heights: [0.5],
-          observations: { times, rise: times.map((t, i) => riseOf(z, zLand, t) + noise[i]!), residualSd: sd, phi },
+          observations: {
+            times, rise: times.map((t, i) => riseOf(z, zLand, t) + noise[i]!), residualSd: sd, phi, reach: 'whole-outlook',
+          },
         }),
       )
       const update = result.observationUpdate!
