@@ -1,13 +1,31 @@
 import { and, desc, eq, inArray } from 'drizzle-orm'
 import { landMotionDraws, outlooks, releaseDraws, releases, series } from '~~/server/db/schema'
-import { parseLandMotionDrawsCsv, summariseLandDraws } from '#shared/observations/land-motion-draws'
 import type { LandMotionDrawsUpload } from '#shared/schemas/sites'
+import type { LandMotionDrawsReply, LandMotionDrawsWork } from '../workers/land-motion-draws-worker'
+import { checkOffThread, type CheckWording } from '../utils/checking-thread'
 import type { CurrentUser } from '../utils/auth'
 import { loadSite } from './sites'
 import { nextUploadVersion, queueSiteRecomputation } from './site-uploads'
 
 // A site's land motion as posterior draws: uploads are versions (the latest is what outlooks use,
 // earlier ones are kept), each optionally joint with one release of draws from the site's outlooks.
+
+const DRAWS_WORDING: CheckWording = {
+  crowded: 'Many uploads are being checked just now. Try again in a minute.',
+  overBudget: seconds =>
+    `Checking these land-motion draws took longer than ${seconds} s, so it was stopped. Try again when the server is less busy.`,
+}
+
+/**
+ * The upload's rates in draw order and their summary, parsed and checked on a worker thread
+ * (server/workers/land-motion-draws-worker.ts); a 400 naming each row to fix, or a 503.
+ */
+async function parseDrawsOffThread(csv: string) {
+  const work: LandMotionDrawsWork = { csv }
+  const reply = await checkOffThread<LandMotionDrawsReply>('land-motion-draws-worker', work, DRAWS_WORDING)
+  if (!reply.draws || !reply.summary) throw new Error(reply.error ?? 'The land-motion draws worker gave no answer.')
+  return { draws: Array.from(reply.draws), summary: reply.summary }
+}
 
 /**
  * Releases a site's draws may be joint with: releases of draws that the site's outlooks used, with their
@@ -40,7 +58,7 @@ export async function uploadLandMotionDraws(
   upload: LandMotionDrawsUpload,
 ) {
   const site = await loadSite(planner, siteId)
-  const draws = asBadRequest(() => parseLandMotionDrawsCsv(upload.csv))
+  const { draws, summary } = await parseDrawsOffThread(upload.csv)
   if (upload.linkedReleaseId) {
     const linked = (await linkableReleases(siteId)).find(release => release.releaseId === upload.linkedReleaseId)
     const issue = !linked
@@ -53,7 +71,6 @@ export async function uploadLandMotionDraws(
       throw createError({ statusCode: 400, message, data: { issues: [{ field: 'linkedReleaseId', message }] } })
     }
   }
-  const summary = summariseLandDraws(draws)
   const db = await useDb()
   const stored = await db.transaction(async (tx) => {
     const version = await nextUploadVersion(tx, siteId, landMotionDraws)
