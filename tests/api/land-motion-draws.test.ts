@@ -181,7 +181,7 @@ describe('land-motion draws at the size limit', () => {
   /** Draw k + 1 has rate −1 − k/n mm/yr, k = 0…n−1. */
   const rows = () => Array.from({ length: DRAWS }, (_, k) => `${k + 1},${(-1 - k / DRAWS).toFixed(5)}`)
   const csvOf = (lines: string[]) => `draw,rate_mm_per_year\n${lines.join('\n')}\n`
-  /** A site of the planner's with no outlooks, so the uploads queue no recomputation. */
+  /** A site of the planner's with no outlooks (until the first test asks for one). */
   const quietSite = async (api: ApiClient) =>
     ((await api.get('/api/sites')).body as Array<{ id: string, name: string }>).find(s => s.name !== 'Lowmere')!.id
   let quietSiteId: string
@@ -202,6 +202,13 @@ describe('land-motion draws at the size limit', () => {
     expect(stored.body.summary.p5).toBeCloseTo(-1 - 94_999.05 / DRAWS, 9)
     const read = (await reader.get(`/api/sites/${quietSiteId}/land-motion-draws`)).body
     expect(read.latest).toMatchObject({ version: stored.body.version, summary: stored.body.summary })
+
+    // The outlook samples the stored rates, each at its draw number, as typed.
+    const request = { scenario: 'SSP2-4.5', samples: 1_000, seed: 1 }
+    const outlookId = (await planner.post(`/api/sites/${quietSiteId}/outlooks`, request)).body.id
+    const draws: number[] = (await planner.get(`/api/outlooks/${outlookId}`)).body.input.landMotion.draws
+    expect(draws).toHaveLength(DRAWS)
+    expect([draws[0], draws[87_654], draws[DRAWS - 1]]).toEqual([-1, -1.87654, -1.99999])
   })
 
   it('names a bad row deep in a large file by its number, and keeps the version before it', async () => {
