@@ -7,8 +7,8 @@ import { defineNuxtModule } from 'nuxt/kit'
 // which need script files of their own. This bundles the outlook thread (server/outlooks/worker.ts,
 // beside the rest of the outlook feature) and the scripts in server/workers/, with the engine they
 // import, using esbuild: into .nuxt for `nuxt dev`, and beside the built server (.output/server/workers,
-// found by server/utils/worker-script.ts) for production. It stays in modules/ because Nuxt loads build-time modules
-// from there; the code it bundles lives with its feature.
+// found by server/utils/worker-script.ts) for production. It stays in modules/ because Nuxt loads
+// build-time modules from there; the code it bundles lives with its feature.
 export default defineNuxtModule({
   meta: { name: 'outlook-worker' },
   setup(_options, nuxt) {
