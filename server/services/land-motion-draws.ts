@@ -1,13 +1,31 @@
-import { and, desc, eq, inArray } from 'drizzle-orm'
+import { and, desc, eq, inArray, sql } from 'drizzle-orm'
 import { landMotionDraws, outlooks, releaseDraws, releases, series } from '~~/server/db/schema'
-import { parseLandMotionDrawsCsv, summariseLandDraws } from '#shared/observations/land-motion-draws'
 import type { LandMotionDrawsUpload } from '#shared/schemas/sites'
+import type { LandMotionDrawsReply, LandMotionDrawsWork } from '../workers/land-motion-draws-worker'
+import { checkOffThread, type CheckWording } from '../utils/checking-thread'
 import type { CurrentUser } from '../utils/auth'
 import { loadSite } from './sites'
 import { nextUploadVersion, queueSiteRecomputation } from './site-uploads'
 
 // A site's land motion as posterior draws: uploads are versions (the latest is what outlooks use,
 // earlier ones are kept), each optionally joint with one release of draws from the site's outlooks.
+
+const DRAWS_WORDING: CheckWording = {
+  crowded: 'Many uploads are being checked just now. Try again in a minute.',
+  overBudget: seconds =>
+    `Checking these land-motion draws took longer than ${seconds} s, so it was stopped. Try again when the server is less busy.`,
+}
+
+/**
+ * The upload's rates in draw order, as the JSON the column stores, and their summary: parsed and checked
+ * on a worker thread (server/workers/land-motion-draws-worker.ts); a 400 naming each row to fix, or a 503.
+ */
+async function parseDrawsOffThread(csv: string) {
+  const work: LandMotionDrawsWork = { csv }
+  const reply = await checkOffThread<LandMotionDrawsReply>('land-motion-draws-worker', work, DRAWS_WORDING)
+  if (!reply.drawsJson || !reply.summary) throw new Error(reply.error ?? 'The land-motion draws worker gave no answer.')
+  return { drawsJson: reply.drawsJson, summary: reply.summary }
+}
 
 /**
  * Releases a site's draws may be joint with: releases of draws that the site's outlooks used, with their
@@ -40,20 +58,19 @@ export async function uploadLandMotionDraws(
   upload: LandMotionDrawsUpload,
 ) {
   const site = await loadSite(planner, siteId)
-  const draws = asBadRequest(() => parseLandMotionDrawsCsv(upload.csv))
+  const { drawsJson, summary } = await parseDrawsOffThread(upload.csv)
   if (upload.linkedReleaseId) {
     const linked = (await linkableReleases(siteId)).find(release => release.releaseId === upload.linkedReleaseId)
     const issue = !linked
       ? 'is not a release of draws used by this site\'s outlooks; choose one from the list, or none'
-      : linked.draws !== draws.length
-        ? `has ${linked.draws} draws and the file ${draws.length}; a joint link pairs draw j with draw j, so upload one rate per release draw, or choose none`
+      : linked.draws !== summary.count
+        ? `has ${linked.draws} draws and the file ${summary.count}; a joint link pairs draw j with draw j, so upload one rate per release draw, or choose none`
         : null
     if (issue) {
       const message = `linkedReleaseId: the release ${issue}.`
       throw createError({ statusCode: 400, message, data: { issues: [{ field: 'linkedReleaseId', message }] } })
     }
   }
-  const summary = summariseLandDraws(draws)
   const db = await useDb()
   const stored = await db.transaction(async (tx) => {
     const version = await nextUploadVersion(tx, siteId, landMotionDraws)
@@ -62,7 +79,7 @@ export async function uploadLandMotionDraws(
       .values({
         siteId,
         version,
-        draws,
+        draws: sql`${drawsJson}::jsonb`,
         summary,
         source: upload.source,
         reference: upload.reference,
@@ -75,7 +92,7 @@ export async function uploadLandMotionDraws(
       planner,
       'site.land-motion-draws',
       { type: 'site', id: siteId },
-      { site: site.name, version, draws: draws.length, linkedRelease: upload.linkedReleaseId },
+      { site: site.name, version, draws: summary.count, linkedRelease: upload.linkedReleaseId },
     )
     const cause = { kind: 'land-motion-draws', site: site.name, version } as const
     return { ...row!, summary, updatingScenarios: await queueSiteRecomputation(tx, siteId, cause) }

@@ -173,3 +173,83 @@ describe('land-motion draws', () => {
     expect(newest.input.landMotion.draws).toHaveLength(300)
   })
 })
+
+// The file is parsed and checked on a worker thread (server/workers/land-motion-draws-worker.ts), in turn
+// with release checks and within RELEASE_WORK_MS; what the planner sees is the same as for a small file.
+describe('land-motion draws at the size limit', () => {
+  const DRAWS = 100_000
+  /** Draw k + 1 has rate −1 − k/n mm/yr, k = 0…n−1. */
+  const rows = () => Array.from({ length: DRAWS }, (_, k) => `${k + 1},${(-1 - k / DRAWS).toFixed(5)}`)
+  const csvOf = (lines: string[]) => `draw,rate_mm_per_year\n${lines.join('\n')}\n`
+  /** A site of the planner's with no outlooks (until the first test asks for one). */
+  const quietSite = async (api: ApiClient) =>
+    ((await api.get('/api/sites')).body as Array<{ id: string, name: string }>).find(s => s.name !== 'Lowmere')!.id
+  let quietSiteId: string
+
+  beforeAll(async () => {
+    quietSiteId = await quietSite(planner)
+  })
+
+  it('takes 100,000 draws and stores their summary', async () => {
+    const stored = await planner.post(`/api/sites/${quietSiteId}/land-motion-draws`, { csv: csvOf(rows()), source: 'gps' })
+    expect(stored.status, JSON.stringify(stored.body).slice(0, 300)).toBe(201)
+    expect(stored.body.updatingScenarios).toEqual([])
+    // [practice] rates −1 − k/n: mean and median −1 − (n − 1)/2n; the 5 % point (type 7) sits at sorted
+    // index 0.05(n − 1) = 4999.95, which is k = n − 1 − 4999.95 = 94,999.05, i.e. −1 − 94,999.05/n.
+    expect(stored.body.summary.count).toBe(DRAWS)
+    expect(stored.body.summary.mean).toBeCloseTo(-1 - (DRAWS - 1) / (2 * DRAWS), 9)
+    expect(stored.body.summary.median).toBeCloseTo(-1 - (DRAWS - 1) / (2 * DRAWS), 9)
+    expect(stored.body.summary.p5).toBeCloseTo(-1 - 94_999.05 / DRAWS, 9)
+    const read = (await reader.get(`/api/sites/${quietSiteId}/land-motion-draws`)).body
+    expect(read.latest).toMatchObject({ version: stored.body.version, summary: stored.body.summary })
+
+    // The outlook samples the stored rates, each at its draw number, as typed.
+    const request = { scenario: 'SSP2-4.5', samples: 1_000, seed: 1 }
+    const outlookId = (await planner.post(`/api/sites/${quietSiteId}/outlooks`, request)).body.id
+    const draws: number[] = (await planner.get(`/api/outlooks/${outlookId}`)).body.input.landMotion.draws
+    expect(draws).toHaveLength(DRAWS)
+    expect([draws[0], draws[87_654], draws[DRAWS - 1]]).toEqual([-1, -1.87654, -1.99999])
+  })
+
+  it('names a bad row deep in a large file by its number, and keeps the version before it', async () => {
+    const before = (await reader.get(`/api/sites/${quietSiteId}/land-motion-draws`)).body.latest.version
+    const lines = rows()
+    lines[87_653] = '87654,abc'
+    const refused = await planner.post(`/api/sites/${quietSiteId}/land-motion-draws`, { csv: csvOf(lines), source: 'gps' })
+    expect(refused.status).toBe(400)
+    expect(refused.body.data.issues).toEqual([{
+      field: 'csv row 87655, column rate_mm_per_year',
+      code: 'notNumber',
+      params: { cell: 'abc' },
+      message: expect.stringContaining('abc'),
+    }])
+    expect(refused.body.message).toBe(`csv row 87655, column rate_mm_per_year: ${refused.body.data.issues[0].message}`)
+
+    const tooMany = await planner.post(`/api/sites/${quietSiteId}/land-motion-draws`, {
+      csv: csvOf([...rows(), `${DRAWS + 1},-1`]),
+      source: 'gps',
+    })
+    expect(tooMany.status).toBe(400)
+    expect(tooMany.body.data.issues[0]).toMatchObject({
+      field: 'csv',
+      code: 'tooManyDraws',
+      params: { max: DRAWS, count: DRAWS + 1 },
+    })
+    expect((await reader.get(`/api/sites/${quietSiteId}/land-motion-draws`)).body.latest.version).toBe(before)
+  })
+
+  it('stops a check that runs past its time budget with a 503 that says what to do, and stores nothing', async () => {
+    const hurried = await startServer({ RELEASE_WORK_MS: '1' })
+    try {
+      const api = await ApiClient.signedIn(hurried.url, PLANNER.email, PLANNER.password)
+      const siteOfHurried = await quietSite(api)
+      const answer = await api.post(`/api/sites/${siteOfHurried}/land-motion-draws`, { csv: csvOf(rows()), source: 'gps' })
+      expect(answer.status).toBe(503)
+      expect(answer.body.message).toMatch(/^Checking these land-motion draws took longer than .* so it was stopped\. Try again/)
+      expect((await api.get(`/api/sites/${siteOfHurried}/land-motion-draws`)).body.latest).toBeNull()
+    }
+    finally {
+      await hurried.stop()
+    }
+  })
+})

@@ -1,4 +1,3 @@
-import { dirname, join } from 'node:path'
 import { Worker } from 'node:worker_threads'
 import type { Signposts } from '#shared/observations/signposts'
 import type { SignpostsWork } from '../../workers/signposts-worker'
@@ -8,14 +7,8 @@ import type { SignpostsWork } from '../../workers/signposts-worker'
 
 let turn: Promise<unknown> = Promise.resolve()
 
-function workerScript() {
-  const configured = useRuntimeConfig().signpostsWorkerPath as string | undefined
-  // The built server is started as `node .output/server/index.mjs`; the worker sits beside it.
-  return configured || join(dirname(process.argv[1]!), 'workers/signposts-worker.mjs')
-}
-
 function runWorker(work: SignpostsWork): Promise<Signposts> {
-  const worker = new Worker(workerScript(), { workerData: work })
+  const worker = new Worker(workerScript('signposts-worker'), { workerData: work })
   return new Promise<Signposts>((resolve, reject) => {
     worker.once('message', (reply: { signposts?: Signposts, error?: string }) =>
       reply.signposts ? resolve(reply.signposts) : reject(new Error(reply.error ?? 'The signposts worker gave no answer.')))
