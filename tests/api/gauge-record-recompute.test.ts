@@ -110,34 +110,53 @@ describe('a gauge record upload brings the site\'s outlooks up to date', () => {
   })
 
   it('marks an issued briefing out of date when a new record changes its gauge section', async () => {
-    // A record on the site's datum (mean sea level 2020) with weather-sized noise (about a centimetre),
-    // so the trajectories' weights are spread enough for an update; then one rising far faster.
-    const noisy = (extra: number) => `year,height\n${Array.from({ length: 45 }, (_, i) => 1981 + i).map((year) => {
+    // A site of its own with a mark 7.8 cm above mean sea level 2020, the outlook's median rise in 2030. Its
+    // record counts from the epoch (2020), so it reaches 2030 (as long after 2025 as it spans) and the
+    // gauge section states 2030, where the record carries a tenth of its weight.
+    const created = await planner.post('/api/sites', {
+      name: 'Gauge Test Inlet',
+      latitude: 48.2,
+      longitude: -34.1,
+      referenceLevel: 'Mean sea level 2020 at a test gauge',
+      datum: { kind: 'mean-sea-level', offset: 0 },
+      referenceEpoch: 2020,
+      landMotion: { rateMmPerYear: 0, sigmaMmPerYear: 0.5, source: 'gps', reference: 'Test station', epoch: 2020 },
+      thresholds: [{ label: 'Slipway lip', height: 0.078 }],
+    })
+    expect(created.status).toBe(201)
+    const site = created.body.id as string
+    const outlook = await planner.post(`/api/sites/${site}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 7 })
+    expect(outlook.status).toBe(201)
+    await workSettled(server.url)
+    // Weather-sized noise (about a centimetre) so the trajectories' weights are spread enough for an update.
+    const noisy = (rate: number) => `year,height\n${Array.from({ length: 45 }, (_, i) => 1981 + i).map((year) => {
       const t = year + 0.5 - 2020
       const wobble = 0.01 * Math.sin(year * 2.39996) + 0.006 * Math.sin(year * 0.91)
-      return `${year},${(0.006 * t + wobble + (t > 0 ? extra * t : 0)).toFixed(4)}`
+      return `${year},${(rate * t + wobble).toFixed(4)}`
     }).join('\n')}\n`
-    expect((await planner.post(`/api/sites/${siteId}/gauge-record`, { csv: noisy(0) })).status).toBe(201)
+    expect((await planner.post(`/api/sites/${site}/gauge-record`, { csv: noisy(0.004) })).status).toBe(201)
     await workSettled(server.url)
-    // Newest first: the outlook weighted by that record.
-    const weighted = (await outlooksOfSite()).find(o => o.scenario === 'SSP2-4.5' && o.state === 'done')!
-    expect((await planner.get(`/api/outlooks/${weighted.id}`)).body.result.observationUpdate.refused).toBe(false)
-    const thresholdIds = (await planner.get(`/api/sites/${siteId}`)).body.thresholds.map((t: { id: string }) => t.id)
+    const weighted = (await planner.get(`/api/sites/${site}/outlooks`)).body
+      .find((o: Listed) => o.scenario === 'SSP2-4.5' && o.state === 'done') as Listed
+    const update = (await planner.get(`/api/outlooks/${weighted.id}`)).body.result.observationUpdate
+    expect(update.refused).toBe(false)
+    expect(update.reach).toMatchObject({ mode: 'record-length', noneFrom: 2030.5 })
+    const thresholdIds = (await planner.get(`/api/sites/${site}`)).body.thresholds.map((t: { id: string }) => t.id)
     const draft = await planner.post('/api/briefings', {
-      outlookId: weighted.id, title: 'Lowmere and its gauge', thresholdIds, years: [2050, 2100],
+      outlookId: weighted.id, title: 'The slipway and its gauge', thresholdIds, years: [2030, 2050],
     })
     expect(draft.status).toBe(201)
     expect((await planner.post(`/api/briefings/${draft.body.id}/issue`)).status).toBe(200)
     expect((await planner.get(`/api/briefings/${draft.body.id}`)).body.staleness).toBeNull()
 
-    // 5 cm a year more since 2020: the weight moves to the fastest trajectories and the updated chance of
-    // passing the inlet in 2100 rises from less than 1 % (the refused and gone cases: unit tests).
-    expect((await planner.post(`/api/sites/${siteId}/gauge-record`, { csv: noisy(0.05) })).status).toBe(201)
+    // 4 mm a year at issue pulls the updated chance in 2030 below one half; 8 mm a year, about the
+    // outlook's own pace, takes it back up, by a few points through the tenth the record carries there.
+    expect((await planner.post(`/api/sites/${site}/gauge-record`, { csv: noisy(0.008) })).status).toBe(201)
     await workSettled(server.url)
     const { staleness } = (await planner.get(`/api/briefings/${draft.body.id}`)).body
-    // Only the gauge section's chance changed (in 2100, the section's year): the unweighted numbers did not.
+    // Only the gauge section's chance changed (in 2030, the section's year): the unweighted numbers did not.
     expect(staleness?.changes).toEqual([expect.objectContaining({
-      kind: 'gauge-updated', threshold: 'Wastewater works inlet', year: 2100, scenario: 'SSP2-4.5',
+      kind: 'gauge-updated', threshold: 'Slipway lip', year: 2030, scenario: 'SSP2-4.5',
     })])
     expect(staleness.changes[0].now).toBeGreaterThan(staleness.changes[0].was)
     const stale = await vi.waitFor(async () => {
@@ -145,6 +164,6 @@ describe('a gauge record upload brings the site\'s outlooks up to date', () => {
       if (!found) throw new Error('not sent yet')
       return found
     }, { timeout: 20_000, interval: 100 })
-    expect(stale.text).toMatch(/by 2100 updated by the tide-gauge record: [\d.]+\s% now, less than 1\s% in this briefing\./)
+    expect(stale.text).toMatch(/by 2030 updated by the tide-gauge record: [\d.]+\s% now, [\d.]+\s% in this briefing\./)
   })
 })
