@@ -228,7 +228,7 @@ export function finishOutlook(plan: OutlookPlan, merged: OutlookPartial): Outloo
     return { ...about, byYear: [], triggerYears: [], ...floodThreshold(plan, merged, sums, threshold) }
   })
 
-  const observationUpdate = finishObservationUpdate(plan, merged, PERCENTILE_LEVELS, byYear)
+  const observationUpdate = finishObservationUpdate(plan, merged, PERCENTILE_LEVELS, byYear, cumulative)
   if (observationUpdate && !observationUpdate.refused) {
     // Whether the releases describe a height's tail depends on the height and the year, not on the
     // weights: an updated chance at a height the releases do not reach is as extrapolated as the

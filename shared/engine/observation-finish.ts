@@ -1,7 +1,7 @@
 import { samplerTables } from './sampler-tables'
 import { addWeightAboveAtKnots, annualCounts } from './tile-triggers'
 import { blendedEffectiveSize, carriedShare, recordReach } from './observation-reach'
-import { cumulativeCounts, histogramQuantile, proportionStandardError, type HistogramView } from './statistics'
+import { histogramQuantile, proportionStandardError, type HistogramView } from './statistics'
 import { COMPONENT_KIND_DRAWS } from './types'
 import type {
   Estimate,
@@ -26,7 +26,8 @@ export const MIN_EFFECTIVE_SAMPLES = 200
  * The outlook conditioned on the observed record, from the merged weighted sums (see
  * `ObservationPlan`): weighted mean, sd and percentiles per output year, and per mean-sea-level threshold
  * the weighted chances and trigger years, each read as far ahead as the record reaches
- * (`observation-reach.ts`: beyond it, blended with the outlook's own `plainByYear` and counts). Monte
+ * (`observation-reach.ts`: beyond it, blended with the outlook's own `plainByYear`, histogram running
+ * totals `plainCumulative` and counts). Monte
  * Carlo SEs use the effective sample size in place of N (the usual approximation for self-normalised
  * importance sampling).
  */
@@ -35,6 +36,7 @@ export function finishObservationUpdate(
   merged: OutlookPartial,
   percentileLevels: readonly number[],
   plainByYear: readonly Pick<YearOutlook, 'mean' | 'sd'>[],
+  plainCumulative: ArrayLike<number>,
 ): ObservationUpdate | undefined {
   const observations = plan.observations
   if (!observations) return undefined
@@ -58,15 +60,13 @@ export function finishObservationUpdate(
 
   const n = plan.samples
   const counts = sums.subarray(observations.histogramAt)
-  const cumulative = runningTotals(plan, counts)
-  const plainCumulative = cumulativeCounts(merged.histogram, plan.histogramOffset, plan.histogramBins)
+  const { cells, cumulative } = weightedTotals(plan, merged, observations.cellsAt, observations.histogramAt)
   const columns = plan.basisCount
   const mean = (j: number) => sums[observations.momentsAt + j]! / total
   const cross = (j: number, k: number) =>
     sums[observations.momentsAt + columns + Math.max(j, k) * columns + Math.min(j, k)]! / total
   // The rows the weights were summed over: plain level sums with uploaded draws, else the centred basis.
   const levels = plan.kinds.includes(COMPONENT_KIND_DRAWS)
-  const cells = weightedCells(plan, merged.weighted, observations.cellsAt, observations.histogramAt)
   const cellsPerYear = plan.cuts.length + 1
   const byYear: UpdatedYear[] = plan.years.map((year, t) => {
     const carried = carriedShare(reach, year)
@@ -200,42 +200,66 @@ function yearView(
 function blendedView(weighted: HistogramView, plain: HistogramView, carried: number): HistogramView {
   const cells = weighted.bins + 2
   const counts = new Float64Array(cells)
+  const cumulative = new Float64Array(cells)
+  const weightedShare = carried / weighted.total
+  const plainShare = (1 - carried) / plain.total
+  let total = 0
   for (let k = 0; k < cells; k++) {
-    counts[k] = (carried * weighted.counts[weighted.offset + k]!) / weighted.total
-      + ((1 - carried) * plain.counts[plain.offset + k]!) / plain.total
+    const share = weightedShare * weighted.counts[weighted.offset + k]! + plainShare * plain.counts[plain.offset + k]!
+    counts[k] = share
+    total += share
+    cumulative[k] = total
   }
-  return { ...weighted, counts, offset: 0, total: 1, cumulative: undefined }
+  return { ...weighted, counts, offset: 0, total: 1, cumulative }
+}
+
+/**
+ * Per year, the histogram cells its samples reached (absolute indices): from the bin of its least rise
+ * to that of its greatest, found as the counting kernels find bins, and one more on each side in case
+ * a rounding put an extreme sample across a bin's edge. No weight lies outside them.
+ */
+function occupiedBins(plan: OutlookPlan, merged: OutlookPartial, t: number): { from: number, to: number } {
+  const at = plan.histogramOffset[t]!
+  const lastBin = plan.histogramBins[t]! + 1
+  const inverseResolution = 1 / plan.histogramResolution
+  const bin = (value: number) => {
+    const position = (value - plan.histogramLow[t]!) * inverseResolution + 1
+    return position < 0 ? 0 : position > lastBin ? lastBin : position | 0
+  }
+  return {
+    from: at + Math.max(0, bin(merged.minimum[t]!) - 1),
+    to: at + Math.min(lastBin, bin(merged.maximum[t]!) + 1),
+  }
 }
 
 /**
  * Weighted exceedance cells per year: the weights placed one by one (samples in histogram cells that
- * hold a cut) plus, as `finishCounts` does for counts, each other histogram cell's weight in its cell.
+ * hold a cut) plus, as `finishCounts` does for counts, each other histogram cell's weight in its cell;
+ * and, in the same pass, running weight totals of each year's histogram cells (see `cumulativeCounts`),
+ * for look-ups by bisection. Only the cells a year's samples reached are read.
  */
-function weightedCells(plan: OutlookPlan, sums: Float64Array, cellsAt: number, histogramAt: number): Float64Array {
+function weightedTotals(
+  plan: OutlookPlan,
+  merged: OutlookPartial,
+  cellsAt: number,
+  histogramAt: number,
+): { cells: Float64Array, cumulative: Float64Array } {
+  const sums = merged.weighted
   const cellsPerYear = plan.cuts.length + 1
   const cells = sums.slice(cellsAt, cellsAt + plan.years.length * cellsPerYear)
+  const cumulative = new Float64Array(plan.histogramSize)
   const cellOfBin = samplerTables(plan).cellOfBin
   for (let t = 0; t < plan.years.length; t++) {
-    const at = plan.histogramOffset[t]!
-    const end = at + plan.histogramBins[t]! + 1
-    for (let bin = at; bin <= end; bin++) {
-      const cell = cellOfBin[bin]!
-      if (cell >= 0) cells[t * cellsPerYear + cell]! += sums[histogramAt + bin]!
-    }
-  }
-  return cells
-}
-
-/** Running weight totals of each year's histogram cells (see `cumulativeCounts`), for look-ups by bisection. */
-function runningTotals(plan: OutlookPlan, counts: Float64Array): Float64Array {
-  const cumulative = new Float64Array(plan.histogramSize)
-  for (let t = 0; t < plan.years.length; t++) {
+    const { from, to } = occupiedBins(plan, merged, t)
     let total = 0
-    const end = plan.histogramOffset[t]! + plan.histogramBins[t]! + 1
-    for (let k = plan.histogramOffset[t]!; k <= end; k++) {
-      total += counts[k]!
-      cumulative[k] = total
+    for (let bin = from; bin <= to; bin++) {
+      const weight = sums[histogramAt + bin]!
+      total += weight
+      cumulative[bin] = total
+      const cell = cellOfBin[bin]!
+      if (cell >= 0) cells[t * cellsPerYear + cell]! += weight
     }
+    cumulative.fill(total, to + 1, plan.histogramOffset[t]! + plan.histogramBins[t]! + 2)
   }
-  return cumulative
+  return { cells, cumulative }
 }
