@@ -1,3 +1,4 @@
+import { expOfNonPositive } from './exp'
 import { PASS, type SamplerTables } from './sampler-tables'
 import { countedByCells, rescaleWeightedCells } from './tile-counts'
 import { ROW, TILE, type TileScratch } from './tile-scratch'
@@ -225,7 +226,7 @@ export function weighTile(
   let squares = 0
   for (let i = 0; i < tileCount; i++) {
     const logWeight = LOG_WEIGHT[i]! - scale
-    const w = logWeight < negligible ? 0 : Math.exp(logWeight)
+    const w = logWeight < negligible ? 0 : expOfNonPositive(logWeight)
     weights[i] = w
     total += w
     squares += w * w
@@ -286,7 +287,7 @@ function weighWithMoments(
       weights[i] = 0
       continue
     }
-    const w = Math.exp(logWeight)
+    const w = expOfNonPositive(logWeight)
     weights[i] = w
     total += w
     squares += w * w
