@@ -89,7 +89,9 @@ export function finishObservationUpdate(
     const weightedVariance = Math.max(0, meanSquare - (offset + linear) ** 2)
     const view = yearView(plan, merged, t, counts, total, cumulative)
     const plainView = yearView(plan, merged, t, merged.histogram, n, plainCumulative)
-    const blended = carried === 1 ? view : carried === 0 ? plainView : blendedView(view, plainView, carried)
+    const blended = carried === 1
+      ? view
+      : carried === 0 ? plainView : blendedView(view, plainView, carried, occupiedBins(plan, merged, t))
     const { mean: blendedMean, variance } = carried === 1
       ? { mean: weightedMean, variance: weightedVariance }
       : blendedMoments(weightedMean, weightedVariance, plainByYear[t]!, n, carried)
@@ -193,23 +195,42 @@ function yearView(
   }
 }
 
+/** The blended histogram and its running totals, grown to the largest year seen (a view is read at once). */
+let blendCells = new Float64Array(0)
+let blendTotals = new Float64Array(0)
+
 /**
  * The blend of a year's weighted and plain histograms (same cells): each cell's share of the weight,
- * times `carried`, plus its share of the samples, times 1 − `carried`.
+ * times `carried`, plus its share of the samples, times 1 − `carried`. Only the cells the year's samples
+ * reached (`occupied`, absolute indices) hold any; the view is valid until the next call.
  */
-function blendedView(weighted: HistogramView, plain: HistogramView, carried: number): HistogramView {
+function blendedView(
+  weighted: HistogramView,
+  plain: HistogramView,
+  carried: number,
+  occupied: { from: number, to: number },
+): HistogramView {
   const cells = weighted.bins + 2
-  const counts = new Float64Array(cells)
-  const cumulative = new Float64Array(cells)
+  if (blendCells.length < cells) {
+    blendCells = new Float64Array(cells)
+    blendTotals = new Float64Array(cells)
+  }
+  const counts = blendCells
+  const cumulative = blendTotals
+  const from = occupied.from - weighted.offset
+  const to = occupied.to - weighted.offset
+  counts.fill(0, 0, cells)
+  cumulative.fill(0, 0, from)
   const weightedShare = carried / weighted.total
   const plainShare = (1 - carried) / plain.total
   let total = 0
-  for (let k = 0; k < cells; k++) {
+  for (let k = from; k <= to; k++) {
     const share = weightedShare * weighted.counts[weighted.offset + k]! + plainShare * plain.counts[plain.offset + k]!
     counts[k] = share
     total += share
     cumulative[k] = total
   }
+  cumulative.fill(total, to + 1, cells)
   return { ...weighted, counts, offset: 0, total: 1, cumulative }
 }
 
