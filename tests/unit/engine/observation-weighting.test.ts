@@ -69,6 +69,28 @@ function linearInput(samples: number, observations?: ObservationsInput): Outlook
   })
 }
 
+/**
+ * Thirty annual values 2000.5–2029.5 along 3.6 mm/yr with white noise of 2 cm (stream `seed`), and the
+ * conjugate normal posterior of the rate under the outlook's prior N(μ₀, σ₀²) [practice: conjugate normal
+ * prior with a Gaussian likelihood of known variance, e.g. Gelman et al., Bayesian Data Analysis, 3rd ed.,
+ * §2.5 and §14.2]: precision 1/σ₀² + Σxᵢ²/σ², mean (μ₀/σ₀² + Σxᵢyᵢ/σ²) / precision.
+ */
+function conjugateRecord(seed: number) {
+  const sigma = 0.02
+  const normal = normals(seed)
+  const times = Array.from({ length: 30 }, (_, i) => 2000.5 + i)
+  const rise = times.map(t => 0.0036 * (t - 2000) + sigma * normal())
+  let xx = 0
+  let xy = 0
+  times.forEach((t, i) => {
+    xx += (t - 2000) ** 2
+    xy += (t - 2000) * rise[i]!
+  })
+  const precision = 1 / PRIOR_RATE_SD ** 2 + xx / sigma ** 2
+  const mean = (PRIOR_RATE / PRIOR_RATE_SD ** 2 + xy / sigma ** 2) / precision
+  return { sigma, times, rise, mean, sd: 1 / Math.sqrt(precision) }
+}
+
 // The weighting's own checks read the record to every year (`reach: 'whole-outlook'`): the posterior
 // they compare with is the weighting's. How far ahead the product reads it is checked further down.
 describe('observation-updated outlooks', () => {
@@ -112,19 +134,7 @@ describe('observation-updated outlooks', () => {
     // [practice: conjugate normal prior with a Gaussian likelihood of known variance, e.g. Gelman et al.,
     // Bayesian Data Analysis, 3rd ed., §2.5 and §14.2] rate ~ N(μ₀, σ₀²), yᵢ = rate·xᵢ + εᵢ, εᵢ ~ N(0, σ²):
     // posterior precision 1/σ₀² + Σxᵢ²/σ², mean (μ₀/σ₀² + Σxᵢyᵢ/σ²) / precision; rise in 2100 = 100·rate.
-    const sigma = 0.02
-    const normal = normals(11)
-    const times = Array.from({ length: 30 }, (_, i) => 2000.5 + i)
-    const rise = times.map(t => 0.0036 * (t - 2000) + sigma * normal())
-    let xx = 0
-    let xy = 0
-    times.forEach((t, i) => {
-      xx += (t - 2000) ** 2
-      xy += (t - 2000) * rise[i]!
-    })
-    const precision = 1 / PRIOR_RATE_SD ** 2 + xx / sigma ** 2
-    const mean = (PRIOR_RATE / PRIOR_RATE_SD ** 2 + xy / sigma ** 2) / precision
-    const sd = 1 / Math.sqrt(precision)
+    const { sigma, times, rise, mean, sd } = conjugateRecord(11)
     const update = updated(runOutlook(linearInput(100_000, { times, rise, residualSd: sigma, phi: 0, reach: 'whole-outlook' })))
     const year2100 = update.byYear[2]!
     // Within four Monte Carlo SEs (the weighted mean's SE uses the effective sample size).
@@ -141,19 +151,7 @@ describe('observation-updated outlooks', () => {
     // passing 0.3 m in year 2000 + n is 1 − Φ((0.3/n − mean)/sd) under the posterior; the height is
     // crossed between the output years 2030 and 2100, so the updated trigger years come from the annual
     // counts inside that interval.
-    const sigma = 0.02
-    const normal = normals(23)
-    const times = Array.from({ length: 30 }, (_, i) => 2000.5 + i)
-    const rise = times.map(t => 0.0036 * (t - 2000) + sigma * normal())
-    let xx = 0
-    let xy = 0
-    times.forEach((t, i) => {
-      xx += (t - 2000) ** 2
-      xy += (t - 2000) * rise[i]!
-    })
-    const precision = 1 / PRIOR_RATE_SD ** 2 + xx / sigma ** 2
-    const mean = (PRIOR_RATE / PRIOR_RATE_SD ** 2 + xy / sigma ** 2) / precision
-    const sd = 1 / Math.sqrt(precision)
+    const { sigma, times, rise, mean, sd } = conjugateRecord(23)
     const chance = (n: number) => 1 - jStat.normal.cdf((0.3 / n - mean) / sd, 0, 1)
     const result = runOutlook({
       ...linearInput(100_000, { times, rise, residualSd: sigma, phi: 0, reach: 'whole-outlook' }),
