@@ -27,9 +27,8 @@ export const MIN_EFFECTIVE_SAMPLES = 200
  * `ObservationPlan`): weighted mean, sd and percentiles per output year, and per mean-sea-level threshold
  * the weighted chances and trigger years, each read as far ahead as the record reaches
  * (`observation-reach.ts`: beyond it, blended with the outlook's own `plainByYear`, histogram running
- * totals `plainCumulative` and counts). Monte
- * Carlo SEs use the effective sample size in place of N (the usual approximation for self-normalised
- * importance sampling).
+ * totals `plainCumulative` and counts). Monte Carlo SEs use the effective sample size in place of N (the
+ * usual approximation for self-normalised importance sampling).
  */
 export function finishObservationUpdate(
   plan: OutlookPlan,
