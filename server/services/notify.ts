@@ -6,6 +6,7 @@ import { chanceAfterDe, formatChance } from '#shared/wording/chance'
 import { causeSentence } from '#shared/wording/causes'
 import { languageOf, translator, type Language } from '#shared/wording/translate'
 import type { StoredCause } from '#shared/types/causes'
+import { updateSectionYear } from '#shared/observations/update-year'
 import {
   briefingIssuedMail,
   whatChangedMail,
@@ -140,19 +141,25 @@ function describe(
         ? 2100
         : a.years.at(-1)!
     if (year === undefined) continue
-    const range = (r: OutlookResult, byYear: Parameters<typeof median>[0] = r.byYear) => {
-      const i = r.years.indexOf(year)
+    const range = (r: OutlookResult, byYear: Parameters<typeof median>[0] = r.byYear, at = year) => {
+      const i = r.years.indexOf(at)
       return i < 0 ? '—' : `${height(median(byYear, i, 0.5))} (${height(median(byYear, i, 0.17))}–${height(median(byYear, i, 0.83))})`
     }
     ranges.push({ scenario, year, before: range(b), after: range(a) })
-    // A new gauge record leaves the projections as they were; what moves is the range the record updates.
+    // A new gauge record leaves the projections as they were; what moves is the range the record updates,
+    // in the last year it reaches (past that the updated range is the outlook's own).
     if (b.observationUpdate || a.observationUpdate) {
+      const reached = updateSectionYear(a.observationUpdate, a.baselineYear)
+        ?? updateSectionYear(b.observationUpdate, b.baselineYear)
       const updated = (r: OutlookResult) => {
         const update = r.observationUpdate
         if (!update) return t('emails.whatChanged.updateNone')
-        return update.refused ? t('emails.whatChanged.updateRefused') : range(r, update.byYear)
+        if (update.refused) return t('emails.whatChanged.updateRefused')
+        const i = reached === null ? -1 : r.years.indexOf(reached)
+        if (i < 0 || update.byYear[i]!.carried === 0) return t('emails.whatChanged.updateOutOfReach')
+        return range(r, update.byYear, reached!)
       }
-      updatedRanges.push({ scenario, year, before: updated(b), after: updated(a) })
+      updatedRanges.push({ scenario, year: reached ?? year, before: updated(b), after: updated(a) })
     }
     for (const ref of after.releaseRefs) {
       const was = before.releaseRefs.find(r => r.component === ref.component)

@@ -18,6 +18,7 @@ interface Listed { id: string, scenario: string, state: string, seed: number, sa
 interface MailboxMessage { to: string[], subject: string, text: string }
 
 const WATCHER = 'harbour-watcher@example.org'
+const SLIPWAY_WATCHER = 'slipway-watcher@example.org'
 
 /** Annual means 1981–2025 rising 4 mm/yr through 1.20 m in 2020 above the datum, with a small wobble. */
 const RECORD = `year,height\n${Array.from({ length: 45 }, (_, i) => 1981 + i)
@@ -28,6 +29,18 @@ const outlooksOfSite = async () => (await planner.get(`/api/sites/${siteId}/outl
 const mailbox = async () => (await operator.get('/api/admin/mailbox')).body as MailboxMessage[]
 const changeMails = async () => (await mailbox()).filter(m => m.to.includes(WATCHER) && /has changed/.test(m.subject))
 
+/** `email` watches the site, confirmed through the link its mail carries. */
+async function watch(email: string, site: string) {
+  expect((await planner.post('/api/watches', { email, siteId: site })).status).toBeLessThan(300)
+  const confirmation = await vi.waitFor(async () => {
+    const found = (await mailbox()).find(m => m.to.includes(email))
+    if (!found) throw new Error('not sent yet')
+    return found
+  }, { timeout: 20_000, interval: 100 })
+  const token = confirmation.text.match(/\/watches\/confirm\?token=([\w-]+)/)![1]
+  expect((await new ApiClient(server.url).post('/api/watches/confirm', { token })).status).toBe(200)
+}
+
 beforeAll(async () => {
   server = await startServer({ JOBS_POLL_MS: '100', MAIL_POLL_MS: '100' })
   operator = await ApiClient.signedIn(server.url, OPERATOR.email, OPERATOR.password)
@@ -36,14 +49,7 @@ beforeAll(async () => {
   const outlook = await planner.post(`/api/sites/${siteId}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 7 })
   expect(outlook.status).toBe(201)
   firstOutlookId = outlook.body.id
-  expect((await planner.post('/api/watches', { email: WATCHER, siteId })).status).toBeLessThan(300)
-  const confirmation = await vi.waitFor(async () => {
-    const found = (await mailbox()).find(m => m.to.includes(WATCHER))
-    if (!found) throw new Error('not sent yet')
-    return found
-  }, { timeout: 20_000, interval: 100 })
-  const token = confirmation.text.match(/\/watches\/confirm\?token=([\w-]+)/)![1]
-  expect((await new ApiClient(server.url).post('/api/watches/confirm', { token })).status).toBe(200)
+  await watch(WATCHER, siteId)
   await workSettled(server.url)
 })
 
@@ -77,10 +83,14 @@ describe('a gauge record upload brings the site\'s outlooks up to date', () => {
       'Version 1 of the tide-gauge record of Lowmere was uploaded. The projections themselves are unchanged; '
       + 'the outlooks updated by the observed record now rest on this version.',
     )
-    // The updated range is new: the outlook before had no record to be weighted by.
+    // The updated range is new: the outlook before had no record to be weighted by. An update is given in
+    // 2030, the last output year a record of 2020–2025 reaches (as long after it as it spans); a refused
+    // one in the year the other ranges are given.
     expect(mail!.text).toContain('Rise updated by the tide-gauge record: middle estimate (likely range)')
-    const now = outlook.result.observationUpdate.refused ? 'not given \\(too few effective samples\\)' : '-?\\d'
-    expect(mail!.text).toMatch(new RegExp(`SSP2-4\\.5 {2}\\| {2}2\\d{3} {2}\\| {2}no update {2}\\| {2}${now}`))
+    const refused = outlook.result.observationUpdate.refused
+    const now = refused ? 'not given \\(too few effective samples\\)' : '-?\\d'
+    const year = refused ? '2100' : '2030'
+    expect(mail!.text).toMatch(new RegExp(`SSP2-4\\.5 {2}\\| {2}${year} {2}\\| {2}no update {2}\\| {2}${now}`))
   })
 
   it('leaves the outlooks alone, and mails no one, when the same record is uploaded again', async () => {
@@ -127,6 +137,7 @@ describe('a gauge record upload brings the site\'s outlooks up to date', () => {
     const site = created.body.id as string
     const outlook = await planner.post(`/api/sites/${site}/outlooks`, { scenario: 'SSP2-4.5', samples: 20_000, seed: 7 })
     expect(outlook.status).toBe(201)
+    await watch(SLIPWAY_WATCHER, site)
     await workSettled(server.url)
     // Weather-sized noise (about a centimetre) so the trajectories' weights are spread enough for an update.
     const noisy = (rate: number) => `year,height\n${Array.from({ length: 45 }, (_, i) => 1981 + i).map((year) => {
@@ -165,5 +176,14 @@ describe('a gauge record upload brings the site\'s outlooks up to date', () => {
       return found
     }, { timeout: 20_000, interval: 100 })
     expect(stale.text).toMatch(/by 2030 updated by the tide-gauge record: [\d.]+\s% now, [\d.]+\s% in this briefing\./)
+    // The watcher is told the range the record updates in 2030 too, before and after, not 2100's (which
+    // is the outlook's own, the record out of its reach there).
+    const changed = await vi.waitFor(async () => {
+      const found = (await mailbox()).find(m => m.to.includes(SLIPWAY_WATCHER) && /Version 2 of the tide-gauge/.test(m.text))
+      if (!found) throw new Error('not sent yet')
+      return found
+    }, { timeout: 20_000, interval: 100 })
+    const range = '\\d\\.\\d+ m \\(\\d\\.\\d+ m–\\d\\.\\d+ m\\)'
+    expect(changed.text).toMatch(new RegExp(`SSP2-4\\.5 {2}\\| {2}2030 {2}\\| {2}${range} {2}\\| {2}${range}`))
   })
 })
