@@ -30,7 +30,7 @@ function percentile(year: { percentiles: { level: number, value: number }[] }, l
 function readAhead(update: ObservationUpdate & { refused: false }, language: Language): string {
   const t = translator(language)
   const { fullUntil, noneFrom } = update.reach
-  if (noneFrom === null) return t('observationDocument.reachWhole', { last: Math.floor(fullUntil) })
+  if (noneFrom === null) return t('observationDocument.reachWhole')
   return t('observationDocument.reach', { last: Math.floor(fullUntil), none: Math.ceil(noneFrom) })
 }
 
