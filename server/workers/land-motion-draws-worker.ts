@@ -1,5 +1,6 @@
 import { parentPort, workerData } from 'node:worker_threads'
 import { CsvError, type CsvIssue } from '../../shared/releases/csv'
+import type { CheckReply } from '../utils/checking-thread'
 import {
   parseLandMotionDrawsCsv,
   summariseLandDraws,
@@ -13,12 +14,11 @@ import {
 
 export interface LandMotionDrawsWork { csv: string }
 
-export interface LandMotionDrawsReply {
+export interface LandMotionDrawsReply extends CheckReply {
   /** The rates in draw order (index 0 is draw 1), as a JSON array. */
   drawsJson?: string
   summary?: LandDrawsSummary
   issues?: CsvIssue[]
-  error?: string
 }
 
 const { csv } = workerData as LandMotionDrawsWork

@@ -4,7 +4,7 @@ import { beyondRange, formatChance } from '../wording/chance'
 import { translator, type Language } from '../wording/translate'
 import type { BriefingSource } from './document'
 import { sayChance } from './findings'
-import { updateSectionYear } from '../observations/update-year'
+import { readAheadYears, updateSectionYear } from '../observations/update-year'
 
 // The briefing's section on the outlook updated by the site's gauge record (when the outlook was
 // weighted by one): what changed for the likely range, the chances and the trigger years, then the
@@ -29,9 +29,8 @@ function percentile(year: { percentiles: { level: number, value: number }[] }, l
  */
 function readAhead(update: ObservationUpdate & { refused: false }, language: Language): string {
   const t = translator(language)
-  const { fullUntil, noneFrom } = update.reach
-  if (noneFrom === null) return t('observationDocument.reachWhole')
-  return t('observationDocument.reach', { last: Math.floor(fullUntil), none: Math.ceil(noneFrom) })
+  const { last, none } = readAheadYears(update)
+  return none === null ? t('observationDocument.reachWhole') : t('observationDocument.reach', { last, none })
 }
 
 /** The section for the briefing's own outlook, or null when it was not weighted by a record. */

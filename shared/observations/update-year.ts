@@ -17,3 +17,12 @@ export function updateSectionYear(update: ObservationUpdate | undefined, baselin
   const byCentury = reached.filter(year => year <= 2100)
   return byCentury.length ? Math.max(...byCentury) : Math.max(...reached)
 }
+
+/**
+ * The years the reach sentence names: the last the record is read in full (its last value's year) and
+ * the first it is not read at all; `none` is null when the record is read to every year.
+ */
+export function readAheadYears(update: ObservationUpdate & { refused: false }): { last: number, none: number | null } {
+  const { fullUntil, noneFrom } = update.reach
+  return { last: Math.floor(fullUntil), none: noneFrom === null ? null : Math.ceil(noneFrom) }
+}

@@ -51,6 +51,10 @@ describe('a site\'s tide-gauge record', () => {
     expect(await page.getByTestId('observation-update-refused').count()).toBe(0)
     // Six gauge years since the 2020 epoch (2020–2025) weigh the trajectories; the effective size is said.
     expect(plain(await update.textContent())).toMatch(/6 values from 2020 to 2025.*effective sample size/)
+    // Read only as far ahead as it spans: the numbers beside the outlook's are for 2030, not 2100.
+    expect(plain(await page.getByTestId('observation-update-reach').textContent()))
+      .toMatch(/read in full to 2025, less each year after, and not at all from 2031/)
+    expect(plain(await update.locator('thead').textContent())).toContain('In 2030')
     const ranges = await page.getByTestId('observation-update-range').allTextContents()
     expect(ranges.length).toBeGreaterThan(0)
     for (const range of ranges) expect(plain(range)).toMatch(/^[\d.]+ m to [\d.]+ m$/)
